@@ -1,0 +1,8 @@
+import type { NextConfig } from "next";
+
+const nextConfig: NextConfig = {
+  serverExternalPackages: ["pg"],
+  poweredByHeader: false,
+};
+
+export default nextConfig;
