@@ -1,0 +1,49 @@
+import type { Metadata } from "next";
+import Image from "next/image";
+import Link from "next/link";
+import "./globals.css";
+import { mono, sans } from "./fonts";
+
+export const metadata: Metadata = {
+  title: { default: "Jointproof", template: "%s · Jointproof" },
+  description: "Plan joint moves for small robot arms and prove them against the arm's limits before the arm moves.",
+};
+
+export default function RootLayout({ children }: { children: React.ReactNode }) {
+  return (
+    <html lang="en" className={`${sans.variable} ${mono.variable}`}>
+      <body className="flex min-h-screen flex-col antialiased">
+        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-panel focus:px-3 focus:py-2">
+          Skip to content
+        </a>
+        <header className="border-b border-line bg-panel">
+          <nav aria-label="Main" className="mx-auto flex h-14 max-w-6xl items-center gap-6 px-6">
+            <Link href="/" className="flex items-center gap-2 font-semibold tracking-tight text-brand-700">
+              <Image src="/icon.svg" alt="" width={22} height={22} unoptimized />
+              Jointproof
+            </Link>
+            <div className="flex flex-1 items-center gap-5 text-sm text-ink-soft">
+              <Link href="/projects" className="hover:text-ink">Projects</Link>
+              <Link href="/api-docs" className="hover:text-ink">API</Link>
+            </div>
+            <Link href="/sign-in" className="text-sm font-medium text-brand-600 hover:text-brand-700">
+              Sign in
+            </Link>
+          </nav>
+        </header>
+        <main id="main" className="flex-1">{children}</main>
+        <footer className="border-t border-line bg-panel text-sm text-ink-soft">
+          <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-3 px-6 py-4">
+            <p>
+              A passing check is a prediction, not a guarantee.{" "}
+              <Link href="/safety" className="font-medium text-copper-600 underline underline-offset-2">
+                Safety before you run a plan
+              </Link>
+            </p>
+            <p className="text-ink-faint">Jointproof</p>
+          </div>
+        </footer>
+      </body>
+    </html>
+  );
+}

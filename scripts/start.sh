@@ -1,0 +1,47 @@
+#!/usr/bin/env bash
+# `npm start`: set everything up on this machine and serve Jointproof on http://127.0.0.1:3000.
+# Idempotent: a second run keeps every saved row. Ctrl-C stops the server, the fakes and the cluster.
+source "$(dirname "$0")/lib.sh"
+
+APP_PORT="${PORT:-3000}"
+mkdir -p .data
+
+ensure_deps
+load_secrets
+
+PIDS=()
+cleanup() {
+  trap - EXIT INT TERM
+  local pid
+  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
+  for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+  pg_stop_cluster
+  log "stopped"
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+if [ -z "${DATABASE_URL:-}" ]; then
+  pg_start_cluster postgres 54329
+  pg_ensure_db jointproof
+  export DATABASE_URL="postgres://postgres@127.0.0.1:54329/jointproof"
+else
+  log "using DATABASE_URL from the environment"
+fi
+
+node_modules/.bin/tsx scripts/migrate.ts
+node_modules/.bin/tsx db/seed.ts | tee .data/signins.txt
+
+export S3_PORT="${S3_PORT:-54330}" JP_FAKES_DIR="${JP_FAKES_DIR:-$ROOT/.data/fakes}"
+start_fakes
+
+build_if_stale
+
+export NODE_ENV=production APP_URL="${APP_URL:-http://127.0.0.1:$APP_PORT}" NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$APP_PORT}"
+node_modules/.bin/next start -H 127.0.0.1 -p "$APP_PORT" >.data/server.log 2>&1 &
+PIDS+=($!)
+wait_for_http "http://127.0.0.1:$APP_PORT/api/health" 60 || { tail -30 .data/server.log >&2; die "the web server did not come up; see .data/server.log"; }
+
+log "Jointproof is running at http://127.0.0.1:$APP_PORT  (Ctrl-C stops it)"
+log "server log: .data/server.log"
+wait "${PIDS[-1]}"

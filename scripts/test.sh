@@ -1,0 +1,78 @@
+#!/usr/bin/env bash
+# `npm test`: the same set-up as `npm start`, against a separate cluster and a fresh test
+# database, then every check: type-check, lint, unit + integration tests, build, browser tests.
+# Prints each runner's summary, then one closing line; exits non-zero on any failure.
+source "$(dirname "$0")/lib.sh"
+
+mkdir -p .data/test && rm -f .data/test/*.json
+ensure_deps
+load_secrets
+
+PIDS=()
+cleanup() {
+  trap - EXIT INT TERM
+  local pid
+  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
+  for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+  pg_stop_cluster
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+if [ -n "${TEST_DATABASE_URL:-}" ]; then
+  export DATABASE_URL="$TEST_DATABASE_URL"
+  log "using TEST_DATABASE_URL from the environment"
+else
+  # Its own cluster and port: tests never touch the demo data of `npm start`.
+  pg_start_cluster postgres-test 54339
+  pg_recreate_db jointproof_test
+  export DATABASE_URL="postgres://postgres@127.0.0.1:54339/jointproof_test"
+fi
+node_modules/.bin/tsx scripts/migrate.ts
+node_modules/.bin/tsx db/seed.ts >.data/test/seed.log
+
+export S3_PORT=54340 JP_FAKES_DIR="$ROOT/.data/test/fakes"
+rm -rf "$JP_FAKES_DIR"
+start_fakes
+export NODE_ENV=test
+
+FAILED=()
+step() {
+  local name="$1"; shift
+  log "── $name"
+  if "$@"; then log "$name: ok"; else log "$name: FAILED"; FAILED+=("$name"); fi
+}
+
+# `npm test -- ARGS`: only the matching Vitest tests (unit/integration, or browser tests when
+# an argument names tests/e2e), after the same set-up.
+if [ $# -gt 0 ]; then
+  if printf '%s\n' "$@" | grep -q 'e2e'; then
+    ensure_chromium
+    NODE_ENV=production build_if_stale
+    export JP_TEST_PORT=3100
+    node_modules/.bin/vitest run --config vitest.e2e.config.ts "$@"
+  else
+    node_modules/.bin/vitest run "$@"
+  fi
+  exit $?
+fi
+
+step "type-check" node_modules/.bin/tsc --noEmit --pretty false
+step "lint" node_modules/.bin/eslint . --max-warnings=0
+step "unit and integration tests" node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json=.data/test/vitest.json
+
+# Browser tests need the production build and Debian's Chromium.
+ensure_chromium
+if NODE_ENV=production build_if_stale; then
+  export JP_TEST_PORT=3100
+  step "browser tests" node_modules/.bin/vitest run --config vitest.e2e.config.ts --reporter=default --reporter=json --outputFile.json=.data/test/e2e.json
+else
+  FAILED+=("build")
+fi
+
+node scripts/summary.mjs .data/test/vitest.json .data/test/e2e.json
+if [ ${#FAILED[@]} -gt 0 ]; then
+  log "FAILED: ${FAILED[*]}"
+  exit 1
+fi
+log "all checks passed"

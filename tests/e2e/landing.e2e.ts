@@ -1,0 +1,29 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { openBrowser, screenshotDir, type BrowserSession } from "./browser";
+
+describe("landing page", () => {
+  let s: BrowserSession;
+  beforeAll(async () => {
+    s = await openBrowser();
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it("shows the product name, the pitch and a sign-in link, without console errors", async () => {
+    const res = await s.page.goto("/");
+    expect(res?.status()).toBe(200);
+    await expect(s.page.locator("h1").textContent()).resolves.toContain("Jointproof");
+    const signIn = s.page.getByRole("link", { name: /sign in/i }).first();
+    await expect(signIn.getAttribute("href")).resolves.toBe("/sign-in");
+    await s.page.screenshot({ path: `${screenshotDir}/landing.png`, fullPage: true });
+    expect(s.errors).toEqual([]);
+  });
+
+  it("links the safety caution from the footer", async () => {
+    await s.page.goto("/");
+    await s.page.getByRole("link", { name: /safety/i }).last().click();
+    await s.page.waitForURL("**/safety");
+    await expect(s.page.locator("h1").textContent()).resolves.toMatch(/safety/i);
+  });
+});
