@@ -43,5 +43,9 @@ PIDS+=($!)
 wait_for_http "http://127.0.0.1:$APP_PORT/api/health" 60 || { tail -30 .data/server.log >&2; die "the web server did not come up; see .data/server.log"; }
 
 log "Jointproof is running at http://127.0.0.1:$APP_PORT  (Ctrl-C stops it)"
+if grep -q ' / ' .data/signins.txt 2>/dev/null; then
+  log "demo sign-ins (e-mail / password):"
+  grep ' / ' .data/signins.txt >&2
+fi
 log "server log: .data/server.log"
 wait "${PIDS[-1]}"
