@@ -24,14 +24,15 @@ if [ -n "${TEST_DATABASE_URL:-}" ]; then
   log "using TEST_DATABASE_URL from the environment"
 else
   # Its own cluster and port: tests never touch the demo data of `npm start`.
-  pg_start_cluster postgres-test 54339
+  TEST_PG_PORT="${JP_TEST_PG_PORT:-54339}"
+  pg_start_cluster postgres-test "$TEST_PG_PORT"
   pg_recreate_db jointproof_test
-  export DATABASE_URL="postgres://postgres@127.0.0.1:54339/jointproof_test"
+  export DATABASE_URL="postgres://postgres@127.0.0.1:$TEST_PG_PORT/jointproof_test"
 fi
 node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx db/seed.ts >.data/test/seed.log
 
-export S3_PORT=54340 JP_FAKES_DIR="$ROOT/.data/test/fakes"
+export S3_PORT="${JP_TEST_S3_PORT:-54340}" JP_FAKES_DIR="$ROOT/.data/test/fakes"
 rm -rf "$JP_FAKES_DIR"
 start_fakes
 export NODE_ENV=test
@@ -49,7 +50,7 @@ if [ $# -gt 0 ]; then
   if printf '%s\n' "$@" | grep -q 'e2e'; then
     ensure_chromium
     NODE_ENV=production build_if_stale
-    export JP_TEST_PORT=3100
+    export JP_TEST_PORT="${JP_TEST_PORT:-3100}"
     node_modules/.bin/vitest run --config vitest.e2e.config.ts "$@"
   else
     node_modules/.bin/vitest run "$@"
@@ -64,7 +65,7 @@ step "unit and integration tests" node_modules/.bin/vitest run --reporter=defaul
 # Browser tests need the production build and Debian's Chromium.
 ensure_chromium
 if NODE_ENV=production build_if_stale; then
-  export JP_TEST_PORT=3100
+  export JP_TEST_PORT="${JP_TEST_PORT:-3100}"
   step "browser tests" node_modules/.bin/vitest run --config vitest.e2e.config.ts --reporter=default --reporter=json --outputFile.json=.data/test/e2e.json
 else
   FAILED+=("build")
