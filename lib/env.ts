@@ -11,6 +11,18 @@ const envSchema = z.object({
   NEXTAUTH_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
   /** The public base URL of the app, used in links (e-mail, exports). */
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
+  /** Largest JSON request body the API reads, in bytes. */
+  API_BODY_LIMIT_BYTES: z.coerce.number().int().positive().default(1_048_576),
+  /** Largest upload (recording, URDF file) the API accepts, in bytes; checked before the body is read whole. */
+  UPLOAD_LIMIT_BYTES: z.coerce.number().int().positive().default(50 * 1_048_576),
+  /** S3-compatible object storage for uploads. `npm start` and `npm test` point these at the local fake (scripts/fakes.ts). */
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(3).default("jointproof"),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** Path-style URLs (`endpoint/bucket/key`), which local fakes and most S3-compatible services need. */
+  S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
 });
 
 export type Env = z.infer<typeof envSchema>;

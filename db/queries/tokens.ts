@@ -1,0 +1,71 @@
+import "server-only";
+import { and, desc, eq, gt, isNull, or } from "drizzle-orm";
+import { db } from "@/db";
+import { apiTokens, users, type SiteRole } from "@/db/schema";
+
+export type TokenListItem = {
+  id: string;
+  name: string;
+  prefix: string;
+  createdAt: Date;
+  lastUsedAt: Date | null;
+  expiresAt: Date | null;
+  revokedAt: Date | null;
+};
+const listColumns = {
+  id: apiTokens.id,
+  name: apiTokens.name,
+  prefix: apiTokens.prefix,
+  createdAt: apiTokens.createdAt,
+  lastUsedAt: apiTokens.lastUsedAt,
+  expiresAt: apiTokens.expiresAt,
+  revokedAt: apiTokens.revokedAt,
+};
+
+export async function createApiToken(input: {
+  userId: string;
+  name: string;
+  tokenHash: string;
+  prefix: string;
+  expiresAt: Date | null;
+}): Promise<TokenListItem> {
+  const [row] = await db.insert(apiTokens).values(input).returning(listColumns);
+  return row;
+}
+
+export async function listApiTokens({ userId }: { userId: string }): Promise<TokenListItem[]> {
+  return db.select(listColumns).from(apiTokens).where(eq(apiTokens.userId, userId)).orderBy(desc(apiTokens.createdAt));
+}
+
+/** Revokes one of the user's own tokens; undefined when it is not theirs or does not exist. */
+export async function revokeApiToken({ id, userId }: { id: string; userId: string }): Promise<TokenListItem | undefined> {
+  const [row] = await db
+    .update(apiTokens)
+    .set({ revokedAt: new Date() })
+    .where(and(eq(apiTokens.id, id), eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)))
+    .returning(listColumns);
+  return row;
+}
+
+/** The owner of a live token (not revoked, not expired, owner not disabled), and marks it used. */
+export async function getTokenOwner({
+  tokenHash,
+}: {
+  tokenHash: string;
+}): Promise<{ tokenId: string; userId: string; siteRole: SiteRole } | undefined> {
+  const now = new Date();
+  const [row] = await db
+    .select({ tokenId: apiTokens.id, userId: users.id, siteRole: users.siteRole })
+    .from(apiTokens)
+    .innerJoin(users, eq(users.id, apiTokens.userId))
+    .where(
+      and(
+        eq(apiTokens.tokenHash, tokenHash),
+        isNull(apiTokens.revokedAt),
+        or(isNull(apiTokens.expiresAt), gt(apiTokens.expiresAt, now)),
+        isNull(users.disabledAt),
+      ),
+    );
+  if (row) await db.update(apiTokens).set({ lastUsedAt: now }).where(eq(apiTokens.id, row.tokenId));
+  return row;
+}

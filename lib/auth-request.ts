@@ -1,0 +1,61 @@
+/**
+ * Who is calling a route handler: an API token holder (`Authorization: Bearer`, RFC 6750)
+ * or a signed-in user (the next-auth session cookie). The user is re-read from PostgreSQL on
+ * every request, so a disabled account, a changed role or a revoked token takes effect at once.
+ */
+import { decode } from "next-auth/jwt";
+import { getTokenOwner } from "@/db/queries/tokens";
+import { getActiveUserById } from "@/db/queries/users";
+import { sessionCookieName, sessionSecret } from "./auth";
+import { AppError } from "./errors";
+import type { Actor } from "./permissions";
+import { assertSameOrigin } from "./security";
+import { bearerToken, hashToken } from "./tokens";
+
+function readCookie(header: string | null, name: string): string | null {
+  if (!header) return null;
+  for (const part of header.split(";")) {
+    const eq = part.indexOf("=");
+    if (eq < 0) continue;
+    if (part.slice(0, eq).trim() === name) return decodeURIComponent(part.slice(eq + 1).trim());
+  }
+  return null;
+}
+
+/** The actor behind a request, or null when it carries no valid credentials. */
+export async function authenticate(request: Request): Promise<Actor | null> {
+  const authorization = request.headers.get("authorization");
+  if (authorization !== null) {
+    const token = bearerToken(authorization);
+    if (!token) return null;
+    const owner = await getTokenOwner({ tokenHash: hashToken(token) });
+    return owner ? { userId: owner.userId, siteRole: owner.siteRole, via: "token", tokenId: owner.tokenId } : null;
+  }
+  const secret = sessionSecret();
+  const cookie = readCookie(request.headers.get("cookie"), sessionCookieName());
+  if (!secret || !cookie) return null;
+  let sub: string | undefined;
+  try {
+    const jwt = await decode({ token: cookie, secret });
+    sub = typeof jwt?.sub === "string" ? jwt.sub : undefined;
+  } catch {
+    return null;
+  }
+  if (!sub || !/^[0-9a-f-]{36}$/i.test(sub)) return null;
+  const user = await getActiveUserById({ id: sub });
+  return user ? { userId: user.id, siteRole: user.siteRole, via: "session" } : null;
+}
+
+/**
+ * The actor, or a 401. For a cookie session on a state-changing method, also the same-origin
+ * check (tokens are not sent by browsers on their own, so they need none).
+ */
+export async function requireActor(request: Request): Promise<Actor> {
+  const actor = await authenticate(request);
+  if (!actor) {
+    const hadBearer = request.headers.has("authorization");
+    throw new AppError("unauthorized", hadBearer ? "The API token is not valid, has expired or was revoked." : undefined);
+  }
+  if (actor.via === "session") assertSameOrigin(request);
+  return actor;
+}

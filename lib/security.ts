@@ -1,0 +1,67 @@
+/**
+ * Web security glue: the same-origin check for state-changing requests made with a session
+ * cookie, and the security headers (see proxy.ts). The Origin header is defined in RFC 6454 §7;
+ * Sec-Fetch-Site in the W3C Fetch Metadata Request Headers specification.
+ */
+import { env } from "./env";
+import { AppError } from "./errors";
+
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/** Origins this app is served from: the configured APP_URL and the request's own host. */
+function allowedOrigins(request: Request): Set<string> {
+  const origins = new Set([new URL(env().APP_URL).origin]);
+  try {
+    origins.add(new URL(request.url).origin);
+  } catch {
+    // A request without an absolute URL only has APP_URL to match.
+  }
+  return origins;
+}
+
+/** Throws `forbidden:origin` for a cross-site state-changing request. */
+export function assertSameOrigin(request: Request): void {
+  if (SAFE_METHODS.has(request.method.toUpperCase())) return;
+  const origin = request.headers.get("origin");
+  if (origin !== null) {
+    if (allowedOrigins(request).has(origin)) return;
+    throw new AppError("forbidden:origin", "Cross-site requests cannot change data with a session cookie.");
+  }
+  // No Origin header: accept only when the browser says the request is from this site.
+  const site = request.headers.get("sec-fetch-site");
+  if (site === "same-origin" || site === "none") return;
+  throw new AppError("forbidden:origin", "State-changing requests with a session cookie must come from this site.");
+}
+
+/**
+ * Content-Security-Policy (CSP Level 3). The 3D viewer needs WebGL (no CSP directive), blob:
+ * workers and data:/blob: images for textures; Next's inline bootstrap scripts need
+ * 'unsafe-inline' unless nonces are used, and 'unsafe-eval' only in development (React's dev tools).
+ */
+export function contentSecurityPolicy(dev: boolean): string {
+  return [
+    "default-src 'self'",
+    `script-src 'self' 'unsafe-inline'${dev ? " 'unsafe-eval'" : ""}`,
+    "style-src 'self' 'unsafe-inline'",
+    "img-src 'self' data: blob:",
+    "font-src 'self' data:",
+    `connect-src 'self'${dev ? " ws: wss:" : ""}`,
+    "worker-src 'self' blob:",
+    "object-src 'none'",
+    "base-uri 'self'",
+    "form-action 'self'",
+    "frame-ancestors 'none'",
+  ].join("; ");
+}
+
+/** The headers every response carries. */
+export function securityHeaders(dev: boolean): Record<string, string> {
+  return {
+    "Content-Security-Policy": contentSecurityPolicy(dev),
+    "Referrer-Policy": "same-origin",
+    "X-Content-Type-Options": "nosniff",
+    "X-Frame-Options": "DENY",
+    "Permissions-Policy": "camera=(), microphone=(), geolocation=(), payment=()",
+    "Cross-Origin-Opener-Policy": "same-origin",
+  };
+}
