@@ -20,7 +20,7 @@ import { signInSchema } from "./auth-schemas";
 export const SIGN_IN_LIMIT = { perEmail: 5, perIp: 30, windowMinutes: 15 } as const;
 
 /** Cookies are `secure` everywhere except on a loopback http address (local development and tests). */
-export function useSecureCookies(): boolean {
+export function secureCookies(): boolean {
   const url = new URL(env().APP_URL);
   const loopback = ["127.0.0.1", "localhost", "[::1]"].includes(url.hostname);
   return url.protocol === "https:" || !loopback;
@@ -28,7 +28,7 @@ export function useSecureCookies(): boolean {
 
 /** The session cookie's name; `__Secure-` when the cookie is secure (RFC 6265bis cookie prefixes). */
 export function sessionCookieName(): string {
-  return `${useSecureCookies() ? "__Secure-" : ""}jp.session`;
+  return `${secureCookies() ? "__Secure-" : ""}jp.session`;
 }
 
 /** The secret that signs sessions; sign-in is refused (fails closed) while it is missing. */
@@ -82,7 +82,7 @@ export function clientIp(headers: Headers | Record<string, string | string[] | u
 }
 
 export function authOptions(): NextAuthOptions {
-  const secure = useSecureCookies();
+  const secure = secureCookies();
   return {
     secret: sessionSecret(),
     session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
