@@ -1,0 +1,346 @@
+/**
+ * Clearance: how far each link's collision shapes dip below the work surface (z = 0 in the
+ * base frame, plus a margin) or into axis-aligned keep-out boxes. Shapes are spheres,
+ * capsules and boxes in their link frames; depths are in metres, positive = intrusion.
+ * The base (link 0) is mounted on the work surface, so it is checked against keep-out boxes
+ * only.
+ *
+ * @module
+ */
+import type { ArmChain, KeepOutBox } from "./arm-model";
+import { createChainBuffers, linkFrames, type ChainBuffers, type CompiledChain } from "./chain";
+import * as mat4 from "./mat4";
+
+const SPHERE = 0, CAPSULE = 1, BOX = 2;
+
+/** The chain's collision shapes in flat arrays. */
+export interface CollisionModel {
+  /** Number of shapes. */
+  readonly count: number;
+  /** Link index (0 = base) of each shape. */
+  readonly link: Uint16Array;
+  /** 0 sphere, 1 capsule, 2 box. */
+  readonly kind: Uint8Array;
+  /** Sphere centre / capsule start / box centre in the link frame, 3 per shape. */
+  readonly p1: Float64Array;
+  /** Capsule end, 3 per shape. */
+  readonly p2: Float64Array;
+  /** Sphere or capsule radius (m). */
+  readonly radius: Float64Array;
+  /** Box half extents (m), 3 per shape. */
+  readonly half: Float64Array;
+  /** Box placement in its link frame, 16 per shape. */
+  readonly local: Float64Array;
+  /** Link names, index 0 the base. */
+  readonly linkNames: readonly string[];
+}
+
+/** Where the arm must not go: the work surface and keep-out boxes. */
+export interface ClearanceZones {
+  /** Clearance kept above z = 0 (m). */
+  surfaceMarginM: number;
+  /** Box minima, 3 per box (m, base frame). */
+  boxMin: Float64Array;
+  /** Box maxima, 3 per box. */
+  boxMax: Float64Array;
+  /** Box labels for messages. */
+  boxNames: string[];
+}
+
+/** Flattens `arm.chain`'s collision shapes (link 0 = base, link i follows joint i). */
+export function compileCollision(chain: ArmChain): CollisionModel {
+  const links = [chain.base, ...chain.joints.map((j) => j.link)];
+  const shapes = links.flatMap((l, i) => l.collision.map((s) => ({ s, i })));
+  const count = shapes.length;
+  const m: CollisionModel = {
+    count,
+    link: new Uint16Array(count),
+    kind: new Uint8Array(count),
+    p1: new Float64Array(3 * count),
+    p2: new Float64Array(3 * count),
+    radius: new Float64Array(count),
+    half: new Float64Array(3 * count),
+    local: new Float64Array(16 * count),
+    linkNames: links.map((l, i) => l.name ?? (i === 0 ? "base" : `link${i}`)),
+  };
+  shapes.forEach(({ s, i }, k) => {
+    m.link[k] = i;
+    mat4.identity(m.local, 16 * k);
+    if (s.kind === "sphere") {
+      m.kind[k] = SPHERE;
+      m.p1.set(s.center, 3 * k);
+      m.radius[k] = s.radius;
+    } else if (s.kind === "capsule") {
+      m.kind[k] = CAPSULE;
+      m.p1.set(s.from, 3 * k);
+      m.p2.set(s.to, 3 * k);
+      m.radius[k] = s.radius;
+    } else {
+      m.kind[k] = BOX;
+      m.p1.set(s.center, 3 * k);
+      for (let a = 0; a < 3; a++) m.half[3 * k + a] = s.size[a] / 2;
+      mat4.fromXyzRpy(m.local, s.center, s.rpy, 16 * k);
+    }
+  });
+  return m;
+}
+
+/** Builds the zones from a plan's `surfaceMargin` (m, default 0) and `keepOut` boxes. */
+export function clearanceZones(surfaceMarginM = 0, keepOut: readonly KeepOutBox[] = []): ClearanceZones {
+  const boxMin = new Float64Array(3 * keepOut.length), boxMax = new Float64Array(3 * keepOut.length);
+  keepOut.forEach((b, i) => {
+    boxMin.set(b.min, 3 * i);
+    boxMax.set(b.max, 3 * i);
+  });
+  return { surfaceMarginM, boxMin, boxMax, boxNames: keepOut.map((b, i) => b.name ?? `keep-out box ${i}`) };
+}
+
+/**
+ * Signed distance from a point to an axis-aligned box (negative inside): the exact box SDF
+ * |max(d, 0)| + min(max(dx, dy, dz), 0) with d = |p − c| − h (derived; Ericson, Real-Time
+ * Collision Detection, 2005, §5.1.3 gives the outside part).
+ */
+export function boxSignedDistance(x: number, y: number, z: number, mn: ArrayLike<number>, mx: ArrayLike<number>, o = 0): number {
+  const dx = Math.max(mn[o] - x, x - mx[o]);
+  const dy = Math.max(mn[o + 1] - y, y - mx[o + 1]);
+  const dz = Math.max(mn[o + 2] - z, z - mx[o + 2]);
+  const outside = Math.hypot(Math.max(dx, 0), Math.max(dy, 0), Math.max(dz, 0));
+  return outside + Math.min(Math.max(dx, dy, dz), 0);
+}
+
+/**
+ * Smallest signed distance from the segment a→b to a box. The box SDF is convex, so along
+ * the segment it is a convex function of t and a golden-section search finds its minimum
+ * (derived; Press et al., Numerical Recipes, §10.2).
+ */
+export function segmentBoxSignedDistance(
+  a: ArrayLike<number>,
+  b: ArrayLike<number>,
+  mn: ArrayLike<number>,
+  mx: ArrayLike<number>,
+  o = 0,
+): number {
+  const ex = b[0] - a[0], ey = b[1] - a[1], ez = b[2] - a[2];
+  const f = (t: number) => boxSignedDistance(a[0] + t * ex, a[1] + t * ey, a[2] + t * ez, mn, mx, o);
+  const g = 0.6180339887498949; // (√5 − 1)/2
+  let lo = 0, hi = 1;
+  let x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo);
+  let f1 = f(x1), f2 = f(x2);
+  for (let it = 0; it < 40; it++) {
+    if (f1 < f2) {
+      hi = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = hi - g * (hi - lo);
+      f1 = f(x1);
+    } else {
+      lo = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = lo + g * (hi - lo);
+      f2 = f(x2);
+    }
+  }
+  return Math.min(f1, f2, f(0), f(1));
+}
+
+/**
+ * Penetration depth of an oriented box (world matrix `w` at `wo`, half extents `h`) into an
+ * axis-aligned box, by the separating-axis test over the 15 candidate axes (Ericson,
+ * Real-Time Collision Detection, 2005, §4.4.1): the smallest overlap, negative when apart.
+ */
+export function orientedBoxIntrusion(
+  w: ArrayLike<number>,
+  wo: number,
+  h: ArrayLike<number>,
+  ho: number,
+  mn: ArrayLike<number>,
+  mx: ArrayLike<number>,
+  o = 0,
+): number {
+  const ux = [w[wo], w[wo + 1], w[wo + 2]], uy = [w[wo + 4], w[wo + 5], w[wo + 6]], uz = [w[wo + 8], w[wo + 9], w[wo + 10]];
+  const u = [ux, uy, uz];
+  const bc = [(mn[o] + mx[o]) / 2, (mn[o + 1] + mx[o + 1]) / 2, (mn[o + 2] + mx[o + 2]) / 2];
+  const bh = [(mx[o] - mn[o]) / 2, (mx[o + 1] - mn[o + 1]) / 2, (mx[o + 2] - mn[o + 2]) / 2];
+  const d = [w[wo + 12] - bc[0], w[wo + 13] - bc[1], w[wo + 14] - bc[2]];
+  let best = Infinity;
+  const test = (lx: number, ly: number, lz: number) => {
+    const len = Math.hypot(lx, ly, lz);
+    if (len < 1e-9) return; // parallel edges give no new axis
+    lx /= len;
+    ly /= len;
+    lz /= len;
+    // Projected radii: box A (oriented) Σ hᵢ|uᵢ·L|, box B (axis-aligned) Σ bhᵢ|Lᵢ|.
+    const ra = h[ho] * Math.abs(ux[0] * lx + ux[1] * ly + ux[2] * lz) + h[ho + 1] * Math.abs(uy[0] * lx + uy[1] * ly + uy[2] * lz) + h[ho + 2] * Math.abs(uz[0] * lx + uz[1] * ly + uz[2] * lz);
+    const rb = bh[0] * Math.abs(lx) + bh[1] * Math.abs(ly) + bh[2] * Math.abs(lz);
+    const overlap = ra + rb - Math.abs(d[0] * lx + d[1] * ly + d[2] * lz);
+    if (overlap < best) best = overlap;
+  };
+  test(1, 0, 0);
+  test(0, 1, 0);
+  test(0, 0, 1);
+  for (const a of u) test(a[0], a[1], a[2]);
+  for (let e = 0; e < 3; e++)
+    for (const a of u) {
+      // Cross product of world axis e with box axis a.
+      const ex = e === 0 ? 1 : 0, ey = e === 1 ? 1 : 0, ez = e === 2 ? 1 : 0;
+      test(ey * a[2] - ez * a[1], ez * a[0] - ex * a[2], ex * a[1] - ey * a[0]);
+    }
+  return best;
+}
+
+/** Scratch for {@link shapeIntrusions}; allocate once. */
+export interface ClearanceScratch {
+  readonly a: Float64Array;
+  readonly b: Float64Array;
+  readonly world: Float64Array;
+}
+
+/** Allocates the scratch of {@link shapeIntrusions}. */
+export function createClearanceScratch(): ClearanceScratch {
+  return { a: new Float64Array(3), b: new Float64Array(3), world: new Float64Array(16) };
+}
+
+/**
+ * Intrusion depth (m, positive = intrusion, negative = clearance) of every shape into every
+ * zone for link frames already computed by FK. Writes `count × (1 + boxes)` values into
+ * `out`: for shape s, `out[s·(1+B)]` is the work surface, `out[s·(1+B) + 1 + k]` box k.
+ * The surface entry of base shapes is −Infinity (the base stands on the surface).
+ */
+export function shapeIntrusions(
+  model: CollisionModel,
+  zones: ClearanceZones,
+  frames: Float64Array,
+  out: Float64Array,
+  scratch: ClearanceScratch,
+): Float64Array {
+  const boxes = zones.boxMin.length / 3;
+  const stride = 1 + boxes;
+  const { a, b, world } = scratch;
+  for (let s = 0; s < model.count; s++) {
+    const fo = 16 * model.link[s];
+    const kind = model.kind[s];
+    const base = s * stride;
+    if (kind === BOX) {
+      mat4.multiply(world, frames, model.local, 0, fo, 16 * s);
+      // Lowest corner: c_z − Σₖ hₖ·|R[2,k]| (support point of a box, derived).
+      const h = model.half;
+      const low = world[14] - h[3 * s] * Math.abs(world[2]) - h[3 * s + 1] * Math.abs(world[6]) - h[3 * s + 2] * Math.abs(world[10]);
+      out[base] = model.link[s] === 0 ? -Infinity : zones.surfaceMarginM - low;
+      for (let k = 0; k < boxes; k++) out[base + 1 + k] = orientedBoxIntrusion(world, 0, h, 3 * s, zones.boxMin, zones.boxMax, 3 * k);
+      continue;
+    }
+    mat4.transformPoint(a, frames, model.p1, 0, fo, 3 * s);
+    const r = model.radius[s];
+    if (kind === SPHERE) {
+      out[base] = model.link[s] === 0 ? -Infinity : zones.surfaceMarginM - (a[2] - r);
+      for (let k = 0; k < boxes; k++) out[base + 1 + k] = r - boxSignedDistance(a[0], a[1], a[2], zones.boxMin, zones.boxMax, 3 * k);
+    } else {
+      mat4.transformPoint(b, frames, model.p2, 0, fo, 3 * s);
+      out[base] = model.link[s] === 0 ? -Infinity : zones.surfaceMarginM - (Math.min(a[2], b[2]) - r);
+      for (let k = 0; k < boxes; k++) {
+        const o = 3 * k;
+        // Quick reject: the capsule's bounding box does not reach the keep-out box.
+        let apart = false;
+        for (let ax = 0; ax < 3 && !apart; ax++) {
+          const lo = Math.min(a[ax], b[ax]) - r, hi = Math.max(a[ax], b[ax]) + r;
+          if (hi < zones.boxMin[o + ax] || lo > zones.boxMax[o + ax]) apart = true;
+        }
+        out[base + 1 + k] = apart ? -r : r - segmentBoxSignedDistance(a, b, zones.boxMin, zones.boxMax, o);
+      }
+    }
+  }
+  return out;
+}
+
+/** The worst intrusion of one link into one zone over a sampled move. */
+export interface Intrusion {
+  /** Link index (0 = base). */
+  link: number;
+  /** Link name. */
+  linkName: string;
+  /** -1 for the work surface, else the keep-out box index. */
+  zone: number;
+  /** "the work surface" or the box's name. */
+  zoneName: string;
+  /** Deepest intrusion (m). */
+  depthM: number;
+  /** Time of the deepest intrusion from the move's start (s). */
+  timeS: number;
+  /** First and last sampled times with an intrusion (s). */
+  firstTimeS: number;
+  lastTimeS: number;
+}
+
+/** Reusable state for {@link scanClearance}. */
+export interface ClearanceScanner {
+  readonly chain: CompiledChain;
+  readonly model: CollisionModel;
+  readonly zones: ClearanceZones;
+  readonly buffers: ChainBuffers;
+  readonly scratch: ClearanceScratch;
+  readonly depths: Float64Array;
+}
+
+/** Allocates a scanner for one chain and zone set. */
+export function createClearanceScanner(chain: CompiledChain, model: CollisionModel, zones: ClearanceZones): ClearanceScanner {
+  const boxes = zones.boxMin.length / 3;
+  return {
+    chain,
+    model,
+    zones,
+    buffers: createChainBuffers(chain),
+    scratch: createClearanceScratch(),
+    depths: new Float64Array(model.count * (1 + boxes)),
+  };
+}
+
+/**
+ * Scans sampled poses (`positions`, `stride` values per sample, chain joints first) at
+ * `times` (s) and returns, per link and zone, the deepest intrusion with its time. Only
+ * intrusions deeper than `toleranceM` (default 1e-9 m) count.
+ */
+export function scanClearance(
+  scanner: ClearanceScanner,
+  positions: Float64Array,
+  stride: number,
+  times: ArrayLike<number>,
+  count: number,
+  toleranceM = 1e-9,
+): Intrusion[] {
+  const { chain, model, zones, buffers, scratch, depths } = scanner;
+  const zonesPer = 1 + zones.boxMin.length / 3;
+  const found = new Map<number, Intrusion>();
+  for (let k = 0; k < count; k++) {
+    linkFrames(chain, positions, buffers.frames, buffers.motion, k * stride);
+    shapeIntrusions(model, zones, buffers.frames, depths, scratch);
+    for (let s = 0; s < model.count; s++) {
+      for (let z = 0; z < zonesPer; z++) {
+        const d = depths[s * zonesPer + z];
+        if (!(d > toleranceM)) continue;
+        const key = model.link[s] * zonesPer + z;
+        const t = times[k];
+        const hit = found.get(key);
+        if (!hit) {
+          found.set(key, {
+            link: model.link[s],
+            linkName: model.linkNames[model.link[s]],
+            zone: z - 1,
+            zoneName: z === 0 ? "the work surface" : zones.boxNames[z - 1],
+            depthM: d,
+            timeS: t,
+            firstTimeS: t,
+            lastTimeS: t,
+          });
+        } else {
+          if (d > hit.depthM) {
+            hit.depthM = d;
+            hit.timeS = t;
+          }
+          hit.lastTimeS = t;
+        }
+      }
+    }
+  }
+  return [...found.values()].sort((p, q) => q.depthM - p.depthM);
+}
