@@ -131,7 +131,8 @@ export const checkSpeed: MoveChecker = (context, out) => {
         severity === "fault" ? "the controller will stop with a jump-too-far fault" : "the controller will accept it, close to its jump limit";
       message =
         `${label}: a step of ${formatQuantity(Math.abs(delta[j]), joint, "step")} in one ${formatNumberMs(periodMs)} control period needs ` +
-        `${formatQuantity(value, joint, "velocity")}, ${level} (at most ${formatQuantity(stepLimit, joint, "step")} per period); ${outcome}. ` +
+        `${formatQuantity(value, joint, "velocity")}, ${level}, which allows at most ${formatQuantity(stepLimit, joint, "step")} per period; ` +
+        `${outcome}. ` +
         (severity === "fault"
           ? `Give the move a duration of at least ${formatDurationUp(minSafe.durationS)} with its ${move.shape} shape, ` +
             `or ${formatDurationUp(minCalm.durationS)} to stay below ${formatPercent(arm.cautionRatio)} of every limit.`

@@ -1,0 +1,251 @@
+/**
+ * The command-line checker: `jointproof check PLAN.json` and `jointproof scan LOG.csv --arm ARM.json`.
+ * A thin wrapper over kinematics/: Node file I/O here, everything else in the engine.
+ *
+ * Exit codes: 0 pass or caution, 1 fault, 2 input that is not a valid document (one `path: message`
+ * line per problem on stderr) or a usage error.
+ */
+import { readFileSync, writeFileSync } from "node:fs";
+import { check } from "../kinematics/check";
+import { describeRecordingProblem, formatRecordingCsv, parseRecordingCsv } from "../kinematics/csv";
+import { parseArm, parsePlan, type Arm, type InputProblem } from "../kinematics/plan";
+import type { Report, Verdict } from "../kinematics/report";
+import { alignRecording, repairStream, streamCheck, validateRecording, type StreamReport } from "../kinematics/stream";
+import { formatNumber, formatQuantity } from "../kinematics/wording";
+
+/** Where the command writes; replaced in tests only by the real process streams. */
+interface Io {
+  out: (text: string) => void;
+  err: (text: string) => void;
+}
+
+const processIo: Io = {
+  out: (text) => process.stdout.write(text),
+  err: (text) => process.stderr.write(text),
+};
+
+const usage = `Usage:
+  jointproof check PLAN.json [--json]          check a plan document ("-" reads stdin)
+  jointproof scan LOG.csv --arm ARM.json [--json] [--repair OUT.csv] [--resample HZ]
+                                               stream check of a recording (header t,<joint names>);
+                                               --repair writes a rate-limited log that passes
+Exit codes: 0 pass or caution, 1 fault, 2 invalid input or usage.
+
+A passing check predicts no controller fault from the arm model; it does not make a motion safe.
+Clamp the arm, clear the workspace, keep the emergency stop at hand and run new plans slowly first.
+`;
+
+/** Thrown for problems with the input; turned into stderr lines and exit code 2. */
+class InputError extends Error {
+  constructor(readonly lines: string[]) {
+    super(lines.join("\n"));
+  }
+}
+
+/** Parsed command-line options. */
+interface Args {
+  command: string | undefined;
+  positional: string[];
+  json: boolean;
+  arm?: string;
+  repair?: string;
+  resampleHz?: number;
+}
+
+function parseArgs(argv: string[]): Args {
+  const args: Args = { command: undefined, positional: [], json: false };
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i];
+    const value = () => {
+      const next = argv[++i];
+      if (next === undefined) throw new InputError([`${arg}: needs a value`]);
+      return next;
+    };
+    if (arg === "--json") args.json = true;
+    else if (arg === "--arm") args.arm = value();
+    else if (arg === "--repair") args.repair = value();
+    else if (arg === "--resample") {
+      const text = value();
+      const hz = Number(text);
+      if (!(hz > 0) || !Number.isFinite(hz)) throw new InputError([`--resample: must be a rate in Hz greater than 0 (got "${text}")`]);
+      args.resampleHz = hz;
+    } else if (arg === "-h" || arg === "--help") args.command = "help";
+    else if (arg.startsWith("--")) throw new InputError([`${arg}: unknown option`]);
+    else if (args.command === undefined) args.command = arg;
+    else args.positional.push(arg);
+  }
+  return args;
+}
+
+/** Reads a file, or stdin for "-". */
+function readInput(path: string): Buffer {
+  try {
+    return readFileSync(path === "-" ? 0 : path);
+  } catch (error) {
+    const reason = error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
+    throw new InputError([`${path === "-" ? "(stdin)" : path}: ${reason}`]);
+  }
+}
+
+/** Reads and parses a JSON file. */
+function readJson(path: string): unknown {
+  const text = readInput(path).toString("utf8");
+  try {
+    return JSON.parse(text);
+  } catch (error) {
+    throw new InputError([`${path === "-" ? "(stdin)" : path}: not valid JSON (${error instanceof Error ? error.message : String(error)})`]);
+  }
+}
+
+function problemLines(problems: InputProblem[], prefix = ""): string[] {
+  return problems.map((p) => `${prefix && p.path === "(document)" ? prefix.replace(/\.$/, "") : prefix + p.path}: ${p.message}`);
+}
+
+function exitCodeOf(verdict: Verdict): number {
+  return verdict === "fault" ? 1 : 0;
+}
+
+function pad(text: string, width: number): string {
+  return text.length >= width ? text : text + " ".repeat(width - text.length);
+}
+
+function padStart(text: string, width: number): string {
+  return text.length >= width ? text : " ".repeat(width - text.length) + text;
+}
+
+function verdictWord(verdict: Verdict | "caution" | "fault"): string {
+  return verdict.toUpperCase();
+}
+
+/** The readable table for `check`. */
+function formatReport(report: Report, arm: Arm): string {
+  const faults = report.findings.filter((f) => f.severity === "fault").length;
+  const cautions = report.findings.length - faults;
+  const lines = [
+    `Plan check for arm "${arm.name}" (${arm.joints.length} joints, control rate ${formatNumber(arm.controlRateHz)} Hz)`,
+    `Verdict: ${verdictWord(report.verdict)}  (${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"})`,
+    "",
+    `${padStart("move", 5)}  ${pad("shape", 10)}${padStart("duration", 10)}  ${padStart("shortest safe", 13)}  result`,
+  ];
+  for (const move of report.moves) {
+    const result = move.findings.some((f) => f.severity === "fault")
+      ? "fault"
+      : move.findings.length > 0
+        ? "caution"
+        : "pass";
+    const duration = move.duration === 0 ? "instant" : `${move.duration.toFixed(3)} s`;
+    lines.push(
+      `${padStart(String(move.index), 5)}  ${pad(move.shape, 10)}${padStart(duration, 10)}  ${padStart(`${move.minSafeDuration.toFixed(3)} s`, 13)}  ${result}`,
+    );
+  }
+  lines.push("");
+  if (report.findings.length === 0) lines.push("No findings.");
+  else {
+    lines.push("Findings:");
+    for (const f of report.findings) {
+      lines.push(`  ${pad(f.severity, 8)}${pad(f.kind, 11)}${pad(f.move === null ? "start" : `move ${f.move}`, 9)}${f.message}`);
+    }
+  }
+  return lines.join("\n") + "\n";
+}
+
+function runCheck(args: Args, io: Io): number {
+  const [file, ...rest] = args.positional;
+  if (!file || rest.length > 0) throw new InputError(["check: needs exactly one plan file (or - for stdin)"]);
+  const parsed = parsePlan(readJson(file));
+  if (!parsed.ok) throw new InputError(problemLines(parsed.problems));
+  const report = check(parsed.value);
+  io.out(args.json ? JSON.stringify(report, null, 2) + "\n" : formatReport(report, parsed.value.arm));
+  return exitCodeOf(report.verdict);
+}
+
+/** Reads the arm for `scan`: an arm object, or a whole plan document whose `arm` is used. */
+function readArm(path: string): Arm {
+  const raw = readJson(path);
+  const isPlan = typeof raw === "object" && raw !== null && (raw as { format?: unknown }).format === "jointproof.plan";
+  const parsed = parseArm(isPlan ? (raw as { arm?: unknown }).arm : raw);
+  if (!parsed.ok) throw new InputError(problemLines(parsed.problems, "arm."));
+  return parsed.value;
+}
+
+/** The readable summary for `scan`. */
+function formatStreamReport(report: StreamReport, arm: Arm, limit = 50): string {
+  const faults = report.findings.filter((f) => f.severity === "fault").length;
+  const cautions = report.findings.length - faults;
+  const lines = [
+    `Stream check for arm "${arm.name}": ${report.samples} samples at ${formatNumber(report.rateHz)} Hz (mean), control rate ${formatNumber(arm.controlRateHz)} Hz`,
+    `Verdict: ${verdictWord(report.verdict)}  (${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"})`,
+  ];
+  if (report.findings.length > 0) {
+    lines.push("", "Findings:");
+    for (const f of report.findings.slice(0, limit)) lines.push(`  ${pad(f.severity, 8)}${pad(f.kind, 11)}${f.message}`);
+    if (report.findings.length > limit) lines.push(`  … and ${report.findings.length - limit} more (use --json for all)`);
+  }
+  return lines.join("\n") + "\n";
+}
+
+function runScan(args: Args, io: Io): number {
+  const [file, ...rest] = args.positional;
+  if (!file || rest.length > 0) throw new InputError(["scan: needs exactly one recording file (CSV)"]);
+  if (!args.arm) throw new InputError(["--arm: is required (a JSON file with the arm object of a plan document)"]);
+  const arm = readArm(args.arm);
+  const parsed = parseRecordingCsv(readInput(file));
+  if (!parsed.recording) throw new InputError(parsed.problems.map(describeRecordingProblem));
+  const aligned = alignRecording(arm, parsed.recording);
+  if (!aligned.recording) throw new InputError(aligned.problems.map(describeRecordingProblem));
+  const recording = aligned.recording;
+  const problems = validateRecording(arm, recording);
+  if (problems.length > 0) throw new InputError(problems.map(describeRecordingProblem));
+  const report = streamCheck(arm, recording);
+
+  let repairText = "";
+  let repairJson: Record<string, unknown> | undefined;
+  if (args.repair) {
+    const repaired = repairStream(arm, recording, { resampleHz: args.resampleHz });
+    const after = streamCheck(arm, repaired.recording);
+    try {
+      writeFileSync(args.repair, formatRecordingCsv(repaired.recording));
+    } catch {
+      throw new InputError([`${args.repair}: cannot be written`]);
+    }
+    repairJson = {
+      file: args.repair,
+      verdict: after.verdict,
+      samples: after.samples,
+      maxDeviation: repaired.maxDeviation,
+      maxDeviationSample: repaired.maxDeviationSample,
+    };
+    const deviations = arm.joints
+      .map((joint, j) => `${joint.name} ${formatQuantity(repaired.maxDeviation[j], joint, "position")}`)
+      .join(", ");
+    repairText = `\nRepaired log written to ${args.repair}: ${after.samples} samples, verdict ${verdictWord(after.verdict)}.\nLargest departure from the recording per joint: ${deviations}.\n`;
+  }
+  if (args.json) {
+    const { verdict, samples, rateHz, findings } = report;
+    io.out(JSON.stringify(repairJson ? { verdict, samples, rateHz, findings, repair: repairJson } : { verdict, samples, rateHz, findings }, null, 2) + "\n");
+  } else {
+    io.out(formatStreamReport(report, arm) + repairText);
+  }
+  return exitCodeOf(report.verdict);
+}
+
+/** Runs the command line; returns the exit code. */
+export async function main(argv: string[], io: Io = processIo): Promise<number> {
+  try {
+    const args = parseArgs(argv);
+    if (args.command === "help") {
+      io.out(usage);
+      return 0;
+    }
+    if (args.command === "check") return runCheck(args, io);
+    if (args.command === "scan") return runScan(args, io);
+    io.err(args.command === undefined ? usage : `${args.command}: unknown command\n${usage}`);
+    return 2;
+  } catch (error) {
+    if (error instanceof InputError) {
+      io.err(error.lines.map((line) => line + "\n").join(""));
+      return 2;
+    }
+    throw error;
+  }
+}
