@@ -1,0 +1,20 @@
+import { z } from "zod";
+import { getPlanVersion } from "@/db/queries/plans";
+import { json, readParams, route, uuidParam } from "@/lib/api";
+import { loadPlan, membershipOf } from "@/lib/api-load";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { authorizeProject } from "@/lib/permissions";
+
+const versionParams = z.object({ planId: uuidParam, version: z.coerce.number().int().positive().max(1_000_000) });
+
+/** GET /api/v1/plans/:planId/versions/:version — the document and the stored verdict. */
+export const GET = route(async (request, context) => {
+  const { planId, version: number } = await readParams(context, versionParams);
+  const actor = await requireActor(request);
+  const plan = await loadPlan(actor, planId);
+  authorizeProject(membershipOf(plan), "plan:read");
+  const version = await getPlanVersion({ planId, number, userId: actor.userId });
+  if (!version) throw new AppError("not_found:version", "No such version.");
+  return json({ version });
+});

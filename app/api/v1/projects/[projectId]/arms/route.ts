@@ -1,0 +1,33 @@
+import { z } from "zod";
+import { createArm, listArmsForUser } from "@/db/queries/arms";
+import { recordAudit } from "@/db/queries/audit";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
+import { loadProject, membershipOf } from "@/lib/api-load";
+import { createArmSchema } from "@/lib/api-schemas";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { authorizeProject } from "@/lib/permissions";
+
+const params = z.object({ projectId: uuidParam });
+
+/** GET /api/v1/projects/:projectId/arms — the built-in arms and this project's own. */
+export const GET = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "arm:read");
+  return json({ arms: await listArmsForUser({ userId: actor.userId, projectId }) });
+});
+
+/** POST /api/v1/projects/:projectId/arms — a custom arm with its first revision (owners, editors). */
+export const POST = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const body = await readJson(request, createArmSchema);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "arm:write");
+  const created = await createArm({ projectId, name: body.name, description: body.description, note: body.note, userId: actor.userId });
+  if (!created) throw new AppError("conflict:arm-name", "This project already has an arm with that name.", { issues: [{ path: "name", message: "is taken" }] });
+  await recordAudit({ actorId: actor.userId, action: "arm.create", targetType: "arm", targetId: created.armId, projectId });
+  return json({ arm: { id: created.armId, name: body.name, projectId }, revision: created.revision }, 201);
+});

@@ -1,0 +1,26 @@
+import { z } from "zod";
+import { recordAudit } from "@/db/queries/audit";
+import { countOwners, listMembers, removeMember } from "@/db/queries/projects";
+import { json, readParams, route, uuidParam } from "@/lib/api";
+import { loadProject, membershipOf } from "@/lib/api-load";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { authorizeProject } from "@/lib/permissions";
+
+const params = z.object({ projectId: uuidParam, userId: uuidParam });
+
+/** DELETE /api/v1/projects/:projectId/members/:userId — remove a member (owners; never the last owner). */
+export const DELETE = route(async (request, context) => {
+  const { projectId, userId } = await readParams(context, params);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "member:manage");
+  const target = (await listMembers({ projectId, userId: actor.userId })).find((m) => m.userId === userId);
+  if (!target) throw new AppError("not_found:member", "That user is not a member of this project.");
+  if (target.role === "owner" && (await countOwners({ projectId })) <= 1) {
+    throw new AppError("unprocessable:last-owner", "A project needs at least one owner; make someone else owner first.");
+  }
+  await removeMember({ projectId, ownerId: actor.userId, userId });
+  await recordAudit({ actorId: actor.userId, action: "member.remove", targetType: "user", targetId: userId, projectId });
+  return json({ removed: userId });
+});

@@ -1,0 +1,37 @@
+import { z } from "zod";
+import { recordAudit } from "@/db/queries/audit";
+import { countOwners, listMembers, upsertMember } from "@/db/queries/projects";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
+import { loadProject, membershipOf } from "@/lib/api-load";
+import { addMemberSchema } from "@/lib/api-schemas";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { authorizeProject } from "@/lib/permissions";
+
+const params = z.object({ projectId: uuidParam });
+
+/** GET /api/v1/projects/:projectId/members */
+export const GET = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "member:list");
+  return json({ members: await listMembers({ projectId, userId: actor.userId }) });
+});
+
+/** POST /api/v1/projects/:projectId/members — add a member by e-mail, or change their role (owners). */
+export const POST = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const body = await readJson(request, addMemberSchema);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "member:manage");
+  const existing = (await listMembers({ projectId, userId: actor.userId })).find((m) => m.email === body.email);
+  if (existing?.role === "owner" && body.role !== "owner" && (await countOwners({ projectId })) <= 1) {
+    throw new AppError("unprocessable:last-owner", "A project needs at least one owner; make someone else owner first.");
+  }
+  const member = await upsertMember({ projectId, ownerId: actor.userId, email: body.email, role: body.role });
+  if (!member) throw new AppError("unprocessable:unknown-user", "No active account has this e-mail.", { issues: [{ path: "email", message: "has no account" }] });
+  await recordAudit({ actorId: actor.userId, action: "member.set", targetType: "user", targetId: member.userId, projectId, detail: { role: body.role } });
+  return json({ member }, existing ? 200 : 201);
+});

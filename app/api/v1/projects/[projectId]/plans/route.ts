@@ -1,0 +1,39 @@
+import { z } from "zod";
+import { recordAudit } from "@/db/queries/audit";
+import { createPlan, listPlansForProject } from "@/db/queries/plans";
+import { getArmForUser } from "@/db/queries/arms";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
+import { loadProject, membershipOf } from "@/lib/api-load";
+import { createPlanSchema } from "@/lib/api-schemas";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { authorizeProject } from "@/lib/permissions";
+
+const params = z.object({ projectId: uuidParam });
+
+/** GET /api/v1/projects/:projectId/plans — the project's plans with their latest verdict. */
+export const GET = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "plan:read");
+  return json({ plans: await listPlansForProject({ projectId, userId: actor.userId }) });
+});
+
+/** POST /api/v1/projects/:projectId/plans — a new, empty plan for a built-in arm or one of this project's arms. */
+export const POST = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const body = await readJson(request, createPlanSchema);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "plan:create");
+  const arm = await getArmForUser({ armId: body.armId, userId: actor.userId });
+  if (!arm || (arm.projectId !== null && arm.projectId !== projectId)) {
+    throw new AppError("unprocessable:arm", "The arm is neither built in nor one of this project's arms.", {
+      issues: [{ path: "armId", message: "is not an arm of this project" }],
+    });
+  }
+  const plan = await createPlan({ projectId, armId: body.armId, name: body.name, userId: actor.userId });
+  await recordAudit({ actorId: actor.userId, action: "plan.create", targetType: "plan", targetId: plan.id, projectId });
+  return json({ plan }, 201);
+});

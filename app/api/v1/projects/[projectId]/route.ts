@@ -1,0 +1,36 @@
+import { z } from "zod";
+import { recordAudit } from "@/db/queries/audit";
+import { updateProject } from "@/db/queries/projects";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
+import { loadProject, membershipOf } from "@/lib/api-load";
+import { updateProjectSchema } from "@/lib/api-schemas";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { authorizeProject } from "@/lib/permissions";
+
+const params = z.object({ projectId: uuidParam });
+
+/** GET /api/v1/projects/:projectId */
+export const GET = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "project:read");
+  return json({ project });
+});
+
+/** PATCH /api/v1/projects/:projectId — rename and/or archive (owners). */
+export const PATCH = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const body = await readJson(request, updateProjectSchema);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  const membership = membershipOf(project);
+  if (body.archived !== undefined) authorizeProject(membership, "project:archive");
+  // Un-archiving and renaming in one request: the rename is judged on the project as it will be.
+  if (body.name !== undefined) authorizeProject({ ...membership, archived: body.archived ?? membership.archived }, "project:rename");
+  const updated = await updateProject({ projectId, userId: actor.userId, name: body.name, archived: body.archived });
+  if (!updated) throw new AppError("not_found:project", "No such project.");
+  await recordAudit({ actorId: actor.userId, action: "project.update", targetType: "project", targetId: projectId, projectId, detail: body });
+  return json({ project: { ...updated, role: project.role } });
+});

@@ -1,0 +1,20 @@
+import { z } from "zod";
+import { recordAudit } from "@/db/queries/audit";
+import { revokeApiToken } from "@/db/queries/tokens";
+import { json, readParams, route, uuidParam } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { authorizeSite } from "@/lib/permissions";
+
+const params = z.object({ tokenId: uuidParam });
+
+/** DELETE /api/v1/tokens/:tokenId — revokes one of the caller's tokens, effective at once. */
+export const DELETE = route(async (request, context) => {
+  const { tokenId } = await readParams(context, params);
+  const actor = await requireActor(request);
+  authorizeSite(actor, "token:manage");
+  const token = await revokeApiToken({ id: tokenId, userId: actor.userId });
+  if (!token) throw new AppError("not_found:token", "No such live token.");
+  await recordAudit({ actorId: actor.userId, action: "token.revoke", targetType: "api_token", targetId: tokenId });
+  return json({ token });
+});

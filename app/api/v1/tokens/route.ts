@@ -1,0 +1,26 @@
+import { recordAudit } from "@/db/queries/audit";
+import { createApiToken, listApiTokens } from "@/db/queries/tokens";
+import { json, readJson, route } from "@/lib/api";
+import { createTokenSchema } from "@/lib/api-schemas";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeSite } from "@/lib/permissions";
+import { generateToken } from "@/lib/tokens";
+
+/** GET /api/v1/tokens — the caller's API tokens (never the tokens themselves). */
+export const GET = route(async (request) => {
+  const actor = await requireActor(request);
+  authorizeSite(actor, "token:manage");
+  return json({ tokens: await listApiTokens({ userId: actor.userId }) });
+});
+
+/** POST /api/v1/tokens — a new token, returned once in `token`; only its SHA-256 is stored. */
+export const POST = route(async (request) => {
+  const body = await readJson(request, createTokenSchema);
+  const actor = await requireActor(request);
+  authorizeSite(actor, "token:manage");
+  const { token, hash, prefix } = generateToken();
+  const expiresAt = body.expiresInDays ? new Date(Date.now() + body.expiresInDays * 86_400_000) : null;
+  const row = await createApiToken({ userId: actor.userId, name: body.name, tokenHash: hash, prefix, expiresAt });
+  await recordAudit({ actorId: actor.userId, action: "token.create", targetType: "api_token", targetId: row.id });
+  return json({ token, ...row }, 201);
+});
