@@ -12,6 +12,7 @@
  * @module
  */
 import type { Arm, Joint, Move, Plan } from "./plan";
+import { armMoveCheckers, armPlanCheckers } from "./arm-checks"; // arm model (issue 4)
 import { instantPeaks, safeDuration, timedPeaks } from "./peaks";
 import { severityOf, verdictOf, type Finding, type MoveReport, type Report, type Severity } from "./report";
 import type { ShortestDuration } from "./shapes";
@@ -46,6 +47,8 @@ export interface MoveContext extends PlanContext {
   minSafe: ShortestDuration;
   /** Shortest duration (s) with the move's shape that stays below the caution ratio of every limit. */
   minCalm: ShortestDuration;
+  /** Arm model (issue 4): extra per-move figures (`peakEffort`, `peakToolSpeed`) copied into the move's report. */
+  figures?: Record<string, number | (number | null)[] | null>;
 }
 
 /** A check run once per plan; pushes its findings to `out`. */
@@ -171,10 +174,10 @@ export const checkAcceleration: MoveChecker = (context, out) => {
 };
 
 /** The plan checkers {@link check} runs by default. */
-export const defaultPlanCheckers: readonly PlanChecker[] = [checkStartRange];
+export const defaultPlanCheckers: readonly PlanChecker[] = [checkStartRange, ...armPlanCheckers];
 
 /** The move checkers {@link check} runs by default, in report order. */
-export const defaultMoveCheckers: readonly MoveChecker[] = [checkGoalRange, checkSpeed, checkAcceleration];
+export const defaultMoveCheckers: readonly MoveChecker[] = [checkGoalRange, checkSpeed, checkAcceleration, ...armMoveCheckers];
 
 /** Copies a typed array into a plain list (for the JSON report). */
 function toList(values: Float64Array): number[] {
@@ -217,6 +220,7 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       peakAcceleration: instant ? null : peakAcceleration,
       minSafe: safeDuration(shape, delta, arm.joints, 1),
       minCalm: safeDuration(shape, delta, arm.joints, arm.cautionRatio),
+      figures: {},
     };
     const moveFindings: Finding[] = [];
     for (const checker of moveCheckers) checker(context, moveFindings);
@@ -229,6 +233,7 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       peakAcceleration: instant ? new Array<null>(n).fill(null) : toList(peakAcceleration),
       minSafeDuration: context.minSafe.durationS,
       findings: moveFindings,
+      ...context.figures, // arm model (issue 4): peakEffort, peakToolSpeed when the arm has a chain
     };
   });
   return { verdict: verdictOf(findings), moves, findings };

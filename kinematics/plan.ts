@@ -12,6 +12,9 @@
  * @module
  */
 import { z } from "zod";
+// Arm model (issue 4): optional fields; a version-1 document without them means the same.
+import { armChainSchema, cartesianGoalSchema, jointFrictionSchema, keepOutBoxSchema, payloadSchema } from "./arm-model";
+import { resolveCartesianGoals } from "./ik";
 
 /** Error-message maker for a field that is missing or of the wrong type. */
 function typeError(expected: string) {
@@ -50,6 +53,9 @@ export const jointSchema = z.object(
     max: finite(),
     maxVelocity: positive(),
     maxAcceleration: positive().optional(),
+    // Arm model (issue 4): largest effort (N·m, or N for a prismatic joint) and joint friction.
+    maxEffort: nonNegative().optional(),
+    friction: jointFrictionSchema.optional(),
   },
   { error: typeError("an object (a joint)") },
 );
@@ -70,6 +76,8 @@ export const armSchema = z.object(
       .max(1, { error: "must be at most 1" })
       .default(0.9),
     joints: z.array(jointSchema, { error: typeError("a list of joints") }).min(1, { error: "must list at least one joint" }),
+    // Arm model (issue 4): geometry, masses and collision shapes of the first chain.joints.length joints.
+    chain: armChainSchema.optional(),
   },
   { error: typeError("an object (an arm)") },
 );
@@ -101,6 +109,8 @@ export const moveSchema = z.object(
     goal: poseSchema,
     duration: nonNegative(),
     shape: shapeSchema.default("quintic"),
+    // Arm model (issue 4): a Cartesian tool-point goal; parsePlan fills `goal` from it by inverse kinematics.
+    target: cartesianGoalSchema.optional(),
   },
   { error: typeError("an object (a move)") },
 );
@@ -132,6 +142,11 @@ export function makePlanSchema<A extends ArmLike, M extends MoveLike>(arm: A, mo
         arm,
         start: poseSchema,
         moves: z.array(move, { error: typeError("a list of moves") }),
+        // Arm model (issue 4): carried mass at the tool, keep-out boxes, work-surface margin (m), tool speed limit (m/s).
+        payload: payloadSchema.optional(),
+        keepOut: z.array(keepOutBoxSchema).optional(),
+        surfaceMargin: nonNegative().optional(),
+        maxToolSpeed: positive().optional(),
       },
       { error: typeError("an object (a plan document)") },
     )
@@ -238,8 +253,11 @@ export type ParseResult<T> = { ok: true; value: T } | { ok: false; problems: Inp
 
 /** Validates an unknown value (parsed JSON) as a plan document, version 1. */
 export function parsePlan(input: unknown): ParseResult<Plan> {
-  const result = planSchema.safeParse(input);
-  return result.success ? { ok: true, value: result.data } : { ok: false, problems: describeIssues(result.error.issues) };
+  // Arm model (issue 4): moves with a Cartesian `target` get their joint `goal` by inverse kinematics first.
+  const resolved = resolveCartesianGoals(input);
+  const result = planSchema.safeParse(resolved.document);
+  if (result.success && resolved.problems.length === 0) return { ok: true, value: result.data };
+  return { ok: false, problems: [...(result.success ? [] : describeIssues(result.error.issues)), ...resolved.problems] };
 }
 
 /** Validates an unknown value (parsed JSON) as the `arm` object of a plan document. */
