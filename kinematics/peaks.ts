@@ -66,7 +66,8 @@ export function withinLimits(
  * The shortest duration (s) with this shape for which no joint exceeds `limitScale` × its speed or
  * acceleration limit (1 = the fault limits, cautionRatio = the caution threshold), with the joint
  * that sets it. The analytic value from `shortestDuration` is checked with the same comparison as the
- * report and raised by a few parts in 10¹⁵ if float rounding put it a hair short.
+ * report and raised by the least step that makes it pass if float rounding (or the trapezoid's blend floor) put
+ * it a hair short.
  */
 export function safeDuration(
   shape: number,
@@ -80,7 +81,7 @@ export function safeDuration(
   const a = new Float64Array(joints.length);
   let durationS = found.durationS;
   for (let tries = 0; tries < 64 && !withinLimits(shape, delta, durationS, joints, limitScale, v, a); tries++) {
-    durationS *= 1 + 4 * Number.EPSILON * (tries + 1);
+    durationS *= 1 + Number.EPSILON * 2 ** tries; // grows geometrically: 2⁻⁵² … up to 2¹¹
   }
   return { durationS, joint: found.joint };
 }

@@ -3,7 +3,8 @@
  *
  * Layout: `timeS[k]` is the time of sample k; `position`, `velocity` and `acceleration` hold sample k,
  * joint j at index k·jointCount + j (stride = joint count). Samples are taken at k/rateHz from 0 to the
- * plan's end, plus one last sample at the end time if the grid does not land on it.
+ * plan's end; the last sample is always at exactly the end time (added, or moved there from a grid time
+ * within 1 ns of it).
  * A sample on the boundary between two moves belongs to the later one; an instant move takes no time,
  * so its step shows in `position` between two samples (its velocity and acceleration are not sampled).
  *
@@ -72,7 +73,8 @@ export function sampleMoveAt(
   const goal = timeline.goal;
   const delta = timeline.delta;
   for (let j = 0; j < n; j++) {
-    outPosition[offset + j] = s === 1 ? goal[base + j] : (1 - s) * from[base + j] + s * goal[base + j];
+    const q0 = from[base + j];
+    outPosition[offset + j] = s === 0 ? q0 : s === 1 ? goal[base + j] : (1 - s) * q0 + s * goal[base + j];
     outVelocity[offset + j] = delta[base + j] * ds;
     outAcceleration[offset + j] = delta[base + j] * dds;
   }
@@ -90,7 +92,8 @@ export function sampleTimeline(timeline: Timeline, rateHz: number): Samples {
   const totalS = timeline.totalS;
   const gridCount = Math.floor(totalS * rateHz + 1e-9) + 1; // k/rate ≤ total, with a hair of slack for rounding
   const lastGridS = (gridCount - 1) / rateHz;
-  const count = lastGridS < totalS - 1e-12 ? gridCount + 1 : gridCount;
+  // the last sample always sits exactly at the end (a grid time within rounding of it is moved onto it)
+  const count = lastGridS < totalS - 1e-9 ? gridCount + 1 : gridCount;
   const timeS = new Float64Array(count);
   const position = new Float64Array(count * n);
   const velocity = new Float64Array(count * n);
@@ -98,7 +101,7 @@ export function sampleTimeline(timeline: Timeline, rateHz: number): Samples {
   let i = 0;
   const m = timeline.moveCount;
   for (let k = 0; k < count; k++) {
-    const t = k < gridCount ? k / rateHz : totalS;
+    const t = k < count - 1 ? k / rateHz : totalS;
     timeS[k] = t;
     // advance to the move that contains t: start ≤ t < end (instant moves contain no time)
     while (i < m && t >= timeline.startS[i] + timeline.durationS[i]) i++;

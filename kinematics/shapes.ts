@@ -38,6 +38,9 @@ export const quinticAccelerationFactor = 10 / Math.sqrt(3);
 /** Blend fraction of the trapezoid when no acceleration limit applies (cruise 1.5·D/T; Siciliano et al. §4.2.1). */
 export const defaultTrapezoidBlend = 1 / 3;
 
+/** Smallest blend fraction the trapezoid uses (a guard against rounding, far below any real profile). */
+export const minTrapezoidBlend = 1e-9;
+
 const CUBIC = 0;
 const QUINTIC = 1;
 const TRAPEZOID = 2;
@@ -133,7 +136,9 @@ export function trapezoidBlend(delta: ArrayLike<number>, durationS: number, join
   if (speedS === 0) return 0.5; // nothing moves: any blend gives zero speed
   if (accelS2 === 0) return defaultTrapezoidBlend;
   if (!(durationS > 0)) return 0.5;
-  return Math.min(0.5, accelS2 / (durationS * speedS)); // derived: speed share = acceleration share
+  // derived: speed share = acceleration share; floored at 10⁻⁹ so rounding in tiny displacements cannot
+  // drive the blend (and the acceleration 1/(b(1−b))) to zero or infinity
+  return Math.min(0.5, Math.max(minTrapezoidBlend, accelS2 / (durationS * speedS)));
 }
 
 /** The blend fraction a move uses: the trapezoid's from {@link trapezoidBlend}, 0 for the polynomial shapes. */
