@@ -1,0 +1,86 @@
+"use client";
+import { Button } from "@/components/ui/button";
+import { cn } from "@/components/ui/cn";
+import { verdictLook, VerdictChip } from "@/components/ui/verdict-chip";
+import type { Joint } from "@/kinematics/plan";
+import type { Finding, Verdict } from "@/kinematics/report";
+import { kindWords } from "./finding-time";
+
+/** A finding with what the panel needs to place it in time and offer a fix. */
+export interface PanelFinding {
+  finding: Finding;
+  /** Seconds on the plan's timeline where the value occurs. */
+  timeS: number;
+  /** A one-click fix, when there is one (e.g. "Set duration to 0.842 s"). */
+  fix?: { label: string; apply: () => void };
+}
+
+export interface FindingsPanelProps {
+  verdict: Verdict;
+  /** Findings, already in the order to show them (worst first). */
+  items: readonly PanelFinding[];
+  joints: readonly Joint[];
+  /** Jump the stage and plots to this time and select the move. */
+  onJump: (timeS: number, move: number | null) => void;
+  className?: string;
+}
+
+/**
+ * The findings, worst first, each in plain language: what, which joint, which move, when, by how much,
+ * and the fix. Clicking a finding moves the stage and the plots to the moment it happens.
+ */
+export function FindingsPanel({ verdict, items, joints, onJump, className }: FindingsPanelProps) {
+  const faults = items.filter((i) => i.finding.severity === "fault").length;
+  const cautions = items.length - faults;
+  return (
+    <section aria-labelledby="findings-heading" className={cn("flex min-h-0 flex-col", className)}>
+      <div className="flex items-center justify-between gap-2 px-3 pt-3 pb-2">
+        <h2 id="findings-heading" className="text-[11px] font-semibold tracking-widest text-ink-faint uppercase">Findings</h2>
+        <VerdictChip verdict={verdict} />
+      </div>
+      <p className="px-3 pb-2 text-xs text-ink-soft" aria-live="polite">
+        {items.length === 0
+          ? "No findings: every joint stays within its travel, speed and acceleration limits."
+          : `${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"}.`}
+      </p>
+      <ol className="flex min-h-0 flex-1 flex-col gap-2 overflow-y-auto px-3 pb-3">
+        {items.map(({ finding, timeS, fix }, k) => {
+          const look = verdictLook[finding.severity];
+          const joint = finding.joint === null ? undefined : joints[finding.joint];
+          const ratio = finding.kind !== "range" && finding.limit > 0 ? finding.value / finding.limit : null;
+          return (
+            <li key={`${finding.kind}-${finding.move}-${finding.joint}-${k}`} className={cn("rounded-md border bg-panel", look.border)}>
+              <button
+                type="button"
+                onClick={() => onJump(timeS, finding.move)}
+                className="w-full rounded-t-md px-2.5 pt-2 pb-1.5 text-left hover:bg-paper"
+                aria-label={`${look.word}: ${kindWords[finding.kind]}${joint ? `, ${joint.name}` : ""}${finding.move !== null ? `, move ${finding.move}` : ", start pose"}. Show at ${timeS.toFixed(3)} s`}
+              >
+                <div className="flex flex-wrap items-center gap-1.5">
+                  <VerdictChip verdict={finding.severity} size="sm" />
+                  <span className="text-xs font-semibold">{kindWords[finding.kind]}</span>
+                  {ratio !== null ? (
+                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>{Math.round(ratio * 100)}% of limit</span>
+                  ) : null}
+                </div>
+                <dl className="tabular mt-1 flex flex-wrap gap-x-3 font-mono text-[11px] text-ink-soft">
+                  {joint ? (<><dt className="sr-only">Joint</dt><dd>{joint.name}</dd></>) : null}
+                  <dt className="sr-only">Move</dt>
+                  <dd>{finding.move === null ? "start pose" : `move ${finding.move}`}</dd>
+                  <dt className="sr-only">Time</dt>
+                  <dd>t = {timeS.toFixed(3)} s</dd>
+                </dl>
+                <p className="mt-1 text-xs leading-snug text-ink">{finding.message}</p>
+              </button>
+              {fix ? (
+                <div className="border-t border-line/70 px-2.5 py-1.5">
+                  <Button size="sm" variant="secondary" onClick={fix.apply}>{fix.label}</Button>
+                </div>
+              ) : null}
+            </li>
+          );
+        })}
+      </ol>
+    </section>
+  );
+}

@@ -1,0 +1,77 @@
+"use client";
+import { useMemo } from "react";
+import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
+import { verdictLook } from "@/components/ui/verdict-chip";
+import type { Joint, ShapeName } from "@/kinematics/plan";
+import { timedPeaks } from "@/kinematics/peaks";
+import { moveBlend, shapeId } from "@/kinematics/shapes";
+
+export interface SweepPoint {
+  durationS: number;
+  /** Largest peak-to-limit ratio over the joints (speed and acceleration). */
+  ratio: number;
+}
+
+/**
+ * The duration sweep of one move: for durations around its shortest safe duration, the worst joint's
+ * peak-to-limit ratio (speed or acceleration, whichever is closer to its limit). Ratio 1 is the limit.
+ */
+export function durationSweep(shape: ShapeName, delta: ArrayLike<number>, joints: readonly Joint[], fromS: number, toS: number, steps = 80): SweepPoint[] {
+  const id = shapeId(shape);
+  const v = new Float64Array(joints.length);
+  const a = new Float64Array(joints.length);
+  const out: SweepPoint[] = [];
+  for (let k = 0; k <= steps; k++) {
+    const d = fromS + ((toS - fromS) * k) / steps;
+    if (!(d > 0)) continue;
+    timedPeaks(id, moveBlend(id, delta, d, joints), delta, d, v, a);
+    let ratio = 0;
+    joints.forEach((joint, j) => {
+      ratio = Math.max(ratio, v[j] / joint.maxVelocity);
+      if (joint.maxAcceleration !== undefined) ratio = Math.max(ratio, a[j] / joint.maxAcceleration);
+    });
+    out.push({ durationS: d, ratio });
+  }
+  return out;
+}
+
+export interface SweepChartProps {
+  shape: ShapeName;
+  delta: ArrayLike<number>;
+  joints: readonly Joint[];
+  cautionRatio: number;
+  minSafeS: number;
+  currentS: number;
+}
+
+/** The sweep as a chart: ratio against duration, the limit and caution lines, the shortest safe and current durations marked. */
+export function SweepChart({ shape, delta, joints, cautionRatio, minSafeS, currentS }: SweepChartProps) {
+  const data = useMemo(() => {
+    const hi = Math.max(minSafeS * 3, currentS * 1.2, 0.2);
+    const lo = Math.max(minSafeS * 0.5, 0.01);
+    return durationSweep(shape, delta, joints, lo, hi).map((p) => ({ d: p.durationS, r: Math.min(p.ratio, 2.5) }));
+  }, [shape, delta, joints, minSafeS, currentS]);
+  if (!(minSafeS > 0)) return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
+  return (
+    <figure aria-label={`Duration sweep: worst joint's peak-to-limit ratio against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}>
+      <figcaption className="mb-1 flex justify-between text-[11px] text-ink-soft">
+        <span>Duration sweep (worst joint, peak ÷ limit)</span>
+        <span className="tabular font-mono">safe ≥ {minSafeS.toFixed(3)} s</span>
+      </figcaption>
+      <div className="h-32 w-full">
+        <ResponsiveContainer width="100%" height="100%">
+          <LineChart data={data} margin={{ top: 4, right: 8, bottom: 0, left: 0 }}>
+            <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" />
+            <XAxis dataKey="d" type="number" domain={["dataMin", "dataMax"]} tick={{ fontSize: 10, fill: "#6b7280" }} tickFormatter={(v: number) => `${Number(v.toFixed(2))}s`} height={16} />
+            <YAxis width={34} domain={[0, 2.5]} ticks={[0, 0.5, 1, 1.5, 2, 2.5]} tick={{ fontSize: 10, fill: "#6b7280" }} />
+            <ReferenceLine y={1} stroke={verdictLook.fault.stroke} />
+            <ReferenceLine y={cautionRatio} stroke={verdictLook.caution.stroke} strokeDasharray="4 3" />
+            <ReferenceLine x={minSafeS} stroke={verdictLook.pass.stroke} strokeDasharray="3 2" label={{ value: "shortest safe", position: "insideTopRight", fontSize: 10, fill: verdictLook.pass.stroke }} />
+            <ReferenceLine x={currentS} stroke="#b8612a" label={{ value: "now", position: "insideTopLeft", fontSize: 10, fill: "#9a4f21" }} />
+            <Line dataKey="r" stroke="#1f6f86" strokeWidth={1.5} dot={false} isAnimationActive={false} />
+          </LineChart>
+        </ResponsiveContainer>
+      </div>
+    </figure>
+  );
+}

@@ -1,0 +1,216 @@
+"use client";
+import { Edges, Grid, Line, OrbitControls } from "@react-three/drei";
+import { Canvas, useFrame, useThree } from "@react-three/fiber";
+import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
+import * as THREE from "three";
+import type { ArmChain, KeepOutBox } from "@/kinematics/arm-model";
+import { compileChain, createChainBuffers, forwardKinematics, linkFrames, type CompiledChain } from "@/kinematics/chain";
+import type { Joint } from "@/kinematics/plan";
+import { sampleTimeline } from "@/kinematics/sample";
+import type { Timeline } from "@/kinematics/timeline";
+import { verdictLook } from "@/components/ui/verdict-chip";
+import { usePlayheadStore, type Playhead } from "@/components/editor/playhead";
+import { linkShapes, ShapeMesh } from "./arm-mesh";
+import { createPoseScratch, poseAt } from "./pose-at";
+
+export interface StageProps {
+  chain: ArmChain;
+  joints: readonly Joint[];
+  timeline: Timeline;
+  /** Start pose and the selected move's goal, drawn as translucent ghosts. */
+  ghosts: { pose: readonly number[]; label: "start" | "goal" }[];
+  /** Per move, per link (0 = base): the worst severity of the findings of the joint that drives it. */
+  linkSeverity: readonly (readonly ("caution" | "fault" | null)[])[];
+  keepOut?: readonly KeepOutBox[];
+}
+
+const LINK_COLOR = new THREE.Color("#d6d2c8");
+const BASE_COLOR = new THREE.Color("#5b6472");
+const SEVERITY_COLOR = { fault: new THREE.Color(verdictLook.fault.stroke), caution: new THREE.Color("#d08a1a") };
+
+function useCompiled(chain: ArmChain, joints: readonly Joint[]): CompiledChain {
+  return useMemo(() => compileChain(chain, joints.map((j) => j.type)), [chain, joints]);
+}
+
+/** Re-renders the canvas (frameloop "demand") whenever the playhead moves. */
+function Invalidator({ playhead }: { playhead: Playhead }) {
+  const invalidate = useThree((s) => s.invalidate);
+  useEffect(() => playhead.subscribe(() => invalidate()), [playhead, invalidate]);
+  return null;
+}
+
+/** The arm at the playhead: link frames from forward kinematics every frame, no allocation per frame. */
+function AnimatedArm({ chain, compiled, timeline, linkSeverity, playhead }: {
+  chain: ArmChain;
+  compiled: CompiledChain;
+  timeline: Timeline;
+  linkSeverity: StageProps["linkSeverity"];
+  playhead: Playhead;
+}) {
+  const linkCount = compiled.jointCount + 1;
+  const groups = useRef<(THREE.Group | null)[]>([]);
+  const tip = useRef<THREE.Mesh>(null);
+  const materials = useMemo(
+    () => Array.from({ length: linkCount }, (_, i) => new THREE.MeshStandardMaterial({ color: i === 0 ? BASE_COLOR : LINK_COLOR, roughness: 0.55, metalness: 0.1 })),
+    [linkCount],
+  );
+  const work = useMemo(() => ({
+    pose: new Float64Array(timeline.jointCount),
+    scratch: createPoseScratch(timeline.jointCount),
+    buffers: createChainBuffers(compiled),
+  }), [timeline, compiled]);
+  // The move whose highlight colours are on the materials; reset when the findings change.
+  const shownMove = useRef(-2);
+  useEffect(() => {
+    shownMove.current = -2;
+  }, [linkSeverity, materials]);
+
+  useEffect(() => () => materials.forEach((m) => m.dispose()), [materials]);
+
+  useFrame(() => {
+    const move = poseAt(timeline, playhead.get().timeS, work.pose, work.scratch);
+    forwardKinematics(compiled, work.pose, work.buffers);
+    const frames = work.buffers.frames;
+    for (let i = 0; i < linkCount; i++) {
+      const g = groups.current[i];
+      if (!g) continue;
+      g.matrix.fromArray(frames, 16 * i);
+      g.matrixWorldNeedsUpdate = true;
+    }
+    if (tip.current) tip.current.position.set(work.buffers.tool[12], work.buffers.tool[13], work.buffers.tool[14]);
+    if (move !== shownMove.current) {
+      shownMove.current = move;
+      const sev = move >= 0 && move < linkSeverity.length ? linkSeverity[move] : null;
+      materials.forEach((m, i) => {
+        const s = sev?.[i];
+        m.color.copy(s ? SEVERITY_COLOR[s] : i === 0 ? BASE_COLOR : LINK_COLOR);
+      });
+    }
+  });
+
+  return (
+    <group name="arm">
+      {Array.from({ length: linkCount }, (_, i) => (
+        <group key={i} ref={(g) => { groups.current[i] = g; }} matrixAutoUpdate={false}>
+          {linkShapes(chain, i).map((shape, k) => (
+            <ShapeMesh key={k} shape={shape} material={materials[i]} />
+          ))}
+        </group>
+      ))}
+      <mesh ref={tip}>
+        <sphereGeometry args={[0.012, 16, 12]} />
+        <meshBasicMaterial color="#b8612a" />
+      </mesh>
+    </group>
+  );
+}
+
+/** A translucent copy of the arm at a fixed pose. */
+function GhostArm({ chain, compiled, pose, color }: { chain: ArmChain; compiled: CompiledChain; pose: readonly number[]; color: string }) {
+  const linkCount = compiled.jointCount + 1;
+  const groups = useRef<(THREE.Group | null)[]>([]);
+  const material = useMemo(() => new THREE.MeshBasicMaterial({ color, transparent: true, opacity: 0.16, depthWrite: false }), [color]);
+  useEffect(() => () => material.dispose(), [material]);
+  useLayoutEffect(() => {
+    const frames = linkFrames(compiled, pose, new Float64Array(16 * linkCount));
+    for (let i = 0; i < linkCount; i++) {
+      const g = groups.current[i];
+      if (!g) continue;
+      g.matrix.fromArray(frames, 16 * i);
+      g.matrixWorldNeedsUpdate = true;
+    }
+  }, [compiled, pose, linkCount]);
+  return (
+    <group>
+      {Array.from({ length: linkCount }, (_, i) => (
+        <group key={i} ref={(g) => { groups.current[i] = g; }} matrixAutoUpdate={false}>
+          {linkShapes(chain, i).map((shape, k) => (
+            <ShapeMesh key={k} shape={shape} material={material} />
+          ))}
+        </group>
+      ))}
+    </group>
+  );
+}
+
+/** The tool point's path over the whole plan, sampled at up to 100 Hz. */
+function ToolPath({ compiled, timeline }: { compiled: CompiledChain; timeline: Timeline }) {
+  const points = useMemo(() => {
+    const rate = timeline.totalS > 0 ? Math.min(100, 3000 / timeline.totalS) : 1;
+    const s = sampleTimeline(timeline, rate);
+    const buffers = createChainBuffers(compiled);
+    const out: [number, number, number][] = [];
+    for (let k = 0; k < s.count; k++) {
+      const t = forwardKinematics(compiled, s.position, buffers, k * s.jointCount);
+      out.push([t[12], t[13], t[14]]);
+    }
+    return out;
+  }, [compiled, timeline]);
+  if (points.length < 2) return null;
+  return <Line points={points} color="#b8612a" lineWidth={2} />;
+}
+
+function KeepOut({ box }: { box: KeepOutBox }) {
+  const size: [number, number, number] = [box.max[0] - box.min[0], box.max[1] - box.min[1], box.max[2] - box.min[2]];
+  const center: [number, number, number] = [(box.max[0] + box.min[0]) / 2, (box.max[1] + box.min[1]) / 2, (box.max[2] + box.min[2]) / 2];
+  return (
+    <mesh position={center}>
+      <boxGeometry args={size} />
+      <meshBasicMaterial color={verdictLook.fault.stroke} transparent opacity={0.12} depthWrite={false} />
+      <Edges color={verdictLook.fault.stroke} />
+    </mesh>
+  );
+}
+
+/** The work surface (z = 0 in the arm's base frame) with a 5 cm grid. */
+function WorkSurface() {
+  return (
+    <group>
+      <mesh position={[0, 0, -0.0015]} receiveShadow>
+        <planeGeometry args={[1.6, 1.6]} />
+        <meshStandardMaterial color="#ebe7dc" />
+      </mesh>
+      <Grid
+        args={[1.6, 1.6]}
+        rotation={[Math.PI / 2, 0, 0]}
+        cellSize={0.05}
+        cellThickness={0.6}
+        cellColor="#c9c3b3"
+        sectionSize={0.25}
+        sectionThickness={1}
+        sectionColor="#9c9483"
+        fadeDistance={6}
+      />
+    </group>
+  );
+}
+
+/** The 3D stage: arm, ghosts, tool path, work surface and keep-out zones, with orbit controls. */
+export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut }: StageProps) {
+  const playhead = usePlayheadStore();
+  const compiled = useCompiled(chain, joints);
+  return (
+    <Canvas
+      frameloop="demand"
+      dpr={[1, 1.5]}
+      camera={{ position: [0.95, -0.9, 0.7], up: [0, 0, 1], fov: 36, near: 0.01, far: 20 }}
+      gl={{ antialias: true, preserveDrawingBuffer: true }}
+      aria-label="3D stage: the arm at the playhead"
+      role="img"
+    >
+      <color attach="background" args={["#f3f1ea"]} />
+      <ambientLight intensity={0.75} />
+      <directionalLight position={[1.2, -1.5, 2.2]} intensity={1.6} />
+      <directionalLight position={[-1.5, 1, 1]} intensity={0.5} />
+      <Invalidator playhead={playhead} />
+      <WorkSurface />
+      {keepOut?.map((b, i) => <KeepOut key={i} box={b} />)}
+      {ghosts.map((g) => (
+        <GhostArm key={g.label} chain={chain} compiled={compiled} pose={g.pose} color={g.label === "start" ? "#1f6f86" : "#6d4bc3"} />
+      ))}
+      <ToolPath compiled={compiled} timeline={timeline} />
+      <AnimatedArm chain={chain} compiled={compiled} timeline={timeline} linkSeverity={linkSeverity} playhead={playhead} />
+      <OrbitControls makeDefault target={[0, 0, 0.22]} enableDamping={false} />
+    </Canvas>
+  );
+}
