@@ -404,8 +404,8 @@ function readJoint(j: XmlNode, problems: UrdfProblem[]): RawJoint | null {
     }
     maxVelocity = numbers(lim.velocity as string | undefined, 1, `${el} <limit velocity>`, problems, [NaN])[0];
     maxEffort = numbers(lim.effort as string | undefined, 1, `${el} <limit effort>`, problems, [NaN])[0];
-    if (lim.velocity !== undefined && !(maxVelocity > 0)) problems.push({ element: `${el} <limit velocity>`, message: "must be greater than 0" });
-    if (lim.effort !== undefined && !(maxEffort >= 0)) problems.push({ element: `${el} <limit effort>`, message: "must be at least 0" });
+    if (lim.velocity !== undefined && Number.isFinite(maxVelocity) && !(maxVelocity > 0)) problems.push({ element: `${el} <limit velocity>`, message: "must be greater than 0" });
+    if (lim.effort !== undefined && Number.isFinite(maxEffort) && !(maxEffort >= 0)) problems.push({ element: `${el} <limit effort>`, message: "must be at least 0" });
     if (!Number.isFinite(maxVelocity)) maxVelocity = null;
     if (!Number.isFinite(maxEffort)) maxEffort = null;
   }

@@ -1,0 +1,116 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { chainLimits, compileChain, createChainBuffers, forwardKinematics } from "@/kinematics/chain";
+import { resolveCartesianGoals, rotationErrorVector, solveIk, solveLinear } from "@/kinematics/ik";
+import * as mat4 from "@/kinematics/mat4";
+import { parseArm, parsePlan, type Arm } from "@/kinematics/plan";
+import { readJson } from "./helpers";
+import { expectClose } from "./tolerance";
+
+const armL = parseArm(readJson("kinematics/arms/bench-arm-l.json"));
+if (!armL.ok) throw new Error("demo arm L does not parse");
+const arm: Arm = armL.value;
+const chain = compileChain(arm.chain!, arm.joints.map((j) => j.type));
+const { lower, upper } = chainLimits(arm.joints, chain.jointCount);
+const poseArb = fc.tuple(...Array.from({ length: 6 }, (_, i) => fc.double({ min: lower[i] * 0.9, max: upper[i] * 0.9, noNaN: true })));
+
+function toolOf(q: ArrayLike<number>) {
+  const t = forwardKinematics(chain, q, createChainBuffers(chain));
+  return { m: Float64Array.from(t), position: [t[12], t[13], t[14]] as [number, number, number], rpy: mat4.toRpy([0, 0, 0], t) as [number, number, number] };
+}
+
+describe("inverse kinematics (damped least squares)", () => {
+  it("FK(IK(FK(q))) reaches the position and orientation of FK(q) for random reachable poses, within the joint travel", () => {
+    fc.assert(
+      fc.property(poseArb, fc.array(fc.double({ min: -0.3, max: 0.3, noNaN: true }), { minLength: 6, maxLength: 6 }), (q, noise) => {
+        const target = toolOf(q);
+        const seed = q.map((v, i) => Math.min(upper[i], Math.max(lower[i], v + noise[i])));
+        const r = solveIk(chain, { position: target.position, rpy: target.rpy }, { seed, lower, upper });
+        expect(r.reachable, `errors ${r.positionErrorM} m, ${r.orientationErrorRad} rad`).toBe(true);
+        r.pose.forEach((v, i) => expect(v >= lower[i] && v <= upper[i], `joint ${i} = ${v}`).toBe(true));
+        const back = toolOf(r.pose);
+        for (let k = 0; k < 3; k++) expectClose(back.position[k], target.position[k], 1e-4, 0, `p${k}`);
+        const w = rotationErrorVector(new Float64Array(3), target.m, back.m);
+        expect(Math.hypot(w[0], w[1], w[2])).toBeLessThan(1e-3);
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it("position-only targets converge from the middle of the travel (restarts allowed)", () => {
+    fc.assert(
+      fc.property(poseArb, (q) => {
+        const target = toolOf(q);
+        const r = solveIk(chain, { position: target.position }, { lower, upper });
+        expect(r.reachable).toBe(true);
+        const back = toolOf(r.pose);
+        expect(Math.hypot(back.position[0] - target.position[0], back.position[1] - target.position[1], back.position[2] - target.position[2])).toBeLessThan(1e-4);
+      }),
+      { numRuns: 40 },
+    );
+  });
+
+  it("a target beyond the arm's reach is reported unreachable with the remaining distance", () => {
+    // Reach from the shoulder axis (z = 0.16 m) is 0.28 + 0.25 + 0.06 + 0.05 + 0.10 = 0.74 m (the demo arm's lengths).
+    const r = solveIk(chain, { position: [2, 0, 0.16] }, { lower, upper });
+    expect(r.reachable).toBe(false);
+    expectClose(r.positionErrorM, 2 - 0.74, 1e-3, 0, "distance left");
+  });
+
+  it("an orientation the wrist cannot take at that point is unreachable, its position may still be close", () => {
+    // Straight down at a point right above the base: the wrist would have to fold through the upper arm.
+    const r = solveIk(chain, { position: [0, 0, 0.3], rpy: [0, 0, 0] }, { lower, upper, restarts: 3 });
+    expect(r.reachable).toBe(false);
+    expect(r.positionErrorM + r.orientationErrorRad).toBeGreaterThan(1e-3);
+  });
+
+  it("rotationErrorVector returns θ·axis for a rotation of θ about an axis, including θ = π", () => {
+    // Matrix logarithm, Lynch & Park, Modern Robotics (2017), §3.2.3.3.
+    for (const theta of [0.3, 2.5, Math.PI]) {
+      const axis = [1 / Math.sqrt(3), 1 / Math.sqrt(3), -1 / Math.sqrt(3)];
+      const target = mat4.fromAxisAngle(new Float64Array(16), axis, theta);
+      const w = rotationErrorVector(new Float64Array(3), target, mat4.create());
+      const sign = Math.sign(w[0]) || 1; // at θ = π the axis sign is arbitrary
+      for (let k = 0; k < 3; k++) expectClose(w[k] * sign, theta * axis[k], 1e-6, 0, `ω${k}`);
+    }
+  });
+
+  it("solveLinear solves a 3×3 system and refuses a singular one", () => {
+    const a = Float64Array.from([2, 1, 0, 1, 3, 1, 0, 1, 4]);
+    const b = Float64Array.from([3, 5, 5]); // solution (1, 1, 1)
+    expect(solveLinear(a, b, 3)).toBe(true);
+    b.forEach((v) => expectClose(v, 1, 1e-12));
+    expect(solveLinear(new Float64Array(9), new Float64Array(3), 3)).toBe(false);
+  });
+});
+
+describe("Cartesian goals in a plan", () => {
+  const base = { format: "jointproof.plan", version: 1, arm: readJson("kinematics/arms/bench-arm-l.json"), start: [0, 0.3, 0.6, 0.2, 0, 0, 0.01] };
+
+  it("a move with a target gets a joint goal that puts the tool point there; the gripper keeps its value", () => {
+    const parsed = parsePlan({ ...base, moves: [{ target: { position: [0.35, 0.2, 0.25] }, duration: 2 }] });
+    expect(parsed.ok).toBe(true);
+    if (!parsed.ok) return;
+    const goal = parsed.value.moves[0].goal;
+    expect(goal).toHaveLength(7);
+    expectClose(goal[6], 0.01, 1e-15, 0, "gripper");
+    const t = toolOf(goal);
+    [0.35, 0.2, 0.25].forEach((v, k) => expectClose(t.position[k], v, 1e-4, 0, `p${k}`));
+  });
+
+  it("an unreachable target is an input problem on moves[i].target that gives the distance", () => {
+    const parsed = parsePlan({ ...base, moves: [{ goal: [0, 0, 0, 0, 0, 0, 0], duration: 1 }, { target: { position: [1.5, 0, 0.2] }, duration: 2 }] });
+    expect(parsed.ok).toBe(false);
+    if (parsed.ok) return;
+    expect(parsed.problems.map((p) => p.path)).toEqual(["moves[1].target"]);
+    expect(parsed.problems[0].message).toMatch(/cannot reach \(1\.5, 0, 0\.2\) m .* mm away/);
+  });
+
+  it("a target on an arm without a chain is refused, and a document without targets is left unchanged", () => {
+    const noChain = { ...base, arm: { ...(base.arm as object), chain: undefined } };
+    const r = resolveCartesianGoals({ ...noChain, moves: [{ target: { position: [0.3, 0, 0.3] }, duration: 1 }] });
+    expect(r.problems).toEqual([{ path: "moves[0].target", message: "needs the arm's chain (arm.chain) to be turned into a joint goal" }]);
+    const plain = { ...base, moves: [{ goal: [0, 0, 0, 0, 0, 0, 0], duration: 1 }] };
+    expect(resolveCartesianGoals(plain).document).toBe(plain);
+  });
+});
