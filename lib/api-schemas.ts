@@ -3,7 +3,7 @@
  * forms and the OpenAPI document (lib/api-openapi.ts).
  */
 import { z } from "zod";
-import { armSchema, planSchema } from "./api-engine";
+import { armDocumentSchema, planSchema } from "./api-engine";
 
 const name = (max = 120) =>
   z.string({ error: "is required" }).trim().min(1, { error: "must not be empty" }).max(max, { error: `must be at most ${max} characters` });
@@ -28,8 +28,8 @@ export const addMemberSchema = z.strictObject({
   role: z.enum(["owner", "editor", "viewer"], { error: 'must be "owner", "editor" or "viewer"' }),
 });
 
-export const createArmSchema = z.strictObject({ name: name(), description: armSchema, note });
-export const createArmRevisionSchema = z.strictObject({ description: armSchema, note });
+export const createArmSchema = z.strictObject({ name: name(), description: armDocumentSchema, note });
+export const createArmRevisionSchema = z.strictObject({ description: armDocumentSchema, note });
 
 export const createPlanSchema = z.strictObject({ name: name(), armId: id });
 

@@ -1,0 +1,196 @@
+/**
+ * Bad input on every write route: missing fields, wrong types, malformed JSON, the wrong
+ * content type, oversized bodies, non-finite and huge numbers, wrong joint counts. Each must be
+ * a 4xx naming the field path — never a 500 — and must write nothing.
+ */
+import "./_env";
+import { beforeAll, describe, expect, it } from "vitest";
+import { db } from "@/db";
+import { apiTokens, armRevisions, arms, auditLog, planVersions, plans, projectMembers, projects, users } from "@/db/schema";
+import { createArm } from "@/db/queries/arms";
+import { createPlan } from "@/db/queries/plans";
+import { createProject } from "@/db/queries/projects";
+import * as accounts from "@/app/api/v1/accounts/route";
+import * as tokens from "@/app/api/v1/tokens/route";
+import * as user from "@/app/api/v1/users/[userId]/route";
+import * as projectsRoute from "@/app/api/v1/projects/route";
+import * as project from "@/app/api/v1/projects/[projectId]/route";
+import * as members from "@/app/api/v1/projects/[projectId]/members/route";
+import * as projectArms from "@/app/api/v1/projects/[projectId]/arms/route";
+import * as armRevisionsRoute from "@/app/api/v1/arms/[armId]/revisions/route";
+import * as projectPlans from "@/app/api/v1/projects/[projectId]/plans/route";
+import * as versions from "@/app/api/v1/plans/[planId]/versions/route";
+import * as check from "@/app/api/v1/check/route";
+import { call, demoArm, errorOf, gentlePlan, makeUser, tokenFor, type Auth } from "./_helpers";
+
+type Handler = Parameters<typeof call>[0];
+type Target = { name: string; handler: Handler; method: string; path: () => string; params: () => Record<string, string>; admin?: boolean; valid: () => unknown };
+type BadCase = { what: string; body?: unknown; raw?: string; type?: string; status: number; path?: string };
+
+let auth: Auth;
+let adminAuth: Auth;
+let ids: { projectId: string; armId: string; planId: string; userId: string; memberEmail: string };
+
+beforeAll(async () => {
+  const owner = await makeUser("researcher", "bad-input-owner");
+  const colleague = await makeUser("student", "bad-input-colleague");
+  const admin = await makeUser("admin", "bad-input-admin");
+  auth = { bearer: await tokenFor(owner.id) };
+  adminAuth = { bearer: await tokenFor(admin.id) };
+  const p = await createProject({ name: "Bad input", kind: "research", userId: owner.id });
+  const a = await createArm({ projectId: p.id, name: "Arm", description: demoArm.description, userId: owner.id });
+  const pl = await createPlan({ projectId: p.id, armId: a!.armId, name: "Plan", userId: owner.id });
+  ids = { projectId: p.id, armId: a!.armId, planId: pl.id, userId: colleague.id, memberEmail: colleague.email };
+});
+
+const doc = () => ({ ...gentlePlan(), arm: demoArm.description }) as Record<string, unknown> & { moves: Record<string, unknown>[]; arm: { joints: Record<string, unknown>[] } };
+const withMove = (patch: Record<string, unknown>) => {
+  const d = doc();
+  d.moves = [{ ...d.moves[0], ...patch }];
+  return d;
+};
+const withJoint = (j: number, patch: Record<string, unknown>) => {
+  const d = doc();
+  d.arm = { ...d.arm, joints: d.arm.joints.map((joint, i) => (i === j ? { ...joint, ...patch } : joint)) };
+  return d;
+};
+
+/** Bad plan documents, with the field path each must be refused at (relative to the document). */
+const badDocuments: { what: string; document?: unknown; raw?: (prefix: string) => string; path: string }[] = [
+  { what: "a start pose with one value too few", document: { ...doc(), start: [0, 0, 0, 0, 0, 0] }, path: "start" },
+  { what: "a goal pose with one value too many", document: withMove({ goal: [0, 0, 0, 0, 0, 0, 0, 0] }), path: "moves[0].goal" },
+  { what: "a negative duration", document: withMove({ duration: -1 }), path: "moves[0].duration" },
+  { what: "a duration given as text", document: withMove({ duration: "2" }), path: "moves[0].duration" },
+  { what: "NaN sent as text", document: withMove({ duration: "NaN" }), path: "moves[0].duration" },
+  { what: "an unknown shape", document: withMove({ shape: "wobble" }), path: "moves[0].shape" },
+  { what: "a zero velocity limit", document: withJoint(1, { maxVelocity: 0 }), path: "arm.joints[1].maxVelocity" },
+  { what: "min above max", document: withJoint(2, { min: 1, max: -1 }), path: "arm.joints[2].max" },
+  { what: "a missing format", document: { ...doc(), format: undefined }, path: "format" },
+  {
+    what: "a number too large for a double (1e400 parses as Infinity)",
+    raw: (prefix) => JSON.stringify(prefix ? { baseVersion: 0, document: doc() } : doc()).replace('"duration":2', '"duration":1e400'),
+    path: "moves[0].duration",
+  },
+];
+
+const targets: Target[] = [
+  { name: "POST /accounts", handler: accounts.POST, method: "POST", path: () => "/api/v1/accounts", params: () => ({}), valid: () => ({ email: "x@example.com", name: "X", password: "long-enough-1" }) },
+  { name: "POST /tokens", handler: tokens.POST, method: "POST", path: () => "/api/v1/tokens", params: () => ({}), valid: () => ({ name: "ci" }) },
+  { name: "PATCH /users/:id", handler: user.PATCH, method: "PATCH", path: () => `/api/v1/users/${ids.userId}`, params: () => ({ userId: ids.userId }), admin: true, valid: () => ({ siteRole: "researcher" }) },
+  { name: "POST /projects", handler: projectsRoute.POST, method: "POST", path: () => "/api/v1/projects", params: () => ({}), valid: () => ({ name: "P" }) },
+  { name: "PATCH /projects/:id", handler: project.PATCH, method: "PATCH", path: () => `/api/v1/projects/${ids.projectId}`, params: () => ({ projectId: ids.projectId }), valid: () => ({ name: "P" }) },
+  { name: "POST /projects/:id/members", handler: members.POST, method: "POST", path: () => `/api/v1/projects/${ids.projectId}/members`, params: () => ({ projectId: ids.projectId }), valid: () => ({ email: ids.memberEmail, role: "viewer" }) },
+  { name: "POST /projects/:id/arms", handler: projectArms.POST, method: "POST", path: () => `/api/v1/projects/${ids.projectId}/arms`, params: () => ({ projectId: ids.projectId }), valid: () => ({ name: "A", description: demoArm.description }) },
+  { name: "POST /arms/:id/revisions", handler: armRevisionsRoute.POST, method: "POST", path: () => `/api/v1/arms/${ids.armId}/revisions`, params: () => ({ armId: ids.armId }), valid: () => ({ description: demoArm.description }) },
+  { name: "POST /projects/:id/plans", handler: projectPlans.POST, method: "POST", path: () => `/api/v1/projects/${ids.projectId}/plans`, params: () => ({ projectId: ids.projectId }), valid: () => ({ name: "P", armId: ids.armId }) },
+  { name: "POST /plans/:id/versions", handler: versions.POST, method: "POST", path: () => `/api/v1/plans/${ids.planId}/versions`, params: () => ({ planId: ids.planId }), valid: () => ({ baseVersion: 0, document: doc() }) },
+  { name: "POST /check", handler: check.POST, method: "POST", path: () => "/api/v1/check", params: () => ({}), valid: () => doc() },
+];
+
+/** Cases every write route must refuse, whatever its body looks like. */
+const generalCases: BadCase[] = [
+  { what: "malformed JSON", raw: '{"name": ', status: 400, path: "(body)" },
+  { what: "a JSON array instead of an object", body: [1, 2, 3], status: 400 },
+  { what: "a plain-text content type", raw: "{}", type: "text/plain", status: 415 },
+  { what: "a body over the size limit", raw: JSON.stringify({ name: "x".repeat(1_100_000) }), status: 413 },
+];
+
+/** Route-specific cases: the field each must name. */
+const specificCases: Record<string, BadCase[]> = {
+  "POST /accounts": [
+    { what: "no fields", body: {}, status: 400, path: "email" },
+    { what: "a short password", body: { email: "a@example.com", name: "A", password: "short" }, status: 400, path: "password" },
+    { what: "a bad e-mail", body: { email: "not-an-address", name: "A", password: "long-enough-1" }, status: 400, path: "email" },
+    { what: "a site role that cannot be chosen", body: { email: "a@example.com", name: "A", password: "long-enough-1", siteRole: "admin" }, status: 400, path: "siteRole" },
+  ],
+  "POST /tokens": [
+    { what: "no name", body: {}, status: 400, path: "name" },
+    { what: "a zero expiry", body: { name: "t", expiresInDays: 0 }, status: 400, path: "expiresInDays" },
+    { what: "a huge expiry", body: { name: "t", expiresInDays: 1e12 }, status: 400, path: "expiresInDays" },
+  ],
+  "PATCH /users/:id": [
+    { what: "no fields", body: {}, status: 400, path: "siteRole" },
+    { what: "an unknown role", body: { siteRole: "superuser" }, status: 400, path: "siteRole" },
+    { what: "disabled as text", body: { disabled: "yes" }, status: 400, path: "disabled" },
+  ],
+  "POST /projects": [
+    { what: "no name", body: {}, status: 400, path: "name" },
+    { what: "a number as name", body: { name: 42 }, status: 400, path: "name" },
+    { what: "a name of 121 characters", body: { name: "n".repeat(121) }, status: 400, path: "name" },
+    { what: "an unknown kind", body: { name: "P", kind: "lab" }, status: 400, path: "kind" },
+    { what: "an unknown field", body: { name: "P", owner: "me" }, status: 400, path: "(body)" },
+  ],
+  "PATCH /projects/:id": [
+    { what: "no fields", body: {}, status: 400, path: "name" },
+    { what: "archived as text", body: { archived: "true" }, status: 400, path: "archived" },
+  ],
+  "POST /projects/:id/members": [
+    { what: "a bad e-mail", body: { email: "nobody", role: "viewer" }, status: 400, path: "email" },
+    { what: "an unknown role", body: { email: "x@example.com", role: "boss" }, status: 400, path: "role" },
+  ],
+  "POST /projects/:id/arms": [
+    { what: "no description", body: { name: "A" }, status: 400, path: "description" },
+    { what: "a joint with min above max", body: { name: "A", description: withJoint(0, { min: 2, max: 1 }).arm }, status: 400, path: "description.joints[0].max" },
+    { what: "repeated joint names", body: { name: "A", description: withJoint(1, { name: "base" }).arm }, status: 400, path: "description.joints[1].name" },
+    { what: "a negative control rate", body: { name: "A", description: { ...demoArm.description, controlRateHz: -1000 } }, status: 400, path: "description.controlRateHz" },
+  ],
+  "POST /arms/:id/revisions": [
+    { what: "no joints", body: { description: { ...demoArm.description, joints: [] } }, status: 400, path: "description.joints" },
+    { what: "an infinite velocity limit (as text)", body: { description: withJoint(3, { maxVelocity: "Infinity" }).arm }, status: 400, path: "description.joints[3].maxVelocity" },
+  ],
+  "POST /projects/:id/plans": [
+    { what: "no arm", body: { name: "P" }, status: 400, path: "armId" },
+    { what: "an arm id that is not an id", body: { name: "P", armId: "arm-1" }, status: 400, path: "armId" },
+  ],
+  "POST /plans/:id/versions": [
+    { what: "no base version", body: { document: doc() }, status: 400, path: "baseVersion" },
+    { what: "a base version as text", body: { baseVersion: "0", document: doc() }, status: 400, path: "baseVersion" },
+    { what: "a fractional base version", body: { baseVersion: 0.5, document: doc() }, status: 400, path: "baseVersion" },
+    { what: "no document", body: { baseVersion: 0 }, status: 400, path: "document" },
+    ...badDocuments.map((d) =>
+      d.raw
+        ? { what: d.what, raw: d.raw("document"), status: 400, path: `document.${d.path}` }
+        : { what: d.what, body: { baseVersion: 0, document: d.document }, status: 400, path: `document.${d.path}` },
+    ),
+  ],
+  "POST /check": badDocuments.map((d) => (d.raw ? { what: d.what, raw: d.raw(""), status: 400, path: d.path } : { what: d.what, body: d.document, status: 400, path: d.path })),
+};
+
+async function counts() {
+  const tables = { users, projects, projectMembers, arms, armRevisions, plans, planVersions, apiTokens, auditLog };
+  const out: Record<string, number> = {};
+  for (const [name, table] of Object.entries(tables)) out[name] = await db.$count(table);
+  return out;
+}
+
+const cases = targets.flatMap((t) => [...generalCases, ...(specificCases[t.name] ?? [])].map((c) => ({ target: t, ...c })));
+
+describe("bad input on every write route", () => {
+  it("has specific cases for every write route", () => {
+    for (const t of targets) expect(specificCases[t.name]?.length ?? 0, t.name).toBeGreaterThan(0);
+  });
+
+  it("accepts each route's valid body (so the refusals below are about the bad field)", async () => {
+    for (const t of targets.filter((t) => t.name !== "POST /accounts")) {
+      const res = await call(t.handler, { method: t.method, path: t.path(), params: t.params(), auth: t.admin ? adminAuth : auth, body: t.valid() });
+      expect(res.status, `${t.name}: ${res.text}`).toBeLessThan(300);
+    }
+  });
+
+  it.each(cases)("$target.name refuses $what with $status", async (c) => {
+    const before = await counts();
+    const res = await call(c.target.handler, {
+      method: c.target.method,
+      path: c.target.path(),
+      params: c.target.params(),
+      auth: c.target.admin ? adminAuth : auth,
+      ...(c.raw !== undefined ? { rawBody: c.raw, headers: { "content-type": c.type ?? "application/json" } } : { body: c.body }),
+    });
+    expect(res.status, res.text).toBe(c.status);
+    const error = errorOf(res);
+    expect(typeof error.code).toBe("string");
+    expect(typeof error.message).toBe("string");
+    if (c.path) expect(error.issues.map((i) => i.path)).toContain(c.path);
+    expect(await counts()).toEqual(before);
+  });
+});
