@@ -4,7 +4,7 @@
  * first job for a row has the row's id as its job id, so enqueueing twice creates one job. If
  * enqueueing fails after the commit, the worker's sweep finds the row and enqueues it.
  */
-import { PgBoss } from "pg-boss";
+import PgBoss from "pg-boss";
 import { markOutboxEnqueued } from "@/db/queries/mail";
 import { env } from "@/lib/env";
 import { mailEnv } from "./config";

@@ -1,0 +1,98 @@
+import { createSubmission, getArmRevisionById, getSubmittableVersion, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
+import { getActiveUserById } from "@/db/queries/users";
+import { json, readJson, readParams, route } from "@/lib/api";
+import { armSchema, planSchema } from "@/lib/api-engine";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeCourse } from "@/lib/course-permissions";
+import { AppError } from "@/lib/errors";
+import { enqueueMail } from "@/lib/mail/queue";
+import { submissionReceived } from "@/lib/mail/templates";
+import { checkAgainstAssignment } from "@/components/courses/rules";
+import { idParams, limitsSchema, submitSchema } from "@/components/courses/schemas";
+import { loadAssignment, outbox } from "../../../courses/course-api";
+
+/** GET /api/v1/assignments/:id/submissions — the caller's own submissions to it, newest first. */
+export const GET = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const actor = await requireActor(request);
+  const assignment = await loadAssignment(actor, id);
+  authorizeCourse(assignment.role, "submission:read-own");
+  return json({ submissions: await listOwnSubmissions({ userId: actor.userId, assignmentId: id }) });
+});
+
+/**
+ * POST /api/v1/assignments/:id/submissions — submits one saved plan version. The server re-checks
+ * it against the assignment's rules (required arm revision and poses, limits tightened by the
+ * course and the assignment) and stores the frozen document with the report. The instructors'
+ * e-mails are queued in the same transaction, so a mail server that is down loses nothing.
+ */
+export const POST = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const body = await readJson(request, submitSchema);
+  const actor = await requireActor(request);
+  const assignment = await loadAssignment(actor, id);
+  authorizeCourse(assignment.role, "submission:create");
+  const version = await getSubmittableVersion({ planId: body.planId, number: body.versionNumber, userId: actor.userId });
+  if (!version) throw new AppError("not_found:plan-version", "No such plan version in your projects.");
+
+  const plan = planSchema.safeParse(version.document);
+  const revision = await getArmRevisionById({ id: assignment.requiredArmRevisionId });
+  if (!plan.success || !revision) throw new AppError("unprocessable:plan", "The saved plan version cannot be read by this checker.");
+  const { report, problems } = checkAgainstAssignment(plan.data, armSchema.parse(revision.description), version.armRevisionId, {
+    requiredArmRevisionId: assignment.requiredArmRevisionId,
+    courseArmRevisionId: assignment.courseArmRevisionId,
+    requiredStart: assignment.requiredStart as number[] | null,
+    requiredGoals: assignment.requiredGoals as number[][] | null,
+    poseTolerance: assignment.poseTolerance,
+    courseLimits: limitsSchema.nullable().catch(null).parse(assignment.courseLimits),
+    limits: limitsSchema.nullable().catch(null).parse(assignment.limits),
+  });
+
+  const student = await getActiveUserById({ id: actor.userId });
+  const instructors = await listCourseInstructors({ courseId: assignment.courseId });
+  const result = await createSubmission(
+    {
+      assignmentId: id,
+      studentId: actor.userId,
+      planId: version.planId,
+      planVersionId: version.id,
+      planVersionNumber: version.number,
+      document: version.document,
+      armRevisionId: version.armRevisionId,
+      report,
+      verdict: report.verdict,
+      ruleProblems: problems,
+      late: Date.now() > assignment.dueAt.getTime(),
+    },
+    (submission) =>
+      instructors.map((instructor) =>
+        outbox(
+          "submission-received",
+          `submission-received:${submission.id}:${instructor.id}`,
+          instructor.email,
+          submissionReceived({
+            instructorName: instructor.name,
+            studentName: student?.name ?? "A student",
+            assignmentTitle: assignment.title,
+            courseTitle: assignment.courseTitle,
+            attempt: submission.attempt,
+            verdict: report.verdict,
+            late: submission.late,
+            ruleProblemCount: problems.length,
+            submissionId: submission.id,
+          }),
+        ),
+      ),
+  );
+  if ("notEnrolled" in result) throw new AppError("forbidden:submission", "You are no longer a student of this course.");
+  if ("conflict" in result) {
+    throw new AppError(
+      "conflict:submission",
+      result.conflict === "open"
+        ? "Your earlier submission is still waiting for review; you can submit again once it is returned."
+        : "This assignment is already approved.",
+    );
+  }
+  await enqueueMail(result.mailIds);
+  return json({ submission: { ...result.submission, document: undefined }, report, ruleProblems: problems }, 201);
+});

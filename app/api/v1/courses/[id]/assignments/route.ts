@@ -1,0 +1,41 @@
+import { createAssignment, getArmRevisionById, listAssignmentsForUser } from "@/db/queries/courses";
+import { json, readJson, readParams, route } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeCourse } from "@/lib/course-permissions";
+import { AppError } from "@/lib/errors";
+import { armSchema } from "@/lib/api-engine";
+import { createAssignmentSchema, idParams } from "@/components/courses/schemas";
+import { loadCourse } from "../../course-api";
+
+/** GET /api/v1/courses/:id/assignments — by due date, each with the caller's own status. */
+export const GET = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const actor = await requireActor(request);
+  const course = await loadCourse(actor, id);
+  authorizeCourse(course.role, "assignment:read");
+  return json({ assignments: await listAssignmentsForUser({ courseId: id, userId: actor.userId }) });
+});
+
+/** POST /api/v1/courses/:id/assignments — instructors set an assignment on a required arm revision. */
+export const POST = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const body = await readJson(request, createAssignmentSchema);
+  const actor = await requireActor(request);
+  const course = await loadCourse(actor, id);
+  authorizeCourse(course.role, "assignment:create");
+  const revision = await getArmRevisionById({ id: body.requiredArmRevisionId });
+  if (!revision) {
+    throw new AppError("unprocessable:arm-revision", "No such arm revision.", { issues: [{ path: "requiredArmRevisionId", message: "is not an arm revision" }] });
+  }
+  const arm = armSchema.parse(revision.description);
+  const n = arm.joints.length;
+  const poseIssues = [
+    ...(body.requiredStart && body.requiredStart.length !== n ? [{ path: "requiredStart", message: `must have ${n} values, one per joint` }] : []),
+    ...(body.requiredGoals ?? []).flatMap((g, i) => (g.length !== n ? [{ path: `requiredGoals[${i}]`, message: `must have ${n} values, one per joint` }] : [])),
+    ...(body.limits?.joints ?? []).flatMap((j, i) => (j.joint >= n ? [{ path: `limits.joints[${i}].joint`, message: `must be below ${n}` }] : [])),
+  ];
+  if (poseIssues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues: poseIssues });
+  const assignment = await createAssignment({ courseId: id, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
+  if (!assignment) throw new AppError("forbidden:assignment", "Only the course's instructors can set assignments.");
+  return json({ assignment }, 201);
+});

@@ -1,0 +1,18 @@
+import { removeStudent } from "@/db/queries/courses";
+import { json, readParams, route } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeCourse } from "@/lib/course-permissions";
+import { AppError } from "@/lib/errors";
+import { courseMemberParams } from "@/components/courses/schemas";
+import { loadCourse } from "../../../course-api";
+
+/** DELETE /api/v1/courses/:id/roster/:userId — removes a student; their submissions stay on record. */
+export const DELETE = route(async (request, context) => {
+  const { id, userId } = await readParams(context, courseMemberParams);
+  const actor = await requireActor(request);
+  const course = await loadCourse(actor, id);
+  authorizeCourse(course.role, "roster:manage");
+  const removed = await removeStudent({ courseId: id, instructorId: actor.userId, userId });
+  if (!removed) throw new AppError("not_found:student", "No such student in this course.");
+  return json({ removed: userId });
+});

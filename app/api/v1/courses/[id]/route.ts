@@ -1,0 +1,16 @@
+import { json, readParams, route } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeCourse, canCourse } from "@/lib/course-permissions";
+import { appLink } from "@/lib/mail/templates";
+import { idParams } from "@/components/courses/schemas";
+import { joinPath, loadCourse } from "../course-api";
+
+/** GET /api/v1/courses/:id — the course; instructors also get its join code and invitation link. */
+export const GET = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const actor = await requireActor(request);
+  const course = await loadCourse(actor, id);
+  authorizeCourse(course.role, "course:read");
+  if (canCourse(course.role, "course:manage")) return json({ course: { ...course, inviteUrl: appLink(joinPath(course.joinCode)) } });
+  return json({ course: { ...course, joinCode: undefined } });
+});

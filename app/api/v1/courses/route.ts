@@ -1,0 +1,35 @@
+import { createCourse, getArmRevisionById, listCoursesForUser } from "@/db/queries/courses";
+import { getProjectForUser } from "@/db/queries/projects";
+import { json, readJson, route } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { AppError } from "@/lib/errors";
+import { appLink } from "@/lib/mail/templates";
+import { authorizeSite } from "@/lib/permissions";
+import { createCourseSchema } from "@/components/courses/schemas";
+import { joinPath } from "./course-api";
+
+/** GET /api/v1/courses — the courses the caller is enrolled in (as instructor or student). */
+export const GET = route(async (request) => {
+  const actor = await requireActor(request);
+  const courses = await listCoursesForUser({ userId: actor.userId });
+  // Join codes are for instructors to hand out; students do not need them.
+  return json({ courses: courses.map((c) => (c.role === "instructor" ? c : { ...c, joinCode: undefined })) });
+});
+
+/** POST /api/v1/courses — an instructor creates a course and becomes its instructor. */
+export const POST = route(async (request) => {
+  const body = await readJson(request, createCourseSchema);
+  const actor = await requireActor(request);
+  authorizeSite(actor, "project:create-course");
+  if (body.requiredArmRevisionId && !(await getArmRevisionById({ id: body.requiredArmRevisionId }))) {
+    throw new AppError("unprocessable:arm-revision", "No such arm revision.", { issues: [{ path: "requiredArmRevisionId", message: "is not an arm revision" }] });
+  }
+  if (body.projectId) {
+    const project = await getProjectForUser({ projectId: body.projectId, userId: actor.userId });
+    if (!project || project.role !== "owner") {
+      throw new AppError("unprocessable:project", "Link a project you own.", { issues: [{ path: "projectId", message: "must be a project you own" }] });
+    }
+  }
+  const course = await createCourse({ userId: actor.userId, ...body });
+  return json({ course: { ...course, inviteUrl: appLink(joinPath(course.joinCode)) } }, 201);
+});

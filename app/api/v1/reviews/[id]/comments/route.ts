@@ -1,0 +1,34 @@
+import { addComment, listComments } from "@/db/queries/reviews";
+import { json, readJson, readParams, route } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeCourse } from "@/lib/course-permissions";
+import { AppError } from "@/lib/errors";
+import { commentSchema, idParams } from "@/components/courses/schemas";
+import { loadSubmission } from "../../../courses/course-api";
+
+/** GET /api/v1/reviews/:id/comments — the comments on submission :id. */
+export const GET = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const actor = await requireActor(request);
+  const submission = await loadSubmission(actor, id);
+  authorizeCourse(submission.viewerRole, submission.viewerRole === "instructor" ? "submission:read-all" : "submission:read-own");
+  return json({ comments: await listComments({ submissionId: id, userId: actor.userId }) });
+});
+
+/** POST /api/v1/reviews/:id/comments — an instructor pins a comment to a move, a joint and a time. */
+export const POST = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const body = await readJson(request, commentSchema);
+  const actor = await requireActor(request);
+  const submission = await loadSubmission(actor, id);
+  authorizeCourse(submission.viewerRole, "review:comment");
+  const doc = submission.document as { moves?: unknown[]; arm?: { joints?: unknown[] } };
+  const issues = [
+    ...(body.moveIndex !== undefined && body.moveIndex >= (doc.moves?.length ?? 0) ? [{ path: "moveIndex", message: `must be below ${doc.moves?.length ?? 0}` }] : []),
+    ...(body.jointIndex !== undefined && body.jointIndex >= (doc.arm?.joints?.length ?? 0) ? [{ path: "jointIndex", message: `must be below ${doc.arm?.joints?.length ?? 0}` }] : []),
+  ];
+  if (issues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues });
+  const comment = await addComment({ submissionId: id, authorId: actor.userId, ...body });
+  if (!comment) throw new AppError("conflict:submission", "This submission is already decided; comments are closed.");
+  return json({ comment }, 201);
+});

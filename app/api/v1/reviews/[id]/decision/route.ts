@@ -1,0 +1,41 @@
+import { decideSubmission, listComments } from "@/db/queries/reviews";
+import { getActiveUserById } from "@/db/queries/users";
+import { json, readJson, readParams, route } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeCourse } from "@/lib/course-permissions";
+import { AppError } from "@/lib/errors";
+import { enqueueMail } from "@/lib/mail/queue";
+import { submissionDecided } from "@/lib/mail/templates";
+import { decisionSchema, idParams } from "@/components/courses/schemas";
+import { loadSubmission, outbox } from "../../../courses/course-api";
+
+/** POST /api/v1/reviews/:id/decision — approve or return submission :id; the student's e-mail is queued with it. */
+export const POST = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const body = await readJson(request, decisionSchema);
+  const actor = await requireActor(request);
+  const submission = await loadSubmission(actor, id);
+  authorizeCourse(submission.viewerRole, "review:decide");
+  const reviewer = await getActiveUserById({ id: actor.userId });
+  const comments = await listComments({ submissionId: id, userId: actor.userId });
+  const result = await decideSubmission({ submissionId: id, reviewerId: actor.userId, decision: body.decision, summary: body.summary }, (review) => [
+    outbox(
+      `submission-${review.decision}`,
+      `submission-decided:${review.id}`,
+      submission.studentEmail,
+      submissionDecided({
+        studentName: submission.studentName,
+        assignmentTitle: submission.assignment.title,
+        courseTitle: submission.courseTitle,
+        decision: review.decision,
+        reviewerName: reviewer?.name ?? "Your instructor",
+        summary: review.summary,
+        commentCount: comments.length,
+        submissionId: id,
+      }),
+    ),
+  ]);
+  if (!result) throw new AppError("conflict:submission", "This submission was already decided.");
+  await enqueueMail(result.mailIds);
+  return json({ review: result.review }, 201);
+});

@@ -1,0 +1,15 @@
+import { listComments } from "@/db/queries/reviews";
+import { json, readParams, route } from "@/lib/api";
+import { requireActor } from "@/lib/auth-request";
+import { authorizeCourse } from "@/lib/course-permissions";
+import { idParams } from "@/components/courses/schemas";
+import { loadSubmission } from "../../courses/course-api";
+
+/** GET /api/v1/submissions/:id — the frozen plan, its report, the review and the comments (its student or the course's instructors). */
+export const GET = route(async (request, context) => {
+  const { id } = await readParams(context, idParams);
+  const actor = await requireActor(request);
+  const submission = await loadSubmission(actor, id);
+  authorizeCourse(submission.viewerRole, submission.viewerRole === "instructor" ? "submission:read-all" : "submission:read-own");
+  return json({ submission, comments: await listComments({ submissionId: id, userId: actor.userId }) });
+});
