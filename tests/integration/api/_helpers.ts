@@ -19,7 +19,7 @@ export const BASE = env().APP_URL.replace(/\/$/, "");
 export type TestUser = { id: string; email: string; password: string; siteRole: SiteRole };
 
 /** A fresh user with a unique e-mail (cheap bcrypt cost: these are test accounts). */
-export async function makeUser(siteRole: SiteRole, label = siteRole): Promise<TestUser> {
+export async function makeUser(siteRole: SiteRole, label: string = siteRole): Promise<TestUser> {
   const email = `${label}-${randomUUID().slice(0, 8)}@example.com`;
   const password = "test-password-123";
   const user = await createUser({ email, name: `Test ${label}`, siteRole, passwordHash: await bcrypt.hash(password, 4) });

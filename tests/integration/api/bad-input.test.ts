@@ -43,7 +43,7 @@ beforeAll(async () => {
   ids = { projectId: p.id, armId: a!.armId, planId: pl.id, userId: colleague.id, memberEmail: colleague.email };
 });
 
-const doc = () => ({ ...gentlePlan(), arm: demoArm.description }) as Record<string, unknown> & { moves: Record<string, unknown>[]; arm: { joints: Record<string, unknown>[] } };
+const doc = () => ({ ...gentlePlan(), arm: demoArm.description }) as unknown as Record<string, unknown> & { moves: Record<string, unknown>[]; arm: { joints: Record<string, unknown>[] } };
 const withMove = (patch: Record<string, unknown>) => {
   const d = doc();
   d.moves = [{ ...d.moves[0], ...patch }];

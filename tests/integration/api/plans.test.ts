@@ -81,7 +81,7 @@ describe("plan versions", () => {
     const v = (res.body as { version: { document: { moves: unknown[] }; armRevision: number; verdict: string } }).version;
     expect(v.verdict).toBe("fault");
     expect(v.armRevision).toBeGreaterThanOrEqual(1);
-    expect(v.document.moves).toEqual(jumpPlan().moves.map((m) => ({ shape: "quintic", ...(m as object) })));
+    expect(v.document.moves).toEqual((jumpPlan().moves as object[]).map((m) => ({ shape: "quintic", ...m })));
   });
 
   it("diffs two versions field by field", async () => {
