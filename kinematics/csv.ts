@@ -43,7 +43,16 @@ const powersOfTen = Float64Array.from({ length: 23 }, (_, i) => Number(`1e${i}`)
 const textDecoder = new TextDecoder();
 
 /** Parses a recording CSV from its bytes (UTF-8). */
-export function parseRecordingCsv(bytes: Uint8Array, options: CsvOptions = {}): CsvResult {
+export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): CsvResult {
+  // a plain Uint8Array ending in a line feed: the byte loops below then never read past the end
+  // (out-of-bounds reads would make them slow), and Node Buffers share one code path with browser arrays
+  let bytes = new Uint8Array(input.buffer, input.byteOffset, input.byteLength);
+  if (bytes.length > 0 && bytes[bytes.length - 1] !== LF) {
+    const copy = new Uint8Array(bytes.length + 1);
+    copy.set(bytes);
+    copy[bytes.length] = LF;
+    bytes = copy;
+  }
   const maxProblems = options.maxProblems ?? 20;
   const problems: RecordingProblem[] = [];
   let extra = 0;

@@ -186,6 +186,8 @@ export function streamCheck(arm: Arm, recording: Recording, options: StreamOptio
   const runStart = new Int32Array(3 * n).fill(-1);
   const runWorst = new Float64Array(3 * n);
   const runLevel = new Uint8Array(3 * n);
+  // joints with an open run of any kind (so the quiet fast path below never skips closing one)
+  const openRuns = new Uint8Array(n);
   const found: StreamFinding[] = [];
   let faults = 0;
   let cautions = 0;
@@ -201,9 +203,11 @@ export function streamCheck(arm: Arm, recording: Recording, options: StreamOptio
       found.push(streamFinding(arm, kind, j, runStart[slot], endSample, timeS[runStart[slot]], runWorst[slot], level === 2 ? "fault" : "caution", recording));
     }
     runStart[slot] = -1;
+    openRuns[j] = runStart[j] >= 0 || runStart[n + j] >= 0 || runStart[2 * n + j] >= 0 ? 1 : 0;
   };
   const note = (slot: number, k: number, value: number, level: number) => {
     if (runStart[slot] < 0) {
+      openRuns[slot % n] = 1;
       runStart[slot] = k;
       runWorst[slot] = value;
       runLevel[slot] = level;
@@ -218,6 +222,11 @@ export function streamCheck(arm: Arm, recording: Recording, options: StreamOptio
     const dt = k > 0 ? timeS[k] - timeS[k - 1] : 0;
     for (let j = 0; j < n; j++) {
       const q = position[row + j];
+      if (k > 0 && openRuns[j] === 0 && q >= min[j] && q <= max[j]) {
+        // fast path: a quiet step (below both caution thresholds) with no run to close
+        const quiet = Math.abs(q - position[row - n + j]);
+        if (quiet <= jumpCaution[j] && quiet <= speedCaution[j] * dt) continue;
+      }
       // range: this sample within travel
       if (q < min[j] || q > max[j]) note(RANGE * n + j, k, q, 2);
       else if (runStart[RANGE * n + j] >= 0) close(RANGE * n + j, k - 1);
