@@ -3,6 +3,8 @@
  * number here is made up for the demo. db/seed.ts writes it; `npm start` prints the sign-ins.
  * Fixed ids keep the seed idempotent: a second run updates the same rows.
  */
+import armH from "../kinematics/arms/bench-arm-h.json";
+import armL from "../kinematics/arms/bench-arm-l.json";
 import type { MemberRole, ProjectKind } from "./schema/projects";
 import type { SiteRole } from "./schema/users";
 
@@ -63,37 +65,90 @@ export const demoProjects: DemoProject[] = [
 ];
 
 /**
- * The two built-in demo arms: one six-joint arm design with a gripper joint, in a light
- * variant carrying a handle for guiding by hand and a heavier one carrying a parallel
- * gripper. Invented limits for a small research arm; angles in rad, the gripper in m.
- * Each is the `arm` object of a plan document (issue 3, version 1).
+ * The two built-in demo arms, designed for this demo (kinematics/arms/*.json, shared with the
+ * engine's tests): one six-joint arm with a gripper joint, in a light variant carrying a handle for
+ * guiding by hand and a heavier one carrying a parallel gripper. Each file is the `arm` object of a
+ * plan document.
  */
-function demoArm(name: string, speedScale: number, gripperMaxM: number) {
-  const j = (n: string, min: number, max: number, maxVelocity: number, maxAcceleration: number) => ({
-    name: n,
-    type: "revolute" as const,
-    min,
-    max,
-    maxVelocity: Math.round(maxVelocity * speedScale * 100) / 100,
-    maxAcceleration: Math.round(maxAcceleration * speedScale * 10) / 10,
-  });
-  return {
-    name,
-    controlRateHz: 1000,
-    cautionRatio: 0.9,
-    joints: [
-      j("base", -3.05, 3.05, 3.2, 18),
-      j("shoulder", -1.8, 1.8, 3.2, 16),
-      j("elbow", -1.6, 2.9, 3.6, 20),
-      j("wrist-pitch", -1.9, 1.9, 4.5, 28),
-      j("wrist-roll", -3.05, 3.05, 4.5, 28),
-      j("wrist-yaw", -2.9, 2.9, 5.0, 30),
-      { name: "gripper", type: "prismatic" as const, min: 0, max: gripperMaxM, maxVelocity: 0.12, maxAcceleration: 1.5 },
-    ],
-  };
-}
-
 export const demoArms = [
-  { id: "00000000-0000-4000-8000-000000000201", name: "Bench arm L (guide handle)", description: demoArm("Bench arm L (guide handle)", 1, 0.02) },
-  { id: "00000000-0000-4000-8000-000000000202", name: "Bench arm H (parallel gripper)", description: demoArm("Bench arm H (parallel gripper)", 0.8, 0.045) },
+  { id: "00000000-0000-4000-8000-000000000201", name: armL.name, description: armL },
+  { id: "00000000-0000-4000-8000-000000000202", name: armH.name, description: armH },
 ] as const;
+
+export type DemoPlan = {
+  id: string;
+  projectId: string;
+  armId: string;
+  name: string;
+  authorId: string;
+  /** One entry per version, oldest first: the start pose and moves of the plan document. */
+  versions: { note: string; start: number[]; moves: { goal: number[]; duration: number; shape?: "cubic" | "quintic" | "trapezoid" }[] }[];
+};
+
+const [course, research] = demoProjects;
+const [armLight, armHeavy] = demoArms;
+const home = [0, 0, 0, 0, 0, 0, 0.01];
+const reach = [1.2, -0.4, 0.8, 0.3, 0, 0.5, 0.01];
+
+/**
+ * Demo plans covering every verdict. Durations were chosen against the engine: 0.74 s is just
+ * above the 0.703 s shortest safe duration of the reach (a caution at 95% of the base's speed
+ * limit); the heavy arm's 0.4 s move faults and its second version is stretched until it passes.
+ */
+export const demoPlans: DemoPlan[] = [
+  {
+    id: "00000000-0000-4000-8000-000000000301",
+    projectId: course.id,
+    armId: armLight.id,
+    name: "Gentle pose change",
+    authorId: student1.id,
+    versions: [{ note: "Two seconds, quintic", start: home, moves: [{ goal: [0.4, -0.3, 0.6, 0.2, 0, 0.3, 0.015], duration: 2 }] }],
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000302",
+    projectId: course.id,
+    armId: armLight.id,
+    name: "Fast reach, just long enough",
+    authorId: student1.id,
+    versions: [
+      { note: "First try at one second", start: home, moves: [{ goal: reach, duration: 1 }] },
+      { note: "Trimmed to 0.74 s", start: home, moves: [{ goal: reach, duration: 0.74 }] },
+    ],
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000303",
+    projectId: course.id,
+    armId: armLight.id,
+    name: "Instant swing",
+    authorId: student2.id,
+    versions: [{ note: "Duration 0 across 1.2 rad", start: home, moves: [{ goal: [1.2, 0, 0, 0, 0, 0, 0.01], duration: 0 }] }],
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000304",
+    projectId: course.id,
+    armId: armLight.id,
+    name: "Reach down to the table",
+    authorId: student2.id,
+    versions: [
+      {
+        note: "Lean forward, then down",
+        start: home,
+        moves: [
+          { goal: [0, 0.6, 0.6, 0.3, 0, 0, 0.01], duration: 2 },
+          { goal: [0, 1.2, 1.2, 0.3, 0, 0, 0.01], duration: 2 },
+        ],
+      },
+    ],
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000305",
+    projectId: research.id,
+    armId: armHeavy.id,
+    name: "Replay pick, heavy gripper",
+    authorId: researcher.id,
+    versions: [
+      { note: "Copied from the light arm at 0.4 s", start: [0, 0, 0, 0, 0, 0, 0.02], moves: [{ goal: [1.0, -0.5, 0.9, 0.2, 0, 0.4, 0.03], duration: 0.4 }] },
+      { note: "Stretched for the heavier arm", start: [0, 0, 0, 0, 0, 0, 0.02], moves: [{ goal: [1.0, -0.5, 0.9, 0.2, 0, 0.4, 0.03], duration: 1.2 }] },
+    ],
+  },
+];

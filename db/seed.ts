@@ -7,8 +7,10 @@ import bcrypt from "bcryptjs";
 import { desc, eq } from "drizzle-orm";
 import { isDeepStrictEqual } from "node:util";
 import { db, pool } from "./index";
-import { armRevisions, arms, projectMembers, projects, users } from "./schema";
-import { demoArms, demoPeople, demoProjects, demoSignInLines } from "./demo";
+import { summarize } from "../lib/api-check";
+import { check, planSchema } from "../kinematics";
+import { armRevisions, arms, planVersions, plans, projectMembers, projects, users } from "./schema";
+import { demoArms, demoPeople, demoPlans, demoProjects, demoSignInLines } from "./demo";
 
 async function seedPeople() {
   for (const p of demoPeople) {
@@ -76,10 +78,45 @@ async function seedArms() {
   }
 }
 
+/**
+ * Demo plans: created once with their versions, each checked by the engine against the arm's
+ * latest revision. A plan that already exists is left alone (users may have saved versions since).
+ */
+async function seedPlans() {
+  for (const p of demoPlans) {
+    const [existing] = await db.select({ id: plans.id }).from(plans).where(eq(plans.id, p.id));
+    if (existing) continue;
+    const [revision] = await db
+      .select()
+      .from(armRevisions)
+      .where(eq(armRevisions.armId, p.armId))
+      .orderBy(desc(armRevisions.revision))
+      .limit(1);
+    await db.transaction(async (tx) => {
+      await tx.insert(plans).values({ id: p.id, projectId: p.projectId, armId: p.armId, name: p.name, createdBy: p.authorId, latestVersion: p.versions.length });
+      for (const [i, v] of p.versions.entries()) {
+        const document = planSchema.parse({ format: "jointproof.plan", version: 1, arm: revision.description, start: v.start, moves: v.moves });
+        const report = check(document);
+        await tx.insert(planVersions).values({
+          planId: p.id,
+          number: i + 1,
+          document,
+          armRevisionId: revision.id,
+          verdict: report.verdict,
+          summary: summarize(document, report),
+          note: v.note,
+          authorId: p.authorId,
+        });
+      }
+    });
+  }
+}
+
 async function main() {
   await seedPeople();
   await seedProjects();
   await seedArms();
+  await seedPlans();
   console.log(`[seed] demo data ready (${await db.$count(users)} users)`);
   console.log("[seed] demo sign-ins:");
   for (const line of demoSignInLines()) console.log(line);
