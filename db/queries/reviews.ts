@@ -88,6 +88,8 @@ export type SubmissionForUser = Submission & {
   viewerRole: CourseRole;
   assignment: Assignment;
   courseTitle: string;
+  /** The course's own stricter limits (the assignment's are in `assignment.limits`). */
+  courseLimits: unknown;
   studentName: string;
   studentEmail: string;
   review: Review | null;
@@ -101,6 +103,7 @@ export async function getSubmissionForUser({ submissionId, userId }: { submissio
       submission: submissions,
       assignment: assignments,
       courseTitle: courses.title,
+      courseLimits: courses.limits,
       studentName: student.name,
       studentEmail: student.email,
       review: reviews,
@@ -118,6 +121,7 @@ export async function getSubmissionForUser({ submissionId, userId }: { submissio
     viewerRole: row.teaches ? "instructor" : "student",
     assignment: row.assignment,
     courseTitle: row.courseTitle,
+    courseLimits: row.courseLimits,
     studentName: row.studentName,
     studentEmail: row.studentEmail,
     review: row.review,

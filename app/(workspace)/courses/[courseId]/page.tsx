@@ -1,0 +1,51 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
+import { getCourseForUser, listAssignmentsForUser, listRoster } from "@/db/queries/courses";
+import { listPlansForProject } from "@/db/queries/plans";
+import { listProjectsForUser } from "@/db/queries/projects";
+import { CourseView, type ArmChoice, type PlanChoice } from "@/components/courses/course-view";
+import { canCourse } from "@/lib/course-permissions";
+import { appLink } from "@/lib/mail/templates";
+import { requirePageActor } from "../../session";
+
+export const metadata: Metadata = { title: "Course" };
+export const dynamic = "force-dynamic";
+
+/** One course: its assignments with the caller's status; for instructors also the roster, invitations and grades. */
+export default async function CoursePage({ params }: { params: Promise<{ courseId: string }> }) {
+  const { courseId } = await params;
+  const actor = await requirePageActor(`/courses/${courseId}`);
+  if (!/^[0-9a-f-]{36}$/i.test(courseId)) notFound();
+  const course = await getCourseForUser({ courseId, userId: actor.userId });
+  if (!course) notFound();
+  const teaches = canCourse(course.role, "roster:read");
+  const [assignments, roster] = await Promise.all([
+    listAssignmentsForUser({ courseId, userId: actor.userId }),
+    teaches ? listRoster({ courseId, userId: actor.userId }) : Promise.resolve([]),
+  ]);
+
+  let arms: ArmChoice[] = [];
+  let plans: PlanChoice[] = [];
+  if (teaches) {
+    const list = await listArmsForUser({ userId: actor.userId });
+    const revisions = await Promise.all(list.map((a) => getArmRevisionForUser({ armId: a.id, userId: actor.userId })));
+    arms = list.flatMap((a, i) => (revisions[i] ? [{ revisionId: revisions[i].id, label: `${a.name} · revision ${revisions[i].revision}` }] : []));
+  } else {
+    const projects = await listProjectsForUser({ userId: actor.userId });
+    const lists = await Promise.all(projects.map((p) => listPlansForProject({ projectId: p.id, userId: actor.userId })));
+    plans = lists.flatMap((l, i) =>
+      l.filter((p) => p.latestVersion > 0).map((p) => ({ planId: p.id, version: p.latestVersion, label: `${projects[i].name} / ${p.name} · version ${p.latestVersion}`, verdict: p.latestVerdict })),
+    );
+  }
+
+  return (
+    <CourseView
+      course={{ id: course.id, title: course.title, term: course.term, role: course.role, joinCode: teaches ? course.joinCode : null, inviteUrl: teaches ? appLink(`/courses/join?code=${course.joinCode}`) : null }}
+      assignments={assignments.map((a) => ({ id: a.id, title: a.title, instructions: a.instructions, dueAt: a.dueAt.toISOString(), status: a.status, latestSubmissionId: a.latestSubmissionId }))}
+      roster={roster.map((r) => ({ userId: r.userId, name: r.name, email: r.email, role: r.role, joinedAt: r.joinedAt.toISOString() }))}
+      arms={arms}
+      plans={plans}
+    />
+  );
+}

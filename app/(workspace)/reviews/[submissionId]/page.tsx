@@ -1,0 +1,57 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { getSubmissionForUser, listComments } from "@/db/queries/reviews";
+import type { BenchPlan } from "@/components/editor/plan-state";
+import { ReviewWorkspace } from "@/components/review/review-workspace";
+import { tightenArm, type RuleProblem } from "@/components/courses/rules";
+import { limitsSchema } from "@/components/courses/schemas";
+import { planSchema } from "@/kinematics/plan";
+import type { Report } from "@/kinematics/report";
+import { requirePageActor } from "../../session";
+
+export const metadata: Metadata = { title: "Review" };
+export const dynamic = "force-dynamic";
+
+/**
+ * One submission, read-only, in the same stage, plots and findings as the bench — drawn against
+ * the limits it was checked against (the arm's, tightened by the course and the assignment) — with
+ * the review's comments pinned to moves, joints and moments; instructors comment and decide here.
+ */
+export default async function ReviewPage({ params }: { params: Promise<{ submissionId: string }> }) {
+  const { submissionId } = await params;
+  const actor = await requirePageActor(`/reviews/${submissionId}`);
+  if (!/^[0-9a-f-]{36}$/i.test(submissionId)) notFound();
+  const submission = await getSubmissionForUser({ submissionId, userId: actor.userId });
+  if (!submission) notFound();
+  const comments = await listComments({ submissionId, userId: actor.userId });
+  const parsed = planSchema.safeParse(submission.document);
+  if (!parsed.success) throw new Error(`submission ${submissionId} does not parse as a plan document`);
+  const raw = submission.document as { arm?: { chain?: unknown }; keepOut?: unknown };
+  const limits = [limitsSchema.nullable().catch(null).parse(submission.courseLimits), limitsSchema.nullable().catch(null).parse(submission.assignment.limits)];
+  const plan = { ...parsed.data, arm: { ...tightenArm(parsed.data.arm, ...limits), chain: raw.arm?.chain }, keepOut: raw.keepOut } as BenchPlan;
+
+  return (
+    <ReviewWorkspace
+      plan={plan}
+      report={submission.report as Report}
+      ruleProblems={submission.ruleProblems as RuleProblem[]}
+      canReview={submission.viewerRole === "instructor" && submission.status === "submitted"}
+      viewerRole={submission.viewerRole}
+      meta={{
+        id: submission.id,
+        studentName: submission.studentName,
+        assignmentTitle: submission.assignment.title,
+        courseTitle: submission.courseTitle,
+        submittedAt: submission.submittedAt.toISOString(),
+        late: submission.late,
+        attempt: submission.attempt,
+        previousId: submission.previousId,
+        status: submission.status,
+        planVersionNumber: submission.planVersionNumber,
+        planId: submission.planId,
+        review: submission.review ? { decision: submission.review.decision, summary: submission.review.summary } : null,
+      }}
+      comments={comments.map((c) => ({ id: c.id, body: c.body, authorName: c.authorName, moveIndex: c.moveIndex, jointIndex: c.jointIndex, timeS: c.timeS, createdAt: c.createdAt.toISOString() }))}
+    />
+  );
+}

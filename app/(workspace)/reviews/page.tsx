@@ -1,0 +1,34 @@
+import type { Metadata } from "next";
+import { listOwnSubmissions, listCoursesForUser } from "@/db/queries/courses";
+import { listReviewQueue } from "@/db/queries/reviews";
+import { ReviewQueue } from "@/components/review/review-queue";
+import { queueQuerySchema } from "@/components/courses/schemas";
+import { requirePageActor } from "../session";
+
+export const metadata: Metadata = { title: "Reviews" };
+export const dynamic = "force-dynamic";
+
+type Search = Record<string, string | string[] | undefined>;
+
+/** The review queue (submissions to the courses the caller teaches), filtered and sorted by the URL; and the caller's own submissions. */
+export default async function ReviewsPage({ searchParams }: { searchParams: Promise<Search> }) {
+  const raw = await searchParams;
+  const actor = await requirePageActor("/reviews");
+  const flat = Object.fromEntries(Object.entries(raw).flatMap(([k, v]) => (typeof v === "string" && v !== "" ? [[k, v]] : [])));
+  const parsed = queueQuerySchema.safeParse(flat);
+  const filter = parsed.success ? parsed.data : queueQuerySchema.parse({});
+  const [queue, mine, courses] = await Promise.all([
+    listReviewQueue({ userId: actor.userId, filter }),
+    listOwnSubmissions({ userId: actor.userId }),
+    listCoursesForUser({ userId: actor.userId }),
+  ]);
+  return (
+    <ReviewQueue
+      filter={filter}
+      teaches={courses.some((c) => c.role === "instructor")}
+      courses={courses.filter((c) => c.role === "instructor").map((c) => ({ id: c.id, title: c.title }))}
+      queue={queue.map((q) => ({ ...q, submittedAt: q.submittedAt.toISOString(), dueAt: q.dueAt.toISOString() }))}
+      mine={mine.map((m) => ({ id: m.id, assignmentTitle: m.assignmentTitle, courseTitle: m.courseTitle, submittedAt: m.submittedAt.toISOString(), attempt: m.attempt, verdict: m.verdict, status: m.status, late: m.late }))}
+    />
+  );
+}

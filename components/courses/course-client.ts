@@ -1,0 +1,55 @@
+/**
+ * Typed fetch wrappers over the course, assignment, submission and review routes for client
+ * components, with the same ApiError as lib/api-client.ts; and the TanStack Query keys they use.
+ */
+import { ApiError, type FieldIssue } from "@/lib/api-client";
+
+async function send<T>(path: string, init?: RequestInit): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(path, {
+      ...init,
+      headers: { Accept: "application/json", ...(init?.body ? { "Content-Type": "application/json" } : {}) },
+      credentials: "same-origin",
+    });
+  } catch (err) {
+    throw new ApiError(0, "network", `The server could not be reached (${err instanceof Error ? err.message : "network error"}).`);
+  }
+  const text = await res.text();
+  let body: unknown = null;
+  try {
+    body = text ? JSON.parse(text) : null;
+  } catch {
+    body = null;
+  }
+  if (!res.ok) {
+    const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } } | null)?.error;
+    throw new ApiError(res.status, e?.code ?? `http_${res.status}`, e?.message ?? `The server answered ${res.status}.`, e?.issues ?? []);
+  }
+  return body as T;
+}
+
+const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
+
+export const courseKeys = {
+  all: ["courses"] as const,
+  course: (id: string) => ["courses", id] as const,
+  roster: (id: string) => ["courses", id, "roster"] as const,
+  submission: (id: string) => ["submissions", id] as const,
+};
+
+export const courseApi = {
+  createCourse: (input: { title: string; term: string; limits?: { velocityScale?: number } }) =>
+    send<{ course: { id: string; joinCode: string; inviteUrl: string } }>("/api/v1/courses", post(input)).then((r) => r.course),
+  join: (code: string) => send<{ course: { id: string; title: string }; role: string }>("/api/v1/courses/join", post({ code })),
+  invite: (courseId: string, emails: string[]) => send<{ invited: string[] }>(`/api/v1/courses/${courseId}/invitations`, post({ emails })),
+  removeStudent: (courseId: string, userId: string) => send<{ removed: string }>(`/api/v1/courses/${courseId}/roster/${userId}`, { method: "DELETE" }),
+  createAssignment: (courseId: string, input: Record<string, unknown>) =>
+    send<{ assignment: { id: string } }>(`/api/v1/courses/${courseId}/assignments`, post(input)).then((r) => r.assignment),
+  submit: (assignmentId: string, input: { planId: string; versionNumber: number }) =>
+    send<{ submission: { id: string; verdict: string; attempt: number }; ruleProblems: { message: string }[] }>(`/api/v1/assignments/${assignmentId}/submissions`, post(input)),
+  comment: (submissionId: string, input: { body: string; moveIndex?: number; jointIndex?: number; timeS?: number }) =>
+    send<{ comment: { id: string } }>(`/api/v1/reviews/${submissionId}/comments`, post(input)).then((r) => r.comment),
+  decide: (submissionId: string, input: { decision: "returned" | "approved"; summary: string }) =>
+    send<{ review: { id: string } }>(`/api/v1/reviews/${submissionId}/decision`, post(input)).then((r) => r.review),
+};
