@@ -10,6 +10,10 @@ import * as versionRoute from "@/app/api/v1/plans/[planId]/versions/[version]/ro
 import * as exportRoute from "@/app/api/v1/plans/[planId]/versions/[version]/export/route";
 import * as diffRoute from "@/app/api/v1/plans/[planId]/diff/route";
 import * as checkRoute from "@/app/api/v1/check/route";
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { verifyCsvExport, verifyJsonExport } from "@/lib/api-export";
 import { call, demoArm, errorOf, gentlePlan, jumpPlan, makeUser, tokenFor, type Auth } from "./_helpers";
 
@@ -123,12 +127,42 @@ describe("exports", () => {
     expect(verifyCsvExport(res.text.replace("\n0,", "\n0.001,")).ok).toBe(false);
   });
 
-  it("refuses an export rate that would make too many waypoints (422 naming query.rateHz)", async () => {
-    const res = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/1/export?rateHz=10000`, params: { planId, version: "1" }, auth });
-    expect(res.status).toBe(200); // 2 s × 10 kHz × 8 columns is within the limit
+  it("refuses an export that would hold too many waypoints (422 naming query.rateHz) and a rate that is not a number (400)", async () => {
+    const long = gentlePlan();
+    long.moves = [{ goal: [0.3, -0.2, 0.4, 0.1, 0, 0.2, 0.01], duration: 900, shape: "quintic" }];
+    const saved = await saveVersion(await db.$count(planVersions, eq(planVersions.planId, planId)), long);
+    expect(saved.status).toBe(201);
+    const number = String((saved.body as { version: { number: number } }).version.number);
+    // 900 s × 10 kHz × 8 columns = 72 million values, over the limit; 900 s × 100 Hz is fine.
+    const tooMany = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=10000`, params: { planId, version: number }, auth });
+    expect(tooMany.status).toBe(422);
+    expect(errorOf(tooMany).issues[0].path).toBe("query.rateHz");
+    const fine = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?format=csv&rateHz=100`, params: { planId, version: number }, auth });
+    expect(fine.status).toBe(200);
     const bad = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/1/export?rateHz=abc`, params: { planId, version: "1" }, auth });
     expect(bad.status).toBe(400);
     expect(errorOf(bad).issues[0].path).toBe("query.rateHz");
+  });
+});
+
+describe("export and the command-line checker", () => {
+  it.each([
+    ["1", "pass", 0],
+    ["2", "fault", 1],
+  ])("bin/jointproof check reads export of version %s as a plan and finds the stored verdict (%s)", async (number, verdict, exitCode) => {
+    const res = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=20`, params: { planId, version: number }, auth });
+    expect(verifyJsonExport(res.text).ok).toBe(true);
+    const dir = mkdtempSync(join(tmpdir(), "jp-export-"));
+    try {
+      const file = join(dir, "export.json");
+      writeFileSync(file, res.text);
+      const run = spawnSync(process.execPath, ["bin/jointproof", "check", "--json", file], { encoding: "utf8", timeout: 60_000 });
+      expect(run.status, run.stderr).toBe(exitCode);
+      expect((JSON.parse(run.stdout) as { verdict: string }).verdict).toBe(verdict);
+      expect((res.body as { export: { report: { verdict: string } } }).export.report.verdict).toBe(verdict);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
 
