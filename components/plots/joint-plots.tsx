@@ -95,7 +95,9 @@ export function JointPlots(props: JointPlotsProps) {
           <span className="inline-flex items-center gap-1"><span className="inline-block h-0 w-4 border-t-2 border-dashed border-caution" /> caution {Math.round(cautionRatio * 100)}%</span>
         </span>
       </div>
-      {selectedJoints.length === 0 ? (
+      {totalS <= 0 ? (
+        <p className="px-2 py-6 text-center text-xs text-ink-soft">No motion yet: add a move with a duration to see positions, speeds and accelerations over time.</p>
+      ) : selectedJoints.length === 0 ? (
         <p className="px-2 py-6 text-center text-xs text-ink-soft">Pick a joint above to plot it.</p>
       ) : (
         quantities.map((q) => (

@@ -1,0 +1,106 @@
+/**
+ * Typed fetch wrappers over the /api/v1 routes, for TanStack Query in client components. Every
+ * failure becomes an {@link ApiError} carrying the API's one error shape (code, message, field issues).
+ */
+import type { ArmListItem } from "@/db/queries/arms";
+import type { ProjectForUser } from "@/db/queries/projects";
+import type { PlanListItem, VersionListItem } from "@/db/queries/plans";
+import type { ArmRevision } from "@/db/schema/arms";
+import type { PlanVersion } from "@/db/schema/plans";
+import type { Report } from "@/kinematics/report";
+import type { Change } from "@/lib/api-diff";
+
+/** A type as it arrives over JSON: dates become ISO strings. */
+export type Jsonified<T> = T extends Date
+  ? string
+  : T extends (infer U)[]
+    ? Jsonified<U>[]
+    : T extends object
+      ? { [K in keyof T]: Jsonified<T[K]> }
+      : T;
+
+export type ProjectDto = Jsonified<ProjectForUser>;
+export type PlanDto = Jsonified<PlanListItem>;
+export type VersionDto = Jsonified<VersionListItem>;
+export type ArmDto = Jsonified<ArmListItem>;
+export type ArmRevisionDto = Jsonified<ArmRevision>;
+export type SavedVersionDto = Jsonified<PlanVersion> & { armRevision: number };
+
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+
+/** An error answered by the API (or a network failure, status 0). */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly issues: FieldIssue[] = [],
+    readonly details: Record<string, unknown> = {},
+  ) {
+    super(message);
+    this.name = "ApiError";
+  }
+}
+
+async function request<T>(path: string, init?: RequestInit): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(path, {
+      ...init,
+      headers: { Accept: "application/json", ...(init?.body ? { "Content-Type": "application/json" } : {}), ...init?.headers },
+      credentials: "same-origin",
+    });
+  } catch (err) {
+    throw new ApiError(0, "network", `The server could not be reached (${err instanceof Error ? err.message : "network error"}).`);
+  }
+  const text = await res.text();
+  let body: unknown = null;
+  try {
+    body = text ? JSON.parse(text) : null;
+  } catch {
+    body = null;
+  }
+  if (!res.ok) {
+    const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null)?.error;
+    const { code, message, issues, ...details } = e ?? {};
+    throw new ApiError(res.status, code ?? `http_${res.status}`, message ?? `The server answered ${res.status}.`, issues ?? [], details);
+  }
+  return body as T;
+}
+
+const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
+
+export const api = {
+  listProjects: () => request<{ projects: ProjectDto[] }>("/api/v1/projects").then((r) => r.projects),
+  createProject: (input: { name: string; kind?: "research" | "personal" | "course" }) =>
+    request<{ project: ProjectDto }>("/api/v1/projects", post(input)).then((r) => r.project),
+  listPlans: (projectId: string) => request<{ plans: PlanDto[] }>(`/api/v1/projects/${projectId}/plans`).then((r) => r.plans),
+  createPlan: (projectId: string, input: { name: string; armId: string }) =>
+    request<{ plan: PlanDto }>(`/api/v1/projects/${projectId}/plans`, post(input)).then((r) => r.plan),
+  listVersions: (planId: string) => request<{ versions: VersionDto[] }>(`/api/v1/plans/${planId}/versions`).then((r) => r.versions),
+  getVersion: (planId: string, number: number) =>
+    request<{ version: Jsonified<PlanVersion> & { armRevision: number; authorName: string } }>(`/api/v1/plans/${planId}/versions/${number}`).then((r) => r.version),
+  saveVersion: (planId: string, input: { baseVersion: number; document: unknown; note?: string; armRevision?: number }) =>
+    request<{ version: SavedVersionDto; report: Report }>(`/api/v1/plans/${planId}/versions`, post(input)),
+  diff: (planId: string, from: number, to: number) =>
+    request<DiffDto>(`/api/v1/plans/${planId}/diff?from=${from}&to=${to}`),
+  exportUrl: (planId: string, number: number, format: "json" | "csv", rateHz?: number) =>
+    `/api/v1/plans/${planId}/versions/${number}/export?format=${format}${rateHz ? `&rateHz=${rateHz}` : ""}`,
+  listArms: (projectId?: string) =>
+    request<{ arms: ArmDto[] }>(projectId ? `/api/v1/projects/${projectId}/arms` : "/api/v1/arms").then((r) => r.arms),
+  getArm: (armId: string) => request<{ arm: { id: string; name: string; projectId: string | null; role: string | null; projectArchived: boolean }; revisions: ArmRevisionDto[] }>(`/api/v1/arms/${armId}`),
+  createArmRevision: (armId: string, input: { description: unknown; note?: string }) =>
+    request<{ revision: ArmRevisionDto }>(`/api/v1/arms/${armId}/revisions`, post(input)).then((r) => r.revision),
+  createArm: (projectId: string, input: { name: string; description: unknown; note?: string }) =>
+    request<{ arm: { id: string; name: string; projectId: string }; revision: ArmRevisionDto }>(`/api/v1/projects/${projectId}/arms`, post(input)),
+  check: (document: unknown) => request<{ report: Report }>("/api/v1/check", post(document)),
+};
+
+export interface DiffDto {
+  from: { number: number; verdict: "pass" | "caution" | "fault"; armRevision: number };
+  to: { number: number; verdict: "pass" | "caution" | "fault"; armRevision: number };
+  changes: Change[];
+}
