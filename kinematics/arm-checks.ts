@@ -73,8 +73,8 @@ function stateOf(plan: Plan): ArmState | null {
  * buffers (chain joints only) and returns the sample count. q = q₀ + s·D, q̇ = D·s′/T, q̈ = D·s″/T²
  * (chain rule, τ = t/T), the same interpolation as `sampleMoveAt`.
  */
-function sampleMove(s: ArmState, context: MoveContext, durationS: number): number {
-  const { n, rateHz } = s;
+function sampleMove(s: ArmState, context: MoveContext, durationS: number, rateHz = s.rateHz): number {
+  const { n } = s;
   const count = Math.floor(durationS * rateHz + 1e-9) + 2; // the grid plus the end sample
   if (s.time.length < count) {
     s.time = new Float64Array(count);
@@ -201,13 +201,22 @@ export const checkEffort: MoveChecker = (context, out) => {
   }
 };
 
-/** Shortest duration (s) at which joint j's peak effort stays within ratio × maxEffort, by bisection; null past 64 T. */
+/**
+ * Shortest duration (s) at which joint j's peak effort stays within ratio × maxEffort, by bisection
+ * (searched with at most 4000 samples per try, then confirmed at the control rate); null past 64 T.
+ */
 function shortestEffortDuration(s: ArmState, context: MoveContext, j: number, ratio: number): number | null {
   const limit = context.arm.joints[j].maxEffort! * ratio;
   const peak = new Float64Array(s.n), at = new Float64Array(s.n);
-  const passes = (T: number) => {
-    effortPeaks(s, sampleMove(s, context, T), peak, at);
+  const passesAt = (T: number, rateHz: number) => {
+    effortPeaks(s, sampleMove(s, context, T, rateHz), peak, at);
     return peak[j] <= limit;
+  };
+  const passes = (T: number) => passesAt(T, Math.min(s.rateHz, 4000 / T));
+  const confirm = (T: number) => {
+    // the coarse search may sit a hair short: step up by 0.5% until the control-rate samples pass
+    for (let k = 0; k < 20 && !passesAt(T, s.rateHz); k++) T *= 1.005;
+    return T;
   };
   let lo = context.move.duration, hi = lo * 2;
   while (!passes(hi)) {
@@ -220,7 +229,7 @@ function shortestEffortDuration(s: ArmState, context: MoveContext, j: number, ra
     if (passes(mid)) hi = mid;
     else lo = mid;
   }
-  return hi;
+  return confirm(hi);
 }
 
 /**
