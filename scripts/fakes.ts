@@ -1,0 +1,80 @@
+/**
+ * Local fakes of the outside services, for `npm start` and `npm test` only. Today: an
+ * S3-compatible object store (s3rver) on 127.0.0.1:$S3_PORT (default 54330), files under
+ * $JP_FAKES_DIR/s3. Prints `fakes ready` once every fake listens; runs until SIGTERM or SIGINT,
+ * then closes each fake and exits 0. The mail fake joins the `fakes` list in a later issue.
+ */
+import { mkdirSync } from "node:fs";
+import { join, resolve } from "node:path";
+import S3rver from "s3rver";
+
+type Fake = { name: string; start: () => Promise<void>; stop: () => Promise<void> };
+
+const host = "127.0.0.1";
+const dir = resolve(process.env.JP_FAKES_DIR ?? ".data/fakes");
+const s3Port = Number(process.env.S3_PORT ?? 54330);
+const bucket = process.env.S3_BUCKET ?? "jointproof";
+
+function s3Fake(): Fake {
+  const directory = join(dir, "s3");
+  mkdirSync(directory, { recursive: true });
+  const server = new S3rver({
+    address: host,
+    port: s3Port,
+    directory,
+    silent: true,
+    // Path-style URLs only (http://127.0.0.1:port/bucket/key), as lib/storage.ts sends them.
+    vhostBuckets: false,
+    configureBuckets: [{ name: bucket, configs: [] }],
+  });
+  return {
+    name: `S3 on http://${host}:${s3Port} (bucket ${bucket})`,
+    start: () =>
+      new Promise<void>((resolveStart, reject) => {
+        // s3rver reports a busy port as an 'error' event, not through run(); catch it here.
+        const onError = (err: Error) => reject(err);
+        process.once("uncaughtException", onError);
+        server.run().then(
+          () => {
+            process.off("uncaughtException", onError);
+            resolveStart();
+          },
+          (err: Error) => {
+            process.off("uncaughtException", onError);
+            reject(err);
+          },
+        );
+      }),
+    stop: () =>
+      new Promise<void>((done) => {
+        // Idle keep-alive connections would hold close() open for seconds.
+        (server as unknown as { httpServer?: import("node:http").Server }).httpServer?.closeAllConnections();
+        server.close(() => done());
+      }),
+  };
+}
+
+const fakes: Fake[] = [s3Fake()];
+
+let stopping = false;
+async function stop(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  console.log(`[fakes] ${signal}: closing`);
+  await Promise.allSettled(fakes.map((f) => f.stop()));
+  process.exit(0);
+}
+process.on("SIGTERM", () => void stop("SIGTERM"));
+process.on("SIGINT", () => void stop("SIGINT"));
+
+try {
+  for (const fake of fakes) {
+    await fake.start();
+    console.log(`[fakes] ${fake.name}`);
+  }
+  console.log("fakes ready");
+} catch (err) {
+  console.error("[fakes] failed to start:", err instanceof Error ? err.message : err);
+  await Promise.allSettled(fakes.map((f) => f.stop()));
+  process.exit(1);
+}
