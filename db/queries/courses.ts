@@ -282,7 +282,7 @@ export type NewSubmission = {
   assignmentId: string;
   studentId: string;
   planId: string;
-  planVersionId: string;
+  planVersionId: string | null;
   planVersionNumber: number;
   document: unknown;
   armRevisionId: string;

@@ -6,3 +6,4 @@ export * from "./plans";
 export * from "./recordings";
 export * from "./tokens";
 export * from "./audit";
+export * from "./courses";

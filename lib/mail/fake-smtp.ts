@@ -106,3 +106,13 @@ export async function clearFakeMailbox(dir: string): Promise<void> {
   await rm(dir, { recursive: true, force: true });
   await mkdir(dir, { recursive: true });
 }
+
+/**
+ * Starts the fake from the environment, for scripts/fakes.ts: SMTP_PORT (default 2525) on
+ * 127.0.0.1, storing under MAIL_FAKE_DIR or $JP_FAKES_DIR/mail.
+ */
+export async function startFakeSmtpFromEnv(env: NodeJS.ProcessEnv = process.env): Promise<FakeSmtp> {
+  const dir = env.MAIL_FAKE_DIR ?? (env.JP_FAKES_DIR ? path.join(env.JP_FAKES_DIR, "mail") : undefined);
+  if (!dir) throw new Error("Set MAIL_FAKE_DIR or JP_FAKES_DIR for the local SMTP fake's mail folder.");
+  return startFakeSmtp({ port: Number(env.SMTP_PORT ?? 2525), dir });
+}

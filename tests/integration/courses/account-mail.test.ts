@@ -1,0 +1,72 @@
+/**
+ * Password reset and e-mail verification through the real outbox, worker and SMTP fake: the link
+ * in the e-mail carries a one-time token that works once, and sign-in then takes the new password.
+ */
+import "../api/_env";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { db } from "@/db";
+import { users } from "@/db/schema";
+import { verifyCredentials } from "@/lib/auth";
+import { startMailHarness, type MailHarness } from "./_mail";
+import { makeUser } from "../api/_helpers";
+import type { MailWorker } from "@/lib/mail/worker";
+
+let mail: MailHarness;
+let worker: MailWorker;
+
+beforeAll(async () => {
+  mail = await startMailHarness();
+  const { startMailWorker } = await import("@/lib/mail/worker");
+  worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
+});
+
+afterAll(async () => {
+  await worker?.stop();
+  const { stopBoss } = await import("@/lib/mail/queue");
+  await stopBoss();
+  await mail?.close();
+});
+
+function tokenFrom(text: string, path: string): string {
+  const url = /https?:\/\/\S+/.exec(text.slice(text.indexOf(path) - 40))?.[0] ?? "";
+  const token = new URL(url).searchParams.get("token");
+  if (!token) throw new Error(`no token link in: ${text}`);
+  return token;
+}
+
+describe("account e-mails", () => {
+  it("resets a password once with the token from the e-mail", async () => {
+    const user = await makeUser("student", "reset");
+    const { requestPasswordReset, resetPassword } = await import("@/lib/mail/account-mail");
+    await requestPasswordReset({ email: user.email });
+    const message = await mail.waitFor((m) => m.to === user.email && m.kind === "password-reset");
+    expect(message.html).toContain("/reset-password?token=");
+    const token = tokenFrom(message.text, "/reset-password");
+
+    expect(await resetPassword({ token, password: "a-new-password-42" })).toBe(true);
+    expect(await resetPassword({ token, password: "another-password-43" })).toBe(false);
+    await expect(verifyCredentials({ email: user.email, password: "a-new-password-42" }, null)).resolves.toMatchObject({ id: user.id });
+    await expect(verifyCredentials({ email: user.email, password: user.password }, null)).rejects.toThrow();
+  });
+
+  it("sends nothing for an unknown address", async () => {
+    const { requestPasswordReset } = await import("@/lib/mail/account-mail");
+    const before = (await mail.messages()).length;
+    await requestPasswordReset({ email: "nobody-here@example.com" });
+    await new Promise((r) => setTimeout(r, 1_500));
+    expect((await mail.messages()).length).toBe(before);
+  });
+
+  it("verifies an address with the token from the e-mail", async () => {
+    const user = await makeUser("student", "verify");
+    const { requestEmailVerification, verifyEmail } = await import("@/lib/mail/account-mail");
+    await requestEmailVerification({ email: user.email });
+    const message = await mail.waitFor((m) => m.to === user.email && m.kind === "email-verification");
+    const token = tokenFrom(message.text, "/verify-email");
+    expect(await verifyEmail({ token })).toBe(true);
+    expect(await verifyEmail({ token })).toBe(false);
+    const [row] = await db.select({ verifiedAt: users.emailVerifiedAt }).from(users).where(eq(users.id, user.id));
+    expect(row.verifiedAt).toBeInstanceOf(Date);
+  });
+});
