@@ -2,6 +2,8 @@ import type { Metadata } from "next";
 import Image from "next/image";
 import Link from "next/link";
 import "./globals.css";
+import { SignOutButton } from "@/components/site/sign-out-button";
+import { optionalPageUser } from "@/lib/page-actor";
 import { mono, sans } from "./fonts";
 
 export const metadata: Metadata = {
@@ -9,7 +11,8 @@ export const metadata: Metadata = {
   description: "Plan joint moves for small robot arms and prove them against the arm's limits before the arm moves.",
 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  const user = await optionalPageUser();
   return (
     <html lang="en" className={`${sans.variable} ${mono.variable}`}>
       <body className="flex min-h-screen flex-col antialiased">
@@ -23,12 +26,29 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
               Jointproof
             </Link>
             <div className="flex flex-1 items-center gap-5 text-sm text-ink-soft">
-              <Link href="/projects" className="hover:text-ink">Projects</Link>
+              {user && (
+                <>
+                  <Link href="/projects" className="hover:text-ink">Projects</Link>
+                  <Link href="/courses" className="hover:text-ink">Courses</Link>
+                  {(user.actor.siteRole === "instructor" || user.actor.siteRole === "admin") && (
+                    <Link href="/reviews" className="hover:text-ink">Reviews</Link>
+                  )}
+                </>
+              )}
               <Link href="/api-docs" className="hover:text-ink">API</Link>
             </div>
-            <Link href="/sign-in" className="text-sm font-medium text-brand-600 hover:text-brand-700">
-              Sign in
-            </Link>
+            {user ? (
+              <div className="flex items-center gap-4">
+                <span className="text-sm text-ink-soft" title={user.email}>
+                  {user.name} <span className="text-ink-faint">· {user.actor.siteRole}</span>
+                </span>
+                <SignOutButton />
+              </div>
+            ) : (
+              <Link href="/sign-in" className="text-sm font-medium text-brand-600 hover:text-brand-700">
+                Sign in
+              </Link>
+            )}
           </nav>
         </header>
         <main id="main" className="flex-1">{children}</main>
