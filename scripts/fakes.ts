@@ -1,12 +1,15 @@
 /**
  * Local fakes of the outside services, for `npm start` and `npm test` only. Today: an
  * S3-compatible object store (s3rver) on 127.0.0.1:$S3_PORT (default 54330), files under
- * $JP_FAKES_DIR/s3. Prints `fakes ready` once every fake listens; runs until SIGTERM or SIGINT,
- * then closes each fake and exits 0. The mail fake joins the `fakes` list in a later issue.
+ * $JP_FAKES_DIR/s3; and, when SMTP_HOST is this machine, an SMTP server (lib/mail/fake-smtp.ts)
+ * on 127.0.0.1:$SMTP_PORT (default 54331) that stores each message under $MAIL_FAKE_DIR.
+ * Prints `fakes ready` once every fake listens; runs until SIGTERM or SIGINT, then closes each
+ * fake and exits 0.
  */
 import { mkdirSync } from "node:fs";
 import { join, resolve } from "node:path";
 import S3rver from "s3rver";
+import { startFakeSmtp, type FakeSmtp } from "../lib/mail/fake-smtp";
 
 type Fake = { name: string; start: () => Promise<void>; stop: () => Promise<void> };
 
@@ -54,7 +57,24 @@ function s3Fake(): Fake {
   };
 }
 
-const fakes: Fake[] = [s3Fake()];
+function smtpFake(): Fake {
+  const port = Number(process.env.SMTP_PORT ?? 54331);
+  const mailDir = resolve(process.env.MAIL_FAKE_DIR ?? join(dir, "mail"));
+  let running: FakeSmtp | undefined;
+  return {
+    name: `SMTP on ${host}:${port} (messages under ${mailDir})`,
+    start: async () => {
+      running = await startFakeSmtp({ host, port, dir: mailDir });
+    },
+    stop: async () => {
+      await running?.stop();
+    },
+  };
+}
+
+// A real mail server named in SMTP_HOST gets no fake in front of it.
+const smtpIsLocal = !process.env.SMTP_HOST || process.env.SMTP_HOST === host;
+const fakes: Fake[] = smtpIsLocal ? [s3Fake(), smtpFake()] : [s3Fake()];
 
 let stopping = false;
 async function stop(signal: string) {

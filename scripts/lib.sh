@@ -179,10 +179,9 @@ wait_for_http() {
   return 1
 }
 
-# The local fakes of the object-storage (and later mail) services, in the background.
+# The local fakes of the object-storage and mail services, in the background.
 # Appends the process to PIDS; waits for its "fakes ready" line.
 start_fakes() {
-  [ -f "$ROOT/scripts/fakes.ts" ] || return 0
   mkdir -p "$JP_FAKES_DIR"
   local logf="$ROOT/.data/fakes-$S3_PORT.log"
   : >"$logf"
@@ -190,10 +189,26 @@ start_fakes() {
   PIDS+=($!)
   local i
   for ((i = 0; i < 120; i++)); do
-    grep -q "fakes ready" "$logf" && { log "local service fakes ready (S3 on 127.0.0.1:$S3_PORT)"; return 0; }
+    grep -q "fakes ready" "$logf" && { log "local service fakes ready (S3 on 127.0.0.1:$S3_PORT, SMTP on 127.0.0.1:${SMTP_PORT:-none})"; return 0; }
     kill -0 "${PIDS[-1]}" 2>/dev/null || break
     sleep 0.25
   done
   cat "$logf" >&2
   die "the local service fakes did not start"
+}
+
+# The mail worker (lib/mail/run-worker.ts) in the background: it sends queued messages with
+# retry. `react-server` lets `import "server-only"` load outside Next (an empty marker module).
+start_mail_worker() {
+  local logf="$1"
+  NODE_OPTIONS=--conditions=react-server node_modules/.bin/tsx lib/mail/run-worker.ts >"$logf" 2>&1 &
+  PIDS+=($!)
+  local i
+  for ((i = 0; i < 120; i++)); do
+    grep -q "worker ready" "$logf" && { log "mail worker ready"; return 0; }
+    kill -0 "${PIDS[-1]}" 2>/dev/null || break
+    sleep 0.25
+  done
+  cat "$logf" >&2
+  die "the mail worker did not start"
 }

@@ -33,13 +33,19 @@ node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx db/seed.ts | tee .data/signins.txt
 
 export S3_PORT="${S3_PORT:-54330}" JP_FAKES_DIR="${JP_FAKES_DIR:-$ROOT/.data/fakes}"
+# Mail goes to the local SMTP fake unless SMTP_HOST names a real server; /dev/mail lists it.
+if [ -z "${SMTP_HOST:-}" ]; then
+  export SMTP_HOST=127.0.0.1 SMTP_PORT="${SMTP_PORT:-54331}" MAIL_FAKE_DIR="$JP_FAKES_DIR/mail" JP_DEV_MAIL=1
+fi
 start_fakes
 
 build_if_stale
 
 export NODE_ENV=production APP_URL="${APP_URL:-http://127.0.0.1:$APP_PORT}" NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$APP_PORT}"
 node_modules/.bin/next start -H 127.0.0.1 -p "$APP_PORT" >.data/server.log 2>&1 &
-PIDS+=($!)
+SERVER_PID=$!
+PIDS+=("$SERVER_PID")
+start_mail_worker .data/mail-worker.log
 wait_for_http "http://127.0.0.1:$APP_PORT/api/health" 60 || { tail -30 .data/server.log >&2; die "the web server did not come up; see .data/server.log"; }
 
 log "Jointproof is running at http://127.0.0.1:$APP_PORT  (Ctrl-C stops it)"
@@ -48,4 +54,4 @@ if grep -q ' / ' .data/signins.txt 2>/dev/null; then
   grep ' / ' .data/signins.txt >&2
 fi
 log "server log: .data/server.log"
-wait "${PIDS[-1]}"
+wait "$SERVER_PID"

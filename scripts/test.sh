@@ -33,6 +33,7 @@ node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx db/seed.ts >.data/test/seed.log
 
 export S3_PORT="${JP_TEST_S3_PORT:-54340}" JP_FAKES_DIR="$ROOT/.data/test/fakes"
+export SMTP_HOST=127.0.0.1 SMTP_PORT="${JP_TEST_SMTP_PORT:-54341}" MAIL_FAKE_DIR="$ROOT/.data/test/fakes/mail" JP_DEV_MAIL=1 MAIL_RETRY_DELAY_S=1
 rm -rf "$JP_FAKES_DIR"
 start_fakes
 export NODE_ENV=test
@@ -66,6 +67,7 @@ step "unit and integration tests" node_modules/.bin/vitest run --reporter=defaul
 ensure_chromium
 if NODE_ENV=production build_if_stale; then
   export JP_TEST_PORT="${JP_TEST_PORT:-3100}"
+  start_mail_worker .data/test/mail-worker.log
   step "browser tests" node_modules/.bin/vitest run --config vitest.e2e.config.ts --reporter=default --reporter=json --outputFile.json=.data/test/e2e.json
 else
   FAILED+=("build")
