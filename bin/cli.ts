@@ -12,6 +12,7 @@ import { parseArm, parsePlan, type Arm, type InputProblem } from "../kinematics/
 import type { Report, Verdict } from "../kinematics/report";
 import { alignRecording, repairStream, streamCheck, validateRecording, type StreamReport } from "../kinematics/stream";
 import { formatNumber, formatQuantity } from "../kinematics/wording";
+import { armUsage, isArmCommand, runArmCommand } from "./arm-commands"; // arm model (issue 4): arm import, fk, ik
 
 /** Where the command writes; replaced in tests only by the real process streams. */
 interface Io {
@@ -232,9 +233,10 @@ function runScan(args: Args, io: Io): number {
 /** Runs the command line; returns the exit code. */
 export async function main(argv: string[], io: Io = processIo): Promise<number> {
   try {
+    if (isArmCommand(argv[0])) return runArmCommand(argv, io); // arm model (issue 4): own options
     const args = parseArgs(argv);
     if (args.command === "help") {
-      io.out(usage);
+      io.out(usage + armUsage);
       return 0;
     }
     if (args.command === "check") return runCheck(args, io);

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { Matrix4, Vector3 } from "three";
-import { describe, expect, it } from "vitest";
+import { describe, it } from "vitest";
 import { createChainBuffers, forwardKinematics, linkFrames } from "@/kinematics/chain";
 import { chainFromModifiedDh, chainFromStandardDh, type DhRow } from "@/kinematics/dh";
 import * as mat4 from "@/kinematics/mat4";
