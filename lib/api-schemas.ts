@@ -70,4 +70,12 @@ export const adminUpdateUserSchema = z
   .refine((v) => v.siteRole !== undefined || v.disabled !== undefined, { error: "give siteRole or disabled", path: ["siteRole"] });
 
 export { signUpSchema } from "./auth-schemas";
+
 export { planSchema as checkPlanSchema };
+
+/** Query string of a recording upload; the body is the CSV file itself (`t,<joint names…>`). */
+export const uploadRecordingQuery = z.strictObject({
+  name: name(),
+  /** Check the recording as a stream against this arm (built in or one of the project's). */
+  armId: id.optional(),
+});

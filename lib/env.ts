@@ -17,6 +17,8 @@ const envSchema = z.object({
   UPLOAD_LIMIT_BYTES: z.coerce.number().int().positive().default(50 * 1_048_576),
   /** S3-compatible object storage for uploads. `npm start` and `npm test` point these at the local fake (scripts/fakes.ts). */
   S3_ENDPOINT: z.string().url().optional(),
+  /** Port of the local fake on 127.0.0.1 (scripts/fakes.ts); used as the endpoint when S3_ENDPOINT is unset. */
+  S3_PORT: z.coerce.number().int().min(1).max(65535).optional(),
   S3_REGION: z.string().min(1).default("us-east-1"),
   S3_BUCKET: z.string().min(3).default("jointproof"),
   S3_ACCESS_KEY_ID: z.string().min(1).optional(),

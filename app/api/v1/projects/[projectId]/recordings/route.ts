@@ -1,0 +1,94 @@
+import { createHash, randomUUID } from "node:crypto";
+import { z } from "zod";
+import { getArmRevisionForUser } from "@/db/queries/arms";
+import { recordAudit } from "@/db/queries/audit";
+import { createRecording, listRecordings } from "@/db/queries/recordings";
+import { json, readBodyLimited, readParams, readQuery, route, uuidParam } from "@/lib/api";
+import { alignRecording, armSchema, parseRecordingCsv, streamCheck } from "@/lib/api-engine";
+import { loadProject, membershipOf } from "@/lib/api-load";
+import { uploadRecordingQuery } from "@/lib/api-schemas";
+import { requireActor } from "@/lib/auth-request";
+import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
+import { authorizeProject } from "@/lib/permissions";
+import { deleteObject, putObject } from "@/lib/storage";
+
+const params = z.object({ projectId: uuidParam });
+
+/** GET /api/v1/projects/:projectId/recordings */
+export const GET = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "recording:read");
+  return json({ recordings: await listRecordings({ projectId, userId: actor.userId }) });
+});
+
+/**
+ * POST /api/v1/projects/:projectId/recordings?name=…&armId=… with the CSV file as the body
+ * (Content-Type: text/csv). The declared size is checked before anything is read and the body is
+ * read only up to UPLOAD_LIMIT_BYTES; the file is parsed (and stream-checked when armId is given)
+ * before it is stored; the row is written only after the object, and the object is removed again
+ * if the row cannot be written — a failed upload leaves nothing behind.
+ */
+export const POST = route(async (request, context) => {
+  const { projectId } = await readParams(context, params);
+  const query = readQuery(request, uploadRecordingQuery);
+  const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
+  if (type !== "text/csv") throw new AppError("unsupported_media_type", "Send the recording as CSV (Content-Type: text/csv).");
+  const limit = env().UPLOAD_LIMIT_BYTES;
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  if (declared > limit) throw new AppError("payload_too_large", `The file is larger than ${limit} bytes.`, { details: { limitBytes: limit } });
+
+  const actor = await requireActor(request);
+  const project = await loadProject(actor, projectId);
+  authorizeProject(membershipOf(project), "recording:create");
+  const revision = query.armId ? await getArmRevisionForUser({ armId: query.armId, userId: actor.userId }) : undefined;
+  if (query.armId && !revision) {
+    throw new AppError("unprocessable:arm", "No such arm.", { issues: [{ path: "query.armId", message: "is not an arm you can use" }] });
+  }
+
+  const bytes = await readBodyLimited(request, limit);
+  const parsed = parseRecordingCsv(bytes);
+  if (!parsed.recording) {
+    throw new AppError("unprocessable:recording", "The file is not a valid recording.", {
+      issues: parsed.problems.map((p) => ({ path: p.row < 0 ? "(header)" : `row ${p.row}${p.column ? `.${p.column}` : ""}`, message: p.message })),
+    });
+  }
+  let recording = parsed.recording;
+  let stream = null;
+  if (revision) {
+    const arm = armSchema.parse(revision.description);
+    const aligned = alignRecording(arm, recording);
+    if (!aligned.recording) {
+      throw new AppError("unprocessable:recording", "The recording's columns do not match the arm's joints.", {
+        issues: aligned.problems.map((p) => ({ path: p.column ? `(header).${p.column}` : "(header)", message: p.message })),
+      });
+    }
+    recording = aligned.recording;
+    stream = streamCheck(arm, recording, { maxFindings: 50 });
+  }
+
+  const key = `recordings/${projectId}/${randomUUID()}.csv`;
+  await putObject(key, bytes, "text/csv");
+  try {
+    const row = await createRecording({
+      projectId,
+      armId: query.armId ?? null,
+      name: query.name,
+      objectKey: key,
+      contentType: "text/csv",
+      sizeBytes: bytes.byteLength,
+      sha256: createHash("sha256").update(bytes).digest("hex"),
+      sampleCount: recording.count,
+      jointCount: recording.jointCount,
+      durationS: recording.count > 0 ? recording.timeS[recording.count - 1] - recording.timeS[0] : 0,
+      createdBy: actor.userId,
+    });
+    await recordAudit({ actorId: actor.userId, action: "recording.create", targetType: "recording", targetId: row.id, projectId });
+    return json({ recording: row, stream }, 201);
+  } catch (err) {
+    await deleteObject(key).catch((e) => console.error("[recordings] could not remove orphaned object", key, e));
+    throw err;
+  }
+});
