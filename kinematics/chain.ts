@@ -176,8 +176,8 @@ export function linkFrames(
     // Joint motion: rotation about the axis (revolute) or translation along it (prismatic).
     if (chain.prismatic[i]) mat4.fromAxisTranslation(motion, chain.axis, q, 0, 3 * i);
     else mat4.fromAxisAngle(motion, chain.axis, q, 0, 3 * i);
-    mat4.multiply(out, out, chain.origin, 16 * (i + 1), 16 * i, 16 * i);
-    mat4.multiply(out, out, motion, 16 * (i + 1), 16 * (i + 1), 0);
+    mat4.multiplyRigid(out, out, chain.origin, 16 * (i + 1), 16 * i, 16 * i);
+    mat4.multiplyRigid(out, out, motion, 16 * (i + 1), 16 * (i + 1), 0);
   }
   return out;
 }
@@ -193,7 +193,7 @@ export function forwardKinematics(
   poseOffset = 0,
 ): Float64Array {
   linkFrames(chain, pose, buffers.frames, buffers.motion, poseOffset);
-  return mat4.multiply(buffers.tool, buffers.frames, chain.tool, 0, 16 * chain.jointCount, 0);
+  return mat4.multiplyRigid(buffers.tool, buffers.frames, chain.tool, 0, 16 * chain.jointCount, 0);
 }
 
 /**

@@ -59,6 +59,33 @@ export function multiply(
 }
 
 /**
+ * out = a · b for rigid transforms (bottom rows 0 0 0 1): the 3×4 part only, 36 multiply-adds
+ * instead of 64; `out` may alias `a` or `b`.
+ */
+export function multiplyRigid(
+  out: Float64Array,
+  a: ArrayLike<number>,
+  b: ArrayLike<number>,
+  o = 0,
+  ao = 0,
+  bo = 0,
+): Float64Array {
+  const a00 = a[ao], a10 = a[ao + 1], a20 = a[ao + 2];
+  const a01 = a[ao + 4], a11 = a[ao + 5], a21 = a[ao + 6];
+  const a02 = a[ao + 8], a12 = a[ao + 9], a22 = a[ao + 10];
+  const a03 = a[ao + 12], a13 = a[ao + 13], a23 = a[ao + 14];
+  for (let c = 0; c < 4; c++) {
+    const b0 = b[bo + 4 * c], b1 = b[bo + 4 * c + 1], b2 = b[bo + 4 * c + 2];
+    const w = c === 3 ? 1 : 0; // b's bottom row is (0, 0, 0, 1)
+    out[o + 4 * c] = a00 * b0 + a01 * b1 + a02 * b2 + a03 * w;
+    out[o + 4 * c + 1] = a10 * b0 + a11 * b1 + a12 * b2 + a13 * w;
+    out[o + 4 * c + 2] = a20 * b0 + a21 * b1 + a22 * b2 + a23 * w;
+    out[o + 4 * c + 3] = w;
+  }
+  return out;
+}
+
+/**
  * Rigid transform from a translation `xyz` (m) and fixed-axis roll/pitch/yaw `rpy` (rad).
  * R = Rz(yaw)·Ry(pitch)·Rx(roll) — URDF XML specification, `<origin>` element.
  */
