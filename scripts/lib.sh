@@ -201,6 +201,7 @@ start_fakes() {
 # retry. `react-server` lets `import "server-only"` load outside Next (an empty marker module).
 start_mail_worker() {
   local logf="$1"
+  : >"$logf"
   NODE_OPTIONS=--conditions=react-server node_modules/.bin/tsx lib/mail/run-worker.ts >"$logf" 2>&1 &
   PIDS+=($!)
   local i
