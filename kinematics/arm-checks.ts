@@ -269,6 +269,7 @@ export type ClearanceFinding = Finding & { link: string; zone: string; time: num
  * Move checker `clearance`: every link's collision shapes against the work surface (plus the
  * plan's `surfaceMargin`) and the plan's keep-out boxes, at every sample. One fault per link and
  * zone with the deepest intrusion (m) and its time. The path does not depend on the duration.
+ * An instant move is checked at its goal pose only (the controller's path for a jump is not modelled).
  */
 export const checkClearance: MoveChecker = (context, out) => {
   const s = stateOf(context.plan);
@@ -331,8 +332,9 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
   const severity = severityOf(peak, limit, context.arm.cautionRatio);
   if (!severity) return;
   const level = severity === "fault" ? `above the plan's limit of ${formatNumber(limit)} m/s` : `above ${formatPercent(context.arm.cautionRatio)} of the plan's limit of ${formatNumber(limit)} m/s`;
+  const stepM = peak / context.arm.controlRateHz; // the tool's straight-line step in one control period
   const fix = context.instant
-    ? `Give it a duration of at least ${formatDurationUp(peak / limit / context.arm.controlRateHz)} or more.`
+    ? `Give it a duration: covering ${formatNumber(stepM * 1000)} mm at ${formatNumber(limit)} m/s takes at least ${formatDurationUp(stepM / limit)}, and a rest-to-rest shape needs longer; check again.`
     : `Lengthen it to at least ${formatDurationUp((context.move.duration * peak) / limit)} (tool speed falls in proportion to the duration).`;
   out.push({
     kind: "tool-speed",
@@ -341,7 +343,9 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     joint: null,
     value: peak,
     limit,
-    message: `${moveName(context)}: the tool point reaches ${formatNumber(peak)} m/s at ${formatNumber(at)} s, ${level}. ${fix}`,
+    message: context.instant
+      ? `${moveName(context)}: the tool point would jump ${formatNumber(stepM * 1000)} mm in one control period, ${formatNumber(peak)} m/s, ${level}. ${fix}`
+      : `${moveName(context)}: the tool point reaches ${formatNumber(peak)} m/s at ${formatNumber(at)} s, ${level}. ${fix}`,
   });
 };
 

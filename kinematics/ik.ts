@@ -26,7 +26,7 @@ export interface IkOptions {
   maxIterations?: number;
   /** Initial damping λ, default 0.05. */
   damping?: number;
-  /** Extra attempts from deterministic pseudo-random seeds inside the limits, default 8. */
+  /** Extra attempts from deterministic pseudo-random seeds inside the limits, default 12. */
   restarts?: number;
   /** Largest joint change per iteration (rad or m), default 0.4. */
   maxStep?: number;
@@ -128,7 +128,7 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
   const tolR = options.orientationToleranceRad ?? 1e-3;
   const maxIter = options.maxIterations ?? 150;
   const maxStep = options.maxStep ?? 0.4;
-  const restarts = options.restarts ?? 8;
+  const restarts = options.restarts ?? 12;
   const lower = new Float64Array(n), upper = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const lo = options.lower?.[i], hi = options.upper?.[i];

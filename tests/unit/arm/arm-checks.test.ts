@@ -128,3 +128,17 @@ describe("end to end: Cartesian targets, a payload and a keep-out box (tests/fix
     expect(again).toEqual([]);
   });
 });
+
+describe("tool-speed on an instant move", () => {
+  it("is the tool's straight-line step times the control rate (the step is covered in one control period, derived)", () => {
+    const doc = fixture("reach-out-light");
+    const goal = [0, 0.3, 0, 0, 0, 0, 0];
+    const r = check(plan({ ...doc, maxToolSpeed: 0.25, moves: [{ goal, duration: 0 }] }));
+    // Shoulder 0.3 rad with everything above it straight: the tool point (0.74 m from the shoulder axis along the
+    // arm, demo arm L) moves on a circle; chord = 2·0.74·sin(0.15) m (derived), at 1000 Hz.
+    const chordM = 2 * 0.74 * Math.sin(0.15);
+    const f = r.findings.find((x) => x.kind === "tool-speed")!;
+    expectClose(f.value, chordM * 1000, 1e-9, 1e-9);
+    expect(f.message).toMatch(/would jump 221\.\d mm in one control period/);
+  });
+});
