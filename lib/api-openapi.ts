@@ -1,0 +1,198 @@
+/**
+ * The OpenAPI 3.1 description of /api/v1, generated from the same zod schemas the handlers use
+ * (zod 4's JSON Schema output, draft 2020-12 — the dialect OpenAPI 3.1 uses, OpenAPI 3.1.0 §4.8.24).
+ */
+import { z } from "zod";
+import { planSchema } from "./api-engine";
+import * as s from "./api-schemas";
+
+type Json = Record<string, unknown>;
+
+function schemaOf(schema: z.ZodType): Json {
+  const out = z.toJSONSchema(schema, { target: "draft-2020-12", io: "input", unrepresentable: "any" }) as Json;
+  delete out.$schema;
+  return out;
+}
+
+const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
+
+type Param = { name: string; in: "path" | "query"; required?: boolean; schema: Json; description?: string };
+type Op = {
+  method: "get" | "post" | "patch" | "delete";
+  path: string;
+  summary: string;
+  tag: string;
+  params?: Param[];
+  query?: z.ZodObject;
+  body?: Json;
+  bodyType?: string;
+  ok: number;
+  okDescription?: string;
+  errors: number[];
+  anonymous?: boolean;
+};
+
+const uuid = { type: "string", format: "uuid" };
+const p = (name: string): Param => ({ name, in: "path", required: true, schema: uuid });
+
+/** Every operation; a new route adds a line here (and a row to the authorisation-matrix test). */
+const operations: Op[] = [
+  { method: "post", path: "/accounts", summary: "Create an account (student or researcher)", tag: "Accounts", body: ref("SignUp"), ok: 201, errors: [400, 409, 413, 415], anonymous: true },
+  { method: "get", path: "/me", summary: "The account behind the session or token", tag: "Accounts", ok: 200, errors: [401] },
+  { method: "get", path: "/tokens", summary: "List your API tokens", tag: "Tokens", ok: 200, errors: [401] },
+  { method: "post", path: "/tokens", summary: "Create an API token (shown once)", tag: "Tokens", body: ref("CreateToken"), ok: 201, errors: [400, 401] },
+  { method: "delete", path: "/tokens/{tokenId}", summary: "Revoke an API token, effective at once", tag: "Tokens", params: [p("tokenId")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/users", summary: "List accounts (admins)", tag: "Accounts", ok: 200, errors: [401, 403] },
+  { method: "patch", path: "/users/{userId}", summary: "Change a site role or disable an account (admins)", tag: "Accounts", params: [p("userId")], body: ref("AdminUpdateUser"), ok: 200, errors: [400, 401, 403, 404, 422] },
+  { method: "get", path: "/projects", summary: "List your projects", tag: "Projects", query: s.listProjectsQuery, ok: 200, errors: [400, 401] },
+  { method: "post", path: "/projects", summary: "Create a project (course projects: instructors)", tag: "Projects", body: ref("CreateProject"), ok: 201, errors: [400, 401, 403] },
+  { method: "get", path: "/projects/{projectId}", summary: "Get a project", tag: "Projects", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  { method: "patch", path: "/projects/{projectId}", summary: "Rename or archive a project (owners)", tag: "Projects", params: [p("projectId")], body: ref("UpdateProject"), ok: 200, errors: [400, 401, 403, 404] },
+  { method: "get", path: "/projects/{projectId}/members", summary: "List members", tag: "Projects", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  { method: "post", path: "/projects/{projectId}/members", summary: "Add a member or change their role (owners)", tag: "Projects", params: [p("projectId")], body: ref("AddMember"), ok: 201, errors: [400, 401, 403, 404, 422] },
+  { method: "delete", path: "/projects/{projectId}/members/{userId}", summary: "Remove a member (owners)", tag: "Projects", params: [p("projectId"), p("userId")], ok: 200, errors: [401, 403, 404, 422] },
+  { method: "get", path: "/arms", summary: "Built-in arms and your projects' arms", tag: "Arms", ok: 200, errors: [401] },
+  { method: "get", path: "/projects/{projectId}/arms", summary: "Arms usable in a project", tag: "Arms", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  { method: "post", path: "/projects/{projectId}/arms", summary: "Create a custom arm with its first revision", tag: "Arms", params: [p("projectId")], body: ref("CreateArm"), ok: 201, errors: [400, 401, 403, 404, 409] },
+  { method: "get", path: "/arms/{armId}", summary: "An arm and its revisions", tag: "Arms", params: [p("armId")], ok: 200, errors: [401, 404] },
+  { method: "post", path: "/arms/{armId}/revisions", summary: "Add a revision to a custom arm (revisions are immutable)", tag: "Arms", params: [p("armId")], body: ref("CreateArmRevision"), ok: 201, errors: [400, 401, 403, 404] },
+  { method: "get", path: "/projects/{projectId}/plans", summary: "List a project's plans", tag: "Plans", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  { method: "post", path: "/projects/{projectId}/plans", summary: "Create a plan", tag: "Plans", params: [p("projectId")], body: ref("CreatePlan"), ok: 201, errors: [400, 401, 403, 404, 422] },
+  { method: "get", path: "/plans/{planId}", summary: "Get a plan", tag: "Plans", params: [p("planId")], ok: 200, errors: [401, 404] },
+  { method: "delete", path: "/plans/{planId}", summary: "Delete a plan and its versions", tag: "Plans", params: [p("planId")], ok: 200, errors: [401, 403, 404] },
+  { method: "get", path: "/plans/{planId}/versions", summary: "List a plan's versions", tag: "Versions", params: [p("planId")], ok: 200, errors: [401, 404] },
+  {
+    method: "post",
+    path: "/plans/{planId}/versions",
+    summary: "Save a version: checked on the server; 409 when baseVersion is stale",
+    tag: "Versions",
+    params: [p("planId")],
+    body: ref("CreateVersion"),
+    ok: 201,
+    errors: [400, 401, 403, 404, 409, 413, 422],
+  },
+  { method: "get", path: "/plans/{planId}/versions/{version}", summary: "Get a version with its document", tag: "Versions", params: [p("planId"), { name: "version", in: "path", required: true, schema: { type: "integer", minimum: 1 } }], ok: 200, errors: [401, 404] },
+  {
+    method: "get",
+    path: "/plans/{planId}/versions/{version}/export",
+    summary: "Export the checked waypoint list (JSON or CSV) with report, arm revision and SHA-256",
+    tag: "Versions",
+    params: [p("planId"), { name: "version", in: "path", required: true, schema: { type: "integer", minimum: 1 } }],
+    query: s.exportQuery,
+    ok: 200,
+    okDescription: "JSON: a plan document with an `export` field; CSV: comment lines, header, rows, `# sha256:` line",
+    errors: [400, 401, 404, 422],
+  },
+  { method: "get", path: "/plans/{planId}/diff", summary: "Field-by-field difference of two versions", tag: "Versions", params: [p("planId")], query: s.diffQuery, ok: 200, errors: [400, 401, 404] },
+  { method: "post", path: "/check", summary: "Check a plan document; nothing is stored", tag: "Check", body: ref("PlanDocument"), ok: 200, errors: [400, 401, 413, 415] },
+  { method: "get", path: "/projects/{projectId}/recordings", summary: "List a project's recordings", tag: "Recordings", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  {
+    method: "post",
+    path: "/projects/{projectId}/recordings",
+    summary: "Upload a recording (CSV `t,<joint names…>`); stream-checked when armId is given",
+    tag: "Recordings",
+    params: [p("projectId")],
+    query: s.uploadRecordingQuery,
+    body: { type: "string", description: "The CSV file" },
+    bodyType: "text/csv",
+    ok: 201,
+    errors: [400, 401, 403, 404, 413, 415, 422],
+  },
+  { method: "get", path: "/recordings/{recordingId}/file", summary: "Download a recording's CSV", tag: "Recordings", params: [p("recordingId")], ok: 200, errors: [401, 404] },
+];
+
+const statusText: Record<number, string> = {
+  400: "Invalid input; `issues` names each field path",
+  401: "No valid session or token",
+  403: "Your role does not allow this",
+  404: "Not found (or not visible to you)",
+  409: "Conflict (e.g. a newer version was saved)",
+  413: "Body too large",
+  415: "Wrong content type",
+  422: "Well-formed but not processable",
+};
+
+function queryParams(query: z.ZodObject): Param[] {
+  const json = schemaOf(query) as { properties?: Record<string, Json>; required?: string[] };
+  return Object.entries(json.properties ?? {}).map(([name, schema]) => ({ name, in: "query", required: json.required?.includes(name) ?? false, schema }));
+}
+
+/** The whole OpenAPI 3.1 document. */
+export function openApiDocument(serverUrl: string): Json {
+  const paths: Record<string, Record<string, Json>> = {};
+  for (const op of operations) {
+    const parameters = [...(op.params ?? []), ...(op.query ? queryParams(op.query) : [])];
+    const responses: Record<string, Json> = {
+      [String(op.ok)]: { description: op.okDescription ?? "Success" },
+    };
+    for (const code of op.errors) {
+      responses[String(code)] = { description: statusText[code], content: { "application/json": { schema: ref("Error") } } };
+    }
+    paths[op.path] ??= {};
+    paths[op.path][op.method] = {
+      summary: op.summary,
+      tags: [op.tag],
+      ...(parameters.length ? { parameters } : {}),
+      ...(op.body ? { requestBody: { required: true, content: { [op.bodyType ?? "application/json"]: { schema: op.body } } } } : {}),
+      responses,
+      ...(op.anonymous ? { security: [] } : {}),
+    };
+  }
+  return {
+    openapi: "3.1.0",
+    info: {
+      title: "Jointproof API",
+      version: "1",
+      description:
+        "Plans, versions, checks and exports for small robot arms. Authenticate with a personal API token as " +
+        "`Authorization: Bearer <token>` (RFC 6750) or with a browser session. A passing check is a prediction " +
+        "from a model of the arm, not a guarantee that a motion is safe: clamp the arm, clear the workspace, keep " +
+        "the emergency stop in reach, run new plans slowly first and follow your lab's rules and the applicable standards.",
+    },
+    servers: [{ url: `${serverUrl.replace(/\/$/, "")}/api/v1` }],
+    security: [{ bearer: [] }, { session: [] }],
+    paths,
+    components: {
+      securitySchemes: {
+        bearer: { type: "http", scheme: "bearer", description: "A personal API token (RFC 6750)" },
+        session: { type: "apiKey", in: "cookie", name: "jp.session", description: "The browser session (`__Secure-jp.session` over HTTPS)" },
+      },
+      schemas: {
+        Error: {
+          type: "object",
+          required: ["error"],
+          properties: {
+            error: {
+              type: "object",
+              required: ["code", "message", "issues"],
+              properties: {
+                code: { type: "string", examples: ["bad_request:validation", "conflict:version"] },
+                message: { type: "string" },
+                issues: {
+                  type: "array",
+                  items: { type: "object", required: ["path", "message"], properties: { path: { type: "string", examples: ["document.arm.joints[1].maxVelocity"] }, message: { type: "string" } } },
+                },
+              },
+            },
+          },
+        },
+        PlanDocument: schemaOf(planSchema),
+        SignUp: schemaOf(s.signUpSchema),
+        CreateToken: schemaOf(s.createTokenSchema),
+        AdminUpdateUser: schemaOf(s.adminUpdateUserSchema),
+        CreateProject: schemaOf(s.createProjectSchema),
+        UpdateProject: schemaOf(s.updateProjectSchema),
+        AddMember: schemaOf(s.addMemberSchema),
+        CreateArm: schemaOf(s.createArmSchema),
+        CreateArmRevision: schemaOf(s.createArmRevisionSchema),
+        CreatePlan: schemaOf(s.createPlanSchema),
+        CreateVersion: schemaOf(s.createVersionSchema),
+      },
+    },
+  };
+}
+
+/** The operations, for the reference page. */
+export function apiOperations(): readonly Op[] {
+  return operations;
+}
