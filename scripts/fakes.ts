@@ -81,7 +81,8 @@ async function stop(signal: string) {
   if (stopping) return;
   stopping = true;
   console.log(`[fakes] ${signal}: closing`);
-  await Promise.allSettled(fakes.map((f) => f.stop()));
+  // A fake that does not close within 3 s (a client holding a connection) is not waited for.
+  await Promise.race([Promise.allSettled(fakes.map((f) => f.stop())), new Promise((r) => setTimeout(r, 3000))]);
   process.exit(0);
 }
 process.on("SIGTERM", () => void stop("SIGTERM"));

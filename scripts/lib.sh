@@ -185,7 +185,7 @@ start_fakes() {
   mkdir -p "$JP_FAKES_DIR"
   local logf="$ROOT/.data/fakes-$S3_PORT.log"
   : >"$logf"
-  node_modules/.bin/tsx scripts/fakes.ts >"$logf" 2>&1 &
+  node --import tsx scripts/fakes.ts >"$logf" 2>&1 &
   PIDS+=($!)
   local i
   for ((i = 0; i < 120; i++)); do
@@ -202,7 +202,7 @@ start_fakes() {
 start_mail_worker() {
   local logf="$1"
   : >"$logf"
-  NODE_OPTIONS=--conditions=react-server node_modules/.bin/tsx lib/mail/run-worker.ts >"$logf" 2>&1 &
+  node --conditions=react-server --import tsx lib/mail/run-worker.ts >"$logf" 2>&1 &
   PIDS+=($!)
   local i
   for ((i = 0; i < 120; i++)); do
@@ -212,4 +212,19 @@ start_mail_worker() {
   done
   cat "$logf" >&2
   die "the mail worker did not start"
+}
+
+# Stop the background processes in PIDS: SIGTERM, up to 5 s to exit, then SIGKILL.
+stop_pids() {
+  local pid i
+  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
+  for ((i = 0; i < 20; i++)); do
+    local alive=0
+    for pid in "${PIDS[@]}"; do kill -0 "$pid" 2>/dev/null && alive=1; done
+    [ "$alive" = 0 ] && break
+    sleep 0.25
+  done
+  for pid in "${PIDS[@]}"; do kill -9 "$pid" 2>/dev/null || true; done
+  for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+  PIDS=()
 }

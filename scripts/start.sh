@@ -12,9 +12,7 @@ load_secrets
 PIDS=()
 cleanup() {
   trap - EXIT INT TERM
-  local pid
-  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
-  for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+  stop_pids
   pg_stop_cluster
   log "stopped"
 }
