@@ -4,3 +4,5 @@
  */
 export { armDocumentSchema, armSchema, check, planFormat, planSchema, planVersion, samplePlan, shortestSafeDurations, scaleToPass, parseRecordingCsv, alignRecording, streamCheck } from "@/kinematics";
 export type { Arm, Finding, Plan, Report, Samples, Verdict } from "@/kinematics";
+export { parseUrdf } from "@/kinematics/urdf";
+export { armFromDescription } from "@/kinematics/chain";

@@ -79,3 +79,11 @@ export const uploadRecordingQuery = z.strictObject({
   /** Check the recording as a stream against this arm (built in or one of the project's). */
   armId: id.optional(),
 });
+
+/** Query string of a URDF import; the body is the URDF file (XML). */
+export const importUrdfQuery = z.strictObject({
+  /** The arm's name in the project (default: the URDF robot's name). */
+  name: name().optional(),
+  /** The controller's control rate, Hz (URDF does not say; default 1000). */
+  controlRateHz: z.coerce.number({ error: "must be a number" }).positive({ error: "must be greater than 0" }).max(100_000).default(1000),
+});
