@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, it } from "vitest";
 import { armChainSchema } from "@/kinematics/arm-model";
-import { compileChain, createChainBuffers, forwardKinematics } from "@/kinematics/chain";
+import { compileChain, createChainBuffers, forwardKinematics, toolJacobian } from "@/kinematics/chain";
 import { parseArm } from "@/kinematics/plan";
 import { createToolSpeedScanner, toolSpeedAt } from "@/kinematics/toolspeed";
 import { readJson } from "./helpers";
@@ -32,6 +32,37 @@ describe("tool-point speed", () => {
         const a = p(1), b = p(-1);
         const fd = Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]) / (2 * h); // central difference
         expectClose(toolSpeedAt(s, q, qd), fd, 1e-6, 1e-6);
+      }),
+      { numRuns: 200 },
+    );
+  });
+});
+
+describe("geometric Jacobian", () => {
+  const g = (m: number) => fc.integer({ min: -1_000_000, max: 1_000_000 }).map((k) => (k / 1_000_000) * m);
+  const v3 = (m: number) => fc.tuple(g(m), g(m), g(m));
+  const joint = fc.record({ xyz: v3(0.5), rpy: v3(Math.PI), axis: v3(1).filter((a) => Math.hypot(...a) > 0.2), prismatic: fc.boolean(), q: g(2), qd: g(2) });
+
+  it("J·q̇ equals the finite-difference tool velocity (linear and angular) for random chains with revolute and prismatic joints", () => {
+    fc.assert(
+      fc.property(fc.array(joint, { minLength: 1, maxLength: 7 }), v3(0.3), (joints, toolXyz) => {
+        const c = compileChain(
+          armChainSchema.parse({ joints: joints.map((j) => ({ origin: { xyz: j.xyz, rpy: j.rpy }, axis: j.axis })), tool: { xyz: toolXyz } }),
+          joints.map((j) => (j.prismatic ? "prismatic" : "revolute")),
+        );
+        const n = joints.length;
+        const buf = createChainBuffers(c);
+        const q = joints.map((j) => j.q), qd = joints.map((j) => j.qd);
+        const h = 1e-6;
+        const plus = Float64Array.from(forwardKinematics(c, q.map((v, i) => v + h * qd[i]), buf));
+        const minus = Float64Array.from(forwardKinematics(c, q.map((v, i) => v - h * qd[i]), buf));
+        const now = Float64Array.from(forwardKinematics(c, q, buf));
+        const jac = toolJacobian(c, buf, new Float64Array(6 * n));
+        const twist = [0, 1, 2, 3, 4, 5].map((r) => qd.reduce((s, v, i) => s + jac[r * n + i] * v, 0));
+        for (let k = 0; k < 3; k++) expectClose(twist[k], (plus[12 + k] - minus[12 + k]) / (2 * h), 1e-6, 1e-6, `v${k}`);
+        // [ω]× = Ṙ·Rᵀ (Lynch & Park, Modern Robotics, §3.2.2), Ṙ by central differences.
+        const W = (r: number, cc: number) => [0, 1, 2].reduce((s, k) => s + ((plus[r + 4 * k] - minus[r + 4 * k]) / (2 * h)) * now[cc + 4 * k], 0);
+        [W(2, 1), W(0, 2), W(1, 0)].forEach((w, k) => expectClose(twist[3 + k], w, 1e-6, 1e-6, `ω${k}`));
       }),
       { numRuns: 200 },
     );
