@@ -35,19 +35,24 @@ interface ArmState {
   qdd: Float64Array;
   tau: Float64Array;
   scale: Float64Array;
+  /** What the state was built from; a plan object edited in place gets a fresh state. */
+  source: readonly unknown[];
 }
 
-const states = new WeakMap<Plan, ArmState | null>();
+/** The plan parts the compiled state depends on (compared by identity). */
+function sourceOf(plan: Plan): unknown[] {
+  return [plan.arm, plan.arm.chain, plan.arm.joints, plan.payload, plan.keepOut, plan.surfaceMargin];
+}
+
+const states = new WeakMap<Plan, ArmState>();
 
 /** The compiled arm model of a plan, or null when its arm has no chain (cached per plan object). */
 function stateOf(plan: Plan): ArmState | null {
   const cached = states.get(plan);
-  if (cached !== undefined) return cached;
+  const source = sourceOf(plan);
+  if (cached && cached.source.every((v, i) => v === source[i])) return cached;
   const arm = plan.arm;
-  if (!arm.chain) {
-    states.set(plan, null);
-    return null;
-  }
+  if (!arm.chain) return null;
   const chain = compileChain(arm.chain, arm.joints.map((j) => j.type), plan.payload);
   const n = chain.jointCount;
   const state: ArmState = {
@@ -63,6 +68,7 @@ function stateOf(plan: Plan): ArmState | null {
     qdd: new Float64Array(0),
     tau: new Float64Array(n),
     scale: new Float64Array(3),
+    source,
   };
   states.set(plan, state);
   return state;
