@@ -33,6 +33,13 @@ import * as version from "@/app/api/v1/plans/[planId]/versions/[version]/route";
 import * as exportRoute from "@/app/api/v1/plans/[planId]/versions/[version]/export/route";
 import * as diff from "@/app/api/v1/plans/[planId]/diff/route";
 import * as check from "@/app/api/v1/check/route";
+import * as recordingsRoute from "@/app/api/v1/projects/[projectId]/recordings/route";
+import * as recordingFile from "@/app/api/v1/recordings/[recordingId]/file/route";
+import * as armImport from "@/app/api/v1/projects/[projectId]/arms/import/route";
+import * as openapi from "@/app/api/v1/openapi.json/route";
+import { readFileSync } from "node:fs";
+import { createRecording } from "@/db/queries/recordings";
+import { putObject } from "@/lib/storage";
 import { call, demoArm, gentlePlan, makeUser, sessionCookieFor, tokenFor, type Auth, type CallResult, type TestUser } from "./_helpers";
 
 type ActorName = "anonymous" | "student" | "researcher" | "instructor" | "admin" | "token holder";
@@ -65,7 +72,10 @@ async function makeActor(name: ActorName): Promise<Actor> {
   return { name, user: u, auth: name === "token holder" ? { bearer: await tokenFor(u.id) } : { cookie: await sessionCookieFor(u.id) } };
 }
 
-type Fixture = { projectId: string; armId: string; planId: string; hostId: string; spareEmail: string; spareId: string };
+type Fixture = { projectId: string; armId: string; planId: string; hostId: string; spareEmail: string; spareId: string; recordingId: string };
+
+const recordingCsv = `t,${demoArm.description.joints.map((j) => j.name).join(",")}\n0,0,0,0,0,0,0,0.01\n0.01,0,0,0,0,0,0,0.01\n`;
+const urdf = readFileSync("kinematics/arms/bench-arm-l.urdf", "utf8");
 
 /** A project the actor stands in `relation` to, with a custom arm and a plan with one version. */
 async function projectFixture(actor: Actor, relation: Relation): Promise<Fixture> {
@@ -90,7 +100,21 @@ async function projectFixture(actor: Actor, relation: Relation): Promise<Fixture
     note: null,
     authorId: ownerId,
   });
-  return { projectId: p.id, armId: a.armId, planId: pl.id, hostId: host.id, spareEmail: spare.email, spareId: spare.id };
+  const key = `recordings/${p.id}/matrix.csv`;
+  await putObject(key, new TextEncoder().encode(recordingCsv), "text/csv");
+  const rec = await createRecording({
+    projectId: p.id,
+    name: "Matrix recording",
+    objectKey: key,
+    contentType: "text/csv",
+    sizeBytes: recordingCsv.length,
+    sha256: "0".repeat(64),
+    sampleCount: 2,
+    jointCount: 7,
+    durationS: 0.01,
+    createdBy: ownerId,
+  });
+  return { projectId: p.id, armId: a.armId, planId: pl.id, hostId: host.id, spareEmail: spare.email, spareId: spare.id, recordingId: rec.id };
 }
 
 type ProjectRoute = { name: string; need: Need; ok: number; run: (f: Fixture, auth: Auth) => Promise<CallResult> };
@@ -116,6 +140,10 @@ const projectRoutes: ProjectRoute[] = [
   { name: "POST /plans/:id/versions", need: "write", ok: 201, run: (f, auth) => call(versions.POST, { method: "POST", path: `/api/v1/plans/${f.planId}/versions`, params: { planId: f.planId }, auth, body: { baseVersion: 1, document: planDoc() } }) },
   { name: "GET /plans/:id/versions/:n", need: "read", ok: 200, run: (f, auth) => call(version.GET, { path: `/api/v1/plans/${f.planId}/versions/1`, params: { planId: f.planId, version: "1" }, auth }) },
   { name: "GET /plans/:id/versions/:n/export", need: "read", ok: 200, run: (f, auth) => call(exportRoute.GET, { path: `/api/v1/plans/${f.planId}/versions/1/export?format=csv&rateHz=10`, params: { planId: f.planId, version: "1" }, auth }) },
+  { name: "GET /projects/:id/recordings", need: "read", ok: 200, run: (f, auth) => call(recordingsRoute.GET, { path: `/api/v1/projects/${f.projectId}/recordings`, params: { projectId: f.projectId }, auth }) },
+  { name: "POST /projects/:id/recordings", need: "write", ok: 201, run: (f, auth) => call(recordingsRoute.POST, { method: "POST", path: `/api/v1/projects/${f.projectId}/recordings?name=Upload`, params: { projectId: f.projectId }, auth, rawBody: recordingCsv, headers: { "content-type": "text/csv" } }) },
+  { name: "GET /recordings/:id/file", need: "read", ok: 200, run: (f, auth) => call(recordingFile.GET, { path: `/api/v1/recordings/${f.recordingId}/file`, params: { recordingId: f.recordingId }, auth }) },
+  { name: "POST /projects/:id/arms/import", need: "write", ok: 201, run: (f, auth) => call(armImport.POST, { method: "POST", path: `/api/v1/projects/${f.projectId}/arms/import?name=Imported`, params: { projectId: f.projectId }, auth, rawBody: urdf, headers: { "content-type": "application/xml" } }) },
   { name: "GET /plans/:id/diff", need: "read", ok: 200, run: (f, auth) => call(diff.GET, { path: `/api/v1/plans/${f.planId}/diff?from=1&to=1`, params: { planId: f.planId }, auth }) },
 ];
 
@@ -191,6 +219,11 @@ for (const r of siteRoutes) {
     cells.push({ route: r.name, actor, relation: "-", expected: actor === "anonymous" ? 401 : r.expect(siteRoleOf[actor]), run: r.run });
   }
 }
+/** Public routes: the same answer for everyone, signed in or not. */
+const publicRoutes: { name: string; status: number; run: (a: Actor) => Promise<CallResult> }[] = [
+  { name: "GET /openapi.json", status: 200, run: (a) => call(openapi.GET, { path: "/api/v1/openapi.json", auth: a.auth }) },
+];
+for (const r of publicRoutes) for (const actor of actorNames) cells.push({ route: r.name, actor, relation: "-", expected: r.status, run: r.run });
 
 describe("authorisation matrix", () => {
   it.each(cells)("$route as $actor ($relation) → $expected", async (cell) => {
@@ -200,7 +233,7 @@ describe("authorisation matrix", () => {
   });
 
   it("covers every project route for every actor and relation, and every site route for every actor", () => {
-    expect(cells).toHaveLength(projectRoutes.length * (1 + 5 * relations.length) + siteRoutes.length * actorNames.length);
+    expect(cells).toHaveLength(projectRoutes.length * (1 + 5 * relations.length) + (siteRoutes.length + publicRoutes.length) * actorNames.length);
   });
 
   it("lets anyone sign up without a session", async () => {
