@@ -140,36 +140,40 @@ export function ReviewQueue({
           </Panel>
         </>
       ) : null}
-      <h2 className="mt-8 text-lg font-semibold">Your submissions</h2>
-      <Panel className="mt-2 overflow-x-auto">
-        {mine.length === 0 ? (
-          <div className="p-4"><EmptyState title="No submissions yet">Submit a saved plan version from a course&apos;s assignment list.</EmptyState></div>
-        ) : (
-          <Table aria-label="Your submissions">
-            <thead>
-              <tr>
-                <Th>Assignment</Th>
-                <Th>Submitted</Th>
-                <Th>Verdict</Th>
-                <Th>Status</Th>
-              </tr>
-            </thead>
-            <tbody>
-              {mine.map((m) => (
-                <tr key={m.id}>
-                  <Td>
-                    <Link href={`/reviews/${m.id}`} className="font-medium text-brand-700 hover:underline">{m.assignmentTitle}</Link>
-                    <p className="text-xs text-ink-faint">{m.courseTitle} · attempt {m.attempt}</p>
-                  </Td>
-                  <Td className="tabular text-xs">{when(m.submittedAt)}{m.late ? " · late" : ""}</Td>
-                  <Td><VerdictChip size="sm" verdict={m.verdict} /></Td>
-                  <Td className="text-xs">{statusWords[m.status]}</Td>
-                </tr>
-              ))}
-            </tbody>
-          </Table>
-        )}
-      </Panel>
+      {teaches && mine.length === 0 ? null : (
+        <>
+          <h2 className="mt-8 text-lg font-semibold">Your submissions</h2>
+          <Panel className="mt-2 overflow-x-auto">
+            {mine.length === 0 ? (
+              <div className="p-4"><EmptyState title="No submissions yet">Submit a saved plan version from a course&apos;s assignment list.</EmptyState></div>
+            ) : (
+              <Table aria-label="Your submissions">
+                <thead>
+                  <tr>
+                    <Th>Assignment</Th>
+                    <Th>Submitted</Th>
+                    <Th>Verdict</Th>
+                    <Th>Status</Th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {mine.map((m) => (
+                    <tr key={m.id}>
+                      <Td>
+                        <Link href={`/reviews/${m.id}`} className="font-medium text-brand-700 hover:underline">{m.assignmentTitle}</Link>
+                        <p className="text-xs text-ink-faint">{m.courseTitle} · attempt {m.attempt}</p>
+                      </Td>
+                      <Td className="tabular text-xs">{when(m.submittedAt)}{m.late ? " · late" : ""}</Td>
+                      <Td><VerdictChip size="sm" verdict={m.verdict} /></Td>
+                      <Td className="text-xs">{statusWords[m.status]}</Td>
+                    </tr>
+                  ))}
+                </tbody>
+              </Table>
+            )}
+          </Panel>
+        </>
+      )}
     </div>
   );
 }

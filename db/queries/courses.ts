@@ -1,6 +1,6 @@
 import "server-only";
 import { randomInt } from "node:crypto";
-import { and, asc, desc, eq, exists, inArray, sql } from "drizzle-orm";
+import { and, asc, desc, eq, exists, gte, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { armRevisions, planVersions, plans, projectMembers, users, type Verdict } from "@/db/schema";
 import { assignments, courseEnrolments, courses, submissions, type Assignment, type Course, type CourseRole, type Submission, type SubmissionStatus } from "@/db/schema/courses";
@@ -221,9 +221,21 @@ export async function listAssignmentsForUser({ courseId, userId }: { courseId: s
     .where(and(eq(submissions.studentId, userId), inArray(submissions.assignmentId, rows.map((r) => r.id))))
     .orderBy(submissions.assignmentId, desc(submissions.attempt));
   const byAssignment = new Map(latest.map((l) => [l.assignmentId, l]));
+  // "Draft": nothing submitted yet, but the user saved a plan version on the required arm revision
+  // since the assignment was set.
+  const open = rows.filter((a) => !byAssignment.has(a.id));
+  const drafts = new Set<string>();
+  for (const a of open) {
+    const [saved] = await db
+      .select({ id: planVersions.id })
+      .from(planVersions)
+      .where(and(eq(planVersions.authorId, userId), eq(planVersions.armRevisionId, a.requiredArmRevisionId), gte(planVersions.createdAt, a.createdAt)))
+      .limit(1);
+    if (saved) drafts.add(a.id);
+  }
   return rows.map((a) => {
     const l = byAssignment.get(a.id);
-    return { ...a, status: l?.status ?? "not-started", latestSubmissionId: l?.id ?? null };
+    return { ...a, status: l?.status ?? (drafts.has(a.id) ? "draft" : "not-started"), latestSubmissionId: l?.id ?? null };
   });
 }
 

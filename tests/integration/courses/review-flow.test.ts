@@ -111,7 +111,14 @@ describe("course review flow", () => {
     // Version 1 moves in 0.73 s: peak 1.875/0.73 ≈ 2.57 rad/s, 80% of the base's 3.2 rad/s (a pass on
     // the arm itself) but above 70% of it (2.24 rad/s): the server's re-check must find a fault.
     // Version 2 takes 2 s (0.94 rad/s) and passes.
+    const listStatus = async () => {
+      const res = await call(assignmentsRoute.GET, { path: `/api/v1/courses/${course.id}/assignments`, params: { id: course.id }, auth: asStudent });
+      return (res.body as Body).assignments.find((a: Body) => a.id === assignment.id)?.status;
+    };
+    expect(await listStatus()).toBe("not-started");
     const { planId } = await studentPlan(student.id, [baseMovePlan(0.73), baseMovePlan(2)]);
+    // Versions saved on the required arm since the assignment was set make it a draft.
+    expect(await listStatus()).toBe("draft");
     const first = await call(submitRoute.POST, {
       method: "POST",
       path: `/api/v1/assignments/${assignment.id}/submissions`,
@@ -207,6 +214,8 @@ describe("course review flow", () => {
       body: { decision: "returned", summary: "changed my mind" },
     });
     expect(twice.status).toBe(409);
+
+    expect(await listStatus()).toBe("approved");
 
     const grades = await call(gradesRoute.GET, { path: `/api/v1/courses/${course.id}/grades`, params: { id: course.id }, auth: asInstructor });
     expect(grades.status).toBe(200);
