@@ -170,14 +170,40 @@ export function linkFrames(
   motion: Float64Array = new Float64Array(16),
   poseOffset = 0,
 ): Float64Array {
+  void motion; // kept for API stability; the motion is now applied in place without a scratch matrix
   mat4.identity(out, 0);
+  const ax = chain.axis;
   for (let i = 0; i < chain.jointCount; i++) {
     const q = pose[poseOffset + i];
-    // Joint motion: rotation about the axis (revolute) or translation along it (prismatic).
-    if (chain.prismatic[i]) mat4.fromAxisTranslation(motion, chain.axis, q, 0, 3 * i);
-    else mat4.fromAxisAngle(motion, chain.axis, q, 0, 3 * i);
-    mat4.multiplyRigid(out, out, chain.origin, 16 * (i + 1), 16 * i, 16 * i);
-    mat4.multiplyRigid(out, out, motion, 16 * (i + 1), 16 * (i + 1), 0);
+    const o = 16 * (i + 1);
+    // A = frame(i−1) · origin(i), written into frame i's slot.
+    mat4.multiplyRigid(out, out, chain.origin, o, 16 * i, 16 * i);
+    const x = ax[3 * i], y = ax[3 * i + 1], z = ax[3 * i + 2];
+    const a00 = out[o], a10 = out[o + 1], a20 = out[o + 2];
+    const a01 = out[o + 4], a11 = out[o + 5], a21 = out[o + 6];
+    const a02 = out[o + 8], a12 = out[o + 9], a22 = out[o + 10];
+    if (chain.prismatic[i]) {
+      // Translation along the axis: p += A_R·(axis·q); the rotation is unchanged.
+      out[o + 12] += (a00 * x + a01 * y + a02 * z) * q;
+      out[o + 13] += (a10 * x + a11 * y + a12 * z) * q;
+      out[o + 14] += (a20 * x + a21 * y + a22 * z) * q;
+      continue;
+    }
+    // Rotation about the axis, Rodrigues' formula R = I + sinθ[k]× + (1 − cosθ)[k]×² (Lynch & Park eq. 3.51);
+    // A · R touches only A's rotation part (R has no translation).
+    const c = Math.cos(q), sn = Math.sin(q), t = 1 - c;
+    const m00 = t * x * x + c, m10 = t * x * y + sn * z, m20 = t * x * z - sn * y;
+    const m01 = t * x * y - sn * z, m11 = t * y * y + c, m21 = t * y * z + sn * x;
+    const m02 = t * x * z + sn * y, m12 = t * y * z - sn * x, m22 = t * z * z + c;
+    out[o] = a00 * m00 + a01 * m10 + a02 * m20;
+    out[o + 1] = a10 * m00 + a11 * m10 + a12 * m20;
+    out[o + 2] = a20 * m00 + a21 * m10 + a22 * m20;
+    out[o + 4] = a00 * m01 + a01 * m11 + a02 * m21;
+    out[o + 5] = a10 * m01 + a11 * m11 + a12 * m21;
+    out[o + 6] = a20 * m01 + a21 * m11 + a22 * m21;
+    out[o + 8] = a00 * m02 + a01 * m12 + a02 * m22;
+    out[o + 9] = a10 * m02 + a11 * m12 + a12 * m22;
+    out[o + 10] = a20 * m02 + a21 * m12 + a22 * m22;
   }
   return out;
 }
