@@ -36,9 +36,18 @@ export const courseKeys = {
   course: (id: string) => ["courses", id] as const,
   roster: (id: string) => ["courses", id, "roster"] as const,
   submission: (id: string) => ["submissions", id] as const,
+  ownSubmissions: ["submissions", "own"] as const,
+};
+
+export type OwnSubmissionDto = { id: string; planId: string | null; status: "submitted" | "returned" | "approved"; attempt: number; assignmentTitle: string; submittedAt: string };
+export type SubmissionDetailDto = {
+  submission: { id: string; status: string; review: { decision: string; summary: string } | null };
+  comments: { id: string; body: string; authorName: string; moveIndex: number | null; jointIndex: number | null; timeS: number | null }[];
 };
 
 export const courseApi = {
+  ownSubmissions: () => send<{ submissions: OwnSubmissionDto[] }>("/api/v1/submissions").then((r) => r.submissions),
+  submission: (id: string) => send<SubmissionDetailDto>(`/api/v1/submissions/${id}`),
   createCourse: (input: { title: string; term: string; limits?: { velocityScale?: number } }) =>
     send<{ course: { id: string; joinCode: string; inviteUrl: string } }>("/api/v1/courses", post(input)).then((r) => r.course),
   join: (code: string) => send<{ course: { id: string; title: string }; role: string }>("/api/v1/courses/join", post({ code })),
