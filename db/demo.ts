@@ -152,3 +152,29 @@ export const demoPlans: DemoPlan[] = [
     ],
   },
 ];
+
+/**
+ * A recording made while guiding the light arm by hand: 4 s at 250 Hz of a slow reach, with three
+ * single-sample glitches of 0.02 rad on the base that the stream check flags as jumps to repair.
+ */
+export const demoRecording = {
+  id: "00000000-0000-4000-8000-000000000401",
+  projectId: research.id,
+  armId: armLight.id,
+  name: "Guided reach (lead arm)",
+  createdBy: researcher.id,
+  objectKey: `recordings/${research.id}/demo-guided-reach.csv`,
+  csv(): string {
+    const names = armLight.description.joints.map((j) => j.name);
+    const rows = [`t,${names.join(",")}`];
+    const glitches = new Set([240, 520, 810]);
+    for (let k = 0; k <= 1000; k++) {
+      const t = k / 250;
+      const s = (1 - Math.cos((Math.PI * t) / 4)) / 2; // a smooth 0 → 1 over 4 s
+      const base = 0.6 * s + (glitches.has(k) ? 0.02 : 0);
+      const pose = [base, -0.3 * s, 0.5 * s, 0.2 * s, 0, 0.1 * s, 0.01];
+      rows.push([t.toFixed(3), ...pose.map((v) => v.toFixed(6))].join(","));
+    }
+    return rows.join("\n") + "\n";
+  },
+};

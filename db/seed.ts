@@ -7,10 +7,12 @@ import bcrypt from "bcryptjs";
 import { desc, eq } from "drizzle-orm";
 import { isDeepStrictEqual } from "node:util";
 import { db, pool } from "./index";
+import { createHash } from "node:crypto";
 import { summarize } from "../lib/api-check";
-import { check, planSchema } from "../kinematics";
-import { armRevisions, arms, planVersions, plans, projectMembers, projects, users } from "./schema";
-import { demoArms, demoPeople, demoPlans, demoProjects, demoSignInLines } from "./demo";
+import { putObject } from "../lib/storage";
+import { check, parseRecordingCsv, planSchema } from "../kinematics";
+import { armRevisions, arms, planVersions, plans, projectMembers, projects, recordings, users } from "./schema";
+import { demoArms, demoPeople, demoPlans, demoProjects, demoRecording, demoSignInLines } from "./demo";
 
 async function seedPeople() {
   for (const p of demoPeople) {
@@ -112,11 +114,42 @@ async function seedPlans() {
   }
 }
 
+/** The demo recording: the file into object storage, then its row. Skipped (with a note) while storage is down. */
+async function seedRecording() {
+  const [existing] = await db.select({ id: recordings.id }).from(recordings).where(eq(recordings.id, demoRecording.id));
+  if (existing) return;
+  const bytes = new TextEncoder().encode(demoRecording.csv());
+  const parsed = parseRecordingCsv(bytes);
+  if (!parsed.recording) throw new Error(`demo recording is invalid: ${parsed.problems.map((p) => p.message).join("; ")}`);
+  try {
+    await putObject(demoRecording.objectKey, bytes, "text/csv");
+  } catch (err) {
+    console.log(`[seed] object storage not reachable (${err instanceof Error ? err.message : err}); the demo recording is added on a later run`);
+    return;
+  }
+  const r = parsed.recording;
+  await db.insert(recordings).values({
+    id: demoRecording.id,
+    projectId: demoRecording.projectId,
+    armId: demoRecording.armId,
+    name: demoRecording.name,
+    objectKey: demoRecording.objectKey,
+    contentType: "text/csv",
+    sizeBytes: bytes.byteLength,
+    sha256: createHash("sha256").update(bytes).digest("hex"),
+    sampleCount: r.count,
+    jointCount: r.jointCount,
+    durationS: r.timeS[r.count - 1] - r.timeS[0],
+    createdBy: demoRecording.createdBy,
+  });
+}
+
 async function main() {
   await seedPeople();
   await seedProjects();
   await seedArms();
   await seedPlans();
+  await seedRecording();
   console.log(`[seed] demo data ready (${await db.$count(users)} users)`);
   console.log("[seed] demo sign-ins:");
   for (const line of demoSignInLines()) console.log(line);

@@ -2,8 +2,8 @@
  * Object storage for uploads (recording files, URDF files) through the AWS S3 SDK, pointed by
  * environment variables at any S3-compatible service. With no S3_ENDPOINT, the local fake on
  * 127.0.0.1:$S3_PORT is used (scripts/fakes.ts), with the fake's fixed development credentials.
+ * Server-side only (the seed script uses it too, so it does not import "server-only").
  */
-import "server-only";
 import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { env } from "./env";
 
