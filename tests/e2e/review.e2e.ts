@@ -62,8 +62,9 @@ beforeAll(async () => {
     // `npm test` already runs the fake on this port (and stores under MAIL_FAKE_DIR).
     if ((err as NodeJS.ErrnoException).code !== "EADDRINUSE") throw err;
   }
-  worker = spawn("node_modules/.bin/tsx", ["lib/mail/run-worker.ts"], {
-    env: { ...process.env, NODE_OPTIONS: "--conditions=react-server", SMTP_HOST: "127.0.0.1", SMTP_PORT: String(smtpPort), MAIL_RETRY_DELAY_S: "1" },
+  // A plain node process (not a tsx wrapper), so the PID stopped below is the worker itself.
+  worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "lib/mail/run-worker.ts"], {
+    env: { ...process.env, SMTP_HOST: "127.0.0.1", SMTP_PORT: String(smtpPort), MAIL_RETRY_DELAY_S: "1" },
     stdio: "ignore",
   });
   s = await openBrowser();
