@@ -42,7 +42,7 @@ export interface ChainBuffers {
   readonly frames: Float64Array;
   /** The tool pose in the base frame. */
   readonly tool: Float64Array;
-  /** Scratch matrix for one joint's motion. */
+  /** Scratch matrix (callers may use it; FK itself needs none). */
   readonly motion: Float64Array;
 }
 
@@ -163,14 +163,7 @@ export function createChainBuffers(chain: CompiledChain): ChainBuffers {
  * frame 0 is the base). Frame i = frame(i−1) · origin(i) · motion(qᵢ), the URDF joint model;
  * extra pose entries beyond the chain (e.g. a gripper) are ignored.
  */
-export function linkFrames(
-  chain: CompiledChain,
-  pose: ArrayLike<number>,
-  out: Float64Array,
-  motion: Float64Array = new Float64Array(16),
-  poseOffset = 0,
-): Float64Array {
-  void motion; // kept for API stability; the motion is now applied in place without a scratch matrix
+export function linkFrames(chain: CompiledChain, pose: ArrayLike<number>, out: Float64Array, poseOffset = 0): Float64Array {
   mat4.identity(out, 0);
   const ax = chain.axis;
   for (let i = 0; i < chain.jointCount; i++) {
@@ -218,7 +211,7 @@ export function forwardKinematics(
   buffers: ChainBuffers,
   poseOffset = 0,
 ): Float64Array {
-  linkFrames(chain, pose, buffers.frames, buffers.motion, poseOffset);
+  linkFrames(chain, pose, buffers.frames, poseOffset);
   return mat4.multiplyRigid(buffers.tool, buffers.frames, chain.tool, 0, 16 * chain.jointCount, 0);
 }
 

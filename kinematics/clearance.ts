@@ -329,7 +329,7 @@ export function scanClearance(
   const zonesPer = 1 + zones.boxMin.length / 3;
   const found = new Map<number, Intrusion>();
   for (let k = 0; k < count; k++) {
-    linkFrames(chain, positions, buffers.frames, buffers.motion, k * stride);
+    linkFrames(chain, positions, buffers.frames, k * stride);
     shapeIntrusions(model, zones, buffers.frames, depths, scratch);
     for (let s = 0; s < model.count; s++) {
       for (let z = 0; z < zonesPer; z++) {

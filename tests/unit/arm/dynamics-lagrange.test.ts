@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, it } from "vitest";
 import { armChainSchema } from "@/kinematics/arm-model";
-import { compileChain, createChainBuffers, linkFrames, type CompiledChain } from "@/kinematics/chain";
+import { compileChain, linkFrames, type CompiledChain } from "@/kinematics/chain";
 import { createDynamicsWorkspace, inverseDynamics } from "@/kinematics/dynamics";
 import { expectClose } from "./tolerance";
 
@@ -42,7 +42,7 @@ function rpyMatrix([r, p, y]: number[]): number[][] {
 function massAndPotential(chain: CompiledChain, links: { mass: number; com: number[] }[], inertias: number[][][], gravity: number[], q: number[]) {
   const n = q.length;
   const frames = new Float64Array(16 * (n + 1));
-  linkFrames(chain, q, frames, createChainBuffers(chain).motion);
+  linkFrames(chain, q, frames);
   const M = Array.from({ length: n }, () => new Array<number>(n).fill(0));
   let P = 0;
   const z: number[][] = [], o: number[][] = [];
