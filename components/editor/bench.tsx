@@ -17,6 +17,7 @@ import { scaleToPass } from "@/kinematics/sequence";
 import { ceilToMs, formatJointValue, type AngleUnit } from "@/lib/units";
 import { CartesianGoal } from "./cartesian-goal";
 import { runLiveCheck } from "./live-check";
+import { useFullCheck } from "./use-full-check";
 import { MoveList } from "./move-list";
 import { homePose, planReducer, poseBefore, poseOf, type BenchPlan, type PoseTarget } from "./plan-state";
 import { Playhead, PlayheadContext, usePlayhead, useSyncTotal } from "./playhead";
@@ -62,7 +63,10 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
   }, [plan, onPlanChange]);
 
   const live = useMemo(() => runLiveCheck(plan), [plan]);
-  const { report, timeline } = live;
+  const full = useFullCheck(plan);
+  // the joint checks answer at once; the full report (arm model included) replaces them when it lands
+  const report = full.report ?? live.report;
+  const { timeline } = live;
   useSyncTotal(playhead, timeline.totalS);
   // Plots and the stage may trail fast slider drags by a frame; the findings never do.
   const deferred = useDeferredValue(live);
@@ -181,7 +185,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
                     title={scale.unscalable.length > 0 ? "Instant-move jumps and travel faults cannot be fixed by timing" : undefined}
                     onClick={() => dispatch({ type: "set-durations", durations: scale.plan.moves.map((m) => m.duration) })}
                   >
-                    Scale to pass <span className="tabular font-mono">×{scale.factor.toFixed(2)}</span>
+                    Scale to pass <span className="tabular font-mono">×{scale.factor.toFixed(3)}</span>
                   </Button>
                 ) : null
               }
@@ -283,8 +287,13 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
           {/* right rail: findings */}
           <aside aria-label="Findings" className="flex min-h-0 flex-col border-l border-line bg-paper">
             <FindingsPanel verdict={report.verdict} items={items} joints={plan.arm.joints} onJump={jump} className="min-h-0 flex-1" />
-            <p suppressHydrationWarning className="tabular border-t border-line px-3 py-1.5 text-[10px] text-ink-faint">
-              Checked in the browser in {live.elapsedMs.toFixed(1)} ms · {live.samples.count.toLocaleString("en")} samples at {Math.round(live.samples.rateHz)} Hz
+            <p suppressHydrationWarning data-testid="check-status" className="tabular border-t border-line px-3 py-1.5 text-[10px] text-ink-faint">
+              {full.error
+                ? `Arm-model checks failed: ${full.error}`
+                : full.report
+                  ? `Full check in a worker: ${full.elapsedMs?.toFixed(0)} ms`
+                  : "Joint checks done; arm-model checks running…"}
+              {` · joint checks and sampling ${live.elapsedMs.toFixed(1)} ms · ${live.samples.count.toLocaleString("en")} samples at ${Math.round(live.samples.rateHz)} Hz`}
             </p>
           </aside>
         </div>

@@ -1,9 +1,9 @@
 /**
- * The live check the bench runs on every edit: the engine's `check` over the plan being edited, and
- * the sampled signals the plots and stage draw. One place to add the arm model's checkers (effort,
- * clearance, tool speed) when the engine exposes them as checkers.
+ * The quick live check the bench runs on every edit, on the main thread: the engine's joint checks
+ * (travel, speed, acceleration, jumps: well under a millisecond) and the sampled signals the plots and
+ * stage draw. The arm model's checks (effort, clearance, tool speed) run in a worker (use-full-check.ts).
  */
-import { check } from "@/kinematics/check";
+import { check, checkAcceleration, checkGoalRange, checkSpeed, checkStartRange } from "@/kinematics/check";
 import type { Report } from "@/kinematics/report";
 import { sampleTimeline, type Samples } from "@/kinematics/sample";
 import { timelineOf, type Timeline } from "@/kinematics/timeline";
@@ -20,7 +20,7 @@ export interface LiveCheck {
 
 export function runLiveCheck(plan: BenchPlan): LiveCheck {
   const t0 = performance.now();
-  const report = check(plan);
+  const report = check(plan, { planCheckers: [checkStartRange], moveCheckers: [checkGoalRange, checkSpeed, checkAcceleration] });
   const timeline = timelineOf(plan);
   const samples = sampleTimeline(timeline, plotRateHz(plan.arm.controlRateHz, timeline.totalS));
   return { report, timeline, samples, elapsedMs: performance.now() - t0 };

@@ -60,7 +60,7 @@ export function FindingsPanel({ verdict, items, joints, onJump, className }: Fin
                   <VerdictChip verdict={finding.severity} size="sm" />
                   <span className="text-xs font-semibold">{kindWords[finding.kind]}</span>
                   {ratio !== null ? (
-                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>{Math.round(ratio * 100)}% of limit</span>
+                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>{(ratio * 100).toFixed(ratio < 10 ? 1 : 0)}% of limit</span>
                   ) : null}
                 </div>
                 <dl className="tabular mt-1 flex flex-wrap gap-x-3 font-mono text-[11px] text-ink-soft">

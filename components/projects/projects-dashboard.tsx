@@ -106,7 +106,7 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
                   <Link href={`/projects/${p.id}/recordings`} className="text-sm text-brand-600 hover:underline">Recordings</Link>
                   <Link href={`/projects/${p.id}/arms`} className="text-sm text-brand-600 hover:underline">Arms</Link>
                   {p.role !== "viewer" ? (
-                    <Button size="sm" onClick={() => setNewPlanFor(p)}>
+                    <Button size="sm" onClick={() => setNewPlanFor(p)} aria-label={`New plan in ${p.name}`}>
                       <PlusIcon size={13} /> New plan
                     </Button>
                   ) : null}

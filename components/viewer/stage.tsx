@@ -186,14 +186,27 @@ function WorkSurface() {
 }
 
 /** The 3D stage: arm, ghosts, tool path, work surface and keep-out zones, with orbit controls. */
+/** How far the arm can reach from its base (m): the chain's link offsets and the tool point, added up. */
+function reachOf(chain: ArmChain): number {
+  const len = (v: readonly number[]) => Math.hypot(v[0], v[1], v[2]);
+  return Math.max(0.3, chain.joints.reduce((s, j) => s + len(j.origin.xyz), 0) + len(chain.tool.xyz));
+}
+
 export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut }: StageProps) {
   const playhead = usePlayheadStore();
   const compiled = useCompiled(chain, joints);
+  const view = useMemo(() => {
+    const reach = reachOf(chain);
+    const target: [number, number, number] = [0, 0, reach * 0.42];
+    const dir = [1, -0.95, 0.42];
+    const k = (reach * 2.5) / Math.hypot(dir[0], dir[1], dir[2]);
+    return { target, position: [target[0] + dir[0] * k, target[1] + dir[1] * k, target[2] + dir[2] * k] as [number, number, number] };
+  }, [chain]);
   return (
     <Canvas
       frameloop="demand"
       dpr={[1, 1.5]}
-      camera={{ position: [0.95, -0.9, 0.7], up: [0, 0, 1], fov: 36, near: 0.01, far: 20 }}
+      camera={{ position: view.position, up: [0, 0, 1], fov: 36, near: 0.01, far: 30 }}
       gl={{ antialias: true, preserveDrawingBuffer: true }}
       aria-label="3D stage: the arm at the playhead"
       role="img"
@@ -210,7 +223,7 @@ export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, k
       ))}
       <ToolPath compiled={compiled} timeline={timeline} />
       <AnimatedArm chain={chain} compiled={compiled} timeline={timeline} linkSeverity={linkSeverity} playhead={playhead} />
-      <OrbitControls makeDefault target={[0, 0, 0.22]} enableDamping={false} />
+      <OrbitControls makeDefault target={view.target} enableDamping={false} />
     </Canvas>
   );
 }

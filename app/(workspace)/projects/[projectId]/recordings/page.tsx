@@ -1,0 +1,34 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
+import { getProjectForUser } from "@/db/queries/projects";
+import { RecordingsWorkbench, type RecordingArm } from "@/components/recordings/recordings-workbench";
+import { armSchema } from "@/kinematics/plan";
+import { requirePageActor } from "../../../session";
+
+export const metadata: Metadata = { title: "Recordings" };
+export const dynamic = "force-dynamic";
+
+/** Check, repair and keep a recorded joint log against one of the project's arms. */
+export default async function RecordingsPage({ params }: { params: Promise<{ projectId: string }> }) {
+  const { projectId } = await params;
+  const actor = await requirePageActor(`/projects/${projectId}/recordings`);
+  if (!/^[0-9a-f-]{36}$/i.test(projectId)) notFound();
+  const project = await getProjectForUser({ projectId, userId: actor.userId });
+  if (!project) notFound();
+  const arms = await listArmsForUser({ userId: actor.userId, projectId });
+  const withDescriptions: RecordingArm[] = [];
+  for (const a of arms) {
+    const rev = await getArmRevisionForUser({ armId: a.id, userId: actor.userId });
+    const parsed = rev ? armSchema.safeParse(rev.description) : null;
+    if (rev && parsed?.success) withDescriptions.push({ id: a.id, name: a.name, revision: rev.revision, arm: parsed.data });
+  }
+  return (
+    <RecordingsWorkbench
+      projectId={project.id}
+      projectName={project.name}
+      arms={withDescriptions}
+      canEdit={project.role !== "viewer" && project.archivedAt === null}
+    />
+  );
+}

@@ -1,0 +1,29 @@
+"use client";
+import dynamic from "next/dynamic";
+import { useMemo } from "react";
+import { Skeleton } from "@/components/ui/skeleton";
+import { Playhead, PlayheadContext } from "@/components/editor/playhead";
+import { StageErrorBoundary } from "@/components/viewer/error-boundary";
+import { schematicChain } from "@/components/viewer/schematic-chain";
+import type { Arm } from "@/kinematics/plan";
+import { timelineOf } from "@/kinematics/timeline";
+
+const Stage = dynamic(() => import("@/components/viewer/stage"), { ssr: false, loading: () => <Skeleton className="h-full w-full rounded-none" /> });
+
+/** An arm at rest on the stage (its home pose), for the arms page. */
+export function ArmStage({ arm }: { arm: Arm }) {
+  const playhead = useMemo(() => new Playhead(), []);
+  const home = useMemo(() => arm.joints.map((j) => (j.min <= 0 && j.max >= 0 ? 0 : (j.min + j.max) / 2)), [arm]);
+  const timeline = useMemo(() => timelineOf({ format: "jointproof.plan", version: 1, arm, start: home, moves: [] }), [arm, home]);
+  const chain = useMemo(() => arm.chain ?? schematicChain(arm.joints), [arm]);
+  return (
+    <PlayheadContext.Provider value={playhead}>
+      <div className="relative h-80 overflow-hidden rounded-md bg-[#f3f1ea]" data-testid="arm-stage">
+        <StageErrorBoundary>
+          <Stage chain={chain} joints={arm.joints} timeline={timeline} ghosts={[]} linkSeverity={[]} />
+        </StageErrorBoundary>
+        {!arm.chain ? <span className="absolute top-2 left-2 rounded bg-caution-tint px-1.5 py-0.5 text-[11px] text-caution">Schematic: this description has no geometry</span> : null}
+      </div>
+    </PlayheadContext.Provider>
+  );
+}

@@ -1,0 +1,60 @@
+"use client";
+import { useMemo } from "react";
+import { CartesianGrid, Legend, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
+import { verdictLook } from "@/components/ui/verdict-chip";
+import type { Joint } from "@/kinematics/plan";
+import type { Recording, StreamFinding } from "@/kinematics/stream";
+import { displayFactor, unitLabel, type AngleUnit } from "@/lib/units";
+import { minMaxIndices } from "@/components/plots/downsample";
+
+export interface RecordingPlotProps {
+  original: Recording;
+  repaired: Recording | null;
+  joint: number;
+  jointInfo: Joint;
+  findings: readonly StreamFinding[];
+  unit: AngleUnit;
+}
+
+/**
+ * One joint of a recording against time: the original trace, the repaired one (dashed) when there is
+ * one, the travel limits, and the stream findings as shaded spans (fault red, caution amber).
+ */
+export function RecordingPlot({ original, repaired, joint, jointInfo, findings, unit }: RecordingPlotProps) {
+  const f = displayFactor(jointInfo.type, unit);
+  const data = useMemo(() => {
+    const n = original.jointCount;
+    const idx = minMaxIndices(original.count, original.position, n, [joint], 600);
+    const extra = repaired ? minMaxIndices(repaired.count, repaired.position, n, [joint], 600) : new Uint32Array(0);
+    const keys = new Set<number>([...idx, ...extra]);
+    const sameGrid = repaired && repaired.count === original.count;
+    return [...keys].sort((a, b) => a - b).map((k) => ({
+      t: original.timeS[Math.min(k, original.count - 1)],
+      original: original.position[Math.min(k, original.count - 1) * n + joint] * f,
+      ...(repaired && sameGrid ? { repaired: repaired.position[k * n + joint] * f } : {}),
+    }));
+  }, [original, repaired, joint, f]);
+  const mine = findings.filter((x) => x.joint === joint);
+  const label = `${jointInfo.name} position (${unitLabel(jointInfo.type, unit)})`;
+  return (
+    <figure aria-label={`${label} against time, original${repaired ? " and repaired" : ""}`} className="h-64 w-full">
+      <figcaption className="mb-1 text-xs font-medium text-ink-soft">{label}</figcaption>
+      <ResponsiveContainer width="100%" height="100%">
+        <LineChart data={data} margin={{ top: 4, right: 12, bottom: 4, left: 0 }}>
+          <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" />
+          <XAxis dataKey="t" type="number" domain={["dataMin", "dataMax"]} tick={{ fontSize: 10, fill: "#6b7280" }} tickFormatter={(v: number) => `${Number(v.toFixed(2))}s`} />
+          <YAxis width={52} tick={{ fontSize: 10, fill: "#6b7280" }} tickFormatter={(v: number) => `${Number(v.toFixed(1))}`} domain={["auto", "auto"]} />
+          <ReferenceLine y={jointInfo.min * f} stroke={verdictLook.fault.stroke} ifOverflow="discard" />
+          <ReferenceLine y={jointInfo.max * f} stroke={verdictLook.fault.stroke} ifOverflow="discard" />
+          {mine.map((x, i) => (
+            <ReferenceArea key={i} x1={original.timeS[Math.max(0, x.sample - 1)]} x2={original.timeS[Math.min(original.count - 1, x.endSample)]}
+              fill={verdictLook[x.severity].stroke} fillOpacity={0.18} stroke={verdictLook[x.severity].stroke} strokeOpacity={0.6} ifOverflow="extendDomain" />
+          ))}
+          <Line dataKey="original" name="original" stroke="#1f6f86" strokeWidth={1.5} dot={false} isAnimationActive={false} />
+          {repaired ? <Line dataKey="repaired" name="repaired" stroke="#b8612a" strokeWidth={1.5} strokeDasharray="5 3" dot={false} isAnimationActive={false} /> : null}
+          <Legend verticalAlign="top" height={18} iconSize={10} wrapperStyle={{ fontSize: 11 }} />
+        </LineChart>
+      </ResponsiveContainer>
+    </figure>
+  );
+}
