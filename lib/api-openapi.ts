@@ -16,6 +16,11 @@ function schemaOf(schema: z.ZodType): Json {
 
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 
+function withPlanDocument(schema: Json): Json {
+  const properties = (schema.properties ?? {}) as Record<string, Json>;
+  return { ...schema, properties: { ...properties, document: ref("PlanDocument") } };
+}
+
 type Param = { name: string; in: "path" | "query"; required?: boolean; schema: Json; description?: string };
 type Op = {
   method: "get" | "post" | "patch" | "delete";
@@ -198,7 +203,8 @@ export function openApiDocument(serverUrl: string): Json {
         CreateArm: schemaOf(s.createArmSchema),
         CreateArmRevision: schemaOf(s.createArmRevisionSchema),
         CreatePlan: schemaOf(s.createPlanSchema),
-        CreateVersion: schemaOf(s.createVersionSchema),
+        // The document is read by the engine's parsePlan (a transform, opaque to JSON Schema): point it at PlanDocument.
+        CreateVersion: withPlanDocument(schemaOf(s.createVersionSchema)),
       },
     },
   };

@@ -3,7 +3,25 @@
  * forms and the OpenAPI document (lib/api-openapi.ts).
  */
 import { z } from "zod";
-import { armDocumentSchema, planSchema } from "./api-engine";
+import { armDocumentSchema, parsePlan, planSchema, type Plan } from "./api-engine";
+
+/** `arm.joints[1].maxVelocity` → ["arm", "joints", 1, "maxVelocity"]; `(document)` → []. */
+function pathSegments(path: string): (string | number)[] {
+  if (path === "(document)") return [];
+  return [...path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)].map((m) => (m[2] !== undefined ? Number(m[2]) : m[1]));
+}
+
+/**
+ * A plan document read exactly as the command line reads it (the engine's `parsePlan`: the
+ * version-1 schema, plus Cartesian move targets resolved to joint goals by inverse kinematics),
+ * with each problem reported at its field path.
+ */
+export const planDocumentInput = z.unknown().transform((value, ctx): Plan => {
+  const parsed = parsePlan(value);
+  if (parsed.ok) return parsed.value;
+  for (const problem of parsed.problems) ctx.addIssue({ code: "custom", message: problem.message, path: pathSegments(problem.path) });
+  return z.NEVER;
+});
 
 const name = (max = 120) =>
   z.string({ error: "is required" }).trim().min(1, { error: "must not be empty" }).max(max, { error: `must be at most ${max} characters` });
@@ -38,7 +56,7 @@ export const createVersionSchema = z.strictObject({
   baseVersion: z.number({ error: "must be a whole number" }).int({ error: "must be a whole number" }).min(0).max(1_000_000),
   /** The arm revision to check against (default: the arm's latest); `document.arm` must equal it. */
   armRevision: z.number().int().positive().max(1_000_000).optional(),
-  document: planSchema,
+  document: planDocumentInput,
   note,
 });
 
@@ -71,7 +89,7 @@ export const adminUpdateUserSchema = z
 
 export { signUpSchema } from "./auth-schemas";
 
-export { planSchema as checkPlanSchema };
+export { planDocumentInput as checkPlanSchema, planSchema };
 
 /** Query string of a recording upload; the body is the CSV file itself (`t,<joint names…>`). */
 export const uploadRecordingQuery = z.strictObject({

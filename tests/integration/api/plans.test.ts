@@ -79,6 +79,21 @@ describe("plan versions", () => {
     expect(errorOf(res).issues[0].path).toBe("document.arm");
   });
 
+  it("reads a document the way the command line does: a Cartesian target becomes a joint goal, an unreachable one is refused at its path", async () => {
+    const base = await db.$count(planVersions, eq(planVersions.planId, planId));
+    const withTarget = { ...gentlePlan(), start: [0, 0.3, 0.5, 0.2, 0, 0, 0.01], moves: [{ target: { position: [0.3, 0, 0.3] }, duration: 2 }] };
+    const saved = await saveVersion(base, withTarget);
+    expect(saved.status, saved.text).toBe(201);
+    const number = (saved.body as { version: { number: number } }).version.number;
+    const [row] = await db.select().from(planVersions).where(eq(planVersions.planId, planId)).orderBy(planVersions.number).offset(number - 1);
+    const goal = (row.document as { moves: { goal: number[] }[] }).moves[0].goal;
+    expect(goal).toHaveLength(7);
+    expect(goal[6]).toBe(0.01); // the gripper is outside the chain and keeps its value
+    const unreachable = await saveVersion(number, { ...withTarget, moves: [{ target: { position: [5, 5, 5] }, duration: 2 }] });
+    expect(unreachable.status).toBe(400);
+    expect(errorOf(unreachable).issues.map((i) => i.path)).toContain("document.moves[0].target");
+  });
+
   it("returns a version's document and the arm revision it was checked against", async () => {
     const res = await call(versionRoute.GET, { path: `/api/v1/plans/${planId}/versions/2`, params: { planId, version: "2" }, auth });
     expect(res.status).toBe(200);
