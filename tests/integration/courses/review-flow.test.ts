@@ -7,6 +7,7 @@ import "../api/_env";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { db } from "@/db";
+import { auditLog } from "@/db/schema";
 import { mailOutbox } from "@/db/schema/courses";
 import { startMailHarness, type MailHarness } from "./_mail";
 import { baseMovePlan, demoArmRevision, studentPlan } from "./_fixtures";
@@ -225,6 +226,10 @@ describe("course review flow", () => {
     expect(lines).toHaveLength(2);
     expect(lines[1]).toContain(`${student.email},Base sweep,`);
     expect(lines[1]).toMatch(/,2,[^,]+,false,pass,approved,$/);
+
+    // Who did what is in the audit log.
+    const audit = await db.select({ action: auditLog.action, actorId: auditLog.actorId }).from(auditLog).where(eq(auditLog.targetId, firstSub.id));
+    expect(audit).toEqual(expect.arrayContaining([{ action: "submission.create", actorId: student.id }, { action: "submission.return", actorId: instructor.id }]));
 
     // Every queued message went out exactly once: five messages, five distinct outbox rows, all sent.
     await new Promise((r) => setTimeout(r, 1_500));

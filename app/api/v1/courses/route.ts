@@ -1,3 +1,4 @@
+import { recordAudit } from "@/db/queries/audit";
 import { createCourse, getArmRevisionById, listCoursesForUser } from "@/db/queries/courses";
 import { getProjectForUser } from "@/db/queries/projects";
 import { json, readJson, route } from "@/lib/api";
@@ -31,5 +32,6 @@ export const POST = route(async (request) => {
     }
   }
   const course = await createCourse({ userId: actor.userId, ...body });
+  await recordAudit({ actorId: actor.userId, action: "course.create", targetType: "course", targetId: course.id, projectId: course.projectId, detail: { title: course.title } });
   return json({ course: { ...course, inviteUrl: appLink(joinPath(course.joinCode)) } }, 201);
 });

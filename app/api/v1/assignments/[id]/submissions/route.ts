@@ -1,3 +1,4 @@
+import { recordAudit } from "@/db/queries/audit";
 import { createSubmission, getArmRevisionById, getSubmittableVersion, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
 import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/api";
@@ -93,6 +94,7 @@ export const POST = route(async (request, context) => {
         : "This assignment is already approved.",
     );
   }
+  await recordAudit({ actorId: actor.userId, action: "submission.create", targetType: "submission", targetId: result.submission.id, detail: { assignmentId: id, attempt: result.submission.attempt, verdict: report.verdict } });
   await enqueueMail(result.mailIds);
   return json({ submission: { ...result.submission, document: undefined }, report, ruleProblems: problems }, 201);
 });

@@ -1,3 +1,4 @@
+import { recordAudit } from "@/db/queries/audit";
 import { createAssignment, getArmRevisionById, listAssignmentsForUser } from "@/db/queries/courses";
 import { json, readJson, readParams, route } from "@/lib/api";
 import { requireActor } from "@/lib/auth-request";
@@ -37,5 +38,6 @@ export const POST = route(async (request, context) => {
   if (poseIssues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues: poseIssues });
   const assignment = await createAssignment({ courseId: id, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
   if (!assignment) throw new AppError("forbidden:assignment", "Only the course's instructors can set assignments.");
+  await recordAudit({ actorId: actor.userId, action: "assignment.create", targetType: "assignment", targetId: assignment.id, projectId: course.projectId, detail: { courseId: id } });
   return json({ assignment }, 201);
 });

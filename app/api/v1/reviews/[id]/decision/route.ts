@@ -1,3 +1,4 @@
+import { recordAudit } from "@/db/queries/audit";
 import { decideSubmission, listComments } from "@/db/queries/reviews";
 import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/api";
@@ -36,6 +37,7 @@ export const POST = route(async (request, context) => {
     ),
   ]);
   if (!result) throw new AppError("conflict:submission", "This submission was already decided.");
+  await recordAudit({ actorId: actor.userId, action: `submission.${body.decision === "approved" ? "approve" : "return"}`, targetType: "submission", targetId: id, detail: { reviewId: result.review.id } });
   await enqueueMail(result.mailIds);
   return json({ review: result.review }, 201);
 });

@@ -1,3 +1,4 @@
+import { recordAudit } from "@/db/queries/audit";
 import { removeStudent } from "@/db/queries/courses";
 import { json, readParams, route } from "@/lib/api";
 import { requireActor } from "@/lib/auth-request";
@@ -14,5 +15,6 @@ export const DELETE = route(async (request, context) => {
   authorizeCourse(course.role, "roster:manage");
   const removed = await removeStudent({ courseId: id, instructorId: actor.userId, userId });
   if (!removed) throw new AppError("not_found:student", "No such student in this course.");
+  await recordAudit({ actorId: actor.userId, action: "course.remove-student", targetType: "course", targetId: id, projectId: course.projectId, detail: { userId } });
   return json({ removed: userId });
 });
