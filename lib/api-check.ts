@@ -1,5 +1,12 @@
 /** Running the engine for the API: the check, and the summary stored beside each plan version. */
 import { check, type Plan, type Report } from "./api-engine";
+import { AppError } from "./errors";
+
+/**
+ * Most control periods one request may check (one hour at 1 kHz). The check samples the whole plan
+ * at the control rate, so without a cap a tiny body with a huge duration would hold the server.
+ */
+export const MAX_CHECK_PERIODS = 3_600_000;
 
 export type ReportSummary = {
   verdict: Report["verdict"];
@@ -25,7 +32,16 @@ export function summarize(plan: Plan, report: Report): ReportSummary {
   };
 }
 
-export function checkPlan(plan: Plan): { report: Report; summary: ReportSummary } {
+/** Runs the engine on a parsed plan; `pathPrefix` names the document in the request (e.g. "document"). */
+export function checkPlan(plan: Plan, pathPrefix = ""): { report: Report; summary: ReportSummary } {
+  const durationS = plan.moves.reduce((s, m) => s + m.duration, 0);
+  const periods = durationS * plan.arm.controlRateHz;
+  if (periods > MAX_CHECK_PERIODS) {
+    const maxS = MAX_CHECK_PERIODS / plan.arm.controlRateHz;
+    throw new AppError("unprocessable:plan-too-long", `The plan lasts ${durationS} s; one check covers at most ${maxS} s at this control rate. Split it into shorter plans.`, {
+      issues: [{ path: pathPrefix ? `${pathPrefix}.moves` : "moves", message: `must last at most ${maxS} s in total` }],
+    });
+  }
   const report = check(plan);
   return { report, summary: summarize(plan, report) };
 }

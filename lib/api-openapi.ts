@@ -56,6 +56,7 @@ const operations: Op[] = [
   { method: "get", path: "/projects/{projectId}/members", summary: "List members", tag: "Projects", params: [p("projectId")], ok: 200, errors: [401, 404] },
   { method: "post", path: "/projects/{projectId}/members", summary: "Add a member or change their role (owners)", tag: "Projects", params: [p("projectId")], body: ref("AddMember"), ok: 201, errors: [400, 401, 403, 404, 422] },
   { method: "delete", path: "/projects/{projectId}/members/{userId}", summary: "Remove a member (owners)", tag: "Projects", params: [p("projectId"), p("userId")], ok: 200, errors: [401, 403, 404, 422] },
+  { method: "get", path: "/projects/{projectId}/audit", summary: "Who did what in a project, newest first (owners)", tag: "Projects", params: [p("projectId")], ok: 200, errors: [401, 403, 404] },
   { method: "get", path: "/arms", summary: "Built-in arms and your projects' arms", tag: "Arms", ok: 200, errors: [401] },
   { method: "get", path: "/projects/{projectId}/arms", summary: "Arms usable in a project", tag: "Arms", params: [p("projectId")], ok: 200, errors: [401, 404] },
   { method: "post", path: "/projects/{projectId}/arms", summary: "Create a custom arm with its first revision", tag: "Arms", params: [p("projectId")], body: ref("CreateArm"), ok: 201, errors: [400, 401, 403, 404, 409] },

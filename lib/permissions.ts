@@ -31,7 +31,8 @@ export type ProjectAction =
   | "plan:delete"
   | "version:create"
   | "recording:read"
-  | "recording:create";
+  | "recording:create"
+  | "audit:read";
 
 const everyone: SiteAction[] = ["project:create", "token:manage", "check:run", "arm:read-builtin"];
 
@@ -48,11 +49,11 @@ const write: ProjectAction[] = ["arm:write", "plan:create", "plan:delete", "vers
 export const projectPermissions: Record<MemberRole, ReadonlySet<ProjectAction>> = {
   viewer: new Set(read),
   editor: new Set([...read, ...write]),
-  owner: new Set([...read, ...write, "project:rename", "project:archive", "member:manage"]),
+  owner: new Set([...read, ...write, "project:rename", "project:archive", "member:manage", "audit:read"]),
 };
 
 /** What an archived project still allows: reading, and the owner un-archiving it. */
-export const archivedProjectAllows: ReadonlySet<ProjectAction> = new Set([...read, "project:archive"]);
+export const archivedProjectAllows: ReadonlySet<ProjectAction> = new Set([...read, "project:archive", "audit:read"]);
 
 /** Who is acting: a signed-in user or an API token holder (same permissions as its owner). */
 export type Actor = { userId: string; siteRole: SiteRole; via: "session" | "token"; tokenId?: string };

@@ -142,3 +142,19 @@ describe("archived projects", () => {
     expect(again.status).toBe(201);
   });
 });
+
+describe("audit log", () => {
+  it("records who created a project and saved a plan, newest first, for the project's owners", async () => {
+    const { GET } = await import("@/app/api/v1/projects/[projectId]/audit/route");
+    const owner = await makeUser("researcher");
+    const auth = { bearer: await tokenFor(owner.id) };
+    const created = await call(projects.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: "Audited" } });
+    const projectId = (created.body as { project: { id: string } }).project.id;
+    await call(projectPlans.POST, { method: "POST", path: `/api/v1/projects/${projectId}/plans`, params: { projectId }, auth, body: { name: "P", armId: demoArm.id } });
+    const log = await call(GET, { path: `/api/v1/projects/${projectId}/audit`, params: { projectId }, auth });
+    expect(log.status).toBe(200);
+    const entries = (log.body as { entries: { action: string; actorId: string }[] }).entries;
+    expect(entries.map((e) => e.action)).toEqual(["plan.create", "project.create"]);
+    expect(entries.every((e) => e.actorId === owner.id)).toBe(true);
+  });
+});

@@ -37,6 +37,7 @@ import * as recordingsRoute from "@/app/api/v1/projects/[projectId]/recordings/r
 import * as recordingFile from "@/app/api/v1/recordings/[recordingId]/file/route";
 import * as armImport from "@/app/api/v1/projects/[projectId]/arms/import/route";
 import * as openapi from "@/app/api/v1/openapi.json/route";
+import * as audit from "@/app/api/v1/projects/[projectId]/audit/route";
 import { readFileSync } from "node:fs";
 import { createRecording } from "@/db/queries/recordings";
 import { putObject } from "@/lib/storage";
@@ -125,6 +126,7 @@ const projectRoutes: ProjectRoute[] = [
   { name: "GET /projects/:id", need: "read", ok: 200, run: (f, auth) => call(project.GET, { path: `/api/v1/projects/${f.projectId}`, params: { projectId: f.projectId }, auth }) },
   { name: "PATCH /projects/:id (rename)", need: "owner", ok: 200, run: (f, auth) => call(project.PATCH, { method: "PATCH", path: `/api/v1/projects/${f.projectId}`, params: { projectId: f.projectId }, auth, body: { name: "Renamed" } }) },
   { name: "PATCH /projects/:id (archive)", need: "owner", ok: 200, run: (f, auth) => call(project.PATCH, { method: "PATCH", path: `/api/v1/projects/${f.projectId}`, params: { projectId: f.projectId }, auth, body: { archived: true } }) },
+  { name: "GET /projects/:id/audit", need: "owner", ok: 200, run: (f, auth) => call(audit.GET, { path: `/api/v1/projects/${f.projectId}/audit`, params: { projectId: f.projectId }, auth }) },
   { name: "GET /projects/:id/members", need: "read", ok: 200, run: (f, auth) => call(members.GET, { path: `/api/v1/projects/${f.projectId}/members`, params: { projectId: f.projectId }, auth }) },
   { name: "POST /projects/:id/members", need: "owner", ok: 200, run: (f, auth) => call(members.POST, { method: "POST", path: `/api/v1/projects/${f.projectId}/members`, params: { projectId: f.projectId }, auth, body: { email: f.spareEmail, role: "editor" } }) },
   { name: "DELETE /projects/:id/members/:userId", need: "owner", ok: 200, run: (f, auth) => call(member.DELETE, { method: "DELETE", path: `/api/v1/projects/${f.projectId}/members/${f.spareId}`, params: { projectId: f.projectId, userId: f.spareId }, auth }) },

@@ -147,13 +147,17 @@ const specificCases: Record<string, BadCase[]> = {
     { what: "a base version as text", body: { baseVersion: "0", document: doc() }, status: 400, path: "baseVersion" },
     { what: "a fractional base version", body: { baseVersion: 0.5, document: doc() }, status: 400, path: "baseVersion" },
     { what: "no document", body: { baseVersion: 0 }, status: 400, path: "document" },
+    { what: "a plan lasting ten million seconds", body: { baseVersion: 0, document: withMove({ duration: 1e7 }) }, status: 422, path: "document.moves" },
     ...badDocuments.map((d) =>
       d.raw
         ? { what: d.what, raw: d.raw("document"), status: 400, path: `document.${d.path}` }
         : { what: d.what, body: { baseVersion: 0, document: d.document }, status: 400, path: `document.${d.path}` },
     ),
   ],
-  "POST /check": badDocuments.map((d) => (d.raw ? { what: d.what, raw: d.raw(""), status: 400, path: d.path } : { what: d.what, body: d.document, status: 400, path: d.path })),
+  "POST /check": [
+    ...badDocuments.map((d) => (d.raw ? { what: d.what, raw: d.raw(""), status: 400, path: d.path } : { what: d.what, body: d.document, status: 400, path: d.path })),
+    { what: "a plan lasting ten million seconds (too long to check in one request)", body: withMove({ duration: 1e7 }), status: 422, path: "moves" },
+  ],
 };
 
 async function counts() {

@@ -144,11 +144,11 @@ describe("exports", () => {
 
   it("refuses an export that would hold too many waypoints (422 naming query.rateHz) and a rate that is not a number (400)", async () => {
     const long = gentlePlan();
-    long.moves = [{ goal: [0.3, -0.2, 0.4, 0.1, 0, 0.2, 0.01], duration: 900, shape: "quintic" }];
+    long.moves = [{ goal: [0.3, -0.2, 0.4, 0.1, 0, 0.2, 0.01], duration: 100, shape: "quintic" }];
     const saved = await saveVersion(await db.$count(planVersions, eq(planVersions.planId, planId)), long);
     expect(saved.status).toBe(201);
     const number = String((saved.body as { version: { number: number } }).version.number);
-    // 900 s × 10 kHz × 8 columns = 72 million values, over the limit; 900 s × 100 Hz is fine.
+    // 100 s × 10 kHz × 8 columns = 8 million values, over the 5 million limit; 100 s × 100 Hz is fine.
     const tooMany = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=10000`, params: { planId, version: number }, auth });
     expect(tooMany.status).toBe(422);
     expect(errorOf(tooMany).issues[0].path).toBe("query.rateHz");
