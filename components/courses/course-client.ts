@@ -48,7 +48,7 @@ export type SubmissionDetailDto = {
 export const courseApi = {
   ownSubmissions: () => send<{ submissions: OwnSubmissionDto[] }>("/api/v1/submissions").then((r) => r.submissions),
   submission: (id: string) => send<SubmissionDetailDto>(`/api/v1/submissions/${id}`),
-  createCourse: (input: { title: string; term: string; limits?: { velocityScale?: number } }) =>
+  createCourse: (input: { title: string; term: string; requiredArmRevisionId?: string; limits?: { velocityScale?: number } }) =>
     send<{ course: { id: string; joinCode: string; inviteUrl: string } }>("/api/v1/courses", post(input)).then((r) => r.course),
   join: (code: string) => send<{ course: { id: string; title: string }; role: string }>("/api/v1/courses/join", post({ code })),
   invite: (courseId: string, emails: string[]) => send<{ invited: string[] }>(`/api/v1/courses/${courseId}/invitations`, post({ emails })),

@@ -2,13 +2,13 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useMutation } from "@tanstack/react-query";
+import { useMutation, useQuery } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextAreaField, TextField } from "@/components/ui/field";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { ApiError } from "@/lib/api-client";
+import { api, ApiError } from "@/lib/api-client";
 import { courseApi } from "./course-client";
 
 export type ArmChoice = { revisionId: string; label: string };
@@ -86,7 +86,7 @@ export function CourseView({ course, assignments, roster, arms, plans }: CourseV
           </Table>
         )}
       </Panel>
-      {teaches ? <NewAssignment courseId={course.id} arms={arms} /> : null}
+      {teaches ? <NewAssignment courseId={course.id} arms={arms} plans={plans} /> : null}
       {teaches ? <Roster courseId={course.id} roster={roster} /> : null}
     </div>
   );
@@ -146,13 +146,25 @@ function SubmitForm({ assignmentId, plans, disabled }: { assignmentId: string; p
   );
 }
 
-function NewAssignment({ courseId, arms }: { courseId: string; arms: ArmChoice[] }) {
+function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmChoice[]; plans: PlanChoice[] }) {
   const router = useRouter();
   const [title, setTitle] = useState("");
   const [instructions, setInstructions] = useState("");
   const [dueAt, setDueAt] = useState("");
   const [arm, setArm] = useState(arms[0]?.revisionId ?? "");
   const [speed, setSpeed] = useState("");
+  const [posesFrom, setPosesFrom] = useState("");
+  // The required start and goal poses, copied from one of the instructor's saved plan versions.
+  const poses = useQuery({
+    queryKey: ["plan-version-poses", posesFrom],
+    enabled: posesFrom !== "",
+    queryFn: async () => {
+      const [planId, version] = posesFrom.split(":");
+      const v = await api.getVersion(planId, Number(version));
+      const doc = v.document as { start: number[]; moves: { goal: number[] }[] };
+      return { start: doc.start, goals: doc.moves.map((m) => m.goal), armRevisionId: v.armRevisionId };
+    },
+  });
   const create = useMutation({
     mutationFn: () => {
       const pct = Number(speed);
@@ -162,11 +174,13 @@ function NewAssignment({ courseId, arms }: { courseId: string; arms: ArmChoice[]
         dueAt: dueAt ? new Date(`${dueAt}Z`).toISOString() : "",
         requiredArmRevisionId: arm,
         ...(speed.trim() && pct > 0 && pct < 100 ? { limits: { velocityScale: pct / 100 } } : {}),
+        ...(posesFrom && poses.data ? { requiredStart: poses.data.start, requiredGoals: poses.data.goals } : {}),
       });
     },
     onSuccess: () => {
       setTitle("");
       setInstructions("");
+      setPosesFrom("");
       router.refresh();
     },
   });
@@ -180,9 +194,24 @@ function NewAssignment({ courseId, arms }: { courseId: string; arms: ArmChoice[]
           {arms.map((a) => <option key={a.revisionId} value={a.revisionId}>{a.label}</option>)}
         </SelectField>
         <TextField label="Speed limit (% of maximum, optional)" inputMode="numeric" value={speed} onChange={(e) => setSpeed(e.target.value)} hint="Applies on top of the course's limit; the stricter wins." />
+        <SelectField
+          label="Required start and goal poses (optional)"
+          value={posesFrom}
+          onChange={(e) => setPosesFrom(e.target.value)}
+          fieldClassName="md:col-span-2"
+          hint={
+            poses.data
+              ? `Students must start at this plan's start pose and reach its ${poses.data.goals.length} goal pose${poses.data.goals.length === 1 ? "" : "s"} in order.${arms.some((a) => a.revisionId === poses.data.armRevisionId) && poses.data.armRevisionId !== arm ? " That plan was saved for another arm revision than the one selected." : ""}`
+              : "Copy them from one of your saved plan versions; leave empty to accept any poses."
+          }
+          error={poses.error ? poses.error.message : undefined}
+        >
+          <option value="">Any poses</option>
+          {plans.map((p) => <option key={`${p.planId}:${p.version}`} value={`${p.planId}:${p.version}`}>{p.label}</option>)}
+        </SelectField>
         <TextAreaField label="Instructions" rows={3} value={instructions} onChange={(e) => setInstructions(e.target.value)} fieldClassName="md:col-span-2" />
         <div className="md:col-span-2">
-          <Button type="submit" variant="primary" disabled={create.isPending}>Set assignment</Button>
+          <Button type="submit" variant="primary" disabled={create.isPending || (posesFrom !== "" && !poses.data)}>Set assignment</Button>
           {create.error && !fieldError(create.error, "title") && !fieldError(create.error, "dueAt") ? <div className="mt-2"><ErrorNote>{create.error.message}</ErrorNote></div> : null}
         </div>
       </form>

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useMutation } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
-import { TextField } from "@/components/ui/field";
+import { SelectField, TextField } from "@/components/ui/field";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { ApiError } from "@/lib/api-client";
@@ -17,17 +17,23 @@ function issue(error: unknown, path: string): string | undefined {
 }
 
 /** The courses list, the join-by-code form and (for instructors) the new-course form. */
-export function CoursesHome({ courses, canCreate }: { courses: CourseRow[]; canCreate: boolean }) {
+export function CoursesHome({ courses, canCreate, arms }: { courses: CourseRow[]; canCreate: boolean; arms: { revisionId: string; label: string }[] }) {
   const router = useRouter();
   const [code, setCode] = useState("");
   const [title, setTitle] = useState("");
   const [term, setTerm] = useState("");
   const [speedPercent, setSpeedPercent] = useState("70");
+  const [arm, setArm] = useState("");
   const join = useMutation({ mutationFn: () => courseApi.join(code), onSuccess: (r) => router.push(`/courses/${r.course.id}`) });
   const create = useMutation({
     mutationFn: () => {
       const pct = Number(speedPercent);
-      return courseApi.createCourse({ title, term, ...(speedPercent.trim() && pct > 0 && pct < 100 ? { limits: { velocityScale: pct / 100 } } : {}) });
+      return courseApi.createCourse({
+        title,
+        term,
+        ...(arm ? { requiredArmRevisionId: arm } : {}),
+        ...(speedPercent.trim() && pct > 0 && pct < 100 ? { limits: { velocityScale: pct / 100 } } : {}),
+      });
     },
     onSuccess: (c) => router.push(`/courses/${c.id}`),
   });
@@ -102,6 +108,10 @@ export function CoursesHome({ courses, canCreate }: { courses: CourseRow[]; canC
                   hint="Every submission is checked against this stricter limit. Leave empty for the arm's own limits."
                   error={issue(create.error, "limits.velocityScale")}
                 />
+                <SelectField label="Required arm (optional)" value={arm} onChange={(e) => setArm(e.target.value)} hint="Every submission must be saved for this arm revision.">
+                  <option value="">Any arm (each assignment names one)</option>
+                  {arms.map((a) => <option key={a.revisionId} value={a.revisionId}>{a.label}</option>)}
+                </SelectField>
                 <Button type="submit" variant="primary" disabled={create.isPending}>Create course</Button>
                 {create.error && !issue(create.error, "title") && !issue(create.error, "term") ? <ErrorNote>{create.error.message}</ErrorNote> : null}
               </form>

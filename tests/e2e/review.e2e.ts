@@ -103,6 +103,7 @@ describe("review flow in the browser", () => {
     await page.getByLabel("Required arm").selectOption({ label: "Bench arm L (guide handle) · revision 1" });
     await page.getByRole("button", { name: "Set assignment" }).click();
     await page.getByTestId("assignment-row").filter({ hasText: "Reach without faults" }).waitFor();
+    await page.screenshot({ path: `${screenshotDir}/course-instructor.png`, fullPage: true });
 
     // The student joins with the code and submits the 0.74 s reach: within the arm's limits, but a
     // fault at the course's 70% speed limit, which the server's re-check applies.

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { listCoursesForUser } from "@/db/queries/courses";
 import { CoursesHome } from "@/components/courses/courses-home";
 import { canSite } from "@/lib/permissions";
@@ -10,10 +11,15 @@ export const dynamic = "force-dynamic";
 /** The caller's courses; join one with a code, or (instructors) create one. */
 export default async function CoursesPage() {
   const actor = await requirePageActor("/courses");
+  const canCreate = canSite(actor, "project:create-course");
   const courses = await listCoursesForUser({ userId: actor.userId });
+  const armList = canCreate ? await listArmsForUser({ userId: actor.userId }) : [];
+  const revisions = await Promise.all(armList.map((a) => getArmRevisionForUser({ armId: a.id, userId: actor.userId })));
+  const arms = armList.flatMap((a, i) => (revisions[i] ? [{ revisionId: revisions[i].id, label: `${a.name} · revision ${revisions[i].revision}` }] : []));
   return (
     <CoursesHome
-      canCreate={canSite(actor, "project:create-course")}
+      arms={arms}
+      canCreate={canCreate}
       courses={courses.map((c) => ({ id: c.id, title: c.title, term: c.term, role: c.role, joinCode: c.role === "instructor" ? c.joinCode : null }))}
     />
   );

@@ -25,18 +25,17 @@ export default async function CoursePage({ params }: { params: Promise<{ courseI
     teaches ? listRoster({ courseId, userId: actor.userId }) : Promise.resolve([]),
   ]);
 
+  // Students pick the plan version to submit; instructors may copy an assignment's poses from one.
+  const projects = await listProjectsForUser({ userId: actor.userId });
+  const lists = await Promise.all(projects.map((p) => listPlansForProject({ projectId: p.id, userId: actor.userId })));
+  const plans: PlanChoice[] = lists.flatMap((l, i) =>
+    l.filter((p) => p.latestVersion > 0).map((p) => ({ planId: p.id, version: p.latestVersion, label: `${projects[i].name} / ${p.name} · version ${p.latestVersion}`, verdict: p.latestVerdict })),
+  );
   let arms: ArmChoice[] = [];
-  let plans: PlanChoice[] = [];
   if (teaches) {
     const list = await listArmsForUser({ userId: actor.userId });
     const revisions = await Promise.all(list.map((a) => getArmRevisionForUser({ armId: a.id, userId: actor.userId })));
     arms = list.flatMap((a, i) => (revisions[i] ? [{ revisionId: revisions[i].id, label: `${a.name} · revision ${revisions[i].revision}` }] : []));
-  } else {
-    const projects = await listProjectsForUser({ userId: actor.userId });
-    const lists = await Promise.all(projects.map((p) => listPlansForProject({ projectId: p.id, userId: actor.userId })));
-    plans = lists.flatMap((l, i) =>
-      l.filter((p) => p.latestVersion > 0).map((p) => ({ planId: p.id, version: p.latestVersion, label: `${projects[i].name} / ${p.name} · version ${p.latestVersion}`, verdict: p.latestVerdict })),
-    );
   }
 
   return (
