@@ -28,7 +28,6 @@ else
 fi
 
 node_modules/.bin/tsx scripts/migrate.ts
-node_modules/.bin/tsx db/seed.ts | tee .data/signins.txt
 
 export S3_PORT="${S3_PORT:-54330}" JP_FAKES_DIR="${JP_FAKES_DIR:-$ROOT/.data/fakes}"
 # Mail goes to the local SMTP fake unless SMTP_HOST names a real server; /dev/mail lists it.
@@ -36,6 +35,9 @@ if [ -z "${SMTP_HOST:-}" ]; then
   export SMTP_HOST=127.0.0.1 SMTP_PORT="${SMTP_PORT:-54331}" MAIL_FAKE_DIR="$JP_FAKES_DIR/mail" JP_DEV_MAIL=1
 fi
 start_fakes
+
+# The seed stores the demo recording through the S3 API, so it runs once the fakes are up.
+node_modules/.bin/tsx db/seed.ts | tee .data/signins.txt
 
 build_if_stale
 

@@ -28,12 +28,12 @@ else
   export DATABASE_URL="postgres://postgres@127.0.0.1:$TEST_PG_PORT/jointproof_test"
 fi
 node_modules/.bin/tsx scripts/migrate.ts
-node_modules/.bin/tsx db/seed.ts >.data/test/seed.log
 
 export S3_PORT="${JP_TEST_S3_PORT:-54340}" JP_FAKES_DIR="$ROOT/.data/test/fakes"
 export SMTP_HOST=127.0.0.1 SMTP_PORT="${JP_TEST_SMTP_PORT:-54341}" MAIL_FAKE_DIR="$ROOT/.data/test/fakes/mail" JP_DEV_MAIL=1 MAIL_RETRY_DELAY_S=1
 rm -rf "$JP_FAKES_DIR"
 start_fakes
+node_modules/.bin/tsx db/seed.ts >.data/test/seed.log
 export NODE_ENV=test
 
 FAILED=()
