@@ -126,6 +126,11 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
   const m = withRot ? 6 : 3;
   const tolP = options.positionToleranceM ?? 1e-4;
   const tolR = options.orientationToleranceRad ?? 1e-3;
+  // Orientation rows are weighted by tolP/tolR (m/rad) so that both errors count in units of
+  // their own tolerance. With equal weights a target near a wrist singularity (two wrist axes
+  // almost parallel) let the solver trade position for orientation along a shallow valley and
+  // stall on a joint limit 0.6 mm away (found by the IK round-trip property test; derived).
+  const W = tolP / tolR;
   const maxIter = options.maxIterations ?? 150;
   const maxStep = options.maxStep ?? 0.4;
   const restarts = options.restarts ?? 12;
@@ -141,6 +146,7 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
   const a = new Float64Array(m * m);
   const y = new Float64Array(m);
   const err = new Float64Array(6);
+  const free = new Uint8Array(n);
   const q = new Float64Array(n), trial = new Float64Array(n), best = new Float64Array(n);
   let bestCost = Infinity, bestP = Infinity, bestR = Infinity;
   let iterations = 0;
@@ -154,14 +160,19 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
     err[0] = target[12] - t[12];
     err[1] = target[13] - t[13];
     err[2] = target[14] - t[14];
-    if (withRot) rotationErrorVector(err, target, t, 3);
+    if (withRot) {
+      rotationErrorVector(err, target, t, 3);
+      err[3] *= W;
+      err[4] *= W;
+      err[5] *= W;
+    }
     let s = 0;
     for (let k = 0; k < m; k++) s += err[k] * err[k];
     return s;
   };
   const errs = () => ({
     p: Math.hypot(err[0], err[1], err[2]),
-    r: withRot ? Math.hypot(err[3], err[4], err[5]) : 0,
+    r: withRot ? Math.hypot(err[3], err[4], err[5]) / W : 0,
   });
   // Deterministic pseudo-random numbers for restarts (a 32-bit LCG, Numerical Recipes §7.1).
   let state = 0x2545f491;
@@ -175,7 +186,12 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
       const lo = Number.isFinite(lower[i]) ? lower[i] : -Math.PI;
       const hi = Number.isFinite(upper[i]) ? upper[i] : Math.PI;
       const s = options.seed?.[i];
-      q[i] = attempt === 0 ? (s !== undefined && Number.isFinite(s) ? s : (lo + hi) / 2) : lo + rand() * (hi - lo);
+      const start = s !== undefined && Number.isFinite(s) ? s : (lo + hi) / 2;
+      // Restarts alternate between the seed's neighbourhood (growing radius: a seed resting on a
+      // limit often has its solution just inside it, past a local minimum on the limit) and the
+      // whole travel (other solution branches). Derived; found by the IK round-trip property test.
+      const radius = 0.3 * Math.ceil(attempt / 2);
+      q[i] = attempt === 0 ? start : attempt % 2 === 1 ? start + (2 * rand() - 1) * radius * Math.min(1, (hi - lo) / 2) : lo + rand() * (hi - lo);
     }
     clampInto(q);
     let cost = evaluate(q);
@@ -185,22 +201,39 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
       if (e.p <= tolP && e.r <= tolR) break;
       iterations++;
       toolJacobian(chain, buf, jac);
-      // A = J·Jᵀ + λ²I over the first m rows of the 6×n Jacobian.
-      for (let r = 0; r < m; r++)
-        for (let c = 0; c < m; c++) {
-          let s = r === c ? lambda * lambda : 0;
-          for (let k = 0; k < n; k++) s += jac[r * n + k] * jac[c * n + k];
-          a[r * m + c] = s;
-        }
-      for (let r = 0; r < m; r++) y[r] = err[r];
-      if (!solveLinear(a, y, m)) break;
+      if (withRot) for (let k = 3 * n; k < 6 * n; k++) jac[k] *= W;
+      // Active set: a joint resting on a limit whose step would push it further out is left
+      // out of the solve, so the other joints get the full least-squares step instead of a
+      // clamped (and so mis-directed) one (derived; fewer iterations spent on a limit stop).
+      free.fill(1);
       let stepMax = 0;
-      for (let k = 0; k < n; k++) {
-        let s = 0;
-        for (let r = 0; r < m; r++) s += jac[r * n + k] * y[r]; // Δq = Jᵀ·y
-        trial[k] = s;
-        stepMax = Math.max(stepMax, Math.abs(s));
+      let solved = true;
+      for (let pass = 0; pass <= n; pass++) {
+        // A = J·Jᵀ + λ²I over the first m rows of the 6×n Jacobian, free columns only.
+        for (let r = 0; r < m; r++)
+          for (let c = 0; c < m; c++) {
+            let s = r === c ? lambda * lambda : 0;
+            for (let k = 0; k < n; k++) if (free[k]) s += jac[r * n + k] * jac[c * n + k];
+            a[r * m + c] = s;
+          }
+        for (let r = 0; r < m; r++) y[r] = err[r];
+        solved = solveLinear(a, y, m);
+        if (!solved) break;
+        stepMax = 0;
+        let locked = false;
+        for (let k = 0; k < n; k++) {
+          let s = 0;
+          if (free[k]) for (let r = 0; r < m; r++) s += jac[r * n + k] * y[r]; // Δq = Jᵀ·y
+          trial[k] = s;
+          stepMax = Math.max(stepMax, Math.abs(s));
+          if (free[k] && ((q[k] <= lower[k] && s < 0) || (q[k] >= upper[k] && s > 0))) {
+            free[k] = 0;
+            locked = true;
+          }
+        }
+        if (!locked) break;
       }
+      if (!solved) break;
       const scale = stepMax > maxStep ? maxStep / stepMax : 1;
       for (let k = 0; k < n; k++) trial[k] = q[k] + scale * trial[k];
       clampInto(trial);

@@ -16,6 +16,11 @@ const { lower, upper } = chainLimits(arm.joints, chain.jointCount);
 const within = (lo: number, hi: number) => fc.integer({ min: 0, max: 1_000_000 }).map((k) => lo + ((hi - lo) * k) / 1_000_000);
 const poseArb = fc.tuple(...Array.from({ length: 6 }, (_, i) => within(lower[i] * 0.9, upper[i] * 0.9)));
 
+/** A recorded failing draw (pose q, seed) in the shape of the property's arguments (q, seed − q). */
+function regression(q: number[], seed: number[]): [number[], number[]] {
+  return [q, seed.map((v, i) => v - q[i])];
+}
+
 function toolOf(q: ArrayLike<number>) {
   const t = forwardKinematics(chain, q, createChainBuffers(chain));
   return { m: Float64Array.from(t), position: [t[12], t[13], t[14]] as [number, number, number], rpy: mat4.toRpy([0, 0, 0], t) as [number, number, number] };
@@ -35,7 +40,27 @@ describe("inverse kinematics (damped least squares)", () => {
         const w = rotationErrorVector(new Float64Array(3), target.m, back.m);
         expect(Math.hypot(w[0], w[1], w[2])).toBeLessThan(1e-3);
       }),
-      { numRuns: 60 },
+      {
+        numRuns: 60,
+        // Draws this property once failed on (about 1 in 3000; kept so they are tried on every run).
+        // 1: wrist-roll near π/2 puts the wrist-pitch and wrist-yaw axes almost parallel; the solver
+        //    stalled on the wrist-pitch limit 0.6 mm away. 2–3: the seed rests on the shoulder limit
+        //    and the solver stalled there, 0.2 mm and 2.3 mm away, with restarts only over the whole travel.
+        examples: [
+          regression(
+            [-0.9694815838756039, -1.2472875081840904, 2.161004309998825, -0.8280443429248407, 1.5834960706019778, -1.6859038975881413],
+            [-0.8905640678526833, -1.2184611226804556, 2.022514050817117, -0.9190587290329859, 1.7988434390584012, -1.4236069624638186],
+          ),
+          regression(
+            [-0.429560233494267, 1.62, 0.19667980976169908, -1.71, 2.745, 2.61],
+            [-0.12956023349426699, 1.8, -0.04052676770137642, -1.9, 2.741316118631512, 2.31],
+          ),
+          regression(
+            [2.614707509397995, 1.62, 0.25950629363302125, 0.761430215165019, 2.745, 2.39040701766964],
+            [2.4272238179272976, 1.8, -0.04049370636697874, 1.061430215165019, 2.4874837733153257, 2.69040701766964],
+          ),
+        ],
+      },
     );
   });
 
@@ -59,11 +84,16 @@ describe("inverse kinematics (damped least squares)", () => {
     expectClose(r.positionErrorM, 2 - 0.74, 1e-3, 0, "distance left");
   });
 
-  it("an orientation the wrist cannot take at that point is unreachable, its position may still be close", () => {
-    // Straight down at a point right above the base: the wrist would have to fold through the upper arm.
-    const r = solveIk(chain, { position: [0, 0, 0.3], rpy: [0, 0, 0] }, { lower, upper, restarts: 3 });
+  it("an orientation the wrist cannot take at that point is unreachable, while the point alone is reachable", () => {
+    // At pose 0 the demo arm stands straight up with the tool point at z = 0.9 m, tool z axis up.
+    // 2 cm below that, the tool turned upside down (roll π) would need the 0.10 m tool and the
+    // wrist folded back inside a nearly straight arm. (Before the orientation rows were weighted,
+    // this test used "straight down above the base", which the solver now shows is reachable.)
+    const r = solveIk(chain, { position: [0, 0, 0.88], rpy: [Math.PI, 0, 0] }, { lower, upper, restarts: 3 });
     expect(r.reachable).toBe(false);
-    expect(r.positionErrorM + r.orientationErrorRad).toBeGreaterThan(1e-3);
+    expect(r.orientationErrorRad).toBeGreaterThan(1e-3);
+    const p = solveIk(chain, { position: [0, 0, 0.88] }, { lower, upper });
+    expect(p.reachable).toBe(true);
   });
 
   it("rotationErrorVector returns θ·axis for a rotation of θ about an axis, including θ = π", () => {
