@@ -96,8 +96,63 @@ export const api = {
     request<{ revision: ArmRevisionDto }>(`/api/v1/arms/${armId}/revisions`, post(input)).then((r) => r.revision),
   createArm: (projectId: string, input: { name: string; description: unknown; note?: string }) =>
     request<{ arm: { id: string; name: string; projectId: string }; revision: ArmRevisionDto }>(`/api/v1/projects/${projectId}/arms`, post(input)),
+  listRecordings: (projectId: string) =>
+    request<{ recordings: RecordingDto[] }>(`/api/v1/projects/${projectId}/recordings`).then((r) => r.recordings),
+  recordingFileUrl: (recordingId: string) => `/api/v1/recordings/${recordingId}/file`,
   check: (document: unknown) => request<{ report: Report }>("/api/v1/check", post(document)),
 };
+
+/** A stored recording's metadata, as the API lists it. */
+export interface RecordingDto {
+  id: string;
+  name: string;
+  armId: string | null;
+  sizeBytes: number;
+  sampleCount: number;
+  jointCount: number;
+  durationS: number;
+  createdAt: string;
+}
+
+/**
+ * Uploads a recording CSV as the request body, reporting upload progress (0..1); fetch has no upload
+ * progress, so this one call uses XMLHttpRequest. Errors arrive as {@link ApiError}.
+ */
+export function uploadRecording(
+  projectId: string,
+  file: Blob,
+  input: { name: string; armId?: string },
+  onProgress: (fraction: number) => void,
+): Promise<RecordingDto> {
+  const q = new URLSearchParams({ name: input.name, ...(input.armId ? { armId: input.armId } : {}) });
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open("POST", `/api/v1/projects/${projectId}/recordings?${q}`);
+    xhr.setRequestHeader("Content-Type", "text/csv");
+    xhr.setRequestHeader("Accept", "application/json");
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable && e.total > 0) onProgress(e.loaded / e.total);
+    };
+    xhr.onerror = () => reject(new ApiError(0, "network", "The upload did not reach the server."));
+    xhr.onload = () => {
+      let body: unknown = null;
+      try {
+        body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+      } catch {
+        body = null;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) {
+        onProgress(1);
+        resolve((body as { recording: RecordingDto }).recording);
+        return;
+      }
+      const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null)?.error;
+      const { code, message, issues, ...details } = e ?? {};
+      reject(new ApiError(xhr.status, code ?? `http_${xhr.status}`, message ?? `The server answered ${xhr.status}.`, issues ?? [], details));
+    };
+    xhr.send(file);
+  });
+}
 
 export interface DiffDto {
   from: { number: number; verdict: "pass" | "caution" | "fault"; armRevision: number };

@@ -148,7 +148,7 @@ export function ArmsWorkbench({ projectId, projectName, arms, canEdit }: { proje
               </div>
               {errors.controlRateHz || errors.cautionRatio ? <p className="mt-1 text-xs text-fault">{errors.controlRateHz ? `Control rate ${errors.controlRateHz}. ` : ""}{errors.cautionRatio ? `Caution ratio ${errors.cautionRatio}.` : ""}</p> : null}
               <Table aria-label="Joint limits" className="mt-3">
-                <thead><tr><Th>Joint</Th><Th numeric>Min</Th><Th numeric>Max</Th><Th numeric>Max speed</Th><Th numeric>Max accel.</Th></tr></thead>
+                <thead><tr><Th>Joint</Th><Th numeric>Min (° · mm)</Th><Th numeric>Max (° · mm)</Th><Th numeric>Max speed (/s)</Th><Th numeric>Max accel. (/s²)</Th></tr></thead>
                 <tbody>
                   {draft.joints.map((joint, j) => (
                     <tr key={joint.name}>

@@ -157,7 +157,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
 
   return (
     <PlayheadContext.Provider value={playhead}>
-      <div className="flex h-[calc(100vh-3.5rem)] min-h-[640px] flex-col">
+      <div className="flex flex-col xl:h-[calc(100vh-3.5rem)] xl:min-h-[640px]">
         <header className="flex flex-wrap items-center gap-x-4 gap-y-1 border-b border-line bg-panel px-4 py-2">
           <div className="min-w-0">
             <h1 className="truncate text-base font-semibold" data-testid="plan-name">{meta.planName}</h1>
@@ -172,9 +172,10 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
           <div className="ml-auto flex flex-wrap items-center gap-2">{actions?.({ plan, report, replace: (p) => dispatch({ type: "replace", plan: p }) })}</div>
         </header>
 
-        <div className="grid min-h-0 flex-1 grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
+        {/* 1280 px and up: three rails side by side; a tablet: outline left, stage and findings stacked right */}
+        <div className="grid min-h-0 flex-1 grid-cols-1 md:grid-cols-[320px_1fr] xl:grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
           {/* left rail: plan outline and the selected pose */}
-          <aside aria-label="Plan outline" className="flex min-h-0 flex-col overflow-y-auto border-r border-line bg-panel">
+          <aside aria-label="Plan outline" className="flex min-h-0 flex-col overflow-y-auto border-r border-line bg-panel md:row-span-2 xl:row-span-1">
             <RailHeading
               action={
                 scale ? (
@@ -249,7 +250,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
 
           {/* centre: the stage and the timeline strip */}
           <section aria-label="Stage and timeline" className="flex min-h-0 min-w-0 flex-col">
-            <div className="relative min-h-[240px] flex-1 bg-[#f3f1ea]" data-testid="stage">
+            <div className="relative min-h-[300px] flex-1 bg-[#f3f1ea]" data-testid="stage">
               {canRender3d === false ? (
                 <div role="alert" className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft">
                   This browser offers no WebGL, so the 3D stage is off. The moves, findings and plots still work.
@@ -285,7 +286,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
           </section>
 
           {/* right rail: findings */}
-          <aside aria-label="Findings" className="flex min-h-0 flex-col border-l border-line bg-paper">
+          <aside aria-label="Findings" className="flex min-h-0 flex-col border-t border-line bg-paper md:col-start-2 xl:col-start-3 xl:border-t-0 xl:border-l">
             <FindingsPanel verdict={report.verdict} items={items} joints={plan.arm.joints} onJump={jump} className="min-h-0 flex-1" />
             <p suppressHydrationWarning data-testid="check-status" className="tabular border-t border-line px-3 py-1.5 text-[10px] text-ink-faint">
               {full.error

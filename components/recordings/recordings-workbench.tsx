@@ -1,7 +1,7 @@
 "use client";
 import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
-import { useMemo, useState } from "react";
+import { useState } from "react";
 import { ExportDialogShell } from "@/components/recordings/export-repaired";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
@@ -13,7 +13,9 @@ import { parseRecordingCsv } from "@/kinematics/csv";
 import type { Arm } from "@/kinematics/plan";
 import { planFromPoses, shortestSafeDurations } from "@/kinematics/sequence";
 import { alignRecording, repairStream, streamCheck, validateRecording, type Recording, type RecordingProblem, type StreamReport } from "@/kinematics/stream";
-import { api } from "@/lib/api-client";
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { api, uploadRecording, type RecordingDto } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 import { formatJointValue, type AngleUnit } from "@/lib/units";
 import { readWithProgress, waypointIndices } from "./read-file";
 import { RecordingPlot } from "./recording-plot";
@@ -47,12 +49,62 @@ function describeProblem(p: RecordingProblem): string {
 }
 
 /**
+ * A plan from a (repaired) recording: waypoints every `spacingS`, each move lasting as long as the
+ * recording took, lengthened to its shortest safe duration where rest-to-rest needs more time.
+ */
+function planFromRecording(arm: Arm, rec: Recording, spacingS: number) {
+  const n = rec.jointCount;
+  const idx = waypointIndices(rec.timeS, spacingS);
+  const poseAt = (k: number) => Array.from(rec.position.subarray(k * n, k * n + n));
+  const goals = idx.slice(1).map(poseAt);
+  const durations = idx.slice(1).map((k, i) => rec.timeS[k] - rec.timeS[idx[i]]);
+  const draft = planFromPoses(arm, poseAt(idx[0]), goals, durations, "quintic");
+  const safe = shortestSafeDurations(draft);
+  const lengthened = draft.moves.filter((m, i) => safe[i] > m.duration).length;
+  const plan = { ...draft, moves: draft.moves.map((m, i) => (safe[i] > m.duration ? { ...m, duration: Math.ceil(safe[i] * 1000) / 1000 } : m)) };
+  return { plan, lengthened, report: check(plan) };
+}
+
+/** Parses, aligns, validates and stream-checks a recording's bytes against an arm. */
+function analyseRecording(arm: Arm, bytes: Uint8Array): { problems: string[] } | { recording: Recording; report: StreamReport; checkMs: number } {
+  const t0 = performance.now();
+  const parsed = parseRecordingCsv(bytes);
+  if (!parsed.recording) return { problems: parsed.problems.map(describeProblem) };
+  const aligned = alignRecording(arm, parsed.recording);
+  if (!aligned.recording) return { problems: aligned.problems.map(describeProblem) };
+  const invalid = validateRecording(arm, aligned.recording);
+  if (invalid.length > 0) return { problems: invalid.map(describeProblem) };
+  const report = streamCheck(arm, aligned.recording);
+  return { recording: aligned.recording, report, checkMs: performance.now() - t0 };
+}
+
+/**
  * A recording on the bench's terms: read a CSV log (with a progress bar), stream-check it against the
  * chosen arm in the browser, repair it by rate-limiting, compare both traces, and keep the result as a
  * plan (waypoints with durations lengthened where needed) or as a CSV file.
  */
-export function RecordingsWorkbench({ projectId, projectName, arms, canEdit }: { projectId: string; projectName: string; arms: RecordingArm[]; canEdit: boolean }) {
+export function RecordingsWorkbench({ projectId, projectName, arms, canEdit, stored }: {
+  projectId: string;
+  projectName: string;
+  arms: RecordingArm[];
+  canEdit: boolean;
+  /** The project's stored recordings, loaded on the server for the first render. */
+  stored: RecordingDto[];
+}) {
   const router = useRouter();
+  const queryClient = useQueryClient();
+  const storedList = useQuery({ queryKey: queryKeys.recordings(projectId), queryFn: () => api.listRecordings(projectId), initialData: stored });
+  const [file, setFile] = useState<File | null>(null);
+  const [uploadProgress, setUploadProgress] = useState<number | null>(null);
+  const upload = useMutation({
+    mutationFn: () => {
+      if (!file || !chosen) throw new Error("choose a file first");
+      setUploadProgress(0);
+      return uploadRecording(projectId, file, { name: file.name.slice(0, 120), armId: chosen.id }, setUploadProgress);
+    },
+    onSuccess: () => void queryClient.invalidateQueries({ queryKey: queryKeys.recordings(projectId) }),
+  });
+
   const [armId, setArmId] = useState(arms[0]?.id ?? "");
   const chosen = arms.find((a) => a.id === armId);
   const [progress, setProgress] = useState<number | null>(null);
@@ -70,52 +122,41 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit }: {
     setProblems([]);
     setLoaded(null);
     setRepaired(null);
+    setPlanPreview(null);
     setProgress(0);
+    setFile(file);
+    upload.reset();
+    setUploadProgress(null);
     const bytes = await readWithProgress(file, setProgress);
-    const t0 = performance.now();
-    const parsed = parseRecordingCsv(bytes);
-    if (!parsed.recording) {
-      setProblems(parsed.problems.map(describeProblem));
+    const result = analyseRecording(chosen.arm, bytes);
+    if ("problems" in result) {
+      setProblems(result.problems);
       return;
     }
-    const aligned = alignRecording(chosen.arm, parsed.recording);
-    if (!aligned.recording) {
-      setProblems(aligned.problems.map(describeProblem));
-      return;
-    }
-    const invalid = validateRecording(chosen.arm, aligned.recording);
-    if (invalid.length > 0) {
-      setProblems(invalid.map(describeProblem));
-      return;
-    }
-    const report = streamCheck(chosen.arm, aligned.recording);
-    setLoaded({ fileName: file.name, sizeBytes: file.size, recording: aligned.recording, report, checkMs: performance.now() - t0 });
+    const { report } = result;
+    setLoaded({ fileName: file.name, sizeBytes: file.size, recording: result.recording, report, checkMs: result.checkMs });
     const worst = report.findings.find((f) => f.severity === "fault") ?? report.findings[0];
     setJoint(worst?.joint ?? 0);
     setPlanName(file.name.replace(/\.csv$/i, "").slice(0, 100) + " (repaired)");
   };
 
+  const openStored = async (r: RecordingDto) => {
+    const res = await fetch(api.recordingFileUrl(r.id));
+    if (!res.ok) {
+      setProblems([`The stored file could not be fetched (HTTP ${res.status}).`]);
+      return;
+    }
+    const blob = await res.blob();
+    await read(new File([blob], r.name.endsWith(".csv") ? r.name : `${r.name}.csv`, { type: "text/csv" }));
+  };
   const repair = () => {
     if (!loaded || !chosen) return;
     const r = repairStream(chosen.arm, loaded.recording);
     setRepaired({ recording: r.recording, report: streamCheck(chosen.arm, r.recording), maxDeviation: r.maxDeviation });
+    setPlanPreview(planFromRecording(chosen.arm, r.recording, spacingS));
   };
 
-  const planPreview = useMemo(() => {
-    if (!repaired || !chosen) return null;
-    const rec = repaired.recording;
-    const n = rec.jointCount;
-    const idx = waypointIndices(rec.timeS, spacingS);
-    const poseAt = (k: number) => Array.from(rec.position.subarray(k * n, k * n + n));
-    const goals = idx.slice(1).map(poseAt);
-    const durations = idx.slice(1).map((k, i) => rec.timeS[k] - rec.timeS[idx[i]]);
-    const draft = planFromPoses(chosen.arm, poseAt(idx[0]), goals, durations, "quintic");
-    // rest-to-rest waypoints need more time than the recording took between them where it moved fast
-    const safe = shortestSafeDurations(draft);
-    let lengthened = 0;
-    const plan = { ...draft, moves: draft.moves.map((m, i) => (safe[i] > m.duration ? (lengthened++, { ...m, duration: Math.ceil(safe[i] * 1000) / 1000 }) : m)) };
-    return { plan, lengthened, report: check(plan) };
-  }, [repaired, chosen, spacingS]);
+  const [planPreview, setPlanPreview] = useState<ReturnType<typeof planFromRecording> | null>(null);
 
   const save = useMutation({
     mutationFn: async () => {
@@ -141,7 +182,7 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit }: {
 
       <div className="mt-5 grid gap-5 lg:grid-cols-[360px_1fr]">
         <Panel className="flex flex-col gap-4 p-4">
-          <SelectField label="Arm the recording is for" value={armId} onChange={(e) => { setArmId(e.target.value); setLoaded(null); setRepaired(null); }}>
+          <SelectField label="Arm the recording is for" value={armId} onChange={(e) => { setArmId(e.target.value); setLoaded(null); setRepaired(null); setPlanPreview(null); }}>
             {arms.map((a) => <option key={a.id} value={a.id}>{a.name} (revision {a.revision})</option>)}
           </SelectField>
           <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
@@ -149,6 +190,20 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit }: {
             <input type="file" accept=".csv,text/csv" disabled={!chosen} className="text-sm text-ink" aria-label="Recording CSV file"
               onChange={(e) => { const f = e.target.files?.[0]; if (f) void read(f); }} />
           </label>
+          {storedList.data.length > 0 ? (
+            <section aria-label="Stored recordings" className="flex flex-col gap-1">
+              <h2 className="text-xs font-medium text-ink-soft">Stored in this project</h2>
+              <ul className="flex max-h-40 flex-col gap-1 overflow-auto">
+                {storedList.data.map((r) => (
+                  <li key={r.id} className="flex items-center gap-2 text-xs">
+                    <span className="min-w-0 flex-1 truncate" title={r.name}>{r.name}</span>
+                    <span className="tabular text-ink-faint">{r.sampleCount.toLocaleString("en")} samples</span>
+                    <Button size="sm" variant="ghost" onClick={() => void openStored(r)} disabled={!chosen}>Open</Button>
+                  </li>
+                ))}
+              </ul>
+            </section>
+          ) : null}
           {progress !== null ? (
             <div>
               <div role="progressbar" aria-label="Reading the file" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(progress * 100)}
@@ -186,6 +241,20 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit }: {
                   </li>
                 ))}
               </ol>
+              {canEdit ? (
+                <div className="flex flex-col gap-1 rounded-md border border-line p-2">
+                  <Button size="sm" onClick={() => upload.mutate()} disabled={upload.isPending || upload.isSuccess}>
+                    {upload.isSuccess ? "Kept in the project" : upload.isPending ? "Uploading…" : "Keep the original in the project"}
+                  </Button>
+                  {uploadProgress !== null ? (
+                    <div role="progressbar" aria-label="Uploading the recording" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(uploadProgress * 100)}
+                      className="h-1.5 overflow-hidden rounded-full bg-line/60">
+                      <div className="h-full bg-copper-500 transition-[width]" style={{ width: `${Math.round(uploadProgress * 100)}%` }} />
+                    </div>
+                  ) : null}
+                  {upload.error ? <ErrorNote title="The recording was not stored">{upload.error.message}</ErrorNote> : null}
+                </div>
+              ) : null}
               {loaded.report.findings.length === 0 ? <p className="text-xs text-pass">No step is a jump or over a speed limit: the log can be streamed as it is.</p> : null}
               <Button variant="primary" onClick={repair} disabled={loaded.report.verdict === "pass" && repaired !== null}>Repair (rate-limit to the arm&apos;s limits)</Button>
             </section>
@@ -208,7 +277,11 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit }: {
               {canEdit && planPreview ? (
                 <div className="flex flex-col gap-2 rounded-md border border-line p-2">
                   <TextField label="Plan name" value={planName} onChange={(e) => setPlanName(e.target.value)} maxLength={120} />
-                  <SelectField label="Waypoint spacing" value={spacingS} onChange={(e) => setSpacingS(Number(e.target.value))}>
+                  <SelectField label="Waypoint spacing" value={spacingS} onChange={(e) => {
+                    const next = Number(e.target.value);
+                    setSpacingS(next);
+                    if (chosen) setPlanPreview(planFromRecording(chosen.arm, repaired.recording, next));
+                  }}>
                     {[0.25, 0.5, 1, 2].map((s) => <option key={s} value={s}>every {s} s</option>)}
                   </SelectField>
                   <p className="flex flex-wrap items-center gap-1 text-[11px] text-ink-soft">

@@ -28,10 +28,14 @@ const moves = [
   { goal: pose(0, 0, 0.8, 0.5), duration: 2, shape: "trapezoid" },
 ];
 
+/** Signs in through the sign-in page, arriving there the way a new visitor does: redirected from /projects. */
 async function signIn(page: Page, email: string, password: string) {
-  const csrf = (await (await page.request.get("/api/auth/csrf")).json()) as { csrfToken: string };
-  const res = await page.request.post("/api/auth/callback/credentials", { form: { csrfToken: csrf.csrfToken, email, password, json: "true" } });
-  expect(res.status()).toBeLessThan(400);
+  await page.goto("/projects");
+  await page.waitForURL(/\/sign-in\?callbackUrl=%2Fprojects/);
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
+  await page.waitForURL(/\/projects$/);
   const me = await page.request.get("/api/v1/me");
   expect(me.status()).toBe(200);
 }
@@ -85,6 +89,17 @@ describe("workspace", () => {
     await page.screenshot({ path: `${screenshotDir}/workspace-editor.png` });
     await page.getByTestId("stage").screenshot({ path: `${screenshotDir}/workspace-viewer.png` });
     await page.getByTestId("plots").screenshot({ path: `${screenshotDir}/workspace-plots.png` });
+
+    // play moves the shared playhead; pause holds it
+    await page.getByRole("button", { name: "Play" }).click();
+    await page.waitForTimeout(1200);
+    await page.getByRole("button", { name: "Pause" }).click();
+    const shown = Number((await page.getByTestId("playhead-time").textContent())!.split(" / ")[0]);
+    expect(shown).toBeGreaterThan(0.3);
+    expect(shown).toBeLessThan(6.7);
+    await page.getByTestId("stage").screenshot({ path: `${screenshotDir}/workspace-viewer-playing.png` });
+    await page.waitForTimeout(300);
+    expect(Number((await page.getByTestId("playhead-time").textContent())!.split(" / ")[0])).toBe(shown);
   });
 
   it("shortening move 1 raises a speed-over fault; the shortest safe duration clears it", async () => {
@@ -105,6 +120,9 @@ describe("workspace", () => {
     expect(at(d).findings.some((f) => f.kind === "speed-over" && f.severity === "fault" && f.move === 1)).toBe(true);
     expect(at(d + 0.1).findings.some((f) => f.kind === "speed-over" && f.severity === "fault" && f.move === 1)).toBe(false);
     await expect(page.getByTestId("move-row-1").getAttribute("aria-label")).resolves.toBe("Move 1: fault");
+    // a click on the finding moves the playhead to its moment: mid-move 1 (moves 0 and 1 run back to back)
+    await page.getByRole("button", { name: /^Fault: Speed over limit, base, move 1\./ }).click();
+    await expect(page.getByTestId("playhead-time").textContent()).resolves.toMatch(new RegExp(`^${(1.5 + d / 2).toFixed(3)} / `));
     await page.screenshot({ path: `${screenshotDir}/workspace-speed-fault.png` });
 
     await page.getByTestId("move-row-1").click({ position: { x: 20, y: 10 } });
@@ -169,6 +187,11 @@ describe("workspace", () => {
     await findings.waitFor();
     await expect(page.getByRole("progressbar", { name: "Reading the file" }).getAttribute("aria-valuenow")).resolves.toBe("100");
     expect(await findings.getByText("Jump too far").count()).toBe(3);
+    // keep the original in the project: uploaded with a progress bar, then listed
+    await page.getByRole("button", { name: "Keep the original in the project" }).click();
+    await page.getByRole("button", { name: "Kept in the project" }).waitFor({ timeout: 20_000 });
+    await expect(page.getByRole("progressbar", { name: "Uploading the recording" }).getAttribute("aria-valuenow")).resolves.toBe("100");
+    await page.getByRole("region", { name: "Stored recordings" }).getByText(`guided-${stamp}.csv`).waitFor();
     await expect(page.getByRole("region", { name: "Stream check" }).locator("[data-verdict]").first().getAttribute("data-verdict")).resolves.toBe("fault");
     await page.getByRole("button", { name: /^Repair/ }).click();
     const repaired = page.getByRole("region", { name: "Repaired recording" });

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { getProjectForUser } from "@/db/queries/projects";
+import { listRecordings } from "@/db/queries/recordings";
 import { RecordingsWorkbench, type RecordingArm } from "@/components/recordings/recordings-workbench";
 import { armSchema } from "@/kinematics/plan";
 import { requirePageActor } from "../../../session";
@@ -29,6 +30,16 @@ export default async function RecordingsPage({ params }: { params: Promise<{ pro
       projectName={project.name}
       arms={withDescriptions}
       canEdit={project.role !== "viewer" && project.archivedAt === null}
+      stored={(await listRecordings({ projectId, userId: actor.userId })).map((r) => ({
+        id: r.id,
+        name: r.name,
+        armId: r.armId,
+        sizeBytes: r.sizeBytes,
+        sampleCount: r.sampleCount,
+        jointCount: r.jointCount,
+        durationS: r.durationS,
+        createdAt: r.createdAt.toISOString(),
+      }))}
     />
   );
 }
