@@ -190,3 +190,13 @@ describe("stateless check", () => {
     expect(await db.$count(planVersions)).toBe(before);
   });
 });
+
+describe("immutability in the database", () => {
+  it("refuses to edit a saved plan version or arm revision, whoever asks", async () => {
+    const { armRevisions } = await import("@/db/schema");
+    await expect(db.update(planVersions).set({ note: "edited" }).where(eq(planVersions.planId, planId))).rejects.toThrow();
+    await expect(db.update(armRevisions).set({ note: "edited" }).where(eq(armRevisions.armId, demoArm.id))).rejects.toThrow();
+    const rows = await db.select().from(planVersions).where(eq(planVersions.planId, planId));
+    expect(rows.some((r) => r.note === "edited")).toBe(false);
+  });
+});
