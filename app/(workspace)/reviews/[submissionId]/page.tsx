@@ -5,7 +5,7 @@ import type { BenchPlan } from "@/components/editor/plan-state";
 import { ReviewWorkspace } from "@/components/review/review-workspace";
 import { tightenArm, type RuleProblem } from "@/components/courses/rules";
 import { limitsSchema } from "@/components/courses/schemas";
-import { planSchema } from "@/kinematics/plan";
+import { parsePlan } from "@/kinematics/plan";
 import type { Report } from "@/kinematics/report";
 import { requirePageActor } from "../../session";
 
@@ -24,11 +24,11 @@ export default async function ReviewPage({ params }: { params: Promise<{ submiss
   const submission = await getSubmissionForUser({ submissionId, userId: actor.userId });
   if (!submission) notFound();
   const comments = await listComments({ submissionId, userId: actor.userId });
-  const parsed = planSchema.safeParse(submission.document);
-  if (!parsed.success) throw new Error(`submission ${submissionId} does not parse as a plan document`);
+  const parsed = parsePlan(submission.document);
+  if (!parsed.ok) throw new Error(`submission ${submissionId} does not parse as a plan document`);
   const raw = submission.document as { arm?: { chain?: unknown }; keepOut?: unknown };
   const limits = [limitsSchema.nullable().catch(null).parse(submission.courseLimits), limitsSchema.nullable().catch(null).parse(submission.assignment.limits)];
-  const plan = { ...parsed.data, arm: { ...tightenArm(parsed.data.arm, ...limits), chain: raw.arm?.chain }, keepOut: raw.keepOut } as BenchPlan;
+  const plan = { ...parsed.value, arm: { ...tightenArm(parsed.value.arm, ...limits), chain: raw.arm?.chain }, keepOut: raw.keepOut } as BenchPlan;
 
   return (
     <ReviewWorkspace

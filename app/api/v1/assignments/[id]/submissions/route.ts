@@ -2,7 +2,7 @@ import { recordAudit } from "@/db/queries/audit";
 import { createSubmission, getArmRevisionById, getSubmittableVersion, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
 import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/api";
-import { armSchema, planSchema } from "@/lib/api-engine";
+import { armSchema, parsePlan } from "@/lib/api-engine";
 import { requireActor } from "@/lib/auth-request";
 import { authorizeCourse } from "@/lib/course-permissions";
 import { AppError } from "@/lib/errors";
@@ -36,10 +36,11 @@ export const POST = route(async (request, context) => {
   const version = await getSubmittableVersion({ planId: body.planId, number: body.versionNumber, userId: actor.userId });
   if (!version) throw new AppError("not_found:plan-version", "No such plan version in your projects.");
 
-  const plan = planSchema.safeParse(version.document);
+  // Read exactly as the version route and the command line read it (the engine's parsePlan).
+  const plan = parsePlan(version.document);
   const revision = await getArmRevisionById({ id: assignment.requiredArmRevisionId });
-  if (!plan.success || !revision) throw new AppError("unprocessable:plan", "The saved plan version cannot be read by this checker.");
-  const { report, problems } = checkAgainstAssignment(plan.data, armSchema.parse(revision.description), version.armRevisionId, {
+  if (!plan.ok || !revision) throw new AppError("unprocessable:plan", "The saved plan version cannot be read by this checker.");
+  const { report, problems } = checkAgainstAssignment(plan.value, armSchema.parse(revision.description), version.armRevisionId, {
     requiredArmRevisionId: assignment.requiredArmRevisionId,
     courseArmRevisionId: assignment.courseArmRevisionId,
     requiredStart: assignment.requiredStart as number[] | null,
