@@ -4,6 +4,7 @@ import { useCallback, useDeferredValue, useEffect, useMemo, useReducer, useState
 import { FindingsPanel, type PanelFinding } from "@/components/findings/findings-panel";
 import { findingTime, worstFirst } from "@/components/findings/finding-time";
 import { JointPlots, type PlotMarker } from "@/components/plots/joint-plots";
+import { effortSeries } from "@/components/plots/effort";
 import { SweepChart } from "@/components/plots/sweep-chart";
 import { Button } from "@/components/ui/button";
 import { RailHeading } from "@/components/ui/panel";
@@ -70,6 +71,8 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
   useSyncTotal(playhead, timeline.totalS);
   // Plots and the stage may trail fast slider drags by a frame; the findings never do.
   const deferred = useDeferredValue(live);
+  const deferredPlan = useDeferredValue(plan);
+  const effort = useMemo(() => effortSeries(deferredPlan, deferred.samples), [deferredPlan, deferred.samples]);
 
   const [selectedJoints, setSelectedJoints] = useState<number[]>(() => {
     const worst = worstFirst(runLiveCheck(initialPlan).report.findings)[0];
@@ -281,6 +284,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
                 selectedJoints={selectedJoints}
                 onSelectedJointsChange={setSelectedJoints}
                 markers={markers}
+                effort={effort}
               />
             </div>
           </section>

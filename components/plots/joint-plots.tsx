@@ -8,6 +8,7 @@ import type { Samples } from "@/kinematics/sample";
 import { displayFactor, unitLabel, type AngleUnit, type Quantity } from "@/lib/units";
 import { usePlayhead, usePlayheadStore } from "@/components/editor/playhead";
 import { minMaxIndices } from "./downsample";
+import type { EffortSeries } from "./effort";
 import { jointColor } from "./joint-colors";
 
 /** A vertical marker on the plots at the moment of a finding. */
@@ -25,6 +26,8 @@ export interface JointPlotsProps {
   selectedJoints: readonly number[];
   onSelectedJointsChange: (joints: number[]) => void;
   markers: readonly PlotMarker[];
+  /** Joint effort along the samples (arms with a chain); adds an effort chart. */
+  effort?: EffortSeries | null;
   quantities?: readonly Quantity[];
   /** Buckets for the min–max downsampling (points ≈ 2 × buckets × selected joints at most). */
   buckets?: number;
@@ -40,6 +43,7 @@ function limitsOf(joint: Joint, q: Quantity): { lo: number; hi: number } | null 
   if (q === "position") return { lo: joint.min, hi: joint.max };
   if (q === "velocity") return { lo: -joint.maxVelocity, hi: joint.maxVelocity };
   if (q === "acceleration" && joint.maxAcceleration !== undefined) return { lo: -joint.maxAcceleration, hi: joint.maxAcceleration };
+  if (q === "effort" && joint.maxEffort !== undefined) return { lo: -joint.maxEffort, hi: joint.maxEffort };
   return null;
 }
 
@@ -49,7 +53,11 @@ function limitsOf(joint: Joint, q: Quantity): { lo: number; hi: number } | null 
  * and the playhead as a cursor line. Click or drag on a chart to move the playhead.
  */
 export function JointPlots(props: JointPlotsProps) {
-  const { samples, joints, cautionRatio, unit, selectedJoints, onSelectedJointsChange, markers, quantities = ["position", "velocity", "acceleration"], buckets = 400, className } = props;
+  const { samples, joints, cautionRatio, unit, selectedJoints, onSelectedJointsChange, markers, effort, buckets = 400, className } = props;
+  const quantities = useMemo<readonly Quantity[]>(
+    () => props.quantities ?? (effort ? ["position", "velocity", "acceleration", "effort"] : ["position", "velocity", "acceleration"]),
+    [props.quantities, effort],
+  );
   const n = samples.jointCount;
   const totalS = samples.count > 0 ? samples.timeS[samples.count - 1] : 0;
 
@@ -57,19 +65,23 @@ export function JointPlots(props: JointPlotsProps) {
     const cols = selectedJoints.filter((j) => j < n);
     const byQuantity: Record<string, Record<string, number>[]> = {};
     for (const q of quantities) {
-      const arr = q === "position" ? samples.position : q === "velocity" ? samples.velocity : samples.acceleration;
-      const idx = minMaxIndices(samples.count, arr, n, cols, buckets);
+      const isEffort = q === "effort";
+      if (isEffort && !effort) continue;
+      const arr = isEffort ? effort!.values : q === "position" ? samples.position : q === "velocity" ? samples.velocity : samples.acceleration;
+      const stride = isEffort ? effort!.stride : n;
+      const qCols = isEffort ? cols.filter((j) => j < stride) : cols;
+      const idx = minMaxIndices(samples.count, arr, stride, qCols, buckets);
       const rows: Record<string, number>[] = new Array(idx.length);
       for (let r = 0; r < idx.length; r++) {
         const k = idx[r];
         const row: Record<string, number> = { t: samples.timeS[k] };
-        for (const j of cols) row[`j${j}`] = arr[k * n + j] * displayFactor(joints[j].type, unit);
+        for (const j of qCols) row[`j${j}`] = arr[k * stride + j] * (isEffort ? 1 : displayFactor(joints[j].type, unit));
         rows[r] = row;
       }
       byQuantity[q] = rows;
     }
     return byQuantity;
-  }, [samples, n, selectedJoints, quantities, buckets, joints, unit]);
+  }, [samples, n, selectedJoints, quantities, buckets, joints, unit, effort]);
 
   return (
     <div className={cn("flex flex-col gap-1", className)}>
@@ -100,14 +112,14 @@ export function JointPlots(props: JointPlotsProps) {
       ) : selectedJoints.length === 0 ? (
         <p className="px-2 py-6 text-center text-xs text-ink-soft">Pick a joint above to plot it.</p>
       ) : (
-        quantities.map((q) => (
+        quantities.filter((q) => data[q]).map((q) => (
           <QuantityChart
             key={q}
             quantity={q}
             rows={data[q]}
             totalS={totalS}
             joints={joints}
-            selectedJoints={selectedJoints.filter((j) => j < n)}
+            selectedJoints={selectedJoints.filter((j) => j < (q === "effort" && effort ? effort.stride : n))}
             cautionRatio={cautionRatio}
             unit={unit}
             markers={markers}
@@ -133,7 +145,7 @@ function QuantityChart({ quantity, rows, totalS, joints, selectedJoints, caution
   return (
     <figure className="relative" aria-label={`${label} against time`}>
       <figcaption className="absolute top-0 left-14 z-10 text-[10px] font-medium text-ink-soft">{label}</figcaption>
-      <div className="h-[92px] w-full">
+      <div className="h-[80px] w-full">
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={rows} margin={{ top: 12, right: RIGHT_MARGIN, bottom: 0, left: 0 }}>
             <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" vertical={false} />
@@ -144,7 +156,7 @@ function QuantityChart({ quantity, rows, totalS, joints, selectedJoints, caution
             {selectedJoints.map((j) => {
               const lim = limitsOf(joints[j], quantity);
               if (!lim) return null;
-              const f = displayFactor(joints[j].type, unit);
+              const f = quantity === "effort" ? 1 : displayFactor(joints[j].type, unit);
               const lines = [
                 { y: lim.hi * f, dash: undefined, color: verdictLook.fault.stroke, key: "hi" },
                 { y: lim.lo * f, dash: undefined, color: verdictLook.fault.stroke, key: "lo" },

@@ -9,6 +9,7 @@ export interface DialogProps {
   children: ReactNode;
   /** Buttons in the dialog's footer. */
   actions?: ReactNode;
+  /** Width and other panel classes; the default width is `max-w-lg`. */
   className?: string;
 }
 
@@ -41,7 +42,7 @@ export function Dialog({ open, title, onClose, children, actions, className }: D
         aria-modal="true"
         aria-labelledby={titleId}
         tabIndex={-1}
-        className={cn("max-h-[90vh] w-full max-w-lg overflow-auto rounded-card border border-line bg-panel shadow-xl focus:outline-none", className)}
+        className={cn("max-h-[90vh] w-full overflow-auto rounded-card border border-line bg-panel shadow-xl focus:outline-none", className ?? "max-w-lg")}
       >
         <div className="flex items-center justify-between border-b border-line px-5 py-3">
           <h2 id={titleId} className="text-base font-semibold">{title}</h2>

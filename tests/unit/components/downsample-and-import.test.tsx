@@ -95,3 +95,32 @@ describe("plan editing actions", () => {
     expect(planReducer(plan, { type: "set-pose", target: "start", pose: [1, 2] })).toBe(plan);
   });
 });
+
+describe("effort series for the plots", () => {
+  it("at rest equals the engine's gravity-only effort of that pose, and follows the samples", async () => {
+    const { effortSeries } = await import("@/components/plots/effort");
+    const { samplePlan } = await import("@/kinematics/sample");
+    const { compileChain } = await import("@/kinematics/chain");
+    const { createDynamicsWorkspace, gravityEffort } = await import("@/kinematics/dynamics");
+    const plan = demoPlan([{ goal: pose(0, 0.8, 0.4), duration: 1 }]);
+    const samples = samplePlan(plan, { rateHz: 100 });
+    const series = effortSeries(plan, samples)!;
+    expect(series.stride).toBe(6); // the gripper is outside the chain
+    expect(series.values.length).toBe(samples.count * 6);
+    const chain = compileChain(plan.arm.chain!, plan.arm.joints.map((j) => j.type));
+    const ws = createDynamicsWorkspace(chain);
+    const last = samples.count - 1;
+    const expected = gravityEffort(chain, ws, samples.position, new Float64Array(6), last * samples.jointCount, 0);
+    for (let j = 0; j < 6; j++) expect(series.values[last * 6 + j]).toBeCloseTo(expected[j], 6);
+    // the shoulder holds the raised arm against gravity: clearly non-zero
+    expect(Math.abs(series.values[last * 6 + 1])).toBeGreaterThan(0.5);
+  });
+
+  it("is null for an arm without a chain", async () => {
+    const { effortSeries } = await import("@/components/plots/effort");
+    const { samplePlan } = await import("@/kinematics/sample");
+    const plan = demoPlan([{ goal: pose(0.5), duration: 1 }]);
+    const bare = { ...plan, arm: { ...plan.arm, chain: undefined } };
+    expect(effortSeries(bare, samplePlan(bare, { rateHz: 50 }))).toBeNull();
+  });
+});
