@@ -163,6 +163,7 @@ export const checkEffort: MoveChecker = (context, out) => {
   effortPeaks(s, count, peak, at);
   const figures = context.figures;
   if (figures) figures.peakEffort = arm.joints.map((_, j) => (j < n ? peak[j] : null));
+  const startS = context.startS;
   const gPeak = new Float64Array(n), gAt = new Float64Array(n);
   let gravityDone = false;
   for (let j = 0; j < n; j++) {
@@ -203,6 +204,7 @@ export const checkEffort: MoveChecker = (context, out) => {
       value: peak[j],
       limit: joint.maxEffort,
       message: `${label}: peak effort ${formatNumber(peak[j])} ${unit} at ${formatNumber(at[j])} s is ${level}${outcome}${fix}`,
+      timeS: startS + at[j],
     });
   }
 };
@@ -264,12 +266,16 @@ export const checkStartEffort: PlanChecker = ({ plan, arm }, out) => {
         `The start pose: ${jointLabel(joint)} needs ${formatNumber(v)} ${unit} against gravity to hold it, ` +
         `${severity === "fault" ? "above its limit" : `above ${formatPercent(arm.cautionRatio)} of its limit`} of ${formatNumber(joint.maxEffort)} ${unit}; ` +
         `no duration fixes it. Start from a pose that keeps the load closer to the joint.`,
+      timeS: 0,
     });
   }
 };
 
-/** A `clearance` finding: also names the link, the zone and the time of the deepest intrusion. */
-export type ClearanceFinding = Finding & { link: string; zone: string; time: number };
+/**
+ * A `clearance` finding: names the link and the zone, and the time of the deepest intrusion both
+ * from the move's start (`time`, s, kept for older callers) and from the plan's start (`timeS`).
+ */
+export type ClearanceFinding = Finding & { link: string; zone: string; time: number; timeS: number };
 
 /**
  * Move checker `clearance`: every link's collision shapes against the work surface (plus the
@@ -304,6 +310,7 @@ export const checkClearance: MoveChecker = (context, out) => {
       message:
         `${moveName(context)}: link "${h.linkName}" goes ${into} ${span}; on the hardware the arm will hit it. ` +
         `The path does not depend on the duration, so a longer move does not help: change the goal or add a waypoint that keeps the link clear.`,
+      timeS: context.startS + h.timeS,
     };
     out.push(finding);
   }
@@ -352,6 +359,7 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     message: context.instant
       ? `${moveName(context)}: the tool point would jump ${formatNumber(stepM * 1000)} mm in one control period, ${formatNumber(peak)} m/s, ${level}. ${fix}`
       : `${moveName(context)}: the tool point reaches ${formatNumber(peak)} m/s at ${formatNumber(at)} s, ${level}. ${fix}`,
+    timeS: context.startS + at,
   });
 };
 

@@ -15,7 +15,7 @@ import type { Arm, Joint, Move, Plan } from "./plan";
 import { armMoveCheckers, armPlanCheckers } from "./arm-checks"; // arm model (issue 4)
 import { instantPeaks, safeDuration, timedPeaks } from "./peaks";
 import { severityOf, verdictOf, type Finding, type MoveReport, type Report, type Severity } from "./report";
-import type { ShortestDuration } from "./shapes";
+import { accelerationPeakTau, velocityPeakTau, type ShortestDuration } from "./shapes";
 import { timelineOf, type Timeline } from "./timeline";
 import { formatDurationUp, formatPercent, formatQuantity, jointLabel } from "./wording";
 
@@ -47,8 +47,10 @@ export interface MoveContext extends PlanContext {
   minSafe: ShortestDuration;
   /** Shortest duration (s) with the move's shape that stays below the caution ratio of every limit. */
   minCalm: ShortestDuration;
-  /** Arm model (issue 4): extra per-move figures (`peakEffort`, `peakToolSpeed`) copied into the move's report. */
-  figures?: Record<string, number | (number | null)[] | null>;
+  /** Start time of the move, seconds from the plan's start. */
+  startS: number;
+  /** Arm model (issue 4): extra per-move figures copied into the move's report. */
+  figures?: Pick<MoveReport, "peakEffort" | "peakToolSpeed">;
 }
 
 /** A check run once per plan; pushes its findings to `out`. */
@@ -69,7 +71,7 @@ function moveLabel(index: number, move: Move): string {
 }
 
 /** A finding for a pose value outside the joint's travel, or nothing. */
-function rangeFinding(value: number, joint: Joint, j: number, move: number | null, where: string): Finding | null {
+function rangeFinding(value: number, joint: Joint, j: number, move: number | null, where: string, timeS: number): Finding | null {
   if (value >= joint.min && value <= joint.max) return null;
   const limit = value > joint.max ? joint.max : joint.min;
   const side = value > joint.max ? "max" : "min";
@@ -84,21 +86,23 @@ function rangeFinding(value: number, joint: Joint, j: number, move: number | nul
       `${where} puts ${jointLabel(joint)} at ${formatQuantity(value, joint, "position")}, beyond its travel ${side} of ` +
       `${formatQuantity(limit, joint, "position")}; the controller will refuse the target. ` +
       `Choose a value from ${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}.`,
+
+    timeS,
   };
 }
 
 /** Plan checker: every start-pose value within its joint's travel (`range`, `move` = null). */
 export const checkStartRange: PlanChecker = ({ arm, plan }, out) => {
   arm.joints.forEach((joint, j) => {
-    const finding = rangeFinding(plan.start[j], joint, j, null, "The start pose");
+    const finding = rangeFinding(plan.start[j], joint, j, null, "The start pose", 0);
     if (finding) out.push(finding);
   });
 };
 
 /** Move checker: every goal value within its joint's travel (`range`). */
-export const checkGoalRange: MoveChecker = ({ arm, index, move, goal }, out) => {
+export const checkGoalRange: MoveChecker = ({ arm, index, move, goal, startS }, out) => {
   arm.joints.forEach((joint, j) => {
-    const finding = rangeFinding(goal[j], joint, j, index, `The goal of ${moveLabel(index, move).toLowerCase()}`);
+    const finding = rangeFinding(goal[j], joint, j, index, `The goal of ${moveLabel(index, move).toLowerCase()}`, startS + move.duration);
     if (finding) out.push(finding);
   });
 };
@@ -118,7 +122,9 @@ function durationFix(severity: Severity, context: MoveContext): string {
  * move (its step must be covered in one control period: the jump-too-far fault).
  */
 export const checkSpeed: MoveChecker = (context, out) => {
-  const { arm, index, move, instant, peakVelocity, delta, minSafe, minCalm } = context;
+  const { arm, index, move, instant, peakVelocity, delta, minSafe, minCalm, startS } = context;
+  // the peak's time: the instant move's start, else the shape's first velocity peak
+  const timeS = instant ? startS : startS + velocityPeakTau(context.timeline.shape[index], context.timeline.blend[index]) * move.duration;
   arm.joints.forEach((joint, j) => {
     const value = peakVelocity[j];
     const severity = severityOf(value, joint.maxVelocity, arm.cautionRatio);
@@ -145,7 +151,7 @@ export const checkSpeed: MoveChecker = (context, out) => {
       const outcome = severity === "fault" ? "; the controller will refuse the move. " : ". ";
       message = `${label}: peak speed ${formatQuantity(value, joint, "velocity")} is ${level}${outcome}${durationFix(severity, context)}`;
     }
-    out.push({ kind: instant ? "jump" : "speed-over", severity, move: index, joint: j, value, limit: joint.maxVelocity, message });
+    out.push({ kind: instant ? "jump" : "speed-over", severity, move: index, joint: j, value, limit: joint.maxVelocity, message, timeS });
   });
 };
 
@@ -156,8 +162,9 @@ function formatNumberMs(ms: number): string {
 
 /** Move checker: peak acceleration against maxAcceleration, where given (`accel-over`; timed moves only). */
 export const checkAcceleration: MoveChecker = (context, out) => {
-  const { arm, index, move, peakAcceleration } = context;
+  const { arm, index, move, peakAcceleration, startS } = context;
   if (!peakAcceleration) return;
+  const timeS = startS + accelerationPeakTau(context.timeline.shape[index]) * move.duration;
   arm.joints.forEach((joint, j) => {
     if (joint.maxAcceleration === undefined) return;
     const value = peakAcceleration[j];
@@ -169,7 +176,7 @@ export const checkAcceleration: MoveChecker = (context, out) => {
     const message =
       `${moveLabel(index, move)}, ${jointLabel(joint)}: peak acceleration ${formatQuantity(value, joint, "acceleration")} ` +
       `is ${level}${outcome}${durationFix(severity, context)}`;
-    out.push({ kind: "accel-over", severity, move: index, joint: j, value, limit: joint.maxAcceleration, message });
+    out.push({ kind: "accel-over", severity, move: index, joint: j, value, limit: joint.maxAcceleration, message, timeS });
   });
 };
 
@@ -216,6 +223,7 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       from: timeline.from.subarray(base, base + n),
       goal: timeline.goal.subarray(base, base + n),
       delta,
+      startS: timeline.startS[index],
       peakVelocity,
       peakAcceleration: instant ? null : peakAcceleration,
       minSafe: safeDuration(shape, delta, arm.joints, 1),

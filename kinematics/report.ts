@@ -44,6 +44,17 @@ export interface Finding {
   limit: number;
   /** Plain-language description naming the joint, the value, the limit and the fix. */
   message: string;
+  /**
+   * When the worst instant happens, in seconds from the plan's start (`check()` always sets it):
+   * the peak for `speed-over` and `accel-over` (the first one, when a shape peaks twice), the
+   * instant move's start for `jump`, the move's end for `range` (0 for the start pose), the worst
+   * sample for `effort-over`, `clearance` and `tool-speed` (0 for the start pose's effort).
+   */
+  timeS?: number;
+  /** `clearance` only: the name of the link that intrudes. */
+  link?: string;
+  /** `clearance` only: what it intrudes into, `work surface` or the keep-out box's name. */
+  zone?: string;
 }
 
 /** Figures for one move of a plan. */
@@ -60,6 +71,14 @@ export interface MoveReport {
   minSafeDuration: number;
   /** The findings of this move (the same objects as in the report's `findings`). */
   findings: Finding[];
+  /**
+   * Arm model only (the arm has a `chain`): largest |τⱼ| over the move per joint (N·m or N),
+   * rigid-body dynamics with payload plus friction; `null` for joints outside the chain (a gripper).
+   * For an instant move, the effort to hold the goal pose.
+   */
+  peakEffort?: (number | null)[];
+  /** Arm model only: largest tool-point speed over the move (m/s); for an instant move its step × control rate. */
+  peakToolSpeed?: number;
 }
 
 /** What `check(plan)` returns. */

@@ -110,6 +110,22 @@ export function accelerationFactor(shape: number, blend: number): number {
   return 1 / (blend * (1 - blend)); // derived: reach 1/(1−b) in time b
 }
 
+/**
+ * The first τ at which a shape reaches its peak |ds/dτ|: ½ for the polynomial shapes (Lynch & Park,
+ * §9.2.1), the start of the cruise b for the trapezoid (derived: speed is constant on [b, 1 − b]).
+ */
+export function velocityPeakTau(shape: number, blend: number): number {
+  return shape === TRAPEZOID ? blend : 0.5;
+}
+
+/**
+ * The first τ at which a shape reaches its peak |d²s/dτ²|: 0 for the cubic and the trapezoid (their
+ * acceleration is largest from the start), (3 − √3)/6 for the quintic (derived: root of s‴ = 0).
+ */
+export function accelerationPeakTau(shape: number): number {
+  return shape === QUINTIC ? (3 - Math.sqrt(3)) / 6 : 0;
+}
+
 /** The largest |Dⱼ|/maxVelocityⱼ over the joints (s) and the largest |Dⱼ|/maxAccelerationⱼ (s²). */
 function limitShares(delta: ArrayLike<number>, joints: readonly Joint[]): { speedS: number; accelS2: number } {
   let speedS = 0;

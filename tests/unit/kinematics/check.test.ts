@@ -191,13 +191,13 @@ describe("check: shortest safe duration", () => {
 });
 
 describe("check: report shape and extension", () => {
-  it("has exactly the documented keys", () => {
+  it("has exactly the documented keys (issue 3's, plus each finding's timeS)", () => {
     const report = check(planOf([{}], [0], [{ goal: [3.5], duration: 1 }]));
     expect(Object.keys(report).sort()).toEqual(["findings", "moves", "verdict"]);
     expect(Object.keys(report.moves[0]).sort()).toEqual(
       ["duration", "findings", "index", "minSafeDuration", "peakAcceleration", "peakVelocity", "shape"].sort(),
     );
-    expect(Object.keys(report.findings[0]).sort()).toEqual(["joint", "kind", "limit", "message", "move", "severity", "value"].sort());
+    expect(Object.keys(report.findings[0]).sort()).toEqual(["joint", "kind", "limit", "message", "move", "severity", "timeS", "value"].sort());
     expect(JSON.parse(JSON.stringify(report))).toEqual(report);
   });
 

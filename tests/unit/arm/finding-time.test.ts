@@ -1,0 +1,67 @@
+import { describe, expect, it } from "vitest";
+import { compileChain } from "@/kinematics/chain";
+import { check } from "@/kinematics/check";
+import { createDynamicsWorkspace, inverseDynamics } from "@/kinematics/dynamics";
+import { parsePlan, type Plan } from "@/kinematics/plan";
+import { sampleMoveAt } from "@/kinematics/sample";
+import { timelineOf } from "@/kinematics/timeline";
+import { createToolSpeedScanner, toolSpeedAt } from "@/kinematics/toolspeed";
+import { readJson } from "./helpers";
+import { expectClose } from "./tolerance";
+
+function plan(doc: unknown): Plan {
+  const r = parsePlan(doc);
+  if (!r.ok) throw new Error(r.problems.map((p) => `${p.path}: ${p.message}`).join("\n"));
+  return r.value;
+}
+const fixture = (name: string) => readJson(`tests/fixtures/arm-plans/${name}.json`) as Record<string, unknown>;
+
+/** The sampled state of a plan at plan time tS, from the sampler (independent of the checkers' own sampling). */
+function stateAt(p: Plan, move: number, tS: number) {
+  const tl = timelineOf(p);
+  const n = p.arm.joints.length;
+  const q = new Float64Array(n), qd = new Float64Array(n), qdd = new Float64Array(n);
+  sampleMoveAt(tl, move, tS - tl.startS[move], q, qd, qdd, 0);
+  return { q, qd, qdd, startS: tl.startS[move], durationS: tl.durationS[move] };
+}
+
+describe("arm findings carry the time of their worst sample (seconds from the plan's start)", () => {
+  it("effort-over: Newton–Euler at timeS gives the finding's value, and timeS lies in its move", () => {
+    const p = plan(fixture("reach-out-heavy"));
+    const chain = compileChain(p.arm.chain!, p.arm.joints.map((j) => j.type), p.payload);
+    const ws = createDynamicsWorkspace(chain, p.arm.joints.slice(0, chain.jointCount).map((j) => j.friction));
+    const efforts = check(p).findings.filter((f) => f.kind === "effort-over" && f.move !== null);
+    expect(efforts.map((f) => f.move)).toEqual([0, 1]);
+    for (const f of efforts) {
+      const s = stateAt(p, f.move!, f.timeS!);
+      expect(f.timeS! >= s.startS && f.timeS! <= s.startS + s.durationS, `timeS ${f.timeS}`).toBe(true);
+      const tau = inverseDynamics(chain, ws, s.q, s.qd, s.qdd, new Float64Array(chain.jointCount));
+      expectClose(Math.abs(tau[f.joint!]), f.value, 1e-9, 1e-9, `effort at ${f.timeS} s`);
+    }
+  });
+
+  it("tool-speed: the tool speed at timeS is the finding's value", () => {
+    const p = plan(fixture("bench-e2e"));
+    const chain = compileChain(p.arm.chain!, p.arm.joints.map((j) => j.type), p.payload);
+    const scanner = createToolSpeedScanner(chain);
+    const fs = check(p).findings.filter((f) => f.kind === "tool-speed");
+    expect(fs.length).toBeGreaterThan(0);
+    for (const f of fs) {
+      const s = stateAt(p, f.move!, f.timeS!);
+      expectClose(toolSpeedAt(scanner, s.q, s.qd), f.value, 1e-9, 1e-9, `tool speed at ${f.timeS} s`);
+    }
+  });
+
+  it("clearance: link and zone are on the finding, timeS is the move's start plus the deepest time within the move", () => {
+    const doc = fixture("clip-surface");
+    const lead = { goal: doc.start, duration: 1.5 }; // a move that stays put shifts the clip by 1.5 s
+    const shifted = check(plan({ ...doc, moves: [lead, ...(doc.moves as unknown[])] })).findings.filter((f) => f.kind === "clearance");
+    const alone = check(plan(doc)).findings.filter((f) => f.kind === "clearance");
+    expect(alone.length).toBeGreaterThan(0);
+    expect(shifted.map((f) => [f.link, f.zone])).toEqual(alone.map((f) => [f.link, f.zone]));
+    expect(alone[0].link).toBe("handle");
+    expect(alone[0].zone).toBe("work surface");
+    alone.forEach((f, i) => expectClose(shifted[i].timeS!, f.timeS! + 1.5, 1e-9, 0, "shifted timeS"));
+    expect(alone[0].timeS!).toBeGreaterThan(0);
+  });
+});
