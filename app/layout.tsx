@@ -42,6 +42,9 @@ export default async function RootLayout({ children }: { children: React.ReactNo
                 <span className="text-sm text-ink-soft" title={user.email}>
                   {user.name} <span className="text-ink-faint">· {user.actor.siteRole}</span>
                 </span>
+                <Link href="/settings/tokens" className="text-sm text-ink-soft hover:text-ink">
+                  API tokens
+                </Link>
                 <SignOutButton />
               </div>
             ) : (

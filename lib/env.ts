@@ -1,8 +1,8 @@
 import { z } from "zod";
 
 /**
- * Server environment, validated once on first use. A missing or malformed
- * variable fails fast with one line per problem, naming the variable.
+ * Server environment, validated once when the server starts (instrumentation.ts) and cached.
+ * A missing or malformed variable fails fast with one line per problem, naming the variable.
  */
 const envSchema = z.object({
   DATABASE_URL: z.string().url("must be a postgres:// URL"),
@@ -25,6 +25,11 @@ const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
   /** Path-style URLs (`endpoint/bucket/key`), which local fakes and most S3-compatible services need. */
   S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+}).superRefine((e, ctx) => {
+  // Without a secret next-auth cannot sign sessions; in production that is a start-up error, not a silent fail-closed.
+  if (e.NODE_ENV === "production" && !e.NEXTAUTH_SECRET) {
+    ctx.addIssue({ code: "custom", path: ["NEXTAUTH_SECRET"], message: "is required in production (at least 32 characters)" });
+  }
 });
 
 export type Env = z.infer<typeof envSchema>;
