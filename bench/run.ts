@@ -13,7 +13,7 @@ import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { check } from "../kinematics/check";
 import { formatRecordingCsv, parseRecordingCsv } from "../kinematics/csv";
-import { parseArm, type Arm } from "../kinematics/plan";
+import { parseArm, parsePlan, type Arm, type Plan } from "../kinematics/plan";
 import { samplePlan } from "../kinematics/sample";
 import { planFromPoses } from "../kinematics/sequence";
 import { repairStream, streamCheck, type Recording } from "../kinematics/stream";
@@ -127,6 +127,34 @@ function main(): void {
     sampleCount = samplePlan(plan).count;
   });
 
+  // 4b. the live check of the web editor: a 5-move, 10-second plan on the 7-joint demo arm with
+  // its chain (effort, clearance, tool speed), a fresh plan object per run as after an edit, at
+  // the control rate and at the sampleRateHz option's 250 Hz; plus one effort fault whose fix
+  // needs a much longer duration (the duration search).
+  const demoArm = JSON.parse(readFileSync(join(root, "kinematics", "arms", "bench-arm-h.json"), "utf8")) as unknown;
+  const liveGoals = [
+    [0.4, 0.6, 0.8, 0.3, 0.2, 0.1, 0.01],
+    [-0.3, 0.9, 0.5, -0.2, 0.5, -0.3, 0.02],
+    [0.2, 1.3, 0.2, 0.4, -0.4, 0.6, 0],
+    [0.6, 0.4, 1.0, 0.1, 0.3, 0, 0.01],
+    [0, 0.2, 0.3, 0, 0, 0, 0],
+  ];
+  const livePlan = (moves: { goal: number[]; duration: number }[]): Plan => {
+    const r = parsePlan({ format: "jointproof.plan", version: 1, arm: demoArm, start: [0, 0, 0, 0, 0, 0, 0], surfaceMargin: 0.01, maxToolSpeed: 0.25, moves });
+    if (!r.ok) throw new Error(r.problems.map((p) => `${p.path}: ${p.message}`).join("; "));
+    return r.value;
+  };
+  const liveMoves = liveGoals.map((goal) => ({ goal, duration: 2 }));
+  const liveTime = time(15, () => {
+    check(livePlan(liveMoves));
+  });
+  const liveCoarseTime = time(15, () => {
+    check(livePlan(liveMoves), { sampleRateHz: 250 });
+  });
+  const effortFixTime = time(7, () => {
+    check(livePlan([{ goal: [0, 1.45, 0.1, 0, 0, 0, 0.01], duration: 0.3 }]));
+  });
+
   // 5. the whole command: start-up, reading, parsing, checking (bundle built beforehand)
   const bin = join(root, "bin", "jointproof");
   spawnSync(process.execPath, [bin, "--help"], { encoding: "utf8" });
@@ -169,6 +197,15 @@ function main(): void {
       sampleMedianMs: round(sampleTime.medianMs, 2),
       samplesPerSecond: Math.round(sampleCount / (sampleTime.medianMs / 1000)),
     },
+    liveCheck: {
+      moves: 5,
+      planSeconds: 10,
+      controlRateMedianMs: round(liveTime.medianMs, 1),
+      controlRateBestMs: round(liveTime.bestMs, 1),
+      at250HzMedianMs: round(liveCoarseTime.medianMs, 1),
+      effortFixMedianMs: round(effortFixTime.medianMs, 1),
+      targetMs: 50,
+    },
     scanCommand: { bestMs: round(scanTime.bestMs), medianMs: round(scanTime.medianMs), targetMs: 700 },
     numpyReference: numpyTime ? { bestMs: round(numpyTime.bestMs), medianMs: round(numpyTime.medianMs) } : null,
   };
@@ -176,6 +213,10 @@ function main(): void {
   console.log(`CSV parse      ${results.recording.csvMegabytes} MB: ${results.csvParse.medianMs} ms median (${results.csvParse.megabytesPerSecond} MB/s)`);
   console.log(`repair         ${samples} samples: ${results.repair.medianMs} ms median`);
   console.log(`50-move check  ${results.sequence50.checkMedianMs} ms median; sampling ${sampleCount} samples at 1 kHz: ${results.sequence50.sampleMedianMs} ms (${results.sequence50.samplesPerSecond.toLocaleString("en")} samples/s)`);
+  console.log(
+    `live check     5 moves, 10 s, demo arm H: ${results.liveCheck.controlRateMedianMs} ms median (${results.liveCheck.controlRateBestMs} ms best) at the control rate, ` +
+      `${results.liveCheck.at250HzMedianMs} ms at 250 Hz; effort fix search ${results.liveCheck.effortFixMedianMs} ms (target < 50 ms)`,
+  );
   console.log(`jointproof scan (whole command, ${results.recording.csvMegabytes} MB CSV): ${results.scanCommand.medianMs} ms median, ${results.scanCommand.bestMs} ms best (target < 700 ms)`);
   if (results.numpyReference) console.log(`numpy reference script: ${results.numpyReference.medianMs} ms median`);
   writeFileSync(join(here, "results.json"), JSON.stringify(results, null, 2) + "\n");

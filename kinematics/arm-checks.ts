@@ -15,7 +15,7 @@ import { chainLimits, compileChain, forwardKinematics, type CompiledChain } from
 import { clearanceZones, compileCollision, createClearanceScanner, scanClearance, type ClearanceScanner } from "./clearance";
 import { createDynamicsWorkspace, gravityEffort, inverseDynamics, type DynamicsWorkspace } from "./dynamics";
 import type { Plan } from "./plan";
-import { severityOf, type Finding } from "./report";
+import { limitTolerance, severityOf, type Finding } from "./report";
 import { moveBlend, scalingAt } from "./shapes";
 import { createToolSpeedScanner, scanToolSpeed, type ToolSpeedScanner } from "./toolspeed";
 import { formatDurationUp, formatNumber, formatPercent, jointLabel } from "./wording";
@@ -35,6 +35,10 @@ interface ArmState {
   qdd: Float64Array;
   tau: Float64Array;
   scale: Float64Array;
+  /** One-sample scratch for the effort duration search (chain joints). */
+  searchQ: Float64Array;
+  searchQd: Float64Array;
+  searchQdd: Float64Array;
   /** What the state was built from; a plan object edited in place gets a fresh state. */
   source: readonly unknown[];
 }
@@ -68,6 +72,9 @@ function stateOf(plan: Plan): ArmState | null {
     qdd: new Float64Array(0),
     tau: new Float64Array(n),
     scale: new Float64Array(3),
+    searchQ: new Float64Array(n),
+    searchQd: new Float64Array(n),
+    searchQdd: new Float64Array(n),
     source,
   };
   states.set(plan, state);
@@ -103,6 +110,12 @@ function sampleMove(s: ArmState, context: MoveContext, durationS: number, rateHz
     }
   }
   return count;
+}
+
+/** The rate (Hz) the arm checks sample a move at: the check's `sampleRateHz` option, else the control rate. */
+function sampleRateOf(s: ArmState, context: MoveContext): number {
+  const r = context.sampleRateHz;
+  return r !== undefined && r > 0 && Number.isFinite(r) ? r : s.rateHz;
 }
 
 /** Writes the goal pose, at rest, as a single sample (instant moves). */
@@ -159,7 +172,7 @@ export const checkEffort: MoveChecker = (context, out) => {
   const { arm } = context;
   const n = s.n;
   const peak = new Float64Array(n), at = new Float64Array(n);
-  const count = context.instant ? sampleGoal(s, context) : sampleMove(s, context, context.move.duration);
+  const count = context.instant ? sampleGoal(s, context) : sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
   effortPeaks(s, count, peak, at);
   const figures = context.figures;
   if (figures) figures.peakEffort = arm.joints.map((_, j) => (j < n ? peak[j] : null));
@@ -209,35 +222,98 @@ export const checkEffort: MoveChecker = (context, out) => {
   }
 };
 
+/** Points of the τ grid the effort duration search solves on (the answer is confirmed at the control rate). */
+const effortSearchPoints = 400;
+
 /**
- * Shortest duration (s) at which joint j's peak effort stays within ratio × maxEffort, by bisection
- * (searched with at most 4000 samples per try, then confirmed at the control rate); null past 64 T.
+ * Shortest duration (s) at which joint j's peak effort stays within ratio × maxEffort; null past 64 T.
+ *
+ * Along a fixed path the effort at one point τ of the move splits by how it scales with the
+ * duration T (derived from the Newton–Euler equations with q̇ = D·s′/T, q̈ = D·s″/T²):
+ * inertial and Coriolis terms ∝ 1/T², viscous friction ∝ 1/T, gravity and Coulomb friction
+ * constant: τ(x) = a·x² + b·x + c with x = 1/T. One Newton–Euler pass without gravity or
+ * friction at "T = 1" gives a, the joint's coefficients give b and c, and the smallest positive
+ * root of a·x² + b·x + c = ±limit over the grid gives the candidate. The smoothed Coulomb sign
+ * and the trapezoid's blend depend on T, so the candidate is refined until it settles, then
+ * confirmed on the samples the check itself uses (stepping up by 0.5%); should that not settle
+ * (a trapezoid whose blend keeps changing), a bisection on those samples decides.
  */
 function shortestEffortDuration(s: ArmState, context: MoveContext, j: number, ratio: number): number | null {
-  const limit = context.arm.joints[j].maxEffort! * ratio;
-  const peak = new Float64Array(s.n), at = new Float64Array(s.n);
-  const passesAt = (T: number, rateHz: number) => {
-    effortPeaks(s, sampleMove(s, context, T, rateHz), peak, at);
-    return peak[j] <= limit;
+  const joint = context.arm.joints[j];
+  const limit = joint.maxEffort! * ratio;
+  const T0 = context.move.duration;
+  const { n, chain, dynamics } = s;
+  const fv = dynamics.viscous[j], fc = dynamics.coulomb[j], eps = dynamics.signEpsilon;
+  const shape = context.timeline.shape[context.index];
+  const { from, delta } = context;
+  const q = s.searchQ, qd = s.searchQd, qdd = s.searchQdd, tau = s.tau;
+  let T = T0;
+  for (let round = 0; round < 8; round++) {
+    const blend = moveBlend(shape, delta, T, context.arm.joints);
+    let xBest = 1 / T0;
+    for (let k = 0; k <= effortSearchPoints; k++) {
+      scalingAt(shape, blend, k / effortSearchPoints, s.scale);
+      for (let i = 0; i < n; i++) {
+        q[i] = from[i] + s.scale[0] * delta[i];
+        qd[i] = delta[i] * s.scale[1]; // velocity at T = 1
+        qdd[i] = delta[i] * s.scale[2];
+      }
+      inverseDynamics(chain, dynamics, q, qd, qdd, tau, 0, 0, false, false);
+      const a = tau[j];
+      gravityEffort(chain, dynamics, q, tau);
+      const b = fv * qd[j];
+      const c = tau[j] + fc * Math.tanh(qd[j] / (T * eps)); // Coulomb sign as at the current candidate
+      if (Math.abs(c) > limit) return null; // gravity and Coulomb friction alone exceed it: no duration helps
+      const x = Math.min(firstRoot(a, b, c - limit), firstRoot(a, b, c + limit));
+      if (x < xBest) xBest = x;
+    }
+    const next = 1 / xBest;
+    if (Math.abs(next - T) <= 1e-9 * T) break;
+    T = next;
+  }
+  const peak = new Float64Array(n), at = new Float64Array(n);
+  const passes = (duration: number, rateHz: number) => {
+    effortPeaks(s, sampleMove(s, context, duration, rateHz), peak, at);
+    return peak[j] <= limit * (1 + limitTolerance);
   };
-  const passes = (T: number) => passesAt(T, Math.min(s.rateHz, 4000 / T));
-  const confirm = (T: number) => {
-    // the coarse search may sit a hair short: step up by 0.5% until the control-rate samples pass
-    for (let k = 0; k < 20 && !passesAt(T, s.rateHz); k++) T *= 1.005;
-    return T;
-  };
-  let lo = context.move.duration, hi = lo * 2;
-  while (!passes(hi)) {
+  const rate = sampleRateOf(s, context);
+  if (T <= 64 * T0) {
+    // confirm on the check's own samples: step up by 0.5% until they pass
+    for (let k = 0; k < 20; k++, T *= 1.005) if (passes(T, rate)) return T;
+  }
+  // fallback: bisection on coarser samples (at most 4000 per try), then the same confirmation
+  const coarse = (duration: number) => passes(duration, Math.min(rate, 4000 / duration));
+  let lo = T0, hi = T0 * 2;
+  while (!coarse(hi)) {
     lo = hi;
     hi *= 2;
-    if (hi > 64 * context.move.duration) return null;
+    if (hi > 64 * T0) return null;
   }
   for (let it = 0; it < 30 && hi - lo > 1e-4; it++) {
     const mid = (lo + hi) / 2;
-    if (passes(mid)) hi = mid;
+    if (coarse(mid)) hi = mid;
     else lo = mid;
   }
-  return confirm(hi);
+  for (let k = 0; k < 20; k++, hi *= 1.005) if (passes(hi, rate)) return hi;
+  return null;
+}
+
+/** The smallest x > 0 with a·x² + b·x + c = 0, or Infinity (the caller's c keeps the sign of no root at 0). */
+function firstRoot(a: number, b: number, c: number): number {
+  if (Math.abs(a) < 1e-300) {
+    const x = b !== 0 ? -c / b : Infinity;
+    return x > 0 ? x : Infinity;
+  }
+  const disc = b * b - 4 * a * c;
+  if (disc < 0) return Infinity;
+  const r = Math.sqrt(disc);
+  // numerically stable pair of roots (Press et al., Numerical Recipes, §5.6)
+  const qv = -0.5 * (b + (b >= 0 ? r : -r));
+  const x1 = qv / a, x2 = qv !== 0 ? c / qv : Infinity;
+  let best = Infinity;
+  if (x1 > 0 && x1 < best) best = x1;
+  if (x2 > 0 && x2 < best) best = x2;
+  return best;
 }
 
 /**
@@ -286,7 +362,7 @@ export type ClearanceFinding = Finding & { link: string; zone: string; time: num
 export const checkClearance: MoveChecker = (context, out) => {
   const s = stateOf(context.plan);
   if (!s) return;
-  const count = context.instant ? sampleGoal(s, context) : sampleMove(s, context, context.move.duration);
+  const count = context.instant ? sampleGoal(s, context) : sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
   const hits = scanClearance(s.clearance, s.q, s.n, s.time, count);
   const margin = context.plan.surfaceMargin ?? 0;
   for (const h of hits) {
@@ -334,7 +410,7 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     peak = Math.hypot(t[12] - x0, t[13] - y0, t[14] - z0) * context.arm.controlRateHz;
     at = 0;
   } else {
-    const count = sampleMove(s, context, context.move.duration);
+    const count = sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
     const r = scanToolSpeed(s.toolSpeed, s.q, s.qd, s.n, s.time, count);
     peak = r.peakSpeed;
     at = r.timeS;

@@ -49,6 +49,8 @@ export interface MoveContext extends PlanContext {
   minCalm: ShortestDuration;
   /** Start time of the move, seconds from the plan's start. */
   startS: number;
+  /** Rate (Hz) the sampled arm checks use; undefined means the arm's control rate. */
+  sampleRateHz?: number;
   /** Arm model (issue 4): extra per-move figures copied into the move's report. */
   figures?: Pick<MoveReport, "peakEffort" | "peakToolSpeed">;
 }
@@ -63,6 +65,13 @@ export type MoveChecker = (context: MoveContext, out: Finding[]) => void;
 export interface CheckOptions {
   planCheckers?: readonly PlanChecker[];
   moveCheckers?: readonly MoveChecker[];
+  /**
+   * Rate (Hz) at which the sampled arm checks (effort, clearance, tool speed) sample each move;
+   * default the arm's control rate. A lower rate is faster and may miss a peak between samples
+   * (the live editor can use it between edits, the saved check should not). The joint checks are
+   * analytic and do not depend on it.
+   */
+  sampleRateHz?: number;
 }
 
 /** How a move is named in messages. */
@@ -224,6 +233,7 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       goal: timeline.goal.subarray(base, base + n),
       delta,
       startS: timeline.startS[index],
+      sampleRateHz: options.sampleRateHz,
       peakVelocity,
       peakAcceleration: instant ? null : peakAcceleration,
       minSafe: safeDuration(shape, delta, arm.joints, 1),

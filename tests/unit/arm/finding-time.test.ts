@@ -65,3 +65,20 @@ describe("arm findings carry the time of their worst sample (seconds from the pl
     expect(alone[0].timeS!).toBeGreaterThan(0);
   });
 });
+
+describe("check option sampleRateHz", () => {
+  it("samples the arm checks at that rate: the joint figures are unchanged, the effort peak is a sampled value no higher than at the control rate", () => {
+    const p = plan(fixture("reach-out-heavy"));
+    const full = check(p);
+    const coarse = check(p, { sampleRateHz: 50 });
+    expect(coarse.moves.map((m) => m.peakVelocity)).toEqual(full.moves.map((m) => m.peakVelocity));
+    const fine = full.moves[0].peakEffort![1]!, rough = coarse.moves[0].peakEffort![1]!;
+    expect(rough).toBeLessThanOrEqual(fine * (1 + 1e-12));
+    expect(rough).not.toBe(fine); // 50 Hz misses the control-rate peak of this move
+    // every coarse effort finding's time is on the 50 Hz grid of its move
+    for (const f of coarse.findings.filter((x) => x.kind === "effort-over" && x.move !== null)) {
+      const within = f.timeS! - timelineOf(p).startS[f.move!];
+      expectClose(Math.round(within * 50), within * 50, 1e-6, 0, "grid index");
+    }
+  });
+});
