@@ -176,7 +176,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
         </header>
 
         {/* 1280 px and up: three rails side by side; a tablet: outline left, stage and findings stacked right */}
-        <div className="grid min-h-0 flex-1 grid-cols-1 md:grid-cols-[320px_1fr] xl:grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
+        <div className="grid min-h-0 flex-1 grid-cols-1 md:grid-cols-[350px_1fr] xl:grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
           {/* left rail: plan outline and the selected pose */}
           <aside aria-label="Plan outline" className="flex min-h-0 flex-col overflow-y-auto border-r border-line bg-panel md:row-span-2 xl:row-span-1">
             <RailHeading
@@ -252,8 +252,8 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
           </aside>
 
           {/* centre: the stage and the timeline strip */}
-          <section aria-label="Stage and timeline" className="flex min-h-0 min-w-0 flex-col">
-            <div className="relative min-h-[300px] flex-1 bg-[#f3f1ea]" data-testid="stage">
+          <section aria-label="Stage and timeline" className="flex min-h-0 min-w-0 flex-col overflow-y-auto">
+            <div className="relative h-[380px] shrink-0 bg-[#f3f1ea] xl:h-auto xl:min-h-[260px] xl:flex-1 xl:shrink" data-testid="stage">
               {canRender3d === false ? (
                 <div role="alert" className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft">
                   This browser offers no WebGL, so the 3D stage is off. The moves, findings and plots still work.
@@ -275,7 +275,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
               </div>
             </div>
             <Transport />
-            <div className="border-t border-line bg-panel px-2 py-1.5" data-testid="plots">
+            <div className="shrink-0 border-t border-line bg-panel px-2 py-1.5" data-testid="plots">
               <JointPlots
                 samples={deferred.samples}
                 joints={plan.arm.joints}

@@ -145,7 +145,7 @@ function QuantityChart({ quantity, rows, totalS, joints, selectedJoints, caution
   return (
     <figure className="relative" aria-label={`${label} against time`}>
       <figcaption className="absolute top-0 left-14 z-10 text-[10px] font-medium text-ink-soft">{label}</figcaption>
-      <div className="h-[80px] w-full">
+      <div className="h-[72px] w-full">
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={rows} margin={{ top: 12, right: RIGHT_MARGIN, bottom: 0, left: 0 }}>
             <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" vertical={false} />
