@@ -50,6 +50,25 @@ describe("jointproof check", () => {
     expect(stdout).toMatch(/jump\s+move 0\s+Instant move 0, joint "elbow"/);
   });
 
+  it("the table's move numbers, the finding lines and the messages agree (0-based, as in the JSON report)", () => {
+    const doc = JSON.parse(readFileSync(join(plans, "instant-jump.json"), "utf8"));
+    // a passing move first, then the same jump one place later: everything must say move 1
+    const shifted = { ...doc, moves: [{ goal: doc.start, duration: 1 }, ...doc.moves] };
+    const { code, stdout } = run(["check", "-"], JSON.stringify(shifted));
+    expect(code).toBe(1);
+    const lines = stdout.split("\n");
+    const findingLines = lines.filter((l) => /^\s+(fault|caution)\s/.test(l));
+    expect(findingLines.length).toBeGreaterThan(0);
+    for (const l of findingLines) {
+      const listed = /\smove (\d+)\s/.exec(l)![1];
+      const said = /(?:Instant move|Move) (\d+)/.exec(l)![1];
+      expect(said, l).toBe(listed);
+      expect(listed).toBe("1");
+    }
+    expect(lines.some((l) => /^\s+1\s.*fault/i.test(l))).toBe(true);
+    expect(lines.some((l) => /^\s+0\s.*fault/i.test(l))).toBe(false);
+  });
+
   it("reads the plan from stdin with -", () => {
     const { code, stdout } = run(["check", "-", "--json"], readFileSync(join(plans, "instant-jump.json"), "utf8"));
     expect(code).toBe(1);
