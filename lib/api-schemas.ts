@@ -87,7 +87,7 @@ export const adminUpdateUserSchema = z
   })
   .refine((v) => v.siteRole !== undefined || v.disabled !== undefined, { error: "give siteRole or disabled", path: ["siteRole"] });
 
-export { signUpSchema } from "./auth-schemas";
+export { passwordResetConfirmSchema, passwordResetRequestSchema, signUpSchema, verifyEmailSchema } from "./auth-schemas";
 
 export { planDocumentInput as checkPlanSchema, planSchema };
 

@@ -31,3 +31,26 @@ export const signUpSchema = z.object({
 });
 
 export type SignUpInput = z.infer<typeof signUpSchema>;
+
+/**
+ * The one-time token from a password-reset or verification link (32 random bytes, base64url:
+ * 43 characters). Bounded so that a pasted page of text is refused before it is hashed.
+ */
+export const accountTokenSchema = z
+  .string({ error: "is required" })
+  .trim()
+  .min(1, { error: "is required" })
+  .max(200, { error: "must be the token from the e-mail link" })
+  .regex(/^[A-Za-z0-9_-]+$/, { error: "must be the token from the e-mail link" });
+
+/** `POST /api/v1/accounts/password-reset`: ask for a reset link. */
+export const passwordResetRequestSchema = z.strictObject({ email: emailSchema });
+
+/** `POST /api/v1/accounts/password-reset/confirm`: set a new password with the link's token. */
+export const passwordResetConfirmSchema = z.strictObject({ token: accountTokenSchema, password: passwordSchema });
+
+/** `POST /api/v1/accounts/verify-email`: confirm an address with the link's token. */
+export const verifyEmailSchema = z.strictObject({ token: accountTokenSchema });
+
+/** What a used, expired or unknown account token is answered with. */
+export const EXPIRED_LINK_MESSAGE = "The link has expired or was already used.";

@@ -13,6 +13,11 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       <h1 className="text-2xl font-semibold tracking-tight text-ink">Sign in</h1>
       <p className="mt-2 text-sm text-ink-soft">Use the e-mail and password of your Jointproof account.</p>
       <SignInForm next={next} initialError={error && error !== "CredentialsSignin" ? error : error ? "E-mail or password is wrong." : null} />
+      <p className="mt-4 text-sm">
+        <Link href="/forgot-password" className="font-medium text-brand-600 underline underline-offset-2 hover:text-brand-700">
+          Forgot your password?
+        </Link>
+      </p>
       <p className="mt-6 text-sm text-ink-soft">
         No account yet?{" "}
         <Link href="/sign-up" className="font-medium text-brand-600 underline underline-offset-2 hover:text-brand-700">

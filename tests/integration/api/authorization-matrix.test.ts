@@ -13,6 +13,9 @@ import { createApiToken } from "@/db/queries/tokens";
 import type { SiteRole } from "@/db/schema";
 import { generateToken } from "@/lib/tokens";
 import * as accounts from "@/app/api/v1/accounts/route";
+import * as passwordReset from "@/app/api/v1/accounts/password-reset/route";
+import * as passwordResetConfirm from "@/app/api/v1/accounts/password-reset/confirm/route";
+import * as verifyEmail from "@/app/api/v1/accounts/verify-email/route";
 import * as me from "@/app/api/v1/me/route";
 import * as tokens from "@/app/api/v1/tokens/route";
 import * as token from "@/app/api/v1/tokens/[tokenId]/route";
@@ -224,6 +227,10 @@ for (const r of siteRoutes) {
 /** Public routes: the same answer for everyone, signed in or not. */
 const publicRoutes: { name: string; status: number; run: (a: Actor) => Promise<CallResult> }[] = [
   { name: "GET /openapi.json", status: 200, run: (a) => call(openapi.GET, { path: "/api/v1/openapi.json", auth: a.auth }) },
+  // The account links work without a session (the person may not be able to sign in); a session changes nothing.
+  { name: "POST /accounts/password-reset", status: 202, run: (a) => call(passwordReset.POST, { method: "POST", path: "/api/v1/accounts/password-reset", auth: a.auth, body: { email: "matrix-nobody@example.com" } }) },
+  { name: "POST /accounts/password-reset/confirm (unknown token)", status: 400, run: (a) => call(passwordResetConfirm.POST, { method: "POST", path: "/api/v1/accounts/password-reset/confirm", auth: a.auth, body: { token: "B".repeat(43), password: "long-enough-pass-1" } }) },
+  { name: "POST /accounts/verify-email (unknown token)", status: 400, run: (a) => call(verifyEmail.POST, { method: "POST", path: "/api/v1/accounts/verify-email", auth: a.auth, body: { token: "C".repeat(43) } }) },
 ];
 for (const r of publicRoutes) for (const actor of actorNames) cells.push({ route: r.name, actor, relation: "-", expected: r.status, run: r.run });
 

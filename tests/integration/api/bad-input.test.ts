@@ -11,6 +11,9 @@ import { createArm } from "@/db/queries/arms";
 import { createPlan } from "@/db/queries/plans";
 import { createProject } from "@/db/queries/projects";
 import * as accounts from "@/app/api/v1/accounts/route";
+import * as passwordReset from "@/app/api/v1/accounts/password-reset/route";
+import * as passwordResetConfirm from "@/app/api/v1/accounts/password-reset/confirm/route";
+import * as verifyEmail from "@/app/api/v1/accounts/verify-email/route";
 import * as tokens from "@/app/api/v1/tokens/route";
 import * as user from "@/app/api/v1/users/[userId]/route";
 import * as projectsRoute from "@/app/api/v1/projects/route";
@@ -24,7 +27,7 @@ import * as check from "@/app/api/v1/check/route";
 import { call, demoArm, errorOf, gentlePlan, makeUser, tokenFor, type Auth } from "./_helpers";
 
 type Handler = Parameters<typeof call>[0];
-type Target = { name: string; handler: Handler; method: string; path: () => string; params: () => Record<string, string>; admin?: boolean; valid: () => unknown };
+type Target = { name: string; handler: Handler; method: string; path: () => string; params: () => Record<string, string>; admin?: boolean; needsMailToken?: boolean; valid: () => unknown };
 type BadCase = { what: string; body?: unknown; raw?: string; type?: string; status: number; path?: string };
 
 let auth: Auth;
@@ -75,6 +78,10 @@ const badDocuments: { what: string; document?: unknown; raw?: (prefix: string) =
 
 const targets: Target[] = [
   { name: "POST /accounts", handler: accounts.POST, method: "POST", path: () => "/api/v1/accounts", params: () => ({}), valid: () => ({ email: "x@example.com", name: "X", password: "long-enough-1" }) },
+  { name: "POST /accounts/password-reset", handler: passwordReset.POST, method: "POST", path: () => "/api/v1/accounts/password-reset", params: () => ({}), valid: () => ({ email: "bad-input-nobody@example.com" }) },
+  // A valid body needs a real token from an e-mail: tests/integration/accounts covers the accepted case.
+  { name: "POST /accounts/password-reset/confirm", handler: passwordResetConfirm.POST, method: "POST", path: () => "/api/v1/accounts/password-reset/confirm", params: () => ({}), needsMailToken: true, valid: () => ({ token: "D".repeat(43), password: "long-enough-pass-1" }) },
+  { name: "POST /accounts/verify-email", handler: verifyEmail.POST, method: "POST", path: () => "/api/v1/accounts/verify-email", params: () => ({}), needsMailToken: true, valid: () => ({ token: "E".repeat(43) }) },
   { name: "POST /tokens", handler: tokens.POST, method: "POST", path: () => "/api/v1/tokens", params: () => ({}), valid: () => ({ name: "ci" }) },
   { name: "PATCH /users/:id", handler: user.PATCH, method: "PATCH", path: () => `/api/v1/users/${ids.userId}`, params: () => ({ userId: ids.userId }), admin: true, valid: () => ({ siteRole: "researcher" }) },
   { name: "POST /projects", handler: projectsRoute.POST, method: "POST", path: () => "/api/v1/projects", params: () => ({}), valid: () => ({ name: "P" }) },
@@ -102,6 +109,24 @@ const specificCases: Record<string, BadCase[]> = {
     { what: "a short password", body: { email: "a@example.com", name: "A", password: "short" }, status: 400, path: "password" },
     { what: "a bad e-mail", body: { email: "not-an-address", name: "A", password: "long-enough-1" }, status: 400, path: "email" },
     { what: "a site role that cannot be chosen", body: { email: "a@example.com", name: "A", password: "long-enough-1", siteRole: "admin" }, status: 400, path: "siteRole" },
+  ],
+  "POST /accounts/password-reset": [
+    { what: "no e-mail", body: {}, status: 400, path: "email" },
+    { what: "a bad e-mail", body: { email: "not-an-address" }, status: 400, path: "email" },
+    { what: "an e-mail as a number", body: { email: 42 }, status: 400, path: "email" },
+    { what: "an unknown field", body: { email: "a@example.com", admin: true }, status: 400, path: "(body)" },
+  ],
+  "POST /accounts/password-reset/confirm": [
+    { what: "no token", body: { password: "long-enough-pass-1" }, status: 400, path: "token" },
+    { what: "a token with spaces", body: { token: "not a token", password: "long-enough-pass-1" }, status: 400, path: "token" },
+    { what: "a short password", body: { token: "D".repeat(43), password: "short" }, status: 400, path: "password" },
+    { what: "a password over 72 bytes", body: { token: "D".repeat(43), password: "é".repeat(40) }, status: 400, path: "password" },
+    { what: "a token nobody was sent", body: { token: "D".repeat(43), password: "long-enough-pass-1" }, status: 400, path: "token" },
+  ],
+  "POST /accounts/verify-email": [
+    { what: "no token", body: {}, status: 400, path: "token" },
+    { what: "a token as a number", body: { token: 7 }, status: 400, path: "token" },
+    { what: "a token nobody was sent", body: { token: "E".repeat(43) }, status: 400, path: "token" },
   ],
   "POST /tokens": [
     { what: "no name", body: {}, status: 400, path: "name" },
@@ -175,7 +200,7 @@ describe("bad input on every write route", () => {
   });
 
   it("accepts each route's valid body (so the refusals below are about the bad field)", async () => {
-    for (const t of targets.filter((t) => t.name !== "POST /accounts")) {
+    for (const t of targets.filter((t) => t.name !== "POST /accounts" && !t.needsMailToken)) {
       const res = await call(t.handler, { method: t.method, path: t.path(), params: t.params(), auth: t.admin ? adminAuth : auth, body: t.valid() });
       expect(res.status, `${t.name}: ${res.text}`).toBeLessThan(300);
     }

@@ -4,9 +4,13 @@ import { createUser } from "@/db/queries/users";
 import { json, readJson, route } from "@/lib/api";
 import { signUpSchema } from "@/lib/api-schemas";
 import { AppError } from "@/lib/errors";
+import { requestEmailVerification } from "@/lib/mail/account-mail";
 import { assertSameOrigin } from "@/lib/security";
 
-/** POST /api/v1/accounts — sign up (student or researcher). The form then signs in through next-auth. */
+/**
+ * POST /api/v1/accounts — sign up (student or researcher). The form then signs in through next-auth.
+ * The address-verification e-mail is queued in the outbox; sign-in does not wait for it.
+ */
 export const POST = route(async (request) => {
   const body = await readJson(request, signUpSchema);
   // A browser form posts here without a session yet; refuse cross-site posts all the same.
@@ -19,5 +23,11 @@ export const POST = route(async (request) => {
   });
   if (!user) throw new AppError("conflict:email", "An account with this e-mail already exists; sign in instead.");
   await recordAudit({ actorId: user.id, action: "user.sign-up", targetType: "user", targetId: user.id });
+  try {
+    await requestEmailVerification({ email: user.email });
+  } catch (err) {
+    // The account exists by now; a failed mail queue must not turn the sign-up into an error.
+    console.error("[accounts] could not queue the verification e-mail:", err instanceof Error ? err.message : err);
+  }
   return json({ user }, 201);
 });

@@ -1,0 +1,18 @@
+import { json, readJson, route } from "@/lib/api";
+import { passwordResetConfirmSchema } from "@/lib/api-schemas";
+import { EXPIRED_LINK_MESSAGE } from "@/lib/auth-schemas";
+import { AppError } from "@/lib/errors";
+import { resetPassword } from "@/lib/mail/account-mail";
+import { assertSameOrigin } from "@/lib/security";
+
+/**
+ * POST /api/v1/accounts/password-reset/confirm — sets a new password with the token from the
+ * reset e-mail. The token works once; using it voids the account's other reset links.
+ */
+export const POST = route(async (request) => {
+  const body = await readJson(request, passwordResetConfirmSchema);
+  if (request.headers.has("origin") || request.headers.has("sec-fetch-site")) assertSameOrigin(request);
+  const ok = await resetPassword({ token: body.token, password: body.password });
+  if (!ok) throw new AppError("bad_request:token", EXPIRED_LINK_MESSAGE, { issues: [{ path: "token", message: "has expired or was already used" }] });
+  return json({ reset: true });
+});

@@ -1,0 +1,69 @@
+/**
+ * Shared set-up for the account tests: the real SMTP fake and mail worker (tests/integration/courses/_mail.ts),
+ * sign-in through next-auth's own request handler with our options, and reading the one-time
+ * token out of the link an e-mail carries.
+ */
+import "../api/_env";
+// next-auth's core handler is not in its package exports; import the installed file itself (the same code the route runs).
+import { AuthHandler } from "../../../node_modules/next-auth/core/index.js";
+import { authOptions, sessionCookieName } from "@/lib/auth";
+import type { MailWorker } from "@/lib/mail/worker";
+import { BASE } from "../api/_helpers";
+import { startMailHarness, type MailHarness } from "../courses/_mail";
+
+process.env.NEXTAUTH_URL ??= BASE;
+
+type Cookie = { name: string; value: string };
+
+export type AccountHarness = { mail: MailHarness; stop: () => Promise<void> };
+
+/** The SMTP fake first (the mailer reads SMTP_* on first use), then the real pg-boss worker in this process. */
+export async function startAccountHarness(): Promise<AccountHarness> {
+  const mail = await startMailHarness();
+  const { startMailWorker } = await import("@/lib/mail/worker");
+  const worker: MailWorker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
+  return {
+    mail,
+    stop: async () => {
+      await worker.stop();
+      const { stopBoss } = await import("@/lib/mail/queue");
+      await stopBoss();
+      await mail.close();
+    },
+  };
+}
+
+/** Signs in through next-auth (CSRF token, credentials callback); the session cookie, or undefined when refused. */
+export async function signIn(email: string, password: string): Promise<{ session: Cookie | undefined; redirect: string }> {
+  const host = new URL(BASE).host;
+  const csrf = await AuthHandler({ req: { action: "csrf", method: "GET", origin: BASE, cookies: {}, headers: { host } }, options: authOptions() });
+  const csrfToken = (csrf.body as { csrfToken: string }).csrfToken;
+  const cookies = Object.fromEntries(((csrf.cookies ?? []) as Cookie[]).map((c) => [c.name, c.value]));
+  const res = await AuthHandler({
+    req: {
+      action: "callback",
+      providerId: "credentials",
+      method: "POST",
+      origin: BASE,
+      cookies,
+      // Its own documentation address (RFC 5737), apart from the sign-in tests' one, so the per-address limit is ours alone.
+      headers: { host, "x-forwarded-for": "192.0.2.77" },
+      body: { csrfToken, email, password, json: "true" },
+    },
+    options: authOptions(),
+  });
+  const session = ((res.cookies ?? []) as Cookie[]).find((c) => c.name === sessionCookieName());
+  return { session, redirect: decodeURIComponent(res.redirect ?? "") };
+}
+
+/** The `token` query parameter of the first link to `path` in an e-mail's text part. */
+export function tokenFromLink(text: string, path: string): string {
+  for (const match of text.matchAll(/https?:\/\/\S+/g)) {
+    const url = new URL(match[0]);
+    if (url.pathname === path) {
+      const token = url.searchParams.get("token");
+      if (token) return token;
+    }
+  }
+  throw new Error(`no ${path}?token=… link in: ${text}`);
+}

@@ -1,0 +1,134 @@
+/**
+ * Password reset through the routes, the real outbox, worker and SMTP fake: the link in the
+ * e-mail carries a one-time token; confirming with it changes the password that next-auth's
+ * sign-in accepts; the token works once; an unknown address is answered exactly like a known one.
+ */
+import "../api/_env";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import { db } from "@/db";
+import { accountTokens } from "@/db/schema";
+import * as resetRoute from "@/app/api/v1/accounts/password-reset/route";
+import * as confirmRoute from "@/app/api/v1/accounts/password-reset/confirm/route";
+import { call, errorOf, makeUser } from "../api/_helpers";
+import { signIn, startAccountHarness, tokenFromLink, type AccountHarness } from "./_accounts";
+
+let harness: AccountHarness;
+
+beforeAll(async () => {
+  harness = await startAccountHarness();
+});
+
+afterAll(async () => {
+  await harness?.stop();
+});
+
+const requestReset = (email: string, headers?: Record<string, string>) =>
+  call(resetRoute.POST, { method: "POST", path: "/api/v1/accounts/password-reset", body: { email }, headers });
+const confirm = (body: unknown) => call(confirmRoute.POST, { method: "POST", path: "/api/v1/accounts/password-reset/confirm", body });
+
+/** The token of the reset e-mail number `nth` (0 = the first) sent to this address, waiting for it to arrive. */
+async function resetEmailFor(email: string, nth = 0): Promise<string> {
+  const isReset = (m: { to: string; kind: string | null }) => m.to === email && m.kind === "password-reset";
+  for (const until = Date.now() + 25_000; ; await new Promise((r) => setTimeout(r, 200))) {
+    const resets = (await harness.mail.messages()).filter(isReset).sort((a, b) => a.receivedAt.localeCompare(b.receivedAt));
+    const message = resets[nth];
+    if (message) {
+      expect(message.html).toContain("/reset-password?token=");
+      return tokenFromLink(message.text, "/reset-password");
+    }
+    if (Date.now() > until) throw new Error(`reset e-mail ${nth + 1} to ${email} did not arrive`);
+  }
+}
+
+describe("password reset through the API", () => {
+  it("e-mails a link whose token sets a new password once: sign-in takes the new one and refuses the old", async () => {
+    const user = await makeUser("student", "reset-flow");
+    // Addresses are matched as the sign-in form sends them: trimmed and lower-cased.
+    const requested = await requestReset(`  ${user.email.toUpperCase()} `);
+    expect(requested.status).toBe(202);
+    const token = await resetEmailFor(user.email);
+
+    const tooShort = await confirm({ token, password: "short" });
+    expect(tooShort.status).toBe(400);
+    expect(errorOf(tooShort).issues.map((i) => i.path)).toContain("password");
+
+    const done = await confirm({ token, password: "a-brand-new-password-7" });
+    expect(done.status, done.text).toBe(200);
+
+    expect((await signIn(user.email, "a-brand-new-password-7")).session).toBeDefined();
+    const old = await signIn(user.email, user.password);
+    expect(old.session).toBeUndefined();
+    expect(old.redirect).toContain("E-mail or password is wrong.");
+
+    const again = await confirm({ token, password: "yet-another-password-8" });
+    expect(again.status).toBe(400);
+    expect(errorOf(again)).toMatchObject({ code: "bad_request:token", message: "The link has expired or was already used." });
+    expect((await signIn(user.email, "yet-another-password-8")).session).toBeUndefined();
+  });
+
+  it("answers an unknown address exactly like a known one, and sends nothing", async () => {
+    const known = await makeUser("student", "reset-known");
+    const before = (await harness.mail.messages()).length;
+    const forUnknown = await requestReset("nobody-at-all@example.com");
+    const forKnown = await requestReset(known.email);
+    expect({ status: forUnknown.status, body: forUnknown.body }).toEqual({ status: forKnown.status, body: forKnown.body });
+    expect(forUnknown.status).toBe(202);
+    await resetEmailFor(known.email);
+    await new Promise((r) => setTimeout(r, 1_500));
+    const after = await harness.mail.messages();
+    expect(after.length).toBe(before + 1);
+    expect(after.some((m) => m.to === "nobody-at-all@example.com")).toBe(false);
+  });
+
+  it("voids the other reset links of the account once one is used", async () => {
+    const user = await makeUser("researcher", "reset-two");
+    expect((await requestReset(user.email)).status).toBe(202);
+    const first = await resetEmailFor(user.email);
+    expect((await requestReset(user.email)).status).toBe(202);
+    const second = await resetEmailFor(user.email, 1);
+    expect(second).not.toBe(first);
+    expect((await confirm({ token: second, password: "second-link-password-1" })).status).toBe(200);
+    const stale = await confirm({ token: first, password: "first-link-password-2" });
+    expect(stale.status).toBe(400);
+    expect(errorOf(stale).code).toBe("bad_request:token");
+    expect((await signIn(user.email, "second-link-password-1")).session).toBeDefined();
+  });
+
+  it("refuses an expired link with the same message and leaves the password as it was", async () => {
+    const user = await makeUser("student", "reset-expired");
+    expect((await requestReset(user.email)).status).toBe(202);
+    const token = await resetEmailFor(user.email);
+    await db.update(accountTokens).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(accountTokens.userId, user.id));
+    const res = await confirm({ token, password: "too-late-password-3" });
+    expect(res.status).toBe(400);
+    expect(errorOf(res).message).toBe("The link has expired or was already used.");
+    expect((await signIn(user.email, user.password)).session).toBeDefined();
+  });
+
+  it("names the field for a missing or malformed token and a bad address", async () => {
+    const cases: { body: unknown; path: string }[] = [
+      { body: { password: "long-enough-pass-1" }, path: "token" },
+      { body: { token: "not a token!", password: "long-enough-pass-1" }, path: "token" },
+      { body: { token: "x".repeat(201), password: "long-enough-pass-1" }, path: "token" },
+      { body: { token: "abc", password: "long-enough-pass-1", extra: 1 }, path: "(body)" },
+    ];
+    for (const c of cases) {
+      const res = await confirm(c.body);
+      expect(res.status, JSON.stringify(c.body)).toBe(400);
+      expect(errorOf(res).issues.map((i) => i.path)).toContain(c.path);
+    }
+    const unknownToken = await confirm({ token: "A".repeat(43), password: "long-enough-pass-1" });
+    expect(unknownToken.status).toBe(400);
+    expect(errorOf(unknownToken).code).toBe("bad_request:token");
+    const badEmail = await requestReset("not-an-address");
+    expect(badEmail.status).toBe(400);
+    expect(errorOf(badEmail).issues.map((i) => i.path)).toContain("email");
+  });
+
+  it("refuses a reset request posted from another site", async () => {
+    const res = await requestReset("someone@example.com", { origin: "https://elsewhere.example.com" });
+    expect(res.status).toBe(403);
+    expect(errorOf(res).code).toBe("forbidden:origin");
+  });
+});
