@@ -256,6 +256,24 @@ describe("workspace", () => {
     await page.screenshot({ path: `${screenshotDir}/workspace-recording-plan.png` });
   });
 
+  it("edits an arm's limits with field errors from the engine's schema, and saves a new revision", async () => {
+    const { page } = s;
+    await page.goto(`/projects/${project.id}/arms`);
+    await page.getByRole("button", { name: new RegExp(`^${armName}`) }).click();
+    await page.waitForSelector("[data-testid=arm-stage] canvas");
+    const speed = page.getByLabel("elbow maxVelocity (°/s)");
+    await speed.fill("0");
+    await page.getByRole("button", { name: "Save as revision 2" }).click();
+    await page.getByText("must be greater than 0").waitFor();
+    await expect(speed.getAttribute("aria-invalid")).resolves.toBe("true");
+    await page.screenshot({ path: `${screenshotDir}/workspace-arms.png` });
+    await speed.fill("180");
+    await page.getByRole("button", { name: "Save as revision 2" }).click();
+    await page.getByRole("status").getByText("Saved.", { exact: true }).waitFor();
+    const arms = (await (await page.request.get(`/api/v1/projects/${project.id}/arms`)).json()) as { arms: { name: string; latestRevision: number }[] };
+    expect(arms.arms.find((a) => a.name === armName)?.latestRevision).toBe(2);
+  });
+
   it("ran without console errors (the one 409 of the raced save is expected)", () => {
     const conflicts = s.errors.filter((e) => e.includes("status of 409"));
     expect(conflicts).toHaveLength(1);
