@@ -18,10 +18,15 @@ export const demoPeople = [
   { id: "00000000-0000-4000-8000-000000000005", email: "lab.admin@example.com", name: "Lab Admin", password: "bench-admin-0001", role: "admin" },
 ] as const satisfies readonly DemoPerson[];
 
-/** The lines `npm start` prints after seeding: `  email / password (role)`. */
-export function demoSignInLines(): string[] {
-  return demoPeople.map((p) => `  ${p.email} / ${p.password} (${p.role})`);
+/** The lines `npm start` prints after seeding: `  email / password (role)`, then the course's join code when given. */
+export function demoSignInLines(joinCode?: string): string[] {
+  const lines = demoPeople.map((p) => `  ${p.email} / ${p.password} (${p.role})`);
+  // Has " / " like the sign-in lines, which scripts/start.sh picks out of the seed output.
+  if (joinCode) lines.push(`  ${demoCourseTitle} join code: ${joinCode} / link: /courses/join?code=${joinCode}`);
+  return lines;
 }
+
+const demoCourseTitle = "Robot Motion I";
 
 export type DemoProject = {
   id: string;
@@ -177,4 +182,50 @@ export const demoRecording = {
     }
     return rows.join("\n") + "\n";
   },
+};
+
+export type DemoAssignment = {
+  id: string;
+  title: string;
+  instructions: string;
+  /** Due this many days after the seed first writes it (moved on again once it has passed). */
+  dueInDays: number;
+  /** Pose per joint of the light arm (rad; the gripper in m), or omitted. */
+  requiredStart?: number[];
+  requiredGoals?: number[][];
+};
+
+/**
+ * The demo course on the course project: the instructor teaches it, Aiko is enrolled, Tomas joins
+ * with the code during the demo. First runs are checked at 70% of each joint's maximum speed, on
+ * revision 1 of the light arm.
+ */
+export const demoCourse = {
+  id: "00000000-0000-4000-8000-000000000501",
+  title: demoCourseTitle,
+  term: "Autumn",
+  /** Eight letters and digits from the join-code alphabet (no 0/O, 1/I/L look-alikes). */
+  joinCode: "BENCH247",
+  projectId: demoProjects[0].id,
+  armId: armLight.id,
+  armRevision: 1,
+  instructorId: instructor.id,
+  studentIds: [student2.id],
+  limits: { velocityScale: 0.7 },
+  assignments: [
+    {
+      id: "00000000-0000-4000-8000-000000000511",
+      title: "Gentle pose change",
+      instructions: "Start at the home pose and reach any pose in one move that passes at 70% of each joint's maximum speed.",
+      dueInDays: 14,
+      requiredStart: [0, 0, 0, 0, 0, 0, 0.01],
+    },
+    {
+      id: "00000000-0000-4000-8000-000000000512",
+      title: "Reach without faults",
+      instructions: "Reach the pose below as fast as the course's limits allow, without a fault. Report the shortest safe duration you found.",
+      dueInDays: 21,
+      requiredGoals: [[1.2, -0.4, 0.8, 0.3, 0, 0.5, 0.01]],
+    },
+  ] satisfies DemoAssignment[],
 };

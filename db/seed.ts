@@ -4,15 +4,15 @@
  * A seed script is not a request handler, so it writes through the Drizzle client directly.
  */
 import bcrypt from "bcryptjs";
-import { desc, eq } from "drizzle-orm";
+import { and, desc, eq, sql } from "drizzle-orm";
 import { isDeepStrictEqual } from "node:util";
 import { db, pool } from "./index";
 import { createHash } from "node:crypto";
 import { summarize } from "../lib/api-check";
 import { putObject } from "../lib/storage";
 import { check, parseRecordingCsv, planSchema } from "../kinematics";
-import { armRevisions, arms, planVersions, plans, projectMembers, projects, recordings, users } from "./schema";
-import { demoArms, demoPeople, demoPlans, demoProjects, demoRecording, demoSignInLines } from "./demo";
+import { armRevisions, arms, assignments, courseEnrolments, courses, planVersions, plans, projectMembers, projects, recordings, users } from "./schema";
+import { demoArms, demoCourse, demoPeople, demoPlans, demoProjects, demoRecording, demoSignInLines } from "./demo";
 
 async function seedPeople() {
   for (const p of demoPeople) {
@@ -114,6 +114,58 @@ async function seedPlans() {
   }
 }
 
+/**
+ * The demo course with its two assignments and enrolments. Upserts by fixed id, so a second run
+ * changes nothing a user made: enrolments are only added, submissions are never touched, and the
+ * join code stays whatever the course has. A due date that has passed is moved on again, so the
+ * demo always has open assignments. Returns the course's join code.
+ */
+async function seedCourse(): Promise<string> {
+  const c = demoCourse;
+  const [revision] = await db
+    .select({ id: armRevisions.id })
+    .from(armRevisions)
+    .where(and(eq(armRevisions.armId, c.armId), eq(armRevisions.revision, c.armRevision)));
+  if (!revision) throw new Error(`demo course: arm ${c.armId} has no revision ${c.armRevision}`);
+  const [course] = await db
+    .insert(courses)
+    .values({ id: c.id, title: c.title, term: c.term, joinCode: c.joinCode, projectId: c.projectId, createdBy: c.instructorId, limits: c.limits, requiredArmRevisionId: revision.id })
+    .onConflictDoUpdate({ target: courses.id, set: { title: c.title, term: c.term, limits: c.limits } })
+    .returning({ joinCode: courses.joinCode });
+  await db
+    .insert(courseEnrolments)
+    .values([
+      { courseId: c.id, userId: c.instructorId, role: "instructor" as const },
+      ...c.studentIds.map((userId) => ({ courseId: c.id, userId, role: "student" as const })),
+    ])
+    .onConflictDoNothing();
+  for (const a of c.assignments) {
+    const dueAt = new Date(Date.now() + a.dueInDays * 86_400_000);
+    await db
+      .insert(assignments)
+      .values({
+        id: a.id,
+        courseId: c.id,
+        title: a.title,
+        instructions: a.instructions,
+        dueAt,
+        requiredArmRevisionId: revision.id,
+        requiredStart: a.requiredStart ?? null,
+        requiredGoals: a.requiredGoals ?? null,
+        createdBy: c.instructorId,
+      })
+      .onConflictDoUpdate({
+        target: assignments.id,
+        set: {
+          title: a.title,
+          instructions: a.instructions,
+          dueAt: sql`case when ${assignments.dueAt} < now() then excluded.due_at else ${assignments.dueAt} end`,
+        },
+      });
+  }
+  return course.joinCode;
+}
+
 /** The demo recording: the file into object storage, then its row. Skipped (with a note) while storage is down. */
 async function seedRecording() {
   const [existing] = await db.select({ id: recordings.id }).from(recordings).where(eq(recordings.id, demoRecording.id));
@@ -149,10 +201,11 @@ async function main() {
   await seedProjects();
   await seedArms();
   await seedPlans();
+  const joinCode = await seedCourse();
   await seedRecording();
   console.log(`[seed] demo data ready (${await db.$count(users)} users)`);
   console.log("[seed] demo sign-ins:");
-  for (const line of demoSignInLines()) console.log(line);
+  for (const line of demoSignInLines(joinCode)) console.log(line);
 }
 
 try {
