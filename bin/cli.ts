@@ -13,6 +13,7 @@ import type { Report, Verdict } from "../kinematics/report";
 import { alignRecording, repairStream, streamCheck, validateRecording, type StreamReport } from "../kinematics/stream";
 import { formatNumber, formatQuantity } from "../kinematics/wording";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands"; // arm model (issue 4): arm import, fk, ik
+import { exportFormatOf, hasExportBlock, recordedVerdict, verifyCsvChecksum, verifyJsonChecksum } from "./export-checksum"; // exports (issue 5)
 
 /** Where the command writes; replaced in tests only by the real process streams. */
 interface Io {
@@ -30,6 +31,7 @@ const usage = `Usage:
   jointproof scan LOG.csv --arm ARM.json [--json] [--repair OUT.csv] [--resample HZ]
                                                stream check of a recording (header t,<joint names>);
                                                --repair writes a rate-limited log that passes
+  jointproof verify EXPORT.json|EXPORT.csv     checks an export's SHA-256 only (no engine check)
 Exit codes: 0 pass or caution, 1 fault, 2 invalid input or usage.
 
 A passing check predicts no controller fault from the arm model; it does not make a motion safe.
@@ -90,7 +92,12 @@ function readInput(path: string): Buffer {
 
 /** Reads and parses a JSON file. */
 function readJson(path: string): unknown {
-  const text = readInput(path).toString("utf8");
+  return parseJson(readInput(path), path);
+}
+
+/** Parses JSON bytes read from `path`. */
+function parseJson(bytes: Buffer, path: string): unknown {
+  const text = bytes.toString("utf8");
   try {
     return JSON.parse(text);
   } catch (error) {
@@ -153,11 +160,58 @@ function formatReport(report: Report, arm: Arm): string {
 function runCheck(args: Args, io: Io): number {
   const [file, ...rest] = args.positional;
   if (!file || rest.length > 0) throw new InputError(["check: needs exactly one plan file (or - for stdin)"]);
-  const parsed = parsePlan(readJson(file));
+  const document = readJson(file);
+  // An export (a plan document with an `export` block) is trusted only once its checksum matches.
+  const exported = hasExportBlock(document) ? document : null;
+  let verifiedLine = "";
+  if (exported) {
+    const checksum = verifyJsonChecksum(exported);
+    if (!checksum.ok) throw new InputError([checksum.problem]);
+    verifiedLine = `Export checksum verified: export.sha256 ${checksum.digest} matches the content.\n`;
+  }
+  const parsed = parsePlan(document);
   if (!parsed.ok) throw new InputError(problemLines(parsed.problems));
   const report = check(parsed.value);
-  io.out(args.json ? JSON.stringify(report, null, 2) + "\n" : formatReport(report, parsed.value.arm));
-  return exitCodeOf(report.verdict);
+  const recorded = exported ? recordedVerdict(exported) : null;
+  const disagrees = recorded !== null && recorded !== report.verdict;
+  let verdictLine = "";
+  if (recorded !== null) {
+    verdictLine = disagrees
+      ? `Verdict disagrees with the export: it records ${recorded.toUpperCase()}, this check finds ${verdictWord(report.verdict)}. ` +
+        "The engine or the arm model has changed since the export; re-check the plan and export it again before running it.\n"
+      : `Verdict agrees with the export: ${verdictWord(report.verdict)}.\n`;
+  } else if (exported) {
+    verdictLine = "The export records no verdict to compare with.\n";
+  }
+  if (args.json) {
+    // stdout carries the report and nothing else; the export lines go to stderr
+    io.out(JSON.stringify(report, null, 2) + "\n");
+    io.err(verifiedLine + verdictLine);
+  } else {
+    io.out(verifiedLine + verdictLine + (verifiedLine ? "\n" : "") + formatReport(report, parsed.value.arm));
+  }
+  return disagrees ? 1 : exitCodeOf(report.verdict);
+}
+
+/** `verify`: checksum-only verification of a JSON or CSV export. */
+function runVerify(args: Args, io: Io): number {
+  const [file, ...rest] = args.positional;
+  if (!file || rest.length > 0) throw new InputError(["verify: needs exactly one export file (JSON or CSV, or - for stdin)"]);
+  const bytes = readInput(file);
+  const format = exportFormatOf(bytes);
+  let result;
+  if (format === "json") {
+    const document = parseJson(bytes, file);
+    if (!hasExportBlock(document)) throw new InputError(["export: is missing (not a JSON export: no export block with a sha256)"]);
+    result = verifyJsonChecksum(document);
+  } else {
+    result = verifyCsvChecksum(bytes);
+  }
+  if (!result.ok) throw new InputError([result.problem]);
+  const where = format === "json" ? "export.sha256" : "# sha256 (last line)";
+  if (args.json) io.out(JSON.stringify({ format, verified: true, sha256: result.digest }) + "\n");
+  else io.out(`Export checksum verified (${format.toUpperCase()}): ${where} ${result.digest} matches the content.\n`);
+  return 0;
 }
 
 /** Reads the arm for `scan`: an arm object, or a whole plan document whose `arm` is used. */
@@ -241,6 +295,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     }
     if (args.command === "check") return runCheck(args, io);
     if (args.command === "scan") return runScan(args, io);
+    if (args.command === "verify") return runVerify(args, io);
     io.err(args.command === undefined ? usage : `${args.command}: unknown command\n${usage}`);
     return 2;
   } catch (error) {
