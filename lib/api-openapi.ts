@@ -3,6 +3,7 @@
  * (zod 4's JSON Schema output, draft 2020-12 — the dialect OpenAPI 3.1 uses, OpenAPI 3.1.0 §4.8.24).
  */
 import { z } from "zod";
+import * as course from "@/components/courses/schemas";
 import { planSchema } from "./api-engine";
 import * as s from "./api-schemas";
 
@@ -43,6 +44,9 @@ const p = (name: string): Param => ({ name, in: "path", required: true, schema: 
 /** Every operation; a new route adds a line here (and a row to the authorisation-matrix test). */
 const operations: Op[] = [
   { method: "post", path: "/accounts", summary: "Create an account (student or researcher)", tag: "Accounts", body: ref("SignUp"), ok: 201, errors: [400, 409, 413, 415], anonymous: true },
+  { method: "post", path: "/accounts/password-reset", summary: "E-mail a one-time password-reset link; 202 whether or not the address has an account", tag: "Accounts", body: ref("PasswordResetRequest"), ok: 202, errors: [400, 403, 413, 415], anonymous: true },
+  { method: "post", path: "/accounts/password-reset/confirm", summary: "Set a new password with the token from the reset e-mail (once; 400 when expired or used)", tag: "Accounts", body: ref("PasswordResetConfirm"), ok: 200, errors: [400, 403, 413, 415], anonymous: true },
+  { method: "post", path: "/accounts/verify-email", summary: "Confirm an e-mail address with the token from the verification e-mail (once)", tag: "Accounts", body: ref("VerifyEmail"), ok: 200, errors: [400, 403, 413, 415], anonymous: true },
   { method: "get", path: "/me", summary: "The account behind the session or token", tag: "Accounts", ok: 200, errors: [401] },
   { method: "get", path: "/tokens", summary: "List your API tokens", tag: "Tokens", ok: 200, errors: [401] },
   { method: "post", path: "/tokens", summary: "Create an API token (shown once)", tag: "Tokens", body: ref("CreateToken"), ok: 201, errors: [400, 401] },
@@ -117,12 +121,49 @@ const operations: Op[] = [
     errors: [400, 401, 403, 404, 413, 415, 422],
   },
   { method: "get", path: "/recordings/{recordingId}/file", summary: "Download a recording's CSV", tag: "Recordings", params: [p("recordingId")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/courses", summary: "Courses you teach or are enrolled in (join codes for instructors only)", tag: "Courses", ok: 200, errors: [401] },
+  { method: "post", path: "/courses", summary: "Create a course and get its join code and invitation link (instructors)", tag: "Courses", body: ref("CreateCourse"), ok: 201, errors: [400, 401, 403, 413, 415, 422] },
+  { method: "post", path: "/courses/join", summary: "Join a course as a student with its join code", tag: "Courses", body: ref("JoinCourse"), ok: 200, errors: [400, 401, 403, 404] },
+  { method: "get", path: "/courses/{id}", summary: "A course (instructors also get the join code and invitation link)", tag: "Courses", params: [p("id")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/courses/{id}/roster", summary: "Instructors and students of a course (instructors)", tag: "Courses", params: [p("id")], ok: 200, errors: [401, 403, 404] },
+  { method: "delete", path: "/courses/{id}/roster/{userId}", summary: "Remove a student; their submissions stay on record (instructors)", tag: "Courses", params: [p("id"), p("userId")], ok: 200, errors: [401, 403, 404] },
+  { method: "post", path: "/courses/{id}/invitations", summary: "E-mail the join link to a list of addresses (instructors)", tag: "Courses", params: [p("id")], body: ref("InviteToCourse"), ok: 202, errors: [400, 401, 403, 404, 413, 415] },
+  {
+    method: "get",
+    path: "/courses/{id}/grades",
+    summary: "Grades and verdicts as CSV: each student's latest submission per assignment (instructors)",
+    tag: "Courses",
+    params: [p("id")],
+    ok: 200,
+    okDescription: "CSV (text/csv): student, email, assignment, due_at, attempt, submitted_at, late, verdict, status, review_summary",
+    errors: [401, 403, 404],
+  },
+  { method: "get", path: "/courses/{id}/assignments", summary: "A course's assignments by due date, each with your status", tag: "Assignments", params: [p("id")], ok: 200, errors: [401, 404] },
+  { method: "post", path: "/courses/{id}/assignments", summary: "Set an assignment on a required arm revision, with optional poses and stricter limits (instructors)", tag: "Assignments", params: [p("id")], body: ref("CreateAssignment"), ok: 201, errors: [400, 401, 403, 404, 413, 415, 422] },
+  { method: "get", path: "/assignments/{id}", summary: "An assignment, for anyone enrolled in its course", tag: "Assignments", params: [p("id")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/assignments/{id}/submissions", summary: "Your own submissions to an assignment, newest first", tag: "Submissions", params: [p("id")], ok: 200, errors: [401, 403, 404] },
+  {
+    method: "post",
+    path: "/assignments/{id}/submissions",
+    summary: "Submit a saved plan version: re-checked on the server against the assignment's rules and limits, then frozen",
+    tag: "Submissions",
+    params: [p("id")],
+    body: ref("Submit"),
+    ok: 201,
+    errors: [400, 401, 403, 404, 409, 413, 415, 422],
+  },
+  { method: "get", path: "/submissions", summary: "Your own submissions across courses, newest first", tag: "Submissions", ok: 200, errors: [401] },
+  { method: "get", path: "/submissions/{id}", summary: "A submission: the frozen plan, its report, the review and the comments (its student or the course's instructors)", tag: "Submissions", params: [p("id")], ok: 200, errors: [401, 403, 404] },
+  { method: "get", path: "/reviews", summary: "The review queue of the courses you teach, with filters and sorting", tag: "Reviews", query: course.queueQuerySchema, ok: 200, errors: [400, 401] },
+  { method: "get", path: "/reviews/{id}/comments", summary: "The comments on a submission", tag: "Reviews", params: [p("id")], ok: 200, errors: [401, 403, 404] },
+  { method: "post", path: "/reviews/{id}/comments", summary: "Pin a comment to a move, a joint and a time of a submission (instructors)", tag: "Reviews", params: [p("id")], body: ref("Comment"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415] },
+  { method: "post", path: "/reviews/{id}/decision", summary: "Approve a submission or return it with a summary (instructors); the student is e-mailed", tag: "Reviews", params: [p("id")], body: ref("Decision"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415] },
 ];
 
 const statusText: Record<number, string> = {
   400: "Invalid input; `issues` names each field path",
   401: "No valid session or token",
-  403: "Your role does not allow this",
+  403: "Your role does not allow this (or a cross-site request with a session cookie)",
   404: "Not found (or not visible to you)",
   409: "Conflict (e.g. a newer version was saved)",
   413: "Body too large",
@@ -196,6 +237,16 @@ export function openApiDocument(serverUrl: string): Json {
         },
         PlanDocument: schemaOf(planSchema),
         SignUp: schemaOf(s.signUpSchema),
+        PasswordResetRequest: schemaOf(s.passwordResetRequestSchema),
+        PasswordResetConfirm: schemaOf(s.passwordResetConfirmSchema),
+        VerifyEmail: schemaOf(s.verifyEmailSchema),
+        CreateCourse: schemaOf(course.createCourseSchema),
+        JoinCourse: schemaOf(course.joinCourseSchema),
+        InviteToCourse: schemaOf(course.inviteSchema),
+        CreateAssignment: schemaOf(course.createAssignmentSchema),
+        Submit: schemaOf(course.submitSchema),
+        Comment: schemaOf(course.commentSchema),
+        Decision: schemaOf(course.decisionSchema),
         CreateToken: schemaOf(s.createTokenSchema),
         AdminUpdateUser: schemaOf(s.adminUpdateUserSchema),
         CreateProject: schemaOf(s.createProjectSchema),
