@@ -12,12 +12,13 @@
  */
 import type { MoveContext, PlanChecker, MoveChecker } from "./check";
 import { chainLimits, compileChain, forwardKinematics, type CompiledChain } from "./chain";
-import { clearanceZones, compileCollision, createClearanceScanner, scanClearance, type ClearanceScanner } from "./clearance";
+import { clearanceZones, compileCollision, createClearanceScanner, scanClearanceBounded, type ClearanceScanner } from "./clearance";
 import { createDynamicsWorkspace, gravityEffort, inverseDynamics, type DynamicsWorkspace } from "./dynamics";
 import type { Plan } from "./plan";
 import { limitTolerance, severityOf, type Finding } from "./report";
 import { moveBlend, scalingAt } from "./shapes";
-import { createToolSpeedScanner, scanToolSpeed, type ToolSpeedScanner } from "./toolspeed";
+import { compileReachBounds, linkSpeedBounds, toolAccelerationBound, type ReachBounds } from "./motion-bounds";
+import { createToolSpeedScanner, scanToolSpeedBounded, type ToolSpeedScanner } from "./toolspeed";
 import { formatDurationUp, formatNumber, formatPercent, jointLabel } from "./wording";
 
 /** Everything the arm checks reuse across the moves of one plan. */
@@ -27,6 +28,10 @@ interface ArmState {
   dynamics: DynamicsWorkspace;
   clearance: ClearanceScanner;
   toolSpeed: ToolSpeedScanner;
+  /** Distance bounds for the sample-skipping scans of clearance and tool speed. */
+  reach: ReachBounds;
+  /** Per-link speed bounds (m/s) of the current move, n + 1 values. */
+  linkSpeed: Float64Array;
   rateHz: number;
   /** Sample buffers (stride = chain joints), grown as needed. */
   time: Float64Array;
@@ -59,12 +64,16 @@ function stateOf(plan: Plan): ArmState | null {
   if (!arm.chain) return null;
   const chain = compileChain(arm.chain, arm.joints.map((j) => j.type), plan.payload);
   const n = chain.jointCount;
+  const collision = compileCollision(arm.chain);
+  const travelM = arm.joints.slice(0, n).map((j) => Math.max(Math.abs(j.min), Math.abs(j.max)));
   const state: ArmState = {
     chain,
     n,
     dynamics: createDynamicsWorkspace(chain, arm.joints.slice(0, n).map((j) => j.friction)),
-    clearance: createClearanceScanner(chain, compileCollision(arm.chain), clearanceZones(plan.surfaceMargin ?? 0, plan.keepOut ?? [])),
+    clearance: createClearanceScanner(chain, collision, clearanceZones(plan.surfaceMargin ?? 0, plan.keepOut ?? [])),
     toolSpeed: createToolSpeedScanner(chain),
+    reach: compileReachBounds(chain, collision, travelM),
+    linkSpeed: new Float64Array(n + 1),
     rateHz: arm.controlRateHz,
     time: new Float64Array(0),
     q: new Float64Array(0),
@@ -363,7 +372,11 @@ export const checkClearance: MoveChecker = (context, out) => {
   const s = stateOf(context.plan);
   if (!s) return;
   const count = context.instant ? sampleGoal(s, context) : sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
-  const hits = scanClearance(s.clearance, s.q, s.n, s.time, count);
+  // Links move at most linkSpeed m/s (from the move's peak joint speeds), so samples between two
+  // provably clear ones are skipped; the result equals the full scan (see scanClearanceBounded).
+  // An instant move has one sample and no peak speeds to bound with.
+  const speeds = context.instant ? s.linkSpeed.fill(Infinity) : linkSpeedBounds(s.reach, s.chain, context.peakVelocity, s.linkSpeed);
+  const hits = scanClearanceBounded(s.clearance, s.q, s.n, s.time, count, speeds);
   const margin = context.plan.surfaceMargin ?? 0;
   for (const h of hits) {
     const into =
@@ -411,7 +424,10 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     at = 0;
   } else {
     const count = sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
-    const r = scanToolSpeed(s.toolSpeed, s.q, s.qd, s.n, s.time, count);
+    // The tool speed changes at most accelBound m/s² (from the move's peak joint speeds and
+    // accelerations), so only the stretches that could hold the peak are evaluated sample by sample.
+    const accelBound = toolAccelerationBound(s.reach, s.chain, context.peakVelocity, context.peakAcceleration ?? context.peakVelocity.map(() => Infinity));
+    const r = scanToolSpeedBounded(s.toolSpeed, s.q, s.qd, s.n, s.time, count, accelBound);
     peak = r.peakSpeed;
     at = r.timeS;
   }

@@ -297,6 +297,8 @@ export interface ClearanceScanner {
   readonly buffers: ChainBuffers;
   readonly scratch: ClearanceScratch;
   readonly depths: Float64Array;
+  /** Depths at the coarse samples of {@link scanClearanceBounded}, grown as needed. */
+  coarse: Float64Array;
 }
 
 /** Allocates a scanner for one chain and zone set. */
@@ -309,13 +311,53 @@ export function createClearanceScanner(chain: CompiledChain, model: CollisionMod
     buffers: createChainBuffers(chain),
     scratch: createClearanceScratch(),
     depths: new Float64Array(model.count * (1 + boxes)),
+    coarse: new Float64Array(0),
   };
+}
+
+/** Records the intrusions of one sample (depths already in `scanner.depths`) into `found`, in time order. */
+function recordSample(scanner: ClearanceScanner, found: Map<number, Intrusion>, t: number, toleranceM: number): void {
+  const { model, zones, depths } = scanner;
+  const zonesPer = 1 + zones.boxMin.length / 3;
+  for (let s = 0; s < model.count; s++) {
+    for (let z = 0; z < zonesPer; z++) {
+      const d = depths[s * zonesPer + z];
+      if (!(d > toleranceM)) continue;
+      const key = model.link[s] * zonesPer + z;
+      const hit = found.get(key);
+      if (!hit) {
+        found.set(key, {
+          link: model.link[s],
+          linkName: model.linkNames[model.link[s]],
+          zone: z - 1,
+          zoneName: z === 0 ? "the work surface" : zones.boxNames[z - 1],
+          depthM: d,
+          timeS: t,
+          firstTimeS: t,
+          lastTimeS: t,
+        });
+      } else {
+        if (d > hit.depthM) {
+          hit.depthM = d;
+          hit.timeS = t;
+        }
+        hit.lastTimeS = t;
+      }
+    }
+  }
+}
+
+/** Computes every shape's depths at sample k into `scanner.depths`. */
+function depthsAt(scanner: ClearanceScanner, positions: Float64Array, offset: number): Float64Array {
+  linkFrames(scanner.chain, positions, scanner.buffers.frames, offset);
+  return shapeIntrusions(scanner.model, scanner.zones, scanner.buffers.frames, scanner.depths, scanner.scratch);
 }
 
 /**
  * Scans sampled poses (`positions`, `stride` values per sample, chain joints first) at
  * `times` (s) and returns, per link and zone, the deepest intrusion with its time. Only
- * intrusions deeper than `toleranceM` (default 1e-9 m) count.
+ * intrusions deeper than `toleranceM` (default 1e-9 m) count. Evaluates every sample; see
+ * {@link scanClearanceBounded} for the same result with fewer evaluations.
  */
 export function scanClearance(
   scanner: ClearanceScanner,
@@ -325,38 +367,69 @@ export function scanClearance(
   count: number,
   toleranceM = 1e-9,
 ): Intrusion[] {
-  const { chain, model, zones, buffers, scratch, depths } = scanner;
-  const zonesPer = 1 + zones.boxMin.length / 3;
   const found = new Map<number, Intrusion>();
   for (let k = 0; k < count; k++) {
-    linkFrames(chain, positions, buffers.frames, k * stride);
-    shapeIntrusions(model, zones, buffers.frames, depths, scratch);
-    for (let s = 0; s < model.count; s++) {
+    depthsAt(scanner, positions, k * stride);
+    recordSample(scanner, found, times[k], toleranceM);
+  }
+  return [...found.values()].sort((p, q) => q.depthM - p.depthM);
+}
+
+/**
+ * The result of {@link scanClearance}, computing only the samples that could intrude. Every
+ * `step`-th sample (and the last) is evaluated first; a shape whose points move at most V m/s
+ * (`linkSpeed[link]`, e.g. from `linkSpeedBounds`) changes its depth by at most V·Δt, so on an
+ * interval between two evaluated samples with depths d₀, d₁ it cannot intrude when
+ * d₀ + d₁ + V·Δt < 0 (derived: the worst point of the interval is where the two cones
+ * d₀ + V·(t − t₀) and d₁ + V·(t₁ − t) meet). For the box–box test, whose negative values are
+ * separations along one axis and so at most the true distance, the same condition keeps the
+ * shapes apart. Intervals that fail the test are evaluated sample by sample, in time order, so
+ * the deepest intrusion, its time and the first and last times are those of the full scan.
+ */
+export function scanClearanceBounded(
+  scanner: ClearanceScanner,
+  positions: Float64Array,
+  stride: number,
+  times: ArrayLike<number>,
+  count: number,
+  linkSpeed: ArrayLike<number>,
+  toleranceM = 1e-9,
+  step = 16,
+): Intrusion[] {
+  const { model, zones } = scanner;
+  const pairs = scanner.depths.length;
+  const zonesPer = 1 + zones.boxMin.length / 3;
+  const coarseCount = count > 0 ? Math.ceil((count - 1) / step) + 1 : 0;
+  if (scanner.coarse.length < coarseCount * pairs) scanner.coarse = new Float64Array(coarseCount * pairs);
+  const coarse = scanner.coarse;
+  const indexOf = (c: number) => Math.min(c * step, count - 1);
+  for (let c = 0; c < coarseCount; c++) coarse.set(depthsAt(scanner, positions, indexOf(c) * stride), c * pairs);
+  const found = new Map<number, Intrusion>();
+  for (let c = 0; c < coarseCount; c++) {
+    const k0 = indexOf(c);
+    scanner.depths.set(coarse.subarray(c * pairs, (c + 1) * pairs));
+    recordSample(scanner, found, times[k0], toleranceM);
+    if (c + 1 >= coarseCount) break;
+    const k1 = indexOf(c + 1);
+    if (k1 - k0 <= 1) continue;
+    const dt = times[k1] - times[k0];
+    let clear = true;
+    for (let s = 0; s < model.count && clear; s++) {
+      const reach = linkSpeed[model.link[s]] * dt;
       for (let z = 0; z < zonesPer; z++) {
-        const d = depths[s * zonesPer + z];
-        if (!(d > toleranceM)) continue;
-        const key = model.link[s] * zonesPer + z;
-        const t = times[k];
-        const hit = found.get(key);
-        if (!hit) {
-          found.set(key, {
-            link: model.link[s],
-            linkName: model.linkNames[model.link[s]],
-            zone: z - 1,
-            zoneName: z === 0 ? "the work surface" : zones.boxNames[z - 1],
-            depthM: d,
-            timeS: t,
-            firstTimeS: t,
-            lastTimeS: t,
-          });
-        } else {
-          if (d > hit.depthM) {
-            hit.depthM = d;
-            hit.timeS = t;
-          }
-          hit.lastTimeS = t;
+        const p = s * zonesPer + z;
+        const d0 = coarse[c * pairs + p], d1 = coarse[(c + 1) * pairs + p];
+        // −Infinity (the base on the surface) stays clear; anything else must be provably apart.
+        if (!(d0 + d1 + reach < 0)) {
+          clear = false;
+          break;
         }
       }
+    }
+    if (clear) continue;
+    for (let k = k0 + 1; k < k1; k++) {
+      depthsAt(scanner, positions, k * stride);
+      recordSample(scanner, found, times[k], toleranceM);
     }
   }
   return [...found.values()].sort((p, q) => q.depthM - p.depthM);

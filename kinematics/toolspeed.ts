@@ -13,11 +13,13 @@ export interface ToolSpeedScanner {
   readonly buffers: ChainBuffers;
   /** 6×n Jacobian scratch. */
   readonly jacobian: Float64Array;
+  /** Speeds at the coarse samples of {@link scanToolSpeedBounded}, grown as needed. */
+  coarse: Float64Array;
 }
 
 /** Allocates a scanner for one chain. */
 export function createToolSpeedScanner(chain: CompiledChain): ToolSpeedScanner {
-  return { chain, buffers: createChainBuffers(chain), jacobian: new Float64Array(6 * chain.jointCount) };
+  return { chain, buffers: createChainBuffers(chain), jacobian: new Float64Array(6 * chain.jointCount), coarse: new Float64Array(0) };
 }
 
 /** Tool-point speed (m/s) at pose `q` with joint velocities `qd` (values from `offset`). */
@@ -65,4 +67,51 @@ export function scanToolSpeed(
     }
   }
   return { peakSpeed, timeS };
+}
+
+/**
+ * The result of {@link scanToolSpeed}, computing only the samples that could hold the peak.
+ * Every `step`-th sample (and the last) is evaluated first; with the tool speed changing by at
+ * most `accelBound` m/s² (e.g. from `toolAccelerationBound`), no sample between two evaluated
+ * ones with speeds v₀, v₁ exceeds (v₀ + v₁ + A·Δt)/2 (derived: the two cones v₀ + A·(t − t₀)
+ * and v₁ + A·(t₁ − t) meet there). Intervals whose bound is below the best speed found so far
+ * are skipped; the others are evaluated sample by sample, and ties go to the earlier sample, so
+ * the peak and its time are exactly those of the full scan.
+ */
+export function scanToolSpeedBounded(
+  s: ToolSpeedScanner,
+  positions: Float64Array,
+  velocities: Float64Array,
+  stride: number,
+  times: ArrayLike<number>,
+  count: number,
+  accelBound: number,
+  step = 16,
+): ToolSpeedPeak {
+  if (count <= 0) return { peakSpeed: 0, timeS: 0 };
+  const coarseCount = Math.ceil((count - 1) / step) + 1;
+  if (s.coarse.length < coarseCount) s.coarse = new Float64Array(coarseCount);
+  const coarse = s.coarse;
+  const indexOf = (c: number) => Math.min(c * step, count - 1);
+  // The full scan starts at 0 and keeps the first sample of a strictly larger speed: same rule here.
+  let peakSpeed = 0, peakK = 0;
+  const visit = (v: number, k: number) => {
+    if (v > peakSpeed || (v === peakSpeed && v > 0 && k < peakK)) {
+      peakSpeed = v;
+      peakK = k;
+    }
+  };
+  for (let c = 0; c < coarseCount; c++) {
+    const k = indexOf(c);
+    coarse[c] = toolSpeedAt(s, positions, velocities, k * stride);
+    visit(coarse[c], k);
+  }
+  for (let c = 0; c + 1 < coarseCount; c++) {
+    const k0 = indexOf(c), k1 = indexOf(c + 1);
+    if (k1 - k0 <= 1) continue;
+    const bound = (coarse[c] + coarse[c + 1] + accelBound * (times[k1] - times[k0])) / 2;
+    if (bound < peakSpeed) continue;
+    for (let k = k0 + 1; k < k1; k++) visit(toolSpeedAt(s, positions, velocities, k * stride), k);
+  }
+  return { peakSpeed, timeS: peakSpeed > 0 ? times[peakK] : times[0] };
 }
