@@ -2,7 +2,7 @@
 import dynamic from "next/dynamic";
 import { useCallback, useDeferredValue, useEffect, useMemo, useReducer, useState, useSyncExternalStore, type ReactNode } from "react";
 import { FindingsPanel, type PanelFinding } from "@/components/findings/findings-panel";
-import { findingTime, worstFirst } from "@/components/findings/finding-time";
+import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import { JointPlots, type PlotMarker } from "@/components/plots/joint-plots";
 import { effortSeries } from "@/components/plots/effort";
 import { SweepChart } from "@/components/plots/sweep-chart";
@@ -12,6 +12,7 @@ import { Skeleton } from "@/components/ui/skeleton";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import { StageErrorBoundary, webglAvailable } from "@/components/viewer/error-boundary";
 import { createPoseScratch, poseAt } from "@/components/viewer/pose-at";
+import { linkSeverityOf } from "@/components/viewer/link-severity";
 import { schematicChain } from "@/components/viewer/schematic-chain";
 import { verdictOf, type Report } from "@/kinematics/report";
 import { scaleToPass } from "@/kinematics/sequence";
@@ -84,8 +85,6 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
   // null during the server render; the stage only mounts in the browser
   const canRender3d = useSyncExternalStore(noSubscribe, webglAvailable, () => null);
 
-  const shapes = useMemo(() => plan.moves.map((m) => m.shape), [plan.moves]);
-
   const jump = useCallback(
     (timeS: number, move: number | null) => {
       playhead.pause();
@@ -98,7 +97,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
   const items: PanelFinding[] = useMemo(
     () =>
       worstFirst(report.findings).map((finding) => {
-        const item: PanelFinding = { finding, timeS: findingTime(finding, timeline, shapes) };
+        const item: PanelFinding = { finding, timeS: findingTimeS(finding, timeline) };
         const m = finding.move;
         if (m !== null && finding.severity === "fault" && (finding.kind === "speed-over" || finding.kind === "accel-over" || finding.kind === "jump")) {
           const safe = ceilToMs(report.moves[m]?.minSafeDuration ?? 0);
@@ -114,7 +113,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
         }
         return item;
       }),
-    [report, timeline, shapes, plan.arm.joints, unit],
+    [report, timeline, plan.arm.joints, unit],
   );
 
   const markers: PlotMarker[] = useMemo(
@@ -122,18 +121,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
     [items],
   );
 
-  const linkSeverity = useMemo(() => {
-    const links = (plan.arm.chain?.joints.length ?? chain.joints.length) + 1;
-    return report.moves.map((m) => {
-      const row: ("caution" | "fault" | null)[] = new Array(links).fill(null);
-      for (const f of m.findings) {
-        if (f.joint === null || f.joint + 1 >= links) continue;
-        const k = f.joint + 1;
-        if (row[k] !== "fault") row[k] = f.severity;
-      }
-      return row;
-    });
-  }, [report, plan.arm.chain, chain]);
+  const linkSeverity = useMemo(() => linkSeverityOf(report.moves, chain), [report, chain]);
 
   const ghosts = useMemo(() => {
     const g: { pose: readonly number[]; label: "start" | "goal" }[] = [{ pose: plan.start, label: "start" }];

@@ -8,6 +8,7 @@ import { VerdictChip } from "@/components/ui/verdict-chip";
 import { shapeNames, type Joint, type Move, type ShapeName } from "@/kinematics/plan";
 import { verdictOf, type MoveReport } from "@/kinematics/report";
 import { ceilToMs, toDisplay, unitLabel, type AngleUnit } from "@/lib/units";
+import { moveFigures } from "./move-figures";
 import { NumberInput } from "./number-input";
 import type { PlanAction, PoseTarget } from "./plan-state";
 
@@ -176,6 +177,7 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
                           <TrashIcon size={13} />
                         </Button>
                       </div>
+                      <MoveFiguresLine index={i} report={report} joints={joints} />
                     </td>
                   </tr>
                 ) : null}
@@ -193,6 +195,18 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
       </div>
       <p aria-live="polite" className="sr-only">{announcement}</p>
     </div>
+  );
+}
+
+/** Peak effort and tool speed of the selected move, from the arm model (nothing without a chain). */
+function MoveFiguresLine({ index, report, joints }: { index: number; report: MoveReport | undefined; joints: readonly Joint[] }) {
+  const { toolSpeed, effort } = moveFigures(report, joints);
+  if (!toolSpeed && !effort) return null;
+  return (
+    <dl className="tabular mt-1 flex flex-wrap gap-x-3 px-0.5 font-mono text-[11px] text-ink-soft" aria-label={`Move ${index} peaks`} data-testid={`move-figures-${index}`}>
+      {effort ? (<div className="flex gap-1"><dt className="font-sans text-ink-faint">Peak effort</dt><dd>{effort}</dd></div>) : null}
+      {toolSpeed ? (<div className="flex gap-1"><dt className="font-sans text-ink-faint">Tool speed</dt><dd>{toolSpeed}</dd></div>) : null}
+    </dl>
   );
 }
 

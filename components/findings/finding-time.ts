@@ -1,33 +1,19 @@
 /**
  * When a finding happens on the plan's timeline, so a click on it can move the stage and the plots
- * there: the moment of the peak for speed and acceleration, the end of the move for a goal outside
- * the travel, the start of an instant move for a jump.
+ * there, and how findings are ordered and named in the panel. The time itself comes from the engine
+ * (`Finding.timeS`: the peak, the jump, the deepest intrusion, …); the bench does not work it out.
  */
 import type { Finding } from "@/kinematics/report";
 import type { Timeline } from "@/kinematics/timeline";
 
-/** τ of the quintic's peak acceleration: s‴ = 0 at τ = (3 − √3)/6 (derived from s = 10τ³ − 15τ⁴ + 6τ⁵). */
-const QUINTIC_PEAK_ACCEL_TAU = (3 - Math.sqrt(3)) / 6;
-
-/** The time (s) on the plan's timeline at which a finding's value occurs. */
-export function findingTime(finding: Finding, timeline: Timeline, shapes: readonly string[]): number {
-  if (finding.move === null) return 0;
-  const i = finding.move;
-  const start = timeline.startS[i] ?? 0;
-  const duration = timeline.durationS[i] ?? 0;
-  switch (finding.kind) {
-    case "range":
-      return start + duration;
-    case "jump":
-      return start;
-    case "accel-over": {
-      const shape = shapes[i];
-      const tau = shape === "quintic" ? QUINTIC_PEAK_ACCEL_TAU : 0; // cubic and trapezoid peak at the start
-      return start + tau * duration;
-    }
-    default:
-      return start + 0.5 * duration; // speed peaks at mid-move for every symmetric shape
-  }
+/**
+ * The time (s from the plan's start) of a finding's worst instant: the engine's `timeS`. Reports
+ * stored before the engine timed its findings (an old submission's report) lack it; those fall back
+ * to the start of the finding's move, which is where the move list would take the playhead.
+ */
+export function findingTimeS(finding: Finding, timeline: Timeline): number {
+  if (finding.timeS !== undefined && Number.isFinite(finding.timeS)) return finding.timeS;
+  return finding.move === null ? 0 : (timeline.startS[finding.move] ?? 0);
 }
 
 const kindRank: Record<Finding["kind"], number> = {

@@ -54,19 +54,23 @@ export function FindingsPanel({ verdict, items, joints, onJump, className }: Fin
                 type="button"
                 onClick={() => onJump(timeS, finding.move)}
                 className="w-full rounded-t-md px-2.5 pt-2 pb-1.5 text-left hover:bg-paper"
-                aria-label={`${look.word}: ${kindWords[finding.kind]}${joint ? `, ${joint.name}` : ""}${finding.move !== null ? `, move ${finding.move}` : ", start pose"}. Show at ${timeS.toFixed(3)} s`}
+                aria-label={`${look.word}: ${kindWords[finding.kind]}${joint ? `, ${joint.name}` : ""}${finding.link ? `, link ${finding.link}` : ""}${finding.move !== null ? `, move ${finding.move}` : ", start pose"}. Show at ${timeS.toFixed(3)} s`}
               >
                 <div className="flex flex-wrap items-center gap-1.5">
                   <VerdictChip verdict={finding.severity} size="sm" />
                   <span className="text-xs font-semibold">{kindWords[finding.kind]}</span>
                   {ratio !== null ? (
                     <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>{(ratio * 100).toFixed(ratio < 10 ? 1 : 0)}% of limit</span>
+                  ) : finding.kind === "clearance" ? (
+                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>{(finding.value * 1000).toFixed(1)} mm deep</span>
                   ) : null}
                 </div>
                 <dl className="tabular mt-1 flex flex-wrap gap-x-3 font-mono text-[11px] text-ink-soft">
                   {joint ? (<><dt className="sr-only">Joint</dt><dd>{joint.name}</dd></>) : null}
                   <dt className="sr-only">Move</dt>
                   <dd>{finding.move === null ? "start pose" : `move ${finding.move}`}</dd>
+                  {finding.link ? (<><dt className="sr-only">Link</dt><dd>link {finding.link}</dd></>) : null}
+                  {finding.zone ? (<><dt className="sr-only">Zone</dt><dd>into {finding.zone}</dd></>) : null}
                   <dt className="sr-only">Time</dt>
                   <dd>t = {timeS.toFixed(3)} s</dd>
                 </dl>

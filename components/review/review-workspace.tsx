@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useMemo, useState, useSyncExternalStore } from "react";
 import { useMutation } from "@tanstack/react-query";
 import { FindingsPanel, type PanelFinding } from "@/components/findings/findings-panel";
-import { findingTime, worstFirst } from "@/components/findings/finding-time";
+import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import { JointPlots, type PlotMarker } from "@/components/plots/joint-plots";
 import { plotRateHz } from "@/components/plots/downsample";
 import { Button } from "@/components/ui/button";
@@ -14,6 +14,7 @@ import { ErrorNote, RailHeading } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import { StageErrorBoundary, webglAvailable } from "@/components/viewer/error-boundary";
+import { linkSeverityOf } from "@/components/viewer/link-severity";
 import { schematicChain } from "@/components/viewer/schematic-chain";
 import type { BenchPlan } from "@/components/editor/plan-state";
 import { Playhead, PlayheadContext, usePlayhead, useSyncTotal } from "@/components/editor/playhead";
@@ -74,18 +75,10 @@ export function ReviewWorkspace({ plan, report, ruleProblems, canReview, viewerR
   const [selectedComment, setSelectedComment] = useState<string | null>(null);
   const canRender3d = useSyncExternalStore(noSubscribe, webglAvailable, () => null);
   const chain = useMemo(() => plan.arm.chain ?? schematicChain(plan.arm.joints), [plan.arm.chain, plan.arm.joints]);
-  const shapes = useMemo(() => plan.moves.map((m) => m.shape), [plan.moves]);
 
-  const items: PanelFinding[] = useMemo(() => worstFirst(report.findings).map((finding) => ({ finding, timeS: findingTime(finding, timeline, shapes) })), [report, timeline, shapes]);
+  const items: PanelFinding[] = useMemo(() => worstFirst(report.findings).map((finding) => ({ finding, timeS: findingTimeS(finding, timeline) })), [report, timeline]);
   const markers: PlotMarker[] = useMemo(() => items.map((i) => ({ timeS: i.timeS, joint: i.finding.joint, severity: i.finding.severity })), [items]);
-  const linkSeverity = useMemo(() => {
-    const links = chain.joints.length + 1;
-    return report.moves.map((m) => {
-      const row: ("caution" | "fault" | null)[] = new Array(links).fill(null);
-      for (const f of m.findings) if (f.joint !== null && f.joint + 1 < links && row[f.joint + 1] !== "fault") row[f.joint + 1] = f.severity;
-      return row;
-    });
-  }, [report, chain]);
+  const linkSeverity = useMemo(() => linkSeverityOf(report.moves, chain), [report, chain]);
   const ghosts = useMemo(() => [{ pose: plan.start, label: "start" as const }], [plan.start]);
 
   const jumpTo = (timeS: number, joint: number | null) => {

@@ -1,8 +1,8 @@
 // @vitest-environment happy-dom
-import { cleanup, fireEvent, render, screen } from "@testing-library/react";
+import { cleanup, fireEvent, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
 import { FindingsPanel, type PanelFinding } from "@/components/findings/findings-panel";
-import { findingTime, worstFirst } from "@/components/findings/finding-time";
+import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import { check } from "@/kinematics/check";
 import { timelineOf } from "@/kinematics/timeline";
 import { demoPlan, pose } from "./helpers";
@@ -24,7 +24,7 @@ function faultyPlan() {
 function items(plan = faultyPlan()): PanelFinding[] {
   const report = check(plan);
   const timeline = timelineOf(plan);
-  return worstFirst(report.findings).map((finding) => ({ finding, timeS: findingTime(finding, timeline, plan.moves.map((m) => m.shape)) }));
+  return worstFirst(report.findings).map((finding) => ({ finding, timeS: findingTimeS(finding, timeline) }));
 }
 
 describe("findings panel", () => {
@@ -46,7 +46,7 @@ describe("findings panel", () => {
     expect(screen.getAllByText("Speed over limit").length).toBeGreaterThan(0);
     const speed = items(plan).find((i) => i.finding.kind === "speed-over" && i.finding.severity === "fault")!;
     expect(screen.getByText(speed.finding.message)).toBeTruthy();
-    expect(screen.getAllByText(/t = 0\.820 s/).length).toBeGreaterThan(0); // mid-move 1: 0.62 + 0.2
+    expect(screen.getAllByText(/t = 0\.820 s/).length).toBeGreaterThan(0); // the engine's timeS: mid-move 1, 0.62 + 0.2
     expect(screen.getByText("3 faults, 1 caution.")).toBeTruthy();
   });
 
@@ -78,6 +78,56 @@ describe("findings panel", () => {
     render(<FindingsPanel verdict="fault" items={list} joints={plan.arm.joints} onJump={() => {}} />);
     fireEvent.click(screen.getByRole("button", { name: "Set move 2 to 0.100 s" }));
     expect(applied).toBe(1);
+  });
+
+  it("places every finding at the engine's timeS, not at a time the bench works out", () => {
+    const plan = faultyPlan();
+    const report = check(plan);
+    const timeline = timelineOf(plan);
+    for (const f of report.findings) {
+      expect(f.timeS).toBeDefined();
+      expect(findingTimeS(f, timeline)).toBe(f.timeS);
+    }
+    // the quintic's acceleration peaks at τ = (3 − √3)/6 of move 1: 0.62 + 0.2113 × 0.4 ≈ 0.705 s
+    const accel = items(plan).find((i) => i.finding.kind === "accel-over")!;
+    expect(accel.timeS).toBeCloseTo(0.62 + ((3 - Math.sqrt(3)) / 6) * 0.4, 6);
+    // a timeS the engine sets is what the panel shows and jumps to, whatever the shape would suggest
+    const moved = items(plan).map((i) => (i.finding.kind === "accel-over" ? { ...i, timeS: findingTimeS({ ...i.finding, timeS: 0.777 }, timeline) } : i));
+    const jumps: number[] = [];
+    render(<FindingsPanel verdict="fault" items={moved} joints={plan.arm.joints} onJump={(t) => jumps.push(t)} />);
+    fireEvent.click(screen.getByRole("button", { name: /Acceleration over limit/ }));
+    expect(jumps).toEqual([0.777]);
+    expect(screen.getByText("t = 0.777 s")).toBeTruthy();
+  });
+
+  it("a stored report without timeS (before the engine timed findings) falls back to its move's start", () => {
+    const plan = faultyPlan();
+    const timeline = timelineOf(plan);
+    const speed = check(plan).findings.find((f) => f.kind === "speed-over" && f.move === 1)!;
+    const { timeS: _dropped, ...old } = speed;
+    void _dropped;
+    expect(findingTimeS(old, timeline)).toBeCloseTo(0.62, 12);
+    expect(findingTimeS({ ...old, move: null }, timeline)).toBe(0);
+  });
+
+  it("a clearance finding names the link, the zone and the depth, and jumps to the deepest instant", () => {
+    // shoulder 1.2 rad and elbow 2.5 rad over 2 s drive the handle into the table mid-move
+    const plan = demoPlan([{ goal: pose(0, 1.2, 2.5), duration: 2 }]);
+    const list = items(plan).filter((i) => i.finding.kind === "clearance");
+    expect(list.length).toBeGreaterThan(0);
+    const worst = list.reduce((a, b) => (b.finding.value > a.finding.value ? b : a));
+    expect(worst.finding.link).toBe("handle");
+    expect(worst.finding.zone).toBe("work surface");
+    const jumps: number[] = [];
+    render(<FindingsPanel verdict="fault" items={list} joints={plan.arm.joints} onJump={(t) => jumps.push(t)} />);
+    const button = screen.getByRole("button", { name: /Clearance, link handle/ });
+    expect(within(button).getByText("link handle")).toBeTruthy();
+    expect(within(button).getAllByText("into work surface").length).toBe(1);
+    expect(within(button).getByText(`${(worst.finding.value * 1000).toFixed(1)} mm deep`)).toBeTruthy();
+    fireEvent.click(button);
+    expect(jumps[0]).toBe(worst.finding.timeS);
+    expect(jumps[0]).toBeGreaterThan(0.5);
+    expect(jumps[0]).toBeLessThan(2);
   });
 
   it("says so plainly when there are no findings", () => {
