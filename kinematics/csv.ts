@@ -3,8 +3,8 @@
  * decimal numbers (rad or m). Parsed from bytes by hand into Float64Arrays (a 50 MB log in well under a
  * second, no string per value); blank lines are allowed only at the end; `\r\n` line ends are accepted.
  *
- * Number parsing: digits are gathered into an integer mantissa m and a decimal exponent e; when m has at
- * most 15 significant digits and |e| ≤ 22, m and 10^|e| are both exact doubles and one correctly rounded
+ * Number parsing: digits are gathered into an integer mantissa m and a decimal exponent e; when m is below
+ * 2^53 and |e| ≤ 22, m and 10^|e| are both exact doubles and one correctly rounded
  * multiplication or division gives the correctly rounded value (Clinger, "How to Read Floating Point
  * Numbers Accurately", 1990 — the fast path). Anything else goes through `Number()`.
  *
@@ -39,6 +39,9 @@ const UPPER_E = 69;
 
 /** Exact powers of ten 10⁰ … 10²² (every one is an exact double). */
 const powersOfTen = Float64Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
+
+/** 2^53: integers below it are exact doubles. */
+const twoTo53 = 9007199254740992;
 
 const textDecoder = new TextDecoder();
 
@@ -123,25 +126,25 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
         negative = c === MINUS;
         c = bytes[++pos];
       }
+      // digits accumulate into the mantissa without counting; the digit and exponent counts come
+      // from the positions, so each digit costs one multiply-add and one compare
       let mantissa = 0;
-      let significant = 0;
-      let digits = 0;
       let exponent = 0;
+      const intStart = pos;
       while (c >= ZERO && c <= NINE) {
-        if (mantissa !== 0 || c !== ZERO) significant++;
         mantissa = mantissa * 10 + (c - ZERO);
-        digits++;
         c = bytes[++pos];
       }
+      let digits = pos - intStart;
       if (c === DOT) {
-        c = bytes[++pos];
+        const fracStart = ++pos;
+        c = bytes[pos];
         while (c >= ZERO && c <= NINE) {
-          if (mantissa !== 0 || c !== ZERO) significant++;
           mantissa = mantissa * 10 + (c - ZERO);
-          digits++;
-          exponent--;
           c = bytes[++pos];
         }
+        digits += pos - fracStart;
+        exponent = fracStart - pos;
       }
       let valid = digits > 0;
       if (valid && (c === LOWER_E || c === UPPER_E)) {
@@ -171,8 +174,10 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
       let value: number;
       if (!valid) {
         value = NaN;
-      } else if (significant <= 15 && exponent >= -22 && exponent <= 22) {
-        // Clinger's fast path: exact mantissa, exact power of ten, one rounding
+      } else if (mantissa < twoTo53 && exponent >= -22 && exponent <= 22) {
+        // Clinger's fast path: exact mantissa, exact power of ten, one rounding. The running
+        // mantissa is exact while it stays below 2^53 (every partial value is then an exact
+        // integer), and once a partial value reaches 2^53 rounding keeps it there or above.
         value = exponent < 0 ? mantissa / powersOfTen[-exponent] : mantissa * powersOfTen[exponent];
         if (negative) value = -value;
       } else {

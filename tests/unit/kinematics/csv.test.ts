@@ -32,6 +32,23 @@ describe("recording CSV parser", () => {
     );
   });
 
+  it("parses full-precision joint values (16–17 digits) and mantissas around 2^53 exactly as Number() does", () => {
+    // the fast path takes mantissas below 2^53; both sides of that edge, with any exponent it accepts or refuses
+    const aroundEdge = fc.tuple(fc.bigInt({ min: 2n ** 53n - 2000n, max: 2n ** 53n + 2000n }), fc.integer({ min: -30, max: 30 }), fc.boolean());
+    const jointValue = fc.double({ min: -4, max: 4, noNaN: true });
+    fc.assert(
+      fc.property(aroundEdge, jointValue, ([m, e, neg], v) => {
+        const a = `${neg ? "-" : ""}${m}e${e}`;
+        const b = String(v);
+        const c = `${neg ? "-" : ""}0.${m}`;
+        const result = parseRecordingCsv(encode(`t,a,b,c\n0,${a},${b},${c}\n`));
+        expect(result.problems).toEqual([]);
+        expect(Array.from(result.recording!.position)).toEqual([Number(a), Number(b), Number(c)]);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
   it("parses fixed-point decimals exactly as Number() does", () => {
     fc.assert(
       fc.property(fc.integer({ min: -99999999, max: 99999999 }), fc.integer({ min: 0, max: 12 }), (digits, scale) => {
