@@ -6,6 +6,7 @@ import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import { JointPlots, type PlotMarker } from "@/components/plots/joint-plots";
 import { effortSeries } from "@/components/plots/effort";
 import { SweepChart } from "@/components/plots/sweep-chart";
+import { pinTarget, PlanReviewComments, type CommentPin } from "@/components/review/plan-review-comments";
 import { Button } from "@/components/ui/button";
 import { RailHeading } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
@@ -46,6 +47,8 @@ export interface BenchProps {
   meta: BenchMeta;
   /** Header actions, given the plan being edited and its live report (save, versions, export). */
   actions?: (state: { plan: BenchPlan; report: Report; replace: (plan: BenchPlan) => void }) => ReactNode;
+  /** The saved plan's id: shows the instructor's comments when its latest submission was returned. */
+  planId?: string;
   /** Called on every edit (for "unsaved changes" state kept by the page). */
   onPlanChange?: (plan: BenchPlan) => void;
 }
@@ -54,7 +57,7 @@ export interface BenchProps {
  * The bench: the plan outline and pose editor on the left, the 3D stage with the timeline strip of
  * plots in the centre, the findings on the right. Every edit re-runs the engine's check in the browser.
  */
-export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) {
+export function Bench({ initialPlan, meta, actions, planId, onPlanChange }: BenchProps) {
   const [plan, dispatch] = useReducer(planReducer, initialPlan);
   const [selected, setSelected] = useState<PoseTarget>(initialPlan.moves.length > 0 ? 0 : "start");
   const [unit, setUnit] = useState<AngleUnit>("deg");
@@ -80,6 +83,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
     return [worst?.joint ?? 0];
   });
 
+  const jointNames = useMemo(() => plan.arm.joints.map((j) => j.name), [plan.arm.joints]);
   const chain = useMemo(() => plan.arm.chain ?? schematicChain(plan.arm.joints), [plan.arm.chain, plan.arm.joints]);
   const schematic = !plan.arm.chain;
   // null during the server render; the stage only mounts in the browser
@@ -92,6 +96,17 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
       setSelected(move === null ? "start" : move);
     },
     [playhead],
+  );
+
+  const jumpToComment = useCallback(
+    (pin: CommentPin) => {
+      const { timeS, move, joint } = pinTarget(pin, timeline.startS, timeline.moveCount, plan.arm.joints.length);
+      playhead.pause();
+      playhead.seek(timeS);
+      if (move !== null) setSelected(move);
+      if (joint !== null) setSelectedJoints((s) => (s.includes(joint) ? s : [joint, ...s]));
+    },
+    [playhead, timeline, plan.arm.joints.length],
   );
 
   const items: PanelFinding[] = useMemo(
@@ -167,6 +182,7 @@ export function Bench({ initialPlan, meta, actions, onPlanChange }: BenchProps) 
         <div className="grid min-h-0 flex-1 grid-cols-1 md:grid-cols-[350px_1fr] xl:grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
           {/* left rail: plan outline and the selected pose */}
           <aside aria-label="Plan outline" className="flex min-h-0 flex-col overflow-y-auto border-r border-line bg-panel md:row-span-2 xl:row-span-1">
+            {planId ? <PlanReviewComments planId={planId} joints={jointNames} onJump={jumpToComment} /> : null}
             <RailHeading
               action={
                 scale ? (

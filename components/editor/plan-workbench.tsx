@@ -22,6 +22,7 @@ export function PlanWorkbench(props: PlanWorkbenchProps) {
   return (
     <Bench
       initialPlan={props.initialPlan}
+      planId={props.planId}
       meta={{ planName: props.planName, armName: props.armName, armRevision: props.armRevision, version }}
       actions={(state) => (
         <PlanActions
