@@ -128,6 +128,12 @@ describe("review flow in the browser", () => {
     await page.goto(reviewPath);
     await expect(page.getByTestId("review-title").textContent()).resolves.toContain("Reach without faults");
     await page.getByTestId("plots").locator("svg").first().waitFor();
+    // pin the comment half a second into the plan (move 0), so the student's click visibly moves the playhead
+    await page.getByLabel("Time on the plan's timeline").evaluate((el: HTMLInputElement) => {
+      Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, "value")!.set!.call(el, "0.5");
+      el.dispatchEvent(new Event("input", { bubbles: true }));
+    });
+    await page.getByText("Pin to move 0 at t = 0.500 s", { exact: false }).waitFor();
     await page.getByRole("textbox", { name: "Comment", exact: true }).fill("The base runs above 70% of its speed here; lengthen this move.");
     await page.getByRole("combobox", { name: "Joint", exact: true }).selectOption({ label: "base" });
     await page.getByRole("button", { name: "Add comment" }).click();
@@ -142,6 +148,18 @@ describe("review flow in the browser", () => {
     await studentPage.goto(linkIn(returned, "/reviews/"));
     await studentPage.getByTestId("comments").getByText("lengthen this move").click();
     await expect(studentPage.getByTestId("review-summary").textContent()).resolves.toContain("Slow the reach down");
+
+    // The student's bench for the returned plan lists the comment; a click moves the playhead to its pin.
+    await studentPage.goto("/projects");
+    await studentPage.getByRole("link", { name: "Fast reach, just long enough", exact: true }).first().click();
+    await studentPage.waitForURL(/\/plans\/[0-9a-f-]{36}$/);
+    const rail = studentPage.getByTestId("review-comments");
+    await rail.getByText("Slow the reach down", { exact: false }).waitFor();
+    await expect(studentPage.getByTestId("playhead-time").textContent()).resolves.toMatch(/^0\.000 \//);
+    await rail.getByRole("button", { name: /lengthen this move/ }).click();
+    await expect(studentPage.getByTestId("playhead-time").textContent()).resolves.toMatch(/^0\.500 \//);
+    await studentPage.waitForTimeout(800);
+    await studentPage.screenshot({ path: `${screenshotDir}/bench-review-comments.png` });
 
     // Resubmit a passing plan; the instructor approves it.
     await studentPage.goto(courseUrl);
