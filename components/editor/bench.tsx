@@ -178,8 +178,8 @@ export function Bench({ initialPlan, meta, actions, planId, onPlanChange }: Benc
           <div className="ml-auto flex flex-wrap items-center gap-2">{actions?.({ plan, report, replace: (p) => dispatch({ type: "replace", plan: p }) })}</div>
         </header>
 
-        {/* 1280 px and up: three rails side by side; a tablet: outline left, stage and findings stacked right */}
-        <div className="grid min-h-0 flex-1 grid-cols-1 md:grid-cols-[350px_1fr] xl:grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
+        {/* 1280 px and up: three rails side by side; a tablet (1024 px): a 400 px outline left, stage, plots and findings stacked right */}
+        <div className="grid min-h-0 flex-1 grid-cols-1 md:grid-cols-[minmax(340px,40%)_1fr] lg:grid-cols-[400px_1fr] xl:grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
           {/* left rail: plan outline and the selected pose */}
           <aside aria-label="Plan outline" className="flex min-h-0 flex-col overflow-y-auto border-r border-line bg-panel md:row-span-2 xl:row-span-1">
             {planId ? <PlanReviewComments planId={planId} joints={jointNames} onJump={jumpToComment} /> : null}
@@ -257,7 +257,7 @@ export function Bench({ initialPlan, meta, actions, planId, onPlanChange }: Benc
 
           {/* centre: the stage and the timeline strip */}
           <section aria-label="Stage and timeline" className="flex min-h-0 min-w-0 flex-col overflow-y-auto">
-            <div className="relative h-[380px] shrink-0 bg-[#f3f1ea] xl:h-auto xl:min-h-[260px] xl:flex-1 xl:shrink" data-testid="stage">
+            <div className="relative h-[min(380px,48vh)] shrink-0 bg-[#f3f1ea] xl:h-auto xl:min-h-[260px] xl:flex-1 xl:shrink" data-testid="stage">
               {canRender3d === false ? (
                 <div role="alert" className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft">
                   This browser offers no WebGL, so the 3D stage is off. The moves, findings and plots still work.

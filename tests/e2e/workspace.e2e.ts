@@ -95,6 +95,19 @@ describe("workspace", () => {
     await page.waitForTimeout(1500);
     await page.screenshot({ path: `${screenshotDir}/workspace-editor.png` });
     await page.getByTestId("stage").screenshot({ path: `${screenshotDir}/workspace-viewer.png` });
+
+    // a tablet: the outline keeps 400 px, every move's duration field fits inside it, the stage sits beside it
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await page.waitForTimeout(500);
+    const rail = (await page.getByRole("complementary", { name: "Plan outline" }).boundingBox())!;
+    expect(rail.width).toBeGreaterThanOrEqual(399);
+    const duration = (await page.getByLabel("Move 3 duration (s)").boundingBox())!;
+    expect(duration.x + duration.width).toBeLessThanOrEqual(rail.x + rail.width);
+    const stageBox = (await page.getByTestId("stage").boundingBox())!;
+    expect(stageBox.x).toBeGreaterThanOrEqual(rail.x + rail.width - 1);
+    expect(stageBox.height).toBeGreaterThan(300);
+    await page.screenshot({ path: `${screenshotDir}/workspace-tablet.png` });
+    await page.setViewportSize({ width: 1280, height: 800 });
     await page.getByTestId("plots").screenshot({ path: `${screenshotDir}/workspace-plots.png` });
 
     // play moves the shared playhead; pause holds it
