@@ -5,7 +5,7 @@
  */
 import { decode } from "next-auth/jwt";
 import { getTokenOwner } from "@/db/queries/tokens";
-import { getActiveUserById } from "@/db/queries/users";
+import { getSessionUserById } from "@/db/queries/users";
 import { sessionCookieName, sessionSecret } from "./auth";
 import { AppError } from "./errors";
 import type { Actor } from "./permissions";
@@ -22,10 +22,25 @@ function readCookie(header: string | null, name: string): string | null {
   return null;
 }
 
+/**
+ * Whether a session JWT was issued no earlier than the last password change. `iat` is in whole
+ * seconds (RFC 7519 §4.1.6 NumericDate, truncated by next-auth), so the change time is truncated too:
+ * a sign-in in the same second as the reset must keep working, at the price of a cookie issued
+ * earlier in that same second also surviving. A cookie without `iat` predates nothing we can
+ * prove, so it is refused.
+ * API tokens are not affected: they are revoked on their own (tokens.ts), not by a password change.
+ */
+function issuedAfterPasswordChange(issuedAtS: number | undefined, passwordChangedAt: Date): boolean {
+  if (issuedAtS === undefined) return false;
+  return issuedAtS >= Math.floor(passwordChangedAt.getTime() / 1000);
+}
+
 /** The actor behind a request, or null when it carries no valid credentials. */
 export async function authenticate(request: Request): Promise<Actor | null> {
   const authorization = request.headers.get("authorization");
   if (authorization !== null) {
+    // API tokens are deliberately not ended by a password change (only session cookies are, below):
+    // they are scripts' credentials, revoked one by one on the tokens page.
     const token = bearerToken(authorization);
     if (!token) return null;
     const owner = await getTokenOwner({ tokenHash: hashToken(token) });
@@ -35,15 +50,19 @@ export async function authenticate(request: Request): Promise<Actor | null> {
   const cookie = readCookie(request.headers.get("cookie"), sessionCookieName());
   if (!secret || !cookie) return null;
   let sub: string | undefined;
+  let issuedAtS: number | undefined;
   try {
     const jwt = await decode({ token: cookie, secret });
     sub = typeof jwt?.sub === "string" ? jwt.sub : undefined;
+    issuedAtS = typeof jwt?.iat === "number" ? jwt.iat : undefined;
   } catch {
     return null;
   }
   if (!sub || !/^[0-9a-f-]{36}$/i.test(sub)) return null;
-  const user = await getActiveUserById({ id: sub });
-  return user ? { userId: user.id, siteRole: user.siteRole, via: "session" } : null;
+  const user = await getSessionUserById({ id: sub });
+  if (!user) return null;
+  if (user.passwordChangedAt && !issuedAfterPasswordChange(issuedAtS, user.passwordChangedAt)) return null;
+  return { userId: user.id, siteRole: user.siteRole, via: "session" };
 }
 
 /**

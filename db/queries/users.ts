@@ -1,10 +1,12 @@
 import "server-only";
-import { and, asc, count, eq, gte, isNull } from "drizzle-orm";
+import { and, asc, count, eq, gt, gte, isNull, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { signInAttempts, users, type SiteRole, type User } from "@/db/schema";
+import { accountTokens, signInAttempts, users, type SiteRole, type User } from "@/db/schema";
 
 /** The public view of a user: never the password hash. */
 export type PublicUser = Pick<User, "id" | "email" | "name" | "siteRole" | "createdAt" | "disabledAt">;
+/** What a session check needs: the public view plus when the password last changed. */
+export type SessionUser = PublicUser & Pick<User, "passwordChangedAt">;
 const publicColumns = {
   id: users.id,
   email: users.email,
@@ -24,6 +26,15 @@ export async function getUserForSignIn({ email }: { email: string }): Promise<Us
 export async function getActiveUserById({ id }: { id: string }): Promise<PublicUser | undefined> {
   const [row] = await db
     .select(publicColumns)
+    .from(users)
+    .where(and(eq(users.id, id), isNull(users.disabledAt)));
+  return row;
+}
+
+/** An enabled user by id with when their password last changed: the session cookie check (lib/auth-request.ts). */
+export async function getSessionUserById({ id }: { id: string }): Promise<SessionUser | undefined> {
+  const [row] = await db
+    .select({ ...publicColumns, passwordChangedAt: users.passwordChangedAt })
     .from(users)
     .where(and(eq(users.id, id), isNull(users.disabledAt)));
   return row;
@@ -98,5 +109,56 @@ export async function countFailedSignInsFromIp({ ip, since }: { ip: string; sinc
     .select({ n: count() })
     .from(signInAttempts)
     .where(and(eq(signInAttempts.ip, ip), eq(signInAttempts.succeeded, false), gte(signInAttempts.attemptedAt, since)));
+  return row?.n ?? 0;
+}
+
+/**
+ * Sets a new password with a one-time reset token, in one transaction: the token is used up, the
+ * hash and `passwordChangedAt` change together (so no moment exists where the new password works
+ * and old sessions still do), and the account's other reset links are voided. Returns the user id,
+ * or undefined for an unknown, used or expired token (or a disabled account).
+ * It lives here rather than next to the other token queries because it is the password's writer.
+ */
+export async function setPasswordWithResetToken({ tokenHash, passwordHash }: { tokenHash: string; passwordHash: string }): Promise<string | undefined> {
+  return db.transaction(async (tx) => {
+    const [token] = await tx
+      .update(accountTokens)
+      .set({ usedAt: new Date() })
+      .where(
+        and(
+          eq(accountTokens.tokenHash, tokenHash),
+          eq(accountTokens.purpose, "password-reset"),
+          isNull(accountTokens.usedAt),
+          gt(accountTokens.expiresAt, sql`now()`),
+        ),
+      )
+      .returning({ userId: accountTokens.userId });
+    if (!token) return undefined;
+    const [user] = await tx
+      .update(users)
+      .set({ passwordHash, passwordChangedAt: sql`now()` })
+      .where(and(eq(users.id, token.userId), isNull(users.disabledAt)))
+      .returning({ id: users.id });
+    // A disabled account keeps its password (its token is spent all the same, which is harmless).
+    if (!user) return undefined;
+    await tx
+      .update(accountTokens)
+      .set({ usedAt: new Date() })
+      .where(and(eq(accountTokens.userId, token.userId), eq(accountTokens.purpose, "password-reset"), isNull(accountTokens.usedAt)));
+    return token.userId;
+  });
+}
+
+/**
+ * Reset e-mails issued to the active account with this (lower-cased) address since a moment:
+ * the reset request limit's count. Each e-mail has exactly one token row, so counting tokens
+ * counts e-mails; an unknown address has none (and is sent nothing anyway).
+ */
+export async function countPasswordResetsSince({ email, since }: { email: string; since: Date }): Promise<number> {
+  const [row] = await db
+    .select({ n: count() })
+    .from(accountTokens)
+    .innerJoin(users, eq(users.id, accountTokens.userId))
+    .where(and(eq(users.email, email.toLowerCase()), eq(accountTokens.purpose, "password-reset"), gte(accountTokens.createdAt, since)));
   return row?.n ?? 0;
 }

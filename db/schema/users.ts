@@ -18,6 +18,11 @@ export const users = pgTable(
     emailVerifiedAt: timestamp("email_verified_at", { withTimezone: true }),
     /** A disabled user can no longer sign in, and their sessions and tokens stop working. */
     disabledAt: timestamp("disabled_at", { withTimezone: true }),
+    /**
+     * When the password last changed (null: never since sign-up). Session cookies issued before
+     * this are refused (lib/auth-request.ts), so a reset signs out every other browser.
+     */
+    passwordChangedAt: timestamp("password_changed_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [

@@ -5,12 +5,14 @@
  */
 import "../api/_env";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { db } from "@/db";
-import { accountTokens } from "@/db/schema";
+import { accountTokens, auditLog } from "@/db/schema";
 import * as resetRoute from "@/app/api/v1/accounts/password-reset/route";
 import * as confirmRoute from "@/app/api/v1/accounts/password-reset/confirm/route";
-import { call, errorOf, makeUser } from "../api/_helpers";
+import * as meRoute from "@/app/api/v1/me/route";
+import { RESET_REQUEST_LIMIT } from "@/lib/mail/account-mail";
+import { call, errorOf, makeUser, tokenFor } from "../api/_helpers";
 import { signIn, startAccountHarness, tokenFromLink, type AccountHarness } from "./_accounts";
 
 let harness: AccountHarness;
@@ -25,6 +27,12 @@ afterAll(async () => {
 
 const requestReset = (email: string, headers?: Record<string, string>) =>
   call(resetRoute.POST, { method: "POST", path: "/api/v1/accounts/password-reset", body: { email }, headers });
+const me = (auth: { cookie: string } | { bearer: string }) => call(meRoute.GET, { path: "/api/v1/me", auth });
+const cookieOf = (session: { name: string; value: string } | undefined) => {
+  if (!session) throw new Error("sign-in gave no session cookie");
+  return { cookie: `${session.name}=${session.value}` };
+};
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const confirm = (body: unknown) => call(confirmRoute.POST, { method: "POST", path: "/api/v1/accounts/password-reset/confirm", body });
 
 /** The token of the reset e-mail number `nth` (0 = the first) sent to this address, waiting for it to arrive. */
@@ -130,5 +138,63 @@ describe("password reset through the API", () => {
     const res = await requestReset("someone@example.com", { origin: "https://elsewhere.example.com" });
     expect(res.status).toBe(403);
     expect(errorOf(res).code).toBe("forbidden:origin");
+  });
+});
+
+describe("password reset hardening", () => {
+  it("ends sessions signed in before the reset (401) while a sign-in after it works, and leaves API tokens alone", async () => {
+    const user = await makeUser("student", "reset-sessions");
+    const before = cookieOf((await signIn(user.email, user.password)).session);
+    const bearer = { bearer: await tokenFor(user.id) };
+    expect((await me(before)).status).toBe(200);
+    // `iat` has whole seconds: let the old session's second pass, so it is strictly before the change.
+    await sleep(1_100);
+
+    expect((await requestReset(user.email)).status).toBe(202);
+    const token = await resetEmailFor(user.email);
+    expect((await confirm({ token, password: "sessions-end-password-9" })).status).toBe(200);
+
+    const stale = await me(before);
+    expect(stale.status).toBe(401);
+    expect(errorOf(stale).code).toBe("unauthorized");
+    // Signed in within the same second as the reset, most likely: must still count as after it.
+    const after = cookieOf((await signIn(user.email, "sessions-end-password-9")).session);
+    const fresh = await me(after);
+    expect(fresh.status).toBe(200);
+    expect((fresh.body as { user: { id: string } }).user.id).toBe(user.id);
+    expect((await me(bearer)).status).toBe(200);
+  });
+
+  it("writes one audit entry for a completed reset, and none for a refused token", async () => {
+    const user = await makeUser("student", "reset-audit");
+    expect((await requestReset(user.email)).status).toBe(202);
+    const token = await resetEmailFor(user.email);
+    const entries = () =>
+      db
+        .select({ actorId: auditLog.actorId, targetType: auditLog.targetType })
+        .from(auditLog)
+        .where(and(eq(auditLog.action, "account.password_reset"), eq(auditLog.targetId, user.id)));
+    expect(await entries()).toEqual([]);
+    expect((await confirm({ token, password: "audited-password-10" })).status).toBe(200);
+    expect((await confirm({ token, password: "audited-password-11" })).status).toBe(400);
+    expect(await entries()).toEqual([{ actorId: user.id, targetType: "user" }]);
+  });
+
+  it(`sends at most ${RESET_REQUEST_LIMIT.perEmail} reset e-mails per address in the window, answering 202 with the same body all the same`, async () => {
+    const user = await makeUser("student", "reset-limit");
+    const answers = [];
+    for (let i = 0; i <= RESET_REQUEST_LIMIT.perEmail; i++) answers.push(await requestReset(user.email));
+    for (const a of answers) expect({ status: a.status, body: a.body }).toEqual({ status: 202, body: { accepted: true } });
+    await resetEmailFor(user.email, RESET_REQUEST_LIMIT.perEmail - 1);
+    await sleep(1_500);
+    const sent = async () => (await harness.mail.messages()).filter((m) => m.to === user.email && m.kind === "password-reset").length;
+    expect(await sent()).toBe(RESET_REQUEST_LIMIT.perEmail);
+
+    // The window slides: once the earlier requests are older than it, the address may ask again.
+    const old = new Date(Date.now() - (RESET_REQUEST_LIMIT.windowMinutes + 1) * 60_000);
+    await db.update(accountTokens).set({ createdAt: old }).where(eq(accountTokens.userId, user.id));
+    expect((await requestReset(user.email)).status).toBe(202);
+    await resetEmailFor(user.email, RESET_REQUEST_LIMIT.perEmail);
+    expect(await sent()).toBe(RESET_REQUEST_LIMIT.perEmail + 1);
   });
 });

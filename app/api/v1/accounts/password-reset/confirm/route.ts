@@ -7,7 +7,8 @@ import { assertSameOrigin } from "@/lib/security";
 
 /**
  * POST /api/v1/accounts/password-reset/confirm — sets a new password with the token from the
- * reset e-mail. The token works once; using it voids the account's other reset links.
+ * reset e-mail. The token works once; using it voids the account's other reset links and ends the
+ * account's existing sessions (lib/auth-request.ts); the reset is written to the audit log.
  */
 export const POST = route(async (request) => {
   const body = await readJson(request, passwordResetConfirmSchema);
