@@ -23,11 +23,11 @@ function readCookie(header: string | null, name: string): string | null {
 }
 
 /**
- * Whether a session JWT was issued no earlier than the last password change. `iat` is in whole
- * seconds (RFC 7519 §4.1.6 NumericDate, truncated by next-auth), so the change time is truncated too:
+ * Whether a session began (its `signedInAt` claim) no earlier than the last password change. The
+ * claim is in whole seconds, like a JWT NumericDate (RFC 7519 §4.1.6), so the change time is truncated too:
  * a sign-in in the same second as the reset must keep working, at the price of a cookie issued
- * earlier in that same second also surviving. A cookie without `iat` predates nothing we can
- * prove, so it is refused.
+ * earlier in that same second also surviving. A cookie without the claim proves nothing, so for an
+ * account whose password has changed it is refused.
  * API tokens are not affected: they are revoked on their own (tokens.ts), not by a password change.
  */
 function issuedAfterPasswordChange(issuedAtS: number | undefined, passwordChangedAt: Date): boolean {
@@ -54,7 +54,8 @@ export async function authenticate(request: Request): Promise<Actor | null> {
   try {
     const jwt = await decode({ token: cookie, secret });
     sub = typeof jwt?.sub === "string" ? jwt.sub : undefined;
-    issuedAtS = typeof jwt?.iat === "number" ? jwt.iat : undefined;
+    // The sign-in time (lib/auth.ts jwt callback), not `iat`, which every session refresh renews.
+    issuedAtS = typeof jwt?.signedInAt === "number" ? jwt.signedInAt : undefined;
   } catch {
     return null;
   }

@@ -105,7 +105,12 @@ export function authOptions(): NextAuthOptions {
     ],
     callbacks: {
       async jwt({ token, user }) {
-        if (user) token.sub = user.id;
+        // `signedInAt` is set once, at sign-in, and carried through every refresh: next-auth gives a
+        // refreshed cookie a new `iat`, so only this claim can tell a session from before a password change.
+        if (user) {
+          token.sub = user.id;
+          token.signedInAt = Math.floor(Date.now() / 1000);
+        }
         return token;
       },
       async session({ session, token }) {

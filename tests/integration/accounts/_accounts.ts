@@ -56,6 +56,16 @@ export async function signIn(email: string, password: string): Promise<{ session
   return { session, redirect: decodeURIComponent(res.redirect ?? "") };
 }
 
+/** Asks next-auth's session endpoint with a session cookie, as a browser tab does; the cookie it sends back. */
+export async function refreshSession(session: Cookie): Promise<Cookie | undefined> {
+  const host = new URL(BASE).host;
+  const res = await AuthHandler({
+    req: { action: "session", method: "GET", origin: BASE, cookies: { [session.name]: session.value }, headers: { host } },
+    options: authOptions(),
+  });
+  return ((res.cookies ?? []) as Cookie[]).find((c) => c.name === sessionCookieName() && c.value !== "");
+}
+
 /** The `token` query parameter of the first link to `path` in an e-mail's text part. */
 export function tokenFromLink(text: string, path: string): string {
   for (const match of text.matchAll(/https?:\/\/\S+/g)) {

@@ -13,7 +13,7 @@ import * as confirmRoute from "@/app/api/v1/accounts/password-reset/confirm/rout
 import * as meRoute from "@/app/api/v1/me/route";
 import { RESET_REQUEST_LIMIT } from "@/lib/mail/account-mail";
 import { call, errorOf, makeUser, tokenFor } from "../api/_helpers";
-import { signIn, startAccountHarness, tokenFromLink, type AccountHarness } from "./_accounts";
+import { refreshSession, signIn, startAccountHarness, tokenFromLink, type AccountHarness } from "./_accounts";
 
 let harness: AccountHarness;
 
@@ -163,6 +163,27 @@ describe("password reset hardening", () => {
     expect(fresh.status).toBe(200);
     expect((fresh.body as { user: { id: string } }).user.id).toBe(user.id);
     expect((await me(bearer)).status).toBe(200);
+  });
+
+  it("does not let a session from before the reset back in through next-auth's session refresh", async () => {
+    const user = await makeUser("student", "reset-refresh");
+    const signedIn = (await signIn(user.email, user.password)).session;
+    if (!signedIn) throw new Error("sign-in gave no session cookie");
+    // A refresh before the reset works and keeps the session usable (the refresh path itself is sound).
+    const refreshedEarly = await refreshSession(signedIn);
+    expect(refreshedEarly).toBeDefined();
+    expect((await me(cookieOf(refreshedEarly))).status).toBe(200);
+    await sleep(1_100);
+
+    expect((await requestReset(user.email)).status).toBe(202);
+    const token = await resetEmailFor(user.email);
+    expect((await confirm({ token, password: "refresh-ends-password-12" })).status).toBe(200);
+
+    // next-auth re-issues the old cookie with a fresh `iat`; the sign-in time inside it is still old.
+    const reissued = await refreshSession(signedIn);
+    expect(reissued).toBeDefined();
+    expect((await me(cookieOf(reissued))).status).toBe(401);
+    expect((await me(cookieOf(signedIn))).status).toBe(401);
   });
 
   it("writes one audit entry for a completed reset, and none for a refused token", async () => {
