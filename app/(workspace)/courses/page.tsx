@@ -3,7 +3,7 @@ import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { listCoursesForUser } from "@/db/queries/courses";
 import { CoursesHome } from "@/components/courses/courses-home";
 import { canSite } from "@/lib/permissions";
-import { requirePageActor } from "../session";
+import { requirePageActor } from "@/lib/page-actor";
 
 export const metadata: Metadata = { title: "Courses" };
 export const dynamic = "force-dynamic";

@@ -7,7 +7,7 @@ import { listProjectsForUser } from "@/db/queries/projects";
 import { CourseView, type ArmChoice, type PlanChoice } from "@/components/courses/course-view";
 import { canCourse } from "@/lib/course-permissions";
 import { appLink } from "@/lib/mail/templates";
-import { requirePageActor } from "../../session";
+import { requirePageActor } from "@/lib/page-actor";
 
 export const metadata: Metadata = { title: "Course" };
 export const dynamic = "force-dynamic";

@@ -7,7 +7,7 @@ import { tightenArm, type RuleProblem } from "@/components/courses/rules";
 import { limitsSchema } from "@/components/courses/schemas";
 import { parsePlan } from "@/kinematics/plan";
 import type { Report } from "@/kinematics/report";
-import { requirePageActor } from "../../session";
+import { requirePageActor } from "@/lib/page-actor";
 
 export const metadata: Metadata = { title: "Review" };
 export const dynamic = "force-dynamic";

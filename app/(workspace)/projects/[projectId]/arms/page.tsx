@@ -4,7 +4,7 @@ import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { getProjectForUser } from "@/db/queries/projects";
 import { ArmsWorkbench, type ArmEntry } from "@/components/arms/arms-workbench";
 import { armSchema } from "@/kinematics/plan";
-import { requirePageActor } from "../../../session";
+import { requirePageActor } from "@/lib/page-actor";
 
 export const metadata: Metadata = { title: "Arms" };
 export const dynamic = "force-dynamic";

@@ -5,7 +5,7 @@ import { getProjectForUser } from "@/db/queries/projects";
 import { listRecordings } from "@/db/queries/recordings";
 import { RecordingsWorkbench, type RecordingArm } from "@/components/recordings/recordings-workbench";
 import { armSchema } from "@/kinematics/plan";
-import { requirePageActor } from "../../../session";
+import { requirePageActor } from "@/lib/page-actor";
 
 export const metadata: Metadata = { title: "Recordings" };
 export const dynamic = "force-dynamic";

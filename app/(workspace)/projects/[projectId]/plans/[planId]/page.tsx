@@ -5,7 +5,7 @@ import { getPlanForUser, getPlanVersion } from "@/db/queries/plans";
 import { PlanWorkbench } from "@/components/editor/plan-workbench";
 import type { BenchPlan } from "@/components/editor/plan-state";
 import { planFormat, planSchema, planVersion } from "@/kinematics/plan";
-import { requirePageActor } from "../../../../session";
+import { requirePageActor } from "@/lib/page-actor";
 
 export const metadata: Metadata = { title: "Plan" };
 export const dynamic = "force-dynamic";
