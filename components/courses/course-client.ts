@@ -1,33 +1,8 @@
 /**
  * Typed fetch wrappers over the course, assignment, submission and review routes for client
- * components, with the same ApiError as lib/api-client.ts; and the TanStack Query keys they use.
+ * components, through the one request helper of lib/api-client.ts; and the TanStack Query keys they use.
  */
-import { ApiError, type FieldIssue } from "@/lib/api-client";
-
-async function send<T>(path: string, init?: RequestInit): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(path, {
-      ...init,
-      headers: { Accept: "application/json", ...(init?.body ? { "Content-Type": "application/json" } : {}) },
-      credentials: "same-origin",
-    });
-  } catch (err) {
-    throw new ApiError(0, "network", `The server could not be reached (${err instanceof Error ? err.message : "network error"}).`);
-  }
-  const text = await res.text();
-  let body: unknown = null;
-  try {
-    body = text ? JSON.parse(text) : null;
-  } catch {
-    body = null;
-  }
-  if (!res.ok) {
-    const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } } | null)?.error;
-    throw new ApiError(res.status, e?.code ?? `http_${res.status}`, e?.message ?? `The server answered ${res.status}.`, e?.issues ?? []);
-  }
-  return body as T;
-}
+import { request as send } from "@/lib/api-client";
 
 const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
 

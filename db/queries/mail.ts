@@ -127,28 +127,3 @@ export async function markEmailVerified({ userId }: { userId: string }): Promise
   await db.update(users).set({ emailVerifiedAt: new Date() }).where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
 }
 
-/** Uses a password-reset token once and sets the new password hash, in one transaction. Returns the user id, or undefined. */
-export async function resetPasswordWithToken({ tokenHash, passwordHash }: { tokenHash: string; passwordHash: string }): Promise<string | undefined> {
-  return db.transaction(async (tx) => {
-    const [row] = await tx
-      .update(accountTokens)
-      .set({ usedAt: new Date() })
-      .where(
-        and(
-          eq(accountTokens.tokenHash, tokenHash),
-          eq(accountTokens.purpose, "password-reset"),
-          isNull(accountTokens.usedAt),
-          gt(accountTokens.expiresAt, sql`now()`),
-        ),
-      )
-      .returning({ userId: accountTokens.userId });
-    if (!row) return undefined;
-    await tx.update(users).set({ passwordHash }).where(and(eq(users.id, row.userId), isNull(users.disabledAt)));
-    // Any other reset links of this user stop working too.
-    await tx
-      .update(accountTokens)
-      .set({ usedAt: new Date() })
-      .where(and(eq(accountTokens.userId, row.userId), eq(accountTokens.purpose, "password-reset"), isNull(accountTokens.usedAt)));
-    return row.userId;
-  });
-}
