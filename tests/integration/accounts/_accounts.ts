@@ -7,31 +7,16 @@ import "../api/_env";
 // next-auth's core handler is not in its package exports; import the installed file itself (the same code the route runs).
 import { AuthHandler } from "../../../node_modules/next-auth/core/index.js";
 import { authOptions, sessionCookieName } from "@/lib/auth";
-import type { MailWorker } from "@/lib/mail/worker";
 import { BASE } from "../api/_helpers";
-import { startMailHarness, type MailHarness } from "../courses/_mail";
+import { startMailWithWorker, type MailWithWorker } from "../courses/_mail";
 
 process.env.NEXTAUTH_URL ??= BASE;
 
 type Cookie = { name: string; value: string };
 
-export type AccountHarness = { mail: MailHarness; stop: () => Promise<void> };
-
-/** The SMTP fake first (the mailer reads SMTP_* on first use), then the real pg-boss worker in this process. */
-export async function startAccountHarness(): Promise<AccountHarness> {
-  const mail = await startMailHarness();
-  const { startMailWorker } = await import("@/lib/mail/worker");
-  const worker: MailWorker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
-  return {
-    mail,
-    stop: async () => {
-      await worker.stop();
-      const { stopBoss } = await import("@/lib/mail/queue");
-      await stopBoss();
-      await mail.close();
-    },
-  };
-}
+/** The real SMTP fake and pg-boss worker, as the course tests start them. */
+export type AccountHarness = MailWithWorker;
+export const startAccountHarness = startMailWithWorker;
 
 /** Signs in through next-auth (CSRF token, credentials callback); the session cookie, or undefined when refused. */
 export async function signIn(email: string, password: string): Promise<{ session: Cookie | undefined; redirect: string }> {

@@ -7,6 +7,7 @@ import { mkdtemp } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { readFakeMailbox, startFakeSmtp, type FakeMessage, type FakeSmtp } from "@/lib/mail/fake-smtp";
+import type { MailWorker } from "@/lib/mail/worker";
 
 export type MailHarness = {
   dir: string;
@@ -53,6 +54,25 @@ export async function startMailHarness(): Promise<MailHarness> {
     },
     close: async () => {
       await fake?.stop();
+    },
+  };
+}
+
+export type MailWithWorker = { mail: MailHarness; worker: MailWorker; stop: () => Promise<void> };
+
+/** The SMTP fake first (the mailer reads SMTP_* on first use), then the real pg-boss worker in this process. */
+export async function startMailWithWorker(): Promise<MailWithWorker> {
+  const mail = await startMailHarness();
+  const { startMailWorker } = await import("@/lib/mail/worker");
+  const worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
+  return {
+    mail,
+    worker,
+    stop: async () => {
+      await worker.stop();
+      const { stopBoss } = await import("@/lib/mail/queue");
+      await stopBoss();
+      await mail.close();
     },
   };
 }

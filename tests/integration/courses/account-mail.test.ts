@@ -8,24 +8,19 @@ import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import { users } from "@/db/schema";
 import { verifyCredentials } from "@/lib/auth";
-import { startMailHarness, type MailHarness } from "./_mail";
+import { startMailWithWorker, type MailHarness, type MailWithWorker } from "./_mail";
 import { makeUser } from "../api/_helpers";
-import type { MailWorker } from "@/lib/mail/worker";
 
 let mail: MailHarness;
-let worker: MailWorker;
+let harness: MailWithWorker;
 
 beforeAll(async () => {
-  mail = await startMailHarness();
-  const { startMailWorker } = await import("@/lib/mail/worker");
-  worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
+  harness = await startMailWithWorker();
+  mail = harness.mail;
 });
 
 afterAll(async () => {
-  await worker?.stop();
-  const { stopBoss } = await import("@/lib/mail/queue");
-  await stopBoss();
-  await mail?.close();
+  await harness?.stop();
 });
 
 function tokenFrom(text: string, path: string): string {

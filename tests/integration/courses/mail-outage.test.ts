@@ -10,26 +10,21 @@ import { db } from "@/db";
 import { queueMail } from "@/db/queries/mail";
 import { mailOutbox, submissions } from "@/db/schema/courses";
 import { messageIdFor } from "@/lib/mail/transport";
-import { startMailHarness, type MailHarness } from "./_mail";
+import { startMailWithWorker, type MailHarness, type MailWithWorker } from "./_mail";
 import { baseMovePlan, courseWithAssignment, studentPlan } from "./_fixtures";
 import { call, makeUser, sessionCookieFor } from "../api/_helpers";
 import * as submitRoute from "@/app/api/v1/assignments/[id]/submissions/route";
-import type { MailWorker } from "@/lib/mail/worker";
 
 let mail: MailHarness;
-let worker: MailWorker;
+let harness: MailWithWorker;
 
 beforeAll(async () => {
-  mail = await startMailHarness();
-  const { startMailWorker } = await import("@/lib/mail/worker");
-  worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
+  harness = await startMailWithWorker();
+  mail = harness.mail;
 });
 
 afterAll(async () => {
-  await worker?.stop();
-  const { stopBoss } = await import("@/lib/mail/queue");
-  await stopBoss();
-  await mail?.close();
+  await harness?.stop();
 });
 
 async function waitUntil<T>(read: () => Promise<T>, ok: (v: T) => boolean, timeoutMs = 20_000): Promise<T> {

@@ -9,7 +9,7 @@ import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import { auditLog } from "@/db/schema";
 import { mailOutbox } from "@/db/schema/courses";
-import { startMailHarness, type MailHarness } from "./_mail";
+import { startMailWithWorker, type MailHarness, type MailWithWorker } from "./_mail";
 import { baseMovePlan, demoArmRevision, studentPlan } from "./_fixtures";
 import { call, makeUser, sessionCookieFor, type TestUser } from "../api/_helpers";
 import * as coursesRoute from "@/app/api/v1/courses/route";
@@ -23,19 +23,17 @@ import * as submissionRoute from "@/app/api/v1/submissions/[id]/route";
 import * as queueRoute from "@/app/api/v1/reviews/route";
 import * as commentsRoute from "@/app/api/v1/reviews/[id]/comments/route";
 import * as decisionRoute from "@/app/api/v1/reviews/[id]/decision/route";
-import type { MailWorker } from "@/lib/mail/worker";
 
 let mail: MailHarness;
-let worker: MailWorker;
+let harness: MailWithWorker;
 let instructor: TestUser;
 let student: TestUser;
 let asInstructor: { cookie: string };
 let asStudent: { cookie: string };
 
 beforeAll(async () => {
-  mail = await startMailHarness();
-  const { startMailWorker } = await import("@/lib/mail/worker");
-  worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
+  harness = await startMailWithWorker();
+  mail = harness.mail;
   instructor = await makeUser("instructor");
   student = await makeUser("student");
   asInstructor = { cookie: await sessionCookieFor(instructor.id) };
@@ -43,10 +41,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  await worker?.stop();
-  const { stopBoss } = await import("@/lib/mail/queue");
-  await stopBoss();
-  await mail?.close();
+  await harness?.stop();
 });
 
 type Body = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
