@@ -4,6 +4,6 @@
  */
 export async function register(): Promise<void> {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
-  const { env } = await import("./lib/env");
+  const { env } = await import("./lib/server/env");
   env();
 }

@@ -3,7 +3,7 @@
  * an access check — route handlers authenticate and authorise every request themselves.
  */
 import { NextResponse, type NextRequest } from "next/server";
-import { securityHeaders } from "@/lib/security";
+import { securityHeaders } from "@/lib/server/security";
 
 export function proxy(_request: NextRequest) {
   const response = NextResponse.next();

@@ -3,7 +3,7 @@ import Image from "next/image";
 import Link from "next/link";
 import "./globals.css";
 import { SignOutButton } from "@/components/site/sign-out-button";
-import { optionalPageUser } from "@/lib/page-actor";
+import { optionalPageUser } from "@/lib/server/page-actor";
 import { mono, sans } from "./fonts";
 
 export const metadata: Metadata = {

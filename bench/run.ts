@@ -11,12 +11,7 @@ import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "no
 import { cpus } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { check } from "../kinematics/check";
-import { formatRecordingCsv, parseRecordingCsv } from "../kinematics/csv";
-import { parseArm, parsePlan, type Arm, type Plan } from "../kinematics/plan";
-import { samplePlan } from "../kinematics/sample";
-import { planFromPoses } from "../kinematics/sequence";
-import { repairStream, streamCheck, type Recording } from "../kinematics/stream";
+import { check, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type Plan, samplePlan, planFromPoses, repairStream, streamCheck, type Recording } from "../kinematics";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, "..");

@@ -9,19 +9,7 @@
  * Exit codes: 0 success (ik: reachable), 1 ik unreachable, 2 bad input or usage (one line per problem).
  */
 import { readFileSync } from "node:fs";
-import { armDescriptionSchema } from "../kinematics/arm-model";
-import {
-  armFromDescription,
-  chainLimits,
-  compileChain,
-  createChainBuffers,
-  forwardKinematics,
-  type CompiledChain,
-} from "../kinematics/chain";
-import { solveIk } from "../kinematics/ik";
-import { rotationRows } from "../kinematics/mat4";
-import { describeIssues, parseArm, type Arm } from "../kinematics/plan";
-import { parseUrdf } from "../kinematics/urdf";
+import { armDescriptionSchema, armFromDescription, chainLimits, compileChain, createChainBuffers, forwardKinematics, type CompiledChain, solveIk, rotationRows, describeIssues, parseArm, type Arm, parseUrdf } from "../kinematics";
 
 /** Where the commands write (the same shape as the dispatcher's). */
 export interface ArmIo {

@@ -6,12 +6,7 @@
  * line per problem on stderr) or a usage error.
  */
 import { readFileSync, writeFileSync } from "node:fs";
-import { check } from "../kinematics/check";
-import { describeRecordingProblem, formatRecordingCsv, parseRecordingCsv } from "../kinematics/csv";
-import { parseArm, parsePlan, type Arm, type InputProblem } from "../kinematics/plan";
-import type { Report, Verdict } from "../kinematics/report";
-import { alignRecording, repairStream, streamCheck, validateRecording, type StreamReport } from "../kinematics/stream";
-import { formatNumber, formatQuantity } from "../kinematics/wording";
+import { check, describeRecordingProblem, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type Report, type Verdict, alignRecording, repairStream, streamCheck, validateRecording, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands"; // arm model (issue 4): arm import, fk, ik
 import { exportFormatOf, hasExportBlock, recordedVerdict, verifyCsvChecksum, verifyJsonChecksum } from "./export-checksum"; // exports (issue 5)
 

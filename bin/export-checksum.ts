@@ -3,7 +3,7 @@
  * `jointproof verify EXPORT.json|EXPORT.csv`. Node-only (node:crypto), so it lives in bin/, not in
  * the engine.
  *
- * The rules are the export format's (lib/api-export.ts), restated here because the checker must
+ * The rules are the export format's (lib/server/export.ts), restated here because the checker must
  * verify files on machines that have only the checkout's engine and CLI:
  * - JSON: `export.sha256` is the hex SHA-256 (FIPS 180-4) of the UTF-8 bytes of `JSON.stringify` of
  *   the whole document without `export.sha256`, keys in file order.

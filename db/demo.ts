@@ -3,8 +3,8 @@
  * number here is made up for the demo. db/seed.ts writes it; `npm start` prints the sign-ins.
  * Fixed ids keep the seed idempotent: a second run updates the same rows.
  */
-import armH from "../kinematics/arms/bench-arm-h.json";
-import armL from "../kinematics/arms/bench-arm-l.json";
+import armH from "../kinematics/arm/presets/bench-arm-h.json";
+import armL from "../kinematics/arm/presets/bench-arm-l.json";
 import type { MemberRole, ProjectKind } from "./schema/projects";
 import type { SiteRole } from "./schema/users";
 
@@ -70,7 +70,7 @@ export const demoProjects: DemoProject[] = [
 ];
 
 /**
- * The two built-in demo arms, designed for this demo (kinematics/arms/*.json, shared with the
+ * The two built-in demo arms, designed for this demo (kinematics/arm/presets/*.json, shared with the
  * engine's tests): one six-joint arm with a gripper joint, in a light variant carrying a handle for
  * guiding by hand and a heavier one carrying a parallel gripper. Each file is the `arm` object of a
  * plan document.

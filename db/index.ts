@@ -1,6 +1,6 @@
 import { drizzle, type NodePgDatabase } from "drizzle-orm/node-postgres";
 import { Pool } from "pg";
-import { env } from "@/lib/env";
+import { env } from "@/lib/server/env";
 import * as schema from "./schema";
 
 export type Db = NodePgDatabase<typeof schema>;

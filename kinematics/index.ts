@@ -5,27 +5,33 @@
  *
  * @module
  */
-export * from "./plan";
-export * from "./shapes";
-export * from "./report";
-export * from "./timeline";
-export * from "./peaks";
-export * from "./check";
-export * from "./sample";
-export * from "./sequence";
-export * from "./stream";
-export * from "./csv";
-export * from "./wording";
+export * from "./plan/plan";
+export * from "./motion/shapes";
+export * from "./check/report";
+export * from "./motion/timeline";
+export * from "./motion/peaks";
+export * from "./check/check";
+export * from "./motion/sample";
+export * from "./motion/sequence";
+export * from "./recordings/stream";
+export * from "./recordings/csv";
+export * from "./check/wording";
 // The arm model (issue 4): chain, forward and inverse kinematics, DH and URDF import, the arm
 // checks, dynamics, clearance and tool speed. All pure TypeScript; urdf uses fast-xml-parser,
 // which runs in the browser.
-export * from "./arm-model";
-export * from "./mat4";
-export * from "./chain";
-export * from "./ik";
-export * from "./urdf";
-export * from "./dh";
-export * from "./arm-checks";
-export * from "./dynamics";
-export * from "./clearance";
-export * from "./toolspeed";
+export * from "./plan/arm-model";
+export * from "./arm/mat4";
+export * from "./arm/chain";
+export * from "./arm/ik";
+export * from "./arm/urdf";
+export * from "./arm/dh";
+export * from "./check/types";
+export * from "./check/checkers";
+export * from "./check/joint-checks";
+export * from "./check/arm-state";
+export * from "./check/effort";
+export * from "./check/clearance";
+export * from "./check/tool-speed";
+export * from "./arm/dynamics";
+export * from "./arm/clearance";
+export * from "./arm/tool-speed";

@@ -185,7 +185,7 @@ start_fakes() {
   mkdir -p "$JP_FAKES_DIR"
   local logf="$ROOT/.data/fakes-$S3_PORT.log"
   : >"$logf"
-  node --import tsx scripts/fakes.ts >"$logf" 2>&1 &
+  node --import tsx scripts/fakes/start.ts >"$logf" 2>&1 &
   PIDS+=($!)
   local i
   for ((i = 0; i < 120; i++)); do
@@ -197,12 +197,12 @@ start_fakes() {
   die "the local service fakes did not start"
 }
 
-# The mail worker (lib/mail/run-worker.ts) in the background: it sends queued messages with
+# The mail worker (lib/server/mail/run-worker.ts) in the background: it sends queued messages with
 # retry. `react-server` lets `import "server-only"` load outside Next (an empty marker module).
 start_mail_worker() {
   local logf="$1"
   : >"$logf"
-  node --conditions=react-server --import tsx lib/mail/run-worker.ts >"$logf" 2>&1 &
+  node --conditions=react-server --import tsx lib/server/mail/run-worker.ts >"$logf" 2>&1 &
   PIDS+=($!)
   local i
   for ((i = 0; i < 120; i++)); do

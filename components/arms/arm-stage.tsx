@@ -5,8 +5,7 @@ import { Skeleton } from "@/components/ui/skeleton";
 import { Playhead, PlayheadContext } from "@/components/editor/playhead";
 import { StageErrorBoundary } from "@/components/viewer/error-boundary";
 import { schematicChain } from "@/components/viewer/schematic-chain";
-import type { Arm } from "@/kinematics/plan";
-import { timelineOf } from "@/kinematics/timeline";
+import { type Arm, timelineOf } from "@/kinematics";
 
 const Stage = dynamic(() => import("@/components/viewer/stage"), { ssr: false, loading: () => <Skeleton className="h-full w-full rounded-none" /> });
 

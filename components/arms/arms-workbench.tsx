@@ -7,11 +7,9 @@ import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
-import { armFromDescription } from "@/kinematics/chain";
-import { armDocumentSchema, describeIssues, type Arm } from "@/kinematics/plan";
-import { parseUrdf } from "@/kinematics/urdf";
-import { api } from "@/lib/api-client";
-import { displayDigits, fromDisplay, toDisplay, unitLabel } from "@/lib/units";
+import { armFromDescription, armDocumentSchema, describeIssues, type Arm, parseUrdf } from "@/kinematics";
+import { api } from "@/lib/client/api-client";
+import { displayDigits, fromDisplay, toDisplay, unitLabel } from "@/lib/shared/units";
 import { ArmStage } from "./arm-stage";
 
 export interface ArmEntry {

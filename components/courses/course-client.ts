@@ -1,8 +1,8 @@
 /**
  * Typed fetch wrappers over the course, assignment, submission and review routes for client
- * components, through the one request helper of lib/api-client.ts; and the TanStack Query keys they use.
+ * components, through the one request helper of lib/client/api-client.ts; and the TanStack Query keys they use.
  */
-import { request as send } from "@/lib/api-client";
+import { request as send } from "@/lib/client/api-client";
 
 const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
 

@@ -8,7 +8,7 @@ import { SelectField, TextAreaField, TextField } from "@/components/ui/field";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { api, ApiError } from "@/lib/api-client";
+import { api, ApiError } from "@/lib/client/api-client";
 import { courseApi } from "./course-client";
 
 export type ArmChoice = { revisionId: string; label: string };

@@ -7,7 +7,7 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextField } from "@/components/ui/field";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
-import { ApiError } from "@/lib/api-client";
+import { ApiError } from "@/lib/client/api-client";
 import { courseApi } from "./course-client";
 
 export type CourseRow = { id: string; title: string; term: string; role: "instructor" | "student"; joinCode: string | null };

@@ -4,9 +4,7 @@
  * engine does not know (required arm revision, start pose, goal poses). Pure: the server runs it at
  * submission time, the student's editor can run the same to preview.
  */
-import { check } from "@/kinematics/check";
-import type { Arm, Plan } from "@/kinematics/plan";
-import type { Report } from "@/kinematics/report";
+import { check, type Arm, type Plan, type Report } from "@/kinematics";
 import type { Limits } from "./schemas";
 
 /** One assignment rule the plan does not meet. */

@@ -15,9 +15,8 @@ import { StageErrorBoundary, webglAvailable } from "@/components/viewer/error-bo
 import { createPoseScratch, poseAt } from "@/components/viewer/pose-at";
 import { linkSeverityOf } from "@/components/viewer/link-severity";
 import { schematicChain } from "@/components/viewer/schematic-chain";
-import { verdictOf, type Report } from "@/kinematics/report";
-import { scaleToPass } from "@/kinematics/sequence";
-import { ceilToMs, formatJointValue, type AngleUnit } from "@/lib/units";
+import { verdictOf, type Report, scaleToPass } from "@/kinematics";
+import { ceilToMs, formatJointValue, type AngleUnit } from "@/lib/shared/units";
 import { CartesianGoal } from "./cartesian-goal";
 import { runLiveCheck } from "./live-check";
 import { useFullCheck } from "./use-full-check";

@@ -1,10 +1,7 @@
 "use client";
 import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
-import type { ArmChain } from "@/kinematics/arm-model";
-import { compileChain, createChainBuffers, forwardKinematics } from "@/kinematics/chain";
-import { solveIk } from "@/kinematics/ik";
-import type { Joint } from "@/kinematics/plan";
+import { type ArmChain, compileChain, createChainBuffers, forwardKinematics, solveIk, type Joint } from "@/kinematics";
 import { NumberInput } from "./number-input";
 
 export interface CartesianGoalProps {

@@ -3,8 +3,7 @@
  * The full live check off the main thread: the arm model's checks (effort along the sampled moves,
  * clearance, tool speed) take tens of milliseconds on a plan of a few seconds, more than a frame.
  */
-import { check } from "@/kinematics/check";
-import type { Plan } from "@/kinematics/plan";
+import { check, type Plan } from "@/kinematics";
 
 export interface CheckRequest {
   id: number;

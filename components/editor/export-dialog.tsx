@@ -4,8 +4,8 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { SelectField } from "@/components/ui/field";
 import { CautionIcon } from "@/components/ui/icons";
-import { api } from "@/lib/api-client";
-import { SAFETY_POINTS, SAFETY_SHORT } from "@/lib/safety";
+import { api } from "@/lib/client/api-client";
+import { SAFETY_POINTS, SAFETY_SHORT } from "@/lib/shared/safety";
 
 /** The file name the export route gives a download (kept in step with its Content-Disposition). */
 export function exportFileName(planName: string, version: number, format: "json" | "csv"): string {

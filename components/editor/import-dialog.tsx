@@ -4,7 +4,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { TextAreaField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
-import { parsePlan, type InputProblem } from "@/kinematics/plan";
+import { parsePlan, type InputProblem } from "@/kinematics";
 import type { BenchPlan } from "./plan-state";
 
 export type ImportResult = { ok: true; plan: BenchPlan; note?: string } | { ok: false; problems: InputProblem[] };

@@ -3,10 +3,7 @@
  * (travel, speed, acceleration, jumps: well under a millisecond) and the sampled signals the plots and
  * stage draw. The arm model's checks (effort, clearance, tool speed) run in a worker (use-full-check.ts).
  */
-import { check, checkAcceleration, checkGoalRange, checkSpeed, checkStartRange } from "@/kinematics/check";
-import type { Report } from "@/kinematics/report";
-import { sampleTimeline, type Samples } from "@/kinematics/sample";
-import { timelineOf, type Timeline } from "@/kinematics/timeline";
+import { check, checkAcceleration, checkGoalRange, checkSpeed, checkStartRange, type Report, sampleTimeline, type Samples, timelineOf, type Timeline } from "@/kinematics";
 import { plotRateHz } from "@/components/plots/downsample";
 import type { BenchPlan } from "./plan-state";
 

@@ -4,9 +4,8 @@
  * the largest effort). Both come from the engine's `MoveReport`; nothing is shown for a report from
  * the joint checks alone (no chain, or the full check still running).
  */
-import type { Joint } from "@/kinematics/plan";
-import type { MoveReport } from "@/kinematics/report";
-import { unitLabel } from "@/lib/units";
+import type { Joint, MoveReport } from "@/kinematics";
+import { unitLabel } from "@/lib/shared/units";
 
 export interface MoveFigures {
   /** e.g. `0.412 m/s`, or null when the report has no tool speed. */

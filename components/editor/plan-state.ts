@@ -1,10 +1,9 @@
 /**
  * The bench's editing state: the plan document being edited, as a pure reducer, so every edit is
  * one action that component tests and the page share. Values are stored as the document stores
- * them (radians, metres, seconds); display units live at the UI edge (lib/units.ts).
+ * them (radians, metres, seconds); display units live at the UI edge (lib/shared/units.ts).
  */
-import type { ArmChain, KeepOutBox } from "@/kinematics/arm-model";
-import type { Plan, ShapeName } from "@/kinematics/plan";
+import type { ArmChain, KeepOutBox, Plan, ShapeName } from "@/kinematics";
 
 /** The plan the bench edits: a parsed version-1 document, plus the arm model's optional fields. */
 export type BenchPlan = Plan & {

@@ -2,8 +2,8 @@
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { CopyIcon, HomeIcon } from "@/components/ui/icons";
-import type { Joint } from "@/kinematics/plan";
-import { displayDigits, fromDisplay, toDisplay, unitLabel, type AngleUnit } from "@/lib/units";
+import type { Joint } from "@/kinematics";
+import { displayDigits, fromDisplay, toDisplay, unitLabel, type AngleUnit } from "@/lib/shared/units";
 import { NumberInput } from "./number-input";
 
 export interface PoseEditorProps {

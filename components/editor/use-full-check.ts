@@ -1,7 +1,6 @@
 "use client";
 import { useEffect, useRef, useState } from "react";
-import { check } from "@/kinematics/check";
-import type { Report } from "@/kinematics/report";
+import { check, type Report } from "@/kinematics";
 import type { BenchPlan } from "./plan-state";
 
 type WorkerReply = { id: number; report: Report; elapsedMs: number } | { id: number; error: string };

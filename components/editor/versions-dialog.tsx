@@ -7,9 +7,9 @@ import { ErrorNote } from "@/components/ui/panel";
 import { LoadingBlock } from "@/components/ui/skeleton";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { api } from "@/lib/api-client";
-import type { Change } from "@/lib/api-diff";
-import { queryKeys } from "@/lib/query-keys";
+import { api } from "@/lib/client/api-client";
+import type { Change } from "@/lib/shared/plan-diff";
+import { queryKeys } from "@/lib/client/query-keys";
 
 /** "moves[2].duration" → "move 2 duration"; values shortened for reading. */
 function describeChange(c: Change): string {

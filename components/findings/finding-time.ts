@@ -3,8 +3,7 @@
  * there, and how findings are ordered and named in the panel. The time itself comes from the engine
  * (`Finding.timeS`: the peak, the jump, the deepest intrusion, …); the bench does not work it out.
  */
-import type { Finding } from "@/kinematics/report";
-import type { Timeline } from "@/kinematics/timeline";
+import type { Finding, Timeline } from "@/kinematics";
 
 /**
  * The time (s from the plan's start) of a finding's worst instant: the engine's `timeS`. Reports

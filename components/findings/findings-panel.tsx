@@ -2,8 +2,7 @@
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { verdictLook, VerdictChip } from "@/components/ui/verdict-chip";
-import type { Joint } from "@/kinematics/plan";
-import type { Finding, Verdict } from "@/kinematics/report";
+import type { Joint, Finding, Verdict } from "@/kinematics";
 import { kindWords } from "./finding-time";
 
 /** A finding with what the panel needs to place it in time and offer a fix. */

@@ -2,9 +2,7 @@
  * Joint effort along sampled motion, for the plots: the arm model's recursive Newton–Euler inverse
  * dynamics (kinematics/dynamics.ts) at every sample, gravity, friction and payload included.
  */
-import { compileChain } from "@/kinematics/chain";
-import { createDynamicsWorkspace, inverseDynamics } from "@/kinematics/dynamics";
-import type { Samples } from "@/kinematics/sample";
+import { compileChain, createDynamicsWorkspace, inverseDynamics, type Samples } from "@/kinematics";
 import type { BenchPlan } from "@/components/editor/plan-state";
 
 export interface EffortSeries {

@@ -2,9 +2,7 @@
 import { useMemo } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
-import type { Joint, ShapeName } from "@/kinematics/plan";
-import { timedPeaks } from "@/kinematics/peaks";
-import { moveBlend, shapeId } from "@/kinematics/shapes";
+import { type Joint, type ShapeName, timedPeaks, moveBlend, shapeId } from "@/kinematics";
 
 export interface SweepPoint {
   durationS: number;

@@ -10,7 +10,7 @@ import { PlusIcon } from "@/components/ui/icons";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { api, ApiError } from "@/lib/api-client";
+import { api, ApiError } from "@/lib/client/api-client";
 
 export interface DashboardPlan {
   id: string;

@@ -3,8 +3,7 @@ import { useMemo, useState } from "react";
 import { SafetyCaution } from "@/components/editor/export-dialog";
 import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
-import { formatRecordingCsv } from "@/kinematics/csv";
-import type { Recording } from "@/kinematics/stream";
+import { formatRecordingCsv, type Recording } from "@/kinematics";
 
 /** Export of a repaired recording as CSV, behind the safety caution. */
 export function ExportDialogShell({ recording, fileName, onClose }: { recording: Recording; fileName: string; onClose: () => void }) {

@@ -2,9 +2,8 @@
 import { useMemo } from "react";
 import { CartesianGrid, Legend, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
-import type { Joint } from "@/kinematics/plan";
-import type { Recording, StreamFinding } from "@/kinematics/stream";
-import { displayFactor, unitLabel, type AngleUnit } from "@/lib/units";
+import type { Joint, Recording, StreamFinding } from "@/kinematics";
+import { displayFactor, unitLabel, type AngleUnit } from "@/lib/shared/units";
 import { minMaxIndices } from "@/components/plots/downsample";
 
 /** Floor of the speed chart's log axis, in display units per second. */

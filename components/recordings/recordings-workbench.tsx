@@ -1,5 +1,5 @@
 "use client";
-import { useMutation } from "@tanstack/react-query";
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ExportDialogShell } from "@/components/recordings/export-repaired";
@@ -8,15 +8,10 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip, type VerdictName } from "@/components/ui/verdict-chip";
-import { check } from "@/kinematics/check";
-import { parseRecordingCsv } from "@/kinematics/csv";
-import type { Arm } from "@/kinematics/plan";
-import { planFromPoses, shortestSafeDurations } from "@/kinematics/sequence";
-import { alignRecording, repairStream, streamCheck, validateRecording, type Recording, type RecordingProblem, type StreamReport } from "@/kinematics/stream";
-import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { api, uploadRecording, type RecordingDto } from "@/lib/api-client";
-import { queryKeys } from "@/lib/query-keys";
-import { formatJointValue, type AngleUnit } from "@/lib/units";
+import { check, parseRecordingCsv, type Arm, planFromPoses, shortestSafeDurations, alignRecording, repairStream, streamCheck, validateRecording, type Recording, type RecordingProblem, type StreamReport } from "@/kinematics";
+import { api, uploadRecording, type RecordingDto } from "@/lib/client/api-client";
+import { queryKeys } from "@/lib/client/query-keys";
+import { formatJointValue, type AngleUnit } from "@/lib/shared/units";
 import { readWithProgress, waypointIndices } from "./read-file";
 import { RecordingPlot } from "./recording-plot";
 

@@ -21,10 +21,8 @@ import { Playhead, PlayheadContext, usePlayhead, useSyncTotal } from "@/componen
 import { Transport } from "@/components/editor/transport";
 import type { RuleProblem } from "@/components/courses/rules";
 import { courseApi } from "@/components/courses/course-client";
-import type { Report } from "@/kinematics/report";
-import { sampleTimeline } from "@/kinematics/sample";
-import { timelineOf, type Timeline } from "@/kinematics/timeline";
-import type { AngleUnit } from "@/lib/units";
+import { type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
+import type { AngleUnit } from "@/lib/shared/units";
 
 const Stage = dynamic(() => import("@/components/viewer/stage"), { ssr: false, loading: () => <Skeleton className="h-full w-full rounded-none" /> });
 

@@ -1,7 +1,7 @@
 "use client";
 import { useMemo } from "react";
 import * as THREE from "three";
-import type { ArmChain, CollisionShape } from "@/kinematics/arm-model";
+import type { ArmChain, CollisionShape } from "@/kinematics";
 
 const Y = new THREE.Vector3(0, 1, 0);
 

@@ -2,8 +2,7 @@
  * Which links of the stage's arm to tint, move by move: a joint's finding tints the link that joint
  * drives; a clearance finding tints the link the engine names (`Finding.link`).
  */
-import type { ArmChain } from "@/kinematics/arm-model";
-import type { MoveReport } from "@/kinematics/report";
+import type { ArmChain, MoveReport } from "@/kinematics";
 
 export type LinkSeverity = ("caution" | "fault" | null)[];
 

@@ -2,8 +2,7 @@
  * The pose on a plan's timeline at any time, without allocating (the stage calls it every frame).
  * A time on the boundary between two moves belongs to the later one, as in the engine's sampler.
  */
-import { sampleMoveAt } from "@/kinematics/sample";
-import type { Timeline } from "@/kinematics/timeline";
+import { sampleMoveAt, type Timeline } from "@/kinematics";
 
 export interface PoseScratch {
   velocity: Float64Array;

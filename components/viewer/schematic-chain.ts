@@ -3,8 +3,7 @@
  * schematic with alternating vertical and horizontal axes, so the stage can still show how the joints
  * move. The stage labels it as a schematic; it is never used for clearance or effort.
  */
-import type { ArmChain } from "@/kinematics/arm-model";
-import type { Joint } from "@/kinematics/plan";
+import type { ArmChain, Joint } from "@/kinematics";
 
 const AXES: [number, number, number][] = [[0, 0, 1], [0, 1, 0], [0, 1, 0], [0, 1, 0], [0, 0, 1], [0, 1, 0]];
 const LENGTHS = [0.1, 0.09, 0.28, 0.24, 0.07, 0.06];

@@ -31,7 +31,7 @@ export async function getActiveUserById({ id }: { id: string }): Promise<PublicU
   return row;
 }
 
-/** An enabled user by id with when their password last changed: the session cookie check (lib/auth-request.ts). */
+/** An enabled user by id with when their password last changed: the session cookie check (lib/server/auth-request.ts). */
 export async function getSessionUserById({ id }: { id: string }): Promise<SessionUser | undefined> {
   const [row] = await db
     .select({ ...publicColumns, passwordChangedAt: users.passwordChangedAt })

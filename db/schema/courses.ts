@@ -202,7 +202,7 @@ export const reviewComments = pgTable(
 
 /**
  * The e-mail outbox. A row is written in the same transaction as the action that causes it, so a
- * failing mail server never loses the message; the pg-boss worker (lib/mail/worker.ts) claims the
+ * failing mail server never loses the message; the pg-boss worker (lib/server/mail/worker.ts) claims the
  * row, sends it and marks it sent, which is what makes each message go out once. `dedupeKey`
  * stops the same event from queueing two messages.
  */

@@ -20,7 +20,7 @@ export const users = pgTable(
     disabledAt: timestamp("disabled_at", { withTimezone: true }),
     /**
      * When the password last changed (null: never since sign-up). Session cookies issued before
-     * this are refused (lib/auth-request.ts), so a reset signs out every other browser.
+     * this are refused (lib/server/auth-request.ts), so a reset signs out every other browser.
      */
     passwordChangedAt: timestamp("password_changed_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),

@@ -15,7 +15,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
-import { readFakeMailbox, startFakeSmtp, type FakeMessage, type FakeSmtp } from "@/lib/mail/fake-smtp";
+import { readFakeMailbox, startFakeSmtp, type FakeMessage, type FakeSmtp } from "@/scripts/fakes/smtp";
 import { baseUrl, openBrowser, screenshotDir, type BrowserSession } from "./browser";
 
 const instructor = { email: "ines.varga@example.com", password: "bench-instructor-01" };
@@ -63,7 +63,7 @@ beforeAll(async () => {
     if ((err as NodeJS.ErrnoException).code !== "EADDRINUSE") throw err;
   }
   // A plain node process (not a tsx wrapper), so the PID stopped below is the worker itself.
-  worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "lib/mail/run-worker.ts"], {
+  worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "lib/server/mail/run-worker.ts"], {
     env: { ...process.env, SMTP_HOST: "127.0.0.1", SMTP_PORT: String(smtpPort), MAIL_RETRY_DELAY_S: "1" },
     stdio: "ignore",
   });

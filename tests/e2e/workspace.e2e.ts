@@ -8,9 +8,9 @@ import { join } from "node:path";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { demoPeople } from "@/db/demo";
-import armL from "@/kinematics/arms/bench-arm-l.json";
-import { check } from "@/kinematics/check";
-import { parsePlan } from "@/kinematics/plan";
+import armL from "@/kinematics/arm/presets/bench-arm-l.json";
+import { check } from "@/kinematics";
+import { parsePlan } from "@/kinematics/plan/plan";
 import { baseUrl, openBrowser, screenshotDir, type BrowserSession } from "./browser";
 
 const researcher = demoPeople.find((p) => p.role === "researcher")!;

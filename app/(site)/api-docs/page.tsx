@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { apiOperations } from "@/lib/api-openapi";
+import { apiOperations } from "@/lib/server/openapi";
 
 export const metadata: Metadata = { title: "API reference" };
 

@@ -4,8 +4,8 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
-import { fieldErrors, postAccount } from "@/lib/auth-client";
-import { passwordResetRequestSchema } from "@/lib/auth-schemas";
+import { fieldErrors, postAccount } from "@/lib/client/auth";
+import { passwordResetRequestSchema } from "@/lib/shared/schemas/auth";
 
 export function ForgotPasswordForm({ validMinutes }: { validMinutes: number }) {
   const [errors, setErrors] = useState<Record<string, string>>({});

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { RESET_VALID_MINUTES } from "@/lib/mail/account-mail";
+import { RESET_VALID_MINUTES } from "@/lib/server/mail/account-mail";
 import { ForgotPasswordForm } from "./forgot-password-form";
 
 export const metadata: Metadata = { title: "Forgot your password?" };

@@ -5,8 +5,8 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
-import { fieldErrors, postAccount } from "@/lib/auth-client";
-import { passwordResetConfirmSchema } from "@/lib/auth-schemas";
+import { fieldErrors, postAccount } from "@/lib/client/auth";
+import { passwordResetConfirmSchema } from "@/lib/shared/schemas/auth";
 
 const linkClass = "font-medium text-brand-600 underline underline-offset-2 hover:text-brand-700";
 

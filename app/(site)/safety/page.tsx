@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { SAFETY_POINTS, SAFETY_SHORT } from "@/lib/safety";
+import { SAFETY_POINTS, SAFETY_SHORT } from "@/lib/shared/safety";
 
 export const metadata: Metadata = { title: "Safety" };
 

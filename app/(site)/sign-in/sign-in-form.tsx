@@ -3,7 +3,7 @@
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { signInSchema } from "@/lib/auth-schemas";
+import { signInSchema } from "@/lib/shared/schemas/auth";
 
 export function SignInForm({ next, initialError }: { next: string; initialError: string | null }) {
   const router = useRouter();

@@ -3,7 +3,7 @@
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { signUpSchema } from "@/lib/auth-schemas";
+import { signUpSchema } from "@/lib/shared/schemas/auth";
 
 type FieldErrors = Partial<Record<"email" | "name" | "password" | "siteRole" | "form", string>>;
 

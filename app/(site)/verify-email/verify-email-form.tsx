@@ -4,8 +4,8 @@ import Link from "next/link";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { ErrorNote } from "@/components/ui/panel";
-import { postAccount } from "@/lib/auth-client";
-import { verifyEmailSchema } from "@/lib/auth-schemas";
+import { postAccount } from "@/lib/client/auth";
+import { verifyEmailSchema } from "@/lib/shared/schemas/auth";
 
 type State = { kind: "idle" } | { kind: "pending" } | { kind: "done" } | { kind: "dead" } | { kind: "error"; message: string };
 

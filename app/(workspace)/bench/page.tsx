@@ -1,8 +1,7 @@
 import type { Metadata } from "next";
 import { ScratchBench } from "@/components/editor/scratch-bench";
-import armL from "@/kinematics/arms/bench-arm-l.json";
-import { parseArm } from "@/kinematics/plan";
-import { armChainSchema } from "@/kinematics/arm-model";
+import armL from "@/kinematics/arm/presets/bench-arm-l.json";
+import { parseArm, armChainSchema } from "@/kinematics";
 import { scratchPlan } from "@/components/editor/demo-plan";
 
 export const metadata: Metadata = { title: "Scratch bench" };

@@ -2,8 +2,8 @@ import type { Metadata } from "next";
 import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { listCoursesForUser } from "@/db/queries/courses";
 import { CoursesHome } from "@/components/courses/courses-home";
-import { canSite } from "@/lib/permissions";
-import { requirePageActor } from "@/lib/page-actor";
+import { canSite } from "@/lib/server/permissions";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Courses" };
 export const dynamic = "force-dynamic";

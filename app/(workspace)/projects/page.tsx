@@ -3,7 +3,7 @@ import { listArmsForUser } from "@/db/queries/arms";
 import { listPlansForProject } from "@/db/queries/plans";
 import { listProjectsForUser } from "@/db/queries/projects";
 import { ProjectsDashboard, type DashboardProject } from "@/components/projects/projects-dashboard";
-import { requirePageActor } from "@/lib/page-actor";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Projects" };
 export const dynamic = "force-dynamic";

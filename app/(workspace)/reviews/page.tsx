@@ -3,7 +3,7 @@ import { listOwnSubmissions, listCoursesForUser } from "@/db/queries/courses";
 import { listReviewQueue } from "@/db/queries/reviews";
 import { ReviewQueue } from "@/components/review/review-queue";
 import { queueQuerySchema } from "@/components/courses/schemas";
-import { requirePageActor } from "@/lib/page-actor";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Reviews" };
 export const dynamic = "force-dynamic";

@@ -6,7 +6,7 @@
 import "../api/_env";
 // next-auth's core handler is not in its package exports; import the installed file itself (the same code the route runs).
 import { AuthHandler } from "../../../node_modules/next-auth/core/index.js";
-import { authOptions, sessionCookieName } from "@/lib/auth";
+import { authOptions, sessionCookieName } from "@/lib/server/auth";
 import { BASE } from "../api/_helpers";
 import { startMailWithWorker, type MailWithWorker } from "../courses/_mail";
 

@@ -11,7 +11,7 @@ import { accountTokens, auditLog } from "@/db/schema";
 import * as resetRoute from "@/app/api/v1/accounts/password-reset/route";
 import * as confirmRoute from "@/app/api/v1/accounts/password-reset/confirm/route";
 import * as meRoute from "@/app/api/v1/me/route";
-import { RESET_REQUEST_LIMIT } from "@/lib/mail/account-mail";
+import { RESET_REQUEST_LIMIT } from "@/lib/server/mail/account-mail";
 import { call, errorOf, makeUser, tokenFor } from "../api/_helpers";
 import { refreshSession, signIn, startAccountHarness, tokenFromLink, type AccountHarness } from "./_accounts";
 

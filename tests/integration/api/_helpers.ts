@@ -9,9 +9,9 @@ import { encode } from "next-auth/jwt";
 import { createApiToken } from "@/db/queries/tokens";
 import { createUser } from "@/db/queries/users";
 import type { SiteRole } from "@/db/schema";
-import { sessionCookieName } from "@/lib/auth";
-import { env } from "@/lib/env";
-import { generateToken } from "@/lib/tokens";
+import { sessionCookieName } from "@/lib/server/auth";
+import { env } from "@/lib/server/env";
+import { generateToken } from "@/lib/server/tokens";
 import { demoArms } from "@/db/demo";
 
 export const BASE = env().APP_URL.replace(/\/$/, "");

@@ -16,7 +16,7 @@ describe("the next-auth route at build time", () => {
       expect(typeof route.GET).toBe("function");
       expect(typeof route.POST).toBe("function");
       // The precondition is real: anything that reads the environment at import would have failed here.
-      const { env } = await import("@/lib/env");
+      const { env } = await import("@/lib/server/env");
       expect(() => env()).toThrow(/DATABASE_URL/);
     } finally {
       process.env.DATABASE_URL = saved;

@@ -11,8 +11,8 @@ import * as projects from "@/app/api/v1/projects/route";
 import * as project from "@/app/api/v1/projects/[projectId]/route";
 import * as projectPlans from "@/app/api/v1/projects/[projectId]/plans/route";
 import * as userRoute from "@/app/api/v1/users/[userId]/route";
-import { BAD_CREDENTIALS_MESSAGE, RATE_LIMITED_MESSAGE, SIGN_IN_LIMIT, verifyCredentials } from "@/lib/auth";
-import { hashToken } from "@/lib/tokens";
+import { BAD_CREDENTIALS_MESSAGE, RATE_LIMITED_MESSAGE, SIGN_IN_LIMIT, verifyCredentials } from "@/lib/server/auth";
+import { hashToken } from "@/lib/server/tokens";
 import { BASE, call, demoArm, errorOf, makeUser, sessionCookieFor, tokenFor } from "./_helpers";
 
 describe("API tokens", () => {

@@ -11,7 +11,7 @@ import { createPlan, createPlanVersion } from "@/db/queries/plans";
 import { createProject, upsertMember } from "@/db/queries/projects";
 import { createApiToken } from "@/db/queries/tokens";
 import type { SiteRole } from "@/db/schema";
-import { generateToken } from "@/lib/tokens";
+import { generateToken } from "@/lib/server/tokens";
 import * as accounts from "@/app/api/v1/accounts/route";
 import * as passwordReset from "@/app/api/v1/accounts/password-reset/route";
 import * as passwordResetConfirm from "@/app/api/v1/accounts/password-reset/confirm/route";
@@ -43,7 +43,7 @@ import * as openapi from "@/app/api/v1/openapi.json/route";
 import * as audit from "@/app/api/v1/projects/[projectId]/audit/route";
 import { readFileSync } from "node:fs";
 import { createRecording } from "@/db/queries/recordings";
-import { putObject } from "@/lib/storage";
+import { putObject } from "@/lib/server/storage";
 import { call, demoArm, gentlePlan, makeUser, sessionCookieFor, tokenFor, type Auth, type CallResult, type TestUser } from "./_helpers";
 
 type ActorName = "anonymous" | "student" | "researcher" | "instructor" | "admin" | "token holder";
@@ -79,7 +79,7 @@ async function makeActor(name: ActorName): Promise<Actor> {
 type Fixture = { projectId: string; armId: string; planId: string; hostId: string; spareEmail: string; spareId: string; recordingId: string };
 
 const recordingCsv = `t,${demoArm.description.joints.map((j) => j.name).join(",")}\n0,0,0,0,0,0,0,0.01\n0.01,0,0,0,0,0,0,0.01\n`;
-const urdf = readFileSync("kinematics/arms/bench-arm-l.urdf", "utf8");
+const urdf = readFileSync("kinematics/arm/presets/bench-arm-l.urdf", "utf8");
 
 /** A project the actor stands in `relation` to, with a custom arm and a plan with one version. */
 async function projectFixture(actor: Actor, relation: Relation): Promise<Fixture> {

@@ -14,7 +14,7 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { verifyCsvExport, verifyJsonExport } from "@/lib/api-export";
+import { verifyCsvExport, verifyJsonExport } from "@/lib/server/export";
 import { call, demoArm, errorOf, gentlePlan, jumpPlan, makeUser, tokenFor, type Auth } from "./_helpers";
 
 let auth: Auth;

@@ -7,7 +7,7 @@ import { recordings } from "@/db/schema";
 import * as upload from "@/app/api/v1/projects/[projectId]/recordings/route";
 import * as file from "@/app/api/v1/recordings/[recordingId]/file/route";
 import * as projectsRoute from "@/app/api/v1/projects/route";
-import { env } from "@/lib/env";
+import { env } from "@/lib/server/env";
 import { call, demoArm, errorOf, makeUser, tokenFor, type Auth } from "./_helpers";
 
 let auth: Auth;

@@ -8,7 +8,7 @@ import { describe, expect, it } from "vitest";
 // next-auth's core handler is not in its package exports; import the installed file itself (the same code the route runs).
 import { AuthHandler } from "../../../node_modules/next-auth/core/index.js";
 import * as me from "@/app/api/v1/me/route";
-import { authOptions, sessionCookieName, SIGN_IN_LIMIT } from "@/lib/auth";
+import { authOptions, sessionCookieName, SIGN_IN_LIMIT } from "@/lib/server/auth";
 import { BASE, call, makeUser } from "./_helpers";
 
 type Cookie = { name: string; value: string; options: { httpOnly?: boolean; sameSite?: string; secure?: boolean } };

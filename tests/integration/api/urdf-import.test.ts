@@ -6,12 +6,12 @@ import { db } from "@/db";
 import { armRevisions, arms } from "@/db/schema";
 import * as importRoute from "@/app/api/v1/projects/[projectId]/arms/import/route";
 import * as projectsRoute from "@/app/api/v1/projects/route";
-import { getObject } from "@/lib/storage";
+import { getObject } from "@/lib/server/storage";
 import { call, demoArm, errorOf, makeUser, tokenFor, type Auth } from "./_helpers";
 
 let auth: Auth;
 let projectId: string;
-const urdf = readFileSync("kinematics/arms/bench-arm-l.urdf", "utf8");
+const urdf = readFileSync("kinematics/arm/presets/bench-arm-l.urdf", "utf8");
 
 function post(body: string, query = "", type = "application/xml") {
   return call(importRoute.POST, { method: "POST", path: `/api/v1/projects/${projectId}/arms/import${query}`, params: { projectId }, auth, rawBody: body, headers: { "content-type": type } });

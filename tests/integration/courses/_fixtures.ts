@@ -5,8 +5,8 @@ import { createPlan, createPlanVersion } from "@/db/queries/plans";
 import { createProject } from "@/db/queries/projects";
 import { createAssignment, createCourse, enrolStudent } from "@/db/queries/courses";
 import { armRevisions } from "@/db/schema";
-import { check } from "@/kinematics/check";
-import { planSchema } from "@/kinematics/plan";
+import { check } from "@/kinematics";
+import { planSchema } from "@/kinematics/plan/plan";
 import { demoArm } from "../api/_helpers";
 
 /** Revision 1 of the light demo arm, as seeded. */

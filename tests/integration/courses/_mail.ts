@@ -6,8 +6,8 @@
 import { mkdtemp } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { readFakeMailbox, startFakeSmtp, type FakeMessage, type FakeSmtp } from "@/lib/mail/fake-smtp";
-import type { MailWorker } from "@/lib/mail/worker";
+import { readFakeMailbox, startFakeSmtp, type FakeMessage, type FakeSmtp } from "@/scripts/fakes/smtp";
+import type { MailWorker } from "@/lib/server/mail/worker";
 
 export type MailHarness = {
   dir: string;
@@ -63,14 +63,14 @@ export type MailWithWorker = { mail: MailHarness; worker: MailWorker; stop: () =
 /** The SMTP fake first (the mailer reads SMTP_* on first use), then the real pg-boss worker in this process. */
 export async function startMailWithWorker(): Promise<MailWithWorker> {
   const mail = await startMailHarness();
-  const { startMailWorker } = await import("@/lib/mail/worker");
+  const { startMailWorker } = await import("@/lib/server/mail/worker");
   const worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
   return {
     mail,
     worker,
     stop: async () => {
       await worker.stop();
-      const { stopBoss } = await import("@/lib/mail/queue");
+      const { stopBoss } = await import("@/lib/server/mail/queue");
       await stopBoss();
       await mail.close();
     },

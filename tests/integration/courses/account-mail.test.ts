@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import { users } from "@/db/schema";
-import { verifyCredentials } from "@/lib/auth";
+import { verifyCredentials } from "@/lib/server/auth";
 import { startMailWithWorker, type MailHarness, type MailWithWorker } from "./_mail";
 import { makeUser } from "../api/_helpers";
 
@@ -33,7 +33,7 @@ function tokenFrom(text: string, path: string): string {
 describe("account e-mails", () => {
   it("resets a password once with the token from the e-mail", async () => {
     const user = await makeUser("student", "reset");
-    const { requestPasswordReset, resetPassword } = await import("@/lib/mail/account-mail");
+    const { requestPasswordReset, resetPassword } = await import("@/lib/server/mail/account-mail");
     await requestPasswordReset({ email: user.email });
     const message = await mail.waitFor((m) => m.to === user.email && m.kind === "password-reset");
     expect(message.html).toContain("/reset-password?token=");
@@ -46,7 +46,7 @@ describe("account e-mails", () => {
   });
 
   it("sends nothing for an unknown address", async () => {
-    const { requestPasswordReset } = await import("@/lib/mail/account-mail");
+    const { requestPasswordReset } = await import("@/lib/server/mail/account-mail");
     const before = (await mail.messages()).length;
     await requestPasswordReset({ email: "nobody-here@example.com" });
     await new Promise((r) => setTimeout(r, 1_500));
@@ -55,7 +55,7 @@ describe("account e-mails", () => {
 
   it("verifies an address with the token from the e-mail", async () => {
     const user = await makeUser("student", "verify");
-    const { requestEmailVerification, verifyEmail } = await import("@/lib/mail/account-mail");
+    const { requestEmailVerification, verifyEmail } = await import("@/lib/server/mail/account-mail");
     await requestEmailVerification({ email: user.email });
     const message = await mail.waitFor((m) => m.to === user.email && m.kind === "email-verification");
     const token = tokenFrom(message.text, "/verify-email");

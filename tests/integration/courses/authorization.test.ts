@@ -202,7 +202,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  const { stopBoss } = await import("@/lib/mail/queue");
+  const { stopBoss } = await import("@/lib/server/mail/queue");
   await stopBoss();
 });
 

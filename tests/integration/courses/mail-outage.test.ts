@@ -9,7 +9,7 @@ import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import { queueMail } from "@/db/queries/mail";
 import { mailOutbox, submissions } from "@/db/schema/courses";
-import { messageIdFor } from "@/lib/mail/transport";
+import { messageIdFor } from "@/lib/server/mail/transport";
 import { startMailWithWorker, type MailHarness, type MailWithWorker } from "./_mail";
 import { baseMovePlan, courseWithAssignment, studentPlan } from "./_fixtures";
 import { call, makeUser, sessionCookieFor } from "../api/_helpers";
@@ -81,8 +81,8 @@ describe("mail server outage", () => {
   it("sends a message once when several workers and jobs race for it", async () => {
     const to = `race-${Date.now()}@example.com`;
     const [id] = await queueMail([{ kind: "test", dedupeKey: `race:${to}`, toAddress: to, subject: "Race", text: "One copy.", html: "<p>One copy.</p>" }]);
-    const { sendOutboxRow } = await import("@/lib/mail/worker");
-    const { enqueueMail } = await import("@/lib/mail/queue");
+    const { sendOutboxRow } = await import("@/lib/server/mail/worker");
+    const { enqueueMail } = await import("@/lib/server/mail/queue");
     const outcomes = await Promise.all([
       ...Array.from({ length: 5 }, () => sendOutboxRow(id, false)),
       enqueueMail([id]).then(() => "enqueued"),

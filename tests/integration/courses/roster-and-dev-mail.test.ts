@@ -17,7 +17,7 @@ beforeAll(async () => {
   mail = await startMailHarness();
 });
 afterAll(async () => {
-  const { stopBoss } = await import("@/lib/mail/queue");
+  const { stopBoss } = await import("@/lib/server/mail/queue");
   await stopBoss();
   await mail?.close();
 });
@@ -85,12 +85,12 @@ describe("development mail API", () => {
 
   it("lists what the SMTP fake received when JP_DEV_MAIL=1", async () => {
     Object.assign(process.env, { NODE_ENV: "production", JP_DEV_MAIL: "1" });
-    const { startMailWorker } = await import("@/lib/mail/worker");
+    const { startMailWorker } = await import("@/lib/server/mail/worker");
     const worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
     try {
       const to = `dev-page-${Date.now()}@example.com`;
       const ids = await queueMail([{ kind: "test", dedupeKey: `dev-page:${to}`, toAddress: to, subject: "Shown on the dev page", text: "t", html: "<p>t</p>" }]);
-      const { enqueueMail } = await import("@/lib/mail/queue");
+      const { enqueueMail } = await import("@/lib/server/mail/queue");
       await enqueueMail(ids);
       await mail.waitFor((m) => m.to === to);
       const res = await call(devMailRoute.GET, { path: "/api/dev/mail" });

@@ -1,5 +1,5 @@
 // Issue 5: "export → bin/jointproof check verifies its checksum and finds the same verdict".
-// The exports are produced by the API's own pure functions (lib/api-export.ts; node:crypto only, no
+// The exports are produced by the API's own pure functions (lib/server/export.ts; node:crypto only, no
 // server-only imports), so these tests pin the checker against the real export format.
 import { spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
@@ -7,10 +7,10 @@ import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { check } from "@/kinematics/check";
-import { parsePlan, type Plan } from "@/kinematics/plan";
-import { samplePlan } from "@/kinematics/sample";
-import { buildCsvExport, buildJsonExport, verifyCsvExport, verifyJsonExport, type ExportMeta } from "@/lib/api-export";
+import { check } from "@/kinematics";
+import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { samplePlan } from "@/kinematics/motion/sample";
+import { buildCsvExport, buildJsonExport, verifyCsvExport, verifyJsonExport, type ExportMeta } from "@/lib/server/export";
 
 const root = join(__dirname, "..", "..", "..");
 const bin = join(root, "bin", "jointproof");

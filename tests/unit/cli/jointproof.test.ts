@@ -3,9 +3,9 @@ import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { parseRecordingCsv } from "@/kinematics/csv";
-import { parseArm } from "@/kinematics/plan";
-import { streamCheck } from "@/kinematics/stream";
+import { parseRecordingCsv } from "@/kinematics/recordings/csv";
+import { parseArm } from "@/kinematics/plan/plan";
+import { streamCheck } from "@/kinematics/recordings/stream";
 
 const root = join(__dirname, "..", "..", "..");
 const bin = join(root, "bin", "jointproof");

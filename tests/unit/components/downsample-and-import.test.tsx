@@ -4,7 +4,7 @@ import { importPlanText } from "@/components/editor/import-dialog";
 import { planReducer } from "@/components/editor/plan-state";
 import { minMaxIndices, plotRateHz } from "@/components/plots/downsample";
 import { durationSweep } from "@/components/plots/sweep-chart";
-import { check } from "@/kinematics/check";
+import { check } from "@/kinematics";
 import { demoPlan, pose } from "./helpers";
 
 describe("min–max downsampling for the plots", () => {
@@ -99,9 +99,9 @@ describe("plan editing actions", () => {
 describe("effort series for the plots", () => {
   it("at rest equals the engine's gravity-only effort of that pose, and follows the samples", async () => {
     const { effortSeries } = await import("@/components/plots/effort");
-    const { samplePlan } = await import("@/kinematics/sample");
-    const { compileChain } = await import("@/kinematics/chain");
-    const { createDynamicsWorkspace, gravityEffort } = await import("@/kinematics/dynamics");
+    const { samplePlan } = await import("@/kinematics/motion/sample");
+    const { compileChain } = await import("@/kinematics/arm/chain");
+    const { createDynamicsWorkspace, gravityEffort } = await import("@/kinematics/arm/dynamics");
     const plan = demoPlan([{ goal: pose(0, 0.8, 0.4), duration: 1 }]);
     const samples = samplePlan(plan, { rateHz: 100 });
     const series = effortSeries(plan, samples)!;
@@ -118,7 +118,7 @@ describe("effort series for the plots", () => {
 
   it("is null for an arm without a chain", async () => {
     const { effortSeries } = await import("@/components/plots/effort");
-    const { samplePlan } = await import("@/kinematics/sample");
+    const { samplePlan } = await import("@/kinematics/motion/sample");
     const plan = demoPlan([{ goal: pose(0.5), duration: 1 }]);
     const bare = { ...plan, arm: { ...plan.arm, chain: undefined } };
     expect(effortSeries(bare, samplePlan(bare, { rateHz: 50 }))).toBeNull();

@@ -3,8 +3,8 @@ import { cleanup, fireEvent, render, screen, within } from "@testing-library/rea
 import { afterEach, describe, expect, it } from "vitest";
 import { FindingsPanel, type PanelFinding } from "@/components/findings/findings-panel";
 import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
-import { check } from "@/kinematics/check";
-import { timelineOf } from "@/kinematics/timeline";
+import { check } from "@/kinematics";
+import { timelineOf } from "@/kinematics/motion/timeline";
 import { demoPlan, pose } from "./helpers";
 
 afterEach(cleanup);

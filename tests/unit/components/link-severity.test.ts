@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { linkSeverityOf } from "@/components/viewer/link-severity";
-import { check } from "@/kinematics/check";
+import { check } from "@/kinematics";
 import { demoPlan, pose } from "./helpers";
 
 describe("stage link tint", () => {

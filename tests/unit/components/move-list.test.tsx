@@ -4,7 +4,7 @@ import { useEffect, useReducer, useState } from "react";
 import { afterEach, describe, expect, it } from "vitest";
 import { MoveList } from "@/components/editor/move-list";
 import { planReducer, type BenchPlan, type PoseTarget } from "@/components/editor/plan-state";
-import { check } from "@/kinematics/check";
+import { check } from "@/kinematics";
 import { demoPlan, pose } from "./helpers";
 
 afterEach(cleanup);

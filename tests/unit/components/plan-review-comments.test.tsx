@@ -3,7 +3,7 @@ import { cleanup, fireEvent, render, screen, within } from "@testing-library/rea
 import { afterEach, describe, expect, it } from "vitest";
 import { pinTarget, returnedSubmissionOf, ReviewCommentList, type CommentPin } from "@/components/review/plan-review-comments";
 import type { OwnSubmissionDto, SubmissionDetailDto } from "@/components/courses/course-client";
-import { timelineOf } from "@/kinematics/timeline";
+import { timelineOf } from "@/kinematics/motion/timeline";
 import { demoPlan, pose } from "./helpers";
 
 afterEach(cleanup);

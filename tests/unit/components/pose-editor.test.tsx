@@ -3,7 +3,7 @@ import { cleanup, fireEvent, render, screen } from "@testing-library/react";
 import { useState } from "react";
 import { afterEach, describe, expect, it } from "vitest";
 import { PoseEditor } from "@/components/editor/pose-editor";
-import type { AngleUnit } from "@/lib/units";
+import type { AngleUnit } from "@/lib/shared/units";
 import { demoPlan } from "./helpers";
 
 afterEach(cleanup);

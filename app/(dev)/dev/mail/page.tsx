@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { DevMailbox } from "@/components/review/dev-mailbox";
-import { devMailEnabled, loadDevMail } from "@/lib/mail/dev-mail";
+import { devMailEnabled, loadDevMail } from "@/lib/server/mail/dev-mail";
 
 export const metadata: Metadata = { title: "Development mail" };
 export const dynamic = "force-dynamic";

@@ -5,9 +5,9 @@ import { getCourseForUser, listAssignmentsForUser, listRoster } from "@/db/queri
 import { listPlansForProject } from "@/db/queries/plans";
 import { listProjectsForUser } from "@/db/queries/projects";
 import { CourseView, type ArmChoice, type PlanChoice } from "@/components/courses/course-view";
-import { canCourse } from "@/lib/course-permissions";
-import { appLink } from "@/lib/mail/templates";
-import { requirePageActor } from "@/lib/page-actor";
+import { canCourse } from "@/lib/server/course-permissions";
+import { appLink } from "@/lib/server/mail/templates";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Course" };
 export const dynamic = "force-dynamic";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { getCourseByJoinCode } from "@/db/queries/courses";
 import { JoinCourse } from "@/components/courses/join-course";
 import { joinCourseSchema } from "@/components/courses/schemas";
-import { requirePageActor } from "@/lib/page-actor";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Join a course" };
 export const dynamic = "force-dynamic";

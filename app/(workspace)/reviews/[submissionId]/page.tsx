@@ -5,9 +5,8 @@ import type { BenchPlan } from "@/components/editor/plan-state";
 import { ReviewWorkspace } from "@/components/review/review-workspace";
 import { tightenArm, type RuleProblem } from "@/components/courses/rules";
 import { limitsSchema } from "@/components/courses/schemas";
-import { parsePlan } from "@/kinematics/plan";
-import type { Report } from "@/kinematics/report";
-import { requirePageActor } from "@/lib/page-actor";
+import { parsePlan, type Report } from "@/kinematics";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Review" };
 export const dynamic = "force-dynamic";

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { listApiTokens } from "@/db/queries/tokens";
-import { requirePageActor } from "@/lib/page-actor";
+import { requirePageActor } from "@/lib/server/page-actor";
 import { TokenManager } from "./token-manager";
 
 export const metadata: Metadata = { title: "API tokens" };

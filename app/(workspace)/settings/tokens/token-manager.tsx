@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { createTokenSchema } from "@/lib/api-schemas";
+import { createTokenSchema } from "@/lib/shared/schemas/api";
 
 type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; expiresAt: string | null; revokedAt: string | null };
 

@@ -1,6 +1,6 @@
 import NextAuth from "next-auth";
 import type { NextRequest } from "next/server";
-import { authOptions } from "@/lib/auth";
+import { authOptions } from "@/lib/server/auth";
 
 /** The App Router's second argument to a catch-all route handler. */
 type Context = { params: Promise<{ nextauth: string[] }> };

@@ -1,6 +1,6 @@
-import { json, route } from "@/lib/api";
-import { AppError } from "@/lib/errors";
-import { devMailEnabled, loadDevMail } from "@/lib/mail/dev-mail";
+import { json, route } from "@/lib/server/route";
+import { AppError } from "@/lib/server/errors";
+import { devMailEnabled, loadDevMail } from "@/lib/server/mail/dev-mail";
 
 export const dynamic = "force-dynamic";
 

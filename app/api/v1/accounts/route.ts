@@ -1,11 +1,11 @@
 import bcrypt from "bcryptjs";
 import { recordAudit } from "@/db/queries/audit";
 import { createUser } from "@/db/queries/users";
-import { json, readJson, route } from "@/lib/api";
-import { signUpSchema } from "@/lib/api-schemas";
-import { AppError } from "@/lib/errors";
-import { requestEmailVerification } from "@/lib/mail/account-mail";
-import { assertSameOrigin } from "@/lib/security";
+import { json, readJson, route } from "@/lib/server/route";
+import { signUpSchema } from "@/lib/shared/schemas/api";
+import { AppError } from "@/lib/server/errors";
+import { requestEmailVerification } from "@/lib/server/mail/account-mail";
+import { assertSameOrigin } from "@/lib/server/security";
 
 /**
  * POST /api/v1/accounts — sign up (student or researcher). The form then signs in through next-auth.

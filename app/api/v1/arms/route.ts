@@ -1,7 +1,7 @@
 import { listArmsForUser } from "@/db/queries/arms";
-import { json, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeSite } from "@/lib/permissions";
+import { json, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeSite } from "@/lib/server/permissions";
 
 /** GET /api/v1/arms — the built-in arms and the custom arms of the caller's projects. */
 export const GET = route(async (request) => {

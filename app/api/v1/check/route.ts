@@ -1,8 +1,8 @@
-import { json, readJson, route } from "@/lib/api";
-import { checkPlan } from "@/lib/api-check";
-import { checkPlanSchema } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeSite } from "@/lib/permissions";
+import { json, readJson, route } from "@/lib/server/route";
+import { checkPlan } from "@/lib/server/check";
+import { checkPlanSchema } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeSite } from "@/lib/server/permissions";
 
 /** POST /api/v1/check — checks a plan document and returns the report; nothing is stored. */
 export const POST = route(async (request) => {

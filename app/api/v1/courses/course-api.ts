@@ -7,9 +7,9 @@ import "server-only";
 import { getAssignmentForUser, getCourseForUser, type AssignmentForUser, type CourseForUser } from "@/db/queries/courses";
 import type { OutboxInput } from "@/db/queries/mail";
 import { getSubmissionForUser, type SubmissionForUser } from "@/db/queries/reviews";
-import type { Actor } from "@/lib/permissions";
-import { AppError } from "@/lib/errors";
-import type { MailContent } from "@/lib/mail/templates";
+import type { Actor } from "@/lib/server/permissions";
+import { AppError } from "@/lib/server/errors";
+import type { MailContent } from "@/lib/server/mail/templates";
 
 export async function loadCourse(actor: Actor, courseId: string): Promise<CourseForUser> {
   const course = await getCourseForUser({ courseId, userId: actor.userId });

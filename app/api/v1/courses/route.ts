@@ -1,11 +1,11 @@
 import { recordAudit } from "@/db/queries/audit";
 import { createCourse, getArmRevisionById, listCoursesForUser } from "@/db/queries/courses";
 import { getProjectForUser } from "@/db/queries/projects";
-import { json, readJson, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { appLink } from "@/lib/mail/templates";
-import { authorizeSite } from "@/lib/permissions";
+import { json, readJson, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { appLink } from "@/lib/server/mail/templates";
+import { authorizeSite } from "@/lib/server/permissions";
 import { createCourseSchema } from "@/components/courses/schemas";
 import { joinPath } from "./course-api";
 

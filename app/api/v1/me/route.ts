@@ -1,7 +1,7 @@
 import { getActiveUserById } from "@/db/queries/users";
-import { json, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
+import { json, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
 
 /** GET /api/v1/me — who the session or token belongs to. */
 export const GET = route(async (request) => {

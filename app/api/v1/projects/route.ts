@@ -1,9 +1,9 @@
 import { recordAudit } from "@/db/queries/audit";
 import { createProject, listProjectsForUser } from "@/db/queries/projects";
-import { json, readJson, readQuery, route } from "@/lib/api";
-import { createProjectSchema, listProjectsQuery } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeSite } from "@/lib/permissions";
+import { json, readJson, readQuery, route } from "@/lib/server/route";
+import { createProjectSchema, listProjectsQuery } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeSite } from "@/lib/server/permissions";
 
 /** GET /api/v1/projects — the caller's projects (`?archived=include` adds archived ones). */
 export const GET = route(async (request) => {

@@ -1,6 +1,6 @@
 import { listReviewQueue } from "@/db/queries/reviews";
-import { json, readQuery, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
+import { json, readQuery, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
 import { queueQuerySchema } from "@/components/courses/schemas";
 
 /**

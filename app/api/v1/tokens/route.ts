@@ -1,10 +1,10 @@
 import { recordAudit } from "@/db/queries/audit";
 import { createApiToken, listApiTokens } from "@/db/queries/tokens";
-import { json, readJson, route } from "@/lib/api";
-import { createTokenSchema } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeSite } from "@/lib/permissions";
-import { generateToken } from "@/lib/tokens";
+import { json, readJson, route } from "@/lib/server/route";
+import { createTokenSchema } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeSite } from "@/lib/server/permissions";
+import { generateToken } from "@/lib/server/tokens";
 
 /** GET /api/v1/tokens — the caller's API tokens (never the tokens themselves). */
 export const GET = route(async (request) => {

@@ -1,7 +1,7 @@
 import { listUsers } from "@/db/queries/users";
-import { json, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeSite } from "@/lib/permissions";
+import { json, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeSite } from "@/lib/server/permissions";
 
 /** GET /api/v1/users — every account (admins only). */
 export const GET = route(async (request) => {

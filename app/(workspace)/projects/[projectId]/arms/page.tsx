@@ -3,8 +3,8 @@ import { notFound } from "next/navigation";
 import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { getProjectForUser } from "@/db/queries/projects";
 import { ArmsWorkbench, type ArmEntry } from "@/components/arms/arms-workbench";
-import { armSchema } from "@/kinematics/plan";
-import { requirePageActor } from "@/lib/page-actor";
+import { armSchema } from "@/kinematics";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Arms" };
 export const dynamic = "force-dynamic";

@@ -4,8 +4,8 @@ import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { getProjectForUser } from "@/db/queries/projects";
 import { listRecordings } from "@/db/queries/recordings";
 import { RecordingsWorkbench, type RecordingArm } from "@/components/recordings/recordings-workbench";
-import { armSchema } from "@/kinematics/plan";
-import { requirePageActor } from "@/lib/page-actor";
+import { armSchema } from "@/kinematics";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Recordings" };
 export const dynamic = "force-dynamic";

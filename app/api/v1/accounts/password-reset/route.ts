@@ -1,7 +1,7 @@
-import { json, readJson, route } from "@/lib/api";
-import { passwordResetRequestSchema } from "@/lib/api-schemas";
-import { requestPasswordReset } from "@/lib/mail/account-mail";
-import { assertSameOrigin } from "@/lib/security";
+import { json, readJson, route } from "@/lib/server/route";
+import { passwordResetRequestSchema } from "@/lib/shared/schemas/api";
+import { requestPasswordReset } from "@/lib/server/mail/account-mail";
+import { assertSameOrigin } from "@/lib/server/security";
 
 /**
  * Every answer takes at least this long, so that the extra work for a known address (a token row,

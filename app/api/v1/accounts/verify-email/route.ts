@@ -1,9 +1,9 @@
-import { json, readJson, route } from "@/lib/api";
-import { verifyEmailSchema } from "@/lib/api-schemas";
-import { EXPIRED_LINK_MESSAGE } from "@/lib/auth-schemas";
-import { AppError } from "@/lib/errors";
-import { verifyEmail } from "@/lib/mail/account-mail";
-import { assertSameOrigin } from "@/lib/security";
+import { json, readJson, route } from "@/lib/server/route";
+import { verifyEmailSchema } from "@/lib/shared/schemas/api";
+import { EXPIRED_LINK_MESSAGE } from "@/lib/shared/schemas/auth";
+import { AppError } from "@/lib/server/errors";
+import { verifyEmail } from "@/lib/server/mail/account-mail";
+import { assertSameOrigin } from "@/lib/server/security";
 
 /** POST /api/v1/accounts/verify-email — confirms an e-mail address with the token from the verification e-mail (once). */
 export const POST = route(async (request) => {

@@ -1,9 +1,9 @@
 import { z } from "zod";
 import { listArmRevisions } from "@/db/queries/arms";
-import { json, readParams, route, uuidParam } from "@/lib/api";
-import { loadArm } from "@/lib/api-load";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeProject, authorizeSite } from "@/lib/permissions";
+import { json, readParams, route, uuidParam } from "@/lib/server/route";
+import { loadArm } from "@/lib/server/loaders";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeProject, authorizeSite } from "@/lib/server/permissions";
 
 const params = z.object({ armId: uuidParam });
 

@@ -1,6 +1,6 @@
-import { json, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
+import { json, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
 import { idParams } from "@/components/courses/schemas";
 import { loadAssignment } from "../../courses/course-api";
 

@@ -1,7 +1,7 @@
-import { json, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse, canCourse } from "@/lib/course-permissions";
-import { appLink } from "@/lib/mail/templates";
+import { json, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse, canCourse } from "@/lib/server/course-permissions";
+import { appLink } from "@/lib/server/mail/templates";
 import { idParams } from "@/components/courses/schemas";
 import { joinPath, loadCourse } from "../course-api";
 

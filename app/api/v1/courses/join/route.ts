@@ -1,8 +1,8 @@
 import { recordAudit } from "@/db/queries/audit";
 import { enrolStudent, getCourseByJoinCode } from "@/db/queries/courses";
-import { json, readJson, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
+import { json, readJson, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
 import { joinCourseSchema } from "@/components/courses/schemas";
 
 /**

@@ -1,7 +1,7 @@
 import { listComments } from "@/db/queries/reviews";
-import { json, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
+import { json, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
 import { idParams } from "@/components/courses/schemas";
 import { loadSubmission } from "../../courses/course-api";
 

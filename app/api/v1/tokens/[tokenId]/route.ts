@@ -1,10 +1,10 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { revokeApiToken } from "@/db/queries/tokens";
-import { json, readParams, route, uuidParam } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeSite } from "@/lib/permissions";
+import { json, readParams, route, uuidParam } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeSite } from "@/lib/server/permissions";
 
 const params = z.object({ tokenId: uuidParam });
 

@@ -1,11 +1,11 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { getUserById, updateUserByAdmin } from "@/db/queries/users";
-import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
-import { adminUpdateUserSchema } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeSite } from "@/lib/permissions";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
+import { adminUpdateUserSchema } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeSite } from "@/lib/server/permissions";
 
 const params = z.object({ userId: uuidParam });
 

@@ -4,8 +4,8 @@ import { getArmRevisionForUser } from "@/db/queries/arms";
 import { getPlanForUser, getPlanVersion } from "@/db/queries/plans";
 import { PlanWorkbench } from "@/components/editor/plan-workbench";
 import type { BenchPlan } from "@/components/editor/plan-state";
-import { planFormat, planSchema, planVersion } from "@/kinematics/plan";
-import { requirePageActor } from "@/lib/page-actor";
+import { planFormat, planSchema, planVersion } from "@/kinematics";
+import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Plan" };
 export const dynamic = "force-dynamic";

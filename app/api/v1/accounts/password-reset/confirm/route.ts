@@ -1,14 +1,14 @@
-import { json, readJson, route } from "@/lib/api";
-import { passwordResetConfirmSchema } from "@/lib/api-schemas";
-import { EXPIRED_LINK_MESSAGE } from "@/lib/auth-schemas";
-import { AppError } from "@/lib/errors";
-import { resetPassword } from "@/lib/mail/account-mail";
-import { assertSameOrigin } from "@/lib/security";
+import { json, readJson, route } from "@/lib/server/route";
+import { passwordResetConfirmSchema } from "@/lib/shared/schemas/api";
+import { EXPIRED_LINK_MESSAGE } from "@/lib/shared/schemas/auth";
+import { AppError } from "@/lib/server/errors";
+import { resetPassword } from "@/lib/server/mail/account-mail";
+import { assertSameOrigin } from "@/lib/server/security";
 
 /**
  * POST /api/v1/accounts/password-reset/confirm — sets a new password with the token from the
  * reset e-mail. The token works once; using it voids the account's other reset links and ends the
- * account's existing sessions (lib/auth-request.ts); the reset is written to the audit log.
+ * account's existing sessions (lib/server/auth-request.ts); the reset is written to the audit log.
  */
 export const POST = route(async (request) => {
   const body = await readJson(request, passwordResetConfirmSchema);

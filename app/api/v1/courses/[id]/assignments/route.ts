@@ -1,10 +1,10 @@
 import { recordAudit } from "@/db/queries/audit";
 import { createAssignment, getArmRevisionById, listAssignmentsForUser } from "@/db/queries/courses";
-import { json, readJson, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
-import { AppError } from "@/lib/errors";
-import { armSchema } from "@/lib/api-engine";
+import { json, readJson, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
+import { AppError } from "@/lib/server/errors";
+import { armSchema } from "@/lib/server/engine";
 import { createAssignmentSchema, idParams } from "@/components/courses/schemas";
 import { loadCourse } from "../../course-api";
 

@@ -1,7 +1,7 @@
 import { listGrades } from "@/db/queries/reviews";
-import { readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
+import { readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
 import { idParams } from "@/components/courses/schemas";
 import { csv, loadCourse } from "../../course-api";
 

@@ -1,11 +1,11 @@
 import { randomUUID } from "node:crypto";
 import { queueMail } from "@/db/queries/mail";
 import { getActiveUserById } from "@/db/queries/users";
-import { json, readJson, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
-import { enqueueMail } from "@/lib/mail/queue";
-import { appLink, courseInvitation } from "@/lib/mail/templates";
+import { json, readJson, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
+import { enqueueMail } from "@/lib/server/mail/queue";
+import { appLink, courseInvitation } from "@/lib/server/mail/templates";
 import { idParams, inviteSchema } from "@/components/courses/schemas";
 import { joinPath, loadCourse, outbox } from "../../course-api";
 

@@ -1,12 +1,12 @@
 import { z } from "zod";
 import { getPlanVersion } from "@/db/queries/plans";
-import { json, readParams, readQuery, route, uuidParam } from "@/lib/api";
-import { diffDocuments } from "@/lib/api-diff";
-import { loadPlan, membershipOf } from "@/lib/api-load";
-import { diffQuery } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
+import { json, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
+import { diffDocuments } from "@/lib/shared/plan-diff";
+import { loadPlan, membershipOf } from "@/lib/server/loaders";
+import { diffQuery } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ planId: uuidParam });
 

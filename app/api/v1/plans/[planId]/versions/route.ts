@@ -3,14 +3,14 @@ import { z } from "zod";
 import { getArmRevisionForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
 import { createPlanVersion, listPlanVersions } from "@/db/queries/plans";
-import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
-import { checkPlan } from "@/lib/api-check";
-import { armSchema } from "@/lib/api-engine";
-import { loadPlan, membershipOf } from "@/lib/api-load";
-import { createVersionSchema } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
+import { checkPlan } from "@/lib/server/check";
+import { armSchema } from "@/lib/server/engine";
+import { loadPlan, membershipOf } from "@/lib/server/loaders";
+import { createVersionSchema } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ planId: uuidParam });
 

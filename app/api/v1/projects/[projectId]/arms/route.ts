@@ -1,12 +1,12 @@
 import { z } from "zod";
 import { createArm, listArmsForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
-import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
-import { loadProject, membershipOf } from "@/lib/api-load";
-import { createArmSchema } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
+import { loadProject, membershipOf } from "@/lib/server/loaders";
+import { createArmSchema } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam });
 

@@ -1,9 +1,9 @@
 import { z } from "zod";
 import { listProjectAudit } from "@/db/queries/audit";
-import { json, readParams, route, uuidParam } from "@/lib/api";
-import { loadProject, membershipOf } from "@/lib/api-load";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeProject } from "@/lib/permissions";
+import { json, readParams, route, uuidParam } from "@/lib/server/route";
+import { loadProject, membershipOf } from "@/lib/server/loaders";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam });
 

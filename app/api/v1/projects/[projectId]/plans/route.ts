@@ -2,12 +2,12 @@ import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { createPlan, listPlansForProject } from "@/db/queries/plans";
 import { getArmForUser } from "@/db/queries/arms";
-import { json, readJson, readParams, route, uuidParam } from "@/lib/api";
-import { loadProject, membershipOf } from "@/lib/api-load";
-import { createPlanSchema } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
+import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
+import { loadProject, membershipOf } from "@/lib/server/loaders";
+import { createPlanSchema } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam });
 

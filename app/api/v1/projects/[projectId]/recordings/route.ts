@@ -3,15 +3,15 @@ import { z } from "zod";
 import { getArmRevisionForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
 import { createRecording, listRecordings } from "@/db/queries/recordings";
-import { json, readBodyLimited, readParams, readQuery, route, uuidParam } from "@/lib/api";
-import { alignRecording, armSchema, parseRecordingCsv, streamCheck } from "@/lib/api-engine";
-import { loadProject, membershipOf } from "@/lib/api-load";
-import { uploadRecordingQuery } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { env } from "@/lib/env";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
-import { deleteObject, putObject } from "@/lib/storage";
+import { json, readBodyLimited, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
+import { alignRecording, armSchema, parseRecordingCsv, streamCheck } from "@/lib/server/engine";
+import { loadProject, membershipOf } from "@/lib/server/loaders";
+import { uploadRecordingQuery } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { env } from "@/lib/server/env";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
+import { deleteObject, putObject } from "@/lib/server/storage";
 
 const params = z.object({ projectId: uuidParam });
 

@@ -1,10 +1,10 @@
 import { z } from "zod";
 import { getRecordingForUser } from "@/db/queries/recordings";
-import { readParams, route, uuidParam } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
-import { getObject } from "@/lib/storage";
+import { readParams, route, uuidParam } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
+import { getObject } from "@/lib/server/storage";
 
 const params = z.object({ recordingId: uuidParam });
 

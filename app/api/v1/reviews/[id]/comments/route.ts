@@ -1,8 +1,8 @@
 import { addComment, listComments } from "@/db/queries/reviews";
-import { json, readJson, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
-import { AppError } from "@/lib/errors";
+import { json, readJson, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
+import { AppError } from "@/lib/server/errors";
 import { commentSchema, idParams } from "@/components/courses/schemas";
 import { loadSubmission } from "../../../courses/course-api";
 

@@ -1,12 +1,12 @@
 import { recordAudit } from "@/db/queries/audit";
 import { decideSubmission, listComments } from "@/db/queries/reviews";
 import { getActiveUserById } from "@/db/queries/users";
-import { json, readJson, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
-import { AppError } from "@/lib/errors";
-import { enqueueMail } from "@/lib/mail/queue";
-import { submissionDecided } from "@/lib/mail/templates";
+import { json, readJson, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
+import { AppError } from "@/lib/server/errors";
+import { enqueueMail } from "@/lib/server/mail/queue";
+import { submissionDecided } from "@/lib/server/mail/templates";
 import { decisionSchema, idParams } from "@/components/courses/schemas";
 import { loadSubmission, outbox } from "../../../courses/course-api";
 

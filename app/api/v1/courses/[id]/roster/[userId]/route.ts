@@ -1,9 +1,9 @@
 import { recordAudit } from "@/db/queries/audit";
 import { removeStudent } from "@/db/queries/courses";
-import { json, readParams, route } from "@/lib/api";
-import { requireActor } from "@/lib/auth-request";
-import { authorizeCourse } from "@/lib/course-permissions";
-import { AppError } from "@/lib/errors";
+import { json, readParams, route } from "@/lib/server/route";
+import { requireActor } from "@/lib/server/auth-request";
+import { authorizeCourse } from "@/lib/server/course-permissions";
+import { AppError } from "@/lib/server/errors";
 import { courseMemberParams } from "@/components/courses/schemas";
 import { loadCourse } from "../../../course-api";
 

@@ -1,10 +1,10 @@
 import { z } from "zod";
 import { getPlanVersion } from "@/db/queries/plans";
-import { json, readParams, route, uuidParam } from "@/lib/api";
-import { loadPlan, membershipOf } from "@/lib/api-load";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
+import { json, readParams, route, uuidParam } from "@/lib/server/route";
+import { loadPlan, membershipOf } from "@/lib/server/loaders";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const versionParams = z.object({ planId: uuidParam, version: z.coerce.number().int().positive().max(1_000_000) });
 

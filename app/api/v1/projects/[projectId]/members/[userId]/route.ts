@@ -1,11 +1,11 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { countOwners, listMembers, removeMember } from "@/db/queries/projects";
-import { json, readParams, route, uuidParam } from "@/lib/api";
-import { loadProject, membershipOf } from "@/lib/api-load";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
+import { json, readParams, route, uuidParam } from "@/lib/server/route";
+import { loadProject, membershipOf } from "@/lib/server/loaders";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam, userId: uuidParam });
 

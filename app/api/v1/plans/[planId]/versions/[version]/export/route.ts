@@ -1,20 +1,20 @@
 import { z } from "zod";
 import { getPlanVersion } from "@/db/queries/plans";
-import { readParams, readQuery, route, uuidParam } from "@/lib/api";
-import { checkPlan } from "@/lib/api-check";
-import { planSchema, samplePlan } from "@/lib/api-engine";
-import { buildCsvExport, buildJsonExport } from "@/lib/api-export";
-import { loadPlan, membershipOf } from "@/lib/api-load";
-import { EXPORT_MAX_VALUES, exportQuery } from "@/lib/api-schemas";
-import { requireActor } from "@/lib/auth-request";
-import { AppError } from "@/lib/errors";
-import { authorizeProject } from "@/lib/permissions";
+import { readParams, readQuery, route, uuidParam } from "@/lib/server/route";
+import { checkPlan } from "@/lib/server/check";
+import { planSchema, samplePlan } from "@/lib/server/engine";
+import { buildCsvExport, buildJsonExport } from "@/lib/server/export";
+import { loadPlan, membershipOf } from "@/lib/server/loaders";
+import { EXPORT_MAX_VALUES, exportQuery } from "@/lib/shared/schemas/api";
+import { requireActor } from "@/lib/server/auth-request";
+import { AppError } from "@/lib/server/errors";
+import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ planId: uuidParam, version: z.coerce.number().int().positive().max(1_000_000) });
 
 /**
  * GET /api/v1/plans/:planId/versions/:version/export?format=json|csv&rateHz=…
- * The checked waypoint list with the report, the arm revision and a SHA-256 (see lib/api-export.ts).
+ * The checked waypoint list with the report, the arm revision and a SHA-256 (see lib/server/export.ts).
  */
 export const GET = route(async (request, context) => {
   const { planId, version: number } = await readParams(context, params);

@@ -1,0 +1,81 @@
+/**
+ * `check(plan)`: predicts the controller faults of a plan and returns the report.
+ *
+ * The check is analytic (peaks from the shapes' closed forms), so it is exact and fast enough to run
+ * on every edit in the browser. Findings come from two lists of checkers:
+ * - plan checkers run once (the start pose's range);
+ * - move checkers run for every move with a {@link MoveContext} (the move's poses, displacement,
+ *   peaks and shortest safe durations).
+ * New checks (effort, clearance, tool speed from the arm model) are added by passing longer lists in
+ * {@link CheckOptions}, e.g. `check(plan, { moveCheckers: [...defaultMoveCheckers, effortChecker] })`.
+ *
+ * @module
+ */
+import type { Plan } from "../plan/plan";
+import { defaultMoveCheckers, defaultPlanCheckers } from "./checkers";
+import { instantPeaks, safeDuration, timedPeaks } from "../motion/peaks";
+import { verdictOf, type Finding, type MoveReport, type Report } from "./report";
+import { timelineOf } from "../motion/timeline";
+import type { CheckOptions, MoveContext } from "./types";
+
+/** Copies a typed array into a plain list (for the JSON report). */
+function toList(values: Float64Array): number[] {
+  return Array.from(values);
+}
+
+/**
+ * Checks a parsed plan (see `parsePlan`) and returns its report: per-move peaks and shortest safe
+ * durations, the findings of every checker, and the verdict.
+ */
+export function check(plan: Plan, options: CheckOptions = {}): Report {
+  const planCheckers = options.planCheckers ?? defaultPlanCheckers;
+  const moveCheckers = options.moveCheckers ?? defaultMoveCheckers;
+  const arm = plan.arm;
+  const n = arm.joints.length;
+  const timeline = timelineOf(plan);
+  const findings: Finding[] = [];
+  for (const checker of planCheckers) checker({ plan, arm, timeline }, findings);
+
+  const peakVelocity = new Float64Array(n);
+  const peakAcceleration = new Float64Array(n);
+  const moves: MoveReport[] = plan.moves.map((move, index) => {
+    const base = index * n;
+    const delta = timeline.delta.subarray(base, base + n);
+    const instant = move.duration === 0;
+    const shape = timeline.shape[index];
+    if (instant) instantPeaks(delta, arm.controlRateHz, peakVelocity);
+    else timedPeaks(shape, timeline.blend[index], delta, move.duration, peakVelocity, peakAcceleration);
+    const context: MoveContext = {
+      plan,
+      arm,
+      timeline,
+      index,
+      move,
+      instant,
+      from: timeline.from.subarray(base, base + n),
+      goal: timeline.goal.subarray(base, base + n),
+      delta,
+      startS: timeline.startS[index],
+      sampleRateHz: options.sampleRateHz,
+      peakVelocity,
+      peakAcceleration: instant ? null : peakAcceleration,
+      minSafe: safeDuration(shape, delta, arm.joints, 1),
+      minCalm: safeDuration(shape, delta, arm.joints, arm.cautionRatio),
+      figures: {},
+    };
+    const moveFindings: Finding[] = [];
+    for (const checker of moveCheckers) checker(context, moveFindings);
+    findings.push(...moveFindings);
+    return {
+      index,
+      duration: move.duration,
+      shape: move.shape,
+      peakVelocity: toList(peakVelocity),
+      peakAcceleration: instant ? new Array<null>(n).fill(null) : toList(peakAcceleration),
+      minSafeDuration: context.minSafe.durationS,
+      findings: moveFindings,
+      ...context.figures, // arm model (issue 4): peakEffort, peakToolSpeed when the arm has a chain
+    };
+  });
+  return { verdict: verdictOf(findings), moves, findings };
+}

@@ -1,0 +1,63 @@
+/**
+ * `tool-speed`: peak tool-point speed against the plan's `maxToolSpeed`.
+ *
+ * @module
+ */
+import { forwardKinematics } from "../arm/chain";
+import { toolAccelerationBound } from "../arm/motion-bounds";
+import { scanToolSpeedBounded } from "../arm/tool-speed";
+import { severityOf } from "./report";
+import { sampleMove, sampleRateOf, stateOf } from "./arm-state";
+import type { MoveChecker } from "./types";
+import { formatDurationUp, formatNumber, formatPercent, moveLabel } from "./wording";
+
+/**
+ * Move checker `tool-speed`: peak tool-point speed (m/s) against the plan's `maxToolSpeed`
+ * (fault above it, caution above cautionRatio × it). Tool speed scales as 1/duration on the
+ * same path, so the fix is duration × peak / limit. For an instant move the tool must cover its
+ * whole displacement in one control period.
+ */
+export const checkToolSpeed: MoveChecker = (context, out) => {
+  const s = stateOf(context.plan);
+  if (!s) return;
+  let peak: number, at: number;
+  if (context.instant) {
+    // |Δp_tool| × control rate: the step is covered in one control period.
+    const t = forwardKinematics(s.chain, context.from, s.toolSpeed.buffers);
+    const x0 = t[12], y0 = t[13], z0 = t[14];
+    forwardKinematics(s.chain, context.goal, s.toolSpeed.buffers);
+    peak = Math.hypot(t[12] - x0, t[13] - y0, t[14] - z0) * context.arm.controlRateHz;
+    at = 0;
+  } else {
+    const count = sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
+    // The tool speed changes at most accelBound m/s² (from the move's peak joint speeds and
+    // accelerations), so only the stretches that could hold the peak are evaluated sample by sample.
+    const accelBound = toolAccelerationBound(s.reach, s.chain, context.peakVelocity, context.peakAcceleration ?? context.peakVelocity.map(() => Infinity));
+    const r = scanToolSpeedBounded(s.toolSpeed, s.q, s.qd, s.n, s.time, count, accelBound);
+    peak = r.peakSpeed;
+    at = r.timeS;
+  }
+  if (context.figures) context.figures.peakToolSpeed = peak;
+  const limit = context.plan.maxToolSpeed;
+  if (limit === undefined) return;
+  const severity = severityOf(peak, limit, context.arm.cautionRatio);
+  if (!severity) return;
+  const level = severity === "fault" ? `above the plan's limit of ${formatNumber(limit)} m/s` : `above ${formatPercent(context.arm.cautionRatio)} of the plan's limit of ${formatNumber(limit)} m/s`;
+  const stepM = peak / context.arm.controlRateHz; // the tool's straight-line step in one control period
+  const fix = context.instant
+    ? `Give it a duration: covering ${formatNumber(stepM * 1000)} mm at ${formatNumber(limit)} m/s takes at least ${formatDurationUp(stepM / limit)}, and a rest-to-rest shape needs longer; check again.`
+    : `Lengthen it to at least ${formatDurationUp((context.move.duration * peak) / limit)} (tool speed falls in proportion to the duration).`;
+  out.push({
+    kind: "tool-speed",
+    severity,
+    move: context.index,
+    joint: null,
+    value: peak,
+    limit,
+    message: context.instant
+      ? `${moveLabel(context.index, context.instant)}: the tool point would jump ${formatNumber(stepM * 1000)} mm in one control period, ${formatNumber(peak)} m/s, ${level}. ${fix}`
+      : `${moveLabel(context.index, context.instant)}: the tool point reaches ${formatNumber(peak)} m/s at ${formatNumber(at)} s, ${level}. ${fix}`,
+    timeS: context.startS + at,
+  });
+};
+

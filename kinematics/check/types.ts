@@ -1,0 +1,67 @@
+/**
+ * What the checkers see and the shape of a checker: the contexts `check()` builds for each plan
+ * and move, and the options that choose the checkers. Imports no checker, so every checker and
+ * `check()` itself can depend on it without a cycle.
+ *
+ * @module
+ */
+import type { Arm, Move, Plan } from "../plan/plan";
+import type { Finding, MoveReport } from "./report";
+import type { ShortestDuration } from "../motion/shapes";
+import type { Timeline } from "../motion/timeline";
+
+/** What a plan checker sees: the plan, its arm and its timeline. */
+export interface PlanContext {
+  plan: Plan;
+  arm: Arm;
+  timeline: Timeline;
+}
+
+/** What a move checker sees about one move. Arrays are views into shared buffers: read, do not keep. */
+export interface MoveContext extends PlanContext {
+  /** Index of the move in the plan. */
+  index: number;
+  move: Move;
+  /** True for an instant move (duration 0). */
+  instant: boolean;
+  /** Pose at the start of the move, rad or m. */
+  from: Float64Array;
+  /** Goal pose, rad or m. */
+  goal: Float64Array;
+  /** Goal − start per joint, rad or m. */
+  delta: Float64Array;
+  /** Peak |q̇| per joint (rad/s or m/s); for an instant move |Δq| × control rate. */
+  peakVelocity: Float64Array;
+  /** Peak |q̈| per joint (rad/s² or m/s²); `null` for an instant move. */
+  peakAcceleration: Float64Array | null;
+  /** Shortest duration (s) with the move's shape that has no speed or acceleration fault, and its joint. */
+  minSafe: ShortestDuration;
+  /** Shortest duration (s) with the move's shape that stays below the caution ratio of every limit. */
+  minCalm: ShortestDuration;
+  /** Start time of the move, seconds from the plan's start. */
+  startS: number;
+  /** Rate (Hz) the sampled arm checks use; undefined means the arm's control rate. */
+  sampleRateHz?: number;
+  /** Arm model (issue 4): extra per-move figures copied into the move's report. */
+  figures?: Pick<MoveReport, "peakEffort" | "peakToolSpeed">;
+}
+
+/** A check run once per plan; pushes its findings to `out`. */
+export type PlanChecker = (context: PlanContext, out: Finding[]) => void;
+
+/** A check run once per move; pushes its findings (with `move` = `context.index`) to `out`. */
+export type MoveChecker = (context: MoveContext, out: Finding[]) => void;
+
+/** Which checkers {@link check} runs. */
+export interface CheckOptions {
+  planCheckers?: readonly PlanChecker[];
+  moveCheckers?: readonly MoveChecker[];
+  /**
+   * Rate (Hz) at which the sampled arm checks (effort, clearance, tool speed) sample each move;
+   * default the arm's control rate. A lower rate is faster and may miss a peak between samples
+   * (the live editor can use it between edits, the saved check should not). The joint checks are
+   * analytic and do not depend on it.
+   */
+  sampleRateHz?: number;
+}
+

@@ -1,0 +1,49 @@
+/**
+ * Number and unit wording for findings' messages: plain language, radians with degrees beside them
+ * for revolute joints, metres for prismatic joints.
+ *
+ * @module
+ */
+import type { Joint } from "../plan/plan";
+
+/** What a number measures, to pick its unit. */
+export type Quantity = "position" | "velocity" | "acceleration" | "step";
+
+const revoluteUnits: Record<Quantity, string> = { position: "rad", velocity: "rad/s", acceleration: "rad/s²", step: "rad" };
+const prismaticUnits: Record<Quantity, string> = { position: "m", velocity: "m/s", acceleration: "m/s²", step: "m" };
+const degreeUnits: Record<Quantity, string> = { position: "°", velocity: "°/s", acceleration: "°/s²", step: "°" };
+
+/** A number with four significant digits, without trailing zeros (`4.1`, `0.0031`, `235.2`). */
+export function formatNumber(value: number): string {
+  if (!Number.isFinite(value)) return String(value);
+  if (value === 0) return "0";
+  return String(Number(value.toPrecision(4)));
+}
+
+/** A value with its unit for the joint's type; revolute values also in degrees: `4.1 rad/s (234.9°/s)`. */
+export function formatQuantity(value: number, joint: Pick<Joint, "type">, quantity: Quantity): string {
+  if (joint.type === "prismatic") return `${formatNumber(value)} ${prismaticUnits[quantity]}`;
+  const degrees = (value * 180) / Math.PI; // radians to degrees
+  return `${formatNumber(value)} ${revoluteUnits[quantity]} (${formatNumber(degrees)}${degreeUnits[quantity]})`;
+}
+
+/** A duration rounded up to the next millisecond, so a suggested "at least" duration is never too short. */
+export function formatDurationUp(durationS: number): string {
+  const ms = Math.ceil(durationS * 1000 - 1e-9); // round up to whole milliseconds
+  return `${formatNumber(ms / 1000)} s`;
+}
+
+/** How a joint is named in messages: `joint "elbow"`. */
+export function jointLabel(joint: Pick<Joint, "name">): string {
+  return `joint "${joint.name}"`;
+}
+
+/** A ratio as a whole percentage: `90%`. */
+export function formatPercent(ratio: number): string {
+  return `${formatNumber(ratio * 100)}%`;
+}
+
+/** How a move is named in messages: "Move 2", or "Instant move 2" for a move of duration 0. */
+export function moveLabel(index: number, instant: boolean): string {
+  return instant ? `Instant move ${index}` : `Move ${index}`;
+}

@@ -1,0 +1,162 @@
+/**
+ * Typed fetch wrappers over the /api/v1 routes, for TanStack Query in client components. Every
+ * failure becomes an {@link ApiError} carrying the API's one error shape (code, message, field issues).
+ */
+import type { ArmListItem } from "@/db/queries/arms";
+import type { ProjectForUser } from "@/db/queries/projects";
+import type { PlanListItem, VersionListItem } from "@/db/queries/plans";
+import type { ArmRevision } from "@/db/schema/arms";
+import type { PlanVersion } from "@/db/schema/plans";
+import type { Report } from "@/kinematics";
+import type { Change } from "@/lib/shared/plan-diff";
+
+/** A type as it arrives over JSON: dates become ISO strings. */
+export type Jsonified<T> = T extends Date
+  ? string
+  : T extends (infer U)[]
+    ? Jsonified<U>[]
+    : T extends object
+      ? { [K in keyof T]: Jsonified<T[K]> }
+      : T;
+
+export type ProjectDto = Jsonified<ProjectForUser>;
+export type PlanDto = Jsonified<PlanListItem>;
+export type VersionDto = Jsonified<VersionListItem>;
+export type ArmDto = Jsonified<ArmListItem>;
+export type ArmRevisionDto = Jsonified<ArmRevision>;
+export type SavedVersionDto = Jsonified<PlanVersion> & { armRevision: number };
+
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+
+/** An error answered by the API (or a network failure, status 0). */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly issues: FieldIssue[] = [],
+    readonly details: Record<string, unknown> = {},
+  ) {
+    super(message);
+    this.name = "ApiError";
+  }
+}
+
+/** One JSON request to our API from a client component; a non-2xx answer becomes an ApiError with the error shape's fields. */
+export async function request<T>(path: string, init?: RequestInit): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(path, {
+      ...init,
+      headers: { Accept: "application/json", ...(init?.body ? { "Content-Type": "application/json" } : {}), ...init?.headers },
+      credentials: "same-origin",
+    });
+  } catch (err) {
+    throw new ApiError(0, "network", `The server could not be reached (${err instanceof Error ? err.message : "network error"}).`);
+  }
+  const text = await res.text();
+  let body: unknown = null;
+  try {
+    body = text ? JSON.parse(text) : null;
+  } catch {
+    body = null;
+  }
+  if (!res.ok) {
+    const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null)?.error;
+    const { code, message, issues, ...details } = e ?? {};
+    throw new ApiError(res.status, code ?? `http_${res.status}`, message ?? `The server answered ${res.status}.`, issues ?? [], details);
+  }
+  return body as T;
+}
+
+const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
+
+export const api = {
+  listProjects: () => request<{ projects: ProjectDto[] }>("/api/v1/projects").then((r) => r.projects),
+  createProject: (input: { name: string; kind?: "research" | "personal" | "course" }) =>
+    request<{ project: ProjectDto }>("/api/v1/projects", post(input)).then((r) => r.project),
+  listPlans: (projectId: string) => request<{ plans: PlanDto[] }>(`/api/v1/projects/${projectId}/plans`).then((r) => r.plans),
+  createPlan: (projectId: string, input: { name: string; armId: string }) =>
+    request<{ plan: PlanDto }>(`/api/v1/projects/${projectId}/plans`, post(input)).then((r) => r.plan),
+  listVersions: (planId: string) => request<{ versions: VersionDto[] }>(`/api/v1/plans/${planId}/versions`).then((r) => r.versions),
+  getVersion: (planId: string, number: number) =>
+    request<{ version: Jsonified<PlanVersion> & { armRevision: number; authorName: string } }>(`/api/v1/plans/${planId}/versions/${number}`).then((r) => r.version),
+  saveVersion: (planId: string, input: { baseVersion: number; document: unknown; note?: string; armRevision?: number }) =>
+    request<{ version: SavedVersionDto; report: Report }>(`/api/v1/plans/${planId}/versions`, post(input)),
+  diff: (planId: string, from: number, to: number) =>
+    request<DiffDto>(`/api/v1/plans/${planId}/diff?from=${from}&to=${to}`),
+  exportUrl: (planId: string, number: number, format: "json" | "csv", rateHz?: number) =>
+    `/api/v1/plans/${planId}/versions/${number}/export?format=${format}${rateHz ? `&rateHz=${rateHz}` : ""}`,
+  listArms: (projectId?: string) =>
+    request<{ arms: ArmDto[] }>(projectId ? `/api/v1/projects/${projectId}/arms` : "/api/v1/arms").then((r) => r.arms),
+  getArm: (armId: string) => request<{ arm: { id: string; name: string; projectId: string | null; role: string | null; projectArchived: boolean }; revisions: ArmRevisionDto[] }>(`/api/v1/arms/${armId}`),
+  createArmRevision: (armId: string, input: { description: unknown; note?: string }) =>
+    request<{ revision: ArmRevisionDto }>(`/api/v1/arms/${armId}/revisions`, post(input)).then((r) => r.revision),
+  createArm: (projectId: string, input: { name: string; description: unknown; note?: string }) =>
+    request<{ arm: { id: string; name: string; projectId: string }; revision: ArmRevisionDto }>(`/api/v1/projects/${projectId}/arms`, post(input)),
+  listRecordings: (projectId: string) =>
+    request<{ recordings: RecordingDto[] }>(`/api/v1/projects/${projectId}/recordings`).then((r) => r.recordings),
+  recordingFileUrl: (recordingId: string) => `/api/v1/recordings/${recordingId}/file`,
+  check: (document: unknown) => request<{ report: Report }>("/api/v1/check", post(document)),
+};
+
+/** A stored recording's metadata, as the API lists it. */
+export interface RecordingDto {
+  id: string;
+  name: string;
+  armId: string | null;
+  sizeBytes: number;
+  sampleCount: number;
+  jointCount: number;
+  durationS: number;
+  createdAt: string;
+}
+
+/**
+ * Uploads a recording CSV as the request body, reporting upload progress (0..1); fetch has no upload
+ * progress, so this one call uses XMLHttpRequest. Errors arrive as {@link ApiError}.
+ */
+export function uploadRecording(
+  projectId: string,
+  file: Blob,
+  input: { name: string; armId?: string },
+  onProgress: (fraction: number) => void,
+): Promise<RecordingDto> {
+  const q = new URLSearchParams({ name: input.name, ...(input.armId ? { armId: input.armId } : {}) });
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open("POST", `/api/v1/projects/${projectId}/recordings?${q}`);
+    xhr.setRequestHeader("Content-Type", "text/csv");
+    xhr.setRequestHeader("Accept", "application/json");
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable && e.total > 0) onProgress(e.loaded / e.total);
+    };
+    xhr.onerror = () => reject(new ApiError(0, "network", "The upload did not reach the server."));
+    xhr.onload = () => {
+      let body: unknown = null;
+      try {
+        body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+      } catch {
+        body = null;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) {
+        onProgress(1);
+        resolve((body as { recording: RecordingDto }).recording);
+        return;
+      }
+      const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null)?.error;
+      const { code, message, issues, ...details } = e ?? {};
+      reject(new ApiError(xhr.status, code ?? `http_${xhr.status}`, message ?? `The server answered ${xhr.status}.`, issues ?? [], details));
+    };
+    xhr.send(file);
+  });
+}
+
+export interface DiffDto {
+  from: { number: number; verdict: "pass" | "caution" | "fault"; armRevision: number };
+  to: { number: number; verdict: "pass" | "caution" | "fault"; armRevision: number };
+  changes: Change[];
+}

@@ -1,0 +1,42 @@
+/**
+ * Object storage for uploads (recording files, URDF files) through the AWS S3 SDK, pointed by
+ * environment variables at any S3-compatible service. With no S3_ENDPOINT, the local fake on
+ * 127.0.0.1:$S3_PORT is used (scripts/fakes/start.ts), with the fake's fixed development credentials.
+ * Server-side only (the seed script uses it too, so it does not import "server-only").
+ */
+import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
+import { env } from "./env";
+
+/** s3rver's built-in development credentials; only ever sent to the loopback fake. */
+const FAKE_CREDENTIALS = { accessKeyId: "S3RVER", secretAccessKey: "S3RVER" };
+
+let client: S3Client | undefined;
+
+function storageClient(): S3Client {
+  if (client) return client;
+  const e = env();
+  const endpoint = e.S3_ENDPOINT ?? (e.S3_PORT ? `http://127.0.0.1:${e.S3_PORT}` : undefined);
+  const loopback = endpoint !== undefined && ["127.0.0.1", "localhost", "[::1]"].includes(new URL(endpoint).hostname);
+  const credentials =
+    e.S3_ACCESS_KEY_ID && e.S3_SECRET_ACCESS_KEY
+      ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY }
+      : loopback
+        ? FAKE_CREDENTIALS
+        : undefined; // the SDK's default chain (instance roles and the like)
+  client = new S3Client({ region: e.S3_REGION, endpoint, forcePathStyle: e.S3_FORCE_PATH_STYLE, credentials });
+  return client;
+}
+
+export async function putObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
+  await storageClient().send(new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: body, ContentType: contentType, ContentLength: body.byteLength }));
+}
+
+export async function getObject(key: string): Promise<Uint8Array> {
+  const res = await storageClient().send(new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key }));
+  if (!res.Body) throw new Error(`object ${key} has no body`);
+  return res.Body.transformToByteArray();
+}
+
+export async function deleteObject(key: string): Promise<void> {
+  await storageClient().send(new DeleteObjectCommand({ Bucket: env().S3_BUCKET, Key: key }));
+}
