@@ -23,17 +23,18 @@ if [ -n "${TEST_DATABASE_URL:-}" ]; then
 else
   # Its own cluster and port: tests never touch the demo data of `npm start`.
   TEST_PG_PORT="${JP_TEST_PG_PORT:-54339}"
-  pg_start_cluster postgres-test "$TEST_PG_PORT"
+  pg_start_cluster "${JP_TEST_CLUSTER:-postgres-test}" "$TEST_PG_PORT"
   pg_recreate_db jointproof_test
   export DATABASE_URL="postgres://postgres@127.0.0.1:$TEST_PG_PORT/jointproof_test"
 fi
 node_modules/.bin/tsx scripts/migrate.ts
 
-export S3_PORT="${JP_TEST_S3_PORT:-54340}" JP_FAKES_DIR="$ROOT/.data/test/fakes"
-export SMTP_HOST=127.0.0.1 SMTP_PORT="${JP_TEST_SMTP_PORT:-54341}" MAIL_FAKE_DIR="$ROOT/.data/test/fakes/mail" JP_DEV_MAIL=1 MAIL_RETRY_DELAY_S=1
+export S3_PORT="${JP_TEST_S3_PORT:-54340}"
+export JP_FAKES_DIR="$ROOT/.data/test/fakes-$S3_PORT"
+export SMTP_HOST=127.0.0.1 SMTP_PORT="${JP_TEST_SMTP_PORT:-54341}" MAIL_FAKE_DIR="$JP_FAKES_DIR/mail" JP_DEV_MAIL=1 MAIL_RETRY_DELAY_S=1
 rm -rf "$JP_FAKES_DIR"
 start_fakes
-node_modules/.bin/tsx db/seed.ts >.data/test/seed.log
+node_modules/.bin/tsx db/seed.ts >".data/test/seed-$S3_PORT.log"
 export NODE_ENV=test
 
 FAILED=()

@@ -10,7 +10,7 @@ import { limitTolerance, severityOf } from "./report";
 import { moveBlend, scalingAt } from "../motion/shapes";
 import { sampleGoal, sampleMove, sampleRateOf, stateOf, type ArmState } from "./arm-state";
 import type { MoveChecker, MoveContext, PlanChecker } from "./types";
-import { formatDurationUp, formatNumber, formatPercent, jointLabel, moveLabel } from "./wording";
+import { formatDurationUp, formatNumber, formatPercent, jointLabel, limitLevel, moveLabel } from "./wording";
 
 /** Peak |τⱼ| over the sampled move into `peak`, and the time of each peak into `at`. */
 function effortPeaks(s: ArmState, count: number, peak: Float64Array, at: Float64Array, gravityOnly = false): void {
@@ -63,10 +63,7 @@ export const checkEffort: MoveChecker = (context, out) => {
     }
     const unit = effortUnit(joint.type);
     const label = `${moveLabel(context.index, context.instant)}, ${jointLabel(joint)}`;
-    const level =
-      severity === "fault"
-        ? `above its limit of ${formatNumber(joint.maxEffort)} ${unit}`
-        : `above ${formatPercent(arm.cautionRatio)} of its limit of ${formatNumber(joint.maxEffort)} ${unit}`;
+    const level = limitLevel(severity, arm.cautionRatio, `${formatNumber(joint.maxEffort)} ${unit}`);
     let fix: string;
     const gravitySeverity = severityOf(gPeak[j], joint.maxEffort, arm.cautionRatio);
     if (gravitySeverity === severity || gravitySeverity === "fault") {
@@ -213,7 +210,7 @@ export const checkStartEffort: PlanChecker = ({ plan, arm }, out) => {
       limit: joint.maxEffort,
       message:
         `The start pose: ${jointLabel(joint)} needs ${formatNumber(v)} ${unit} against gravity to hold it, ` +
-        `${severity === "fault" ? "above its limit" : `above ${formatPercent(arm.cautionRatio)} of its limit`} of ${formatNumber(joint.maxEffort)} ${unit}; ` +
+        `${limitLevel(severity, arm.cautionRatio, `${formatNumber(joint.maxEffort)} ${unit}`)}; ` +
         `no duration fixes it. Start from a pose that keeps the load closer to the joint.`,
       timeS: 0,
     });

@@ -8,7 +8,7 @@ import type { Joint } from "../plan/plan";
 import { severityOf, type Finding, type Severity } from "./report";
 import { accelerationPeakTau, velocityPeakTau } from "../motion/shapes";
 import type { MoveChecker, MoveContext, PlanChecker } from "./types";
-import { formatDurationUp, formatPercent, formatQuantity, jointLabel, moveLabel } from "./wording";
+import { formatDurationUp, formatPercent, formatQuantity, jointLabel, limitLevel, moveLabel } from "./wording";
 
 /** A finding for a pose value outside the joint's travel, or nothing. */
 function rangeFinding(value: number, joint: Joint, j: number, move: number | null, where: string, timeS: number): Finding | null {
@@ -71,7 +71,7 @@ export const checkSpeed: MoveChecker = (context, out) => {
     if (!severity) return;
     const label = `${moveLabel(index, move.duration === 0)}, ${jointLabel(joint)}`;
     const limitText = formatQuantity(joint.maxVelocity, joint, "velocity");
-    const level = severity === "fault" ? `above its limit of ${limitText}` : `above ${formatPercent(arm.cautionRatio)} of its limit of ${limitText}`;
+    const level = limitLevel(severity, arm.cautionRatio, limitText);
     let message: string;
     if (instant) {
       const periodMs = 1000 / arm.controlRateHz;
@@ -111,7 +111,7 @@ export const checkAcceleration: MoveChecker = (context, out) => {
     const severity = severityOf(value, joint.maxAcceleration, arm.cautionRatio);
     if (!severity) return;
     const limitText = formatQuantity(joint.maxAcceleration, joint, "acceleration");
-    const level = severity === "fault" ? `above its limit of ${limitText}` : `above ${formatPercent(arm.cautionRatio)} of its limit of ${limitText}`;
+    const level = limitLevel(severity, arm.cautionRatio, limitText);
     const outcome = severity === "fault" ? "; the controller will refuse the move. " : ". ";
     const message =
       `${moveLabel(index, move.duration === 0)}, ${jointLabel(joint)}: peak acceleration ${formatQuantity(value, joint, "acceleration")} ` +

@@ -9,7 +9,7 @@ import { scanToolSpeedBounded } from "../arm/tool-speed";
 import { severityOf } from "./report";
 import { sampleMove, sampleRateOf, stateOf } from "./arm-state";
 import type { MoveChecker } from "./types";
-import { formatDurationUp, formatNumber, formatPercent, moveLabel } from "./wording";
+import { formatDurationUp, formatNumber, limitLevel, moveLabel } from "./wording";
 
 /**
  * Move checker `tool-speed`: peak tool-point speed (m/s) against the plan's `maxToolSpeed`
@@ -42,7 +42,7 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
   if (limit === undefined) return;
   const severity = severityOf(peak, limit, context.arm.cautionRatio);
   if (!severity) return;
-  const level = severity === "fault" ? `above the plan's limit of ${formatNumber(limit)} m/s` : `above ${formatPercent(context.arm.cautionRatio)} of the plan's limit of ${formatNumber(limit)} m/s`;
+  const level = limitLevel(severity, context.arm.cautionRatio, `${formatNumber(limit)} m/s`, "the plan's");
   const stepM = peak / context.arm.controlRateHz; // the tool's straight-line step in one control period
   const fix = context.instant
     ? `Give it a duration: covering ${formatNumber(stepM * 1000)} mm at ${formatNumber(limit)} m/s takes at least ${formatDurationUp(stepM / limit)}, and a rest-to-rest shape needs longer; check again.`

@@ -47,3 +47,11 @@ export function formatPercent(ratio: number): string {
 export function moveLabel(index: number, instant: boolean): string {
   return instant ? `Instant move ${index}` : `Move ${index}`;
 }
+
+/**
+ * How far over a limit a value is, in words: "above its limit of 2 rad/s" (fault) or
+ * "above 90% of its limit of 2 rad/s" (caution). `owner` names whose limit it is ("its", "the plan's").
+ */
+export function limitLevel(severity: "caution" | "fault", cautionRatio: number, limitText: string, owner = "its"): string {
+  return severity === "fault" ? `above ${owner} limit of ${limitText}` : `above ${formatPercent(cautionRatio)} of ${owner} limit of ${limitText}`;
+}
