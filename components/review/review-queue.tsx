@@ -2,7 +2,7 @@ import Link from "next/link";
 import { EmptyState, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import type { QueueQuery } from "@/components/courses/schemas";
+import type { QueueQuery } from "@/lib/shared/schemas/reviews";
 
 type Verdict = "pass" | "caution" | "fault";
 type Status = "submitted" | "returned" | "approved";

@@ -19,7 +19,7 @@ import { schematicChain } from "@/components/viewer/schematic-chain";
 import type { BenchPlan } from "@/components/editor/plan-state";
 import { Playhead, PlayheadContext, usePlayhead, useSyncTotal } from "@/components/editor/playhead";
 import { Transport } from "@/components/editor/transport";
-import type { RuleProblem } from "@/components/courses/rules";
+import type { RuleProblem } from "@/lib/shared/courses/rules";
 import { courseApi } from "@/components/courses/course-client";
 import { type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";

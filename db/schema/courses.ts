@@ -45,7 +45,7 @@ export const courses = pgTable(
     joinCode: text("join_code").notNull().unique(),
     projectId: uuid("project_id").references(() => projects.id, { onDelete: "set null" }),
     requiredArmRevisionId: uuid("required_arm_revision_id").references(() => armRevisions.id, { onDelete: "restrict" }),
-    /** `limitsSchema` (components/courses/schemas.ts): scale factors and per-joint caps, only ever tightening. */
+    /** `limitsSchema` (lib/shared/schemas/courses.ts): scale factors and per-joint caps, only ever tightening. */
     limits: jsonb("limits"),
     createdBy: uuid("created_by")
       .notNull()

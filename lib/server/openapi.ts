@@ -3,7 +3,8 @@
  * (zod 4's JSON Schema output, draft 2020-12 — the dialect OpenAPI 3.1 uses, OpenAPI 3.1.0 §4.8.24).
  */
 import { z } from "zod";
-import * as course from "@/components/courses/schemas";
+import * as course from "@/lib/shared/schemas/courses";
+import * as review from "@/lib/shared/schemas/reviews";
 import { planSchema } from "./engine";
 import * as s from "../shared/schemas/api";
 
@@ -154,7 +155,7 @@ const operations: Op[] = [
   },
   { method: "get", path: "/submissions", summary: "Your own submissions across courses, newest first", tag: "Submissions", ok: 200, errors: [401] },
   { method: "get", path: "/submissions/{id}", summary: "A submission: the frozen plan, its report, the review and the comments (its student or the course's instructors)", tag: "Submissions", params: [p("id")], ok: 200, errors: [401, 403, 404] },
-  { method: "get", path: "/reviews", summary: "The review queue of the courses you teach, with filters and sorting", tag: "Reviews", query: course.queueQuerySchema, ok: 200, errors: [400, 401] },
+  { method: "get", path: "/reviews", summary: "The review queue of the courses you teach, with filters and sorting", tag: "Reviews", query: review.queueQuerySchema, ok: 200, errors: [400, 401] },
   { method: "get", path: "/reviews/{id}/comments", summary: "The comments on a submission", tag: "Reviews", params: [p("id")], ok: 200, errors: [401, 403, 404] },
   { method: "post", path: "/reviews/{id}/comments", summary: "Pin a comment to a move, a joint and a time of a submission (instructors)", tag: "Reviews", params: [p("id")], body: ref("Comment"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415] },
   { method: "post", path: "/reviews/{id}/decision", summary: "Approve a submission or return it with a summary (instructors); the student is e-mailed", tag: "Reviews", params: [p("id")], body: ref("Decision"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415] },
@@ -245,8 +246,8 @@ export function openApiDocument(serverUrl: string): Json {
         InviteToCourse: schemaOf(course.inviteSchema),
         CreateAssignment: schemaOf(course.createAssignmentSchema),
         Submit: schemaOf(course.submitSchema),
-        Comment: schemaOf(course.commentSchema),
-        Decision: schemaOf(course.decisionSchema),
+        Comment: schemaOf(review.commentSchema),
+        Decision: schemaOf(review.decisionSchema),
         CreateToken: schemaOf(s.createTokenSchema),
         AdminUpdateUser: schemaOf(s.adminUpdateUserSchema),
         CreateProject: schemaOf(s.createProjectSchema),

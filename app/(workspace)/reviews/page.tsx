@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { listOwnSubmissions, listCoursesForUser } from "@/db/queries/courses";
 import { listReviewQueue } from "@/db/queries/reviews";
 import { ReviewQueue } from "@/components/review/review-queue";
-import { queueQuerySchema } from "@/components/courses/schemas";
+import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
 import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Reviews" };

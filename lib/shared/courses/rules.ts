@@ -5,7 +5,7 @@
  * submission time, the student's editor can run the same to preview.
  */
 import { check, type Arm, type Plan, type Report } from "@/kinematics";
-import type { Limits } from "./schemas";
+import type { Limits } from "@/lib/shared/schemas/courses";
 
 /** One assignment rule the plan does not meet. */
 export type RuleProblem = { rule: "arm-revision" | "start-pose" | "goal-pose" | "joint-count"; message: string };

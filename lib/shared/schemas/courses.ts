@@ -1,6 +1,6 @@
 /**
- * The course and review inputs: one zod schema each, shared by the forms, the route handlers and
- * the tests. Pure (no server imports), so client components can use them too.
+ * The course, assignment and submission inputs: one zod schema each, shared by the forms, the route
+ * handlers, the OpenAPI document and the tests. Pure (no server imports), so client components can use them too.
  */
 import { z } from "zod";
 
@@ -79,37 +79,6 @@ export const submitSchema = z
     versionNumber: z.number().int().positive(),
   })
   .strict();
-
-export const commentSchema = z
-  .object({
-    body: z.string({ error: "is required" }).trim().min(1, { error: "is required" }).max(5000),
-    moveIndex: z.number().int().min(0).optional(),
-    jointIndex: z.number().int().min(0).optional(),
-    timeS: finite().min(0).optional(),
-  })
-  .strict();
-export type CommentInput = z.infer<typeof commentSchema>;
-
-export const decisionSchema = z
-  .object({
-    decision: z.enum(["returned", "approved"], { error: 'must be "returned" or "approved"' }),
-    summary: z.string().trim().max(5000).default(""),
-  })
-  .strict()
-  .refine((d) => d.decision !== "returned" || d.summary.length > 0, { path: ["summary"], error: "is required when returning a submission" });
-
-/** The review queue's filters and sort, from the query string. */
-export const queueQuerySchema = z
-  .object({
-    courseId: uuid.optional(),
-    assignmentId: uuid.optional(),
-    status: z.enum(["submitted", "returned", "approved"]).optional(),
-    verdict: z.enum(["pass", "caution", "fault"]).optional(),
-    sort: z.enum(["submittedAt", "student", "assignment", "verdict", "status"]).default("submittedAt"),
-    order: z.enum(["asc", "desc"]).default("asc"),
-  })
-  .strict();
-export type QueueQuery = z.infer<typeof queueQuerySchema>;
 
 export const idParams = z.object({ id: uuid });
 export const courseMemberParams = z.object({ id: uuid, userId: uuid });

@@ -1,6 +1,6 @@
 /** The assignment rules and the stricter limits, on the demo arm and the real engine. */
 import { describe, expect, it } from "vitest";
-import { checkAgainstAssignment, ruleProblems, tightenArm } from "@/components/courses/rules";
+import { checkAgainstAssignment, ruleProblems, tightenArm } from "@/lib/shared/courses/rules";
 import { csvField } from "@/app/api/v1/courses/course-api";
 import { planSchema, type Arm } from "@/kinematics/plan/plan";
 import { baseMovePlan } from "./_fixtures";

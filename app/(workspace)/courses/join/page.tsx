@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { getCourseByJoinCode } from "@/db/queries/courses";
 import { JoinCourse } from "@/components/courses/join-course";
-import { joinCourseSchema } from "@/components/courses/schemas";
+import { joinCourseSchema } from "@/lib/shared/schemas/courses";
 import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Join a course" };

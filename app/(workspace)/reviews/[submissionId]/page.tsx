@@ -3,8 +3,8 @@ import { notFound } from "next/navigation";
 import { getSubmissionForUser, listComments } from "@/db/queries/reviews";
 import type { BenchPlan } from "@/components/editor/plan-state";
 import { ReviewWorkspace } from "@/components/review/review-workspace";
-import { tightenArm, type RuleProblem } from "@/components/courses/rules";
-import { limitsSchema } from "@/components/courses/schemas";
+import { tightenArm, type RuleProblem } from "@/lib/shared/courses/rules";
+import { limitsSchema } from "@/lib/shared/schemas/courses";
 import { parsePlan, type Report } from "@/kinematics";
 import { requirePageActor } from "@/lib/server/page-actor";
 

@@ -6,7 +6,7 @@ import { requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
 import { appLink } from "@/lib/server/mail/templates";
 import { authorizeSite } from "@/lib/server/permissions";
-import { createCourseSchema } from "@/components/courses/schemas";
+import { createCourseSchema } from "@/lib/shared/schemas/courses";
 import { joinPath } from "./course-api";
 
 /** GET /api/v1/courses — the courses the caller is enrolled in (as instructor or student). */

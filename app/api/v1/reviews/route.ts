@@ -1,7 +1,7 @@
 import { listReviewQueue } from "@/db/queries/reviews";
 import { json, readQuery, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { queueQuerySchema } from "@/components/courses/schemas";
+import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
 
 /**
  * GET /api/v1/reviews — the review queue: submissions to the courses the caller teaches

@@ -1,7 +1,7 @@
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
-import { idParams } from "@/components/courses/schemas";
+import { idParams } from "@/lib/shared/schemas/courses";
 import { loadAssignment } from "../../courses/course-api";
 
 /** GET /api/v1/assignments/:id — the assignment, for anyone enrolled in its course. */

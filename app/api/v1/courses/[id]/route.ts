@@ -2,7 +2,7 @@ import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse, canCourse } from "@/lib/server/course-permissions";
 import { appLink } from "@/lib/server/mail/templates";
-import { idParams } from "@/components/courses/schemas";
+import { idParams } from "@/lib/shared/schemas/courses";
 import { joinPath, loadCourse } from "../course-api";
 
 /** GET /api/v1/courses/:id — the course; instructors also get its join code and invitation link. */

@@ -3,7 +3,7 @@ import { enrolStudent, getCourseByJoinCode } from "@/db/queries/courses";
 import { json, readJson, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
-import { joinCourseSchema } from "@/components/courses/schemas";
+import { joinCourseSchema } from "@/lib/shared/schemas/courses";
 
 /**
  * POST /api/v1/courses/join — joins the course a code opens, as a student. The code is the

@@ -2,7 +2,7 @@ import { listComments } from "@/db/queries/reviews";
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
-import { idParams } from "@/components/courses/schemas";
+import { idParams } from "@/lib/shared/schemas/courses";
 import { loadSubmission } from "../../courses/course-api";
 
 /** GET /api/v1/submissions/:id — the frozen plan, its report, the review and the comments (its student or the course's instructors). */

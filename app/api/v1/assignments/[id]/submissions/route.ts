@@ -8,8 +8,8 @@ import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { submissionReceived } from "@/lib/server/mail/templates";
-import { checkAgainstAssignment } from "@/components/courses/rules";
-import { idParams, limitsSchema, submitSchema } from "@/components/courses/schemas";
+import { checkAgainstAssignment } from "@/lib/shared/courses/rules";
+import { idParams, limitsSchema, submitSchema } from "@/lib/shared/schemas/courses";
 import { loadAssignment, outbox } from "../../../courses/course-api";
 
 /** GET /api/v1/assignments/:id/submissions — the caller's own submissions to it, newest first. */

@@ -5,7 +5,7 @@ import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
 import { armSchema } from "@/lib/server/engine";
-import { createAssignmentSchema, idParams } from "@/components/courses/schemas";
+import { createAssignmentSchema, idParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../course-api";
 
 /** GET /api/v1/courses/:id/assignments — by due date, each with the caller's own status. */

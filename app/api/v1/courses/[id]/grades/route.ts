@@ -2,7 +2,7 @@ import { listGrades } from "@/db/queries/reviews";
 import { readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
-import { idParams } from "@/components/courses/schemas";
+import { idParams } from "@/lib/shared/schemas/courses";
 import { csv, loadCourse } from "../../course-api";
 
 /** GET /api/v1/courses/:id/grades — CSV: each student's latest submission per assignment, with verdict and status. */

@@ -6,7 +6,7 @@ import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { appLink, courseInvitation } from "@/lib/server/mail/templates";
-import { idParams, inviteSchema } from "@/components/courses/schemas";
+import { idParams, inviteSchema } from "@/lib/shared/schemas/courses";
 import { joinPath, loadCourse, outbox } from "../../course-api";
 
 /** POST /api/v1/courses/:id/invitations — e-mails the join link to each address (instructors only). */

@@ -2,7 +2,7 @@ import { listRoster } from "@/db/queries/courses";
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
-import { idParams } from "@/components/courses/schemas";
+import { idParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../course-api";
 
 /** GET /api/v1/courses/:id/roster — instructors and students of the course (instructors only). */

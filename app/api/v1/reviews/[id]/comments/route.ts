@@ -3,7 +3,8 @@ import { json, readJson, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
-import { commentSchema, idParams } from "@/components/courses/schemas";
+import { idParams } from "@/lib/shared/schemas/courses";
+import { commentSchema } from "@/lib/shared/schemas/reviews";
 import { loadSubmission } from "../../../courses/course-api";
 
 /** GET /api/v1/reviews/:id/comments — the comments on submission :id. */

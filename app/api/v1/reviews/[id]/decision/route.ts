@@ -7,7 +7,8 @@ import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { submissionDecided } from "@/lib/server/mail/templates";
-import { decisionSchema, idParams } from "@/components/courses/schemas";
+import { idParams } from "@/lib/shared/schemas/courses";
+import { decisionSchema } from "@/lib/shared/schemas/reviews";
 import { loadSubmission, outbox } from "../../../courses/course-api";
 
 /** POST /api/v1/reviews/:id/decision — approve or return submission :id; the student's e-mail is queued with it. */

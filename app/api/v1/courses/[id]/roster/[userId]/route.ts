@@ -4,7 +4,7 @@ import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
-import { courseMemberParams } from "@/components/courses/schemas";
+import { courseMemberParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../../course-api";
 
 /** DELETE /api/v1/courses/:id/roster/:userId — removes a student; their submissions stay on record. */

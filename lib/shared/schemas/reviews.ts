@@ -1,0 +1,40 @@
+/**
+ * The review inputs: comments, decisions and the review queue's query, one zod schema each, shared
+ * by the review page, the route handlers, the OpenAPI document and the tests.
+ */
+import { z } from "zod";
+
+const finite = () => z.number({ error: "must be a number" });
+const uuid = z.uuid({ error: "must be an id" });
+
+export const commentSchema = z
+  .object({
+    body: z.string({ error: "is required" }).trim().min(1, { error: "is required" }).max(5000),
+    moveIndex: z.number().int().min(0).optional(),
+    jointIndex: z.number().int().min(0).optional(),
+    timeS: finite().min(0).optional(),
+  })
+  .strict();
+export type CommentInput = z.infer<typeof commentSchema>;
+
+export const decisionSchema = z
+  .object({
+    decision: z.enum(["returned", "approved"], { error: 'must be "returned" or "approved"' }),
+    summary: z.string().trim().max(5000).default(""),
+  })
+  .strict()
+  .refine((d) => d.decision !== "returned" || d.summary.length > 0, { path: ["summary"], error: "is required when returning a submission" });
+
+/** The review queue's filters and sort, from the query string. */
+export const queueQuerySchema = z
+  .object({
+    courseId: uuid.optional(),
+    assignmentId: uuid.optional(),
+    status: z.enum(["submitted", "returned", "approved"]).optional(),
+    verdict: z.enum(["pass", "caution", "fault"]).optional(),
+    sort: z.enum(["submittedAt", "student", "assignment", "verdict", "status"]).default("submittedAt"),
+    order: z.enum(["asc", "desc"]).default("asc"),
+  })
+  .strict();
+export type QueueQuery = z.infer<typeof queueQuerySchema>;
+
