@@ -8,7 +8,7 @@ import { mono, sans } from "./fonts";
 
 export const metadata: Metadata = {
   title: { default: "Jointproof", template: "%s · Jointproof" },
-  description: "Plan joint moves for small robot arms and prove them against the arm's limits before the arm moves.",
+  description: "Plan joint moves for small robot arms and check them against the arm's limits before the arm moves.",
 };
 
 export default async function RootLayout({ children }: { children: React.ReactNode }) {
@@ -48,9 +48,11 @@ export default async function RootLayout({ children }: { children: React.ReactNo
                 <SignOutButton />
               </div>
             ) : (
-              <Link href="/sign-in" className="text-sm font-medium text-brand-600 hover:text-brand-700">
-                Sign in
-              </Link>
+              <div className="flex items-center gap-4 text-sm">
+                <Link href="/bench" className="text-ink-soft hover:text-ink">Try-out bench</Link>
+                <Link href="/sign-up" className="text-ink-soft hover:text-ink">Sign up</Link>
+                <Link href="/sign-in" className="font-medium text-brand-600 hover:text-brand-700">Sign in</Link>
+              </div>
             )}
           </nav>
         </header>

@@ -52,7 +52,7 @@ export const demoProjects: DemoProject[] = [
   },
   {
     id: "00000000-0000-4000-8000-000000000102",
-    name: "Lead-arm demonstrations",
+    name: "Hand-guided demonstrations",
     kind: "research",
     createdBy: researcher.id,
     members: [
@@ -166,7 +166,7 @@ export const demoRecording = {
   id: "00000000-0000-4000-8000-000000000401",
   projectId: research.id,
   armId: armLight.id,
-  name: "Guided reach (lead arm)",
+  name: "Hand-guided reach",
   createdBy: researcher.id,
   objectKey: `recordings/${research.id}/demo-guided-reach.csv`,
   csv(): string {

@@ -100,7 +100,7 @@ describe("review flow in the browser", () => {
     expect(joinCode).toMatch(/^[A-Z0-9]{8}$/);
     await page.getByLabel("Title").fill("Reach without faults");
     await page.getByLabel("Due (UTC)").fill("2099-06-01T12:00");
-    await page.getByLabel("Required arm").selectOption({ label: "Bench arm L (guide handle) · revision 1" });
+    await page.getByLabel("Required arm").selectOption({ label: "Bench arm · guide handle · revision 1" });
     await page.getByRole("button", { name: "Set assignment" }).click();
     await page.getByTestId("assignment-row").filter({ hasText: "Reach without faults" }).waitFor();
     await page.screenshot({ path: `${screenshotDir}/course-instructor.png`, fullPage: true });

@@ -4,13 +4,6 @@ import { apiOperations } from "@/lib/server/openapi";
 
 export const metadata: Metadata = { title: "API reference" };
 
-const methodStyle: Record<string, string> = {
-  get: "bg-brand-50 text-brand-700",
-  post: "bg-pass-tint text-pass",
-  patch: "bg-caution-tint text-caution",
-  delete: "bg-fault-tint text-fault",
-};
-
 /** A readable reference of /api/v1, from the same list that generates openapi.json. */
 export default function ApiDocsPage() {
   const operations = apiOperations();
@@ -96,7 +89,7 @@ export default function ApiDocsPage() {
                 .map((o) => (
                   <tr key={`${o.method} ${o.path}`} className="border-b border-line/60 align-top">
                     <td className="py-2 pr-3">
-                      <span className={`rounded px-1.5 py-0.5 font-mono text-xs font-semibold uppercase ${methodStyle[o.method]}`}>{o.method}</span>
+                      <span className="font-mono text-xs font-semibold uppercase text-ink">{o.method}</span>
                     </td>
                     <td className="py-2 pr-3 font-mono text-xs">/api/v1{o.path}</td>
                     <td className="py-2 pr-3 text-ink-soft">{o.summary}</td>

@@ -22,10 +22,10 @@ function compose(subject: string, paragraphs: string[], action: { label: string;
   const text = [...paragraphs, `${action.label}: ${action.url}`, "", "--", foot].join("\n\n");
   const html = [
     "<!doctype html>",
-    '<html lang="en"><body style="font-family: system-ui, sans-serif; color: #1b1f24; line-height: 1.5">',
+    '<html lang="en"><body style="font-family: system-ui, sans-serif; color: #1d2430; line-height: 1.5">',
     ...paragraphs.map((p) => `<p>${escapeHtml(p).replace(/\n/g, "<br>")}</p>`),
-    `<p><a href="${escapeHtml(action.url)}" style="color: #0b5cad">${escapeHtml(action.label)}</a></p>`,
-    `<p style="color: #57606a; font-size: 0.875em">${escapeHtml(foot)}</p>`,
+    `<p><a href="${escapeHtml(action.url)}" style="color: #185b6e">${escapeHtml(action.label)}</a></p>`,
+    `<p style="color: #4a5261; font-size: 0.875em">${escapeHtml(foot)}</p>`,
     "</body></html>",
   ].join("\n");
   return { subject, text, html };
