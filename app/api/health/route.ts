@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { pool } from "@/db";
+import { databaseAnswers } from "@/db/queries/health";
 import pkg from "@/package.json";
 
 export const dynamic = "force-dynamic";
@@ -8,8 +8,7 @@ export const dynamic = "force-dynamic";
 export async function GET(): Promise<NextResponse> {
   let db: "up" | "down" = "down";
   try {
-    const res = await pool.query<{ one: number }>("select 1 as one");
-    if (res.rows[0]?.one === 1) db = "up";
+    if (await databaseAnswers()) db = "up";
   } catch (err) {
     console.error("[health] database query failed:", err instanceof Error ? err.message : err);
   }
