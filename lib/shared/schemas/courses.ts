@@ -80,5 +80,8 @@ export const submitSchema = z
   })
   .strict();
 
-export const idParams = z.object({ id: uuid });
-export const courseMemberParams = z.object({ id: uuid, userId: uuid });
+/** Route parameters, named after the resource they identify. */
+export const courseParams = z.object({ courseId: uuid });
+export const courseMemberParams = z.object({ courseId: uuid, userId: uuid });
+export const assignmentParams = z.object({ assignmentId: uuid });
+export const submissionParams = z.object({ submissionId: uuid });

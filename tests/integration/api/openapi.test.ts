@@ -49,8 +49,8 @@ describe("OpenAPI 3.1 document", () => {
   it("takes the course, review and account bodies from the zod schemas the handlers use", async () => {
     const doc = (await call(openapiRoute.GET, { path: "/api/v1/openapi.json" })).body as Doc & { paths: Record<string, Record<string, { requestBody?: unknown }>> };
     const bodyRef = (p: string) => JSON.stringify(doc.paths[p]?.post?.requestBody ?? null);
-    expect(bodyRef("/courses/{id}/assignments")).toContain("#/components/schemas/CreateAssignment");
-    expect(bodyRef("/reviews/{id}/decision")).toContain("#/components/schemas/Decision");
+    expect(bodyRef("/courses/{courseId}/assignments")).toContain("#/components/schemas/CreateAssignment");
+    expect(bodyRef("/reviews/{submissionId}/decision")).toContain("#/components/schemas/Decision");
     expect(bodyRef("/accounts/password-reset/confirm")).toContain("#/components/schemas/PasswordResetConfirm");
     const schemas = doc.components.schemas as Record<string, { properties?: Record<string, unknown>; required?: string[] }>;
     expect(schemas.CreateAssignment.required).toEqual(expect.arrayContaining(["title", "dueAt", "requiredArmRevisionId"]));

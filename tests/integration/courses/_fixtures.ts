@@ -6,7 +6,7 @@ import { createProject } from "@/db/queries/projects";
 import { createAssignment, createCourse, enrolStudent } from "@/db/queries/courses";
 import { armRevisions } from "@/db/schema";
 import { check } from "@/kinematics";
-import { planSchema } from "@/kinematics/plan/plan";
+import { planSchema } from "@/kinematics";
 import { demoArm } from "../api/_helpers";
 
 /** Revision 1 of the light demo arm, as seeded. */

@@ -10,20 +10,20 @@ import { call, makeUser, sessionCookieFor, tokenFor, type Auth } from "../api/_h
 import { baseMovePlan, courseWithAssignment, studentPlan } from "./_fixtures";
 import { createSubmission, enrolStudent, getCourseForUser } from "@/db/queries/courses";
 import * as coursesRoute from "@/app/api/v1/courses/route";
-import * as courseRoute from "@/app/api/v1/courses/[id]/route";
+import * as courseRoute from "@/app/api/v1/courses/[courseId]/route";
 import * as joinRoute from "@/app/api/v1/courses/join/route";
-import * as invitationsRoute from "@/app/api/v1/courses/[id]/invitations/route";
-import * as assignmentsRoute from "@/app/api/v1/courses/[id]/assignments/route";
-import * as rosterRoute from "@/app/api/v1/courses/[id]/roster/route";
-import * as rosterMemberRoute from "@/app/api/v1/courses/[id]/roster/[userId]/route";
-import * as gradesRoute from "@/app/api/v1/courses/[id]/grades/route";
-import * as assignmentRoute from "@/app/api/v1/assignments/[id]/route";
-import * as submitRoute from "@/app/api/v1/assignments/[id]/submissions/route";
+import * as invitationsRoute from "@/app/api/v1/courses/[courseId]/invitations/route";
+import * as assignmentsRoute from "@/app/api/v1/courses/[courseId]/assignments/route";
+import * as rosterRoute from "@/app/api/v1/courses/[courseId]/roster/route";
+import * as rosterMemberRoute from "@/app/api/v1/courses/[courseId]/roster/[userId]/route";
+import * as gradesRoute from "@/app/api/v1/courses/[courseId]/grades/route";
+import * as assignmentRoute from "@/app/api/v1/assignments/[assignmentId]/route";
+import * as submitRoute from "@/app/api/v1/assignments/[assignmentId]/submissions/route";
 import * as mySubmissionsRoute from "@/app/api/v1/submissions/route";
-import * as submissionRoute from "@/app/api/v1/submissions/[id]/route";
+import * as submissionRoute from "@/app/api/v1/submissions/[submissionId]/route";
 import * as queueRoute from "@/app/api/v1/reviews/route";
-import * as commentsRoute from "@/app/api/v1/reviews/[id]/comments/route";
-import * as decisionRoute from "@/app/api/v1/reviews/[id]/decision/route";
+import * as commentsRoute from "@/app/api/v1/reviews/[submissionId]/comments/route";
+import * as decisionRoute from "@/app/api/v1/reviews/[submissionId]/decision/route";
 import { demoArmRevision } from "./_fixtures";
 
 type Caller = "anonymous" | "student" | "otherStudent" | "instructor" | "otherInstructor" | "admin" | "studentToken";
@@ -82,67 +82,67 @@ const rows: Row[] = [
     body: (ids) => ({ code: ids.joinCourseCode }),
     expect: anyone(200),
   },
-  { name: "GET /courses/:id", handler: courseRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}`, params: (i) => ({ id: i.courseId }), expect: courseScoped(200, 200) },
-  { name: "GET /courses/:id/roster", handler: rosterRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/roster`, params: (i) => ({ id: i.courseId }), expect: courseScoped(403, 200) },
+  { name: "GET /courses/:courseId", handler: courseRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(200, 200) },
+  { name: "GET /courses/:courseId/roster", handler: rosterRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/roster`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(403, 200) },
   {
-    name: "DELETE /courses/:id/roster/:userId",
+    name: "DELETE /courses/:courseId/roster/:userId",
     handler: rosterMemberRoute.DELETE,
     method: "DELETE",
     path: (i) => `/api/v1/courses/${i.courseId}/roster/${i.removableId}`,
-    params: (i) => ({ id: i.courseId, userId: i.removableId }),
+    params: (i) => ({ courseId: i.courseId, userId: i.removableId }),
     expect: courseScoped(403, 200),
   },
   {
-    name: "POST /courses/:id/invitations",
+    name: "POST /courses/:courseId/invitations",
     handler: invitationsRoute.POST,
     method: "POST",
     path: (i) => `/api/v1/courses/${i.courseId}/invitations`,
-    params: (i) => ({ id: i.courseId }),
+    params: (i) => ({ courseId: i.courseId }),
     body: () => ({ emails: ["matrix-invitee@example.com"] }),
     expect: courseScoped(403, 202),
   },
-  { name: "GET /courses/:id/assignments", handler: assignmentsRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/assignments`, params: (i) => ({ id: i.courseId }), expect: courseScoped(200, 200) },
+  { name: "GET /courses/:courseId/assignments", handler: assignmentsRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/assignments`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(200, 200) },
   {
-    name: "POST /courses/:id/assignments",
+    name: "POST /courses/:courseId/assignments",
     handler: assignmentsRoute.POST,
     method: "POST",
     path: (i) => `/api/v1/courses/${i.courseId}/assignments`,
-    params: (i) => ({ id: i.courseId }),
+    params: (i) => ({ courseId: i.courseId }),
     body: (i) => ({ title: "Matrix assignment", dueAt: new Date(Date.now() + 3_600_000).toISOString(), requiredArmRevisionId: i.revisionId }),
     expect: courseScoped(403, 201),
   },
-  { name: "GET /courses/:id/grades", handler: gradesRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/grades`, params: (i) => ({ id: i.courseId }), expect: courseScoped(403, 200) },
-  { name: "GET /assignments/:id", handler: assignmentRoute.GET, method: "GET", path: (i) => `/api/v1/assignments/${i.assignmentId}`, params: (i) => ({ id: i.assignmentId }), expect: courseScoped(200, 200) },
-  { name: "GET /assignments/:id/submissions", handler: submitRoute.GET, method: "GET", path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`, params: (i) => ({ id: i.assignmentId }), expect: courseScoped(200, 403) },
+  { name: "GET /courses/:courseId/grades", handler: gradesRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/grades`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(403, 200) },
+  { name: "GET /assignments/:assignmentId", handler: assignmentRoute.GET, method: "GET", path: (i) => `/api/v1/assignments/${i.assignmentId}`, params: (i) => ({ assignmentId: i.assignmentId }), expect: courseScoped(200, 200) },
+  { name: "GET /assignments/:assignmentId/submissions", handler: submitRoute.GET, method: "GET", path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`, params: (i) => ({ assignmentId: i.assignmentId }), expect: courseScoped(200, 403) },
   {
-    name: "POST /assignments/:id/submissions",
+    name: "POST /assignments/:assignmentId/submissions",
     handler: submitRoute.POST,
     method: "POST",
     path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`,
-    params: (i) => ({ id: i.assignmentId }),
+    params: (i) => ({ assignmentId: i.assignmentId }),
     body: (i) => ({ planId: i.planId, versionNumber: 1 }),
     // The student's earlier submission still waits for review: allowed, but a conflict.
     expect: courseScoped(409, 403),
   },
   { name: "GET /submissions", handler: mySubmissionsRoute.GET, method: "GET", path: () => "/api/v1/submissions", params: () => ({}), expect: anyone(200) },
-  { name: "GET /submissions/:id", handler: submissionRoute.GET, method: "GET", path: (i) => `/api/v1/submissions/${i.submissionId}`, params: (i) => ({ id: i.submissionId }), expect: courseScoped(200, 200) },
+  { name: "GET /submissions/:submissionId", handler: submissionRoute.GET, method: "GET", path: (i) => `/api/v1/submissions/${i.submissionId}`, params: (i) => ({ submissionId: i.submissionId }), expect: courseScoped(200, 200) },
   { name: "GET /reviews", handler: queueRoute.GET, method: "GET", path: () => "/api/v1/reviews", params: () => ({}), expect: anyone(200) },
-  { name: "GET /reviews/:id/comments", handler: commentsRoute.GET, method: "GET", path: (i) => `/api/v1/reviews/${i.submissionId}/comments`, params: (i) => ({ id: i.submissionId }), expect: courseScoped(200, 200) },
+  { name: "GET /reviews/:submissionId/comments", handler: commentsRoute.GET, method: "GET", path: (i) => `/api/v1/reviews/${i.submissionId}/comments`, params: (i) => ({ submissionId: i.submissionId }), expect: courseScoped(200, 200) },
   {
-    name: "POST /reviews/:id/comments",
+    name: "POST /reviews/:submissionId/comments",
     handler: commentsRoute.POST,
     method: "POST",
     path: (i) => `/api/v1/reviews/${i.submissionId}/comments`,
-    params: (i) => ({ id: i.submissionId }),
+    params: (i) => ({ submissionId: i.submissionId }),
     body: () => ({ body: "Matrix comment", moveIndex: 0 }),
     expect: courseScoped(403, 201),
   },
   {
-    name: "POST /reviews/:id/decision",
+    name: "POST /reviews/:submissionId/decision",
     handler: decisionRoute.POST,
     method: "POST",
     path: (i) => `/api/v1/reviews/${i.submissionId}/decision`,
-    params: (i) => ({ id: i.submissionId }),
+    params: (i) => ({ submissionId: i.submissionId }),
     body: () => ({ decision: "approved" }),
     expect: courseScoped(403, 201),
   },
@@ -226,11 +226,11 @@ describe("course routes: bad input", () => {
     { name: "course without a title", handler: coursesRoute.POST, path: () => "/api/v1/courses", params: () => ({}), body: { term: "Spring" }, field: "title" },
     { name: "course limits that loosen", handler: coursesRoute.POST, path: () => "/api/v1/courses", params: () => ({}), body: { title: "x", term: "y", limits: { velocityScale: 1.5 } }, field: "limits.velocityScale" },
     { name: "join code of the wrong shape", handler: joinRoute.POST, path: () => "/api/v1/courses/join", params: () => ({}), body: { code: "abc" }, field: "code" },
-    { name: "invitation to a non-address", handler: invitationsRoute.POST, path: (i) => `/api/v1/courses/${i.courseId}/invitations`, params: (i) => ({ id: i.courseId }), body: { emails: ["not-an-address"] }, field: "emails[0]" },
-    { name: "assignment with a bad due date", handler: assignmentsRoute.POST, path: (i) => `/api/v1/courses/${i.courseId}/assignments`, params: (i) => ({ id: i.courseId }), body: { title: "t", dueAt: "tomorrow", requiredArmRevisionId: "00000000-0000-4000-8000-000000000000" }, field: "dueAt" },
-    { name: "submission with a string version", handler: submitRoute.POST, path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`, params: (i) => ({ id: i.assignmentId }), body: { planId: "00000000-0000-4000-8000-000000000000", versionNumber: "1" }, field: "versionNumber" },
-    { name: "comment with a negative time", handler: commentsRoute.POST, path: (i) => `/api/v1/reviews/${i.submissionId}/comments`, params: (i) => ({ id: i.submissionId }), body: { body: "x", timeS: -1 }, field: "timeS" },
-    { name: "return without a summary", handler: decisionRoute.POST, path: (i) => `/api/v1/reviews/${i.submissionId}/decision`, params: (i) => ({ id: i.submissionId }), body: { decision: "returned" }, field: "summary" },
+    { name: "invitation to a non-address", handler: invitationsRoute.POST, path: (i) => `/api/v1/courses/${i.courseId}/invitations`, params: (i) => ({ courseId: i.courseId }), body: { emails: ["not-an-address"] }, field: "emails[0]" },
+    { name: "assignment with a bad due date", handler: assignmentsRoute.POST, path: (i) => `/api/v1/courses/${i.courseId}/assignments`, params: (i) => ({ courseId: i.courseId }), body: { title: "t", dueAt: "tomorrow", requiredArmRevisionId: "00000000-0000-4000-8000-000000000000" }, field: "dueAt" },
+    { name: "submission with a string version", handler: submitRoute.POST, path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`, params: (i) => ({ assignmentId: i.assignmentId }), body: { planId: "00000000-0000-4000-8000-000000000000", versionNumber: "1" }, field: "versionNumber" },
+    { name: "comment with a negative time", handler: commentsRoute.POST, path: (i) => `/api/v1/reviews/${i.submissionId}/comments`, params: (i) => ({ submissionId: i.submissionId }), body: { body: "x", timeS: -1 }, field: "timeS" },
+    { name: "return without a summary", handler: decisionRoute.POST, path: (i) => `/api/v1/reviews/${i.submissionId}/decision`, params: (i) => ({ submissionId: i.submissionId }), body: { decision: "returned" }, field: "summary" },
   ];
   it.each(bad.map((b) => [b.name, b] as const))("%s is a 400 naming the field", async (_name, b) => {
     const res = await call(b.handler, { method: "POST", path: b.path(ids), params: b.params(ids), auth: auth.instructor ?? null, body: b.body });

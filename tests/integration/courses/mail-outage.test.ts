@@ -13,7 +13,7 @@ import { messageIdFor } from "@/lib/server/mail/transport";
 import { startMailWithWorker, type MailHarness, type MailWithWorker } from "./_mail";
 import { baseMovePlan, courseWithAssignment, studentPlan } from "./_fixtures";
 import { call, makeUser, sessionCookieFor } from "../api/_helpers";
-import * as submitRoute from "@/app/api/v1/assignments/[id]/submissions/route";
+import * as submitRoute from "@/app/api/v1/assignments/[assignmentId]/submissions/route";
 
 let mail: MailHarness;
 let harness: MailWithWorker;
@@ -48,7 +48,7 @@ describe("mail server outage", () => {
     const res = await call(submitRoute.POST, {
       method: "POST",
       path: `/api/v1/assignments/${assignment.id}/submissions`,
-      params: { id: assignment.id },
+      params: { assignmentId: assignment.id },
       auth: { cookie: await sessionCookieFor(student.id) },
       body: { planId, versionNumber: 1 },
     });

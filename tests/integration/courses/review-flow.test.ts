@@ -14,15 +14,15 @@ import { baseMovePlan, demoArmRevision, studentPlan } from "./_fixtures";
 import { call, makeUser, sessionCookieFor, type TestUser } from "../api/_helpers";
 import * as coursesRoute from "@/app/api/v1/courses/route";
 import * as joinRoute from "@/app/api/v1/courses/join/route";
-import * as invitationsRoute from "@/app/api/v1/courses/[id]/invitations/route";
-import * as assignmentsRoute from "@/app/api/v1/courses/[id]/assignments/route";
-import * as rosterRoute from "@/app/api/v1/courses/[id]/roster/route";
-import * as gradesRoute from "@/app/api/v1/courses/[id]/grades/route";
-import * as submitRoute from "@/app/api/v1/assignments/[id]/submissions/route";
-import * as submissionRoute from "@/app/api/v1/submissions/[id]/route";
+import * as invitationsRoute from "@/app/api/v1/courses/[courseId]/invitations/route";
+import * as assignmentsRoute from "@/app/api/v1/courses/[courseId]/assignments/route";
+import * as rosterRoute from "@/app/api/v1/courses/[courseId]/roster/route";
+import * as gradesRoute from "@/app/api/v1/courses/[courseId]/grades/route";
+import * as submitRoute from "@/app/api/v1/assignments/[assignmentId]/submissions/route";
+import * as submissionRoute from "@/app/api/v1/submissions/[submissionId]/route";
 import * as queueRoute from "@/app/api/v1/reviews/route";
-import * as commentsRoute from "@/app/api/v1/reviews/[id]/comments/route";
-import * as decisionRoute from "@/app/api/v1/reviews/[id]/decision/route";
+import * as commentsRoute from "@/app/api/v1/reviews/[submissionId]/comments/route";
+import * as decisionRoute from "@/app/api/v1/reviews/[submissionId]/decision/route";
 
 let mail: MailHarness;
 let harness: MailWithWorker;
@@ -64,7 +64,7 @@ describe("course review flow", () => {
     const invited = await call(invitationsRoute.POST, {
       method: "POST",
       path: `/api/v1/courses/${course.id}/invitations`,
-      params: { id: course.id },
+      params: { courseId: course.id },
       auth: asInstructor,
       body: { emails: [student.email] },
     });
@@ -79,7 +79,7 @@ describe("course review flow", () => {
     const joined = await call(joinRoute.POST, { method: "POST", path: "/api/v1/courses/join", auth: asStudent, body: { code } });
     expect(joined.status).toBe(200);
     expect((joined.body as Body).role).toBe("student");
-    const roster = await call(rosterRoute.GET, { path: `/api/v1/courses/${course.id}/roster`, params: { id: course.id }, auth: asInstructor });
+    const roster = await call(rosterRoute.GET, { path: `/api/v1/courses/${course.id}/roster`, params: { courseId: course.id }, auth: asInstructor });
     expect((roster.body as Body).roster.map((r: Body) => [r.userId, r.role])).toEqual(
       expect.arrayContaining([[instructor.id, "instructor"], [student.id, "student"]]),
     );
@@ -90,7 +90,7 @@ describe("course review flow", () => {
     const assignmentRes = await call(assignmentsRoute.POST, {
       method: "POST",
       path: `/api/v1/courses/${course.id}/assignments`,
-      params: { id: course.id },
+      params: { courseId: course.id },
       auth: asInstructor,
       body: {
         title: "Base sweep",
@@ -108,7 +108,7 @@ describe("course review flow", () => {
     // the arm itself) but above 70% of it (2.24 rad/s): the server's re-check must find a fault.
     // Version 2 takes 2 s (0.94 rad/s) and passes.
     const listStatus = async () => {
-      const res = await call(assignmentsRoute.GET, { path: `/api/v1/courses/${course.id}/assignments`, params: { id: course.id }, auth: asStudent });
+      const res = await call(assignmentsRoute.GET, { path: `/api/v1/courses/${course.id}/assignments`, params: { courseId: course.id }, auth: asStudent });
       return (res.body as Body).assignments.find((a: Body) => a.id === assignment.id)?.status;
     };
     expect(await listStatus()).toBe("not-started");
@@ -118,7 +118,7 @@ describe("course review flow", () => {
     const first = await call(submitRoute.POST, {
       method: "POST",
       path: `/api/v1/assignments/${assignment.id}/submissions`,
-      params: { id: assignment.id },
+      params: { assignmentId: assignment.id },
       auth: asStudent,
       body: { planId, versionNumber: 1 },
     });
@@ -144,7 +144,7 @@ describe("course review flow", () => {
     const comment = await call(commentsRoute.POST, {
       method: "POST",
       path: `/api/v1/reviews/${firstSub.id}/comments`,
-      params: { id: firstSub.id },
+      params: { submissionId: firstSub.id },
       auth: asInstructor,
       body: { body: "The base is over 70% of its speed here; lengthen the move.", moveIndex: 0, jointIndex: 0, timeS: 0.365 },
     });
@@ -152,7 +152,7 @@ describe("course review flow", () => {
     const returned = await call(decisionRoute.POST, {
       method: "POST",
       path: `/api/v1/reviews/${firstSub.id}/decision`,
-      params: { id: firstSub.id },
+      params: { submissionId: firstSub.id },
       auth: asInstructor,
       body: { decision: "returned", summary: "Slow the first move down." },
     });
@@ -163,7 +163,7 @@ describe("course review flow", () => {
     expect(returnedMail.text).toContain(`/reviews/${firstSub.id}`);
 
     // The student sees the comment where it is pinned.
-    const seen = await call(submissionRoute.GET, { path: `/api/v1/submissions/${firstSub.id}`, params: { id: firstSub.id }, auth: asStudent });
+    const seen = await call(submissionRoute.GET, { path: `/api/v1/submissions/${firstSub.id}`, params: { submissionId: firstSub.id }, auth: asStudent });
     expect(seen.status).toBe(200);
     expect((seen.body as Body).submission.status).toBe("returned");
     expect((seen.body as Body).comments).toMatchObject([{ moveIndex: 0, jointIndex: 0, timeS: 0.365 }]);
@@ -172,7 +172,7 @@ describe("course review flow", () => {
     const second = await call(submitRoute.POST, {
       method: "POST",
       path: `/api/v1/assignments/${assignment.id}/submissions`,
-      params: { id: assignment.id },
+      params: { assignmentId: assignment.id },
       auth: asStudent,
       body: { planId, versionNumber: 2 },
     });
@@ -185,7 +185,7 @@ describe("course review flow", () => {
     const again = await call(submitRoute.POST, {
       method: "POST",
       path: `/api/v1/assignments/${assignment.id}/submissions`,
-      params: { id: assignment.id },
+      params: { assignmentId: assignment.id },
       auth: asStudent,
       body: { planId, versionNumber: 2 },
     });
@@ -194,7 +194,7 @@ describe("course review flow", () => {
     const approved = await call(decisionRoute.POST, {
       method: "POST",
       path: `/api/v1/reviews/${secondSub.id}/decision`,
-      params: { id: secondSub.id },
+      params: { submissionId: secondSub.id },
       auth: asInstructor,
       body: { decision: "approved", summary: "" },
     });
@@ -205,7 +205,7 @@ describe("course review flow", () => {
     const twice = await call(decisionRoute.POST, {
       method: "POST",
       path: `/api/v1/reviews/${secondSub.id}/decision`,
-      params: { id: secondSub.id },
+      params: { submissionId: secondSub.id },
       auth: asInstructor,
       body: { decision: "returned", summary: "changed my mind" },
     });
@@ -213,7 +213,7 @@ describe("course review flow", () => {
 
     expect(await listStatus()).toBe("approved");
 
-    const grades = await call(gradesRoute.GET, { path: `/api/v1/courses/${course.id}/grades`, params: { id: course.id }, auth: asInstructor });
+    const grades = await call(gradesRoute.GET, { path: `/api/v1/courses/${course.id}/grades`, params: { courseId: course.id }, auth: asInstructor });
     expect(grades.status).toBe(200);
     expect(grades.headers.get("content-type")).toContain("text/csv");
     const lines = grades.text.trim().split("\r\n");

@@ -4,10 +4,10 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { call, makeUser, sessionCookieFor } from "../api/_helpers";
 import { baseMovePlan, courseWithAssignment, studentPlan } from "./_fixtures";
 import { startMailHarness, type MailHarness } from "./_mail";
-import * as courseRoute from "@/app/api/v1/courses/[id]/route";
+import * as courseRoute from "@/app/api/v1/courses/[courseId]/route";
 import * as joinRoute from "@/app/api/v1/courses/join/route";
-import * as rosterMemberRoute from "@/app/api/v1/courses/[id]/roster/[userId]/route";
-import * as submitRoute from "@/app/api/v1/assignments/[id]/submissions/route";
+import * as rosterMemberRoute from "@/app/api/v1/courses/[courseId]/roster/[userId]/route";
+import * as submitRoute from "@/app/api/v1/assignments/[assignmentId]/submissions/route";
 import * as devMailRoute from "@/app/api/dev/mail/route";
 import { getCourseForUser } from "@/db/queries/courses";
 import { queueMail } from "@/db/queries/mail";
@@ -29,20 +29,20 @@ describe("roster", () => {
     const { course, assignment } = await courseWithAssignment(instructor.id, [student.id]);
     const asStudent = { cookie: await sessionCookieFor(student.id) };
     const { planId } = await studentPlan(student.id, [baseMovePlan(2)]);
-    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { id: course.id }, auth: asStudent })).status).toBe(200);
+    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { courseId: course.id }, auth: asStudent })).status).toBe(200);
 
     const removed = await call(rosterMemberRoute.DELETE, {
       method: "DELETE",
       path: `/api/v1/courses/${course.id}/roster/${student.id}`,
-      params: { id: course.id, userId: student.id },
+      params: { courseId: course.id, userId: student.id },
       auth: { cookie: await sessionCookieFor(instructor.id) },
     });
     expect(removed.status).toBe(200);
-    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { id: course.id }, auth: asStudent })).status).toBe(404);
+    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { courseId: course.id }, auth: asStudent })).status).toBe(404);
     const submit = await call(submitRoute.POST, {
       method: "POST",
       path: `/api/v1/assignments/${assignment.id}/submissions`,
-      params: { id: assignment.id },
+      params: { assignmentId: assignment.id },
       auth: asStudent,
       body: { planId, versionNumber: 1 },
     });
@@ -51,7 +51,7 @@ describe("roster", () => {
     const code = (await getCourseForUser({ courseId: course.id, userId: instructor.id }))!.joinCode;
     const joined = await call(joinRoute.POST, { method: "POST", path: "/api/v1/courses/join", auth: asStudent, body: { code: code.toLowerCase() } });
     expect(joined.status).toBe(200);
-    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { id: course.id }, auth: asStudent })).status).toBe(200);
+    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { courseId: course.id }, auth: asStudent })).status).toBe(200);
   });
 
   it("an unknown join code is a 404 and the instructor cannot be removed", async () => {
@@ -62,7 +62,7 @@ describe("roster", () => {
     const self = await call(rosterMemberRoute.DELETE, {
       method: "DELETE",
       path: `/api/v1/courses/${course.id}/roster/${instructor.id}`,
-      params: { id: course.id, userId: instructor.id },
+      params: { courseId: course.id, userId: instructor.id },
       auth,
     });
     expect(self.status).toBe(404);
@@ -83,7 +83,7 @@ describe("development mail API", () => {
     expect(res.status).toBe(404);
   });
 
-  it("lists what the SMTP fake received when JP_DEV_MAIL=1", async () => {
+  it("lists what the SMTP fake received to a signed-in admin when JP_DEV_MAIL=1", async () => {
     Object.assign(process.env, { NODE_ENV: "production", JP_DEV_MAIL: "1" });
     const { startMailWorker } = await import("@/lib/server/mail/worker");
     const worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
@@ -93,7 +93,8 @@ describe("development mail API", () => {
       const { enqueueMail } = await import("@/lib/server/mail/queue");
       await enqueueMail(ids);
       await mail.waitFor((m) => m.to === to);
-      const res = await call(devMailRoute.GET, { path: "/api/dev/mail" });
+      const admin = await makeUser("admin");
+      const res = await call(devMailRoute.GET, { path: "/api/dev/mail", auth: { cookie: await sessionCookieFor(admin.id) } });
       expect(res.status).toBe(200);
       const body = res.body as { messages: { to: string; subject: string }[]; outbox: { toAddress: string; status: string }[] };
       expect(body.messages.find((m) => m.to === to)?.subject).toBe("Shown on the dev page");

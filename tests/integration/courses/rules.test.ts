@@ -2,7 +2,7 @@
 import { describe, expect, it } from "vitest";
 import { checkAgainstAssignment, ruleProblems, tightenArm } from "@/lib/shared/courses/rules";
 import { csvField } from "@/app/api/v1/courses/course-api";
-import { planSchema, type Arm } from "@/kinematics/plan/plan";
+import { planSchema, type Arm } from "@/kinematics";
 import { baseMovePlan } from "./_fixtures";
 
 const plan = (durationS: number) => planSchema.parse(baseMovePlan(durationS));

@@ -2,14 +2,14 @@ import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse, canCourse } from "@/lib/server/course-permissions";
 import { appLink } from "@/lib/server/mail/templates";
-import { idParams } from "@/lib/shared/schemas/courses";
+import { courseParams } from "@/lib/shared/schemas/courses";
 import { joinPath, loadCourse } from "../course-api";
 
-/** GET /api/v1/courses/:id — the course; instructors also get its join code and invitation link. */
+/** GET /api/v1/courses/:courseId — the course; instructors also get its join code and invitation link. */
 export const GET = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { courseId } = await readParams(context, courseParams);
   const actor = await requireActor(request);
-  const course = await loadCourse(actor, id);
+  const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "course:read");
   if (canCourse(course.role, "course:manage")) return json({ course: { ...course, inviteUrl: appLink(joinPath(course.joinCode)) } });
   return json({ course: { ...course, joinCode: undefined } });

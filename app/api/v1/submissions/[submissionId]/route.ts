@@ -2,14 +2,14 @@ import { listComments } from "@/db/queries/reviews";
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
-import { idParams } from "@/lib/shared/schemas/courses";
+import { submissionParams } from "@/lib/shared/schemas/courses";
 import { loadSubmission } from "../../courses/course-api";
 
-/** GET /api/v1/submissions/:id — the frozen plan, its report, the review and the comments (its student or the course's instructors). */
+/** GET /api/v1/submissions/:submissionId — the frozen plan, its report, the review and the comments (its student or the course's instructors). */
 export const GET = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { submissionId } = await readParams(context, submissionParams);
   const actor = await requireActor(request);
-  const submission = await loadSubmission(actor, id);
+  const submission = await loadSubmission(actor, submissionId);
   authorizeCourse(submission.viewerRole, submission.viewerRole === "instructor" ? "submission:read-all" : "submission:read-own");
-  return json({ submission, comments: await listComments({ submissionId: id, userId: actor.userId }) });
+  return json({ submission, comments: await listComments({ submissionId, userId: actor.userId }) });
 });

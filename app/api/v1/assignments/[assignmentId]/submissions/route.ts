@@ -2,36 +2,36 @@ import { recordAudit } from "@/db/queries/audit";
 import { createSubmission, getArmRevisionById, getSubmittableVersion, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
 import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/server/route";
-import { armSchema, parsePlan } from "@/lib/server/engine";
+import { armSchema, parsePlan } from "@/kinematics";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { submissionReceived } from "@/lib/server/mail/templates";
 import { checkAgainstAssignment } from "@/lib/shared/courses/rules";
-import { idParams, limitsSchema, submitSchema } from "@/lib/shared/schemas/courses";
+import { assignmentParams, limitsSchema, submitSchema } from "@/lib/shared/schemas/courses";
 import { loadAssignment, outbox } from "../../../courses/course-api";
 
-/** GET /api/v1/assignments/:id/submissions — the caller's own submissions to it, newest first. */
+/** GET /api/v1/assignments/:assignmentId/submissions — the caller's own submissions to it, newest first. */
 export const GET = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { assignmentId } = await readParams(context, assignmentParams);
   const actor = await requireActor(request);
-  const assignment = await loadAssignment(actor, id);
+  const assignment = await loadAssignment(actor, assignmentId);
   authorizeCourse(assignment.role, "submission:read-own");
-  return json({ submissions: await listOwnSubmissions({ userId: actor.userId, assignmentId: id }) });
+  return json({ submissions: await listOwnSubmissions({ userId: actor.userId, assignmentId }) });
 });
 
 /**
- * POST /api/v1/assignments/:id/submissions — submits one saved plan version. The server re-checks
+ * POST /api/v1/assignments/:assignmentId/submissions — submits one saved plan version. The server re-checks
  * it against the assignment's rules (required arm revision and poses, limits tightened by the
  * course and the assignment) and stores the frozen document with the report. The instructors'
  * e-mails are queued in the same transaction, so a mail server that is down loses nothing.
  */
 export const POST = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { assignmentId } = await readParams(context, assignmentParams);
   const body = await readJson(request, submitSchema);
   const actor = await requireActor(request);
-  const assignment = await loadAssignment(actor, id);
+  const assignment = await loadAssignment(actor, assignmentId);
   authorizeCourse(assignment.role, "submission:create");
   const version = await getSubmittableVersion({ planId: body.planId, number: body.versionNumber, userId: actor.userId });
   if (!version) throw new AppError("not_found:plan-version", "No such plan version in your projects.");
@@ -54,7 +54,7 @@ export const POST = route(async (request, context) => {
   const instructors = await listCourseInstructors({ courseId: assignment.courseId });
   const result = await createSubmission(
     {
-      assignmentId: id,
+      assignmentId,
       studentId: actor.userId,
       planId: version.planId,
       planVersionId: version.id,
@@ -95,7 +95,7 @@ export const POST = route(async (request, context) => {
         : "This assignment is already approved.",
     );
   }
-  await recordAudit({ actorId: actor.userId, action: "submission.create", targetType: "submission", targetId: result.submission.id, detail: { assignmentId: id, attempt: result.submission.attempt, verdict: report.verdict } });
+  await recordAudit({ actorId: actor.userId, action: "submission.create", targetType: "submission", targetId: result.submission.id, detail: { assignmentId, attempt: result.submission.attempt, verdict: report.verdict } });
   await enqueueMail(result.mailIds);
   return json({ submission: { ...result.submission, document: undefined }, report, ruleProblems: problems }, 201);
 });

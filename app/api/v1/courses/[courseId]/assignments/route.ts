@@ -4,25 +4,25 @@ import { json, readJson, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
-import { armSchema } from "@/lib/server/engine";
-import { createAssignmentSchema, idParams } from "@/lib/shared/schemas/courses";
+import { armSchema } from "@/kinematics";
+import { createAssignmentSchema, courseParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../course-api";
 
-/** GET /api/v1/courses/:id/assignments — by due date, each with the caller's own status. */
+/** GET /api/v1/courses/:courseId/assignments — by due date, each with the caller's own status. */
 export const GET = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { courseId } = await readParams(context, courseParams);
   const actor = await requireActor(request);
-  const course = await loadCourse(actor, id);
+  const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "assignment:read");
-  return json({ assignments: await listAssignmentsForUser({ courseId: id, userId: actor.userId }) });
+  return json({ assignments: await listAssignmentsForUser({ courseId, userId: actor.userId }) });
 });
 
-/** POST /api/v1/courses/:id/assignments — instructors set an assignment on a required arm revision. */
+/** POST /api/v1/courses/:courseId/assignments — instructors set an assignment on a required arm revision. */
 export const POST = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { courseId } = await readParams(context, courseParams);
   const body = await readJson(request, createAssignmentSchema);
   const actor = await requireActor(request);
-  const course = await loadCourse(actor, id);
+  const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "assignment:create");
   const revision = await getArmRevisionById({ id: body.requiredArmRevisionId });
   if (!revision) {
@@ -36,8 +36,8 @@ export const POST = route(async (request, context) => {
     ...(body.limits?.joints ?? []).flatMap((j, i) => (j.joint >= n ? [{ path: `limits.joints[${i}].joint`, message: `must be below ${n}` }] : [])),
   ];
   if (poseIssues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues: poseIssues });
-  const assignment = await createAssignment({ courseId: id, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
+  const assignment = await createAssignment({ courseId, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
   if (!assignment) throw new AppError("forbidden:assignment", "Only the course's instructors can set assignments.");
-  await recordAudit({ actorId: actor.userId, action: "assignment.create", targetType: "assignment", targetId: assignment.id, projectId: course.projectId, detail: { courseId: id } });
+  await recordAudit({ actorId: actor.userId, action: "assignment.create", targetType: "assignment", targetId: assignment.id, projectId: course.projectId, detail: { courseId } });
   return json({ assignment }, 201);
 });

@@ -2,16 +2,16 @@ import { listGrades } from "@/db/queries/reviews";
 import { readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
-import { idParams } from "@/lib/shared/schemas/courses";
+import { courseParams } from "@/lib/shared/schemas/courses";
 import { csv, loadCourse } from "../../course-api";
 
-/** GET /api/v1/courses/:id/grades — CSV: each student's latest submission per assignment, with verdict and status. */
+/** GET /api/v1/courses/:courseId/grades — CSV: each student's latest submission per assignment, with verdict and status. */
 export const GET = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { courseId } = await readParams(context, courseParams);
   const actor = await requireActor(request);
-  const course = await loadCourse(actor, id);
+  const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "grades:export");
-  const rows = await listGrades({ courseId: id, userId: actor.userId });
+  const rows = await listGrades({ courseId, userId: actor.userId });
   rows.sort((a, b) => a.studentName.localeCompare(b.studentName) || a.dueAt.getTime() - b.dueAt.getTime());
   const body = csv([
     ["student", "email", "assignment", "due_at", "attempt", "submitted_at", "late", "verdict", "status", "review_summary"],

@@ -6,15 +6,15 @@ import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { appLink, courseInvitation } from "@/lib/server/mail/templates";
-import { idParams, inviteSchema } from "@/lib/shared/schemas/courses";
+import { courseParams, inviteSchema } from "@/lib/shared/schemas/courses";
 import { joinPath, loadCourse, outbox } from "../../course-api";
 
-/** POST /api/v1/courses/:id/invitations — e-mails the join link to each address (instructors only). */
+/** POST /api/v1/courses/:courseId/invitations — e-mails the join link to each address (instructors only). */
 export const POST = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { courseId } = await readParams(context, courseParams);
   const body = await readJson(request, inviteSchema);
   const actor = await requireActor(request);
-  const course = await loadCourse(actor, id);
+  const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "course:manage");
   const instructor = await getActiveUserById({ id: actor.userId });
   const batch = randomUUID();

@@ -2,14 +2,14 @@ import { listRoster } from "@/db/queries/courses";
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
-import { idParams } from "@/lib/shared/schemas/courses";
+import { courseParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../course-api";
 
-/** GET /api/v1/courses/:id/roster — instructors and students of the course (instructors only). */
+/** GET /api/v1/courses/:courseId/roster — instructors and students of the course (instructors only). */
 export const GET = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { courseId } = await readParams(context, courseParams);
   const actor = await requireActor(request);
-  const course = await loadCourse(actor, id);
+  const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "roster:read");
-  return json({ roster: await listRoster({ courseId: id, userId: actor.userId }) });
+  return json({ roster: await listRoster({ courseId, userId: actor.userId }) });
 });

@@ -3,25 +3,25 @@ import { json, readJson, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
-import { idParams } from "@/lib/shared/schemas/courses";
+import { submissionParams } from "@/lib/shared/schemas/courses";
 import { commentSchema } from "@/lib/shared/schemas/reviews";
 import { loadSubmission } from "../../../courses/course-api";
 
-/** GET /api/v1/reviews/:id/comments — the comments on submission :id. */
+/** GET /api/v1/reviews/:submissionId/comments — the comments on submission :submissionId. */
 export const GET = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { submissionId } = await readParams(context, submissionParams);
   const actor = await requireActor(request);
-  const submission = await loadSubmission(actor, id);
+  const submission = await loadSubmission(actor, submissionId);
   authorizeCourse(submission.viewerRole, submission.viewerRole === "instructor" ? "submission:read-all" : "submission:read-own");
-  return json({ comments: await listComments({ submissionId: id, userId: actor.userId }) });
+  return json({ comments: await listComments({ submissionId, userId: actor.userId }) });
 });
 
-/** POST /api/v1/reviews/:id/comments — an instructor pins a comment to a move, a joint and a time. */
+/** POST /api/v1/reviews/:submissionId/comments — an instructor pins a comment to a move, a joint and a time. */
 export const POST = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { submissionId } = await readParams(context, submissionParams);
   const body = await readJson(request, commentSchema);
   const actor = await requireActor(request);
-  const submission = await loadSubmission(actor, id);
+  const submission = await loadSubmission(actor, submissionId);
   authorizeCourse(submission.viewerRole, "review:comment");
   const doc = submission.document as { moves?: unknown[]; arm?: { joints?: unknown[] } };
   const issues = [
@@ -29,7 +29,7 @@ export const POST = route(async (request, context) => {
     ...(body.jointIndex !== undefined && body.jointIndex >= (doc.arm?.joints?.length ?? 0) ? [{ path: "jointIndex", message: `must be below ${doc.arm?.joints?.length ?? 0}` }] : []),
   ];
   if (issues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues });
-  const comment = await addComment({ submissionId: id, authorId: actor.userId, ...body });
+  const comment = await addComment({ submissionId, authorId: actor.userId, ...body });
   if (!comment) throw new AppError("conflict:submission", "This submission is already decided; comments are closed.");
   return json({ comment }, 201);
 });

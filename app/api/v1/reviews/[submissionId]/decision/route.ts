@@ -7,20 +7,20 @@ import { authorizeCourse } from "@/lib/server/course-permissions";
 import { AppError } from "@/lib/server/errors";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { submissionDecided } from "@/lib/server/mail/templates";
-import { idParams } from "@/lib/shared/schemas/courses";
+import { submissionParams } from "@/lib/shared/schemas/courses";
 import { decisionSchema } from "@/lib/shared/schemas/reviews";
 import { loadSubmission, outbox } from "../../../courses/course-api";
 
-/** POST /api/v1/reviews/:id/decision — approve or return submission :id; the student's e-mail is queued with it. */
+/** POST /api/v1/reviews/:submissionId/decision — approve or return submission :submissionId; the student's e-mail is queued with it. */
 export const POST = route(async (request, context) => {
-  const { id } = await readParams(context, idParams);
+  const { submissionId } = await readParams(context, submissionParams);
   const body = await readJson(request, decisionSchema);
   const actor = await requireActor(request);
-  const submission = await loadSubmission(actor, id);
+  const submission = await loadSubmission(actor, submissionId);
   authorizeCourse(submission.viewerRole, "review:decide");
   const reviewer = await getActiveUserById({ id: actor.userId });
-  const comments = await listComments({ submissionId: id, userId: actor.userId });
-  const result = await decideSubmission({ submissionId: id, reviewerId: actor.userId, decision: body.decision, summary: body.summary }, (review) => [
+  const comments = await listComments({ submissionId, userId: actor.userId });
+  const result = await decideSubmission({ submissionId, reviewerId: actor.userId, decision: body.decision, summary: body.summary }, (review) => [
     outbox(
       `submission-${review.decision}`,
       `submission-decided:${review.id}`,
@@ -33,12 +33,12 @@ export const POST = route(async (request, context) => {
         reviewerName: reviewer?.name ?? "Your instructor",
         summary: review.summary,
         commentCount: comments.length,
-        submissionId: id,
+        submissionId,
       }),
     ),
   ]);
   if (!result) throw new AppError("conflict:submission", "This submission was already decided.");
-  await recordAudit({ actorId: actor.userId, action: `submission.${body.decision === "approved" ? "approve" : "return"}`, targetType: "submission", targetId: id, detail: { reviewId: result.review.id } });
+  await recordAudit({ actorId: actor.userId, action: `submission.${body.decision === "approved" ? "approve" : "return"}`, targetType: "submission", targetId: submissionId, detail: { reviewId: result.review.id } });
   await enqueueMail(result.mailIds);
   return json({ review: result.review }, 201);
 });

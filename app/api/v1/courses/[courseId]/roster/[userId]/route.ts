@@ -7,14 +7,14 @@ import { AppError } from "@/lib/server/errors";
 import { courseMemberParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../../course-api";
 
-/** DELETE /api/v1/courses/:id/roster/:userId — removes a student; their submissions stay on record. */
+/** DELETE /api/v1/courses/:courseId/roster/:userId — removes a student; their submissions stay on record. */
 export const DELETE = route(async (request, context) => {
-  const { id, userId } = await readParams(context, courseMemberParams);
+  const { courseId, userId } = await readParams(context, courseMemberParams);
   const actor = await requireActor(request);
-  const course = await loadCourse(actor, id);
+  const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "roster:manage");
-  const removed = await removeStudent({ courseId: id, instructorId: actor.userId, userId });
+  const removed = await removeStudent({ courseId, instructorId: actor.userId, userId });
   if (!removed) throw new AppError("not_found:student", "No such student in this course.");
-  await recordAudit({ actorId: actor.userId, action: "course.remove-student", targetType: "course", targetId: id, projectId: course.projectId, detail: { userId } });
+  await recordAudit({ actorId: actor.userId, action: "course.remove-student", targetType: "course", targetId: courseId, projectId: course.projectId, detail: { userId } });
   return json({ removed: userId });
 });
