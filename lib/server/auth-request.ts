@@ -8,6 +8,7 @@ import { getTokenOwner } from "@/db/queries/tokens";
 import { getSessionUserById } from "@/db/queries/users";
 import { sessionCookieName, sessionSecret } from "./auth";
 import { AppError } from "./errors";
+import { requestContext } from "./log";
 import type { Actor } from "./permissions";
 import { assertSameOrigin } from "./security";
 import { bearerToken, hashToken } from "./tokens";
@@ -77,5 +78,7 @@ export async function requireActor(request: Request): Promise<Actor> {
     throw new AppError("unauthorized", hadBearer ? "The API token is not valid, has expired or was revoked." : undefined);
   }
   if (actor.via === "session") assertSameOrigin(request);
+  const ctx = requestContext();
+  if (ctx) ctx.actorId = actor.userId;
   return actor;
 }

@@ -18,7 +18,8 @@ export type ErrorKind =
   | "unsupported_media_type"
   | "unprocessable"
   | "rate_limited"
-  | "internal";
+  | "internal"
+  | "unavailable";
 export type ErrorCode = ErrorKind | `${ErrorKind}:${string}`;
 
 const statusByKind: Record<ErrorKind, number> = {
@@ -32,6 +33,7 @@ const statusByKind: Record<ErrorKind, number> = {
   unprocessable: 422,
   rate_limited: 429,
   internal: 500,
+  unavailable: 503,
 };
 
 const defaultMessage: Record<ErrorKind, string> = {
@@ -45,6 +47,7 @@ const defaultMessage: Record<ErrorKind, string> = {
   unprocessable: "The request is well-formed but cannot be processed.",
   rate_limited: "Too many requests; wait and try again.",
   internal: "Something went wrong on the server; it has been logged.",
+  unavailable: "The service is briefly unavailable; try again shortly.",
 };
 
 export class AppError extends Error {
@@ -76,14 +79,4 @@ export type ErrorBody = {
 
 export function errorBody(err: AppError): ErrorBody {
   return { error: { code: err.code, message: err.message, issues: err.issues, ...(err.details ?? {}) } };
-}
-
-/** Formats a path as `a.b[1].c` (the same form the engine and the command line use). */
-export function formatPath(path: readonly PropertyKey[]): string {
-  let out = "";
-  for (const key of path) {
-    if (typeof key === "number") out += `[${key}]`;
-    else out += out === "" ? String(key) : `.${String(key)}`;
-  }
-  return out === "" ? "(body)" : out;
 }

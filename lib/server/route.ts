@@ -4,34 +4,108 @@
  * Handlers read in the fixed order: parse (400/413/415) → requireActor (401) → load (404) →
  * authorise (403) → act.
  */
+import { randomUUID } from "node:crypto";
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { env } from "./env";
-import { AppError, errorBody, formatPath, type Issue } from "./errors";
+import { formatPath } from "@/kinematics";
+import { AppError, errorBody, type Issue } from "./errors";
+import { logger, requestContext, withRequestContext, type RequestContext } from "./log";
 
 export type RouteContext = { params: Promise<unknown> };
 type Handler = (request: Request, context: RouteContext) => Promise<Response>;
 
-/** Wraps a handler: AppError → its status and shape; anything else → logged, a generic 500. */
+/** Seconds a client is told to wait (Retry-After, RFC 9110 §10.2.3) while the database is unreachable. */
+export const DATABASE_RETRY_AFTER_S = 5;
+
+/**
+ * Wraps a handler: AppError → its status and shape; the database unreachable → 503 with
+ * Retry-After; anything else → logged once with its cause, a generic 500. Every response carries
+ * `X-Request-Id`, every error body the same id, and every request writes one log line.
+ */
 export function route(handler: Handler): (request: Request, context: RouteContext) => Promise<Response> {
   return async (request, context) => {
-    try {
-      return await handler(request, context);
-    } catch (err) {
-      return errorResponse(err);
-    }
+    const ctx: RequestContext = { requestId: randomUUID() };
+    const startedAt = performance.now();
+    const response = await withRequestContext(ctx, async () => {
+      try {
+        return await handler(request, context);
+      } catch (err) {
+        return errorResponse(err);
+      }
+    });
+    response.headers.set("X-Request-Id", ctx.requestId);
+    logger.info(
+      {
+        requestId: ctx.requestId,
+        method: request.method,
+        route: routeName(request.url),
+        status: response.status,
+        durationMs: Math.round((performance.now() - startedAt) * 10) / 10,
+        actorId: ctx.actorId,
+        work: ctx.work,
+      },
+      "request",
+    );
+    return response;
   };
 }
 
+/** The path with ids replaced by `:id`, so log lines group by route (and carry no query string). */
+function routeName(url: string): string {
+  try {
+    return new URL(url).pathname.replace(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/gi, ":id");
+  } catch {
+    return "(unknown)";
+  }
+}
+
+/**
+ * pg / Node error codes meaning "the database cannot be reached right now": refused or broken
+ * connections, and the PostgreSQL SQLSTATE classes 08 (connection exception) and 57P (operator
+ * intervention: shutdown, cannot connect now), and 53300 (too many connections).
+ */
+const UNAVAILABLE_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "EPIPE", "ENOTFOUND", "EAI_AGAIN", "EHOSTUNREACH", "57P01", "57P02", "57P03", "53300"]);
+const UNAVAILABLE_MESSAGES = /Connection terminated|connection timeout|timeout exceeded when trying to connect|Client has encountered a connection error|Connection refused/i;
+
+/** Whether an error (or one of its causes, as Drizzle wraps pg's) says the database is unreachable. */
+export function isDatabaseUnavailable(err: unknown): boolean {
+  for (let e: unknown = err, depth = 0; e && depth < 8; depth++) {
+    if (typeof e !== "object") return false;
+    const code = (e as { code?: unknown }).code;
+    if (typeof code === "string" && (UNAVAILABLE_CODES.has(code) || code.startsWith("08"))) return true;
+    if (e instanceof AggregateError && e.errors.some((inner) => isDatabaseUnavailable(inner))) return true;
+    const message = (e as { message?: unknown }).message;
+    if (typeof message === "string" && UNAVAILABLE_MESSAGES.test(message)) return true;
+    e = (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
 export function errorResponse(err: unknown): Response {
+  const requestId = requestContext()?.requestId;
+  const withId = (e: AppError) => {
+    const body = errorBody(e);
+    if (requestId) body.error.requestId = requestId;
+    return body;
+  };
   if (err instanceof AppError) {
     const headers: Record<string, string> = { "Cache-Control": "no-store" };
     if (err.status === 401) headers["WWW-Authenticate"] = 'Bearer realm="jointproof"'; // RFC 6750 §3
-    return NextResponse.json(errorBody(err), { status: err.status, headers });
+    const retryAfterS = err.details?.retryAfterS;
+    if (typeof retryAfterS === "number" && (err.status === 429 || err.status === 503)) headers["Retry-After"] = String(Math.max(1, Math.ceil(retryAfterS)));
+    return NextResponse.json(withId(err), { status: err.status, headers });
   }
-  // Database and unexpected errors are logged with their detail and never shown.
-  console.error("[api] unexpected error:", err);
-  return NextResponse.json(errorBody(new AppError("internal")), { status: 500 });
+  if (isDatabaseUnavailable(err)) {
+    logger.warn({ requestId, err: { message: err instanceof Error ? err.message : String(err) } }, "database unreachable");
+    const unavailable = new AppError("unavailable:database", `The database cannot be reached right now; nothing was saved. Try again in ${DATABASE_RETRY_AFTER_S} seconds.`, {
+      details: { retryAfterS: DATABASE_RETRY_AFTER_S },
+    });
+    return NextResponse.json(withId(unavailable), { status: 503, headers: { "Cache-Control": "no-store", "Retry-After": String(DATABASE_RETRY_AFTER_S) } });
+  }
+  // Database and unexpected errors are logged once with their cause and never shown.
+  logger.error({ requestId, err }, "unexpected error");
+  return NextResponse.json(withId(new AppError("internal")), { status: 500, headers: { "Cache-Control": "no-store" } });
 }
 
 export function json(data: unknown, status = 200, headers?: Record<string, string>): Response {
@@ -40,7 +114,7 @@ export function json(data: unknown, status = 200, headers?: Record<string, strin
 
 /** zod issues as `{ path, message }`, the path prefixed (e.g. `query.rateHz`, `document.start`). */
 export function toIssues(error: z.ZodError, prefix: PropertyKey[] = []): Issue[] {
-  return error.issues.map((i) => ({ path: formatPath([...prefix, ...i.path]), message: i.message }));
+  return error.issues.map((i) => ({ path: formatPath([...prefix, ...i.path], "(body)"), message: i.message }));
 }
 
 function parseOrThrow<S extends z.ZodType>(schema: S, value: unknown, prefix: PropertyKey[], what: string): z.infer<S> {
@@ -61,6 +135,7 @@ export async function readParams<S extends z.ZodType>(context: RouteContext, sch
 /** The query string as an object (repeated keys keep their last value), validated. */
 export function readQuery<S extends z.ZodType>(request: Request, schema: S): z.infer<S> {
   const params = Object.fromEntries(new URL(request.url).searchParams.entries());
+  assertCleanText(params, ["query"]);
   return parseOrThrow(schema, params, ["query"], "query string");
 }
 
@@ -70,12 +145,23 @@ export function jsonBodyLimit(): number {
 }
 
 /**
- * Reads a request body up to `limitBytes`, refusing it (413) as soon as the declared length or
- * the bytes read so far pass the limit — the body is never held whole when too large.
+ * Refuses (413) a body whose declared length (Content-Length) passes `limitBytes`, before any of it
+ * is read. Call it in the parse step, before authentication, so a too-large upload is never read.
  */
-export async function readBodyLimited(request: Request, limitBytes: number): Promise<Uint8Array> {
+export function assertDeclaredLength(request: Request, limitBytes: number): void {
   const declared = request.headers.get("content-length");
   if (declared !== null && Number(declared) > limitBytes) throw tooLarge(limitBytes);
+}
+
+/**
+ * Reads a request body up to `limitBytes`, refusing it (413) as soon as the declared length or
+ * the bytes read so far pass the limit — the body is never held whole when too large. A body
+ * shorter than its declared length (cut on the way) is refused too: nothing downstream may see
+ * part of a file as if it were all of it.
+ */
+export async function readBodyLimited(request: Request, limitBytes: number): Promise<Uint8Array> {
+  assertDeclaredLength(request, limitBytes);
+  const declared = request.headers.get("content-length");
   if (!request.body) return new Uint8Array(0);
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
@@ -89,6 +175,11 @@ export async function readBodyLimited(request: Request, limitBytes: number): Pro
       throw tooLarge(limitBytes);
     }
     chunks.push(value);
+  }
+  if (declared !== null && Number(declared) !== total) {
+    throw new AppError("bad_request:incomplete_body", `The body ended after ${total} of its declared ${declared} bytes; nothing was stored.`, {
+      issues: [{ path: "(body)", message: "is shorter than its Content-Length" }],
+    });
   }
   const out = new Uint8Array(total);
   let offset = 0;
@@ -110,14 +201,93 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S,
     throw new AppError("unsupported_media_type", "Send the body as JSON (Content-Type: application/json).");
   }
   const bytes = await readBodyLimited(request, limitBytes);
+  // RFC 8259 §8.1: JSON text must not start with a byte-order mark. TextDecoder would drop it
+  // silently, so it is refused here, the same way on every route.
+  if (bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) {
+    throw new AppError("bad_request:json", "The body starts with a byte-order mark; send UTF-8 JSON without one.", { issues: [{ path: "(body)", message: "must not start with a byte-order mark" }] });
+  }
+  let text: string;
+  try {
+    text = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true }).decode(bytes);
+  } catch {
+    throw new AppError("bad_request:json", "The body is not UTF-8 text.", { issues: [{ path: "(body)", message: "must be UTF-8 text" }] });
+  }
+  assertNestingDepth(text);
   let value: unknown;
   try {
-    value = JSON.parse(new TextDecoder("utf-8", { fatal: true }).decode(bytes));
+    value = JSON.parse(text);
   } catch {
     throw new AppError("bad_request:json", "The body is not valid JSON.", { issues: [{ path: "(body)", message: "must be valid JSON" }] });
   }
+  assertCleanText(value, []);
   return parseOrThrow(schema, value, [], "request body");
+}
+
+/** Deepest object/array nesting a JSON body may have; every document of ours is far shallower. */
+export const MAX_JSON_DEPTH = 64;
+
+/** Refuses deeply nested JSON by counting brackets outside strings, before parsing it. */
+function assertNestingDepth(text: string): void {
+  let depth = 0;
+  let inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 0x5c) i++; // backslash: skip the escaped character
+      else if (c === 0x22) inString = false;
+    } else if (c === 0x22) inString = true;
+    else if (c === 0x7b || c === 0x5b) {
+      if (++depth > MAX_JSON_DEPTH) {
+        throw new AppError("bad_request:json", `The body is nested more than ${MAX_JSON_DEPTH} levels deep.`, { issues: [{ path: "(body)", message: `must be nested at most ${MAX_JSON_DEPTH} levels deep` }] });
+      }
+    } else if (c === 0x7d || c === 0x5d) depth--;
+  }
+}
+
+/** A NUL character, or a UTF-16 surrogate without its partner (not a Unicode scalar value). */
+const BAD_TEXT = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** Why a string is refused, or null when it is clean text. */
+export function textProblem(value: string): string | null {
+  const m = BAD_TEXT.exec(value);
+  if (!m) return null;
+  return m[0] === "\u0000" ? "must not contain NUL characters" : "must not contain unpaired surrogates (not valid Unicode text)";
+}
+
+/**
+ * Refuses (400, naming the field) any string or key in a parsed body or query that holds a NUL
+ * character or a lone surrogate: PostgreSQL text cannot store NUL, and lone surrogates are not
+ * text. Walks iteratively, so the depth of the value costs no stack.
+ */
+export function assertCleanText(value: unknown, prefix: PropertyKey[]): void {
+  const stack: { v: unknown; path: PropertyKey[] }[] = [{ v: value, path: prefix }];
+  while (stack.length > 0) {
+    const { v, path } = stack.pop()!;
+    if (typeof v === "string") {
+      const problem = textProblem(v);
+      if (problem) throw badText(path, problem);
+    } else if (Array.isArray(v)) {
+      for (let i = v.length - 1; i >= 0; i--) stack.push({ v: v[i], path: [...path, i] });
+    } else if (v !== null && typeof v === "object") {
+      for (const [key, inner] of Object.entries(v)) {
+        const problem = textProblem(key);
+        if (problem) throw badText([...path, "(key)"], problem);
+        stack.push({ v: inner, path: [...path, key] });
+      }
+    }
+  }
+}
+
+function badText(path: PropertyKey[], message: string): AppError {
+  const field = formatPath(path, "(body)");
+  return new AppError("bad_request:text", `The field ${field} ${message}.`, { issues: [{ path: field, message }] });
 }
 
 /** Common param schemas. */
 export const uuidParam = z.string().uuid({ error: "must be an id" });
+/** A version number in a path or query: plain decimal digits only (`0x1`, `1e0`, ` 1` are refused). */
+export const versionParam = z
+  .string()
+  .regex(/^[1-9][0-9]{0,6}$/, { error: "must be a version number (1, 2, …)" })
+  .transform(Number)
+  .pipe(z.number().int().positive().max(1_000_000));

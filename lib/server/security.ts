@@ -1,6 +1,6 @@
 /**
  * Web security glue: the same-origin check for state-changing requests made with a session
- * cookie, and the security headers (see proxy.ts). The Origin header is defined in RFC 6454 §7;
+ * cookie (the security headers are in security-headers.ts). The Origin header is defined in RFC 6454 §7;
  * Sec-Fetch-Site in the W3C Fetch Metadata Request Headers specification.
  */
 import { env } from "./env";
@@ -31,37 +31,4 @@ export function assertSameOrigin(request: Request): void {
   const site = request.headers.get("sec-fetch-site");
   if (site === "same-origin" || site === "none") return;
   throw new AppError("forbidden:origin", "State-changing requests with a session cookie must come from this site.");
-}
-
-/**
- * Content-Security-Policy (CSP Level 3). The 3D viewer needs WebGL (no CSP directive), blob:
- * workers and data:/blob: images for textures; Next's inline bootstrap scripts need
- * 'unsafe-inline' unless nonces are used, and 'unsafe-eval' only in development (React's dev tools).
- */
-export function contentSecurityPolicy(dev: boolean): string {
-  return [
-    "default-src 'self'",
-    `script-src 'self' 'unsafe-inline'${dev ? " 'unsafe-eval'" : ""}`,
-    "style-src 'self' 'unsafe-inline'",
-    "img-src 'self' data: blob:",
-    "font-src 'self' data:",
-    `connect-src 'self'${dev ? " ws: wss:" : ""}`,
-    "worker-src 'self' blob:",
-    "object-src 'none'",
-    "base-uri 'self'",
-    "form-action 'self'",
-    "frame-ancestors 'none'",
-  ].join("; ");
-}
-
-/** The headers every response carries. */
-export function securityHeaders(dev: boolean): Record<string, string> {
-  return {
-    "Content-Security-Policy": contentSecurityPolicy(dev),
-    "Referrer-Policy": "same-origin",
-    "X-Content-Type-Options": "nosniff",
-    "X-Frame-Options": "DENY",
-    "Permissions-Policy": "camera=(), microphone=(), geolocation=(), payment=()",
-    "Cross-Origin-Opener-Policy": "same-origin",
-  };
 }
