@@ -9,9 +9,19 @@ import type { ShapeName } from "../plan/plan";
 /**
  * What a finding is about. `range`, `speed-over`, `accel-over` and `jump` come from the joint checks;
  * `effort-over`, `clearance` and `tool-speed` are reserved for the arm-model checks (chain, payload,
- * keep-out zones, tool point), which add their findings to the same report.
+ * keep-out zones, tool point), which add their findings to the same report. `glitch` and `gap` come from
+ * the timed-replay audit of recordings (kinematics/recordings/timed-replay.ts).
  */
-export type FindingKind = "range" | "speed-over" | "accel-over" | "jump" | "effort-over" | "clearance" | "tool-speed";
+export type FindingKind =
+  | "range"
+  | "speed-over"
+  | "accel-over"
+  | "jump"
+  | "effort-over"
+  | "clearance"
+  | "tool-speed"
+  | "glitch"
+  | "gap";
 
 /** All finding kinds, in the order reports and tables list them. */
 export const findingKinds: readonly FindingKind[] = [
@@ -22,6 +32,8 @@ export const findingKinds: readonly FindingKind[] = [
   "effort-over",
   "clearance",
   "tool-speed",
+  "glitch",
+  "gap",
 ];
 
 /** How bad one finding is: `fault` (the controller would refuse or stop) or `caution` (close to a limit). */
@@ -67,8 +79,13 @@ export interface MoveReport {
   peakVelocity: number[];
   /** Largest |q̈ⱼ| over the move per joint, rad/s² or m/s²; `null` for an instant move. */
   peakAcceleration: (number | null)[];
-  /** Shortest duration (s) with this move's shape for which no joint has a speed or acceleration fault. */
-  minSafeDuration: number;
+  /**
+   * Shortest duration (s) with this move's shape at which none of the timing-dependent checks
+   * (speed, acceleration, effort with friction, tool speed) faults on this move; `null` when one
+   * faults at every duration (e.g. gravity alone above an effort limit). For an instant move, the
+   * duration that would replace its step.
+   */
+  minSafeDuration: number | null;
   /** The findings of this move (the same objects as in the report's `findings`). */
   findings: Finding[];
   /**
