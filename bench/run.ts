@@ -11,7 +11,7 @@ import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "no
 import { cpus } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { check, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type Plan, samplePlan, planFromPoses, repairStream, streamCheck, type Recording } from "../kinematics";
+import { check, formatProblem, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type Plan, samplePlan, planFromPoses, repairStream, streamCheck, type Recording } from "../kinematics";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, "..");
@@ -136,7 +136,7 @@ function main(): void {
   ];
   const livePlan = (moves: { goal: number[]; duration: number }[]): Plan => {
     const r = parsePlan({ format: "jointproof.plan", version: 1, arm: demoArm, start: [0, 0, 0, 0, 0, 0, 0], surfaceMargin: 0.01, maxToolSpeed: 0.25, moves });
-    if (!r.ok) throw new Error(r.problems.map((p) => `${p.path}: ${p.message}`).join("; "));
+    if (!r.ok) throw new Error(r.problems.map((p) => formatProblem(p)).join("; "));
     return r.value;
   };
   const liveMoves = liveGoals.map((goal) => ({ goal, duration: 2 }));

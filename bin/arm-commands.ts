@@ -9,7 +9,7 @@
  * Exit codes: 0 success (ik: reachable), 1 ik unreachable, 2 bad input or usage (one line per problem).
  */
 import { readFileSync } from "node:fs";
-import { armDescriptionSchema, armFromDescription, chainLimits, compileChain, createChainBuffers, forwardKinematics, type CompiledChain, solveIk, rotationRows, describeIssues, parseArm, type Arm, parseUrdf } from "../kinematics";
+import { armDescriptionSchema, armFromDescription, chainLimits, compileChain, createChainBuffers, forwardKinematics, type CompiledChain, solveIk, rotationRows, describeIssues, formatProblem, parseArm, type Arm, parseUrdf } from "../kinematics";
 
 /** Where the commands write (the same shape as the dispatcher's). */
 export interface ArmIo {
@@ -73,16 +73,16 @@ function loadArm(path: string): LoadedArm {
     }
     const obj = (typeof raw === "object" && raw !== null ? raw : {}) as Record<string, unknown>;
     const candidate = obj.format === "jointproof.plan" ? obj.arm : raw;
-    const prefix = obj.format === "jointproof.plan" ? "arm." : "";
+    const prefix = obj.format === "jointproof.plan" ? ["arm"] : [];
     const c = (typeof candidate === "object" && candidate !== null ? candidate : {}) as Record<string, unknown>;
     const isDescription = Array.isArray(c.joints) && c.joints.some((j) => typeof j === "object" && j !== null && "origin" in j) && !("chain" in c);
     if (isDescription) {
       const d = armDescriptionSchema.safeParse(candidate);
-      if (!d.success) throw new ArmInputError(describeIssues(d.error.issues).map((p) => `${path}: ${prefix}${p.path}: ${p.message}`));
+      if (!d.success) throw new ArmInputError(describeIssues(d.error.issues).map((p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`));
       arm = armFromDescription(d.data);
     } else {
       const parsed = parseArm(candidate);
-      if (!parsed.ok) throw new ArmInputError(parsed.problems.map((p) => `${path}: ${prefix}${p.path}: ${p.message}`));
+      if (!parsed.ok) throw new ArmInputError(parsed.problems.map((p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`));
       arm = parsed.value;
     }
   }

@@ -6,9 +6,9 @@
  * line per problem on stderr) or a usage error.
  */
 import { readFileSync, writeFileSync } from "node:fs";
-import { check, describeRecordingProblem, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type Report, type Verdict, alignRecording, repairStream, streamCheck, validateRecording, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
-import { armUsage, isArmCommand, runArmCommand } from "./arm-commands"; // arm model (issue 4): arm import, fk, ik
-import { exportFormatOf, hasExportBlock, recordedVerdict, verifyCsvChecksum, verifyJsonChecksum } from "./export-checksum"; // exports (issue 5)
+import { check, describeRecordingProblem, formatProblem, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type PathSegment, type Report, type Verdict, alignRecording, repairStream, streamCheck, validateRecording, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
+import { armUsage, isArmCommand, runArmCommand } from "./arm-commands";
+import { exportFormatOf, hasExportBlock, recordedVerdict, verifyCsvChecksum, verifyJsonChecksum } from "./export-checksum";
 
 /** Where the command writes; replaced in tests only by the real process streams. */
 interface Io {
@@ -100,8 +100,9 @@ function parseJson(bytes: Buffer, path: string): unknown {
   }
 }
 
-function problemLines(problems: InputProblem[], prefix = ""): string[] {
-  return problems.map((p) => `${prefix && p.path === "(document)" ? prefix.replace(/\.$/, "") : prefix + p.path}: ${p.message}`);
+/** One `path: message` line per problem, each path under `prefix` (e.g. `["arm"]`). */
+function problemLines(problems: InputProblem[], prefix: PathSegment[] = []): string[] {
+  return problems.map((p) => formatProblem({ path: [...prefix, ...p.path], message: p.message }));
 }
 
 function exitCodeOf(verdict: Verdict): number {
@@ -214,7 +215,7 @@ function readArm(path: string): Arm {
   const raw = readJson(path);
   const isPlan = typeof raw === "object" && raw !== null && (raw as { format?: unknown }).format === "jointproof.plan";
   const parsed = parseArm(isPlan ? (raw as { arm?: unknown }).arm : raw);
-  if (!parsed.ok) throw new InputError(problemLines(parsed.problems, "arm."));
+  if (!parsed.ok) throw new InputError(problemLines(parsed.problems, ["arm"]));
   return parsed.value;
 }
 
@@ -282,7 +283,7 @@ function runScan(args: Args, io: Io): number {
 /** Runs the command line; returns the exit code. */
 export async function main(argv: string[], io: Io = processIo): Promise<number> {
   try {
-    if (isArmCommand(argv[0])) return runArmCommand(argv, io); // arm model (issue 4): own options
+    if (isArmCommand(argv[0])) return runArmCommand(argv, io); // arm import, fk, ik: own options
     const args = parseArgs(argv);
     if (args.command === "help") {
       io.out(usage + armUsage);

@@ -5,7 +5,11 @@
  *
  * @module
  */
-export * from "./plan/plan";
+export * from "./plan/arm";
+export * from "./plan/document";
+export * from "./plan/problems";
+export * from "./plan/targets";
+export * from "./plan/parse";
 export * from "./motion/shapes";
 export * from "./check/report";
 export * from "./motion/timeline";
@@ -16,9 +20,9 @@ export * from "./motion/sequence";
 export * from "./recordings/stream";
 export * from "./recordings/csv";
 export * from "./check/wording";
-// The arm model (issue 4): chain, forward and inverse kinematics, DH and URDF import, the arm
-// checks, dynamics, clearance and tool speed. All pure TypeScript; urdf uses fast-xml-parser,
-// which runs in the browser.
+// The arm model: chain, forward and inverse kinematics, DH and URDF import, the arm checks,
+// dynamics, clearance and tool speed. All pure TypeScript; urdf uses fast-xml-parser, which runs
+// in the browser.
 export * from "./plan/arm-model";
 export * from "./arm/mat4";
 export * from "./arm/chain";

@@ -5,14 +5,14 @@ import { Skeleton } from "@/components/ui/skeleton";
 import { Playhead, PlayheadContext } from "@/components/editor/playhead";
 import { StageErrorBoundary } from "@/components/viewer/error-boundary";
 import { schematicChain } from "@/components/viewer/schematic-chain";
-import { type Arm, timelineOf } from "@/kinematics";
+import { homePose, type Arm, timelineOf } from "@/kinematics";
 
 const Stage = dynamic(() => import("@/components/viewer/stage"), { ssr: false, loading: () => <Skeleton className="h-full w-full rounded-none" /> });
 
 /** An arm at rest on the stage (its home pose), for the arms page. */
 export function ArmStage({ arm }: { arm: Arm }) {
   const playhead = useMemo(() => new Playhead(), []);
-  const home = useMemo(() => arm.joints.map((j) => (j.min <= 0 && j.max >= 0 ? 0 : (j.min + j.max) / 2)), [arm]);
+  const home = useMemo(() => homePose(arm), [arm]);
   const timeline = useMemo(() => timelineOf({ format: "jointproof.plan", version: 1, arm, start: home, moves: [] }), [arm, home]);
   const chain = useMemo(() => arm.chain ?? schematicChain(arm.joints), [arm]);
   return (

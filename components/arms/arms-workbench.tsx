@@ -7,7 +7,7 @@ import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
-import { armFromDescription, armDocumentSchema, describeIssues, type Arm, parseUrdf } from "@/kinematics";
+import { armFromDescription, armDocumentSchema, describeIssues, formatPath, type Arm, parseUrdf } from "@/kinematics";
 import { api } from "@/lib/client/api-client";
 import { displayDigits, fromDisplay, toDisplay, unitLabel } from "@/lib/shared/units";
 import { ArmStage } from "./arm-stage";
@@ -52,7 +52,7 @@ export function ArmsWorkbench({ projectId, projectName, arms, canEdit }: { proje
       setErrors({});
       return r.data;
     }
-    setErrors(Object.fromEntries(describeIssues(r.error.issues).map((p) => [p.path, p.message])));
+    setErrors(Object.fromEntries(describeIssues(r.error.issues).map((p) => [formatPath(p.path), p.message])));
     return null;
   };
 

@@ -4,7 +4,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { TextAreaField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
-import { parsePlan, type InputProblem } from "@/kinematics";
+import { formatPath, parsePlan, type InputProblem } from "@/kinematics";
 import type { BenchPlan } from "./plan-state";
 
 export type ImportResult = { ok: true; plan: BenchPlan; note?: string } | { ok: false; problems: InputProblem[] };
@@ -19,7 +19,7 @@ export function importPlanText(text: string, current: BenchPlan): ImportResult {
   try {
     raw = JSON.parse(text);
   } catch (err) {
-    return { ok: false, problems: [{ path: "(file)", message: `is not JSON (${err instanceof Error ? err.message : "parse error"})` }] };
+    return { ok: false, problems: [{ path: [], message: `is not JSON (${err instanceof Error ? err.message : "parse error"})` }] };
   }
   // An export wraps the document; accept it too.
   const doc = raw && typeof raw === "object" && "document" in raw ? (raw as { document: unknown }).document : raw;
@@ -30,7 +30,7 @@ export function importPlanText(text: string, current: BenchPlan): ImportResult {
   if (value.arm.joints.length !== n) {
     return {
       ok: false,
-      problems: [{ path: "arm.joints", message: `has ${value.arm.joints.length} joints; this plan's arm "${current.arm.name}" has ${n}` }],
+      problems: [{ path: ["arm", "joints"], message: `has ${value.arm.joints.length} joints; this plan's arm "${current.arm.name}" has ${n}` }],
     };
   }
   const sameArm = JSON.stringify(value.arm) === JSON.stringify(current.arm);
@@ -76,7 +76,7 @@ export function ImportDialog({ current, onClose, onImport }: { current: BenchPla
         {result && !result.ok ? (
           <ErrorNote title={`The document was refused (${result.problems.length} problem${result.problems.length === 1 ? "" : "s"})`}>
             <ul className="mt-1 space-y-0.5" data-testid="import-problems">
-              {result.problems.map((p, i) => <li key={i}><code className="font-mono">{p.path}</code>: {p.message}</li>)}
+              {result.problems.map((p, i) => <li key={i}><code className="font-mono">{formatPath(p.path)}</code>: {p.message}</li>)}
             </ul>
           </ErrorNote>
         ) : null}

@@ -3,7 +3,7 @@
  * one action that component tests and the page share. Values are stored as the document stores
  * them (radians, metres, seconds); display units live at the UI edge (lib/shared/units.ts).
  */
-import type { ArmChain, KeepOutBox, Plan, ShapeName } from "@/kinematics";
+import { homePose as homePoseOf, type ArmChain, type KeepOutBox, type Plan, type ShapeName } from "@/kinematics";
 
 /** The plan the bench edits: a parsed version-1 document, plus the arm model's optional fields. */
 export type BenchPlan = Plan & {
@@ -40,9 +40,9 @@ export function poseBefore(plan: BenchPlan, index: number): number[] {
   return index <= 0 ? plan.start : plan.moves[index - 1].goal;
 }
 
-/** The middle of each joint's travel, clamped to include 0 when 0 is inside it ("home"). */
+/** The arm's rest pose ("home", the engine's `homePose`). */
 export function homePose(plan: BenchPlan): number[] {
-  return plan.arm.joints.map((j) => (j.min <= 0 && j.max >= 0 ? 0 : (j.min + j.max) / 2));
+  return homePoseOf(plan.arm);
 }
 
 function withPose(plan: BenchPlan, target: PoseTarget, pose: number[]): BenchPlan {

@@ -3,7 +3,7 @@
  * there, and how findings are ordered and named in the panel. The time itself comes from the engine
  * (`Finding.timeS`: the peak, the jump, the deepest intrusion, …); the bench does not work it out.
  */
-import type { Finding, Timeline } from "@/kinematics";
+import { findingKinds, type Finding, type Timeline } from "@/kinematics";
 
 /**
  * The time (s from the plan's start) of a finding's worst instant: the engine's `timeS`. Reports
@@ -15,15 +15,8 @@ export function findingTimeS(finding: Finding, timeline: Timeline): number {
   return finding.move === null ? 0 : (timeline.startS[finding.move] ?? 0);
 }
 
-const kindRank: Record<Finding["kind"], number> = {
-  range: 0,
-  jump: 1,
-  "speed-over": 2,
-  "accel-over": 3,
-  "effort-over": 4,
-  clearance: 5,
-  "tool-speed": 6,
-};
+/** Place of a finding kind in the engine's one order of kinds. */
+const kindRank = (kind: Finding["kind"]): number => findingKinds.indexOf(kind);
 
 /** Findings worst first: faults before cautions, then the largest overshoot of its limit, then kind. */
 export function worstFirst(findings: readonly Finding[]): Finding[] {
@@ -32,7 +25,7 @@ export function worstFirst(findings: readonly Finding[]): Finding[] {
     if (a.severity !== b.severity) return a.severity === "fault" ? -1 : 1;
     const r = ratio(b) - ratio(a);
     if (r !== 0 && Number.isFinite(r)) return r;
-    return kindRank[a.kind] - kindRank[b.kind] || (a.move ?? -1) - (b.move ?? -1);
+    return kindRank(a.kind) - kindRank(b.kind) || (a.move ?? -1) - (b.move ?? -1);
   });
 }
 

@@ -9,7 +9,7 @@
 import { chainLimits, compileChain, type CompiledChain } from "../arm/chain";
 import { clearanceZones, compileCollision, createClearanceScanner, type ClearanceScanner } from "../arm/clearance";
 import { createDynamicsWorkspace, type DynamicsWorkspace } from "../arm/dynamics";
-import type { Plan } from "../plan/plan";
+import type { Plan } from "../plan/document";
 import { moveBlend, scalingAt } from "../motion/shapes";
 import { compileReachBounds, type ReachBounds } from "../arm/motion-bounds";
 import { createToolSpeedScanner, type ToolSpeedScanner } from "../arm/tool-speed";

@@ -11,7 +11,7 @@
  *
  * @module
  */
-import type { Plan } from "../plan/plan";
+import type { Plan } from "../plan/document";
 import { defaultMoveCheckers, defaultPlanCheckers } from "./checkers";
 import { instantPeaks, safeDuration, timedPeaks } from "../motion/peaks";
 import { verdictOf, type Finding, type MoveReport, type Report } from "./report";
@@ -74,7 +74,7 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       peakAcceleration: instant ? new Array<null>(n).fill(null) : toList(peakAcceleration),
       minSafeDuration: context.minSafe.durationS,
       findings: moveFindings,
-      ...context.figures, // arm model (issue 4): peakEffort, peakToolSpeed when the arm has a chain
+      ...context.figures, // peakEffort, peakToolSpeed when the arm has a chain
     };
   });
   return { verdict: verdictOf(findings), moves, findings };

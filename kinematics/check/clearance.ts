@@ -13,7 +13,7 @@ import { formatNumber, moveLabel } from "./wording";
 
 /**
  * A `clearance` finding: names the link and the zone, and the time of the deepest intrusion both
- * from the move's start (`time`, s, kept for older callers) and from the plan's start (`timeS`).
+ * from the move's start (`time`, s) and from the plan's start (`timeS`).
  */
 export type ClearanceFinding = Finding & { link: string; zone: string; time: number; timeS: number };
 

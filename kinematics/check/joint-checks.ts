@@ -4,7 +4,7 @@
  *
  * @module
  */
-import type { Joint } from "../plan/plan";
+import type { Joint } from "../plan/arm";
 import { severityOf, type Finding, type Severity } from "./report";
 import { accelerationPeakTau, velocityPeakTau } from "../motion/shapes";
 import type { MoveChecker, MoveContext, PlanChecker } from "./types";

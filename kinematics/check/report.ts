@@ -4,7 +4,7 @@
  *
  * @module
  */
-import type { ShapeName } from "../plan/plan";
+import type { ShapeName } from "../plan/document";
 
 /**
  * What a finding is about. `range`, `speed-over`, `accel-over` and `jump` come from the joint checks;

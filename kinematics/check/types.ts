@@ -5,7 +5,8 @@
  *
  * @module
  */
-import type { Arm, Move, Plan } from "../plan/plan";
+import type { Arm } from "../plan/arm";
+import type { Move, Plan } from "../plan/document";
 import type { Finding, MoveReport } from "./report";
 import type { ShortestDuration } from "../motion/shapes";
 import type { Timeline } from "../motion/timeline";
@@ -42,7 +43,7 @@ export interface MoveContext extends PlanContext {
   startS: number;
   /** Rate (Hz) the sampled arm checks use; undefined means the arm's control rate. */
   sampleRateHz?: number;
-  /** Arm model (issue 4): extra per-move figures copied into the move's report. */
+  /** Arm model only: extra per-move figures copied into the move's report. */
   figures?: Pick<MoveReport, "peakEffort" | "peakToolSpeed">;
 }
 

@@ -4,7 +4,7 @@
  *
  * @module
  */
-import type { Joint } from "../plan/plan";
+import type { Joint } from "../plan/arm";
 
 /** What a number measures, to pick its unit. */
 export type Quantity = "position" | "velocity" | "acceleration" | "step";

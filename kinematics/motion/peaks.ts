@@ -4,7 +4,7 @@
  *
  * @module
  */
-import type { Joint } from "../plan/plan";
+import type { Joint } from "../plan/arm";
 import { limitTolerance } from "../check/report";
 import { accelerationFactor, moveBlend, shortestDuration, velocityFactor, type ShortestDuration } from "./shapes";
 

@@ -10,7 +10,7 @@
  *
  * @module
  */
-import type { Plan } from "../plan/plan";
+import type { Plan } from "../plan/document";
 import { scalingAt } from "./shapes";
 import { timelineOf, type Timeline } from "./timeline";
 

@@ -11,8 +11,9 @@
  * @module
  */
 import { check } from "../check/check";
-import type { Arm, Move, Plan, Pose, ShapeName } from "../plan/plan";
-import { planFormat, planVersion } from "../plan/plan";
+import type { Arm } from "../plan/arm";
+import type { Move, Plan, Pose, ShapeName } from "../plan/document";
+import { planFormat, planVersion } from "../plan/document";
 import { safeDuration } from "./peaks";
 import type { Finding, Report } from "../check/report";
 import { shapeId } from "./shapes";

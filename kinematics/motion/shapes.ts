@@ -17,7 +17,8 @@
  *
  * @module
  */
-import type { Joint, ShapeName } from "../plan/plan";
+import type { Joint } from "../plan/arm";
+import type { ShapeName } from "../plan/document";
 
 /** Numeric shape identifiers used in typed arrays (index into {@link shapeIds}). */
 export const shapeIds: readonly ShapeName[] = ["cubic", "quintic", "trapezoid"];

@@ -4,7 +4,7 @@
  *
  * @module
  */
-import type { Plan } from "../plan/plan";
+import type { Plan } from "../plan/document";
 import { moveBlend, shapeId } from "./shapes";
 
 /** The plan's moves in flat arrays; pose arrays have stride `jointCount`. */

@@ -13,7 +13,7 @@
  *
  * @module
  */
-import type { Arm } from "../plan/plan";
+import type { Arm } from "../plan/arm";
 import { limitTolerance, type FindingKind, type Severity, type Verdict } from "../check/report";
 import { formatNumber, formatPercent, formatQuantity, jointLabel } from "../check/wording";
 

@@ -1,5 +1,5 @@
 /** Running the engine for the API: the check, and the summary stored beside each plan version. */
-import { check, type Plan, type Report } from "./engine";
+import { check, type Plan, type Report } from "@/kinematics";
 import { AppError } from "./errors";
 
 /**

@@ -10,7 +10,7 @@
  * one row per waypoint, and a last line `# sha256: <hex>` over every byte before that line.
  */
 import { createHash } from "node:crypto";
-import type { Plan, Report, Samples } from "./engine";
+import type { Plan, Report, Samples } from "@/kinematics";
 
 export type ExportMeta = {
   plan: { id: string; name: string };

@@ -5,7 +5,7 @@
 import { z } from "zod";
 import * as course from "@/lib/shared/schemas/courses";
 import * as review from "@/lib/shared/schemas/reviews";
-import { planSchema } from "./engine";
+import { planSchema } from "@/kinematics";
 import * as s from "../shared/schemas/api";
 
 type Json = Record<string, unknown>;

@@ -1,5 +1,5 @@
 /** A field-by-field difference of two JSON documents (two plan versions). */
-import { formatPath } from "../server/errors";
+import { formatPath } from "@/kinematics";
 
 export type Change = { path: string; change: "added" | "removed" | "changed"; from?: unknown; to?: unknown };
 

@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { demoPeople } from "@/db/demo";
 import armL from "@/kinematics/arm/presets/bench-arm-l.json";
 import { check } from "@/kinematics";
-import { parsePlan } from "@/kinematics/plan/plan";
+import { parsePlan } from "@/kinematics";
 import { baseUrl, openBrowser, screenshotDir, type BrowserSession } from "./browser";
 
 const researcher = demoPeople.find((p) => p.role === "researcher")!;

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { ScratchBench } from "@/components/editor/scratch-bench";
 import armL from "@/kinematics/arm/presets/bench-arm-l.json";
-import { parseArm, armChainSchema } from "@/kinematics";
+import { formatProblem, parseArm, armChainSchema } from "@/kinematics";
 import { scratchPlan } from "@/components/editor/demo-plan";
 
 export const metadata: Metadata = { title: "Scratch bench" };
@@ -9,7 +9,7 @@ export const metadata: Metadata = { title: "Scratch bench" };
 /** A bench that needs no account: a demo plan on the light demo arm, checked live, never saved. */
 export default function ScratchBenchPage() {
   const parsed = parseArm(armL);
-  if (!parsed.ok) throw new Error(`demo arm does not parse: ${parsed.problems.map((p) => `${p.path}: ${p.message}`).join("; ")}`);
+  if (!parsed.ok) throw new Error(`demo arm does not parse: ${parsed.problems.map((p) => formatProblem(p)).join("; ")}`);
   const chain = armChainSchema.parse(armL.chain);
   const plan = scratchPlan({ ...parsed.value, chain });
   return <ScratchBench plan={plan} />;

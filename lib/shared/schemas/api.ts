@@ -3,13 +3,7 @@
  * forms and the OpenAPI document (lib/server/openapi.ts).
  */
 import { z } from "zod";
-import { armDocumentSchema, parsePlan, planSchema, type Plan } from "../../server/engine";
-
-/** `arm.joints[1].maxVelocity` → ["arm", "joints", 1, "maxVelocity"]; `(document)` → []. */
-function pathSegments(path: string): (string | number)[] {
-  if (path === "(document)") return [];
-  return [...path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)].map((m) => (m[2] !== undefined ? Number(m[2]) : m[1]));
-}
+import { armDocumentSchema, parsePlan, planSchema, type Plan } from "@/kinematics";
 
 /**
  * A plan document read exactly as the command line reads it (the engine's `parsePlan`: the
@@ -19,7 +13,7 @@ function pathSegments(path: string): (string | number)[] {
 export const planDocumentInput = z.unknown().transform((value, ctx): Plan => {
   const parsed = parsePlan(value);
   if (parsed.ok) return parsed.value;
-  for (const problem of parsed.problems) ctx.addIssue({ code: "custom", message: problem.message, path: pathSegments(problem.path) });
+  for (const problem of parsed.problems) ctx.addIssue({ code: "custom", message: problem.message, path: problem.path });
   return z.NEVER;
 });
 

@@ -8,7 +8,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
-import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, type Plan } from "@/kinematics";
 import { samplePlan } from "@/kinematics/motion/sample";
 import { buildCsvExport, buildJsonExport, verifyCsvExport, verifyJsonExport, type ExportMeta } from "@/lib/server/export";
 

@@ -4,7 +4,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { parseRecordingCsv } from "@/kinematics/recordings/csv";
-import { parseArm } from "@/kinematics/plan/plan";
+import { parseArm } from "@/kinematics";
 import { streamCheck } from "@/kinematics/recordings/stream";
 
 const root = join(__dirname, "..", "..", "..");

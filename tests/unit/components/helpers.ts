@@ -1,5 +1,5 @@
 import armL from "@/kinematics/arm/presets/bench-arm-l.json";
-import { parsePlan } from "@/kinematics/plan/plan";
+import { parsePlan } from "@/kinematics";
 import type { BenchPlan } from "@/components/editor/plan-state";
 
 /** A plan on the light demo arm (real arm file, parsed by the engine's schema). */

@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import { diffDocuments } from "@/lib/shared/plan-diff";
-import { AppError, errorBody, formatPath } from "@/lib/server/errors";
+import { formatPath } from "@/kinematics";
+import { AppError, errorBody } from "@/lib/server/errors";
 import { toIssues } from "@/lib/server/route";
 import { bearerToken, generateToken, hashToken } from "@/lib/server/tokens";
 
@@ -26,7 +27,7 @@ describe("error shape", () => {
 
   it("writes field paths the way the command line does", () => {
     expect(formatPath(["document", "arm", "joints", 1, "maxVelocity"])).toBe("document.arm.joints[1].maxVelocity");
-    expect(formatPath([])).toBe("(body)");
+    expect(formatPath([], "(body)")).toBe("(body)");
     const result = z.object({ moves: z.array(z.object({ duration: z.number() })) }).safeParse({ moves: [{ duration: 1 }, { duration: "x" }] });
     expect(result.success).toBe(false);
     if (!result.success) expect(toIssues(result.error, ["document"]).map((i) => i.path)).toEqual(["document.moves[1].duration"]);

@@ -8,7 +8,7 @@ import { compileChain, type ChainJointType, linkFrames } from "@/kinematics/arm/
 import { check } from "@/kinematics";
 import { clearanceZones, compileCollision, createClearanceScanner, scanClearance, scanClearanceBounded, shapeIntrusions } from "@/kinematics/arm/clearance";
 import { compileReachBounds, linkSpeedBounds, toolAccelerationBound } from "@/kinematics/arm/motion-bounds";
-import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, type Plan } from "@/kinematics";
 import { samplePlan } from "@/kinematics/motion/sample";
 import { createToolSpeedScanner, scanToolSpeed, scanToolSpeedBounded, toolSpeedAt } from "@/kinematics/arm/tool-speed";
 import type { Finding } from "@/kinematics/check/report";

@@ -1,9 +1,10 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { chainLimits, compileChain, createChainBuffers, forwardKinematics } from "@/kinematics/arm/chain";
-import { resolveCartesianGoals, rotationErrorVector, solveIk, solveLinear } from "@/kinematics/arm/ik";
+import { rotationErrorVector, solveIk, solveLinear } from "@/kinematics/arm/ik";
+import { resolveCartesianGoals } from "@/kinematics/plan/targets";
 import * as mat4 from "@/kinematics/arm/mat4";
-import { parseArm, parsePlan, type Arm } from "@/kinematics/plan/plan";
+import { parseArm, parsePlan, type Arm } from "@/kinematics";
 import { readJson } from "./helpers";
 import { expectClose } from "../tolerance";
 
@@ -134,14 +135,14 @@ describe("Cartesian goals in a plan", () => {
     const parsed = parsePlan({ ...base, moves: [{ goal: [0, 0, 0, 0, 0, 0, 0], duration: 1 }, { target: { position: [1.5, 0, 0.2] }, duration: 2 }] });
     expect(parsed.ok).toBe(false);
     if (parsed.ok) return;
-    expect(parsed.problems.map((p) => p.path)).toEqual(["moves[1].target"]);
+    expect(parsed.problems.map((p) => p.path)).toEqual([["moves", 1, "target"]]);
     expect(parsed.problems[0].message).toMatch(/cannot reach \(1\.5, 0, 0\.2\) m .* mm away/);
   });
 
   it("a target on an arm without a chain is refused, and a document without targets is left unchanged", () => {
     const noChain = { ...base, arm: { ...(base.arm as object), chain: undefined } };
     const r = resolveCartesianGoals({ ...noChain, moves: [{ target: { position: [0.3, 0, 0.3] }, duration: 1 }] });
-    expect(r.problems).toEqual([{ path: "moves[0].target", message: "needs the arm's chain (arm.chain) to be turned into a joint goal" }]);
+    expect(r.problems).toEqual([{ path: ["moves", 0, "target"], message: "needs the arm's chain (arm.chain) to be turned into a joint goal" }]);
     const plain = { ...base, moves: [{ goal: [0, 0, 0, 0, 0, 0, 0], duration: 1 }] };
     expect(resolveCartesianGoals(plain).document).toBe(plain);
   });

@@ -2,7 +2,7 @@ import fc from "fast-check";
 import { describe, it } from "vitest";
 import { armChainSchema } from "@/kinematics/plan/arm-model";
 import { compileChain, createChainBuffers, forwardKinematics, toolJacobian } from "@/kinematics/arm/chain";
-import { parseArm } from "@/kinematics/plan/plan";
+import { parseArm } from "@/kinematics";
 import { createToolSpeedScanner, toolSpeedAt } from "@/kinematics/arm/tool-speed";
 import { readJson } from "./helpers";
 import { expectClose } from "../tolerance";

@@ -2,7 +2,7 @@ import { readFileSync } from "node:fs";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { armFromDescription, compileChain, createChainBuffers, forwardKinematics } from "@/kinematics/arm/chain";
-import { parseArm } from "@/kinematics/plan/plan";
+import { parseArm } from "@/kinematics";
 import { parseUrdf } from "@/kinematics/arm/urdf";
 import { readJson, repoPath } from "./helpers";
 import { expectAllClose, expectClose } from "../tolerance";

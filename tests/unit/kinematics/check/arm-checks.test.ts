@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { check, checkAcceleration, checkGoalRange, checkSpeed, checkStartRange } from "@/kinematics";
-import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, type Plan } from "@/kinematics";
 import type { MoveReport } from "@/kinematics/check/report";
 import { readJson } from "../arm/helpers";
 import { expectClose } from "../tolerance";

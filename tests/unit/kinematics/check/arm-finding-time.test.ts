@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { compileChain } from "@/kinematics/arm/chain";
 import { check } from "@/kinematics";
 import { createDynamicsWorkspace, inverseDynamics } from "@/kinematics/arm/dynamics";
-import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, type Plan } from "@/kinematics";
 import { sampleMoveAt } from "@/kinematics/motion/sample";
 import { timelineOf } from "@/kinematics/motion/timeline";
 import { createToolSpeedScanner, toolSpeedAt } from "@/kinematics/arm/tool-speed";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { check, defaultMoveCheckers, type MoveChecker } from "@/kinematics";
-import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, type Plan } from "@/kinematics";
 
 /** |actual − expected| within abs + rel·|expected|. */
 function expectClose(actual: number | null, expected: number, rel = 1e-12, abs = 1e-12): void {

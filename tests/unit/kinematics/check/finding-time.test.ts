@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
-import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, type Plan } from "@/kinematics";
 import { sampleMoveAt } from "@/kinematics/motion/sample";
 import { timelineOf } from "@/kinematics/motion/timeline";
 import { expectClose } from "../tolerance";

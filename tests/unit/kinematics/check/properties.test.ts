@@ -2,7 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
 import { safeDuration } from "@/kinematics/motion/peaks";
-import { parsePlan, shapeNames, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, shapeNames, type Plan } from "@/kinematics";
 import { samplePlan } from "@/kinematics/motion/sample";
 import { scaleToPass } from "@/kinematics/motion/sequence";
 import { shapeId } from "@/kinematics/motion/shapes";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
-import { parseArm, type Arm } from "@/kinematics/plan/plan";
+import { parseArm, type Arm } from "@/kinematics";
 import { samplePlan } from "@/kinematics/motion/sample";
 import { planFromPoses, scalePlan, scaleToPass, shortestSafeDurations, withShortestDurations } from "@/kinematics/motion/sequence";
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
-import { parsePlan, type Plan } from "@/kinematics/plan/plan";
+import { parsePlan, type Plan } from "@/kinematics";
 import { scalingAt, shapeId } from "@/kinematics/motion/shapes";
 
 /** |actual − expected| within abs + rel·|expected|. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatPath, parseArm, parsePlan, planSchema } from "@/kinematics/plan/plan";
+import { formatPath, formatProblem, homePose, parseArm, parsePlan, planSchema } from "@/kinematics";
 
 const validDocument = {
   format: "jointproof.plan",
@@ -21,7 +21,7 @@ function clone<T>(value: T): T {
 function problemsOf(document: unknown): string[] {
   const result = parsePlan(document);
   if (result.ok) return [];
-  return result.problems.map((p) => `${p.path}: ${p.message}`);
+  return result.problems.map((p) => formatProblem(p));
 }
 
 describe("plan document v1", () => {
@@ -120,12 +120,30 @@ describe("plan document v1", () => {
       ],
     });
     expect(result.ok).toBe(false);
-    if (!result.ok) expect(result.problems).toEqual([{ path: "joints[1].name", message: "repeats the name of joint 0" }]);
+    if (!result.ok) expect(result.problems).toEqual([{ path: ["joints", 1, "name"], message: "repeats the name of joint 0" }]);
   });
 
   it("formats nested paths with list indexes in brackets", () => {
     expect(formatPath(["arm", "joints", 1, "maxVelocity"])).toBe("arm.joints[1].maxVelocity");
     expect(formatPath(["moves", 3, "goal", 0])).toBe("moves[3].goal[0]");
     expect(formatPath([])).toBe("(document)");
+    expect(formatPath([], "(body)")).toBe("(body)");
+  });
+});
+
+describe("home pose", () => {
+  // The project's own rest pose (no published source): 0 where 0 is inside the travel, else mid-travel.
+  it("puts a joint at 0 when 0 is inside its travel, at either end of it, and mid-travel otherwise", () => {
+    const joints = [
+      { min: -1, max: 1 },
+      { min: 0, max: 2 },
+      { min: -2, max: 0 },
+      { min: 0.2, max: 0.6 },
+      { min: -0.6, max: -0.2 },
+    ];
+    const home = homePose({ joints });
+    expect(home.slice(0, 3)).toEqual([0, 0, 0]);
+    expect(home[3]).toBeCloseTo(0.4, 12);
+    expect(home[4]).toBeCloseTo(-0.4, 12);
   });
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { describeRecordingProblem, formatRecordingCsv, parseRecordingCsv } from "@/kinematics/recordings/csv";
-import { parseArm, type Arm } from "@/kinematics/plan/plan";
+import { parseArm, type Arm } from "@/kinematics";
 import { alignRecording, repairStream, resampleRecording, streamCheck, validateRecording, type Recording } from "@/kinematics/recordings/stream";
 
 function expectClose(actual: number, expected: number, rel = 1e-9, abs = 1e-12): void {

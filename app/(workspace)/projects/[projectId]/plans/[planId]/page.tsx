@@ -4,7 +4,7 @@ import { getArmRevisionForUser } from "@/db/queries/arms";
 import { getPlanForUser, getPlanVersion } from "@/db/queries/plans";
 import { PlanWorkbench } from "@/components/editor/plan-workbench";
 import type { BenchPlan } from "@/components/editor/plan-state";
-import { planFormat, planSchema, planVersion } from "@/kinematics";
+import { homePose, planFormat, planSchema, planVersion } from "@/kinematics";
 import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Plan" };
@@ -35,7 +35,7 @@ export default async function PlanPage({ params }: { params: Promise<Params> }) 
       format: planFormat,
       version: planVersion,
       arm: armDescription,
-      start: arm.joints.map((j) => (j.min <= 0 && j.max >= 0 ? 0 : (j.min + j.max) / 2)),
+      start: homePose(arm),
       moves: [],
     };
   }

@@ -5,7 +5,7 @@ import { recordAudit } from "@/db/queries/audit";
 import { createPlanVersion, listPlanVersions } from "@/db/queries/plans";
 import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
 import { checkPlan } from "@/lib/server/check";
-import { armSchema } from "@/lib/server/engine";
+import { armSchema } from "@/kinematics";
 import { loadPlan, membershipOf } from "@/lib/server/loaders";
 import { createVersionSchema } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";

@@ -4,7 +4,7 @@ import { getArmRevisionForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
 import { createRecording, listRecordings } from "@/db/queries/recordings";
 import { json, readBodyLimited, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
-import { alignRecording, armSchema, parseRecordingCsv, streamCheck } from "@/lib/server/engine";
+import { alignRecording, armSchema, parseRecordingCsv, streamCheck } from "@/kinematics";
 import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { uploadRecordingQuery } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { createArm } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
 import { json, readBodyLimited, readParams, readQuery, route, toIssues, uuidParam } from "@/lib/server/route";
-import { armDocumentSchema, armFromDescription, parseUrdf } from "@/lib/server/engine";
+import { armDocumentSchema, armFromDescription, parseUrdf } from "@/kinematics";
 import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { importUrdfQuery } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";

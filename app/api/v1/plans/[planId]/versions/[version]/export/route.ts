@@ -2,7 +2,7 @@ import { z } from "zod";
 import { getPlanVersion } from "@/db/queries/plans";
 import { readParams, readQuery, route, uuidParam } from "@/lib/server/route";
 import { checkPlan } from "@/lib/server/check";
-import { planSchema, samplePlan } from "@/lib/server/engine";
+import { planSchema, samplePlan } from "@/kinematics";
 import { buildCsvExport, buildJsonExport } from "@/lib/server/export";
 import { loadPlan, membershipOf } from "@/lib/server/loaders";
 import { EXPORT_MAX_VALUES, exportQuery } from "@/lib/shared/schemas/api";
