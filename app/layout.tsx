@@ -4,6 +4,7 @@ import Link from "next/link";
 import "./globals.css";
 import { SignOutButton } from "@/components/site/sign-out-button";
 import { optionalPageUser } from "@/lib/server/page-actor";
+import { capabilities } from "@/lib/server/permissions";
 import { mono, sans } from "./fonts";
 
 export const metadata: Metadata = {
@@ -30,7 +31,7 @@ export default async function RootLayout({ children }: { children: React.ReactNo
                 <>
                   <Link href="/projects" className="hover:text-ink">Projects</Link>
                   <Link href="/courses" className="hover:text-ink">Courses</Link>
-                  {(user.actor.siteRole === "instructor" || user.actor.siteRole === "admin") && (
+                  {capabilities(user.actor, { kind: "site" }).canCreateCourse && (
                     <Link href="/reviews" className="hover:text-ink">Reviews</Link>
                   )}
                 </>

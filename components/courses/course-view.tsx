@@ -9,6 +9,7 @@ import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import { api, ApiError } from "@/lib/client/api-client";
+import type { CourseCapabilities } from "@/lib/server/permissions";
 import { courseApi } from "./course-client";
 
 export type ArmChoice = { revisionId: string; label: string };
@@ -25,6 +26,8 @@ const statusWords: Record<Status, string> = {
 
 export interface CourseViewProps {
   course: { id: string; title: string; term: string; role: "instructor" | "student"; joinCode: string | null; inviteUrl: string | null };
+  /** What the viewer may do here, from the server's `capabilities()`. */
+  can: CourseCapabilities;
   assignments: { id: string; title: string; instructions: string; dueAt: string; status: Status; latestSubmissionId: string | null }[];
   roster: { userId: string; name: string; email: string; role: "instructor" | "student"; joinedAt: string }[];
   arms: ArmChoice[];
@@ -39,14 +42,14 @@ function fieldError(error: unknown, path: string): string | undefined {
   return error instanceof ApiError ? error.issues.find((i) => i.path === path)?.message : undefined;
 }
 
-export function CourseView({ course, assignments, roster, arms, plans }: CourseViewProps) {
-  const teaches = course.role === "instructor";
+export function CourseView({ course, can, assignments, roster, arms, plans }: CourseViewProps) {
+  const teaches = can.canReadAllSubmissions;
   return (
     <div className="mx-auto max-w-6xl px-6 py-8">
       <p className="text-sm"><Link href="/courses" className="text-brand-700 hover:underline">Courses</Link></p>
       <h1 className="text-2xl font-semibold tracking-tight">{course.title}</h1>
       <p className="text-sm text-ink-soft">{course.term} · you are {teaches ? "an instructor" : "a student"} here</p>
-      {teaches ? <InstructorTools course={course} /> : null}
+      {can.canManage ? <InstructorTools course={course} can={can} /> : null}
       <h2 className="mt-8 text-lg font-semibold">Assignments</h2>
       <Panel className="mt-2 overflow-x-auto">
         {assignments.length === 0 ? (
@@ -77,7 +80,7 @@ export function CourseView({ course, assignments, roster, arms, plans }: CourseV
                         {statusWords[a.status]}
                         {a.latestSubmissionId ? <> · <Link className="text-brand-700 hover:underline" href={`/reviews/${a.latestSubmissionId}`}>open</Link></> : null}
                       </Td>
-                      <Td><SubmitForm assignmentId={a.id} plans={plans} disabled={a.status === "submitted" || a.status === "approved"} /></Td>
+                      <Td><SubmitForm assignmentId={a.id} plans={plans} disabled={!can.canSubmit || a.status === "submitted" || a.status === "approved"} /></Td>
                     </>
                   )}
                 </tr>
@@ -86,13 +89,13 @@ export function CourseView({ course, assignments, roster, arms, plans }: CourseV
           </Table>
         )}
       </Panel>
-      {teaches ? <NewAssignment courseId={course.id} arms={arms} plans={plans} /> : null}
-      {teaches ? <Roster courseId={course.id} roster={roster} /> : null}
+      {can.canSetAssignments ? <NewAssignment courseId={course.id} arms={arms} plans={plans} /> : null}
+      {can.canReadRoster ? <Roster courseId={course.id} roster={roster} canManage={can.canManageRoster} /> : null}
     </div>
   );
 }
 
-function InstructorTools({ course }: { course: CourseViewProps["course"] }) {
+function InstructorTools({ course, can }: { course: CourseViewProps["course"]; can: CourseCapabilities }) {
   const [emails, setEmails] = useState("");
   const invite = useMutation({ mutationFn: () => courseApi.invite(course.id, emails.split(/[\s,;]+/).filter(Boolean)) });
   return (
@@ -101,7 +104,7 @@ function InstructorTools({ course }: { course: CourseViewProps["course"] }) {
         <h2 className="font-semibold">Join code</h2>
         <p className="mt-1 font-mono text-2xl tracking-widest" data-testid="join-code">{course.joinCode}</p>
         <p className="mt-2 text-xs break-all text-ink-soft">Invitation link: <span className="font-mono">{course.inviteUrl}</span></p>
-        <p className="mt-3 text-sm"><a className="text-brand-700 hover:underline" href={`/api/v1/courses/${course.id}/grades`}>Download grades and verdicts (CSV)</a></p>
+        {can.canExportGrades ? <p className="mt-3 text-sm"><a className="text-brand-700 hover:underline" href={`/api/v1/courses/${course.id}/grades`}>Download grades and verdicts (CSV)</a></p> : null}
       </Panel>
       <Panel className="p-4">
         <form onSubmit={(e) => { e.preventDefault(); invite.mutate(); }} className="flex flex-col gap-3">
@@ -219,7 +222,7 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
   );
 }
 
-function Roster({ courseId, roster }: { courseId: string; roster: CourseViewProps["roster"] }) {
+function Roster({ courseId, roster, canManage }: { courseId: string; roster: CourseViewProps["roster"]; canManage: boolean }) {
   const router = useRouter();
   const remove = useMutation({ mutationFn: (userId: string) => courseApi.removeStudent(courseId, userId), onSuccess: () => router.refresh() });
   return (
@@ -244,7 +247,7 @@ function Roster({ courseId, roster }: { courseId: string; roster: CourseViewProp
                 <Td>{r.role}</Td>
                 <Td className="tabular text-xs">{due(r.joinedAt)}</Td>
                 <Td>
-                  {r.role === "student" ? (
+                  {canManage && r.role === "student" ? (
                     <Button size="sm" variant="danger" disabled={remove.isPending} onClick={() => { if (window.confirm(`Remove ${r.name} from the course? Their submissions stay on record.`)) remove.mutate(r.userId); }}>
                       Remove
                     </Button>

@@ -26,6 +26,8 @@ export interface DashboardProject {
   name: string;
   kind: "course" | "research" | "personal";
   role: "owner" | "editor" | "viewer";
+  /** From the server's capabilities(): may create plans here. */
+  canEdit: boolean;
   updatedAt: string;
   plans: DashboardPlan[];
 }
@@ -105,7 +107,7 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
                 <span className="ml-auto flex gap-2">
                   <Link href={`/projects/${p.id}/recordings`} className="text-sm text-brand-600 hover:underline">Recordings</Link>
                   <Link href={`/projects/${p.id}/arms`} className="text-sm text-brand-600 hover:underline">Arms</Link>
-                  {p.role !== "viewer" ? (
+                  {p.canEdit ? (
                     <Button size="sm" onClick={() => setNewPlanFor(p)} aria-label={`New plan in ${p.name}`}>
                       <PlusIcon size={13} /> New plan
                     </Button>

@@ -1,8 +1,10 @@
 /**
- * Every permission decision in one place: two tables (site role → actions, project
- * membership role → actions) and the functions that consult them. Handlers call
- * `authorizeSite` / `authorizeProject`; nothing else decides who may do what.
+ * Every permission decision in one place: three tables (site role → actions, project membership
+ * role → actions, course role → actions) and the functions that consult them. Handlers call
+ * `authorizeSite` / `authorizeProject` / `authorizeCourse`; pages and components ask
+ * `capabilities(actor, resource)` what to show. Nothing else decides who may do what.
  */
+import type { CourseRole, SubmissionStatus } from "@/db/schema/courses";
 import type { MemberRole } from "@/db/schema/projects";
 import type { SiteRole } from "@/db/schema/users";
 import { AppError } from "./errors";
@@ -79,4 +81,146 @@ export function authorizeProject(membership: { role: MemberRole; archived: boole
     throw new AppError("forbidden:archived", "The project is archived; un-archive it to make changes.");
   }
   throw new AppError(`forbidden:${action.split(":")[0]}`, `Your project role (${membership.role}) does not allow ${action}.`);
+}
+
+/** Actions inside one course; the actor's course role decides (independent of their site role). */
+export type CourseAction =
+  | "course:read"
+  | "course:manage"
+  | "course:read-join-code"
+  | "roster:read"
+  | "roster:manage"
+  | "assignment:read"
+  | "assignment:create"
+  | "submission:create"
+  | "submission:read-own"
+  | "submission:read-all"
+  | "review:comment"
+  | "review:decide"
+  | "grades:export";
+
+export const coursePermissions: Record<CourseRole, ReadonlySet<CourseAction>> = {
+  student: new Set(["course:read", "assignment:read", "submission:create", "submission:read-own"]),
+  instructor: new Set([
+    "course:read",
+    "course:manage",
+    "course:read-join-code",
+    "roster:read",
+    "roster:manage",
+    "assignment:read",
+    "assignment:create",
+    "submission:read-all",
+    "review:comment",
+    "review:decide",
+    "grades:export",
+  ]),
+};
+
+export function canCourse(role: CourseRole, action: CourseAction): boolean {
+  return coursePermissions[role].has(action);
+}
+
+/** Throws `forbidden:<subject>` unless the course role allows the action. */
+export function authorizeCourse(role: CourseRole, action: CourseAction): void {
+  if (!canCourse(role, action)) {
+    throw new AppError(`forbidden:${action.split(":")[0]}`, `Your course role (${role}) does not allow ${action}.`);
+  }
+}
+
+/**
+ * Reading one submission: its student reads their own, the course's instructors read all. `viewerRole`
+ * is how the submission query found the caller (the submitting student, or an instructor of its course).
+ */
+export function authorizeSubmissionRead(viewerRole: CourseRole): void {
+  authorizeCourse(viewerRole, viewerRole === "instructor" ? "submission:read-all" : "submission:read-own");
+}
+
+/** Join-code visibility, decided once: the code is handed out by instructors, so only they see it (null for anyone else). */
+export function visibleJoinCode(course: { role: CourseRole; joinCode: string }): string | null {
+  return canCourse(course.role, "course:read-join-code") ? course.joinCode : null;
+}
+
+/**
+ * The last-owner rule, decided once: a project always keeps at least one owner. Refuses removing
+ * (`nextRole: null`) or demoting the only owner.
+ */
+export function assertKeepsAnOwner(change: { currentRole: MemberRole | undefined; nextRole: MemberRole | null; ownerCount: number }): void {
+  if (change.currentRole === "owner" && change.nextRole !== "owner" && change.ownerCount <= 1) {
+    throw new AppError("unprocessable:last-owner", "A project needs at least one owner; make someone else owner first.");
+  }
+}
+
+/** A resource as the capability question needs it. */
+export type CapabilityResource =
+  | { kind: "site" }
+  | { kind: "project"; role: MemberRole; archived: boolean }
+  | { kind: "course"; role: CourseRole }
+  | { kind: "submission"; viewerRole: CourseRole; status: SubmissionStatus };
+
+export type SiteCapabilities = { canCreateProject: boolean; canCreateCourse: boolean; canManageUsers: boolean };
+export type ProjectCapabilities = {
+  canRead: boolean;
+  /** Create and change plans, versions, arms and recordings (false for viewers and in an archived project). */
+  canEdit: boolean;
+  canManageMembers: boolean;
+  canRename: boolean;
+  canArchive: boolean;
+  canReadAudit: boolean;
+};
+export type CourseCapabilities = {
+  canManage: boolean;
+  canSeeJoinCode: boolean;
+  canReadRoster: boolean;
+  canManageRoster: boolean;
+  canSetAssignments: boolean;
+  canSubmit: boolean;
+  canReadAllSubmissions: boolean;
+  canReview: boolean;
+  canExportGrades: boolean;
+};
+export type SubmissionCapabilities = { canComment: boolean; canDecide: boolean };
+
+/**
+ * What the actor may do with one resource, answered from the same tables the handlers enforce, so a
+ * page never shows a control the API would refuse (nor hides one it would allow).
+ */
+export function capabilities(actor: Actor, resource: { kind: "site" }): SiteCapabilities;
+export function capabilities(actor: Actor, resource: { kind: "project"; role: MemberRole; archived: boolean }): ProjectCapabilities;
+export function capabilities(actor: Actor, resource: { kind: "course"; role: CourseRole }): CourseCapabilities;
+export function capabilities(actor: Actor, resource: { kind: "submission"; viewerRole: CourseRole; status: SubmissionStatus }): SubmissionCapabilities;
+export function capabilities(actor: Actor, resource: CapabilityResource): SiteCapabilities | ProjectCapabilities | CourseCapabilities | SubmissionCapabilities {
+  switch (resource.kind) {
+    case "site":
+      return { canCreateProject: canSite(actor, "project:create"), canCreateCourse: canSite(actor, "project:create-course"), canManageUsers: canSite(actor, "user:manage") };
+    case "project": {
+      const can = (action: ProjectAction) => canProject(resource, action);
+      return {
+        canRead: can("project:read"),
+        canEdit: write.every(can),
+        canManageMembers: can("member:manage"),
+        canRename: can("project:rename"),
+        canArchive: can("project:archive"),
+        canReadAudit: can("audit:read"),
+      };
+    }
+    case "course": {
+      const can = (action: CourseAction) => canCourse(resource.role, action);
+      return {
+        canManage: can("course:manage"),
+        canSeeJoinCode: can("course:read-join-code"),
+        canReadRoster: can("roster:read"),
+        canManageRoster: can("roster:manage"),
+        canSetAssignments: can("assignment:create"),
+        canSubmit: can("submission:create"),
+        canReadAllSubmissions: can("submission:read-all"),
+        canReview: can("review:decide"),
+        canExportGrades: can("grades:export"),
+      };
+    }
+    case "submission": {
+      // Comments and decisions are for a submission still waiting for review (the queries refuse later ones).
+      const open = resource.status === "submitted";
+      return { canComment: open && canCourse(resource.viewerRole, "review:comment"), canDecide: open && canCourse(resource.viewerRole, "review:decide") };
+    }
+  }
 }

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { listCoursesForUser } from "@/db/queries/courses";
 import { CoursesHome } from "@/components/courses/courses-home";
-import { canSite } from "@/lib/server/permissions";
+import { capabilities, visibleJoinCode } from "@/lib/server/permissions";
 import { requirePageActor } from "@/lib/server/page-actor";
 
 export const metadata: Metadata = { title: "Courses" };
@@ -11,7 +11,7 @@ export const dynamic = "force-dynamic";
 /** The caller's courses; join one with a code, or (instructors) create one. */
 export default async function CoursesPage() {
   const actor = await requirePageActor("/courses");
-  const canCreate = canSite(actor, "project:create-course");
+  const canCreate = capabilities(actor, { kind: "site" }).canCreateCourse;
   const courses = await listCoursesForUser({ userId: actor.userId });
   const armList = canCreate ? await listArmsForUser({ userId: actor.userId }) : [];
   const revisions = await Promise.all(armList.map((a) => getArmRevisionForUser({ armId: a.id, userId: actor.userId })));
@@ -20,7 +20,7 @@ export default async function CoursesPage() {
     <CoursesHome
       arms={arms}
       canCreate={canCreate}
-      courses={courses.map((c) => ({ id: c.id, title: c.title, term: c.term, role: c.role, joinCode: c.role === "instructor" ? c.joinCode : null }))}
+      courses={courses.map((c) => ({ id: c.id, title: c.title, term: c.term, role: c.role, joinCode: visibleJoinCode(c) }))}
     />
   );
 }

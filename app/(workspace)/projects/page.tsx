@@ -3,7 +3,9 @@ import { listArmsForUser } from "@/db/queries/arms";
 import { listPlansForProject } from "@/db/queries/plans";
 import { listProjectsForUser } from "@/db/queries/projects";
 import { ProjectsDashboard, type DashboardProject } from "@/components/projects/projects-dashboard";
+import { membershipOf } from "@/lib/server/loaders";
 import { requirePageActor } from "@/lib/server/page-actor";
+import { capabilities } from "@/lib/server/permissions";
 
 export const metadata: Metadata = { title: "Projects" };
 export const dynamic = "force-dynamic";
@@ -18,6 +20,7 @@ export default async function ProjectsPage() {
       name: p.name,
       kind: p.kind,
       role: p.role,
+      canEdit: capabilities(actor, { kind: "project", ...membershipOf(p) }).canEdit,
       updatedAt: p.updatedAt.toISOString(),
       plans: (await listPlansForProject({ projectId: p.id, userId: actor.userId })).map((plan) => ({
         id: plan.id,

@@ -4,6 +4,7 @@ import { listReviewQueue } from "@/db/queries/reviews";
 import { ReviewQueue } from "@/components/review/review-queue";
 import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
 import { requirePageActor } from "@/lib/server/page-actor";
+import { capabilities } from "@/lib/server/permissions";
 
 export const metadata: Metadata = { title: "Reviews" };
 export const dynamic = "force-dynamic";
@@ -22,11 +23,12 @@ export default async function ReviewsPage({ searchParams }: { searchParams: Prom
     listOwnSubmissions({ userId: actor.userId }),
     listCoursesForUser({ userId: actor.userId }),
   ]);
+  const taught = courses.filter((c) => capabilities(actor, { kind: "course", role: c.role }).canReview);
   return (
     <ReviewQueue
       filter={filter}
-      teaches={courses.some((c) => c.role === "instructor")}
-      courses={courses.filter((c) => c.role === "instructor").map((c) => ({ id: c.id, title: c.title }))}
+      teaches={taught.length > 0}
+      courses={taught.map((c) => ({ id: c.id, title: c.title }))}
       queue={queue.map((q) => ({ ...q, submittedAt: q.submittedAt.toISOString(), dueAt: q.dueAt.toISOString() }))}
       mine={mine.map((m) => ({ id: m.id, assignmentTitle: m.assignmentTitle, courseTitle: m.courseTitle, submittedAt: m.submittedAt.toISOString(), attempt: m.attempt, verdict: m.verdict, status: m.status, late: m.late }))}
     />

@@ -5,7 +5,7 @@ import { getCourseForUser, listAssignmentsForUser, listRoster } from "@/db/queri
 import { listPlansForProject } from "@/db/queries/plans";
 import { listProjectsForUser } from "@/db/queries/projects";
 import { CourseView, type ArmChoice, type PlanChoice } from "@/components/courses/course-view";
-import { canCourse } from "@/lib/server/course-permissions";
+import { capabilities, visibleJoinCode } from "@/lib/server/permissions";
 import { appLink } from "@/lib/server/mail/templates";
 import { requirePageActor } from "@/lib/server/page-actor";
 
@@ -19,10 +19,12 @@ export default async function CoursePage({ params }: { params: Promise<{ courseI
   if (!/^[0-9a-f-]{36}$/i.test(courseId)) notFound();
   const course = await getCourseForUser({ courseId, userId: actor.userId });
   if (!course) notFound();
-  const teaches = canCourse(course.role, "roster:read");
+  const can = capabilities(actor, { kind: "course", role: course.role });
+  const teaches = can.canSetAssignments;
+  const joinCode = visibleJoinCode(course);
   const [assignments, roster] = await Promise.all([
     listAssignmentsForUser({ courseId, userId: actor.userId }),
-    teaches ? listRoster({ courseId, userId: actor.userId }) : Promise.resolve([]),
+    can.canReadRoster ? listRoster({ courseId, userId: actor.userId }) : Promise.resolve([]),
   ]);
 
   // Students pick the plan version to submit; instructors may copy an assignment's poses from one.
@@ -40,7 +42,8 @@ export default async function CoursePage({ params }: { params: Promise<{ courseI
 
   return (
     <CourseView
-      course={{ id: course.id, title: course.title, term: course.term, role: course.role, joinCode: teaches ? course.joinCode : null, inviteUrl: teaches ? appLink(`/courses/join?code=${course.joinCode}`) : null }}
+      course={{ id: course.id, title: course.title, term: course.term, role: course.role, joinCode, inviteUrl: joinCode ? appLink(`/courses/join?code=${joinCode}`) : null }}
+      can={can}
       assignments={assignments.map((a) => ({ id: a.id, title: a.title, instructions: a.instructions, dueAt: a.dueAt.toISOString(), status: a.status, latestSubmissionId: a.latestSubmissionId }))}
       roster={roster.map((r) => ({ userId: r.userId, name: r.name, email: r.email, role: r.role, joinedAt: r.joinedAt.toISOString() }))}
       arms={arms}

@@ -7,6 +7,7 @@ import { tightenArm, type RuleProblem } from "@/lib/shared/courses/rules";
 import { limitsSchema } from "@/lib/shared/schemas/courses";
 import { parsePlan, type Report } from "@/kinematics";
 import { requirePageActor } from "@/lib/server/page-actor";
+import { capabilities } from "@/lib/server/permissions";
 
 export const metadata: Metadata = { title: "Review" };
 export const dynamic = "force-dynamic";
@@ -34,7 +35,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ submiss
       plan={plan}
       report={submission.report as Report}
       ruleProblems={submission.ruleProblems as RuleProblem[]}
-      canReview={submission.viewerRole === "instructor" && submission.status === "submitted"}
+      canReview={capabilities(actor, { kind: "submission", viewerRole: submission.viewerRole, status: submission.status }).canDecide}
       viewerRole={submission.viewerRole}
       meta={{
         id: submission.id,

@@ -5,7 +5,7 @@ import { json, readJson, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
 import { appLink } from "@/lib/server/mail/templates";
-import { authorizeSite } from "@/lib/server/permissions";
+import { authorizeSite, visibleJoinCode } from "@/lib/server/permissions";
 import { createCourseSchema } from "@/lib/shared/schemas/courses";
 import { joinPath } from "./course-api";
 
@@ -13,8 +13,7 @@ import { joinPath } from "./course-api";
 export const GET = route(async (request) => {
   const actor = await requireActor(request);
   const courses = await listCoursesForUser({ userId: actor.userId });
-  // Join codes are for instructors to hand out; students do not need them.
-  return json({ courses: courses.map((c) => (c.role === "instructor" ? c : { ...c, joinCode: undefined })) });
+  return json({ courses: courses.map((c) => ({ ...c, joinCode: visibleJoinCode(c) ?? undefined })) });
 });
 
 /** POST /api/v1/courses — an instructor creates a course and becomes its instructor. */

@@ -4,7 +4,9 @@ import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { getProjectForUser } from "@/db/queries/projects";
 import { ArmsWorkbench, type ArmEntry } from "@/components/arms/arms-workbench";
 import { armSchema } from "@/kinematics";
+import { membershipOf } from "@/lib/server/loaders";
 import { requirePageActor } from "@/lib/server/page-actor";
+import { capabilities } from "@/lib/server/permissions";
 
 export const metadata: Metadata = { title: "Arms" };
 export const dynamic = "force-dynamic";
@@ -23,5 +25,5 @@ export default async function ArmsPage({ params }: { params: Promise<{ projectId
     const parsed = rev ? armSchema.safeParse(rev.description) : null;
     if (rev && parsed?.success) entries.push({ id: a.id, name: a.name, builtIn: a.builtIn, revision: rev.revision, arm: parsed.data });
   }
-  return <ArmsWorkbench projectId={project.id} projectName={project.name} arms={entries} canEdit={project.role !== "viewer" && project.archivedAt === null} />;
+  return <ArmsWorkbench projectId={project.id} projectName={project.name} arms={entries} canEdit={capabilities(actor, { kind: "project", ...membershipOf(project) }).canEdit} />;
 }

@@ -5,7 +5,9 @@ import { getProjectForUser } from "@/db/queries/projects";
 import { listRecordings } from "@/db/queries/recordings";
 import { RecordingsWorkbench, type RecordingArm } from "@/components/recordings/recordings-workbench";
 import { armSchema } from "@/kinematics";
+import { membershipOf } from "@/lib/server/loaders";
 import { requirePageActor } from "@/lib/server/page-actor";
+import { capabilities } from "@/lib/server/permissions";
 
 export const metadata: Metadata = { title: "Recordings" };
 export const dynamic = "force-dynamic";
@@ -29,7 +31,7 @@ export default async function RecordingsPage({ params }: { params: Promise<{ pro
       projectId={project.id}
       projectName={project.name}
       arms={withDescriptions}
-      canEdit={project.role !== "viewer" && project.archivedAt === null}
+      canEdit={capabilities(actor, { kind: "project", ...membershipOf(project) }).canEdit}
       stored={(await listRecordings({ projectId, userId: actor.userId })).map((r) => ({
         id: r.id,
         name: r.name,

@@ -1,6 +1,6 @@
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse } from "@/lib/server/permissions";
 import { assignmentParams } from "@/lib/shared/schemas/courses";
 import { loadAssignment } from "../../courses/course-api";
 

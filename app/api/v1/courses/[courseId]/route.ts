@@ -1,6 +1,6 @@
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse, canCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse, visibleJoinCode } from "@/lib/server/permissions";
 import { appLink } from "@/lib/server/mail/templates";
 import { courseParams } from "@/lib/shared/schemas/courses";
 import { joinPath, loadCourse } from "../course-api";
@@ -11,6 +11,7 @@ export const GET = route(async (request, context) => {
   const actor = await requireActor(request);
   const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "course:read");
-  if (canCourse(course.role, "course:manage")) return json({ course: { ...course, inviteUrl: appLink(joinPath(course.joinCode)) } });
+  const joinCode = visibleJoinCode(course);
+  if (joinCode) return json({ course: { ...course, inviteUrl: appLink(joinPath(joinCode)) } });
   return json({ course: { ...course, joinCode: undefined } });
 });

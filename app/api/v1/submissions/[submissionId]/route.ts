@@ -1,7 +1,7 @@
 import { listComments } from "@/db/queries/reviews";
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeSubmissionRead } from "@/lib/server/permissions";
 import { submissionParams } from "@/lib/shared/schemas/courses";
 import { loadSubmission } from "../../courses/course-api";
 
@@ -10,6 +10,6 @@ export const GET = route(async (request, context) => {
   const { submissionId } = await readParams(context, submissionParams);
   const actor = await requireActor(request);
   const submission = await loadSubmission(actor, submissionId);
-  authorizeCourse(submission.viewerRole, submission.viewerRole === "instructor" ? "submission:read-all" : "submission:read-own");
+  authorizeSubmissionRead(submission.viewerRole);
   return json({ submission, comments: await listComments({ submissionId, userId: actor.userId }) });
 });

@@ -5,7 +5,9 @@ import { getPlanForUser, getPlanVersion } from "@/db/queries/plans";
 import { PlanWorkbench } from "@/components/editor/plan-workbench";
 import type { BenchPlan } from "@/components/editor/plan-state";
 import { homePose, planFormat, planSchema, planVersion } from "@/kinematics";
+import { membershipOf } from "@/lib/server/loaders";
 import { requirePageActor } from "@/lib/server/page-actor";
+import { capabilities } from "@/lib/server/permissions";
 
 export const metadata: Metadata = { title: "Plan" };
 export const dynamic = "force-dynamic";
@@ -51,7 +53,7 @@ export default async function PlanPage({ params }: { params: Promise<Params> }) 
       armName={plan.armName}
       armRevision={version?.armRevision ?? revision?.revision ?? 1}
       version={plan.latestVersion}
-      canEdit={plan.role !== "viewer" && !plan.projectArchived}
+      canEdit={capabilities(actor, { kind: "project", ...membershipOf(plan) }).canEdit}
     />
   );
 }

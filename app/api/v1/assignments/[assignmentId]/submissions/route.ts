@@ -4,7 +4,7 @@ import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/server/route";
 import { armSchema, parsePlan } from "@/kinematics";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse } from "@/lib/server/permissions";
 import { AppError } from "@/lib/server/errors";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { submissionReceived } from "@/lib/server/mail/templates";

@@ -2,7 +2,7 @@ import { recordAudit } from "@/db/queries/audit";
 import { createAssignment, getArmRevisionById, listAssignmentsForUser } from "@/db/queries/courses";
 import { json, readJson, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse } from "@/lib/server/permissions";
 import { AppError } from "@/lib/server/errors";
 import { armSchema } from "@/kinematics";
 import { createAssignmentSchema, courseParams } from "@/lib/shared/schemas/courses";

@@ -1,7 +1,7 @@
 import { listGrades } from "@/db/queries/reviews";
 import { readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse } from "@/lib/server/permissions";
 import { courseParams } from "@/lib/shared/schemas/courses";
 import { csv, loadCourse } from "../../course-api";
 

@@ -3,7 +3,7 @@ import { queueMail } from "@/db/queries/mail";
 import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse } from "@/lib/server/permissions";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { appLink, courseInvitation } from "@/lib/server/mail/templates";
 import { courseParams, inviteSchema } from "@/lib/shared/schemas/courses";

@@ -1,7 +1,7 @@
 import { listRoster } from "@/db/queries/courses";
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse } from "@/lib/server/permissions";
 import { courseParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../course-api";
 

@@ -6,7 +6,7 @@ import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { addMemberSchema } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
-import { authorizeProject } from "@/lib/server/permissions";
+import { assertKeepsAnOwner, authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam });
 
@@ -27,9 +27,7 @@ export const POST = route(async (request, context) => {
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "member:manage");
   const existing = (await listMembers({ projectId, userId: actor.userId })).find((m) => m.email === body.email);
-  if (existing?.role === "owner" && body.role !== "owner" && (await countOwners({ projectId })) <= 1) {
-    throw new AppError("unprocessable:last-owner", "A project needs at least one owner; make someone else owner first.");
-  }
+  if (existing?.role === "owner") assertKeepsAnOwner({ currentRole: existing.role, nextRole: body.role, ownerCount: await countOwners({ projectId }) });
   const member = await upsertMember({ projectId, ownerId: actor.userId, email: body.email, role: body.role });
   if (!member) throw new AppError("unprocessable:unknown-user", "No active account has this e-mail.", { issues: [{ path: "email", message: "has no account" }] });
   await recordAudit({ actorId: actor.userId, action: "member.set", targetType: "user", targetId: member.userId, projectId, detail: { role: body.role } });

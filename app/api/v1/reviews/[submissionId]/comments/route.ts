@@ -1,7 +1,7 @@
 import { addComment, listComments } from "@/db/queries/reviews";
 import { json, readJson, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse, authorizeSubmissionRead } from "@/lib/server/permissions";
 import { AppError } from "@/lib/server/errors";
 import { submissionParams } from "@/lib/shared/schemas/courses";
 import { commentSchema } from "@/lib/shared/schemas/reviews";
@@ -12,7 +12,7 @@ export const GET = route(async (request, context) => {
   const { submissionId } = await readParams(context, submissionParams);
   const actor = await requireActor(request);
   const submission = await loadSubmission(actor, submissionId);
-  authorizeCourse(submission.viewerRole, submission.viewerRole === "instructor" ? "submission:read-all" : "submission:read-own");
+  authorizeSubmissionRead(submission.viewerRole);
   return json({ comments: await listComments({ submissionId, userId: actor.userId }) });
 });
 

@@ -2,7 +2,7 @@ import { recordAudit } from "@/db/queries/audit";
 import { removeStudent } from "@/db/queries/courses";
 import { json, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { authorizeCourse } from "@/lib/server/course-permissions";
+import { authorizeCourse } from "@/lib/server/permissions";
 import { AppError } from "@/lib/server/errors";
 import { courseMemberParams } from "@/lib/shared/schemas/courses";
 import { loadCourse } from "../../../course-api";

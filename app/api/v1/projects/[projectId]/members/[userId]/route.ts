@@ -5,7 +5,7 @@ import { json, readParams, route, uuidParam } from "@/lib/server/route";
 import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
-import { authorizeProject } from "@/lib/server/permissions";
+import { assertKeepsAnOwner, authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam, userId: uuidParam });
 
@@ -17,9 +17,7 @@ export const DELETE = route(async (request, context) => {
   authorizeProject(membershipOf(project), "member:manage");
   const target = (await listMembers({ projectId, userId: actor.userId })).find((m) => m.userId === userId);
   if (!target) throw new AppError("not_found:member", "That user is not a member of this project.");
-  if (target.role === "owner" && (await countOwners({ projectId })) <= 1) {
-    throw new AppError("unprocessable:last-owner", "A project needs at least one owner; make someone else owner first.");
-  }
+  if (target.role === "owner") assertKeepsAnOwner({ currentRole: target.role, nextRole: null, ownerCount: await countOwners({ projectId }) });
   await removeMember({ projectId, ownerId: actor.userId, userId });
   await recordAudit({ actorId: actor.userId, action: "member.remove", targetType: "user", targetId: userId, projectId });
   return json({ removed: userId });
