@@ -112,6 +112,38 @@ export async function countFailedSignInsFromIp({ ip, since }: { ip: string; sinc
   return row?.n ?? 0;
 }
 
+/** Failed attempts counted for a back-off, and when the latest was. */
+export type SignInFailures = { failures: number; lastFailureAt: Date | null };
+
+/**
+ * Failed sign-in attempts for one e-mail since a moment and after its latest successful sign-in
+ * (a correct password ends the back-off), with the time of the latest.
+ */
+export async function recentFailedSignInsForEmail({ email, since }: { email: string; since: Date }): Promise<SignInFailures> {
+  const e = email.toLowerCase();
+  const [row] = await db
+    .select({ n: count(), last: sql<string | null>`max(${signInAttempts.attemptedAt})` })
+    .from(signInAttempts)
+    .where(
+      and(
+        eq(signInAttempts.email, e),
+        eq(signInAttempts.succeeded, false),
+        gte(signInAttempts.attemptedAt, since),
+        sql`${signInAttempts.attemptedAt} > coalesce((select max(s.attempted_at) from sign_in_attempts s where s.email = ${e} and s.succeeded), '-infinity'::timestamptz)`,
+      ),
+    );
+  return { failures: row?.n ?? 0, lastFailureAt: row?.last ? new Date(row.last) : null };
+}
+
+/** Failed sign-in attempts from one client address since a moment, across all e-mails, with the latest's time. */
+export async function recentFailedSignInsFromIp({ ip, since }: { ip: string; since: Date }): Promise<SignInFailures> {
+  const [row] = await db
+    .select({ n: count(), last: sql<string | null>`max(${signInAttempts.attemptedAt})` })
+    .from(signInAttempts)
+    .where(and(eq(signInAttempts.ip, ip), eq(signInAttempts.succeeded, false), gte(signInAttempts.attemptedAt, since)));
+  return { failures: row?.n ?? 0, lastFailureAt: row?.last ? new Date(row.last) : null };
+}
+
 /**
  * Sets a new password with a one-time reset token, in one transaction: the token is used up, the
  * hash and `passwordChangedAt` change together (so no moment exists where the new password works

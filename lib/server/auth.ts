@@ -1,23 +1,38 @@
 /**
  * Sign-in with next-auth 4 (Credentials provider, JWT session in a signed, encrypted,
- * http-only cookie). Sign-in attempts are rate-limited through PostgreSQL so the limit
- * holds across app servers. Password reset and e-mail verification hook in here later
- * (`users.emailVerifiedAt` is already in the schema).
+ * http-only cookie). Failed attempts are counted in PostgreSQL, so the back-off holds across
+ * app servers: after a few failures for an account (or many from one client address), the next
+ * attempt must wait a delay that doubles with each further failure, and the user is told how
+ * many seconds. A correct password after the delay always works: nobody can lock an account or
+ * a shared address out for longer than the capped delay.
  */
 import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
-import {
-  countFailedSignIns,
-  countFailedSignInsFromIp,
-  getUserForSignIn,
-  recordSignInAttempt,
-} from "@/db/queries/users";
+import { getUserForSignIn, recentFailedSignInsForEmail, recentFailedSignInsFromIp, recordSignInAttempt, type SignInFailures } from "@/db/queries/users";
 import { env } from "./env";
+import { PEER_ADDRESS_HEADER } from "./peer-address";
 import { signInSchema } from "../shared/schemas/auth";
 
-/** Failed attempts allowed per e-mail (and, more loosely, per address) in the window. */
-export const SIGN_IN_LIMIT = { perEmail: 5, perIp: 30, windowMinutes: 15 } as const;
+/**
+ * Sign-in back-off: failures within the window beyond the free ones make the next attempt wait
+ * 2, 4, 8 … seconds after the latest failure, up to the cap (per account and per client address).
+ */
+export const SIGN_IN_BACKOFF = { freePerEmail: 3, freePerIp: 10, maxDelayPerEmailS: 300, maxDelayPerIpS: 60, windowMinutes: 15 } as const;
+
+/** Seconds to wait after the latest failure, given how many failures there were. */
+export function backoffDelayS(failures: number, free: number, maxS: number): number {
+  const over = failures - free;
+  if (over <= 0) return 0;
+  return Math.min(maxS, 2 ** Math.min(over, 30));
+}
+
+/** Seconds until the next attempt may be made (0: now), from the failures and the clock. */
+export function retryAfterS(f: SignInFailures, free: number, maxS: number, nowMs: number): number {
+  if (!f.lastFailureAt) return 0;
+  const readyMs = f.lastFailureAt.getTime() + backoffDelayS(f.failures, free, maxS) * 1000;
+  return Math.max(0, Math.ceil((readyMs - nowMs) / 1000));
+}
 
 /** Cookies are `secure` everywhere except on a loopback http address (local development and tests). */
 export function secureCookies(): boolean {
@@ -38,8 +53,11 @@ export function sessionSecret(): string | undefined {
 
 export const SESSION_MAX_AGE_S = 8 * 60 * 60;
 
-/** Message shown when the rate limit refuses an attempt. */
-export const RATE_LIMITED_MESSAGE = `Too many failed sign-in attempts. Wait ${SIGN_IN_LIMIT.windowMinutes} minutes and try again.`;
+/** The start of the message shown while the back-off holds; it goes on with the seconds to wait. */
+export const RATE_LIMITED_MESSAGE = "Too many failed sign-in attempts.";
+export function rateLimitedMessage(waitS: number): string {
+  return `${RATE_LIMITED_MESSAGE} Try again in ${waitS} second${waitS === 1 ? "" : "s"}.`;
+}
 export const BAD_CREDENTIALS_MESSAGE = "E-mail or password is wrong.";
 
 /** A fixed hash, compared against when the e-mail is unknown, so timing does not reveal which accounts exist. */
@@ -53,14 +71,18 @@ export async function verifyCredentials(raw: unknown, ip: string | null): Promis
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) throw new Error(BAD_CREDENTIALS_MESSAGE);
   const { email, password } = parsed.data;
-  const since = new Date(Date.now() - SIGN_IN_LIMIT.windowMinutes * 60_000);
+  const since = new Date(Date.now() - SIGN_IN_BACKOFF.windowMinutes * 60_000);
   const [byEmail, byIp] = await Promise.all([
-    countFailedSignIns({ email, since }),
-    ip ? countFailedSignInsFromIp({ ip, since }) : Promise.resolve(0),
+    recentFailedSignInsForEmail({ email, since }),
+    ip ? recentFailedSignInsFromIp({ ip, since }) : Promise.resolve({ failures: 0, lastFailureAt: null }),
   ]);
-  if (byEmail >= SIGN_IN_LIMIT.perEmail || byIp >= SIGN_IN_LIMIT.perIp) {
-    throw new Error(RATE_LIMITED_MESSAGE);
-  }
+  const now = Date.now();
+  const waitS = Math.max(
+    retryAfterS(byEmail, SIGN_IN_BACKOFF.freePerEmail, SIGN_IN_BACKOFF.maxDelayPerEmailS, now),
+    retryAfterS(byIp, SIGN_IN_BACKOFF.freePerIp, SIGN_IN_BACKOFF.maxDelayPerIpS, now),
+  );
+  // Refused before the password is compared, and not counted: waiting out the delay is enough.
+  if (waitS > 0) throw new Error(rateLimitedMessage(waitS));
   const user = await getUserForSignIn({ email });
   const ok = await bcrypt.compare(password, user?.passwordHash ?? UNKNOWN_USER_HASH);
   const allowed = ok && user !== undefined && user.disabledAt === null;
@@ -69,16 +91,41 @@ export async function verifyCredentials(raw: unknown, ip: string | null): Promis
   return { id: user.id, email: user.email, name: user.name };
 }
 
-/** The client address from the proxy headers, when present (only trustworthy behind our own proxy). */
-export function clientIp(headers: Headers | Record<string, string | string[] | undefined> | undefined): string | null {
+export { PEER_ADDRESS_HEADER };
+
+/** `::ffff:192.0.2.1` → `192.0.2.1`, so IPv4 clients on a dual-stack socket compare equal. */
+function normaliseIp(ip: string): string {
+  const v = ip.trim().toLowerCase();
+  return v.startsWith("::ffff:") && v.includes(".") ? v.slice(7) : v;
+}
+
+/**
+ * The client's address: the connection's peer, unless that peer is one of TRUSTED_PROXIES, in
+ * which case X-Forwarded-For is read from the right, skipping further trusted proxies, and the
+ * first untrusted address is the client. A client's own X-Forwarded-For is never believed.
+ * Null when the peer is unknown (a handler called without a server).
+ */
+export function clientIp(
+  headers: Headers | Record<string, string | string[] | undefined> | undefined,
+  trusted: readonly string[] = env().TRUSTED_PROXIES,
+): string | null {
   if (!headers) return null;
   const get = (name: string): string | undefined => {
     if (headers instanceof Headers) return headers.get(name) ?? undefined;
     const v = headers[name];
-    return Array.isArray(v) ? v[0] : v;
+    return Array.isArray(v) ? v.join(",") : v;
   };
-  const forwarded = get("x-forwarded-for")?.split(",")[0]?.trim();
-  return forwarded || get("x-real-ip") || null;
+  const peer = get(PEER_ADDRESS_HEADER);
+  if (!peer) return null;
+  const trustedSet = new Set(trusted.map(normaliseIp));
+  let client = normaliseIp(peer);
+  if (!trustedSet.has(client)) return client;
+  const hops = (get("x-forwarded-for") ?? "").split(",").map((h) => normaliseIp(h)).filter(Boolean);
+  while (hops.length > 0) {
+    client = hops.pop()!;
+    if (!trustedSet.has(client)) return client;
+  }
+  return client;
 }
 
 export function authOptions(): NextAuthOptions {

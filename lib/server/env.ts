@@ -11,6 +11,36 @@ const envSchema = z.object({
   NEXTAUTH_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
   /** The public base URL of the app, used in links (e-mail, exports). */
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
+  /**
+   * Further origins (comma-separated, `scheme://host[:port]`) allowed to send state-changing requests
+   * with a session cookie, besides APP_URL's own; e.g. a second host name of the same deployment.
+   */
+  ALLOWED_ORIGINS: z
+    .string()
+    .default("")
+    .transform((v, ctx) => {
+      const out: string[] = [];
+      for (const part of v.split(",").map((p) => p.trim()).filter(Boolean)) {
+        try {
+          const u = new URL(part);
+          if (u.origin !== part.replace(/\/$/, "")) throw new Error();
+          out.push(u.origin);
+        } catch {
+          ctx.addIssue({ code: "custom", message: `"${part}" is not an origin (scheme://host[:port])` });
+        }
+      }
+      return out;
+    }),
+  /**
+   * Proxies whose X-Forwarded-For is believed (comma-separated IP addresses). Empty: the header is
+   * ignored and the connection's address is the client's. Set it to your reverse proxy's address.
+   */
+  TRUSTED_PROXIES: z
+    .string()
+    .default("")
+    .transform((v) => v.split(",").map((p) => p.trim()).filter(Boolean)),
+  /** Shows the development mail page in a production build (only for an admin on a loopback-only server). */
+  JP_DEV_MAIL: z.enum(["0", "1"]).optional(),
   /** Largest JSON request body the API reads, in bytes. */
   API_BODY_LIMIT_BYTES: z.coerce.number().int().positive().default(1_048_576),
   /** Largest upload (recording, URDF file) the API accepts, in bytes; checked before the body is read whole. */

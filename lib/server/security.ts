@@ -8,15 +8,14 @@ import { AppError } from "./errors";
 
 const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 
-/** Origins this app is served from: the configured APP_URL and the request's own host. */
-function allowedOrigins(request: Request): Set<string> {
-  const origins = new Set([new URL(env().APP_URL).origin]);
-  try {
-    origins.add(new URL(request.url).origin);
-  } catch {
-    // A request without an absolute URL only has APP_URL to match.
-  }
-  return origins;
+/**
+ * Origins allowed to change data with a session cookie: exactly the configured APP_URL origin and
+ * the documented extras in ALLOWED_ORIGINS. Never the request's own Host: `localhost` is not
+ * `127.0.0.1`, and a Host header is whatever the client sends.
+ */
+export function allowedOrigins(): Set<string> {
+  const e = env();
+  return new Set([new URL(e.APP_URL).origin, ...e.ALLOWED_ORIGINS]);
 }
 
 /** Throws `forbidden:origin` for a cross-site state-changing request. */
@@ -24,7 +23,7 @@ export function assertSameOrigin(request: Request): void {
   if (SAFE_METHODS.has(request.method.toUpperCase())) return;
   const origin = request.headers.get("origin");
   if (origin !== null) {
-    if (allowedOrigins(request).has(origin)) return;
+    if (allowedOrigins().has(origin)) return;
     throw new AppError("forbidden:origin", "Cross-site requests cannot change data with a session cookie.");
   }
   // No Origin header: accept only when the browser says the request is from this site.

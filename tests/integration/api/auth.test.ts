@@ -11,7 +11,7 @@ import * as projects from "@/app/api/v1/projects/route";
 import * as project from "@/app/api/v1/projects/[projectId]/route";
 import * as projectPlans from "@/app/api/v1/projects/[projectId]/plans/route";
 import * as userRoute from "@/app/api/v1/users/[userId]/route";
-import { BAD_CREDENTIALS_MESSAGE, RATE_LIMITED_MESSAGE, SIGN_IN_LIMIT, verifyCredentials } from "@/lib/server/auth";
+import { BAD_CREDENTIALS_MESSAGE, RATE_LIMITED_MESSAGE, SIGN_IN_BACKOFF, verifyCredentials } from "@/lib/server/auth";
 import { hashToken } from "@/lib/server/tokens";
 import { BASE, call, demoArm, errorOf, makeUser, sessionCookieFor, tokenFor } from "./_helpers";
 
@@ -102,19 +102,31 @@ describe("sign-in", () => {
     await expect(verifyCredentials({ email: `nobody-${u.id}@example.com`, password: "wrong-password" }, null)).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
   });
 
-  it(`locks an account for the window after ${SIGN_IN_LIMIT.perEmail} failed attempts, even with the right password`, async () => {
+  it(`makes even the right password wait, and says how many seconds, after ${SIGN_IN_BACKOFF.freePerEmail + 1} failed attempts`, async () => {
     const u = await makeUser("student");
     // Addresses from the documentation ranges (RFC 5737), fresh per run so earlier runs do not count.
     const octet = () => 1 + Math.floor(Math.random() * 254);
-    for (let i = 0; i < SIGN_IN_LIMIT.perEmail; i++) {
+    for (let i = 0; i < SIGN_IN_BACKOFF.freePerEmail + 1; i++) {
       await expect(verifyCredentials({ email: u.email, password: `wrong-${i}` }, `203.0.113.${octet()}`)).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
     }
-    await expect(verifyCredentials({ email: u.email, password: u.password }, `198.51.100.${octet()}`)).rejects.toThrow(RATE_LIMITED_MESSAGE);
+    const refused = verifyCredentials({ email: u.email, password: u.password }, `198.51.100.${octet()}`);
+    await expect(refused).rejects.toThrow(RATE_LIMITED_MESSAGE);
+    await expect(refused).rejects.toThrow(/Try again in [12] seconds?\./);
   });
 
-  it("allows a correct password after fewer failures than the limit", async () => {
+  it("lets the right password in once the back-off delay (2 s after one failure over the free ones) has passed", async () => {
     const u = await makeUser("student");
-    for (let i = 0; i < SIGN_IN_LIMIT.perEmail - 1; i++) {
+    for (let i = 0; i < SIGN_IN_BACKOFF.freePerEmail + 1; i++) {
+      await expect(verifyCredentials({ email: u.email, password: `wrong-${i}` }, null)).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
+    }
+    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).rejects.toThrow(RATE_LIMITED_MESSAGE);
+    await new Promise((r) => setTimeout(r, 2_100));
+    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).resolves.toMatchObject({ id: u.id });
+  });
+
+  it("allows a correct password after no more failures than the free ones", async () => {
+    const u = await makeUser("student");
+    for (let i = 0; i < SIGN_IN_BACKOFF.freePerEmail; i++) {
       await expect(verifyCredentials({ email: u.email, password: `wrong-${i}` }, null)).rejects.toThrow();
     }
     await expect(verifyCredentials({ email: u.email, password: u.password }, null)).resolves.toMatchObject({ id: u.id });
