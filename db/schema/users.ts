@@ -48,6 +48,38 @@ export const signInAttempts = pgTable(
   (t) => [index("sign_in_attempts_email_time").on(t.email, t.attemptedAt)],
 );
 
+/**
+ * Signed-out sessions: a session cookie carries its id (`sid`); sign-out records it here until the
+ * cookie would have expired anyway, and every request refuses a cookie whose id is listed.
+ */
+export const revokedSessions = pgTable(
+  "revoked_sessions",
+  {
+    sessionId: uuid("session_id").primaryKey(),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    revokedAt: timestamp("revoked_at", { withTimezone: true }).notNull().defaultNow(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+  },
+  (t) => [index("revoked_sessions_expires").on(t.expiresAt)],
+);
+
+/**
+ * One row per sign-up request, new address or not, so sign-up can be limited per address and per
+ * client across app servers without revealing which addresses have accounts.
+ */
+export const signUpAttempts = pgTable(
+  "sign_up_attempts",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    email: text("email").notNull(),
+    ip: text("ip"),
+    attemptedAt: timestamp("attempted_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("sign_up_attempts_email_time").on(t.email, t.attemptedAt), index("sign_up_attempts_ip_time").on(t.ip, t.attemptedAt)],
+);
+
 export type User = typeof users.$inferSelect;
 export type NewUser = typeof users.$inferInsert;
 export type SiteRole = (typeof siteRole.enumValues)[number];
