@@ -38,4 +38,6 @@ export const kindWords: Record<Finding["kind"], string> = {
   "effort-over": "Effort over limit",
   clearance: "Clearance",
   "tool-speed": "Tool speed over limit",
+  glitch: "Glitch",
+  gap: "Gap",
 };
