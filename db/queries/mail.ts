@@ -2,7 +2,8 @@ import "server-only";
 import { and, desc, eq, gt, inArray, isNull, lt, or, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { users } from "@/db/schema";
-import { accountTokens, mailOutbox, type AccountTokenPurpose, type MailOutboxRow } from "@/db/schema/courses";
+import { accountTokens, type AccountTokenPurpose } from "@/db/schema/account-tokens";
+import { mailOutbox, type MailOutboxRow } from "@/db/schema/mail";
 
 /** A Drizzle transaction (or the client itself): outbox rows are written inside the action's transaction. */
 export type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];

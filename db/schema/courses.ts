@@ -25,10 +25,6 @@ export const courseRole = pgEnum("course_role", ["instructor", "student"]);
 export const submissionStatus = pgEnum("submission_status", ["submitted", "returned", "approved"]);
 /** An instructor's decision on a submission. */
 export const reviewDecision = pgEnum("review_decision", ["returned", "approved"]);
-/** Outbox state of one e-mail: waiting (or retrying), handed to the SMTP server, or given up. */
-export const mailStatus = pgEnum("mail_status", ["queued", "sending", "sent", "failed"]);
-/** What an account e-mail token is for. */
-export const accountTokenPurpose = pgEnum("account_token_purpose", ["password-reset", "email-verification"]);
 
 /**
  * A course: a title and term, a join code students type or follow as a link, and optionally a
@@ -169,9 +165,18 @@ export const reviews = pgTable(
       .references(() => users.id, { onDelete: "restrict" }),
     decision: reviewDecision("decision").notNull(),
     summary: text("summary").notNull().default(""),
+    /**
+     * Why the reviewer approved although the server's check found a fault: typed in the approval
+     * dialog that lists the faults, shown to the student. Null for every other decision.
+     */
+    faultApprovalReason: text("fault_approval_reason"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [check("reviews_summary_length", sql`char_length(${t.summary}) <= 5000`)],
+  (t) => [
+    check("reviews_summary_length", sql`char_length(${t.summary}) <= 5000`),
+    check("reviews_fault_approval_reason_length", sql`${t.faultApprovalReason} is null or char_length(${t.faultApprovalReason}) between 1 and 1000`),
+    check("reviews_fault_approval_reason_approved_only", sql`${t.faultApprovalReason} is null or ${t.decision} = 'approved'`),
+  ],
 );
 
 /** A reviewer's comment, optionally pinned to a move, a joint and a time (s from the plan's start). */
@@ -200,55 +205,6 @@ export const reviewComments = pgTable(
   ],
 );
 
-/**
- * The e-mail outbox. A row is written in the same transaction as the action that causes it, so a
- * failing mail server never loses the message; the pg-boss worker (lib/server/mail/worker.ts) claims the
- * row, sends it and marks it sent, which is what makes each message go out once. `dedupeKey`
- * stops the same event from queueing two messages.
- */
-export const mailOutbox = pgTable(
-  "mail_outbox",
-  {
-    id: uuid("id").primaryKey().defaultRandom(),
-    kind: text("kind").notNull(),
-    dedupeKey: text("dedupe_key").notNull().unique(),
-    toAddress: text("to_address").notNull(),
-    subject: text("subject").notNull(),
-    text: text("text").notNull(),
-    html: text("html").notNull(),
-    status: mailStatus("status").notNull().default("queued"),
-    attempts: integer("attempts").notNull().default(0),
-    lastError: text("last_error"),
-    /** A claim older than this is abandoned (the worker died mid-send) and may be taken again. */
-    claimedUntil: timestamp("claimed_until", { withTimezone: true }),
-    enqueuedAt: timestamp("enqueued_at", { withTimezone: true }),
-    messageId: text("message_id"),
-    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
-    sentAt: timestamp("sent_at", { withTimezone: true }),
-  },
-  (t) => [
-    check("mail_outbox_attempts_nonnegative", sql`${t.attempts} >= 0`),
-    index("mail_outbox_status_time").on(t.status, t.createdAt),
-  ],
-);
-
-/** One-time tokens sent by e-mail for a password reset or an address verification; stored hashed. */
-export const accountTokens = pgTable(
-  "account_tokens",
-  {
-    id: uuid("id").primaryKey().defaultRandom(),
-    userId: uuid("user_id")
-      .notNull()
-      .references(() => users.id, { onDelete: "cascade" }),
-    purpose: accountTokenPurpose("purpose").notNull(),
-    tokenHash: text("token_hash").notNull().unique(),
-    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
-    usedAt: timestamp("used_at", { withTimezone: true }),
-    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
-  },
-  (t) => [index("account_tokens_user_purpose").on(t.userId, t.purpose)],
-);
-
 export type Course = typeof courses.$inferSelect;
 export type CourseEnrolment = typeof courseEnrolments.$inferSelect;
 export type CourseRole = (typeof courseRole.enumValues)[number];
@@ -258,5 +214,3 @@ export type SubmissionStatus = (typeof submissionStatus.enumValues)[number];
 export type Review = typeof reviews.$inferSelect;
 export type ReviewDecision = (typeof reviewDecision.enumValues)[number];
 export type ReviewComment = typeof reviewComments.$inferSelect;
-export type MailOutboxRow = typeof mailOutbox.$inferSelect;
-export type AccountTokenPurpose = (typeof accountTokenPurpose.enumValues)[number];

@@ -7,3 +7,5 @@ export * from "./recordings";
 export * from "./tokens";
 export * from "./audit";
 export * from "./courses";
+export * from "./mail";
+export * from "./account-tokens";

@@ -1,6 +1,6 @@
 /** The SMTP client (nodemailer) built from the mail settings, made once per process. */
 import nodemailer, { type Transporter } from "nodemailer";
-import type { MailOutboxRow } from "@/db/schema/courses";
+import type { MailOutboxRow } from "@/db/schema/mail";
 import { mailEnv } from "./config";
 
 let transporter: Transporter | undefined;

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { db } from "@/db";
 import { auditLog } from "@/db/schema";
-import { mailOutbox } from "@/db/schema/courses";
+import { mailOutbox } from "@/db/schema/mail";
 import { startMailWithWorker, type MailHarness, type MailWithWorker } from "./_mail";
 import { baseMovePlan, demoArmRevision, studentPlan } from "./_fixtures";
 import { call, makeUser, sessionCookieFor, type TestUser } from "../api/_helpers";

@@ -1,0 +1,3 @@
+ALTER TABLE "reviews" ADD COLUMN "fault_approval_reason" text;--> statement-breakpoint
+ALTER TABLE "reviews" ADD CONSTRAINT "reviews_fault_approval_reason_length" CHECK ("reviews"."fault_approval_reason" is null or char_length("reviews"."fault_approval_reason") between 1 and 1000);--> statement-breakpoint
+ALTER TABLE "reviews" ADD CONSTRAINT "reviews_fault_approval_reason_approved_only" CHECK ("reviews"."fault_approval_reason" is null or "reviews"."decision" = 'approved');
