@@ -138,8 +138,10 @@ function formatReport(report: Report, arm: Arm): string {
         ? "caution"
         : "pass";
     const duration = move.duration === 0 ? "instant" : `${move.duration.toFixed(3)} s`;
+    // null: a fault that no duration fixes (travel, clearance, gravity alone above an effort limit)
+    const shortest = move.minSafeDuration === null ? "none" : `${move.minSafeDuration.toFixed(3)} s`;
     lines.push(
-      `${padStart(String(move.index), 5)}  ${pad(move.shape, 10)}${padStart(duration, 10)}  ${padStart(`${move.minSafeDuration.toFixed(3)} s`, 13)}  ${result}`,
+      `${padStart(String(move.index), 5)}  ${pad(move.shape, 10)}${padStart(duration, 10)}  ${padStart(shortest, 13)}  ${result}`,
     );
   }
   lines.push("");
