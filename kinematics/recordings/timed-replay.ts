@@ -117,7 +117,11 @@ export function episodeProblems(arm: Arm, episode: Episode, options: AuditOption
     if (problems.length < maxProblems) problems.push(`episode ${id}: ${line}`);
     else extra++;
   };
-  if (n !== arm.joints.length) add(`has ${n} joint values per frame; the arm "${arm.name}" has ${arm.joints.length} joints`);
+  if (n !== arm.joints.length) {
+    // the values cannot be matched to joints, so they are not checked one by one
+    add(`has ${n} joint values per frame; the arm "${arm.name}" has ${arm.joints.length} joints`);
+    return problems;
+  }
   if (count < 2) add(`has ${count} frame${count === 1 ? "" : "s"}; a timed replay needs at least 2`);
   for (let k = 0; k < count; k++) {
     const t = timeS[k];
