@@ -1,27 +1,61 @@
 import "server-only";
-import { and, desc, eq } from "drizzle-orm";
+import { and, desc, eq, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { auditLog, projectMembers, type AuditEntry } from "@/db/schema";
+import { auditLog, projectMembers, users, type AuditEntry } from "@/db/schema";
+import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
 
 /** Appends one entry to the audit log. */
 export async function recordAudit(entry: AuditEntry): Promise<void> {
   await db.insert(auditLog).values(entry);
 }
 
-/** The newest audit entries of a project the user is a member of. */
-export async function listProjectAudit({ projectId, userId, limit = 100 }: { projectId: string; userId: string; limit?: number }) {
-  return db
+export type AuditListItem = {
+  id: number;
+  actorId: string | null;
+  actorName: string | null;
+  action: string;
+  targetType: string;
+  targetId: string;
+  createdAt: Date;
+};
+
+/**
+ * One page of a project's audit log, newest first, ties broken by id, for a member of the
+ * project (lib/server/permissions decides which role may read it); `after` is the last row of
+ * the previous page.
+ */
+export async function listProjectAuditPage({
+  projectId,
+  userId,
+  limit,
+  after,
+}: {
+  projectId: string;
+  userId: string;
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<AuditListItem>> {
+  const rows = await db
     .select({
       id: auditLog.id,
       actorId: auditLog.actorId,
+      actorName: users.name,
       action: auditLog.action,
       targetType: auditLog.targetType,
       targetId: auditLog.targetId,
       createdAt: auditLog.createdAt,
+      pageKey: sql<string>`to_char(${auditLog.createdAt} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`,
     })
     .from(auditLog)
     .innerJoin(projectMembers, and(eq(projectMembers.projectId, auditLog.projectId), eq(projectMembers.userId, userId)))
-    .where(eq(auditLog.projectId, projectId))
-    .orderBy(desc(auditLog.createdAt))
-    .limit(limit);
+    .leftJoin(users, eq(users.id, auditLog.actorId))
+    .where(
+      and(
+        eq(auditLog.projectId, projectId),
+        after ? sql`(${auditLog.createdAt}, ${auditLog.id}) < (${after.key}::timestamptz, ${after.id}::bigint)` : undefined,
+      ),
+    )
+    .orderBy(desc(auditLog.createdAt), desc(auditLog.id))
+    .limit(limit + 1);
+  return toPage(rows, limit, (r) => String(r.id), ({ pageKey: _key, ...entry }) => entry);
 }

@@ -14,6 +14,7 @@ import {
   type PlanVersion,
   type Verdict,
 } from "@/db/schema";
+import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
 
 /** Join condition: the user is a member of the plan's project. */
 const memberOfPlanProject = (userId: string) =>
@@ -36,6 +37,44 @@ export async function listPlansForProject({ projectId, userId }: { projectId: st
     .where(eq(plans.projectId, projectId))
     .orderBy(desc(plans.updatedAt));
   return rows.map((r) => ({ ...r.plan, armName: r.armName, latestVerdict: r.latestVerdict }));
+}
+
+/**
+ * One page of a project's plans, most recently changed first, ties broken by id (the order
+ * `listPlansForProject` uses, made total); `after` is the last row of the previous page.
+ */
+export async function listPlansPageForProject({
+  projectId,
+  userId,
+  limit,
+  after,
+}: {
+  projectId: string;
+  userId: string;
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<PlanListItem>> {
+  const rows = await db
+    .select({
+      plan: plans,
+      armName: arms.name,
+      latestVerdict: planVersions.verdict,
+      // Microseconds kept (a JS Date would round them), in UTC ISO form.
+      pageKey: sql<string>`to_char(${plans.updatedAt} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`,
+    })
+    .from(plans)
+    .innerJoin(projectMembers, memberOfPlanProject(userId))
+    .innerJoin(arms, eq(arms.id, plans.armId))
+    .leftJoin(planVersions, and(eq(planVersions.planId, plans.id), eq(planVersions.number, plans.latestVersion)))
+    .where(
+      and(
+        eq(plans.projectId, projectId),
+        after ? sql`(${plans.updatedAt}, ${plans.id}) < (${after.key}::timestamptz, ${after.id}::uuid)` : undefined,
+      ),
+    )
+    .orderBy(desc(plans.updatedAt), desc(plans.id))
+    .limit(limit + 1);
+  return toPage(rows, limit, (r) => r.plan.id, (r) => ({ ...r.plan, armName: r.armName, latestVerdict: r.latestVerdict }));
 }
 
 export type PlanForUser = Plan & { role: MemberRole; projectArchived: boolean; armName: string };

@@ -1,7 +1,8 @@
 import "server-only";
-import { and, asc, desc, eq, exists as eqExists, isNull } from "drizzle-orm";
+import { and, asc, desc, eq, exists as eqExists, isNull, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { projectMembers, projects, users, type MemberRole, type Project, type ProjectKind } from "@/db/schema";
+import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
 
 /** A project as its member sees it: the project and the member's own role. */
 export type ProjectForUser = Project & { role: MemberRole };
@@ -154,4 +155,77 @@ export async function removeMember({ projectId, ownerId, userId }: { projectId: 
 /** Number of owners of a project (the last owner cannot leave or be demoted). */
 export async function countOwners({ projectId }: { projectId: string }): Promise<number> {
   return db.$count(projectMembers, and(eq(projectMembers.projectId, projectId), eq(projectMembers.role, "owner")));
+}
+
+/** A timestamp as PostgreSQL holds it (microseconds), in UTC ISO form: a page key that a JS Date would round. */
+const utcKey = (column: typeof projects.updatedAt) => sql<string>`to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`;
+
+/**
+ * One page of the user's projects, newest activity first, ties broken by id (the order
+ * `listProjectsForUser` uses, made total); `after` is the last row of the previous page.
+ */
+export async function listProjectsPageForUser({
+  userId,
+  includeArchived = false,
+  limit,
+  after,
+}: {
+  userId: string;
+  includeArchived?: boolean;
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<ProjectForUser>> {
+  const rows = await db
+    .select({ ...projectWithRole, pageKey: utcKey(projects.updatedAt) })
+    .from(projects)
+    .innerJoin(projectMembers, and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, userId)))
+    .where(
+      and(
+        includeArchived ? undefined : isNull(projects.archivedAt),
+        after ? sql`(${projects.updatedAt}, ${projects.id}) < (${after.key}::timestamptz, ${after.id}::uuid)` : undefined,
+      ),
+    )
+    .orderBy(desc(projects.updatedAt), desc(projects.id))
+    .limit(limit + 1);
+  return toPage(rows, limit, (r) => r.id, ({ pageKey: _key, ...project }) => project);
+}
+
+/** One page of a project's members by e-mail (then id), listed only to a member of the project. */
+export async function listMembersPage({
+  projectId,
+  userId,
+  limit,
+  after,
+}: {
+  projectId: string;
+  userId: string;
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<MemberListItem>> {
+  const rows = await db
+    .select({
+      userId: projectMembers.userId,
+      email: users.email,
+      name: users.name,
+      role: projectMembers.role,
+      createdAt: projectMembers.createdAt,
+      pageKey: users.email,
+    })
+    .from(projectMembers)
+    .innerJoin(users, eq(users.id, projectMembers.userId))
+    .where(
+      and(
+        eq(projectMembers.projectId, projectId),
+        eqExists(
+          db
+            .select({ one: projectMembers.userId })
+            .from(projectMembers)
+            .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId))),
+        ),
+        after ? sql`(${users.email}, ${projectMembers.userId}) > (${after.key}, ${after.id}::uuid)` : undefined,
+      ),
+    )
+    .orderBy(asc(users.email), asc(projectMembers.userId))
+    .limit(limit + 1);
+  return toPage(rows, limit, (r) => r.userId, ({ pageKey: _key, ...member }) => member);
 }

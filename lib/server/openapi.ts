@@ -7,6 +7,7 @@ import * as course from "@/lib/shared/schemas/courses";
 import * as review from "@/lib/shared/schemas/reviews";
 import { planSchema } from "@/kinematics";
 import * as s from "../shared/schemas/api";
+import { auditPageQuery, memberPageQuery, projectsPageQuery, timePageQuery } from "./paging";
 
 type Json = Record<string, unknown>;
 
@@ -40,6 +41,9 @@ type Op = {
 };
 
 const uuid = { type: "string", format: "uuid" };
+
+/** What a paged list answers (lib/server/paging.ts). */
+const PAGE_DESCRIPTION = "One page of the list and `nextCursor`: pass it as `?cursor=` for the next page; null on the last page.";
 const p = (name: string): Param => ({ name, in: "path", required: true, schema: uuid });
 
 /** Every operation; a new route adds a line here (and a row to the authorisation-matrix test). */
@@ -54,14 +58,14 @@ const operations: Op[] = [
   { method: "delete", path: "/tokens/{tokenId}", summary: "Revoke an API token, effective at once", tag: "Tokens", params: [p("tokenId")], ok: 200, errors: [401, 404] },
   { method: "get", path: "/users", summary: "List accounts (admins)", tag: "Accounts", ok: 200, errors: [401, 403] },
   { method: "patch", path: "/users/{userId}", summary: "Change a site role or disable an account (admins)", tag: "Accounts", params: [p("userId")], body: ref("AdminUpdateUser"), ok: 200, errors: [400, 401, 403, 404, 422] },
-  { method: "get", path: "/projects", summary: "List your projects", tag: "Projects", query: s.listProjectsQuery, ok: 200, errors: [400, 401] },
+  { method: "get", path: "/projects", summary: "List your projects, newest activity first, a page at a time", tag: "Projects", query: projectsPageQuery, ok: 200, okDescription: PAGE_DESCRIPTION, errors: [400, 401] },
   { method: "post", path: "/projects", summary: "Create a project (course projects: instructors)", tag: "Projects", body: ref("CreateProject"), ok: 201, errors: [400, 401, 403] },
   { method: "get", path: "/projects/{projectId}", summary: "Get a project", tag: "Projects", params: [p("projectId")], ok: 200, errors: [401, 404] },
   { method: "patch", path: "/projects/{projectId}", summary: "Rename or archive a project (owners)", tag: "Projects", params: [p("projectId")], body: ref("UpdateProject"), ok: 200, errors: [400, 401, 403, 404] },
-  { method: "get", path: "/projects/{projectId}/members", summary: "List members", tag: "Projects", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/projects/{projectId}/members", summary: "List members by e-mail, a page at a time", tag: "Projects", params: [p("projectId")], query: memberPageQuery, ok: 200, okDescription: PAGE_DESCRIPTION, errors: [400, 401, 404] },
   { method: "post", path: "/projects/{projectId}/members", summary: "Add a member or change their role (owners)", tag: "Projects", params: [p("projectId")], body: ref("AddMember"), ok: 201, errors: [400, 401, 403, 404, 422] },
   { method: "delete", path: "/projects/{projectId}/members/{userId}", summary: "Remove a member (owners)", tag: "Projects", params: [p("projectId"), p("userId")], ok: 200, errors: [401, 403, 404, 422] },
-  { method: "get", path: "/projects/{projectId}/audit", summary: "Who did what in a project, newest first (owners)", tag: "Projects", params: [p("projectId")], ok: 200, errors: [401, 403, 404] },
+  { method: "get", path: "/projects/{projectId}/audit", summary: "Who did what in a project, newest first, a page at a time (owners)", tag: "Projects", params: [p("projectId")], query: auditPageQuery, ok: 200, okDescription: PAGE_DESCRIPTION, errors: [400, 401, 403, 404] },
   { method: "get", path: "/arms", summary: "Built-in arms and your projects' arms", tag: "Arms", ok: 200, errors: [401] },
   { method: "get", path: "/projects/{projectId}/arms", summary: "Arms usable in a project", tag: "Arms", params: [p("projectId")], ok: 200, errors: [401, 404] },
   { method: "post", path: "/projects/{projectId}/arms", summary: "Create a custom arm with its first revision", tag: "Arms", params: [p("projectId")], body: ref("CreateArm"), ok: 201, errors: [400, 401, 403, 404, 409] },
@@ -79,7 +83,7 @@ const operations: Op[] = [
   },
   { method: "get", path: "/arms/{armId}", summary: "An arm and its revisions", tag: "Arms", params: [p("armId")], ok: 200, errors: [401, 404] },
   { method: "post", path: "/arms/{armId}/revisions", summary: "Add a revision to a custom arm (revisions are immutable)", tag: "Arms", params: [p("armId")], body: ref("CreateArmRevision"), ok: 201, errors: [400, 401, 403, 404] },
-  { method: "get", path: "/projects/{projectId}/plans", summary: "List a project's plans", tag: "Plans", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/projects/{projectId}/plans", summary: "List a project's plans, most recently changed first, a page at a time", tag: "Plans", params: [p("projectId")], query: timePageQuery, ok: 200, okDescription: PAGE_DESCRIPTION, errors: [400, 401, 404] },
   { method: "post", path: "/projects/{projectId}/plans", summary: "Create a plan", tag: "Plans", params: [p("projectId")], body: ref("CreatePlan"), ok: 201, errors: [400, 401, 403, 404, 422] },
   { method: "get", path: "/plans/{planId}", summary: "Get a plan", tag: "Plans", params: [p("planId")], ok: 200, errors: [401, 404] },
   { method: "delete", path: "/plans/{planId}", summary: "Delete a plan and its versions", tag: "Plans", params: [p("planId")], ok: 200, errors: [401, 403, 404] },

@@ -1,16 +1,20 @@
 import { recordAudit } from "@/db/queries/audit";
-import { createProject, listProjectsForUser } from "@/db/queries/projects";
+import { createProject, listProjectsPageForUser } from "@/db/queries/projects";
 import { json, readJson, readQuery, route } from "@/lib/server/route";
-import { createProjectSchema, listProjectsQuery } from "@/lib/shared/schemas/api";
+import { createProjectSchema } from "@/lib/shared/schemas/api";
+import { projectsPageQuery } from "@/lib/server/paging";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeSite } from "@/lib/server/permissions";
 
-/** GET /api/v1/projects — the caller's projects (`?archived=include` adds archived ones). */
+/**
+ * GET /api/v1/projects — one page of the caller's projects, newest activity first
+ * (`?archived=include` adds archived ones; `?limit=&cursor=` pages, `nextCursor` null on the last page).
+ */
 export const GET = route(async (request) => {
-  const query = readQuery(request, listProjectsQuery);
+  const query = readQuery(request, projectsPageQuery);
   const actor = await requireActor(request);
-  const projects = await listProjectsForUser({ userId: actor.userId, includeArchived: query.archived === "include" });
-  return json({ projects });
+  const page = await listProjectsPageForUser({ userId: actor.userId, includeArchived: query.archived === "include", limit: query.limit, after: query.cursor });
+  return json({ projects: page.items, nextCursor: page.nextCursor });
 });
 
 /** POST /api/v1/projects — a new project with the caller as owner; course projects need an instructor. */

@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
-import { countOwners, listMembers, upsertMember } from "@/db/queries/projects";
-import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
+import { countOwners, listMembers, listMembersPage, upsertMember } from "@/db/queries/projects";
+import { memberPageQuery } from "@/lib/server/paging";
+import { json, readJson, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
 import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { addMemberSchema } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";
@@ -10,13 +11,15 @@ import { assertKeepsAnOwner, authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam });
 
-/** GET /api/v1/projects/:projectId/members */
+/** GET /api/v1/projects/:projectId/members — one page of the project's members, by e-mail. */
 export const GET = route(async (request, context) => {
   const { projectId } = await readParams(context, params);
+  const query = readQuery(request, memberPageQuery);
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "member:list");
-  return json({ members: await listMembers({ projectId, userId: actor.userId }) });
+  const page = await listMembersPage({ projectId, userId: actor.userId, limit: query.limit, after: query.cursor });
+  return json({ members: page.items, nextCursor: page.nextCursor });
 });
 
 /** POST /api/v1/projects/:projectId/members — add a member by e-mail, or change their role (owners). */

@@ -1,8 +1,9 @@
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
-import { createPlan, listPlansForProject } from "@/db/queries/plans";
+import { createPlan, listPlansPageForProject } from "@/db/queries/plans";
 import { getArmForUser } from "@/db/queries/arms";
-import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
+import { timePageQuery } from "@/lib/server/paging";
+import { json, readJson, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
 import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { createPlanSchema } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";
@@ -11,13 +12,15 @@ import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ projectId: uuidParam });
 
-/** GET /api/v1/projects/:projectId/plans — the project's plans with their latest verdict. */
+/** GET /api/v1/projects/:projectId/plans — one page of the project's plans with their latest verdict, most recently changed first. */
 export const GET = route(async (request, context) => {
   const { projectId } = await readParams(context, params);
+  const query = readQuery(request, timePageQuery);
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "plan:read");
-  return json({ plans: await listPlansForProject({ projectId, userId: actor.userId }) });
+  const page = await listPlansPageForProject({ projectId, userId: actor.userId, limit: query.limit, after: query.cursor });
+  return json({ plans: page.items, nextCursor: page.nextCursor });
 });
 
 /** POST /api/v1/projects/:projectId/plans — a new, empty plan for a built-in arm or one of this project's arms. */
