@@ -8,6 +8,7 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import { check, describeRecordingProblem, formatProblem, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type PathSegment, type Report, type Verdict, alignRecording, repairStream, streamCheck, validateRecording, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands";
+import { auditUsage, isAuditCommand, runAuditCommand } from "./audit-command";
 import { exportFormatOf, hasExportBlock, recordedVerdict, verifyCsvChecksum, verifyJsonChecksum } from "./export-checksum";
 
 /** Where the command writes; replaced in tests only by the real process streams. */
@@ -286,9 +287,10 @@ function runScan(args: Args, io: Io): number {
 export async function main(argv: string[], io: Io = processIo): Promise<number> {
   try {
     if (isArmCommand(argv[0])) return runArmCommand(argv, io); // arm import, fk, ik: own options
+    if (isAuditCommand(argv[0])) return runAuditCommand(argv.slice(1), io); // dataset audit: own options
     const args = parseArgs(argv);
     if (args.command === "help") {
-      io.out(usage + armUsage);
+      io.out(usage + armUsage + auditUsage);
       return 0;
     }
     if (args.command === "check") return runCheck(args, io);

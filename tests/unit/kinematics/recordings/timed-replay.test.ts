@@ -4,7 +4,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { parseArm, type Arm } from "@/kinematics";
-import type { Recording } from "@/kinematics/recordings/stream";
+import type { Recording } from "@/kinematics/recordings/recording";
 import {
   auditEpisode,
   auditEpisodes,
