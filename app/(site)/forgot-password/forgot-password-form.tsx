@@ -1,35 +1,30 @@
 "use client";
 
+import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
+import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
+import { applyApiIssues, apiIssues, fieldMessage, formFailure } from "@/components/ui/form";
 import { ErrorNote } from "@/components/ui/panel";
-import { fieldErrors, postAccount } from "@/lib/client/auth";
+import { request } from "@/lib/client/api-client";
 import { passwordResetRequestSchema } from "@/lib/shared/schemas/auth";
 
 export function ForgotPasswordForm({ validMinutes }: { validMinutes: number }) {
-  const [errors, setErrors] = useState<Record<string, string>>({});
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const [pending, setPending] = useState(false);
+  const [failure, setFailure] = useState<string | undefined>();
+  const form = useForm({ resolver: zodResolver(passwordResetRequestSchema), defaultValues: { email: "" } });
+  const { errors, isSubmitting } = form.formState;
 
-  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    const parsed = passwordResetRequestSchema.safeParse({ email: form.get("email") });
-    if (!parsed.success) {
-      setErrors(fieldErrors(parsed.error));
-      return;
+  const onSubmit = form.handleSubmit(async (body) => {
+    setFailure(undefined);
+    try {
+      await request("/api/v1/accounts/password-reset", { method: "POST", body: JSON.stringify(body) });
+      setSentTo(body.email);
+    } catch (error) {
+      setFailure(formFailure(error, applyApiIssues(apiIssues(error), form.setError, ["email"])));
     }
-    setPending(true);
-    setErrors({});
-    const result = await postAccount("/api/v1/accounts/password-reset", parsed.data);
-    setPending(false);
-    if (!result.ok) {
-      setErrors({ ...result.fields, form: result.message });
-      return;
-    }
-    setSentTo(parsed.data.email);
-  }
+  });
 
   if (sentTo) {
     return (
@@ -49,10 +44,10 @@ export function ForgotPasswordForm({ validMinutes }: { validMinutes: number }) {
 
   return (
     <form onSubmit={onSubmit} className="mt-8 space-y-4" noValidate>
-      <TextField label="E-mail" name="email" type="email" autoComplete="email" required error={errors.email ? `The address ${errors.email}.` : undefined} />
-      {errors.form ? <ErrorNote title="The link could not be sent">{errors.form}</ErrorNote> : null}
-      <Button type="submit" variant="primary" disabled={pending} className="w-full">
-        {pending ? "Sending…" : "Send the reset link"}
+      <TextField label="E-mail" type="email" autoComplete="email" required error={fieldMessage("E-mail", errors.email)} {...form.register("email")} />
+      {failure ? <ErrorNote title="The link could not be sent">{failure}</ErrorNote> : null}
+      <Button type="submit" variant="primary" disabled={isSubmitting} className="w-full">
+        {isSubmitting ? "Sending…" : "Send the reset link"}
       </Button>
     </form>
   );

@@ -1,47 +1,50 @@
 "use client";
 
+import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
 import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
+import { applyApiIssues, apiIssues, fieldMessage, formFailure } from "@/components/ui/form";
 import { ErrorNote } from "@/components/ui/panel";
-import { fieldErrors, postAccount } from "@/lib/client/auth";
+import { ApiError, request } from "@/lib/client/api-client";
 import { passwordResetConfirmSchema } from "@/lib/shared/schemas/auth";
 
 const linkClass = "font-medium text-brand-600 underline underline-offset-2 hover:text-brand-700";
 
+/** The API's body plus the repeated password, which only the form checks. */
+const resetFormSchema = passwordResetConfirmSchema
+  .extend({ repeat: z.string() })
+  .refine((v) => v.repeat === v.password, { error: "does not match the new password", path: ["repeat"] });
+
 export function ResetPasswordForm({ token }: { token: string }) {
-  const [errors, setErrors] = useState<Record<string, string>>({});
   const [linkDead, setLinkDead] = useState(false);
   const [done, setDone] = useState(false);
-  const [pending, setPending] = useState(false);
+  const [failure, setFailure] = useState<string | undefined>();
+  const form = useForm({ resolver: zodResolver(resetFormSchema), defaultValues: { token, password: "", repeat: "" } });
+  const { errors, isSubmitting } = form.formState;
 
-  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    const repeat = String(form.get("repeat") ?? "");
-    const parsed = passwordResetConfirmSchema.safeParse({ token, password: form.get("password") });
-    const next = parsed.success ? {} : fieldErrors(parsed.error);
-    if (parsed.success && repeat !== parsed.data.password) next.repeat = "does not match the new password";
-    if (!parsed.success || next.repeat) {
-      setErrors(next);
-      if (next.token) setLinkDead(true);
-      return;
-    }
-    setPending(true);
-    setErrors({});
-    const result = await postAccount("/api/v1/accounts/password-reset/confirm", parsed.data);
-    setPending(false);
-    if (result.ok) {
-      setDone(true);
-      return;
-    }
-    if (result.code === "bad_request:token" || result.fields.token) {
-      setLinkDead(true);
-      return;
-    }
-    setErrors({ ...result.fields, form: result.message });
-  }
+  const onSubmit = form.handleSubmit(
+    async ({ token: t, password }) => {
+      setFailure(undefined);
+      try {
+        await request("/api/v1/accounts/password-reset/confirm", { method: "POST", body: JSON.stringify({ token: t, password }) });
+        setDone(true);
+      } catch (error) {
+        const issues = apiIssues(error);
+        if ((error instanceof ApiError && error.code === "bad_request:token") || issues.some((i) => i.path === "token")) {
+          setLinkDead(true);
+          return;
+        }
+        setFailure(formFailure(error, applyApiIssues(issues, form.setError, ["password", "repeat"])));
+      }
+    },
+    (invalid) => {
+      if (invalid.token) setLinkDead(true);
+    },
+  );
 
   if (done) {
     return (
@@ -73,27 +76,27 @@ export function ResetPasswordForm({ token }: { token: string }) {
 
   return (
     <form onSubmit={onSubmit} className="mt-8 space-y-4" noValidate>
+      <input type="hidden" {...form.register("token")} />
       <TextField
         label="New password"
-        name="password"
         type="password"
         autoComplete="new-password"
         required
-        minLength={10}
         hint="At least 10 characters."
-        error={errors.password ? `The password ${errors.password}.` : undefined}
+        error={fieldMessage("The password", errors.password)}
+        {...form.register("password")}
       />
       <TextField
         label="Repeat the new password"
-        name="repeat"
         type="password"
         autoComplete="new-password"
         required
-        error={errors.repeat ? `The repeated password ${errors.repeat}.` : undefined}
+        error={fieldMessage("The repeated password", errors.repeat)}
+        {...form.register("repeat")}
       />
-      {errors.form ? <ErrorNote title="The password was not changed">{errors.form}</ErrorNote> : null}
-      <Button type="submit" variant="primary" disabled={pending} className="w-full">
-        {pending ? "Saving…" : "Set the new password"}
+      {failure ? <ErrorNote title="The password was not changed">{failure}</ErrorNote> : null}
+      <Button type="submit" variant="primary" disabled={isSubmitting} className="w-full">
+        {isSubmitting ? "Saving…" : "Set the new password"}
       </Button>
       <p className="text-sm text-ink-soft">
         Changed your mind? <Link href="/sign-in" className={linkClass}>Back to sign-in</Link>
