@@ -5,11 +5,12 @@ import { cn } from "@/components/ui/cn";
 import { CopyIcon, DownIcon, PlusIcon, TrashIcon, UpIcon } from "@/components/ui/icons";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { shapeNames, type Joint, type Move, type ShapeName, verdictOf, type MoveReport } from "@/kinematics";
-import { ceilToMs, toDisplay, unitLabel, type AngleUnit } from "@/lib/shared/units";
+import { shapeNames, type Joint, type Move, type ShapeName, verdictOf, type MoveReport, type Verdict } from "@/kinematics";
+import { toDisplay, unitLabel, type AngleUnit } from "@/lib/shared/units";
 import { moveFigures } from "./move-figures";
 import { NumberInput } from "./number-input";
 import type { PlanAction, PoseTarget } from "./plan-state";
+import type { QuickFix } from "./quick-fixes";
 
 export interface MoveListProps {
   joints: readonly Joint[];
@@ -22,8 +23,13 @@ export interface MoveListProps {
   selected: PoseTarget;
   onSelect: (target: PoseTarget) => void;
   dispatch: (action: PlanAction) => void;
-  /** Verdict of the start pose (its range findings). */
-  startVerdict: "pass" | "caution" | "fault";
+  /** Verdict of the start pose (its range and effort findings); `null` shows no chip. */
+  startVerdict: Verdict | null;
+  /**
+   * Per move, the verified "shortest passing duration" fix (quick-fixes.ts), index-aligned with `moves`;
+   * `null` or absent while the full check runs: no shortest-duration button is offered unverified.
+   */
+  fixes?: readonly (QuickFix | null)[] | null;
 }
 
 /** A move's goal in a few characters: the joints that change, in display units. */
@@ -42,7 +48,7 @@ function goalSummary(joints: readonly Joint[], goal: readonly number[], before: 
  * verdict and actions. Rows are reordered with the up/down buttons or Alt+↑ / Alt+↓ on a focused row;
  * the change is announced to screen readers.
  */
-export function MoveList({ joints, startPose, moves, reports, unit, selected, onSelect, dispatch, startVerdict }: MoveListProps) {
+export function MoveList({ joints, startPose, moves, reports, unit, selected, onSelect, dispatch, startVerdict, fixes }: MoveListProps) {
   const [announcement, setAnnouncement] = useState("");
   const rows = useRef<(HTMLTableRowElement | null)[]>([]);
 
@@ -96,16 +102,17 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
                 Start pose
               </button>
             </Td>
-            <Td><VerdictChip verdict={startVerdict} size="sm" /></Td>
+            <Td>{startVerdict ? <VerdictChip verdict={startVerdict} size="sm" /> : null}</Td>
           </tr>
           {moves.map((move, i) => {
             const report = reports[i];
             const verdict = report ? verdictOf(report.findings) : "pass";
             const before = i === 0 ? null : moves[i - 1].goal;
-            const safe = report ? ceilToMs(report.minSafeDuration) : undefined;
+            const fix = fixes?.[i] ?? null;
+            const safe = fix && fix.action.type === "set-duration" ? fix.action.duration : null;
+            const noDuration = report !== undefined && report.minSafeDuration === null && verdict === "fault";
             const isSelected = selected === i;
             const summary = goalSummary(joints, move.goal, before ?? startPose, unit);
-            const hasSpeedFault = report?.findings.some((f) => f.severity === "fault" && (f.kind === "speed-over" || f.kind === "accel-over" || f.kind === "jump"));
             return (
               <FragmentRows key={i}>
                 <tr
@@ -151,16 +158,17 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
                   <tr className="bg-brand-50">
                     <td colSpan={4} className="border-b border-line px-2 pb-2">
                       <div className="flex flex-wrap items-center gap-1">
-                        {safe !== undefined && safe > 0 ? (
+                        {fix && safe !== null ? (
                           <Button
                             size="sm"
-                            variant={hasSpeedFault ? "primary" : "secondary"}
+                            variant={verdict === "fault" ? "primary" : "secondary"}
                             aria-label={`Set move ${i} to its shortest safe duration, ${safe.toFixed(3)} s`}
-                            disabled={Math.abs(move.duration - safe) < 5e-4}
-                            onClick={() => dispatch({ type: "set-duration", index: i, duration: safe })}
+                            onClick={() => dispatch(fix.action)}
                           >
                             Shortest safe: <span className="tabular font-mono">{safe.toFixed(3)} s</span>
                           </Button>
+                        ) : noDuration ? (
+                          <span className="text-[11px] text-fault" data-testid={`no-duration-${i}`}>No duration of this move passes every check.</span>
                         ) : null}
                         <span className="flex-1" />
                         <Button size="sm" variant="ghost" aria-label={`Move ${i} up`} disabled={i === 0} onClick={() => reorder(i, -1)}>

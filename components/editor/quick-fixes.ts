@@ -134,7 +134,7 @@ export function quickFixes(plan: BenchPlan, report: Report, checkPlan: PlanCheck
   let planFix: QuickFix | null = null;
   if (report.verdict === "fault" && plan.moves.some((m) => m.duration > 0) && budget > 0) {
     const scaled = scaleToPass(plan);
-    if (scaled.factor > 1 + 1e-9) {
+    if (scaled.factor !== null && scaled.factor > 1 + 1e-9) {
       const action: PlanAction = { type: "set-durations", durations: scaled.plan.moves.map((m) => m.duration) };
       const tried = tryCopy(action);
       if (tried && tried.after.verdict !== "fault") planFix = asFix("plan", null, action, tried.after, scaled.factor);

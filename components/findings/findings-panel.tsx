@@ -5,17 +5,30 @@ import { verdictLook, VerdictChip } from "@/components/ui/verdict-chip";
 import type { Joint, Finding, Verdict } from "@/kinematics";
 import { kindWords } from "./finding-time";
 
-/** A finding with what the panel needs to place it in time and offer a fix. */
+/** A one-click fix the bench checked before offering it. */
+export interface PanelFix {
+  label: string;
+  /** `move`: this move only; `plan`: the whole plan by one factor; `pose`: one joint value. */
+  scope: "move" | "plan" | "pose";
+  apply: () => void;
+}
+
+/** A finding with what the panel needs to place it in time and offer its fixes. */
 export interface PanelFinding {
   finding: Finding;
   /** Seconds on the plan's timeline where the value occurs. */
   timeS: number;
-  /** A one-click fix, when there is one (e.g. "Set duration to 0.842 s"). */
-  fix?: { label: string; apply: () => void };
+  /** Verified one-click fixes, in the order to offer them (this move only, then the whole plan). */
+  fixes?: readonly PanelFix[];
+  /** What would fix it, in words, when no fix says it all (e.g. "No duration fixes this: …"). */
+  remedy?: string | null;
 }
 
 export interface FindingsPanelProps {
-  verdict: Verdict;
+  /** The verdict to show beside the heading; `null` shows none (no moves yet, or not fully checked). */
+  verdict: Verdict | null;
+  /** Replaces the count line under the heading (e.g. "No moves yet"). */
+  summary?: string;
   /** Findings, already in the order to show them (worst first). */
   items: readonly PanelFinding[];
   joints: readonly Joint[];
@@ -28,22 +41,23 @@ export interface FindingsPanelProps {
  * The findings, worst first, each in plain language: what, which joint, which move, when, by how much,
  * and the fix. Clicking a finding moves the stage and the plots to the moment it happens.
  */
-export function FindingsPanel({ verdict, items, joints, onJump, className }: FindingsPanelProps) {
+export function FindingsPanel({ verdict, summary, items, joints, onJump, className }: FindingsPanelProps) {
   const faults = items.filter((i) => i.finding.severity === "fault").length;
   const cautions = items.length - faults;
   return (
     <section aria-labelledby="findings-heading" className={cn("flex min-h-0 flex-col", className)}>
       <div className="flex items-center justify-between gap-2 px-3 pt-3 pb-2">
         <h2 id="findings-heading" className="text-[11px] font-semibold tracking-widest text-ink-faint uppercase">Findings</h2>
-        <VerdictChip verdict={verdict} />
+        {verdict ? <VerdictChip verdict={verdict} /> : null}
       </div>
-      <p className="px-3 pb-2 text-xs text-ink-soft" aria-live="polite">
-        {items.length === 0
-          ? "No findings: every joint stays within its travel, speed and acceleration limits."
-          : `${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"}.`}
+      <p className="px-3 pb-2 text-xs text-ink-soft" aria-live="polite" data-testid="findings-summary">
+        {summary ??
+          (items.length === 0
+            ? "No findings: every check passes."
+            : `${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"}.`)}
       </p>
       <ol className="flex min-h-0 flex-1 flex-col gap-2 overflow-y-auto px-3 pb-3">
-        {items.map(({ finding, timeS, fix }, k) => {
+        {items.map(({ finding, timeS, fixes, remedy }, k) => {
           const look = verdictLook[finding.severity];
           const joint = finding.joint === null ? undefined : joints[finding.joint];
           const ratio = finding.kind !== "range" && finding.limit > 0 ? finding.value / finding.limit : null;
@@ -75,9 +89,16 @@ export function FindingsPanel({ verdict, items, joints, onJump, className }: Fin
                 </dl>
                 <p className="mt-1 text-xs leading-snug text-ink">{finding.message}</p>
               </button>
-              {fix ? (
-                <div className="border-t border-line/70 px-2.5 py-1.5">
-                  <Button size="sm" variant="secondary" onClick={fix.apply}>{fix.label}</Button>
+              {remedy || (fixes && fixes.length > 0) ? (
+                <div className="flex flex-col gap-1.5 border-t border-line/70 px-2.5 py-1.5">
+                  {remedy ? <p className="text-xs leading-snug text-ink-soft" data-testid="finding-remedy">{remedy}</p> : null}
+                  {fixes && fixes.length > 0 ? (
+                    <div className="flex flex-wrap gap-1.5">
+                      {fixes.map((fix) => (
+                        <Button key={fix.label} size="sm" variant={fix.scope === "plan" ? "ghost" : "secondary"} onClick={fix.apply}>{fix.label}</Button>
+                      ))}
+                    </div>
+                  ) : null}
                 </div>
               ) : null}
             </li>

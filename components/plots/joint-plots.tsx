@@ -30,7 +30,19 @@ export interface JointPlotsProps {
   quantities?: readonly Quantity[];
   /** Buckets for the min–max downsampling (points ≈ 2 × buckets × selected joints at most). */
   buckets?: number;
+  /** Moves in the plan, instant ones included: with moves but no time to plot, the plots say why. */
+  moveCount?: number;
   className?: string;
+}
+
+/** What the plots say when there is no time span to draw. */
+export function noMotionText(moveCount: number | undefined): string {
+  if (moveCount === undefined || moveCount === 0) return "No moves yet: add a move with a duration to see positions, speeds and accelerations over time.";
+  return (
+    `${moveCount === 1 ? "The plan's one move is an instant move" : `All ${moveCount} moves are instant moves`}: the controller is asked to be at each goal ` +
+    "at its next cycle, so there is no motion over time to plot. An instant move faults when its step exceeds what a joint travels in one control period; " +
+    "give it a duration to see its positions, speeds and accelerations."
+  );
 }
 
 const Y_AXIS_WIDTH = 52;
@@ -107,7 +119,7 @@ export function JointPlots(props: JointPlotsProps) {
         </span>
       </div>
       {totalS <= 0 ? (
-        <p className="px-2 py-6 text-center text-xs text-ink-soft">No motion yet: add a move with a duration to see positions, speeds and accelerations over time.</p>
+        <p className="px-2 py-6 text-center text-xs text-ink-soft" data-testid="plots-empty">{noMotionText(props.moveCount)}</p>
       ) : selectedJoints.length === 0 ? (
         <p className="px-2 py-6 text-center text-xs text-ink-soft">Pick a joint above to plot it.</p>
       ) : (

@@ -38,22 +38,27 @@ export interface SweepChartProps {
   delta: ArrayLike<number>;
   joints: readonly Joint[];
   cautionRatio: number;
-  minSafeS: number;
+  /** The report's shortest passing duration (every timing check); `null` when no duration passes. */
+  minSafeS: number | null;
   currentS: number;
 }
 
 /** The sweep as a chart: ratio against duration, the limit and caution lines, the shortest safe and current durations marked. */
 export function SweepChart({ shape, delta, joints, cautionRatio, minSafeS, currentS }: SweepChartProps) {
   const data = useMemo(() => {
-    const hi = Math.max(minSafeS * 3, currentS * 1.2, 0.2);
-    const lo = Math.max(minSafeS * 0.5, 0.01);
+    const safe = minSafeS ?? currentS;
+    const hi = Math.max(safe * 3, currentS * 1.2, 0.2);
+    const lo = Math.max(safe * 0.5, 0.01);
     return durationSweep(shape, delta, joints, lo, hi).map((p) => ({ d: p.durationS, r: Math.min(p.ratio, 2.5) }));
   }, [shape, delta, joints, minSafeS, currentS]);
+  if (minSafeS === null) {
+    return <p className="text-xs text-fault" data-testid="sweep-no-duration">No duration of this move passes every check: the findings say what would fix it.</p>;
+  }
   if (!(minSafeS > 0)) return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
   return (
     <figure aria-label={`Duration sweep: worst joint's peak-to-limit ratio against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}>
       <figcaption className="mb-1 flex justify-between text-[11px] text-ink-soft">
-        <span>Duration sweep (worst joint, peak ÷ limit)</span>
+        <span>Duration sweep (speed and acceleration, worst joint, peak ÷ limit)</span>
         <span className="tabular font-mono">safe ≥ {minSafeS.toFixed(3)} s</span>
       </figcaption>
       <div className="h-32 w-full">

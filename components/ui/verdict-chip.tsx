@@ -1,3 +1,4 @@
+import type { ReactNode } from "react";
 import { cn } from "./cn";
 import { CautionIcon, FaultIcon, PassIcon } from "./icons";
 
@@ -38,6 +39,15 @@ export function VerdictChip({ verdict, size = "md", detail, className }: Verdict
       <span className="sr-only">Verdict: </span>
       {look.word}
       {detail ? <span className="tabular font-normal">· {detail}</span> : null}
+    </span>
+  );
+}
+
+/** A chip for "no verdict yet" (a check still running, or one that could not run): never green, never a verdict word. */
+export function PendingChip({ children, className }: { children: ReactNode; className?: string }) {
+  return (
+    <span data-verdict="none" className={cn("inline-flex items-center gap-1 rounded-full border border-line bg-paper px-2 py-0.5 text-xs font-medium whitespace-nowrap text-ink-soft", className)}>
+      {children}
     </span>
   );
 }

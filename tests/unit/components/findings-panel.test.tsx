@@ -71,13 +71,34 @@ describe("findings panel", () => {
     expect(jumps[0][0]).toBeCloseTo(1.02, 9); // the instant move happens at the end of move 1
   });
 
-  it("offers a fix when one is given and applies it on click", () => {
+  it("offers each given fix and applies the one clicked, with the advice in words beside them", () => {
     const plan = faultyPlan();
-    let applied = 0;
-    const list = items(plan).map((i, k) => (k === 0 ? { ...i, fix: { label: "Set move 2 to 0.100 s", apply: () => applied++ } } : i));
+    const applied: string[] = [];
+    const list = items(plan).map((i, k) =>
+      k === 0
+        ? {
+            ...i,
+            fixes: [
+              { label: "This move only", scope: "move" as const, apply: () => applied.push("move") },
+              { label: "Whole plan, one factor", scope: "plan" as const, apply: () => applied.push("plan") },
+            ],
+            remedy: "Give it a duration or take a smaller step.",
+          }
+        : i,
+    );
     render(<FindingsPanel verdict="fault" items={list} joints={plan.arm.joints} onJump={() => {}} />);
-    fireEvent.click(screen.getByRole("button", { name: "Set move 2 to 0.100 s" }));
-    expect(applied).toBe(1);
+    fireEvent.click(screen.getByRole("button", { name: "Whole plan, one factor" }));
+    fireEvent.click(screen.getByRole("button", { name: "This move only" }));
+    expect(applied).toEqual(["plan", "move"]);
+    expect(screen.getByText("Give it a duration or take a smaller step.")).toBeTruthy();
+  });
+
+  it("shows no verdict chip and the given summary when told there is no verdict (no moves yet)", () => {
+    const plan = demoPlan([]);
+    const { container } = render(<FindingsPanel verdict={null} summary="No moves yet." items={[]} joints={plan.arm.joints} onJump={() => {}} />);
+    expect(container.querySelector("[data-verdict]")).toBeNull();
+    expect(screen.getByText("No moves yet.")).toBeTruthy();
+    expect(screen.queryByText("Pass")).toBeNull();
   });
 
   it("places every finding at the engine's timeS, not at a time the bench works out", () => {

@@ -4,6 +4,7 @@ import { useEffect, useReducer, useState } from "react";
 import { afterEach, describe, expect, it } from "vitest";
 import { MoveList } from "@/components/editor/move-list";
 import { planReducer, type BenchPlan, type PoseTarget } from "@/components/editor/plan-state";
+import { quickFixes } from "@/components/editor/quick-fixes";
 import { check } from "@/kinematics";
 import { demoPlan, pose } from "./helpers";
 
@@ -31,6 +32,7 @@ function Harness({ initial, select = 0 }: { initial: BenchPlan; select?: PoseTar
       onSelect={setSelected}
       dispatch={dispatch}
       startVerdict="pass"
+      fixes={quickFixes(plan, report).moves}
     />
   );
 }
@@ -72,6 +74,20 @@ describe("move list", () => {
     // rounded up to whole milliseconds: 1 ms less would fault
     const shorter = { ...current, moves: current.moves.map((m, i) => (i === 0 ? { ...m, duration: d - 0.001 } : m)) };
     expect(check(shorter).moves[0].findings.some((f) => f.severity === "fault")).toBe(true);
+  });
+
+  it("offers no shortest-safe button until the fixes are verified", () => {
+    const plan = demoPlan([{ goal: pose(1.5), duration: 0.2 }]);
+    const report = check(plan);
+    render(<MoveList joints={plan.arm.joints} startPose={plan.start} moves={plan.moves} reports={report.moves} unit="deg" selected={0} onSelect={() => {}} dispatch={() => {}} startVerdict="pass" fixes={null} />);
+    expect(screen.queryByRole("button", { name: /shortest safe duration/ })).toBeNull();
+  });
+
+  it("shows no start-pose chip when told there is no verdict (an empty plan)", () => {
+    const plan = demoPlan([]);
+    const { container } = render(<MoveList joints={plan.arm.joints} startPose={plan.start} moves={[]} reports={[]} unit="deg" selected="start" onSelect={() => {}} dispatch={() => {}} startVerdict={null} />);
+    expect(container.querySelector("[data-verdict]")).toBeNull();
+    expect(screen.getByText(/No moves yet/)).toBeTruthy();
   });
 
   it("adds a move that holds the last goal, and duplicates the selected one", () => {

@@ -1,0 +1,197 @@
+"use client";
+import { useCallback, useDeferredValue, useEffect, useMemo, useReducer, useState, useSyncExternalStore } from "react";
+import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
+import type { PanelFinding } from "@/components/findings/findings-panel";
+import type { PlotMarker } from "@/components/plots/joint-plots";
+import { effortSeries } from "@/components/plots/effort";
+import { pinTarget, type CommentPin } from "@/components/review/plan-review-comments";
+import { webglAvailable } from "@/components/viewer/error-boundary";
+import { createPoseScratch, poseAt } from "@/components/viewer/pose-at";
+import { linkSeverityOf } from "@/components/viewer/link-severity";
+import { schematicChain } from "@/components/viewer/schematic-chain";
+import { verdictOf, type Arm, type Report, type Verdict } from "@/kinematics";
+import type { AngleUnit } from "@/lib/shared/units";
+import { runLiveCheck } from "./live-check";
+import { planReducer, type BenchPlan, type PoseTarget } from "./plan-state";
+import { Playhead, useSyncTotal } from "./playhead";
+import { fixLabel, type QuickFix, type QuickFixes } from "./quick-fixes";
+import { useFullCheck } from "./use-full-check";
+
+/**
+ * What the bench may say about the plan as a whole. `empty`: no moves, so no verdict at all;
+ * `checking`: the arm-model checks are still running, so no Pass yet (a joint fault is already certain);
+ * `unchecked`: the arm-model checks failed, so no Pass; `checked`: the full report's verdict.
+ */
+export type BenchStatus =
+  | { kind: "empty" }
+  | { kind: "checking"; faultSoFar: boolean }
+  | { kind: "unchecked"; error: string; faultSoFar: boolean }
+  | { kind: "checked"; verdict: Verdict };
+
+export interface BenchStateOptions {
+  /** Called on every edit (for "unsaved changes" state kept by the page). */
+  onPlanChange?: (plan: BenchPlan) => void;
+  /**
+   * The arm the plan is checked against, from the plan's own arm: an assignment's tightened limits.
+   * Must be a stable function (it is a memo dependency).
+   */
+  checkArm?: (arm: Arm) => Arm;
+}
+
+/** The status of a plan from its live (joint checks) and full (arm model too) results. */
+export function benchStatus(moveCount: number, live: Report, full: { report: Report | null; error: string | null }): BenchStatus {
+  if (moveCount === 0) return { kind: "empty" };
+  const faultSoFar = live.verdict === "fault";
+  if (full.error) return { kind: "unchecked", error: full.error, faultSoFar };
+  if (!full.report) return { kind: "checking", faultSoFar };
+  return { kind: "checked", verdict: full.report.verdict };
+}
+
+/**
+ * The bench's state: the plan being edited (one reducer), the selection, the unit, the playhead, the
+ * live and full checks (against the course's limits when given), and what the rails show from them:
+ * findings worst first with their verified fixes, plot markers, link tints, ghosts.
+ */
+export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }: BenchStateOptions = {}) {
+  const [plan, dispatch] = useReducer(planReducer, initialPlan);
+  const [selected, setSelected] = useState<PoseTarget>(initialPlan.moves.length > 0 ? 0 : "start");
+  const [unit, setUnit] = useState<AngleUnit>("deg");
+  const playhead = useMemo(() => new Playhead(), []);
+
+  useEffect(() => {
+    onPlanChange?.(plan);
+  }, [plan, onPlanChange]);
+
+  // The plan as the check sees it: its own arm, or the arm tightened by the course's rules.
+  const checked = useMemo(() => (checkArm ? { ...plan, arm: checkArm(plan.arm) } : plan), [plan, checkArm]);
+  const live = useMemo(() => runLiveCheck(checked), [checked]);
+  const full = useFullCheck(checked);
+  // the joint checks answer at once; the full report (arm model included) replaces them when it lands
+  const report = full.report ?? live.report;
+  const fixes: QuickFixes | null = full.report ? full.fixes : null;
+  const status = benchStatus(plan.moves.length, live.report, full);
+  const { timeline } = live;
+  useSyncTotal(playhead, timeline.totalS);
+  // Plots and the stage may trail fast slider drags by a frame; the findings never do.
+  const deferred = useDeferredValue(live);
+  const deferredPlan = useDeferredValue(checked);
+  const effort = useMemo(() => effortSeries(deferredPlan, deferred.samples), [deferredPlan, deferred.samples]);
+
+  const [selectedJoints, setSelectedJoints] = useState<number[]>(() => {
+    const worst = worstFirst(runLiveCheck(checkArm ? { ...initialPlan, arm: checkArm(initialPlan.arm) } : initialPlan).report.findings)[0];
+    return [worst?.joint ?? 0];
+  });
+
+  const jointNames = useMemo(() => plan.arm.joints.map((j) => j.name), [plan.arm.joints]);
+  const chain = useMemo(() => plan.arm.chain ?? schematicChain(plan.arm.joints), [plan.arm.chain, plan.arm.joints]);
+  const schematic = !plan.arm.chain;
+  // null during the server render; the stage only mounts in the browser
+  const canRender3d = useSyncExternalStore(noSubscribe, webglAvailable, () => null);
+
+  const jump = useCallback(
+    (timeS: number, move: number | null) => {
+      playhead.pause();
+      playhead.seek(timeS);
+      setSelected(move === null ? "start" : move);
+    },
+    [playhead],
+  );
+
+  const selectTarget = useCallback(
+    (target: PoseTarget) => {
+      setSelected(target);
+      if (target !== "start") {
+        playhead.pause();
+        playhead.seek(timeline.startS[target] ?? 0);
+      }
+    },
+    [playhead, timeline],
+  );
+
+  const jumpToComment = useCallback(
+    (pin: CommentPin) => {
+      const { timeS, move, joint } = pinTarget(pin, timeline.startS, timeline.moveCount, plan.arm.joints.length);
+      playhead.pause();
+      playhead.seek(timeS);
+      if (move !== null) setSelected(move);
+      if (joint !== null) setSelectedJoints((s) => (s.includes(joint) ? s : [joint, ...s]));
+    },
+    [playhead, timeline, plan.arm.joints.length],
+  );
+
+  const applyFix = useCallback((fix: QuickFix) => dispatch(fix.action), []);
+
+  const items: PanelFinding[] = useMemo(
+    () =>
+      worstFirst(report.findings).map((finding) => {
+        const index = report.findings.indexOf(finding);
+        const offered = fixes?.findings[index];
+        return {
+          finding,
+          timeS: findingTimeS(finding, timeline),
+          fixes: (offered?.fixes ?? []).map((fix) => ({ label: fixLabel(fix, plan, unit), scope: fix.scope, apply: () => applyFix(fix) })),
+          remedy: offered?.remedy ?? null,
+        };
+      }),
+    [report, fixes, timeline, plan, unit, applyFix],
+  );
+
+  const markers: PlotMarker[] = useMemo(
+    () => items.map((i) => ({ timeS: i.timeS, joint: i.finding.joint, severity: i.finding.severity })),
+    [items],
+  );
+
+  const linkSeverity = useMemo(() => linkSeverityOf(report.moves, chain), [report, chain]);
+
+  const ghosts = useMemo(() => {
+    const g: { pose: readonly number[]; label: "start" | "goal" }[] = [{ pose: plan.start, label: "start" }];
+    if (selected !== "start" && plan.moves[selected]) g.push({ pose: plan.moves[selected].goal, label: "goal" });
+    return g;
+  }, [plan, selected]);
+
+  const copyCurrent = useCallback(() => {
+    const out = new Float64Array(plan.arm.joints.length);
+    poseAt(timeline, playhead.get().timeS, out, createPoseScratch(out.length));
+    dispatch({ type: "set-pose", target: selected, pose: Array.from(out) });
+  }, [plan.arm.joints.length, timeline, playhead, selected]);
+
+  const startVerdict = verdictOf(report.findings.filter((f) => f.move === null));
+
+  return {
+    plan,
+    checked,
+    dispatch,
+    selected,
+    selectTarget,
+    unit,
+    setUnit,
+    playhead,
+    live,
+    full,
+    report,
+    fixes,
+    status,
+    applyFix,
+    timeline,
+    deferred,
+    effort,
+    selectedJoints,
+    setSelectedJoints,
+    jointNames,
+    chain,
+    schematic,
+    canRender3d,
+    jump,
+    jumpToComment,
+    items,
+    markers,
+    linkSeverity,
+    ghosts,
+    copyCurrent,
+    startVerdict,
+  };
+}
+
+export type BenchState = ReturnType<typeof useBenchState>;
+
+const noSubscribe = () => () => {};
