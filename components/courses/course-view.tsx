@@ -129,7 +129,7 @@ function SubmitForm({ assignmentId, plans, disabled }: { assignmentId: string; p
     },
     onSuccess: () => router.refresh(),
   });
-  if (plans.length === 0) return <p className="text-xs text-ink-soft">Save a plan in one of your projects first.</p>;
+  if (plans.length === 0) return <p className="text-xs text-ink-soft">Create a plan and save a version of it first; only plans you created can be submitted.</p>;
   return (
     <form onSubmit={(e) => { e.preventDefault(); submit.mutate(); }} className="flex flex-wrap items-end gap-2">
       <SelectField label="Plan version" hideLabel value={choice} onChange={(e) => setChoice(e.target.value)} fieldClassName="w-72" disabled={disabled}>

@@ -168,3 +168,25 @@ export async function createArmRevision(input: {
     return revision;
   });
 }
+
+/**
+ * An arm revision by id, not scoped to a user: only for the server's own re-check of a submission
+ * against the revision its assignment requires (the student need not be able to read that arm).
+ */
+export async function getArmRevisionById({ id }: { id: string }): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
+  const [row] = await db
+    .select({ id: armRevisions.id, armId: armRevisions.armId, revision: armRevisions.revision, description: armRevisions.description })
+    .from(armRevisions)
+    .where(eq(armRevisions.id, id));
+  return row;
+}
+
+/** An arm revision by id, only if the user may read its arm (built in, or in a project they are a member of). */
+export async function getReadableArmRevision({ id, userId }: { id: string; userId: string }): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
+  const [row] = await db
+    .select({ id: armRevisions.id, armId: armRevisions.armId, revision: armRevisions.revision, description: armRevisions.description })
+    .from(armRevisions)
+    .innerJoin(arms, eq(arms.id, armRevisions.armId))
+    .where(and(eq(armRevisions.id, id), armVisibleTo(userId)));
+  return row;
+}

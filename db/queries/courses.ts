@@ -2,7 +2,7 @@ import "server-only";
 import { randomInt } from "node:crypto";
 import { and, asc, desc, eq, exists, gte, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { armRevisions, planVersions, plans, projectMembers, users, type Verdict } from "@/db/schema";
+import { planVersions, users, type Verdict } from "@/db/schema";
 import { assignments, courseEnrolments, courses, submissions, type Assignment, type Course, type CourseRole, type Submission, type SubmissionStatus } from "@/db/schema/courses";
 import { insertOutbox, type OutboxInput } from "./mail";
 
@@ -158,15 +158,6 @@ export async function listCourseInstructors({ courseId }: { courseId: string }):
     .where(and(eq(courseEnrolments.courseId, courseId), eq(courseEnrolments.role, "instructor")));
 }
 
-/** An arm revision by id (assignments name the arm revision they require). */
-export async function getArmRevisionById({ id }: { id: string }): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
-  const [row] = await db
-    .select({ id: armRevisions.id, armId: armRevisions.armId, revision: armRevisions.revision, description: armRevisions.description })
-    .from(armRevisions)
-    .where(eq(armRevisions.id, id));
-  return row;
-}
-
 /** Adds an assignment to a course the user teaches; undefined when they do not. */
 export async function createAssignment(input: {
   courseId: string;
@@ -222,17 +213,26 @@ export async function listAssignmentsForUser({ courseId, userId }: { courseId: s
     .orderBy(submissions.assignmentId, desc(submissions.attempt));
   const byAssignment = new Map(latest.map((l) => [l.assignmentId, l]));
   // "Draft": nothing submitted yet, but the user saved a plan version on the required arm revision
-  // since the assignment was set.
-  const open = rows.filter((a) => !byAssignment.has(a.id));
-  const drafts = new Set<string>();
-  for (const a of open) {
-    const [saved] = await db
-      .select({ id: planVersions.id })
-      .from(planVersions)
-      .where(and(eq(planVersions.authorId, userId), eq(planVersions.armRevisionId, a.requiredArmRevisionId), gte(planVersions.createdAt, a.createdAt)))
-      .limit(1);
-    if (saved) drafts.add(a.id);
-  }
+  // since the assignment was set — one query for all the open assignments.
+  const open = rows.filter((a) => !byAssignment.has(a.id)).map((a) => a.id);
+  const drafted =
+    open.length === 0
+      ? []
+      : await db
+          .select({ id: assignments.id })
+          .from(assignments)
+          .where(
+            and(
+              inArray(assignments.id, open),
+              exists(
+                db
+                  .select({ one: planVersions.id })
+                  .from(planVersions)
+                  .where(and(eq(planVersions.authorId, userId), eq(planVersions.armRevisionId, assignments.requiredArmRevisionId), gte(planVersions.createdAt, assignments.createdAt))),
+              ),
+            ),
+          );
+  const drafts = new Set(drafted.map((d) => d.id));
   return rows.map((a) => {
     const l = byAssignment.get(a.id);
     return { ...a, status: l?.status ?? (drafts.has(a.id) ? "draft" : "not-started"), latestSubmissionId: l?.id ?? null };
@@ -262,32 +262,6 @@ export async function getAssignmentForUser({ assignmentId, userId }: { assignmen
     .where(eq(assignments.id, assignmentId));
   if (!row) return undefined;
   return { ...row.assignment, role: row.role, courseTitle: row.courseTitle, courseArmRevisionId: row.courseArmRevisionId, courseLimits: row.courseLimits };
-}
-
-/** A plan version the student may submit: in a project they are a member of. */
-export async function getSubmittableVersion({
-  planId,
-  number,
-  userId,
-}: {
-  planId: string;
-  number: number;
-  userId: string;
-}): Promise<{ id: string; planId: string; number: number; document: unknown; armRevisionId: string; planName: string } | undefined> {
-  const [row] = await db
-    .select({
-      id: planVersions.id,
-      planId: planVersions.planId,
-      number: planVersions.number,
-      document: planVersions.document,
-      armRevisionId: planVersions.armRevisionId,
-      planName: plans.name,
-    })
-    .from(planVersions)
-    .innerJoin(plans, eq(plans.id, planVersions.planId))
-    .innerJoin(projectMembers, and(eq(projectMembers.projectId, plans.projectId), eq(projectMembers.userId, userId)))
-    .where(and(eq(planVersions.planId, planId), eq(planVersions.number, number)));
-  return row;
 }
 
 export type NewSubmission = {

@@ -216,3 +216,56 @@ export async function createPlanVersion(input: NewVersion): Promise<{ version: P
     return { version };
   });
 }
+
+export type VersionForSubmission = {
+  id: string;
+  planId: string;
+  number: number;
+  document: unknown;
+  armRevisionId: string;
+  planName: string;
+  /** The user created the plan. */
+  planCreatedByUser: boolean;
+  /** The user saved this version. */
+  versionSavedByUser: boolean;
+};
+
+/**
+ * A plan version as its would-be submitter sees it: found only in a project they are a member of,
+ * with whether they created the plan and saved the version (the submission rule asks both).
+ */
+export async function getVersionForSubmission({ planId, number, userId }: { planId: string; number: number; userId: string }): Promise<VersionForSubmission | undefined> {
+  const [row] = await db
+    .select({
+      id: planVersions.id,
+      planId: planVersions.planId,
+      number: planVersions.number,
+      document: planVersions.document,
+      armRevisionId: planVersions.armRevisionId,
+      planName: plans.name,
+      planCreatedByUser: sql<boolean>`${plans.createdBy} = ${userId}`,
+      versionSavedByUser: sql<boolean>`${planVersions.authorId} = ${userId}`,
+    })
+    .from(planVersions)
+    .innerJoin(plans, eq(plans.id, planVersions.planId))
+    .innerJoin(projectMembers, memberOfPlanProject(userId))
+    .where(and(eq(planVersions.planId, planId), eq(planVersions.number, number)));
+  return row;
+}
+
+export type SubmittablePlan = { planId: string; planName: string; projectName: string; version: number; verdict: Verdict };
+
+/**
+ * In one query: every plan the user created, in a project they are still a member of, with its latest
+ * version when they saved that version themselves — what a student may submit (newest first).
+ */
+export async function listSubmittablePlans({ userId }: { userId: string }): Promise<SubmittablePlan[]> {
+  return db
+    .select({ planId: plans.id, planName: plans.name, projectName: projects.name, version: planVersions.number, verdict: planVersions.verdict })
+    .from(plans)
+    .innerJoin(projectMembers, memberOfPlanProject(userId))
+    .innerJoin(projects, eq(projects.id, plans.projectId))
+    .innerJoin(planVersions, and(eq(planVersions.planId, plans.id), eq(planVersions.number, plans.latestVersion)))
+    .where(and(eq(plans.createdBy, userId), eq(planVersions.authorId, userId)))
+    .orderBy(desc(plans.updatedAt));
+}

@@ -6,7 +6,8 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
-import { consumeAccountToken, createAccountToken, markEmailVerified, queueMail } from "@/db/queries/mail";
+import { consumeAccountToken, createAccountToken, markEmailVerified } from "@/db/queries/account-tokens";
+import { queueMail } from "@/db/queries/mail";
 import { recordAudit } from "@/db/queries/audit";
 import { countPasswordResetsSince, setPasswordWithResetToken } from "@/db/queries/users";
 import { enqueueMail } from "./queue";

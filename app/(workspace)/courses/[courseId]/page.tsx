@@ -2,8 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getArmRevisionForUser, listArmsForUser } from "@/db/queries/arms";
 import { getCourseForUser, listAssignmentsForUser, listRoster } from "@/db/queries/courses";
-import { listPlansForProject } from "@/db/queries/plans";
-import { listProjectsForUser } from "@/db/queries/projects";
+import { listSubmittablePlans } from "@/db/queries/plans";
 import { CourseView, type ArmChoice, type PlanChoice } from "@/components/courses/course-view";
 import { capabilities, visibleJoinCode } from "@/lib/server/permissions";
 import { appLink } from "@/lib/server/mail/templates";
@@ -27,12 +26,14 @@ export default async function CoursePage({ params }: { params: Promise<{ courseI
     can.canReadRoster ? listRoster({ courseId, userId: actor.userId }) : Promise.resolve([]),
   ]);
 
-  // Students pick the plan version to submit; instructors may copy an assignment's poses from one.
-  const projects = await listProjectsForUser({ userId: actor.userId });
-  const lists = await Promise.all(projects.map((p) => listPlansForProject({ projectId: p.id, userId: actor.userId })));
-  const plans: PlanChoice[] = lists.flatMap((l, i) =>
-    l.filter((p) => p.latestVersion > 0).map((p) => ({ planId: p.id, version: p.latestVersion, label: `${projects[i].name} / ${p.name} · version ${p.latestVersion}`, verdict: p.latestVerdict })),
-  );
+  // Students pick the plan version to submit (only their own work, as the submission route requires);
+  // instructors may copy an assignment's poses from one of their own.
+  const plans: PlanChoice[] = (await listSubmittablePlans({ userId: actor.userId })).map((p) => ({
+    planId: p.planId,
+    version: p.version,
+    label: `${p.projectName} / ${p.planName} · version ${p.version}`,
+    verdict: p.verdict,
+  }));
   let arms: ArmChoice[] = [];
   if (teaches) {
     const list = await listArmsForUser({ userId: actor.userId });

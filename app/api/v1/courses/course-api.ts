@@ -46,6 +46,13 @@ export function csv(rows: (string | number | boolean | null | undefined)[][]): s
   return rows.map((r) => r.map(csvField).join(",")).join("\r\n") + "\r\n";
 }
 
+/**
+ * The one answer for an arm revision a course or assignment may not name: the same words whether it
+ * does not exist or belongs to a project the caller cannot read, so the answer reveals neither.
+ */
+export const UNUSABLE_ARM_REVISION =
+  "A course or assignment can require only a built-in arm revision or one from a project you are a member of; choose one from the list of your arms.";
+
 /** The link students follow to join a course. */
 export function joinPath(joinCode: string): string {
   return `/courses/join?code=${encodeURIComponent(joinCode)}`;

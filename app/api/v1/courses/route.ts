@@ -1,5 +1,6 @@
 import { recordAudit } from "@/db/queries/audit";
-import { createCourse, getArmRevisionById, listCoursesForUser } from "@/db/queries/courses";
+import { getReadableArmRevision } from "@/db/queries/arms";
+import { createCourse, listCoursesForUser } from "@/db/queries/courses";
 import { getProjectForUser } from "@/db/queries/projects";
 import { json, readJson, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
@@ -7,7 +8,7 @@ import { AppError } from "@/lib/server/errors";
 import { appLink } from "@/lib/server/mail/templates";
 import { authorizeSite, visibleJoinCode } from "@/lib/server/permissions";
 import { createCourseSchema } from "@/lib/shared/schemas/courses";
-import { joinPath } from "./course-api";
+import { joinPath, UNUSABLE_ARM_REVISION } from "./course-api";
 
 /** GET /api/v1/courses — the courses the caller is enrolled in (as instructor or student). */
 export const GET = route(async (request) => {
@@ -21,8 +22,8 @@ export const POST = route(async (request) => {
   const body = await readJson(request, createCourseSchema);
   const actor = await requireActor(request);
   authorizeSite(actor, "project:create-course");
-  if (body.requiredArmRevisionId && !(await getArmRevisionById({ id: body.requiredArmRevisionId }))) {
-    throw new AppError("unprocessable:arm-revision", "No such arm revision.", { issues: [{ path: "requiredArmRevisionId", message: "is not an arm revision" }] });
+  if (body.requiredArmRevisionId && !(await getReadableArmRevision({ id: body.requiredArmRevisionId, userId: actor.userId }))) {
+    throw new AppError("unprocessable:arm-revision", UNUSABLE_ARM_REVISION, { issues: [{ path: "requiredArmRevisionId", message: "must be a built-in arm revision or one of your projects' arm revisions" }] });
   }
   if (body.projectId) {
     const project = await getProjectForUser({ projectId: body.projectId, userId: actor.userId });

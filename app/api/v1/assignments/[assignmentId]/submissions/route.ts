@@ -1,5 +1,7 @@
 import { recordAudit } from "@/db/queries/audit";
-import { createSubmission, getArmRevisionById, getSubmittableVersion, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
+import { getArmRevisionById } from "@/db/queries/arms";
+import { createSubmission, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
+import { getVersionForSubmission } from "@/db/queries/plans";
 import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/server/route";
 import { armSchema, parsePlan } from "@/kinematics";
@@ -33,8 +35,17 @@ export const POST = route(async (request, context) => {
   const actor = await requireActor(request);
   const assignment = await loadAssignment(actor, assignmentId);
   authorizeCourse(assignment.role, "submission:create");
-  const version = await getSubmittableVersion({ planId: body.planId, number: body.versionNumber, userId: actor.userId });
+  const version = await getVersionForSubmission({ planId: body.planId, number: body.versionNumber, userId: actor.userId });
   if (!version) throw new AppError("not_found:plan-version", "No such plan version in your projects.");
+  // A submission is the student's own work: a plan they created, in a version they saved (DEVELOPERS.md, Decisions).
+  if (!version.planCreatedByUser || !version.versionSavedByUser) {
+    throw new AppError(
+      "forbidden:submission",
+      version.planCreatedByUser
+        ? `Version ${version.number} of "${version.planName}" was saved by someone else; save your own version of the plan and submit that.`
+        : `"${version.planName}" was created by someone else in the shared project; you can submit only plans you created. Start your own plan (you may copy the poses) and submit that.`,
+    );
+  }
 
   // Read exactly as the version route and the command line read it (the engine's parsePlan).
   const plan = parsePlan(version.document);

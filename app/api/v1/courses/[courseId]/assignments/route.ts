@@ -1,12 +1,13 @@
 import { recordAudit } from "@/db/queries/audit";
-import { createAssignment, getArmRevisionById, listAssignmentsForUser } from "@/db/queries/courses";
+import { getReadableArmRevision } from "@/db/queries/arms";
+import { createAssignment, listAssignmentsForUser } from "@/db/queries/courses";
 import { json, readJson, readParams, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/permissions";
 import { AppError } from "@/lib/server/errors";
 import { armSchema } from "@/kinematics";
 import { createAssignmentSchema, courseParams } from "@/lib/shared/schemas/courses";
-import { loadCourse } from "../../course-api";
+import { loadCourse, UNUSABLE_ARM_REVISION } from "../../course-api";
 
 /** GET /api/v1/courses/:courseId/assignments — by due date, each with the caller's own status. */
 export const GET = route(async (request, context) => {
@@ -24,10 +25,8 @@ export const POST = route(async (request, context) => {
   const actor = await requireActor(request);
   const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "assignment:create");
-  const revision = await getArmRevisionById({ id: body.requiredArmRevisionId });
-  if (!revision) {
-    throw new AppError("unprocessable:arm-revision", "No such arm revision.", { issues: [{ path: "requiredArmRevisionId", message: "is not an arm revision" }] });
-  }
+  const revision = await getReadableArmRevision({ id: body.requiredArmRevisionId, userId: actor.userId });
+  if (!revision) throw new AppError("unprocessable:arm-revision", UNUSABLE_ARM_REVISION, { issues: [{ path: "requiredArmRevisionId", message: "must be a built-in arm revision or one of your projects' arm revisions" }] });
   const arm = armSchema.parse(revision.description);
   const n = arm.joints.length;
   const poseIssues = [
