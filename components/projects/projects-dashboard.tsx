@@ -1,16 +1,20 @@
 "use client";
+import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useMemo, useState } from "react";
-import { useMutation } from "@tanstack/react-query";
+import { useId, useMemo, useState } from "react";
+import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/button";
+import { columnsFor, DataTable } from "@/components/ui/data-table";
+import { DateTime } from "@/components/ui/date-time";
 import { Dialog } from "@/components/ui/dialog";
 import { SelectField, TextField } from "@/components/ui/field";
+import { applyApiIssues, apiIssues, fieldMessage, formFailure } from "@/components/ui/form";
 import { PlusIcon } from "@/components/ui/icons";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
-import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { api, ApiError } from "@/lib/client/api-client";
+import { api } from "@/lib/client/api-client";
+import { createPlanSchema, createProjectSchema } from "@/lib/shared/schemas/api";
 
 export interface DashboardPlan {
   id: string;
@@ -26,8 +30,6 @@ export interface DashboardProject {
   name: string;
   kind: "course" | "research" | "personal";
   role: "owner" | "editor" | "viewer";
-  /** From the server's capabilities(): may create plans here. */
-  canEdit: boolean;
   updatedAt: string;
   plans: DashboardPlan[];
 }
@@ -39,52 +41,67 @@ export interface DashboardArm {
   builtIn: boolean;
 }
 
-type Sort = "recent" | "name" | "verdict";
+/** Worst first when sorted ascending; a plan never saved sorts last. */
 const verdictRank = { fault: 0, caution: 1, pass: 2 } as const;
+const rankOf = (v: DashboardPlan["latestVerdict"]) => (v ? verdictRank[v] : 3);
 
-function formatDate(iso: string): string {
-  return new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", hour: "2-digit", minute: "2-digit", timeZone: "UTC" }) + " UTC";
-}
+const col = columnsFor<DashboardPlan & { projectId: string }>();
 
-/** Projects with their plans: search, sort, create a project, create a plan from a demo or custom arm. */
+const planColumns = col.columns([
+  col.accessor("name", {
+    header: "Plan",
+    sortFn: "text",
+    meta: { headerClassName: "pl-4", cellClassName: "pl-4" },
+    cell: (c) => (
+      <Link href={`/projects/${c.row.original.projectId}/plans/${c.row.original.id}`} className="font-medium text-brand-700 hover:underline">
+        {c.getValue()}
+      </Link>
+    ),
+  }),
+  col.accessor("armName", { header: "Arm", sortFn: "text", meta: { cellClassName: "text-ink-soft" } }),
+  col.accessor("latestVersion", { header: "Version", sortFn: "basic", enableGlobalFilter: false, meta: { numeric: true }, cell: (c) => c.getValue() || "—" }),
+  col.accessor("latestVerdict", {
+    header: "Last verdict",
+    enableGlobalFilter: false,
+    sortFn: (a, b) => rankOf(a.original.latestVerdict) - rankOf(b.original.latestVerdict),
+    cell: (c) => {
+      const v = c.getValue();
+      return v ? <VerdictChip verdict={v} size="sm" /> : <span className="text-xs text-ink-faint">not saved yet</span>;
+    },
+  }),
+  col.accessor("updatedAt", {
+    header: "Changed",
+    sortFn: "basic",
+    enableGlobalFilter: false,
+    meta: { cellClassName: "tabular text-xs text-ink-soft" },
+    cell: (c) => <DateTime value={c.getValue()} />,
+  }),
+]);
+
+/** Projects with their plans: filter, sort, create a project, create a plan from a demo or custom arm. */
 export function ProjectsDashboard({ projects, arms }: { projects: DashboardProject[]; arms: DashboardArm[] }) {
   const router = useRouter();
   const [query, setQuery] = useState("");
-  const [sort, setSort] = useState<Sort>("recent");
   const [newProject, setNewProject] = useState(false);
   const [newPlanFor, setNewPlanFor] = useState<DashboardProject | null>(null);
 
-  const shown = useMemo(() => {
-    const q = query.trim().toLowerCase();
-    return projects
-      .map((p) => ({
-        ...p,
-        plans: p.plans
-          .filter((pl) => !q || p.name.toLowerCase().includes(q) || pl.name.toLowerCase().includes(q) || pl.armName.toLowerCase().includes(q))
-          .sort((a, b) =>
-            sort === "name"
-              ? a.name.localeCompare(b.name)
-              : sort === "verdict"
-                ? (a.latestVerdict ? verdictRank[a.latestVerdict] : 3) - (b.latestVerdict ? verdictRank[b.latestVerdict] : 3)
-                : b.updatedAt.localeCompare(a.updatedAt),
-          ),
-      }))
-      .filter((p) => !q || p.name.toLowerCase().includes(q) || p.plans.length > 0);
-  }, [projects, query, sort]);
+  const withRows = useMemo(() => projects.map((p) => ({ ...p, rows: p.plans.map((pl) => ({ ...pl, projectId: p.id })) })), [projects]);
+  const q = query.trim().toLowerCase();
+  // A project shows when its name matches (all its plans), or when one of its plans does (the table filters them).
+  const shown = withRows.filter(
+    (p) => !q || p.name.toLowerCase().includes(q) || p.plans.some((pl) => pl.name.toLowerCase().includes(q) || pl.armName.toLowerCase().includes(q)),
+  );
 
   return (
     <div className="mx-auto max-w-6xl px-6 py-8">
       <div className="flex flex-wrap items-end gap-3">
         <div className="mr-auto">
           <h1 className="text-2xl font-semibold tracking-tight">Projects</h1>
-          <p className="text-sm text-ink-soft">Your projects and their plans, with the verdict of each plan&apos;s latest saved version.</p>
+          <p className="text-sm text-ink-soft">
+            Your projects and their plans, with the verdict of each plan&apos;s latest saved version. Click a column heading to sort.
+          </p>
         </div>
-        <TextField label="Search plans" placeholder="Plan, project or arm" value={query} onChange={(e) => setQuery(e.target.value)} fieldClassName="w-64" type="search" />
-        <SelectField label="Sort plans by" value={sort} onChange={(e) => setSort(e.target.value as Sort)} fieldClassName="w-52">
-          <option value="recent">Most recently changed</option>
-          <option value="name">Name</option>
-          <option value="verdict">Worst verdict first</option>
-        </SelectField>
+        <TextField label="Filter plans" placeholder="Plan, project or arm" value={query} onChange={(e) => setQuery(e.target.value)} fieldClassName="w-64" type="search" />
         <Button variant="primary" onClick={() => setNewProject(true)}>
           <PlusIcon size={14} /> New project
         </Button>
@@ -96,54 +113,41 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
             A project holds plans for one or more arms; create one to start planning moves.
           </EmptyState>
         ) : shown.length === 0 ? (
-          <EmptyState title="Nothing matches your search">Try a shorter word, or clear the search box.</EmptyState>
+          <EmptyState title="Nothing matches the filter">Try a shorter word, or clear the filter box.</EmptyState>
         ) : (
-          shown.map((p) => (
-            <Panel key={p.id} className="overflow-hidden" aria-labelledby={`project-${p.id}`}>
-              <div className="flex flex-wrap items-center gap-3 border-b border-line px-4 py-3">
-                <h2 id={`project-${p.id}`} className="font-semibold">{p.name}</h2>
-                <span className="rounded bg-brand-50 px-1.5 py-0.5 text-[11px] text-brand-700">{p.kind}</span>
-                <span className="text-xs text-ink-faint">your role: {p.role}</span>
-                <span className="ml-auto flex gap-2">
-                  <Link href={`/projects/${p.id}/recordings`} className="text-sm text-brand-600 hover:underline">Recordings</Link>
-                  <Link href={`/projects/${p.id}/arms`} className="text-sm text-brand-600 hover:underline">Arms</Link>
-                  {p.canEdit ? (
-                    <Button size="sm" onClick={() => setNewPlanFor(p)} aria-label={`New plan in ${p.name}`}>
-                      <PlusIcon size={13} /> New plan
-                    </Button>
-                  ) : null}
-                </span>
-              </div>
-              {p.plans.length === 0 ? (
-                <p className="px-4 py-4 text-sm text-ink-soft">No plans in this project yet.</p>
-              ) : (
-                <Table aria-label={`Plans in ${p.name}`}>
-                  <thead>
-                    <tr>
-                      <Th className="pl-4">Plan</Th>
-                      <Th>Arm</Th>
-                      <Th numeric>Version</Th>
-                      <Th>Last verdict</Th>
-                      <Th>Changed</Th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {p.plans.map((pl) => (
-                      <tr key={pl.id} className="hover:bg-paper">
-                        <Td className="pl-4">
-                          <Link href={`/projects/${p.id}/plans/${pl.id}`} className="font-medium text-brand-700 hover:underline">{pl.name}</Link>
-                        </Td>
-                        <Td className="text-ink-soft">{pl.armName}</Td>
-                        <Td numeric>{pl.latestVersion || "—"}</Td>
-                        <Td>{pl.latestVerdict ? <VerdictChip verdict={pl.latestVerdict} size="sm" /> : <span className="text-xs text-ink-faint">not saved yet</span>}</Td>
-                        <Td className="tabular text-xs text-ink-soft">{formatDate(pl.updatedAt)}</Td>
-                      </tr>
-                    ))}
-                  </tbody>
-                </Table>
-              )}
-            </Panel>
-          ))
+          shown.map((p) => {
+            const nameMatches = !q || p.name.toLowerCase().includes(q);
+            return (
+              <Panel key={p.id} className="overflow-hidden" aria-labelledby={`project-${p.id}`}>
+                <div className="flex flex-wrap items-center gap-3 border-b border-line px-4 py-3">
+                  <h2 id={`project-${p.id}`} className="font-semibold">
+                    <Link href={`/projects/${p.id}`} className="hover:underline">{p.name}</Link>
+                  </h2>
+                  <span className="rounded bg-brand-50 px-1.5 py-0.5 text-[11px] text-brand-700">{p.kind}</span>
+                  <span className="text-xs text-ink-faint">your role: {p.role}</span>
+                  <span className="ml-auto flex items-center gap-3">
+                    <Link href={`/projects/${p.id}`} className="text-sm text-brand-600 hover:underline">Members and activity</Link>
+                    <Link href={`/projects/${p.id}/recordings`} className="text-sm text-brand-600 hover:underline">Recordings</Link>
+                    <Link href={`/projects/${p.id}/arms`} className="text-sm text-brand-600 hover:underline">Arms</Link>
+                    {p.role !== "viewer" ? (
+                      <Button size="sm" onClick={() => setNewPlanFor(p)} aria-label={`New plan in ${p.name}`}>
+                        <PlusIcon size={13} /> New plan
+                      </Button>
+                    ) : null}
+                  </span>
+                </div>
+                <DataTable
+                  label={`Plans in ${p.name}`}
+                  data={p.rows}
+                  columns={planColumns}
+                  getRowId={(pl) => pl.id}
+                  filter={nameMatches ? "" : query.trim()}
+                  initialSorting={[{ id: "updatedAt", desc: true }]}
+                  empty={<p className="px-4 py-4 text-sm text-ink-soft">No plans in this project yet.</p>}
+                />
+              </Panel>
+            );
+          })
         )}
       </div>
 
@@ -160,20 +164,21 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
   );
 }
 
-function issueFor(error: unknown, path: string): string | undefined {
-  return error instanceof ApiError ? error.issues.find((i) => i.path === path)?.message : undefined;
-}
-
 function NewProjectDialog({ open, onClose, onCreated }: { open: boolean; onClose: () => void; onCreated: () => void }) {
-  const [name, setName] = useState("");
-  const [kind, setKind] = useState<"research" | "personal">("research");
-  const create = useMutation({
-    mutationFn: () => api.createProject({ name: name.trim(), kind }),
-    onSuccess: () => {
+  const formId = useId();
+  const [failure, setFailure] = useState<string | undefined>();
+  const form = useForm({ resolver: zodResolver(createProjectSchema), defaultValues: { name: "", kind: "research" } });
+  const { errors, isSubmitting } = form.formState;
+  const onSubmit = form.handleSubmit(async (body) => {
+    setFailure(undefined);
+    try {
+      await api.createProject(body);
+      form.reset();
       onClose();
-      setName("");
       onCreated();
-    },
+    } catch (error) {
+      setFailure(formFailure(error, applyApiIssues(apiIssues(error), form.setError, ["name", "kind"])));
+    }
   });
   return (
     <Dialog
@@ -183,30 +188,37 @@ function NewProjectDialog({ open, onClose, onCreated }: { open: boolean; onClose
       actions={
         <>
           <Button onClick={onClose}>Cancel</Button>
-          <Button variant="primary" disabled={!name.trim() || create.isPending} onClick={() => create.mutate()}>
-            {create.isPending ? "Creating…" : "Create project"}
+          <Button type="submit" form={formId} variant="primary" disabled={isSubmitting}>
+            {isSubmitting ? "Creating…" : "Create project"}
           </Button>
         </>
       }
     >
-      <form className="flex flex-col gap-3" onSubmit={(e) => { e.preventDefault(); if (name.trim()) create.mutate(); }}>
-        <TextField label="Name" value={name} onChange={(e) => setName(e.target.value)} maxLength={120} autoFocus error={issueFor(create.error, "name")} />
-        <SelectField label="Kind" value={kind} onChange={(e) => setKind(e.target.value as "research" | "personal")}>
+      <form id={formId} className="flex flex-col gap-3" onSubmit={onSubmit} noValidate>
+        <TextField label="Name" maxLength={120} autoFocus error={fieldMessage("The name", errors.name)} {...form.register("name")} />
+        <SelectField label="Kind" error={fieldMessage("The kind", errors.kind)} {...form.register("kind")}>
           <option value="research">Research (a team&apos;s shared space)</option>
           <option value="personal">Personal</option>
         </SelectField>
-        {create.error && !issueFor(create.error, "name") ? <ErrorNote title="The project was not created">{create.error.message}</ErrorNote> : null}
+        {failure ? <ErrorNote title="The project was not created">{failure}</ErrorNote> : null}
       </form>
     </Dialog>
   );
 }
 
 function NewPlanDialog({ project, arms, onClose, onCreated }: { project: DashboardProject; arms: DashboardArm[]; onClose: () => void; onCreated: (planId: string) => void }) {
-  const [name, setName] = useState("");
-  const [armId, setArmId] = useState(arms[0]?.id ?? "");
-  const create = useMutation({
-    mutationFn: () => api.createPlan(project.id, { name: name.trim(), armId }),
-    onSuccess: (plan) => onCreated(plan.id),
+  const formId = useId();
+  const [failure, setFailure] = useState<string | undefined>();
+  const form = useForm({ resolver: zodResolver(createPlanSchema), defaultValues: { name: "", armId: arms[0]?.id ?? "" } });
+  const { errors, isSubmitting } = form.formState;
+  const onSubmit = form.handleSubmit(async (body) => {
+    setFailure(undefined);
+    try {
+      const plan = await api.createPlan(project.id, body);
+      onCreated(plan.id);
+    } catch (error) {
+      setFailure(formFailure(error, applyApiIssues(apiIssues(error), form.setError, ["name", "armId"])));
+    }
   });
   return (
     <Dialog
@@ -216,23 +228,25 @@ function NewPlanDialog({ project, arms, onClose, onCreated }: { project: Dashboa
       actions={
         <>
           <Button onClick={onClose}>Cancel</Button>
-          <Button variant="primary" disabled={!name.trim() || !armId || create.isPending} onClick={() => create.mutate()}>
-            {create.isPending ? "Creating…" : "Create and open"}
+          <Button type="submit" form={formId} variant="primary" disabled={isSubmitting || arms.length === 0}>
+            {isSubmitting ? "Creating…" : "Create and open"}
           </Button>
         </>
       }
     >
-      <form className="flex flex-col gap-3" onSubmit={(e) => { e.preventDefault(); if (name.trim() && armId) create.mutate(); }}>
-        <TextField label="Plan name" value={name} onChange={(e) => setName(e.target.value)} maxLength={120} autoFocus error={issueFor(create.error, "name")} />
-        <SelectField label="Arm" value={armId} onChange={(e) => setArmId(e.target.value)} error={issueFor(create.error, "armId")}
-          hint="Demo arms are built in; custom arms belong to this project (add them on the project's Arms page).">
+      <form id={formId} className="flex flex-col gap-3" onSubmit={onSubmit} noValidate>
+        <TextField label="Plan name" maxLength={120} autoFocus error={fieldMessage("The plan name", errors.name)} {...form.register("name")} />
+        <SelectField
+          label="Arm"
+          error={fieldMessage("The arm", errors.armId)}
+          hint="Demo arms are built in; custom arms belong to this project (add them on the project's Arms page)."
+          {...form.register("armId")}
+        >
           {arms.map((a) => (
             <option key={a.id} value={a.id}>{a.name}{a.builtIn ? " (demo arm)" : " (custom)"}</option>
           ))}
         </SelectField>
-        {create.error && !issueFor(create.error, "name") && !issueFor(create.error, "armId") ? (
-          <ErrorNote title="The plan was not created">{create.error.message}</ErrorNote>
-        ) : null}
+        {failure ? <ErrorNote title="The plan was not created">{failure}</ErrorNote> : null}
       </form>
     </Dialog>
   );

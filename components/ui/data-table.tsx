@@ -22,6 +22,7 @@ import {
   tableFeatures,
   useTable,
   type ColumnDef,
+  type ColumnHelper,
   type SortingState,
 } from "@tanstack/react-table";
 import { useVirtualizer } from "@tanstack/react-virtual";
@@ -45,6 +46,9 @@ export const dataTableFeatures = tableFeatures({
 
 export type DataTableFeatures = typeof dataTableFeatures;
 
+/** The columns of a table of `T`, as `columnsFor<T>().columns([...])` returns them. */
+export type DataColumns<T extends object> = ReturnType<ColumnHelper<DataTableFeatures, T>["columns"]>;
+
 /** A typed column helper for one row type. */
 export function columnsFor<T extends object>() {
   return createColumnHelper<DataTableFeatures, T>();
@@ -56,8 +60,7 @@ const ROW_HEIGHT_PX = 34;
 
 export interface DataTableProps<T extends object> {
   data: T[];
-  // The column helper types each column's value; the table itself only needs them as a list.
-  columns: ColumnDef<DataTableFeatures, T, never>[];
+  columns: DataColumns<T>;
   /** The table's accessible name. */
   label: string;
   getRowId: (row: T) => string;
@@ -92,7 +95,7 @@ export function DataTable<T extends object>({
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
   const table = useTable({
     features: dataTableFeatures,
-    columns: columns as unknown as ColumnDef<DataTableFeatures, T>[],
+    columns: columns as ColumnDef<DataTableFeatures, T>[],
     data,
     getRowId: (row) => getRowId(row),
     state: { sorting, globalFilter: filter },
