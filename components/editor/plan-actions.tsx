@@ -1,6 +1,6 @@
 "use client";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { TextAreaField } from "@/components/ui/field";
@@ -25,6 +25,8 @@ export interface PlanActionsProps {
   version: number;
   onSaved: (version: number) => void;
   canEdit: boolean;
+  /** Told whether the plan differs from the last saved or loaded version (for the leave warning and the draft). */
+  onDirtyChange?: (dirty: boolean) => void;
 }
 
 type Open = null | "save" | "versions" | "import" | "export";
@@ -39,6 +41,10 @@ export function PlanActions(props: PlanActionsProps) {
   const [conflict, setConflict] = useState<{ latest: number; base: number } | null>(null);
   const [lastSaved, setLastSaved] = useState<{ number: number; verdict: Report["verdict"] } | null>(null);
   const dirty = plan !== savedPlan;
+  const { onDirtyChange } = props;
+  useEffect(() => {
+    onDirtyChange?.(dirty);
+  }, [dirty, onDirtyChange]);
 
   const save = useMutation({
     mutationFn: (input: { baseVersion: number; document: BenchPlan; note: string }) =>
