@@ -14,6 +14,7 @@ import { moveBlend, scalingAt } from "../motion/shapes";
 import { compileReachBounds, type ReachBounds } from "../arm/motion-bounds";
 import { createToolSpeedScanner, type ToolSpeedScanner } from "../arm/tool-speed";
 import type { MoveContext } from "./types";
+import type { MovePath } from "./move-path";
 
 /** Everything the arm checks reuse across the moves of one plan. */
 export interface ArmState {
@@ -38,6 +39,10 @@ export interface ArmState {
   searchQ: Float64Array;
   searchQd: Float64Array;
   searchQdd: Float64Array;
+  /** Cached path terms of the moves checked with this arm (see move-path.ts). */
+  paths: Map<string, MovePath>;
+  /** Scratch for one channel's values at the path grid points. */
+  pathValues: Float64Array;
   /** What the state was built from; a plan object edited in place gets a fresh state. */
   source: readonly unknown[];
 }
@@ -49,13 +54,32 @@ function sourceOf(plan: Plan): unknown[] {
 
 const states = new WeakMap<Plan, ArmState>();
 
-/** The compiled arm model of a plan, or null when its arm has no chain (cached per plan object). */
+/**
+ * States by the content of what they were built from, so that a plan rebuilt after an edit (or
+ * copied to a worker) finds its compiled arm and cached paths again; the oldest are dropped.
+ */
+const statesByContent = new Map<string, ArmState>();
+const maxStatesByContent = 8;
+
+/**
+ * The compiled arm model of a plan, or null when its arm has no chain (cached per plan object, and
+ * by content across plan objects).
+ */
 export function stateOf(plan: Plan): ArmState | null {
   const cached = states.get(plan);
   const source = sourceOf(plan);
   if (cached && cached.source.every((v, i) => v === source[i])) return cached;
   const arm = plan.arm;
   if (!arm.chain) return null;
+  const contentKey = JSON.stringify(source);
+  const same = statesByContent.get(contentKey);
+  if (same) {
+    statesByContent.delete(contentKey);
+    statesByContent.set(contentKey, same);
+    same.source = source;
+    states.set(plan, same);
+    return same;
+  }
   const chain = compileChain(arm.chain, arm.joints.map((j) => j.type), plan.payload);
   const n = chain.jointCount;
   const collision = compileCollision(arm.chain);
@@ -78,9 +102,13 @@ export function stateOf(plan: Plan): ArmState | null {
     searchQ: new Float64Array(n),
     searchQd: new Float64Array(n),
     searchQdd: new Float64Array(n),
+    paths: new Map(),
+    pathValues: new Float64Array(0),
     source,
   };
   states.set(plan, state);
+  statesByContent.set(contentKey, state);
+  if (statesByContent.size > maxStatesByContent) statesByContent.delete(statesByContent.keys().next().value as string);
   return state;
 }
 

@@ -13,7 +13,9 @@
  */
 import type { Plan } from "../plan/document";
 import { defaultMoveCheckers, defaultPlanCheckers } from "./checkers";
-import { instantPeaks, safeDuration, timedPeaks } from "../motion/peaks";
+import { instantPeaks, timedPeaks } from "../motion/peaks";
+import { sampleRateOf, stateOf } from "./arm-state";
+import { moveSafeDuration } from "./safe-duration";
 import { verdictOf, type Finding, type MoveReport, type Report } from "./report";
 import { timelineOf } from "../motion/timeline";
 import type { CheckOptions, MoveContext } from "./types";
@@ -36,6 +38,8 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
   const findings: Finding[] = [];
   for (const checker of planCheckers) checker({ plan, arm, timeline }, findings);
 
+  const state = stateOf(plan);
+  const sampling = options.sampling ?? "path";
   const peakVelocity = new Float64Array(n);
   const peakAcceleration = new Float64Array(n);
   const moves: MoveReport[] = plan.moves.map((move, index) => {
@@ -59,10 +63,15 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       sampleRateHz: options.sampleRateHz,
       peakVelocity,
       peakAcceleration: instant ? null : peakAcceleration,
-      minSafe: safeDuration(shape, delta, arm.joints, 1),
-      minCalm: safeDuration(shape, delta, arm.joints, arm.cautionRatio),
+      sampling,
+      minSafe: { durationS: 0, joint: -1, check: null },
+      minCalm: { durationS: 0, joint: -1, check: null },
       figures: {},
     };
+    const rateHz = state ? sampleRateOf(state, context) : arm.controlRateHz;
+    const from = context.from;
+    context.minSafe = moveSafeDuration(plan, state, from, delta, shape, 1, rateHz);
+    context.minCalm = moveSafeDuration(plan, state, from, delta, shape, arm.cautionRatio, rateHz);
     const moveFindings: Finding[] = [];
     for (const checker of moveCheckers) checker(context, moveFindings);
     findings.push(...moveFindings);

@@ -7,6 +7,7 @@
 import type { Joint } from "../plan/arm";
 import { severityOf, type Finding, type Severity } from "./report";
 import { accelerationPeakTau, velocityPeakTau } from "../motion/shapes";
+import { noTimingFix } from "./timing-wording";
 import type { MoveChecker, MoveContext, PlanChecker } from "./types";
 import { formatDurationUp, formatPercent, formatQuantity, jointLabel, limitLevel, moveLabel } from "./wording";
 
@@ -47,14 +48,24 @@ export const checkGoalRange: MoveChecker = ({ arm, index, move, goal, startS }, 
   });
 };
 
-/** The sentence that says which duration fixes a speed or acceleration finding. */
+/** "at least 1.2 s", or "at least 1.2 s … " when a caution-free duration exists, for the fix sentences. */
+function calmClause(context: MoveContext): string {
+  const { minCalm, arm } = context;
+  return minCalm.durationS !== null ? `${formatDurationUp(minCalm.durationS)} keeps it below ${formatPercent(arm.cautionRatio)} of every limit` : "";
+}
+
+/**
+ * The sentence that says which duration fixes a speed or acceleration finding: the move's shortest
+ * safe duration over every timing-dependent check (the report's `minSafeDuration`), or why none does.
+ */
 function durationFix(severity: Severity, context: MoveContext): string {
-  const { move, minSafe, minCalm, arm } = context;
+  const { move, minSafe, arm } = context;
+  const calm = calmClause(context);
   if (severity === "fault") {
-    const calm = `${formatDurationUp(minCalm.durationS)} keeps it below ${formatPercent(arm.cautionRatio)} of every limit`;
-    return `Lengthen it to at least ${formatDurationUp(minSafe.durationS)} (the shortest safe duration for its ${move.shape} shape); ${calm}.`;
+    if (minSafe.durationS === null) return noTimingFix(arm, minSafe);
+    return `Lengthen it to at least ${formatDurationUp(minSafe.durationS)} (the shortest safe duration for its ${move.shape} shape)${calm ? `; ${calm}` : ""}.`;
   }
-  return `It will run, with little margin; ${formatDurationUp(minCalm.durationS)} keeps it below ${formatPercent(arm.cautionRatio)} of every limit.`;
+  return calm ? `It will run, with little margin; ${calm}.` : `It will run, with little margin.`;
 }
 
 /**
@@ -83,10 +94,13 @@ export const checkSpeed: MoveChecker = (context, out) => {
         `${formatQuantity(value, joint, "velocity")}, ${level}, which allows at most ${formatQuantity(stepLimit, joint, "step")} per period; ` +
         `${outcome}. ` +
         (severity === "fault"
-          ? `Give the move a duration of at least ${formatDurationUp(minSafe.durationS)} with its ${move.shape} shape, ` +
-            `or ${formatDurationUp(minCalm.durationS)} to stay below ${formatPercent(arm.cautionRatio)} of every limit.`
-          : `A duration of ${formatDurationUp(minCalm.durationS)} with its ${move.shape} shape keeps it below ` +
-            `${formatPercent(arm.cautionRatio)} of every limit.`);
+          ? minSafe.durationS === null
+            ? `Make the step smaller. ${noTimingFix(arm, minSafe)}`
+            : `Give the move a duration of at least ${formatDurationUp(minSafe.durationS)} with its ${move.shape} shape, or make the step smaller` +
+              (minCalm.durationS !== null ? `; ${formatDurationUp(minCalm.durationS)} stays below ${formatPercent(arm.cautionRatio)} of every limit.` : ".")
+          : minCalm.durationS !== null
+            ? `A duration of ${formatDurationUp(minCalm.durationS)} with its ${move.shape} shape keeps it below ${formatPercent(arm.cautionRatio)} of every limit.`
+            : `Make the step smaller for more margin.`);
     } else {
       const outcome = severity === "fault" ? "; the controller will refuse the move. " : ". ";
       message = `${label}: peak speed ${formatQuantity(value, joint, "velocity")} is ${level}${outcome}${durationFix(severity, context)}`;

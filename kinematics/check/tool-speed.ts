@@ -8,8 +8,10 @@ import { toolAccelerationBound } from "../arm/motion-bounds";
 import { scanToolSpeedBounded } from "../arm/tool-speed";
 import { severityOf } from "./report";
 import { sampleMove, sampleRateOf, stateOf } from "./arm-state";
+import { movePathPeaks } from "./effort";
+import { noTimingFix } from "./timing-wording";
 import type { MoveChecker } from "./types";
-import { formatDurationUp, formatNumber, limitLevel, moveLabel } from "./wording";
+import { formatDurationUp, formatNumber, formatPercent, limitLevel, moveLabel } from "./wording";
 
 /**
  * Move checker `tool-speed`: peak tool-point speed (m/s) against the plan's `maxToolSpeed`
@@ -28,6 +30,11 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     forwardKinematics(s.chain, context.goal, s.toolSpeed.buffers);
     peak = Math.hypot(t[12] - x0, t[13] - y0, t[14] - z0) * context.arm.controlRateHz;
     at = 0;
+  } else if (context.sampling === "path") {
+    // tool speed is |J(q)·D·s′|/T on the move's path: from the cached path terms
+    const { peaks } = movePathPeaks(s, context);
+    peak = peaks.toolSpeed;
+    at = peaks.toolTau * context.move.duration;
   } else {
     const count = sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
     // The tool speed changes at most accelBound m/s² (from the move's peak joint speeds and
@@ -46,7 +53,13 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
   const stepM = peak / context.arm.controlRateHz; // the tool's straight-line step in one control period
   const fix = context.instant
     ? `Give it a duration: covering ${formatNumber(stepM * 1000)} mm at ${formatNumber(limit)} m/s takes at least ${formatDurationUp(stepM / limit)}, and a rest-to-rest shape needs longer; check again.`
-    : `Lengthen it to at least ${formatDurationUp((context.move.duration * peak) / limit)} (tool speed falls in proportion to the duration).`;
+    : severity === "caution"
+      ? context.minCalm.durationS !== null
+        ? `It will run, with little margin; ${formatDurationUp(context.minCalm.durationS)} keeps it below ${formatPercent(context.arm.cautionRatio)} of every limit.`
+        : `It will run, with little margin.`
+      : context.minSafe.durationS !== null
+        ? `Lengthen it to at least ${formatDurationUp(context.minSafe.durationS)} (tool speed falls in proportion to the duration; that is the shortest safe duration for its ${context.move.shape} shape).`
+        : noTimingFix(context.arm, context.minSafe);
   out.push({
     kind: "tool-speed",
     severity,

@@ -8,7 +8,7 @@
 import type { Arm } from "../plan/arm";
 import type { Move, Plan } from "../plan/document";
 import type { Finding, MoveReport } from "./report";
-import type { ShortestDuration } from "../motion/shapes";
+import type { SafeDuration } from "./safe-duration";
 import type { Timeline } from "../motion/timeline";
 
 /** What a plan checker sees: the plan, its arm and its timeline. */
@@ -35,14 +35,19 @@ export interface MoveContext extends PlanContext {
   peakVelocity: Float64Array;
   /** Peak |q̈| per joint (rad/s² or m/s²); `null` for an instant move. */
   peakAcceleration: Float64Array | null;
-  /** Shortest duration (s) with the move's shape that has no speed or acceleration fault, and its joint. */
-  minSafe: ShortestDuration;
-  /** Shortest duration (s) with the move's shape that stays below the caution ratio of every limit. */
-  minCalm: ShortestDuration;
+  /**
+   * Shortest duration (s) with the move's shape at which no timing-dependent check (speed,
+   * acceleration, effort, tool speed) faults, and what sets it; `durationS` null when none passes.
+   */
+  minSafe: SafeDuration;
+  /** The same within the caution ratio of every limit (no timing-dependent caution either). */
+  minCalm: SafeDuration;
   /** Start time of the move, seconds from the plan's start. */
   startS: number;
   /** Rate (Hz) the sampled arm checks use; undefined means the arm's control rate. */
   sampleRateHz?: number;
+  /** How the sampled arm checks find their peaks (see {@link CheckOptions}). */
+  sampling: CheckSampling;
   /** Arm model only: extra per-move figures copied into the move's report. */
   figures?: Pick<MoveReport, "peakEffort" | "peakToolSpeed">;
 }
@@ -52,6 +57,14 @@ export type PlanChecker = (context: PlanContext, out: Finding[]) => void;
 
 /** A check run once per move; pushes its findings (with `move` = `context.index`) to `out`. */
 export type MoveChecker = (context: MoveContext, out: Finding[]) => void;
+
+/**
+ * How the arm-model checks find effort and tool-speed peaks: `path` (default) evaluates the move's
+ * cached path terms on a coarse grid and refines where a curvature bound cannot rule a higher value
+ * out; `control-rate` evaluates every control period (slower; the reference the path mode is tested
+ * against). Clearance is scanned at the control rate in both modes.
+ */
+export type CheckSampling = "path" | "control-rate";
 
 /** Which checkers {@link check} runs. */
 export interface CheckOptions {
@@ -64,5 +77,7 @@ export interface CheckOptions {
    * analytic and do not depend on it.
    */
   sampleRateHz?: number;
+  /** Default `path`; see {@link CheckSampling}. */
+  sampling?: CheckSampling;
 }
 

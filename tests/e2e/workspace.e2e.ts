@@ -147,7 +147,7 @@ describe("workspace", () => {
 
     await page.getByTestId("move-row-1").click({ position: { x: 20, y: 10 } });
     await page.getByRole("button", { name: /Set move 1 to its shortest safe duration/ }).click();
-    const safe = Math.ceil(at(d).moves[1].minSafeDuration * 1000 - 1e-9) / 1000;
+    const safe = Math.ceil(at(d).moves[1].minSafeDuration! * 1000 - 1e-9) / 1000;
     await expect(duration.inputValue()).resolves.toBe(safe.toFixed(3));
     expect(await speedFaults(page)).toBe(0);
     await expect(page.getByTestId("move-row-1").getAttribute("aria-label")).resolves.not.toBe("Move 1: fault");

@@ -52,7 +52,7 @@ function setup(plan: Plan) {
   const n = chain.jointCount;
   const collision = compileCollision(arm.chain!);
   const samples = samplePlan(plan);
-  const report = check(plan);
+  const report = check(plan, { sampling: "control-rate" });
   const move = report.moves[0];
   const peakQd = move.peakVelocity.map((v) => v ?? 0);
   const peakQdd = move.peakAcceleration.map((v) => v ?? 0);
@@ -139,7 +139,7 @@ describe("sample-skipping tool-speed scan", () => {
     );
   });
 
-  it("check() reports the full scan's peak tool speed and clearance depths (within 1e-9: check samples the move with its own arithmetic)", () => {
+  it("check() at the control rate reports the full scan's peak tool speed and clearance depths (within 1e-9: check samples the move with its own arithmetic)", () => {
     fc.assert(
       fc.property(planArb, (d) => {
         const plan = planOf(d);

@@ -67,10 +67,10 @@ describe("arm findings carry the time of their worst sample (seconds from the pl
 });
 
 describe("check option sampleRateHz", () => {
-  it("samples the arm checks at that rate: the joint figures are unchanged, the effort peak is a sampled value no higher than at the control rate", () => {
+  it("in control-rate sampling, samples the arm checks at that rate: the joint figures are unchanged, the effort peak is a sampled value no higher than at the control rate", () => {
     const p = plan(fixture("reach-out-heavy"));
-    const full = check(p);
-    const coarse = check(p, { sampleRateHz: 50 });
+    const full = check(p, { sampling: "control-rate" });
+    const coarse = check(p, { sampleRateHz: 50, sampling: "control-rate" });
     expect(coarse.moves.map((m) => m.peakVelocity)).toEqual(full.moves.map((m) => m.peakVelocity));
     const fine = full.moves[0].peakEffort![1]!, rough = coarse.moves[0].peakEffort![1]!;
     expect(rough).toBeLessThanOrEqual(fine * (1 + 1e-12));

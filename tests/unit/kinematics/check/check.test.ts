@@ -110,7 +110,7 @@ describe("check: findings", () => {
     const finding = report.findings[0];
     expect(finding).toMatchObject({ kind: "speed-over", severity: "fault", move: 0, joint: 0, limit: 2.9 });
     expectClose(finding.value, 3);
-    const minSafe = report.moves[0].minSafeDuration;
+    const minSafe = report.moves[0].minSafeDuration!;
     expectClose(minSafe, (1.5 * 2) / 2.9);
     expect(finding.message).toContain('joint "elbow"');
     expect(finding.message).toContain("3 rad/s");

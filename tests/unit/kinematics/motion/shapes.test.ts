@@ -84,7 +84,7 @@ describe("rest-to-rest shapes against published values", () => {
     const a = 8;
     const d = 1.5; // v²/a = 0.5 ≤ 1.5
     const report = check(planOf({ maxVelocity: v, maxAcceleration: a }, 0, d, 10, "trapezoid"));
-    expectClose(report.moves[0].minSafeDuration, d / v + v / a, 1e-12);
+    expectClose(report.moves[0].minSafeDuration!, d / v + v / a, 1e-12);
   });
 
   // Nagarajan (2016), eq. 10.28: when D < v²/a the profile is triangular, T = 2√(D/a), peak velocity √(a·D)
@@ -93,7 +93,7 @@ describe("rest-to-rest shapes against published values", () => {
     const a = 8;
     const d = 0.2; // v²/a = 0.5 > 0.2
     const plan = planOf({ maxVelocity: v, maxAcceleration: a }, 0, d, 10, "trapezoid");
-    const tMin = check(plan).moves[0].minSafeDuration;
+    const tMin = check(plan).moves[0].minSafeDuration!;
     expectClose(tMin, 2 * Math.sqrt(d / a), 1e-12);
     const atMin = check({ ...plan, moves: [{ ...plan.moves[0], duration: tMin }] });
     expectClose(atMin.moves[0].peakVelocity[0], Math.sqrt(a * d), 1e-9);

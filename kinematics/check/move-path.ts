@@ -1,0 +1,330 @@
+/**
+ * A move's path apart from its timing. Along a fixed path q(τ) = q₀ + s(τ)·D, τ = t/T, the joint
+ * velocity is D·s′/T and the acceleration D·s″/T², so the joint effort of a rigid chain splits
+ * exactly by how it scales with the duration T:
+ *
+ *   τⱼ(τ, T) = Mⱼ(τ)/T² + F_vⱼ·Dⱼ·s′(τ)/T + gⱼ(τ) + F_cⱼ·sgn(Dⱼ·s′(τ)/T)
+ *
+ * with Mⱼ the inertial and Coriolis terms of the path at T = 1 and gⱼ gravity (time scaling of the
+ * manipulator dynamics: Hollerbach, "Dynamic scaling of manipulator trajectories", ASME J. Dynamic
+ * Systems, Measurement and Control, 1984 — memory; derived here from the Newton–Euler equations,
+ * which are linear in q̈ and quadratic in q̇). The tool-point speed is |J(q(τ))·D·s′(τ)|/T, exactly
+ * 1/T on the path (Siciliano et al. 2009, §3.1). The path terms are computed once per path (start,
+ * displacement, shape and blend, under one compiled arm and payload) and cached; a change of
+ * duration then costs a few multiply-adds per path point.
+ *
+ * Peaks are those of the control samples, as in the control-rate check, but only the samples that
+ * could hold a peak are evaluated: a coarse grid of path points bounds each interval between them
+ * with a curvature estimate (divided differences, safety factor 4), and only intervals whose bound
+ * reaches the peak found so far are split down to their samples. The evaluated points are memoised
+ * in the path.
+ *
+ * @module
+ */
+import { gravityEffort, inverseDynamics } from "../arm/dynamics";
+import { toolSpeedAt } from "../arm/tool-speed";
+import { scalingAt } from "../motion/shapes";
+import type { ArmState } from "./arm-state";
+
+/** Intervals of the coarse path grid (the trapezoid's blend ends are added as extra points). */
+export const pathGridIntervals = 64;
+
+/** Safety factor on the curvature estimate of the refinement bound. */
+const curvatureSafety = 4;
+
+/** Deepest bisection of one grid interval (2⁻⁴⁰ of it: far below any control period). */
+const maxRefineDepth = 40;
+
+/** Path terms of one move, per evaluated point (stride `2n + 2`: Mⱼ, gⱼ, s′, tool speed at T = 1). */
+export interface MovePath {
+  /** Chain joint count. */
+  readonly n: number;
+  /** Grid τ values, ascending, from 0 to 1. */
+  readonly tau: Float64Array;
+  /** Terms at the grid points, stride `2n + 2`. */
+  readonly grid: Float64Array;
+  /** Terms at refinement points, by τ. */
+  readonly extra: Map<number, Float64Array>;
+  /** Displacement of the chain joints (rad or m). */
+  readonly delta: Float64Array;
+  /** Start pose of the chain joints. */
+  readonly from: Float64Array;
+  readonly shape: number;
+  readonly blend: number;
+}
+
+/** Largest number of cached paths per compiled arm (oldest dropped first). */
+const maxCachedPaths = 512;
+
+/** Writes the path terms at τ into `out` at `offset`. */
+function evaluatePoint(s: ArmState, path: MovePath, tau: number, out: Float64Array, offset: number): void {
+  const { n } = path;
+  scalingAt(path.shape, path.blend, tau, s.scale);
+  const q = s.searchQ, qd = s.searchQd, qdd = s.searchQdd, tmp = s.tau;
+  for (let i = 0; i < n; i++) {
+    q[i] = path.from[i] + s.scale[0] * path.delta[i];
+    qd[i] = path.delta[i] * s.scale[1]; // q̇ at T = 1
+    qdd[i] = path.delta[i] * s.scale[2];
+  }
+  inverseDynamics(s.chain, s.dynamics, q, qd, qdd, tmp, 0, 0, false, false);
+  for (let i = 0; i < n; i++) out[offset + i] = tmp[i];
+  gravityEffort(s.chain, s.dynamics, q, tmp);
+  for (let i = 0; i < n; i++) out[offset + n + i] = tmp[i];
+  out[offset + 2 * n] = s.scale[1];
+  out[offset + 2 * n + 1] = toolSpeedAt(s.toolSpeed, q, qd);
+}
+
+/** The grid τ values of a path: uniform, plus the trapezoid's blend ends where they fall between. */
+function gridOf(blend: number): Float64Array {
+  const points: number[] = [];
+  for (let k = 0; k <= pathGridIntervals; k++) points.push(k / pathGridIntervals);
+  // the trapezoid's acceleration jumps at the blend ends: both sides of each are path points
+  if (blend > 0 && blend <= 0.5) points.push(blend * (1 - 1e-9), blend, 1 - blend, (1 - blend) * (1 + 1e-9));
+  points.sort((a, b) => a - b);
+  const unique = points.filter((v, i) => i === 0 || v - points[i - 1] > 1e-13);
+  return Float64Array.from(unique);
+}
+
+/**
+ * The path terms of a move (chain joints of `from` and `delta`), computed once and cached in the
+ * arm state by start, displacement, shape and blend.
+ */
+export function movePath(s: ArmState, from: ArrayLike<number>, delta: ArrayLike<number>, shape: number, blend: number): MovePath {
+  const n = s.n;
+  let key = `${shape}|${blend}`;
+  for (let i = 0; i < n; i++) key += `|${from[i]}|${delta[i]}`;
+  const cached = s.paths.get(key);
+  if (cached) {
+    s.paths.delete(key); // most recently used last
+    s.paths.set(key, cached);
+    return cached;
+  }
+  const tau = gridOf(blend);
+  const stride = 2 * n + 2;
+  const path: MovePath = {
+    n,
+    tau,
+    grid: new Float64Array(tau.length * stride),
+    extra: new Map(),
+    delta: Float64Array.from({ length: n }, (_, i) => delta[i]),
+    from: Float64Array.from({ length: n }, (_, i) => from[i]),
+    shape,
+    blend,
+  };
+  for (let k = 0; k < tau.length; k++) evaluatePoint(s, path, tau[k], path.grid, k * stride);
+  s.paths.set(key, path);
+  if (s.paths.size > maxCachedPaths) s.paths.delete(s.paths.keys().next().value as string);
+  return path;
+}
+
+/** The path terms at a refinement point τ (memoised). */
+function termsAt(s: ArmState, path: MovePath, tau: number): Float64Array {
+  let terms = path.extra.get(tau);
+  if (!terms) {
+    terms = new Float64Array(2 * path.n + 2);
+    evaluatePoint(s, path, tau, terms, 0);
+    path.extra.set(tau, terms);
+  }
+  return terms;
+}
+
+/**
+ * |effort| of chain joint j (N·m or N) at duration T from path terms at `offset`:
+ * |Mⱼ/T² + F_v·Dⱼ·s′/T + gⱼ + F_c·tanh(Dⱼ·s′/(T·ε))| (the decomposition of the module comment, with
+ * the smoothed sign of `frictionEffort`).
+ */
+function effortOf(s: ArmState, path: MovePath, terms: Float64Array, offset: number, j: number, T: number): number {
+  const n = path.n;
+  const x = 1 / T;
+  const qd = path.delta[j] * terms[offset + 2 * n] * x;
+  const d = s.dynamics;
+  return Math.abs(terms[offset + j] * x * x + d.viscous[j] * qd + terms[offset + n + j] + d.coulomb[j] * Math.tanh(qd / d.signEpsilon));
+}
+
+/** Channel c of a path point at duration T: c < n the effort of joint c, c = n the tool speed (m/s). */
+function channelOf(s: ArmState, path: MovePath, terms: Float64Array, offset: number, c: number, T: number): number {
+  if (c < path.n) return effortOf(s, path, terms, offset, c, T);
+  return terms[offset + 2 * path.n + 1] / T;
+}
+
+/** Peaks of a path at one duration: per chain joint the largest |effort|, and the tool speed. */
+export interface PathPeaks {
+  /** Largest |τⱼ| per chain joint (N·m or N). */
+  effort: Float64Array;
+  /** τ (0..1) of each effort peak. */
+  effortTau: Float64Array;
+  /** Largest tool-point speed (m/s). */
+  toolSpeed: number;
+  /** τ of the tool-speed peak. */
+  toolTau: number;
+}
+
+/** Allocates a {@link PathPeaks} for n chain joints. */
+export function createPathPeaks(n: number): PathPeaks {
+  return { effort: new Float64Array(n), effortTau: new Float64Array(n), toolSpeed: 0, toolTau: 0 };
+}
+
+/** Largest number of memoised refinement points per path before the memo is cleared. */
+const maxExtraPoints = 8192;
+
+/** Control samples an interval may hold before it is evaluated sample by sample rather than split. */
+const samplesPerLeaf = 4;
+
+/**
+ * Peak |effort| of every chain joint and peak tool speed along the path at duration `durationS`
+ * (> 0), at the control samples t = k/rateHz (and the end) that the control-rate check evaluates.
+ * The grid values only bound: an interval between two grid points is skipped when its curvature
+ * bound lies below the peak found so far, else it is split until it holds a few samples, which
+ * are evaluated. Deterministic for a given path, duration and rate (the memo only saves work).
+ * `visited`, when given, receives the τ of every evaluated sample.
+ */
+export function pathPeaks(s: ArmState, path: MovePath, durationS: number, rateHz: number, out: PathPeaks, visited?: number[]): PathPeaks {
+  const n = path.n;
+  const stride = 2 * n + 2;
+  const { tau, grid } = path;
+  const count = tau.length;
+  if (path.extra.size > maxExtraPoints) path.extra.clear();
+  const perTau = rateHz * durationS; // control samples per unit τ
+  const last = Math.floor(perTau + 1e-9) + 1; // the sample index of the end (t = T), as in sampleMove
+  const sampleTau = (k: number) => (k >= last ? 1 : Math.min(k / perTau, 1));
+  const values = s.pathValues.length >= count ? s.pathValues : (s.pathValues = new Float64Array(count));
+  for (let c = 0; c <= n; c++) {
+    let gridMax = 0;
+    for (let k = 0; k < count; k++) {
+      const v = channelOf(s, path, grid, k * stride, c, durationS);
+      values[k] = v;
+      if (v > values[gridMax]) gridMax = k;
+    }
+    const best = { peak: -1, tau: 0 };
+    const evaluate = (k: number) => {
+      const t = sampleTau(k);
+      visited?.push(t);
+      const v = channelOf(s, path, termsAt(s, path, t), 0, c, durationS);
+      if (v > best.peak || (v === best.peak && t < best.tau)) {
+        best.peak = v;
+        best.tau = t;
+      }
+    };
+    // seed with the ends and the samples around the largest grid value
+    evaluate(0);
+    evaluate(last);
+    const around = Math.floor(tau[gridMax] * perTau);
+    for (let k = Math.max(0, around - 1); k <= Math.min(last, around + 2); k++) evaluate(k);
+    // Curvature estimate at each grid point from divided differences (0 at the ends).
+    const curvature = (k: number) => {
+      if (k <= 0 || k >= count - 1) return 0;
+      const h0 = tau[k] - tau[k - 1], h1 = tau[k + 1] - tau[k];
+      return Math.abs((2 * ((values[k + 1] - values[k]) / h1 - (values[k] - values[k - 1]) / h0)) / (h0 + h1));
+    };
+    const visit = (a: number, va: number, b: number, vb: number, K: number, depth: number) => {
+      const h = b - a;
+      const bound = Math.max(va, vb) + (curvatureSafety * K * h * h) / 8;
+      if (bound <= best.peak * (1 + 1e-12) + 1e-300) return;
+      const k0 = Math.ceil(a * perTau - 1e-9), k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
+      if (k1 < k0) return;
+      if (k1 - k0 < samplesPerLeaf || depth >= maxRefineDepth) {
+        for (let k = k0; k <= k1; k++) evaluate(k);
+        return;
+      }
+      const m = (a + b) / 2;
+      const vm = channelOf(s, path, termsAt(s, path, m), 0, c, durationS);
+      // second divided difference over the two halves, the parent's estimate shrunk with h² as a floor
+      const Km = Math.max(Math.abs((va - 2 * vm + vb) / ((h / 2) * (h / 2))), K / 4);
+      visit(a, va, m, vm, Km, depth + 1);
+      visit(m, vm, b, vb, Km, depth + 1);
+    };
+    for (let k = 0; k + 1 < count; k++) {
+      const K = Math.max(curvature(k - 1), curvature(k), curvature(k + 1), curvature(k + 2));
+      visit(tau[k], values[k], tau[k + 1], values[k + 1], K, 0);
+    }
+    if (c < n) {
+      out.effort[c] = best.peak;
+      out.effortTau[c] = best.tau;
+    } else {
+      out.toolSpeed = best.peak;
+      out.toolTau = best.tau;
+    }
+  }
+  return out;
+}
+
+/** The largest |gⱼ| (gravity alone, N·m or N) over the grid points of the path, and where (τ). */
+export function pathGravityPeak(path: MovePath, j: number): { value: number; tau: number } {
+  const n = path.n, stride = 2 * n + 2;
+  let value = 0, tau = 0;
+  for (let k = 0; k < path.tau.length; k++) {
+    const g = Math.abs(path.grid[k * stride + n + j]);
+    if (g > value) {
+      value = g;
+      tau = path.tau[k];
+    }
+  }
+  return { value, tau };
+}
+
+/** Calls `visit(terms, offset)` for every grid point and every refinement point τ in `extra`. */
+function forEachPoint(s: ArmState, path: MovePath, extra: readonly number[], visit: (terms: Float64Array, offset: number) => void): void {
+  const stride = 2 * path.n + 2;
+  for (let k = 0; k < path.tau.length; k++) visit(path.grid, k * stride);
+  for (const t of extra) visit(termsAt(s, path, t), 0);
+}
+
+/**
+ * The least duration (s) at which joint j's effort at every grid point and at the refinement
+ * points `extra` (τ) is within `limit`, solving per point the quadratic in x = 1/T:
+ * M·x² + F_v·D·s′·x + g + F_c·sgn = ±limit (the smoothed Coulomb sign taken at `atDurationS`).
+ * Infinity when gravity alone exceeds the limit at one of those points.
+ */
+export function shortestEffortDuration(s: ArmState, path: MovePath, j: number, limit: number, atDurationS: number, extra: readonly number[] = []): number {
+  const n = path.n;
+  const fv = s.dynamics.viscous[j], fc = s.dynamics.coulomb[j], eps = s.dynamics.signEpsilon;
+  const D = path.delta[j];
+  let xBest = Infinity;
+  forEachPoint(s, path, extra, (terms, o) => {
+    const sp = terms[o + 2 * n];
+    const a = terms[o + j];
+    const b = fv * D * sp;
+    const g = terms[o + n + j];
+    if (Math.abs(g) > limit) {
+      xBest = 0;
+      return;
+    }
+    const c = g + fc * Math.tanh((D * sp) / (atDurationS * eps));
+    // with Coulomb friction at this duration already over the limit, only a longer move (weaker smoothed sign) can help
+    if (Math.abs(c) > limit) {
+      xBest = Math.min(xBest, 0.5 / atDurationS);
+      return;
+    }
+    const x = Math.min(firstRoot(a, b, c - limit), firstRoot(a, b, c + limit));
+    if (x < xBest) xBest = x;
+  });
+  return xBest === 0 ? Infinity : xBest === Infinity ? 0 : 1 / xBest;
+}
+
+/** The least duration (s) at which the tool speed at the grid and `extra` points is within `limit` (tool speed ∝ 1/T). */
+export function shortestToolDuration(s: ArmState, path: MovePath, limit: number, extra: readonly number[] = []): number {
+  const n = path.n;
+  let u = 0;
+  forEachPoint(s, path, extra, (terms, o) => {
+    u = Math.max(u, terms[o + 2 * n + 1]);
+  });
+  return u / limit;
+}
+
+/** The smallest x > 0 with a·x² + b·x + c = 0, or Infinity. */
+function firstRoot(a: number, b: number, c: number): number {
+  if (Math.abs(a) < 1e-300) {
+    const x = b !== 0 ? -c / b : Infinity;
+    return x > 0 ? x : Infinity;
+  }
+  const disc = b * b - 4 * a * c;
+  if (disc < 0) return Infinity;
+  const r = Math.sqrt(disc);
+  // numerically stable pair of roots (Press et al., Numerical Recipes, §5.6)
+  const qv = -0.5 * (b + (b >= 0 ? r : -r));
+  const x1 = qv / a, x2 = qv !== 0 ? c / qv : Infinity;
+  let best = Infinity;
+  if (x1 > 0 && x1 < best) best = x1;
+  if (x2 > 0 && x2 < best) best = x2;
+  return best;
+}

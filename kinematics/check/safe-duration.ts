@@ -1,0 +1,161 @@
+/**
+ * The shortest safe duration of a move: the least duration for its shape at which none of the
+ * timing-dependent checks faults (speed, acceleration, effort with friction, tool speed), or `null`
+ * when one faults at every duration (gravity alone above an effort limit somewhere on the path).
+ *
+ * Speed and acceleration come from the shapes' closed forms; effort and tool speed from the move's
+ * path terms (move-path.ts): per path point the effort is a quadratic in 1/T and the tool speed is
+ * linear in 1/T, so each gives its least duration in closed form. The candidate is then confirmed
+ * with the same peak evaluation the check uses and raised until it passes.
+ *
+ * @module
+ */
+import type { Plan } from "../plan/document";
+import { limitTolerance } from "./report";
+import { moveBlend } from "../motion/shapes";
+import { safeDuration, timedPeaks, withinLimits } from "../motion/peaks";
+import type { ArmState } from "./arm-state";
+import { createPathPeaks, movePath, pathGravityPeak, pathPeaks, shortestEffortDuration, shortestToolDuration } from "./move-path";
+
+/** Which timing-dependent check sets a move's shortest safe duration. */
+export type TimingCheck = "speed" | "acceleration" | "effort" | "tool-speed";
+
+/** A move's shortest safe duration and what sets it. */
+export interface SafeDuration {
+  /** Shortest duration (s); 0 for a move where nothing moves and nothing faults; `null` when no duration passes. */
+  durationS: number | null;
+  /** The joint whose limit sets it (or, when `durationS` is null, the joint that faults at every duration); −1 for none or the tool point. */
+  joint: number;
+  /** The check that sets it, or that faults at every duration; `null` when nothing limits the move. */
+  check: TimingCheck | null;
+  /** When `durationS` is null: the smallest gravity-only effort (N·m or N) on the path that exceeds the limit. */
+  gravityEffort?: number;
+}
+
+/** Confirmation rounds before giving up on a closed-form candidate (each raises it). */
+const maxRounds = 60;
+
+/** Longest duration considered (s): beyond it the move counts as unfixable by timing. */
+export const longestTimingFixS = 1e7;
+
+/**
+ * The shortest safe duration of one move from `from` (all joints) by `delta` with shape `shape`,
+ * within `limitScale` × every limit (1 = the fault limits, the arm's cautionRatio = the caution
+ * threshold). `state` is the compiled arm model (null without a chain: speed and acceleration
+ * only); `rateHz` the rate the sampled checks use (the refinement stops at one of its periods).
+ */
+export function moveSafeDuration(
+  plan: Plan,
+  state: ArmState | null,
+  from: ArrayLike<number>,
+  delta: ArrayLike<number>,
+  shape: number,
+  limitScale: number,
+  rateHz: number,
+): SafeDuration {
+  const joints = plan.arm.joints;
+  const jointOnly = safeDuration(shape, delta, joints, limitScale);
+  const limiting = (T: number): TimingCheck | null => {
+    if (jointOnly.joint < 0 || !(T > 0)) return null;
+    const v = new Float64Array(joints.length), a = new Float64Array(joints.length);
+    timedPeaks(shape, moveBlend(shape, delta, T, joints), delta, T, v, a);
+    const j = jointOnly.joint, maxA = joints[j].maxAcceleration;
+    return maxA !== undefined && a[j] / maxA > v[j] / joints[j].maxVelocity ? "acceleration" : "speed";
+  };
+  if (!state) return { durationS: jointOnly.durationS, joint: jointOnly.joint, check: limiting(jointOnly.durationS) };
+
+  const n = state.n;
+  const toolLimit = plan.maxToolSpeed === undefined ? undefined : plan.maxToolSpeed * limitScale;
+  const effortLimit = (j: number) => {
+    const e = joints[j].maxEffort;
+    return e === undefined ? undefined : e * limitScale;
+  };
+  const pathAt = (T: number) => movePath(state, from, delta, shape, moveBlend(shape, delta, T > 0 ? T : 1, joints));
+
+  // Gravity alone over a limit anywhere on the path: no duration helps (the path does not depend on T).
+  const first = pathAt(jointOnly.durationS);
+  for (let j = 0; j < n; j++) {
+    const limit = effortLimit(j);
+    if (limit === undefined) continue;
+    const g = pathGravityPeak(first, j);
+    if (g.value > limit * (1 + limitTolerance)) return { durationS: null, joint: j, check: "effort", gravityEffort: g.value };
+  }
+  let moving = false;
+  for (let j = 0; j < joints.length; j++) if (delta[j] !== 0) moving = true;
+  if (!moving) return { durationS: 0, joint: -1, check: null };
+
+  const peaks = createPathPeaks(n);
+  // the refinement points of the last confirmation: the next closed form includes them
+  const visited: number[] = [];
+  const v = new Float64Array(joints.length), a = new Float64Array(joints.length);
+  /** What faults at T: null when nothing does. */
+  const failing = (T: number): { check: TimingCheck; joint: number } | null => {
+    if (!withinLimits(shape, delta, T, joints, limitScale, v, a)) return { check: limiting(T) ?? "speed", joint: jointOnly.joint };
+    visited.length = 0;
+    pathPeaks(state, pathAt(T), T, rateHz, peaks, visited);
+    for (let j = 0; j < n; j++) {
+      const limit = effortLimit(j);
+      if (limit !== undefined && peaks.effort[j] > limit * (1 + limitTolerance)) return { check: "effort", joint: j };
+    }
+    if (toolLimit !== undefined && peaks.toolSpeed > toolLimit * (1 + limitTolerance)) return { check: "tool-speed", joint: -1 };
+    return null;
+  };
+
+  /**
+   * The closed form bounds over the path grid, which lies between the control samples the check
+   * evaluates; lower a passing duration by bisection to where the samples start to fault.
+   */
+  const lowest = (passing: number): number => {
+    let hi = passing;
+    let lo = Math.max(jointOnly.durationS, hi * (1 - 1 / 16));
+    // step down while shorter still passes (a trapezoid's blend changes the path with T)
+    while (lo < hi && !failing(lo)) {
+      hi = lo;
+      if (lo <= jointOnly.durationS) return hi;
+      lo = Math.max(jointOnly.durationS, lo * (1 - 1 / 16));
+    }
+    if (!(lo < hi)) return hi;
+    for (let it = 0; it < 14; it++) {
+      const mid = (lo + hi) / 2;
+      if (failing(mid)) lo = mid;
+      else hi = mid;
+    }
+    return hi;
+  };
+
+  let T = jointOnly.durationS;
+  let lastBlend = NaN;
+  let setBy: { check: TimingCheck | null; joint: number } = { check: limiting(T), joint: jointOnly.joint };
+  for (let round = 0; round < maxRounds; round++) {
+    const path = pathAt(T);
+    if (path.blend !== lastBlend) visited.length = 0; // refinement points of another path
+    lastBlend = path.blend;
+    let candidate = T;
+    for (let j = 0; j < n; j++) {
+      const limit = effortLimit(j);
+      if (limit === undefined) continue;
+      const te = shortestEffortDuration(state, path, j, limit, T, visited);
+      if (!Number.isFinite(te)) return { durationS: null, joint: j, check: "effort", gravityEffort: pathGravityPeak(path, j).value };
+      if (te > candidate) {
+        candidate = te;
+        setBy = { check: "effort", joint: j };
+      }
+    }
+    if (toolLimit !== undefined) {
+      const tt = shortestToolDuration(state, path, toolLimit, visited);
+      if (tt > candidate) {
+        candidate = tt;
+        setBy = { check: "tool-speed", joint: -1 };
+      }
+    }
+    if (candidate > longestTimingFixS) return { durationS: null, joint: setBy.joint, check: setBy.check };
+    const fault = failing(candidate);
+    if (!fault) return { durationS: lowest(candidate), joint: setBy.joint, check: setBy.check };
+    setBy = fault;
+    // the next closed form includes the points this confirmation refined, and never goes back
+    T = Math.max(candidate * (1 + 1e-9), candidate + Number.EPSILON);
+  }
+  // No convergence (a trapezoid whose blend keeps moving the path): double until it passes.
+  for (let k = 0; k < 64 && T <= longestTimingFixS; k++, T *= 2) if (!failing(T)) return { durationS: T, joint: setBy.joint, check: setBy.check };
+  return { durationS: null, joint: setBy.joint, check: setBy.check };
+}
