@@ -6,7 +6,7 @@
  * line per problem on stderr) or a usage error.
  */
 import { readFileSync, writeFileSync } from "node:fs";
-import { check, describeRecordingProblem, formatProblem, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type PathSegment, type Report, type Verdict, alignRecording, repairStream, streamCheck, validateRecording, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
+import { check, describeRecordingProblem, formatProblem, formatRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type PathSegment, type Report, type Verdict, repairStream, scanRecording, streamCheck, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands";
 import { auditUsage, isAuditCommand, runAuditCommand } from "./audit-command";
 import { exportFormatOf, hasExportBlock, recordedVerdict, verifyCsvChecksum, verifyJsonChecksum } from "./export-checksum";
@@ -243,14 +243,9 @@ function runScan(args: Args, io: Io): number {
   if (!file || rest.length > 0) throw new InputError(["scan: needs exactly one recording file (CSV)"]);
   if (!args.arm) throw new InputError(["--arm: is required (a JSON file with the arm object of a plan document)"]);
   const arm = readArm(args.arm);
-  const parsed = parseRecordingCsv(readInput(file));
-  if (!parsed.recording) throw new InputError(parsed.problems.map(describeRecordingProblem));
-  const aligned = alignRecording(arm, parsed.recording);
-  if (!aligned.recording) throw new InputError(aligned.problems.map(describeRecordingProblem));
-  const recording = aligned.recording;
-  const problems = validateRecording(arm, recording);
-  if (problems.length > 0) throw new InputError(problems.map(describeRecordingProblem));
-  const report = streamCheck(arm, recording);
+  const scanned = scanRecording(arm, readInput(file));
+  if ("problems" in scanned) throw new InputError(scanned.problems.map(describeRecordingProblem));
+  const { recording, report } = scanned;
 
   let repairText = "";
   let repairJson: Record<string, unknown> | undefined;

@@ -8,7 +8,7 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip, type VerdictName } from "@/components/ui/verdict-chip";
-import { check, parseRecordingCsv, type Arm, planFromPoses, shortestSafeDurations, alignRecording, repairStream, streamCheck, validateRecording, type Recording, type RecordingProblem, type StreamReport } from "@/kinematics";
+import { check, describeRecordingProblem, type Arm, planFromPoses, shortestSafeDurations, repairStream, scanRecording, streamCheck, type Recording, type StreamReport } from "@/kinematics";
 import { api, uploadRecording, type RecordingDto } from "@/lib/client/api-client";
 import { queryKeys } from "@/lib/client/query-keys";
 import { formatJointValue, type AngleUnit } from "@/lib/shared/units";
@@ -38,11 +38,6 @@ interface Repaired {
 
 const kindWords: Record<string, string> = { range: "Outside travel", jump: "Jump too far", "speed-over": "Speed over limit" };
 
-function describeProblem(p: RecordingProblem): string {
-  const where = p.row === -1 ? "header" : p.row === -2 ? "" : `row ${p.row + 1}`;
-  return [where, p.column ? `column "${p.column}"` : "", p.message].filter(Boolean).join(", ");
-}
-
 /**
  * A plan from a (repaired) recording: waypoints every `spacingS`, each move lasting as long as the
  * recording took, lengthened to its shortest safe duration where rest-to-rest needs more time.
@@ -54,23 +49,23 @@ function planFromRecording(arm: Arm, rec: Recording, spacingS: number) {
   const goals = idx.slice(1).map(poseAt);
   const durations = idx.slice(1).map((k, i) => rec.timeS[k] - rec.timeS[idx[i]]);
   const draft = planFromPoses(arm, poseAt(idx[0]), goals, durations, "quintic");
+  // null: no duration fixes the move; it keeps its duration and the plan's check shows the fault
   const safe = shortestSafeDurations(draft);
-  const lengthened = draft.moves.filter((m, i) => safe[i] > m.duration).length;
-  const plan = { ...draft, moves: draft.moves.map((m, i) => (safe[i] > m.duration ? { ...m, duration: Math.ceil(safe[i] * 1000) / 1000 } : m)) };
+  const longer = (i: number, duration: number): number | null => {
+    const d = safe[i];
+    return d !== null && d > duration ? Math.ceil(d * 1000) / 1000 : null;
+  };
+  const lengthened = draft.moves.filter((m, i) => longer(i, m.duration) !== null).length;
+  const plan = { ...draft, moves: draft.moves.map((m, i) => { const d = longer(i, m.duration); return d === null ? m : { ...m, duration: d }; }) };
   return { plan, lengthened, report: check(plan) };
 }
 
-/** Parses, aligns, validates and stream-checks a recording's bytes against an arm. */
+/** The engine's recording scan, timed for the page. */
 function analyseRecording(arm: Arm, bytes: Uint8Array): { problems: string[] } | { recording: Recording; report: StreamReport; checkMs: number } {
   const t0 = performance.now();
-  const parsed = parseRecordingCsv(bytes);
-  if (!parsed.recording) return { problems: parsed.problems.map(describeProblem) };
-  const aligned = alignRecording(arm, parsed.recording);
-  if (!aligned.recording) return { problems: aligned.problems.map(describeProblem) };
-  const invalid = validateRecording(arm, aligned.recording);
-  if (invalid.length > 0) return { problems: invalid.map(describeProblem) };
-  const report = streamCheck(arm, aligned.recording);
-  return { recording: aligned.recording, report, checkMs: performance.now() - t0 };
+  const scanned = scanRecording(arm, bytes);
+  if ("problems" in scanned) return { problems: scanned.problems.map(describeRecordingProblem) };
+  return { ...scanned, checkMs: performance.now() - t0 };
 }
 
 /**

@@ -10,7 +10,7 @@
  *
  * @module
  */
-import { moreProblemsRow, type Recording, type RecordingProblem } from "./stream";
+import { headerLine, problemList, type Recording, type RecordingProblem } from "./recording";
 
 /** Result of {@link parseRecordingCsv}: the recording, or `null` with the problems that refused it. */
 export interface CsvResult {
@@ -56,13 +56,8 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
     copy[bytes.length] = LF;
     bytes = copy;
   }
-  const maxProblems = options.maxProblems ?? 20;
-  const problems: RecordingProblem[] = [];
-  let extra = 0;
-  const add = (row: number, column: string | null, message: string) => {
-    if (problems.length < maxProblems) problems.push({ row, column, message });
-    else extra++;
-  };
+  const list = problemList(options.maxProblems ?? 20);
+  const add = (line: number, column: string | null, message: string) => list.add({ line, column, message });
   const length = bytes.length;
   let pos = 0;
   if (length >= 3 && bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) pos = 3; // UTF-8 byte-order mark
@@ -74,12 +69,12 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
     .split(",")
     .map((name) => name.trim());
   if (header.length < 2 || header[0] !== "t") {
-    add(-1, null, 'header must be "t" followed by one column per joint, e.g. "t,base,shoulder"');
-    return { recording: null, problems };
+    add(headerLine, null, 'header must be "t" followed by one column per joint, e.g. "t,base,shoulder"');
+    return { recording: null, problems: list.done() };
   }
   const names = header.slice(1);
   names.forEach((name, j) => {
-    if (name === "") add(-1, null, `column ${j + 2} has no name`);
+    if (name === "") add(headerLine, null, `column ${j + 2} has no name`);
   });
   const n = names.length;
   const columns = n + 1;
@@ -93,17 +88,20 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
   let position = new Float64Array(capacity * n);
 
   let row = 0;
-  let trailingBlank = false;
+  // the file's line of the current row: the header is line 1; blank lines count too
+  let line = headerLine + 1;
+  let blankLine = 0;
   while (pos < length) {
     // a blank line ends the data; only blank lines may follow it
     if (bytes[pos] === LF || (bytes[pos] === CR && (pos + 1 >= length || bytes[pos + 1] === LF))) {
-      trailingBlank = true;
+      if (blankLine === 0) blankLine = line;
+      line++;
       pos += bytes[pos] === CR ? 2 : 1;
       continue;
     }
-    if (trailingBlank) {
-      add(row, null, "blank line inside the data (blank lines are allowed only at the end)");
-      trailingBlank = false;
+    if (blankLine !== 0) {
+      add(blankLine, null, "blank line inside the data (blank lines are allowed only at the end)");
+      blankLine = 0;
     }
     if (row === capacity) {
       capacity *= 2;
@@ -186,7 +184,7 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
       if (!valid || !Number.isFinite(value)) {
         if (!bad) {
           const text = textDecoder.decode(bytes.subarray(fieldStart, pos)).trim();
-          add(row, col === 0 ? "t" : (names[col - 1] ?? null), `not a number (${text === "" ? "empty" : JSON.stringify(text)})`);
+          add(line, col === 0 ? "t" : (names[col - 1] ?? null), `not a number (${text === "" ? "empty" : JSON.stringify(text)})`);
         }
         bad = true;
       }
@@ -202,10 +200,11 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
       if (pos < length && bytes[pos] === LF) pos++;
       break;
     }
-    if (col !== columns) add(row, null, `has ${col} values; the header has ${columns} columns`);
+    if (col !== columns) add(line, null, `has ${col} values; the header has ${columns} columns`);
     row++;
+    line++;
   }
-  if (extra > 0) problems.push({ row: moreProblemsRow, column: null, message: `and ${extra} more problems` });
+  const problems = list.done();
   if (problems.length > 0) return { recording: null, problems };
   return {
     recording: { names, jointCount: n, count: row, timeS: timeS.subarray(0, row), position: position.subarray(0, row * n) },
@@ -233,10 +232,9 @@ export function formatRecordingCsv(recording: Recording): string {
   return chunks.join("");
 }
 
-/** A recording problem as one line: `line 19, column "elbow": not a number ("abc")` (line = row + 2). */
+/** A recording problem as one line: `line 19, column "elbow": not a number ("abc")`. */
 export function describeRecordingProblem(problem: RecordingProblem): string {
-  if (problem.row === moreProblemsRow) return `(more): ${problem.message}`;
-  const where = problem.row < 0 ? "line 1" : `line ${problem.row + 2}`;
+  if (problem.line === null) return `(more): ${problem.message}`;
   const column = problem.column ? `, column "${problem.column}"` : "";
-  return `${where}${column}: ${problem.message}`;
+  return `line ${problem.line}${column}: ${problem.message}`;
 }

@@ -9,7 +9,7 @@
  */
 import type { Arm } from "../plan/arm";
 import { limitTolerance } from "../check/report";
-import type { Recording } from "./stream";
+import type { Recording } from "./recording";
 import { gapFactor, medianStepS, replayFindings } from "./timed-replay";
 
 /** Result of {@link repairEpisode}. */

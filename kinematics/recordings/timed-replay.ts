@@ -23,7 +23,7 @@
 import type { Arm } from "../plan/arm";
 import { findingKinds, limitTolerance, type FindingKind, type Severity, type Verdict } from "../check/report";
 import { formatNumber, formatPercent, formatQuantity, jointLabel } from "../check/wording";
-import type { Recording } from "./stream";
+import type { Recording } from "./recording";
 
 /** The verdict of one audited episode: a check verdict, or `invalid` when it could not be checked. */
 export type EpisodeVerdict = Verdict | "invalid";

@@ -78,6 +78,33 @@ describe("recording uploads (object storage through the S3 API)", () => {
     expect(await objectKeys(`recordings/${projectId}/`)).toEqual(objectsBefore);
   });
 
+  it.each([
+    ["with the arm", `armId=${demoArm.id}&`],
+    ["without an arm", ""],
+  ])("refuses a recording whose time does not strictly increase with 422 naming the line (%s), and stores nothing", async (_what, armQuery) => {
+    const lines = recordingCsv().split("\n");
+    // data sample 10 is on line 12 (the header is line 1): give it the time of the line before
+    lines[11] = [lines[10].split(",")[0], ...lines[11].split(",").slice(1)].join(",");
+    const before = await db.$count(recordings, eq(recordings.projectId, projectId));
+    const objectsBefore = await objectKeys(`recordings/${projectId}/`);
+    const res = await post(lines.join("\n"), `${armQuery}name=Backwards`);
+    expect(res.status, res.text).toBe(422);
+    const error = errorOf(res);
+    expect(error.code).toBe("unprocessable:recording");
+    expect(error.message).toContain("line 12");
+    expect(error.issues).toEqual([{ path: "line 12.t", message: "time 0.09 s is not after the previous line's 0.09 s" }]);
+    expect(await db.$count(recordings, eq(recordings.projectId, projectId))).toBe(before);
+    expect(await objectKeys(`recordings/${projectId}/`)).toEqual(objectsBefore);
+  });
+
+  it("names the line of a value that is not a number (422)", async () => {
+    const lines = recordingCsv().split("\n");
+    lines[4] = lines[4].replace(/,0,/, ",zero,");
+    const res = await post(lines.join("\n"), `armId=${demoArm.id}&name=NotANumber`);
+    expect(res.status, res.text).toBe(422);
+    expect(errorOf(res).issues[0]).toMatchObject({ path: `line 5.${names[1]}` });
+  });
+
   it("refuses a body over the upload limit from its declared length, before reading it (413)", async () => {
     const res = await post("t,base\n0,0\n", "name=Huge", { "content-type": "text/csv", "content-length": String(env().UPLOAD_LIMIT_BYTES + 1) });
     expect(res.status).toBe(413);

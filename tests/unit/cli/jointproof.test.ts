@@ -5,7 +5,7 @@ import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { parseRecordingCsv } from "@/kinematics/recordings/csv";
 import { parseArm } from "@/kinematics";
-import { streamCheck } from "@/kinematics/recordings/stream";
+import { streamCheck } from "@/kinematics";
 
 const root = join(__dirname, "..", "..", "..");
 const bin = join(root, "bin", "jointproof");
@@ -116,7 +116,7 @@ describe("jointproof scan", () => {
     expect(Object.keys(report).sort()).toEqual(["findings", "rateHz", "samples", "verdict"]);
     expect(report.samples).toBe(400);
     expect(Object.keys(report.findings[0]).sort()).toEqual(
-      ["endSample", "joint", "kind", "limit", "message", "sample", "severity", "time", "value"].sort(),
+      ["endLine", "endSample", "joint", "kind", "limit", "line", "message", "sample", "severity", "time", "value"].sort(),
     );
     // the jump at row 120 lasts two steps (in and out of the glitch); rows 250–252 are shifted: in at 250, out at 253
     const jumps = report.findings.filter((f: { kind: string }) => f.kind === "jump");
@@ -124,6 +124,12 @@ describe("jointproof scan", () => {
       [2, 120, 121],
       [0, 250, 250],
       [0, 253, 253],
+    ]);
+    // the same runs named by the file's lines (the header is line 1)
+    expect(jumps.map((f: { line: number; endLine: number }) => [f.line, f.endLine])).toEqual([
+      [122, 123],
+      [252, 252],
+      [255, 255],
     ]);
   });
 

@@ -63,14 +63,14 @@ describe("recording CSV parser", () => {
   it("refuses a header that does not start with t", () => {
     const result = parseRecordingCsv(encode("time,a\n0,1\n"));
     expect(result.recording).toBeNull();
-    expect(result.problems[0]).toMatchObject({ row: -1 });
+    expect(result.problems[0]).toMatchObject({ line: 1 });
   });
 
   it("refuses empty fields and a blank line inside the data", () => {
     const result = parseRecordingCsv(encode("t,a\n0,\n\n0.002,1\n"));
-    expect(result.problems.map((p) => [p.row, p.message])).toEqual([
-      [0, 'not a number (empty)'],
-      [1, "blank line inside the data (blank lines are allowed only at the end)"],
+    expect(result.problems.map((p) => [p.line, p.message])).toEqual([
+      [2, 'not a number (empty)'],
+      [3, "blank line inside the data (blank lines are allowed only at the end)"],
     ]);
   });
 

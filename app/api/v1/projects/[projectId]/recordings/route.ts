@@ -4,7 +4,7 @@ import { getArmRevisionForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
 import { createRecording, listRecordings } from "@/db/queries/recordings";
 import { json, readBodyLimited, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
-import { alignRecording, armSchema, parseRecordingCsv, streamCheck } from "@/kinematics";
+import { armSchema, describeRecordingProblem, scanRecording } from "@/kinematics";
 import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { uploadRecordingQuery } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";
@@ -27,8 +27,8 @@ export const GET = route(async (request, context) => {
 /**
  * POST /api/v1/projects/:projectId/recordings?name=…&armId=… with the CSV file as the body
  * (Content-Type: text/csv). The declared size is checked before anything is read and the body is
- * read only up to UPLOAD_LIMIT_BYTES; the file is parsed (and stream-checked when armId is given)
- * before it is stored; the row is written only after the object, and the object is removed again
+ * read only up to UPLOAD_LIMIT_BYTES; the file is parsed and validated (times strictly increasing,
+ * finite values; aligned to the arm and stream-checked when armId is given) before it is stored; the row is written only after the object, and the object is removed again
  * if the row cannot be written — a failed upload leaves nothing behind.
  */
 export const POST = route(async (request, context) => {
@@ -49,25 +49,15 @@ export const POST = route(async (request, context) => {
   }
 
   const bytes = await readBodyLimited(request, limit);
-  const parsed = parseRecordingCsv(bytes);
-  if (!parsed.recording) {
-    throw new AppError("unprocessable:recording", "The file is not a valid recording.", {
-      issues: parsed.problems.map((p) => ({ path: p.row < 0 ? "(header)" : `row ${p.row}${p.column ? `.${p.column}` : ""}`, message: p.message })),
+  // the engine's one recording scan (parse → align → validate → stream check), as the CLI and the page run it
+  const arm = revision ? armSchema.parse(revision.description) : null;
+  const scanned = arm ? scanRecording(arm, bytes, { maxFindings: 50 }) : scanRecording(null, bytes);
+  if ("problems" in scanned) {
+    throw new AppError("unprocessable:recording", `The file is not a valid recording: ${describeRecordingProblem(scanned.problems[0])}.`, {
+      issues: scanned.problems.map((p) => ({ path: p.line === null ? "(file)" : `line ${p.line}${p.column ? `.${p.column}` : ""}`, message: p.message })),
     });
   }
-  let recording = parsed.recording;
-  let stream = null;
-  if (revision) {
-    const arm = armSchema.parse(revision.description);
-    const aligned = alignRecording(arm, recording);
-    if (!aligned.recording) {
-      throw new AppError("unprocessable:recording", "The recording's columns do not match the arm's joints.", {
-        issues: aligned.problems.map((p) => ({ path: p.column ? `(header).${p.column}` : "(header)", message: p.message })),
-      });
-    }
-    recording = aligned.recording;
-    stream = streamCheck(arm, recording, { maxFindings: 50 });
-  }
+  const { recording, report: stream } = scanned;
 
   const key = `recordings/${projectId}/${randomUUID()}.csv`;
   await putObject(key, bytes, "text/csv");
