@@ -2,6 +2,7 @@ import { drizzle, type NodePgDatabase } from "drizzle-orm/node-postgres";
 import { Pool } from "pg";
 import { env } from "@/lib/server/env";
 import * as schema from "./schema";
+import { currentTransaction, runInTransaction } from "./transaction";
 
 export type Db = NodePgDatabase<typeof schema>;
 
@@ -44,7 +45,15 @@ function lazy<T extends object>(target: () => T): T {
 /** The shared pg Pool (for raw queries such as the health check). */
 export const pool: Pool = lazy(getPool);
 
-/** The Drizzle client over the shared pool, with the whole schema for relational queries. */
-export const db: Db = lazy(getDb);
+/**
+ * The Drizzle client over the shared pool, with the whole schema for relational queries; inside
+ * `inTransaction` (below) it is that transaction.
+ */
+export const db: Db = lazy(() => currentTransaction() ?? getDb());
+
+/** Runs `fn` in one transaction: every query made through `db` inside it commits together or not at all. */
+export function inTransaction<T>(fn: () => Promise<T>): Promise<T> {
+  return runInTransaction(getDb(), fn);
+}
 
 export { schema };

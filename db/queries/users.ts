@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, count, eq, gt, gte, isNull, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { accountTokens, signInAttempts, users, type SiteRole, type User } from "@/db/schema";
+import { accountTokens, revokedSessions, signInAttempts, signUpAttempts, users, type SiteRole, type User } from "@/db/schema";
 
 /** The public view of a user: never the password hash. */
 export type PublicUser = Pick<User, "id" | "email" | "name" | "siteRole" | "createdAt" | "disabledAt">;
@@ -31,13 +31,47 @@ export async function getActiveUserById({ id }: { id: string }): Promise<PublicU
   return row;
 }
 
-/** An enabled user by id with when their password last changed: the session cookie check (lib/server/auth-request.ts). */
-export async function getSessionUserById({ id }: { id: string }): Promise<SessionUser | undefined> {
+/**
+ * The session cookie check (lib/server/auth-request.ts): an enabled user by id, with when their
+ * password last changed, provided the session `sessionId` has not been signed out.
+ */
+export async function getSessionUserById({ id, sessionId }: { id: string; sessionId: string }): Promise<SessionUser | undefined> {
   const [row] = await db
     .select({ ...publicColumns, passwordChangedAt: users.passwordChangedAt })
     .from(users)
-    .where(and(eq(users.id, id), isNull(users.disabledAt)));
+    .where(
+      and(
+        eq(users.id, id),
+        isNull(users.disabledAt),
+        sql`not exists (select 1 from ${revokedSessions} where ${revokedSessions.sessionId} = ${sessionId} and ${revokedSessions.userId} = ${users.id})`,
+      ),
+    );
   return row;
+}
+
+/** Records a signed-out session until its cookie would have expired; a second sign-out is a no-op. Old rows are pruned on the way. */
+export async function revokeSession({ sessionId, userId, expiresAt }: { sessionId: string; userId: string; expiresAt: Date }): Promise<void> {
+  await db.transaction(async (tx) => {
+    await tx.insert(revokedSessions).values({ sessionId, userId, expiresAt }).onConflictDoNothing();
+    await tx.delete(revokedSessions).where(sql`${revokedSessions.expiresAt} < now()`);
+  });
+}
+
+/** Records a sign-up request (new address or not) for the per-address and per-client limits. */
+export async function recordSignUpAttempt({ email, ip }: { email: string; ip: string | null }): Promise<void> {
+  await db.insert(signUpAttempts).values({ email: email.toLowerCase(), ip });
+}
+
+/** Sign-up requests for one address, and from one client, since a moment. */
+export async function countSignUpAttempts({ email, ip, since }: { email: string; ip: string | null; since: Date }): Promise<{ byEmail: number; byIp: number }> {
+  const [row] = await db
+    .select({
+      byEmail: sql<number>`count(*) filter (where ${signUpAttempts.email} = ${email.toLowerCase()})`.mapWith(Number),
+      byIp: sql<number>`count(*) filter (where ${ip !== null} and ${signUpAttempts.ip} = ${ip ?? ""})`.mapWith(Number),
+    })
+    .from(signUpAttempts)
+    .where(gte(signUpAttempts.attemptedAt, since));
+  return { byEmail: row?.byEmail ?? 0, byIp: row?.byIp ?? 0 };
 }
 
 /** Creates a user; returns undefined when the e-mail is already taken. */

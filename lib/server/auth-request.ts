@@ -1,7 +1,8 @@
 /**
  * Who is calling a route handler: an API token holder (`Authorization: Bearer`, RFC 6750)
  * or a signed-in user (the next-auth session cookie). The user is re-read from PostgreSQL on
- * every request, so a disabled account, a changed role or a revoked token takes effect at once.
+ * every request, so a disabled account, a changed role, a revoked token or a signed-out session
+ * takes effect at once.
  */
 import { decode } from "next-auth/jwt";
 import { getTokenOwner } from "@/db/queries/tokens";
@@ -51,20 +52,34 @@ export async function authenticate(request: Request): Promise<Actor | null> {
   const cookie = readCookie(request.headers.get("cookie"), sessionCookieName());
   if (!secret || !cookie) return null;
   let sub: string | undefined;
+  let sid: string | undefined;
   let issuedAtS: number | undefined;
   try {
     const jwt = await decode({ token: cookie, secret });
     sub = typeof jwt?.sub === "string" ? jwt.sub : undefined;
+    // The session's own id (lib/server/auth.ts jwt callback); without one a sign-out could not end it, so it is refused.
+    sid = typeof jwt?.sid === "string" ? jwt.sid : undefined;
     // The sign-in time (lib/server/auth.ts jwt callback), not `iat`, which every session refresh renews.
     issuedAtS = typeof jwt?.signedInAt === "number" ? jwt.signedInAt : undefined;
   } catch {
     return null;
   }
-  if (!sub || !/^[0-9a-f-]{36}$/i.test(sub)) return null;
-  const user = await getSessionUserById({ id: sub });
+  const uuid = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+  if (!sub || !uuid.test(sub) || !sid || !uuid.test(sid)) return null;
+  const user = await getSessionUserById({ id: sub, sessionId: sid });
   if (!user) return null;
   if (user.passwordChangedAt && !issuedAfterPasswordChange(issuedAtS, user.passwordChangedAt)) return null;
   return { userId: user.id, siteRole: user.siteRole, via: "session" };
+}
+
+/**
+ * Refuses (403) an API token where only a signed-in person may act: managing tokens. A leaked
+ * token must not be able to mint successors or revoke others, or it would outlive its own revocation.
+ */
+export function assertNotToken(actor: Actor, what: string): void {
+  if (actor.via === "token") {
+    throw new AppError("forbidden:token", `API tokens cannot ${what}; sign in to the web app to do it.`);
+  }
 }
 
 /**

@@ -9,7 +9,8 @@
 import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
-import { getUserForSignIn, recentFailedSignInsForEmail, recentFailedSignInsFromIp, recordSignInAttempt, type SignInFailures } from "@/db/queries/users";
+import { randomUUID } from "node:crypto";
+import { getUserForSignIn, recentFailedSignInsForEmail, recentFailedSignInsFromIp, recordSignInAttempt, revokeSession, type SignInFailures } from "@/db/queries/users";
 import { env } from "./env";
 import { PEER_ADDRESS_HEADER } from "./peer-address";
 import { signInSchema } from "../shared/schemas/auth";
@@ -150,13 +151,25 @@ export function authOptions(): NextAuthOptions {
         },
       }),
     ],
+    events: {
+      // Sign-out ends the session on the server too: a copied cookie stops working at once.
+      async signOut({ token }) {
+        const sid = typeof token?.sid === "string" ? token.sid : undefined;
+        const sub = typeof token?.sub === "string" ? token.sub : undefined;
+        if (!sid || !sub) return;
+        const expS = typeof token.exp === "number" ? token.exp : Math.floor(Date.now() / 1000) + SESSION_MAX_AGE_S;
+        await revokeSession({ sessionId: sid, userId: sub, expiresAt: new Date(expS * 1000) });
+      },
+    },
     callbacks: {
       async jwt({ token, user }) {
         // `signedInAt` is set once, at sign-in, and carried through every refresh: next-auth gives a
         // refreshed cookie a new `iat`, so only this claim can tell a session from before a password change.
+        // `sid` names this session, so sign-out can revoke exactly it (revoked_sessions, checked on every request).
         if (user) {
           token.sub = user.id;
           token.signedInAt = Math.floor(Date.now() / 1000);
+          token.sid = randomUUID();
         }
         return token;
       },

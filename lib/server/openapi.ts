@@ -48,14 +48,14 @@ const p = (name: string): Param => ({ name, in: "path", required: true, schema: 
 
 /** Every operation; a new route adds a line here (and a row to the authorisation-matrix test). */
 const operations: Op[] = [
-  { method: "post", path: "/accounts", summary: "Create an account (student or researcher)", tag: "Accounts", body: ref("SignUp"), ok: 201, errors: [400, 409, 413, 415], anonymous: true },
+  { method: "post", path: "/accounts", summary: "Create an account (student or researcher); 202 whether or not the address has an account (its owner is e-mailed instead)", tag: "Accounts", body: ref("SignUp"), ok: 202, errors: [400, 403, 413, 415, 429], anonymous: true },
   { method: "post", path: "/accounts/password-reset", summary: "E-mail a one-time password-reset link; 202 whether or not the address has an account", tag: "Accounts", body: ref("PasswordResetRequest"), ok: 202, errors: [400, 403, 413, 415], anonymous: true },
   { method: "post", path: "/accounts/password-reset/confirm", summary: "Set a new password with the token from the reset e-mail (once; 400 when expired or used)", tag: "Accounts", body: ref("PasswordResetConfirm"), ok: 200, errors: [400, 403, 413, 415], anonymous: true },
   { method: "post", path: "/accounts/verify-email", summary: "Confirm an e-mail address with the token from the verification e-mail (once)", tag: "Accounts", body: ref("VerifyEmail"), ok: 200, errors: [400, 403, 413, 415], anonymous: true },
   { method: "get", path: "/me", summary: "The account behind the session or token", tag: "Accounts", ok: 200, errors: [401] },
-  { method: "get", path: "/tokens", summary: "List your API tokens", tag: "Tokens", ok: 200, errors: [401] },
-  { method: "post", path: "/tokens", summary: "Create an API token (shown once)", tag: "Tokens", body: ref("CreateToken"), ok: 201, errors: [400, 401] },
-  { method: "delete", path: "/tokens/{tokenId}", summary: "Revoke an API token, effective at once", tag: "Tokens", params: [p("tokenId")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/tokens", summary: "List your API tokens (signed-in session only: an API token cannot manage tokens)", tag: "Tokens", ok: 200, errors: [401, 403] },
+  { method: "post", path: "/tokens", summary: "Create an API token (shown once; signed-in session only)", tag: "Tokens", body: ref("CreateToken"), ok: 201, errors: [400, 401, 403] },
+  { method: "delete", path: "/tokens/{tokenId}", summary: "Revoke an API token, effective at once (signed-in session only)", tag: "Tokens", params: [p("tokenId")], ok: 200, errors: [401, 403, 404] },
   { method: "get", path: "/users", summary: "List accounts (admins)", tag: "Accounts", ok: 200, errors: [401, 403] },
   { method: "patch", path: "/users/{userId}", summary: "Change a site role or disable an account (admins)", tag: "Accounts", params: [p("userId")], body: ref("AdminUpdateUser"), ok: 200, errors: [400, 401, 403, 404, 422] },
   { method: "get", path: "/projects", summary: "List your projects, newest activity first, a page at a time", tag: "Projects", query: projectsPageQuery, ok: 200, okDescription: PAGE_DESCRIPTION, errors: [400, 401] },

@@ -114,7 +114,12 @@ export function json(data: unknown, status = 200, headers?: Record<string, strin
 
 /** zod issues as `{ path, message }`, the path prefixed (e.g. `query.rateHz`, `document.start`). */
 export function toIssues(error: z.ZodError, prefix: PropertyKey[] = []): Issue[] {
-  return error.issues.map((i) => ({ path: formatPath([...prefix, ...i.path], "(body)"), message: i.message }));
+  return error.issues.flatMap((i) =>
+    // An unknown key is named by its own path, so the caller sees which field was not expected.
+    i.code === "unrecognized_keys"
+      ? i.keys.map((key) => ({ path: formatPath([...prefix, ...i.path, key], "(body)"), message: "is not a known field" }))
+      : [{ path: formatPath([...prefix, ...i.path], "(body)"), message: i.message }],
+  );
 }
 
 function parseOrThrow<S extends z.ZodType>(schema: S, value: unknown, prefix: PropertyKey[], what: string): z.infer<S> {

@@ -14,6 +14,7 @@ export function SignUpForm() {
   const router = useRouter();
   const [errors, setErrors] = useState<FieldErrors>({});
   const [pending, setPending] = useState(false);
+  const [notice, setNotice] = useState<string | null>(null);
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -37,9 +38,15 @@ export function SignUpForm() {
       setPending(false);
       return;
     }
-    await signIn("credentials", { email: parsed.data.email, password: parsed.data.password, redirect: false });
-    router.push("/projects");
-    router.refresh();
+    // The answer is the same for a new and an existing address; signing in tells the owner of a new account apart.
+    const signedIn = await signIn("credentials", { email: parsed.data.email, password: parsed.data.password, redirect: false });
+    if (signedIn?.ok && !signedIn.error) {
+      router.push("/projects");
+      router.refresh();
+      return;
+    }
+    setNotice(`We sent a message to ${parsed.data.email}. If this address already has an account, sign in or reset its password instead.`);
+    setPending(false);
   }
 
   const fieldError = (key: keyof FieldErrors) =>
@@ -73,6 +80,9 @@ export function SignUpForm() {
           <label className="flex items-center gap-2"><input type="radio" name="siteRole" value="researcher" /> researcher</label>
         </div>
       </fieldset>
+      {notice ? (
+        <p role="status" className="rounded border border-line bg-panel px-3 py-2 text-sm text-ink">{notice}</p>
+      ) : null}
       {errors.form ? (
         <p role="alert" className="rounded border border-fault/30 bg-fault-tint px-3 py-2 text-sm text-fault">{errors.form}</p>
       ) : null}

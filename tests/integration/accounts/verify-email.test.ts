@@ -34,7 +34,7 @@ describe("e-mail verification through the API", () => {
   it("sign-up sends the verification e-mail; its token confirms the address once", async () => {
     const email = `verify-${randomUUID().slice(0, 8)}@example.com`;
     const signUp = await call(accountsRoute.POST, { method: "POST", path: "/api/v1/accounts", body: { email, name: "Pella Ostrand", password: "a-long-password-9" } });
-    expect(signUp.status, signUp.text).toBe(201);
+    expect(signUp.status, signUp.text).toBe(202);
     // Sign-in does not wait for the address to be confirmed.
     expect((await signIn(email, "a-long-password-9")).session).toBeDefined();
     expect(await verifiedAt(email)).toBeNull();
@@ -55,7 +55,7 @@ describe("e-mail verification through the API", () => {
 
   it("refuses a reset token as a verification token (each token has one purpose)", async () => {
     const email = `verify-purpose-${randomUUID().slice(0, 8)}@example.com`;
-    expect((await call(accountsRoute.POST, { method: "POST", path: "/api/v1/accounts", body: { email, name: "Oren Vale", password: "a-long-password-9" } })).status).toBe(201);
+    expect((await call(accountsRoute.POST, { method: "POST", path: "/api/v1/accounts", body: { email, name: "Oren Vale", password: "a-long-password-9" } })).status).toBe(202);
     const { POST: requestReset } = await import("@/app/api/v1/accounts/password-reset/route");
     expect((await call(requestReset, { method: "POST", path: "/api/v1/accounts/password-reset", body: { email } })).status).toBe(202);
     const reset = await harness.mail.waitFor((m) => m.to === email && m.kind === "password-reset");

@@ -35,7 +35,8 @@ export async function tokenFor(userId: string): Promise<string> {
 
 /** A next-auth session cookie for the user, made the way next-auth makes it. */
 export async function sessionCookieFor(userId: string): Promise<string> {
-  const jwt = await encode({ token: { sub: userId }, secret: env().NEXTAUTH_SECRET! });
+  // `sid` names the session, as lib/server/auth.ts sets it at sign-in; a cookie without one is refused.
+  const jwt = await encode({ token: { sub: userId, sid: randomUUID() }, secret: env().NEXTAUTH_SECRET! });
   return `${sessionCookieName()}=${jwt}`;
 }
 

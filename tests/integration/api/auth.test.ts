@@ -37,7 +37,8 @@ describe("API tokens", () => {
     const before = await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } });
     expect(before.status).toBe(200);
     const [row] = await db.select().from(apiTokens).where(eq(apiTokens.tokenHash, hashToken(secret)));
-    const revoked = await call(token.DELETE, { method: "DELETE", path: `/api/v1/tokens/${row.id}`, params: { tokenId: row.id }, auth: { bearer: secret } });
+    // Revoked by its owner, signed in: a token cannot revoke tokens itself.
+    const revoked = await call(token.DELETE, { method: "DELETE", path: `/api/v1/tokens/${row.id}`, params: { tokenId: row.id }, auth: { cookie: await sessionCookieFor(owner.id) } });
     expect(revoked.status).toBe(200);
     const after = await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } });
     expect(after.status).toBe(401);

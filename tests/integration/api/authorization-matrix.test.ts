@@ -154,11 +154,13 @@ const projectRoutes: ProjectRoute[] = [
 
 type SiteRoute = {
   name: string;
-  /** Expected status per signed-in site role; anonymous is always 401. */
-  expect: (role: SiteRole) => number;
+  /** Expected status per signed-in site role (and whether the caller uses an API token); anonymous is always 401. */
+  expect: (role: SiteRole, viaToken: boolean) => number;
   run: (actor: Actor) => Promise<CallResult>;
 };
 const all = (status: number) => () => status;
+/** Token management: a signed-in person only; an API token may not mint or revoke tokens (403). */
+const sessionOnly = (status: number) => (_role: SiteRole, viaToken: boolean) => (viaToken ? 403 : status);
 const adminOnly = (status: number) => (role: SiteRole) => (role === "admin" ? status : 403);
 const teachers = (status: number) => (role: SiteRole) => (role === "instructor" || role === "admin" ? status : 403);
 
@@ -171,11 +173,11 @@ const siteRoutes: SiteRoute[] = [
   { name: "GET /arms/:builtIn", expect: all(200), run: (a) => call(arm.GET, { path: `/api/v1/arms/${demoArm.id}`, params: { armId: demoArm.id }, auth: a.auth }) },
   { name: "POST /arms/:builtIn/revisions", expect: all(403), run: (a) => call(armRevisions.POST, { method: "POST", path: `/api/v1/arms/${demoArm.id}/revisions`, params: { armId: demoArm.id }, auth: a.auth, body: { description: demoArm.description } }) },
   { name: "POST /check", expect: all(200), run: (a) => call(check.POST, { method: "POST", path: "/api/v1/check", auth: a.auth, body: gentlePlan() }) },
-  { name: "GET /tokens", expect: all(200), run: (a) => call(tokens.GET, { path: "/api/v1/tokens", auth: a.auth }) },
-  { name: "POST /tokens", expect: all(201), run: (a) => call(tokens.POST, { method: "POST", path: "/api/v1/tokens", auth: a.auth, body: { name: "ci" } }) },
+  { name: "GET /tokens", expect: sessionOnly(200), run: (a) => call(tokens.GET, { path: "/api/v1/tokens", auth: a.auth }) },
+  { name: "POST /tokens", expect: sessionOnly(201), run: (a) => call(tokens.POST, { method: "POST", path: "/api/v1/tokens", auth: a.auth, body: { name: "ci" } }) },
   {
     name: "DELETE /tokens/:id (own)",
-    expect: all(200),
+    expect: sessionOnly(200),
     run: async (a) => {
       const t = generateToken();
       const row = await createApiToken({ userId: a.user?.id ?? (await makeUser("student")).id, name: "own", tokenHash: t.hash, prefix: t.prefix, expiresAt: null });
@@ -184,7 +186,7 @@ const siteRoutes: SiteRoute[] = [
   },
   {
     name: "DELETE /tokens/:id (someone else's)",
-    expect: all(404),
+    expect: sessionOnly(404),
     run: async (a) => {
       const t = generateToken();
       const row = await createApiToken({ userId: (await makeUser("student")).id, name: "theirs", tokenHash: t.hash, prefix: t.prefix, expiresAt: null });
@@ -221,7 +223,7 @@ for (const r of projectRoutes) {
 }
 for (const r of siteRoutes) {
   for (const actor of actorNames) {
-    cells.push({ route: r.name, actor, relation: "-", expected: actor === "anonymous" ? 401 : r.expect(siteRoleOf[actor]), run: r.run });
+    cells.push({ route: r.name, actor, relation: "-", expected: actor === "anonymous" ? 401 : r.expect(siteRoleOf[actor], actor === "token holder"), run: r.run });
   }
 }
 /** Public routes: the same answer for everyone, signed in or not. */
@@ -251,6 +253,6 @@ describe("authorisation matrix", () => {
       path: "/api/v1/accounts",
       body: { email: `new-${Date.now()}@example.com`, name: "New Student", password: "a-long-password" },
     });
-    expect(res.status).toBe(201);
+    expect(res.status).toBe(202);
   });
 });

@@ -24,14 +24,16 @@ import * as armRevisionsRoute from "@/app/api/v1/arms/[armId]/revisions/route";
 import * as projectPlans from "@/app/api/v1/projects/[projectId]/plans/route";
 import * as versions from "@/app/api/v1/plans/[planId]/versions/route";
 import * as check from "@/app/api/v1/check/route";
-import { call, demoArm, errorOf, gentlePlan, makeUser, tokenFor, type Auth } from "./_helpers";
+import { call, demoArm, errorOf, gentlePlan, makeUser, tokenFor, type Auth, sessionCookieFor } from "./_helpers";
 
 type Handler = Parameters<typeof call>[0];
-type Target = { name: string; handler: Handler; method: string; path: () => string; params: () => Record<string, string>; admin?: boolean; needsMailToken?: boolean; valid: () => unknown };
+type Target = { name: string; handler: Handler; method: string; path: () => string; params: () => Record<string, string>; admin?: boolean; session?: boolean; needsMailToken?: boolean; valid: () => unknown };
 type BadCase = { what: string; body?: unknown; raw?: string; type?: string; status: number; path?: string };
 
 let auth: Auth;
 let adminAuth: Auth;
+/** The owner signed in (token management refuses API tokens). */
+let sessionAuth: Auth;
 let ids: { projectId: string; armId: string; planId: string; userId: string; memberEmail: string };
 
 beforeAll(async () => {
@@ -40,6 +42,7 @@ beforeAll(async () => {
   const admin = await makeUser("admin", "bad-input-admin");
   auth = { bearer: await tokenFor(owner.id) };
   adminAuth = { bearer: await tokenFor(admin.id) };
+  sessionAuth = { cookie: await sessionCookieFor(owner.id) };
   const p = await createProject({ name: "Bad input", kind: "research", userId: owner.id });
   const a = await createArm({ projectId: p.id, name: "Arm", description: demoArm.description, userId: owner.id });
   const pl = await createPlan({ projectId: p.id, armId: a!.armId, name: "Plan", userId: owner.id });
@@ -82,7 +85,7 @@ const targets: Target[] = [
   // A valid body needs a real token from an e-mail: tests/integration/accounts covers the accepted case.
   { name: "POST /accounts/password-reset/confirm", handler: passwordResetConfirm.POST, method: "POST", path: () => "/api/v1/accounts/password-reset/confirm", params: () => ({}), needsMailToken: true, valid: () => ({ token: "D".repeat(43), password: "long-enough-pass-1" }) },
   { name: "POST /accounts/verify-email", handler: verifyEmail.POST, method: "POST", path: () => "/api/v1/accounts/verify-email", params: () => ({}), needsMailToken: true, valid: () => ({ token: "E".repeat(43) }) },
-  { name: "POST /tokens", handler: tokens.POST, method: "POST", path: () => "/api/v1/tokens", params: () => ({}), valid: () => ({ name: "ci" }) },
+  { name: "POST /tokens", handler: tokens.POST, method: "POST", path: () => "/api/v1/tokens", params: () => ({}), session: true, valid: () => ({ name: "ci" }) },
   { name: "PATCH /users/:id", handler: user.PATCH, method: "PATCH", path: () => `/api/v1/users/${ids.userId}`, params: () => ({ userId: ids.userId }), admin: true, valid: () => ({ siteRole: "researcher" }) },
   { name: "POST /projects", handler: projectsRoute.POST, method: "POST", path: () => "/api/v1/projects", params: () => ({}), valid: () => ({ name: "P" }) },
   { name: "PATCH /projects/:id", handler: project.PATCH, method: "PATCH", path: () => `/api/v1/projects/${ids.projectId}`, params: () => ({ projectId: ids.projectId }), valid: () => ({ name: "P" }) },
@@ -100,6 +103,11 @@ const generalCases: BadCase[] = [
   { what: "a JSON array instead of an object", body: [1, 2, 3], status: 400 },
   { what: "a plain-text content type", raw: "{}", type: "text/plain", status: 415 },
   { what: "a body over the size limit", raw: JSON.stringify({ name: "x".repeat(1_100_000) }), status: 413 },
+  // PostgreSQL text cannot hold NUL; a lone surrogate is not Unicode text; RFC 8259 §8.1 forbids a byte-order mark.
+  { what: "a NUL character in a string", raw: '{"name":"a\\u0000b"}', status: 400, path: "name" },
+  { what: "a lone surrogate in a string", raw: '{"name":"a\\ud800"}', status: 400, path: "name" },
+  { what: "a byte-order mark before the JSON", raw: "\ufeff{}", status: 400 },
+  { what: "JSON nested 10,000 levels deep", raw: `{"name":${"[".repeat(10_000)}${"]".repeat(10_000)}}`, status: 400 },
 ];
 
 /** Route-specific cases: the field each must name. */
@@ -114,7 +122,7 @@ const specificCases: Record<string, BadCase[]> = {
     { what: "no e-mail", body: {}, status: 400, path: "email" },
     { what: "a bad e-mail", body: { email: "not-an-address" }, status: 400, path: "email" },
     { what: "an e-mail as a number", body: { email: 42 }, status: 400, path: "email" },
-    { what: "an unknown field", body: { email: "a@example.com", admin: true }, status: 400, path: "(body)" },
+    { what: "an unknown field", body: { email: "a@example.com", admin: true }, status: 400, path: "admin" },
   ],
   "POST /accounts/password-reset/confirm": [
     { what: "no token", body: { password: "long-enough-pass-1" }, status: 400, path: "token" },
@@ -143,7 +151,7 @@ const specificCases: Record<string, BadCase[]> = {
     { what: "a number as name", body: { name: 42 }, status: 400, path: "name" },
     { what: "a name of 121 characters", body: { name: "n".repeat(121) }, status: 400, path: "name" },
     { what: "an unknown kind", body: { name: "P", kind: "lab" }, status: 400, path: "kind" },
-    { what: "an unknown field", body: { name: "P", owner: "me" }, status: 400, path: "(body)" },
+    { what: "an unknown field", body: { name: "P", owner: "me" }, status: 400, path: "owner" },
   ],
   "PATCH /projects/:id": [
     { what: "no fields", body: {}, status: 400, path: "name" },
@@ -201,7 +209,7 @@ describe("bad input on every write route", () => {
 
   it("accepts each route's valid body (so the refusals below are about the bad field)", async () => {
     for (const t of targets.filter((t) => t.name !== "POST /accounts" && !t.needsMailToken)) {
-      const res = await call(t.handler, { method: t.method, path: t.path(), params: t.params(), auth: t.admin ? adminAuth : auth, body: t.valid() });
+      const res = await call(t.handler, { method: t.method, path: t.path(), params: t.params(), auth: t.admin ? adminAuth : t.session ? sessionAuth : auth, body: t.valid() });
       expect(res.status, `${t.name}: ${res.text}`).toBeLessThan(300);
     }
   });
@@ -212,7 +220,7 @@ describe("bad input on every write route", () => {
       method: c.target.method,
       path: c.target.path(),
       params: c.target.params(),
-      auth: c.target.admin ? adminAuth : auth,
+      auth: c.target.admin ? adminAuth : c.target.session ? sessionAuth : auth,
       ...(c.raw !== undefined ? { rawBody: c.raw, headers: { "content-type": c.type ?? "application/json" } } : { body: c.body }),
     });
     expect(res.status, res.text).toBe(c.status);

@@ -1,14 +1,16 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { createApiToken, listApiTokens } from "@/db/queries/tokens";
 import { json, readJson, route } from "@/lib/server/route";
 import { createTokenSchema } from "@/lib/shared/schemas/api";
-import { requireActor } from "@/lib/server/auth-request";
+import { assertNotToken, requireActor } from "@/lib/server/auth-request";
 import { authorizeSite } from "@/lib/server/permissions";
 import { generateToken } from "@/lib/server/tokens";
 
 /** GET /api/v1/tokens — the caller's API tokens (never the tokens themselves). */
 export const GET = route(async (request) => {
   const actor = await requireActor(request);
+  assertNotToken(actor, "manage API tokens");
   authorizeSite(actor, "token:manage");
   return json({ tokens: await listApiTokens({ userId: actor.userId }) });
 });
@@ -17,10 +19,14 @@ export const GET = route(async (request) => {
 export const POST = route(async (request) => {
   const body = await readJson(request, createTokenSchema);
   const actor = await requireActor(request);
+  assertNotToken(actor, "manage API tokens");
   authorizeSite(actor, "token:manage");
   const { token, hash, prefix } = generateToken();
   const expiresAt = body.expiresInDays ? new Date(Date.now() + body.expiresInDays * 86_400_000) : null;
-  const row = await createApiToken({ userId: actor.userId, name: body.name, tokenHash: hash, prefix, expiresAt });
-  await recordAudit({ actorId: actor.userId, action: "token.create", targetType: "api_token", targetId: row.id });
+  const row = await inTransaction(async () => {
+    const created = await createApiToken({ userId: actor.userId, name: body.name, tokenHash: hash, prefix, expiresAt });
+    await recordAudit({ actorId: actor.userId, action: "token.create", targetType: "api_token", targetId: created.id });
+    return created;
+  });
   return json({ token, ...row }, 201);
 });

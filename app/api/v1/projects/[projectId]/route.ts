@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { updateProject } from "@/db/queries/projects";
 import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
@@ -29,8 +30,12 @@ export const PATCH = route(async (request, context) => {
   if (body.archived !== undefined) authorizeProject(membership, "project:archive");
   // Un-archiving and renaming in one request: the rename is judged on the project as it will be.
   if (body.name !== undefined) authorizeProject({ ...membership, archived: body.archived ?? membership.archived }, "project:rename");
-  const updated = await updateProject({ projectId, userId: actor.userId, name: body.name, archived: body.archived });
-  if (!updated) throw new AppError("not_found:project", "No such project.");
-  await recordAudit({ actorId: actor.userId, action: "project.update", targetType: "project", targetId: projectId, projectId, detail: body });
+  // The rename and its audit entry commit together, or neither does.
+  const updated = await inTransaction(async () => {
+    const row = await updateProject({ projectId, userId: actor.userId, name: body.name, archived: body.archived });
+    if (!row) throw new AppError("not_found:project", "No such project.");
+    await recordAudit({ actorId: actor.userId, action: "project.update", targetType: "project", targetId: projectId, projectId, detail: body });
+    return row;
+  });
   return json({ project: { ...updated, role: project.role } });
 });

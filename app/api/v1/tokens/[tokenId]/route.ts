@@ -1,8 +1,9 @@
 import { z } from "zod";
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { revokeApiToken } from "@/db/queries/tokens";
 import { json, readParams, route, uuidParam } from "@/lib/server/route";
-import { requireActor } from "@/lib/server/auth-request";
+import { assertNotToken, requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
 import { authorizeSite } from "@/lib/server/permissions";
 
@@ -12,9 +13,13 @@ const params = z.object({ tokenId: uuidParam });
 export const DELETE = route(async (request, context) => {
   const { tokenId } = await readParams(context, params);
   const actor = await requireActor(request);
+  assertNotToken(actor, "manage API tokens");
   authorizeSite(actor, "token:manage");
-  const token = await revokeApiToken({ id: tokenId, userId: actor.userId });
-  if (!token) throw new AppError("not_found:token", "No such live token.");
-  await recordAudit({ actorId: actor.userId, action: "token.revoke", targetType: "api_token", targetId: tokenId });
+  const token = await inTransaction(async () => {
+    const revoked = await revokeApiToken({ id: tokenId, userId: actor.userId });
+    if (!revoked) throw new AppError("not_found:token", "No such live token.");
+    await recordAudit({ actorId: actor.userId, action: "token.revoke", targetType: "api_token", targetId: tokenId });
+    return revoked;
+  });
   return json({ token });
 });
