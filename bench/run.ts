@@ -218,3 +218,4 @@ function main(): void {
 }
 
 main();
+await import("./dataset-audit"); // the dataset audit bench adds `datasetAudit` to results.json

@@ -123,9 +123,15 @@ function toDouble(value: unknown): number {
   return Number.NaN;
 }
 
+/** The bytes as an ArrayBuffer of their own (no copy when they already fill one). */
+function arrayBufferOf(bytes: Uint8Array): ArrayBuffer {
+  if (bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.buffer instanceof ArrayBuffer) return bytes.buffer;
+  return bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
+}
+
 /** The columns of a Parquet file, with its row count. Throws when the bytes are not a Parquet file. */
 export function parquetColumns(bytes: Uint8Array): { rows: number; columns: ColumnInfo[] } {
-  const buffer = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
+  const buffer = arrayBufferOf(bytes);
   const metadata = parquetMetadata(buffer);
   const tree = parquetSchema(metadata) as unknown as SchemaNode;
   return { rows: Number(metadata.num_rows), columns: tree.children.map((c) => ({ name: c.element.name, type: typeOf(c) })) };
@@ -203,73 +209,123 @@ function planColumns(
   return { episode, time, frame, joints, list, problems };
 }
 
-/** Column data of one Parquet file, assembled from hyparquet's chunks. */
-async function readParquetColumns(bytes: Uint8Array, names: string[], rows: number): Promise<Map<string, unknown[] | ArrayLike<unknown>>> {
-  const buffer = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
-  const out = new Map<string, unknown[]>();
-  for (const name of names) out.set(name, new Array<unknown>(rows));
+/**
+ * Column data of one Parquet file, assembled from hyparquet's chunks: numeric columns into one
+ * Float64Array each (nulls become NaN; float32 widens exactly), others into arrays.
+ */
+async function readParquetColumns(
+  bytes: Uint8Array,
+  columns: ColumnInfo[],
+  rows: number,
+): Promise<Map<string, Float64Array | unknown[]>> {
+  const buffer = arrayBufferOf(bytes);
+  const out = new Map<string, Float64Array | unknown[]>();
+  for (const c of columns) out.set(c.name, numericTypes.has(c.type) ? new Float64Array(rows).fill(Number.NaN) : new Array<unknown>(rows).fill(null));
   await parquetRead({
     file: buffer,
-    columns: names,
+    columns: columns.map((c) => c.name),
     onChunk: ({ columnName, columnData, rowStart }) => {
       const column = out.get(columnName);
       if (!column) return;
-      for (let i = 0; i < columnData.length && rowStart + i < rows; i++) column[rowStart + i] = columnData[i];
+      const length = Math.min(columnData.length, rows - rowStart);
+      if (column instanceof Float64Array) {
+        if (columnData instanceof Float64Array || columnData instanceof Float32Array || columnData instanceof Int32Array) {
+          column.set(length === columnData.length ? columnData : columnData.subarray(0, length), rowStart);
+        } else {
+          for (let i = 0; i < length; i++) column[rowStart + i] = toDouble(columnData[i]);
+        }
+      } else {
+        for (let i = 0; i < length; i++) column[rowStart + i] = columnData[i];
+      }
     },
   });
   return out;
 }
 
-/** Groups row indices by episode value, in order of first appearance. */
-function groupRows(values: ArrayLike<unknown> | null, rows: number): { id: string; rows: number[] }[] {
-  if (!values) return [{ id: "", rows: Array.from({ length: rows }, (_, i) => i) }];
-  const groups = new Map<string, number[]>();
-  for (let r = 0; r < rows; r++) {
-    const v = values[r];
-    const id = v === null || v === undefined ? "(none)" : typeof v === "object" ? JSON.stringify(v) : String(v);
-    let list = groups.get(id);
-    if (!list) groups.set(id, (list = []));
-    list.push(r);
-  }
-  return [...groups].map(([id, list]) => ({ id, rows: list }));
+/** The rows of one episode: a contiguous range `start`..`end` (exclusive), or a list when its rows are scattered. */
+interface RowGroup {
+  id: string;
+  start: number;
+  end: number;
+  rows: number[] | null;
 }
 
-/** Builds the episodes of one table: columns as arrays (or typed arrays) of the file's rows. */
+/** An episode value as an id. */
+function idOf(v: unknown): string {
+  return v === null || v === undefined ? "(none)" : typeof v === "object" ? JSON.stringify(v) : String(v);
+}
+
+/** Groups rows by episode value, in order of first appearance (contiguous runs need no row lists). */
+function groupRows(values: ArrayLike<unknown> | null, rows: number): RowGroup[] {
+  if (!values) return [{ id: "", start: 0, end: rows, rows: null }];
+  const groups: RowGroup[] = [];
+  const byId = new Map<string, RowGroup>();
+  let scattered = false;
+  let r = 0;
+  while (r < rows) {
+    const v = values[r];
+    let end = r + 1;
+    while (end < rows && values[end] === v) end++;
+    const id = idOf(v);
+    const seen = byId.get(id);
+    if (seen) scattered = true;
+    else {
+      const group = { id, start: r, end, rows: null };
+      byId.set(id, group);
+      groups.push(group);
+    }
+    r = end;
+  }
+  if (!scattered) return groups;
+  // an episode's rows come in more than one run: list them (file order kept within the episode)
+  for (const g of groups) g.rows = [];
+  for (let i = 0; i < rows; i++) byId.get(idOf(values[i]))!.rows!.push(i);
+  return groups;
+}
+
+/** Builds the episodes of one table: numeric columns as Float64Arrays, others as arrays of the file's rows. */
 function episodesOf(
   arm: Arm,
   fileName: string,
   multiFile: boolean,
   rows: number,
-  data: Map<string, ArrayLike<unknown>>,
+  data: Map<string, Float64Array | unknown[]>,
   plan: { episode: string | null; time: string | null; frame: string | null; joints: string[] | null; list: string | null },
   rateHz: number | undefined,
 ): Episode[] {
   const n = arm.joints.length;
   const names = arm.joints.map((j) => j.name);
   const groups = groupRows(plan.episode ? data.get(plan.episode)! : null, rows);
-  const time = plan.time ? data.get(plan.time)! : null;
-  const frame = plan.frame ? data.get(plan.frame)! : null;
-  const list = plan.list ? data.get(plan.list)! : null;
-  const jointData = plan.joints ? plan.joints.map((name) => data.get(name)!) : null;
+  const time = plan.time ? (data.get(plan.time) as Float64Array) : null;
+  const frame = plan.frame ? (data.get(plan.frame) as Float64Array) : null;
+  const list = plan.list ? (data.get(plan.list) as unknown[]) : null;
+  const jointData = plan.joints ? plan.joints.map((name) => data.get(name) as Float64Array) : null;
   return groups.map((group) => {
-    const count = group.rows.length;
+    const count = group.rows ? group.rows.length : group.end - group.start;
+    const rowAt = group.rows;
+    const first = group.start;
     const timeS = new Float64Array(count);
     const position = new Float64Array(count * n);
     let jointCount = n;
     for (let i = 0; i < count; i++) {
-      const r = group.rows[i];
-      timeS[i] = time ? toDouble(time[r]) : toDouble(frame ? frame[r] : i) / (rateHz as number); // frame index / rate
-      if (jointData) {
-        for (let j = 0; j < n; j++) position[i * n + j] = toDouble(jointData[j][r]);
-      } else if (list) {
-        const values = list[r] as ArrayLike<unknown> | null | undefined;
+      const r = rowAt ? rowAt[i] : first + i;
+      timeS[i] = time ? time[r] : (frame ? frame[r] : i) / (rateHz as number); // frame index / rate
+    }
+    if (jointData) {
+      for (let j = 0; j < n; j++) {
+        const column = jointData[j];
+        for (let i = 0; i < count; i++) position[i * n + j] = column[rowAt ? rowAt[i] : first + i];
+      }
+    } else if (list) {
+      for (let i = 0; i < count; i++) {
+        const values = list[rowAt ? rowAt[i] : first + i] as ArrayLike<unknown> | null | undefined;
         const length = values ? values.length : 0;
         if (length !== n) jointCount = length; // the wrong number of joints makes the episode invalid
         for (let j = 0; j < n; j++) position[i * n + j] = j < length ? toDouble(values![j]) : Number.NaN;
       }
     }
     const id = plan.episode ? (multiFile ? `${stem(fileName)}/${group.id}` : group.id) : stem(fileName);
-    return { id, recording: { names, jointCount: jointCount === n ? n : jointCount, count, timeS, position: jointCount === n ? position : new Float64Array(0) } };
+    return { id, recording: { names, jointCount, count, timeS, position: jointCount === n ? position : new Float64Array(0) } };
   });
 }
 
@@ -285,7 +341,7 @@ function csvEpisodes(arm: Arm, file: DatasetFile, multiFile: boolean, mapping: C
   }
   const r = parsed.recording;
   const columns: ColumnInfo[] = [{ name: "t", type: "DOUBLE" }, ...r.names.map((name) => ({ name, type: "DOUBLE" }))];
-  const data = new Map<string, ArrayLike<unknown>>();
+  const data = new Map<string, Float64Array | unknown[]>();
   data.set("t", r.timeS);
   r.names.forEach((name, c) => {
     const column = new Float64Array(r.count);
@@ -353,10 +409,10 @@ export async function readDataset(arm: Arm, input: DatasetFile[], mapping: Colum
         problems.push(...plan.problems);
         continue;
       }
-      const needed = [plan.episode, plan.time, plan.frame, plan.list, ...(plan.joints ?? [])].filter((c): c is string => c !== null);
-      let data: Map<string, ArrayLike<unknown>>;
+      const needed = new Set([plan.episode, plan.time, plan.frame, plan.list, ...(plan.joints ?? [])].filter((c): c is string => c !== null));
+      let data: Map<string, Float64Array | unknown[]>;
       try {
-        data = await readParquetColumns(file.bytes, [...new Set(needed)], info.rows);
+        data = await readParquetColumns(file.bytes, info.columns.filter((c) => needed.has(c.name)), info.rows);
       } catch (error) {
         problems.push(`${file.name}: cannot be read (${error instanceof Error ? error.message : String(error)})`);
         continue;

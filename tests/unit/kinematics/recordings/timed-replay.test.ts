@@ -304,6 +304,20 @@ const cleanEpisode = fc
   });
 
 describe("timed replay: properties", () => {
+  it("the median step equals the middle of the sorted steps (mean of the two middle ones for an even count)", () => {
+    fc.assert(
+      fc.property(fc.array(fc.double({ min: 1e-4, max: 2, noNaN: true }), { minLength: 1, maxLength: 60 }), (steps) => {
+        const times = [0];
+        for (const s of steps) times.push(times[times.length - 1] + s);
+        const t = Float64Array.from(times);
+        const sorted = Array.from(t.subarray(1)).map((x, i) => x - t[i]).sort((a, b) => a - b);
+        const m = sorted.length;
+        const expected = m % 2 === 1 ? sorted[(m - 1) / 2] : 0.5 * (sorted[m / 2 - 1] + sorted[m / 2]);
+        expect(medianStepS(t, t.length)).toBe(expected);
+      }),
+    );
+  });
+
   it("a clean generated episode passes", () => {
     fc.assert(
       fc.property(cleanEpisode, (lift) => {
