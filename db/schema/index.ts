@@ -9,3 +9,4 @@ export * from "./audit";
 export * from "./courses";
 export * from "./mail";
 export * from "./account-tokens";
+export * from "./datasets";
