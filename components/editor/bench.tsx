@@ -11,6 +11,7 @@ import { Skeleton } from "@/components/ui/skeleton";
 import { PendingChip, VerdictChip } from "@/components/ui/verdict-chip";
 import { StageErrorBoundary } from "@/components/viewer/error-boundary";
 import type { Arm, Report } from "@/kinematics";
+import type { AngleUnit } from "@/lib/shared/units";
 import { CartesianGoal } from "./cartesian-goal";
 import { MoveList } from "./move-list";
 import { homePose, poseBefore, poseOf, type BenchPlan } from "./plan-state";
@@ -39,6 +40,8 @@ export interface BenchActionState {
   plan: BenchPlan;
   report: Report;
   replace: (plan: BenchPlan) => void;
+  /** The display unit the bench shows revolute joints in. */
+  unit: AngleUnit;
 }
 
 export interface BenchProps {
@@ -73,7 +76,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
   const selectedSafe = selectedReport?.minSafeDuration ?? null;
   const poseTitle = selected === "start" ? "Start pose" : `Move ${selected} goal`;
   const planFix = fixes?.plan ?? null;
-  const actionState = { plan, report, replace };
+  const actionState: BenchActionState = { plan, report, replace, unit };
 
   const headerChip = statusChip(status, report.findings.length);
   const summary = findingsSummary(status, state.schematic);

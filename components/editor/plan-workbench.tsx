@@ -1,8 +1,9 @@
 "use client";
-import { useCallback, useEffect, useRef, useState } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { DateTime } from "@/components/ui/date-time";
 import { Dialog } from "@/components/ui/dialog";
+import { AssignmentRulesPanel, assignmentArm, type BenchAssignment } from "./assignment-rules";
 import { Bench } from "./bench";
 import { dropDraft, keepDraft, readDraft, type Draft } from "./draft";
 import type { BenchPlan } from "./plan-state";
@@ -19,6 +20,8 @@ export interface PlanWorkbenchProps {
   /** The saved version the page loaded (0 before the first save). */
   version: number;
   canEdit: boolean;
+  /** The assignment the plan is worked on for: the bench checks against its limits and lists its poses. */
+  assignment?: BenchAssignment;
 }
 
 /** How long edits wait before the draft is written, ms. */
@@ -37,6 +40,8 @@ export function PlanWorkbench(props: PlanWorkbenchProps) {
   const current = useRef<BenchPlan>(initialPlan);
   const baseVersion = useRef(props.version);
   const guard = useLeaveGuard(dirty);
+  const { assignment } = props;
+  const checkArm = useMemo(() => (assignment ? assignmentArm(assignment) : undefined), [assignment]);
 
   // a draft of the version this page loaded, from an earlier visit
   useEffect(() => {
@@ -80,10 +85,14 @@ export function PlanWorkbench(props: PlanWorkbenchProps) {
         initialPlan={initialPlan}
         planId={planId}
         onPlanChange={onPlanChange}
+        checkArm={checkArm}
+        aside={assignment ? ({ plan, unit }) => <AssignmentRulesPanel assignment={assignment} plan={plan} unit={unit} /> : undefined}
         meta={{ planName: props.planName, armName: props.armName, armRevision: props.armRevision, version }}
-        actions={(state) => (
+        actions={({ plan, report, replace }) => (
           <PlanActions
-            {...state}
+            plan={plan}
+            report={report}
+            replace={replace}
             planId={planId}
             planName={props.planName}
             armRevision={props.armRevision}

@@ -54,6 +54,24 @@ function near(a: readonly number[], b: readonly number[], tolerance: number): bo
   return a.length === b.length && a.every((v, j) => Math.abs(v - b[j]) <= tolerance);
 }
 
+/** Which required poses a plan meets: the start pose, and each required goal reached in order. */
+export type RequiredPoseStatus = { start: boolean | null; goals: boolean[] };
+
+/**
+ * Whether the plan meets each required pose, within the tolerance: the start pose (`null` when none is
+ * required), and the required goals reached in order by some of the plan's moves (others may come between).
+ */
+export function requiredPoseStatus(plan: Plan, rules: Pick<AssignmentRules, "requiredStart" | "requiredGoals" | "poseTolerance">): RequiredPoseStatus {
+  const start = rules.requiredStart ? near(plan.start, rules.requiredStart, rules.poseTolerance) : null;
+  const required = rules.requiredGoals ?? [];
+  let next = 0;
+  for (const move of plan.moves) {
+    const goal = required[next];
+    if (goal && near(move.goal, goal, rules.poseTolerance)) next += 1;
+  }
+  return { start, goals: required.map((_, k) => k < next) };
+}
+
 /** The assignment rules (other than limits) the plan breaks, in a stable order. */
 export function ruleProblems(plan: Plan, armRevisionId: string, rules: AssignmentRules): RuleProblem[] {
   const out: RuleProblem[] = [];
@@ -70,11 +88,7 @@ export function ruleProblems(plan: Plan, armRevisionId: string, rules: Assignmen
     out.push({ rule: "start-pose", message: `The plan does not start at the required start pose (within ${rules.poseTolerance} per joint).` });
   }
   // The required goals must be reached in order by some of the plan's moves (other moves may come between).
-  let next = 0;
-  for (const move of plan.moves) {
-    const goal = rules.requiredGoals?.[next];
-    if (goal && near(move.goal, goal, rules.poseTolerance)) next += 1;
-  }
+  const next = requiredPoseStatus(plan, rules).goals.filter(Boolean).length;
   const total = rules.requiredGoals?.length ?? 0;
   if (next < total) {
     out.push({ rule: "goal-pose", message: `Required goal pose ${next + 1} of ${total} is not reached (in order, within ${rules.poseTolerance} per joint).` });
