@@ -10,7 +10,7 @@ import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import { api, ApiError } from "@/lib/client/api-client";
 import type { CourseCapabilities } from "@/lib/server/permissions";
-import { courseApi } from "./course-client";
+import { queryKeys } from "@/lib/client/query-keys";
 
 export type ArmChoice = { revisionId: string; label: string };
 export type PlanChoice = { planId: string; version: number; label: string; verdict: "pass" | "caution" | "fault" | null };
@@ -97,7 +97,7 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
 
 function InstructorTools({ course, can }: { course: CourseViewProps["course"]; can: CourseCapabilities }) {
   const [emails, setEmails] = useState("");
-  const invite = useMutation({ mutationFn: () => courseApi.invite(course.id, emails.split(/[\s,;]+/).filter(Boolean)) });
+  const invite = useMutation({ mutationFn: () => api.inviteToCourse(course.id, { emails: emails.split(/[\s,;]+/).filter(Boolean) }) });
   return (
     <div className="mt-5 grid gap-4 md:grid-cols-2">
       <Panel className="p-4">
@@ -125,7 +125,7 @@ function SubmitForm({ assignmentId, plans, disabled }: { assignmentId: string; p
   const submit = useMutation({
     mutationFn: () => {
       const [planId, version] = choice.split(":");
-      return courseApi.submit(assignmentId, { planId, versionNumber: Number(version) });
+      return api.submit(assignmentId, { planId, versionNumber: Number(version) });
     },
     onSuccess: () => router.refresh(),
   });
@@ -140,7 +140,7 @@ function SubmitForm({ assignmentId, plans, disabled }: { assignmentId: string; p
       <Button type="submit" variant="primary" size="sm" disabled={disabled || submit.isPending}>Submit</Button>
       {submit.data ? (
         <span role="status" className="flex items-center gap-1 text-xs">
-          <VerdictChip size="sm" verdict={submit.data.submission.verdict as "pass" | "caution" | "fault"} /> attempt {submit.data.submission.attempt}
+          <VerdictChip size="sm" verdict={submit.data.submission.verdict} /> attempt {submit.data.submission.attempt}
           {submit.data.ruleProblems.length ? ` · ${submit.data.ruleProblems.length} rule${submit.data.ruleProblems.length === 1 ? "" : "s"} not met` : ""}
         </span>
       ) : null}
@@ -158,12 +158,12 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
   const [speed, setSpeed] = useState("");
   const [posesFrom, setPosesFrom] = useState("");
   // The required start and goal poses, copied from one of the instructor's saved plan versions.
+  const [posesPlanId, posesVersion] = posesFrom.split(":");
   const poses = useQuery({
-    queryKey: ["plan-version-poses", posesFrom],
+    queryKey: queryKeys.version(posesPlanId, Number(posesVersion)),
     enabled: posesFrom !== "",
-    queryFn: async () => {
-      const [planId, version] = posesFrom.split(":");
-      const v = await api.getVersion(planId, Number(version));
+    queryFn: () => api.getVersion(posesPlanId, Number(posesVersion)),
+    select: (v) => {
       const doc = v.document as { start: number[]; moves: { goal: number[] }[] };
       return { start: doc.start, goals: doc.moves.map((m) => m.goal), armRevisionId: v.armRevisionId };
     },
@@ -171,7 +171,7 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
   const create = useMutation({
     mutationFn: () => {
       const pct = Number(speed);
-      return courseApi.createAssignment(courseId, {
+      return api.createAssignment(courseId, {
         title,
         instructions,
         dueAt: dueAt ? new Date(`${dueAt}Z`).toISOString() : "",
@@ -224,7 +224,7 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
 
 function Roster({ courseId, roster, canManage }: { courseId: string; roster: CourseViewProps["roster"]; canManage: boolean }) {
   const router = useRouter();
-  const remove = useMutation({ mutationFn: (userId: string) => courseApi.removeStudent(courseId, userId), onSuccess: () => router.refresh() });
+  const remove = useMutation({ mutationFn: (userId: string) => api.removeStudent(courseId, userId), onSuccess: () => router.refresh() });
   return (
     <>
       <h2 className="mt-8 text-lg font-semibold">Roster</h2>

@@ -8,7 +8,7 @@ import { SelectField, TextField } from "@/components/ui/field";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { ApiError } from "@/lib/client/api-client";
-import { courseApi } from "./course-client";
+import { api } from "@/lib/client/api-client";
 
 export type CourseRow = { id: string; title: string; term: string; role: "instructor" | "student"; joinCode: string | null };
 
@@ -24,11 +24,11 @@ export function CoursesHome({ courses, canCreate, arms }: { courses: CourseRow[]
   const [term, setTerm] = useState("");
   const [speedPercent, setSpeedPercent] = useState("70");
   const [arm, setArm] = useState("");
-  const join = useMutation({ mutationFn: () => courseApi.join(code), onSuccess: (r) => router.push(`/courses/${r.course.id}`) });
+  const join = useMutation({ mutationFn: () => api.joinCourse(code), onSuccess: (r) => router.push(`/courses/${r.course.id}`) });
   const create = useMutation({
     mutationFn: () => {
       const pct = Number(speedPercent);
-      return courseApi.createCourse({
+      return api.createCourse({
         title,
         term,
         ...(arm ? { requiredArmRevisionId: arm } : {}),
@@ -41,7 +41,7 @@ export function CoursesHome({ courses, canCreate, arms }: { courses: CourseRow[]
   return (
     <div className="mx-auto max-w-6xl px-6 py-8">
       <h1 className="text-2xl font-semibold tracking-tight">Courses</h1>
-      <p className="text-sm text-ink-soft">Assignments, submissions and reviews. A plan runs on the lab&apos;s arm only after an instructor approves it.</p>
+      <p className="text-sm text-ink-soft">Assignments, submissions and reviews. An instructor&apos;s approval means the work is accepted for the assignment; whether a plan runs on the lab&apos;s arm is decided by your lab&apos;s safety rules, not by this tool.</p>
       <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
         <Panel className="overflow-x-auto">
           {courses.length === 0 ? (

@@ -3,12 +3,12 @@ import { useRouter } from "next/navigation";
 import { useMutation } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { ErrorNote, Panel } from "@/components/ui/panel";
-import { courseApi } from "./course-client";
+import { api } from "@/lib/client/api-client";
 
 /** Confirms joining the course an invitation link opens. */
 export function JoinCourse({ code, course }: { code: string; course: { title: string; term: string } | null }) {
   const router = useRouter();
-  const join = useMutation({ mutationFn: () => courseApi.join(code), onSuccess: (r) => router.push(`/courses/${r.course.id}`) });
+  const join = useMutation({ mutationFn: () => api.joinCourse(code), onSuccess: (r) => router.push(`/courses/${r.course.id}`) });
   return (
     <div className="mx-auto max-w-lg px-6 py-12">
       <Panel className="p-6">

@@ -1,14 +1,23 @@
 "use client";
 /**
- * The review comments of a plan's latest returned submission, for the student's bench: the bench
- * mounts it in its left rail with the plan's id and a jump callback (seek the playhead, select the
- * move), and the instructor's comments appear where the student edits. Shows nothing when the plan
- * has no returned submission.
+ * The review of a plan's latest submission, for the student's bench: the bench mounts it in its left
+ * rail with the plan's id and a jump callback (seek the playhead, select the move). A returned
+ * submission shows the instructor's comments where the student edits; an approval given although the
+ * check found faults shows the reviewer's reason and that the faults remain. Shows nothing otherwise.
  */
 import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
 import { RailHeading } from "@/components/ui/panel";
-import { courseApi, courseKeys, type OwnSubmissionDto, type SubmissionDetailDto } from "@/components/courses/course-client";
+import { api, type CommentDto, type OwnSubmissionDto, type ReviewDto, type SubmissionDto } from "@/lib/client/api-client";
+import { queryKeys } from "@/lib/client/query-keys";
+
+/** What the rail needs of one of the student's submissions (from the API's own-submissions list). */
+export type SubmissionSummary = Pick<OwnSubmissionDto, "id" | "planId" | "status" | "attempt" | "assignmentTitle" | "submittedAt">;
+/** What the rail needs of a submission's detail (from GET /api/v1/submissions/:submissionId). */
+export type ReviewDetail = {
+  submission: Pick<SubmissionDto, "id" | "status"> & { review: Pick<ReviewDto, "decision" | "summary" | "faultApprovalReason"> | null };
+  comments: Pick<CommentDto, "id" | "body" | "authorName" | "moveIndex" | "jointIndex" | "timeS">[];
+};
 
 /** Where a comment is pinned: a move, a joint and a moment (s from the plan's start), each optional. */
 export type CommentPin = { moveIndex: number | null; jointIndex: number | null; timeS: number | null };
@@ -33,22 +42,48 @@ export interface PlanReviewCommentsProps {
 }
 
 /** The plan's latest submission when it was returned (a later resubmission or approval hides the comments). */
-export function returnedSubmissionOf(own: readonly OwnSubmissionDto[], planId: string): OwnSubmissionDto | undefined {
-  const latest = own.filter((s) => s.planId === planId).sort((a, b) => b.submittedAt.localeCompare(a.submittedAt))[0];
+export function returnedSubmissionOf<S extends SubmissionSummary>(own: readonly S[], planId: string): S | undefined {
+  const latest = latestSubmissionOf(own, planId);
   return latest?.status === "returned" ? latest : undefined;
 }
 
+/** The plan's latest submission once decided (returned or approved); undefined while it waits or when there is none. */
+export function decidedSubmissionOf<S extends SubmissionSummary>(own: readonly S[], planId: string): S | undefined {
+  const latest = latestSubmissionOf(own, planId);
+  return latest && latest.status !== "submitted" ? latest : undefined;
+}
+
+function latestSubmissionOf<S extends SubmissionSummary>(own: readonly S[], planId: string): S | undefined {
+  return own.filter((s) => s.planId === planId).sort((a, b) => b.submittedAt.localeCompare(a.submittedAt))[0];
+}
+
 export function PlanReviewComments({ planId, joints, onJump }: PlanReviewCommentsProps) {
-  const own = useQuery({ queryKey: courseKeys.ownSubmissions, queryFn: courseApi.ownSubmissions });
-  const returned = own.data ? returnedSubmissionOf(own.data, planId) : undefined;
-  const detail = useQuery({ queryKey: courseKeys.submission(returned?.id ?? "none"), queryFn: () => courseApi.submission(returned!.id), enabled: Boolean(returned) });
-  if (!returned || !detail.data) return null;
-  return <ReviewCommentList returned={returned} detail={detail.data} joints={joints} onJump={onJump} />;
+  const own = useQuery({ queryKey: queryKeys.ownSubmissions(), queryFn: api.listOwnSubmissions });
+  const decided = own.data ? decidedSubmissionOf(own.data, planId) : undefined;
+  const detail = useQuery({ queryKey: queryKeys.submission(decided?.id ?? "none"), queryFn: () => api.getSubmission(decided!.id), enabled: Boolean(decided) });
+  if (!decided || !detail.data) return null;
+  if (decided.status === "approved") return <FaultApprovalNotice detail={detail.data} />;
+  return <ReviewCommentList returned={decided} detail={detail.data} joints={joints} onJump={onJump} />;
+}
+
+/** An approval given although the server's check found faults: the reviewer's reason, and that the faults remain. Nothing for a clean approval. */
+export function FaultApprovalNotice({ detail }: { detail: ReviewDetail }) {
+  const reason = detail.submission.review?.faultApprovalReason;
+  if (!reason) return null;
+  return (
+    <section aria-label="Approved with faults" className="border-b border-line bg-fault-tint/40" data-testid="fault-approval">
+      <RailHeading action={<Link href={`/reviews/${detail.submission.id}`} className="text-xs text-brand-700 hover:underline">Open review</Link>}>Approved with faults</RailHeading>
+      <div className="px-3 pb-3 text-xs">
+        <p>Your instructor approved this submission although the server&apos;s check found faults. Reason given: {reason}</p>
+        <p className="mt-1 text-ink-soft">The faults are still in the plan. Approval means the work was accepted; what runs on the lab&apos;s arm is decided by the lab&apos;s safety rules.</p>
+      </div>
+    </section>
+  );
 }
 
 export interface ReviewCommentListProps {
-  returned: OwnSubmissionDto;
-  detail: SubmissionDetailDto;
+  returned: SubmissionSummary;
+  detail: ReviewDetail;
   joints: readonly string[];
   onJump: (pin: CommentPin) => void;
 }
@@ -67,7 +102,7 @@ export function ReviewCommentList({ returned, detail, joints, onJump }: ReviewCo
         <ol className="mt-2 flex flex-col gap-1.5">
           {comments.map((c) => {
             const where = [
-              c.moveIndex !== null ? `Move ${c.moveIndex}` : "Whole plan",
+              c.moveIndex !== null ? `Move ${c.moveIndex + 1}` : "Whole plan",
               c.jointIndex !== null ? (joints[c.jointIndex] ?? `joint ${c.jointIndex}`) : null,
               c.timeS !== null ? `t = ${c.timeS.toFixed(3)} s` : null,
             ].filter(Boolean).join(" · ");

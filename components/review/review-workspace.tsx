@@ -9,6 +9,7 @@ import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import { JointPlots, type PlotMarker } from "@/components/plots/joint-plots";
 import { plotRateHz } from "@/components/plots/downsample";
 import { Button } from "@/components/ui/button";
+import { Dialog } from "@/components/ui/dialog";
 import { SelectField, TextAreaField } from "@/components/ui/field";
 import { ErrorNote, RailHeading } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
@@ -20,7 +21,9 @@ import type { BenchPlan } from "@/components/editor/plan-state";
 import { Playhead, PlayheadContext, usePlayhead, useSyncTotal } from "@/components/editor/playhead";
 import { Transport } from "@/components/editor/transport";
 import type { RuleProblem } from "@/lib/shared/courses/rules";
-import { courseApi } from "@/components/courses/course-client";
+import { api } from "@/lib/client/api-client";
+import type { SubmissionFault } from "@/lib/shared/courses/faults";
+import { FAULT_APPROVAL_REASON_MAX } from "@/lib/shared/schemas/reviews";
 import { type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
 
@@ -33,6 +36,9 @@ export interface ReviewWorkspaceProps {
   /** The server's report against the assignment's limits, stored at submission time. */
   report: Report;
   ruleProblems: RuleProblem[];
+  /** The faults of the server's check; approving with any (or with a fault verdict) needs a confirmation and a reason. */
+  faults: SubmissionFault[];
+  needsFaultConfirmation: boolean;
   canReview: boolean;
   viewerRole: "instructor" | "student";
   meta: {
@@ -47,7 +53,7 @@ export interface ReviewWorkspaceProps {
     status: "submitted" | "returned" | "approved";
     planVersionNumber: number;
     planId: string | null;
-    review: { decision: "returned" | "approved"; summary: string } | null;
+    review: { decision: "returned" | "approved"; summary: string; faultApprovalReason: string | null } | null;
   };
   comments: ReviewComment[];
 }
@@ -63,7 +69,7 @@ function moveAt(timeline: Timeline, timeS: number): number | null {
 }
 
 /** The review page: the submitted plan read-only in the stage, plots and findings, and the pinned comments. */
-export function ReviewWorkspace({ plan, report, ruleProblems, canReview, viewerRole, meta, comments }: ReviewWorkspaceProps) {
+export function ReviewWorkspace({ plan, report, ruleProblems, faults, needsFaultConfirmation, canReview, viewerRole, meta, comments }: ReviewWorkspaceProps) {
   const playhead = useMemo(() => new Playhead(), []);
   const timeline = useMemo(() => timelineOf(plan), [plan]);
   const samples = useMemo(() => sampleTimeline(timeline, plotRateHz(plan.arm.controlRateHz, timeline.totalS)), [timeline, plan.arm.controlRateHz]);
@@ -116,6 +122,13 @@ export function ReviewWorkspace({ plan, report, ruleProblems, canReview, viewerR
               <div className="border-b border-line px-3 py-2" data-testid="review-summary">
                 <p className="text-xs font-semibold">{meta.review.decision === "approved" ? "Approved" : "Returned"}</p>
                 {meta.review.summary ? <p className="mt-0.5 text-sm">{meta.review.summary}</p> : null}
+                {meta.review.faultApprovalReason ? (
+                  <div className="mt-1.5 rounded-md border border-fault/40 bg-fault-tint/40 px-2 py-1.5 text-xs" data-testid="fault-approval-reason">
+                    <p className="font-semibold text-fault">Approved although the server&apos;s check found faults</p>
+                    <p className="mt-0.5">Reason given: {meta.review.faultApprovalReason}</p>
+                    <p className="mt-0.5 text-ink-soft">The faults are still in the plan. Approval means the work was accepted; what runs on the lab&apos;s arm is decided by the lab&apos;s safety rules.</p>
+                  </div>
+                ) : null}
                 {viewerRole === "student" && meta.review.decision === "returned" ? (
                   <p className="mt-1 text-xs text-ink-soft">Change the plan in your project, save a new version and submit it again from the course page.</p>
                 ) : null}
@@ -136,7 +149,7 @@ export function ReviewWorkspace({ plan, report, ruleProblems, canReview, viewerR
                     }}
                   >
                     <span className="tabular block text-[11px] text-ink-faint">
-                      {c.moveIndex !== null ? `Move ${c.moveIndex}` : "Whole plan"}
+                      {c.moveIndex !== null ? `Move ${c.moveIndex + 1}` : "Whole plan"}
                       {c.jointIndex !== null ? ` · ${plan.arm.joints[c.jointIndex]?.name ?? `joint ${c.jointIndex}`}` : ""}
                       {c.timeS !== null ? ` · t = ${c.timeS.toFixed(3)} s` : ""}
                     </span>
@@ -146,7 +159,9 @@ export function ReviewWorkspace({ plan, report, ruleProblems, canReview, viewerR
                 </li>
               ))}
             </ol>
-            {canReview ? <ReviewActions submissionId={meta.id} timeline={timeline} joints={plan.arm.joints.map((j) => j.name)} /> : null}
+            {canReview ? (
+              <ReviewActions submissionId={meta.id} timeline={timeline} joints={plan.arm.joints.map((j) => j.name)} faults={faults} needsFaultConfirmation={needsFaultConfirmation} />
+            ) : null}
           </aside>
 
           <section aria-label="Stage and timeline" className="flex min-h-0 min-w-0 flex-col">
@@ -177,7 +192,19 @@ export function ReviewWorkspace({ plan, report, ruleProblems, canReview, viewerR
 }
 
 /** Comment pinned to the playhead's moment (and its move) and a chosen joint; approve or return. */
-function ReviewActions({ submissionId, timeline, joints }: { submissionId: string; timeline: Timeline; joints: string[] }) {
+function ReviewActions({
+  submissionId,
+  timeline,
+  joints,
+  faults,
+  needsFaultConfirmation,
+}: {
+  submissionId: string;
+  timeline: Timeline;
+  joints: string[];
+  faults: SubmissionFault[];
+  needsFaultConfirmation: boolean;
+}) {
   const router = useRouter();
   const { timeS } = usePlayhead();
   const [body, setBody] = useState("");
@@ -187,7 +214,7 @@ function ReviewActions({ submissionId, timeline, joints }: { submissionId: strin
   const move = moveAt(timeline, timeS);
   const comment = useMutation({
     mutationFn: () =>
-      courseApi.comment(submissionId, {
+      api.addComment(submissionId, {
         body,
         ...(pinTime && move !== null ? { moveIndex: move, timeS: Math.round(timeS * 1000) / 1000 } : {}),
         ...(joint !== "" ? { jointIndex: Number(joint) } : {}),
@@ -197,14 +224,23 @@ function ReviewActions({ submissionId, timeline, joints }: { submissionId: strin
       router.refresh();
     },
   });
-  const decide = useMutation({ mutationFn: (decision: "returned" | "approved") => courseApi.decide(submissionId, { decision, summary }), onSuccess: () => router.refresh() });
+  const [confirming, setConfirming] = useState(false);
+  const [reason, setReason] = useState("");
+  const decide = useMutation({
+    mutationFn: (decision: "returned" | "approved") =>
+      api.decide(submissionId, decision === "approved" && needsFaultConfirmation ? { decision, summary, confirmFaults: true, reason } : { decision, summary }),
+    onSuccess: () => {
+      setConfirming(false);
+      router.refresh();
+    },
+  });
   return (
     <div className="mt-auto border-t border-line px-3 py-3">
       <form onSubmit={(e) => { e.preventDefault(); comment.mutate(); }} className="flex flex-col gap-2">
         <TextAreaField label="Comment" rows={3} value={body} onChange={(e) => setBody(e.target.value)} />
         <label className="flex items-center gap-2 text-xs text-ink-soft">
           <input type="checkbox" checked={pinTime} onChange={(e) => setPinTime(e.target.checked)} />
-          Pin to {move !== null ? `move ${move} at t = ${timeS.toFixed(3)} s` : "the current moment"} (move the playhead to choose)
+          Pin to {move !== null ? `move ${move + 1} at t = ${timeS.toFixed(3)} s` : "the current moment"} (move the playhead to choose)
         </label>
         <SelectField label="Joint" value={joint} onChange={(e) => setJoint(e.target.value)}>
           <option value="">No particular joint</option>
@@ -217,10 +253,51 @@ function ReviewActions({ submissionId, timeline, joints }: { submissionId: strin
         <TextAreaField label="Summary for the student" rows={2} value={summary} onChange={(e) => setSummary(e.target.value)} hint="Required when returning." />
         <div className="flex gap-2">
           <Button variant="danger" size="sm" disabled={decide.isPending || !summary.trim()} onClick={() => decide.mutate("returned")}>Return with comments</Button>
-          <Button variant="primary" size="sm" disabled={decide.isPending} onClick={() => decide.mutate("approved")}>Approve</Button>
+          <Button variant="primary" size="sm" disabled={decide.isPending} onClick={() => (needsFaultConfirmation ? setConfirming(true) : decide.mutate("approved"))}>
+            {needsFaultConfirmation ? "Approve despite faults…" : "Approve"}
+          </Button>
         </div>
-        {decide.error ? <ErrorNote>{decide.error.message}</ErrorNote> : null}
+        {decide.error && !confirming ? <ErrorNote>{decide.error.message}</ErrorNote> : null}
       </div>
+      <Dialog
+        open={confirming}
+        title="Approve a plan whose check found faults?"
+        onClose={() => setConfirming(false)}
+        className="max-w-xl"
+        actions={
+          <>
+            <Button size="sm" onClick={() => setConfirming(false)}>Cancel</Button>
+            <Button variant="danger" size="sm" disabled={decide.isPending || !reason.trim()} onClick={() => decide.mutate("approved")}>Approve with this reason</Button>
+          </>
+        }
+      >
+        <p>
+          The server&apos;s check against the assignment&apos;s limits found {faults.length === 1 ? "this fault" : faults.length > 1 ? `these ${faults.length} faults` : "a fault verdict"}. On the arm, the
+          controller would stop or refuse the motion there. Approving accepts the work as it is; the faults stay in the plan.
+        </p>
+        {faults.length > 0 ? (
+          <ul className="mt-3 flex max-h-56 flex-col gap-1.5 overflow-y-auto" data-testid="approval-faults">
+            {faults.map((f, i) => (
+              <li key={i} className="rounded-md border border-fault/40 bg-fault-tint/40 px-2 py-1 text-xs">
+                <span className="font-semibold text-fault">Fault</span>
+                {f.move !== null ? ` · move ${f.move + 1}` : ""}
+                {f.joint !== null ? ` · ${joints[f.joint] ?? `joint ${f.joint + 1}`}` : ""}: {f.message}
+              </li>
+            ))}
+          </ul>
+        ) : null}
+        <div className="mt-3">
+          <TextAreaField
+            label="Reason for approving (the student sees it)"
+            rows={3}
+            maxLength={FAULT_APPROVAL_REASON_MAX}
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            hint={`Required, at most ${FAULT_APPROVAL_REASON_MAX} characters. Approval does not clear the plan to run; the lab's safety rules decide that.`}
+          />
+        </div>
+        {decide.error ? <div className="mt-2"><ErrorNote>{decide.error.message}</ErrorNote></div> : null}
+      </Dialog>
     </div>
   );
 }

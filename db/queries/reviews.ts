@@ -177,7 +177,7 @@ export async function addComment(input: {
  * decisions at once exactly one wins: the status change is a compare-and-set in one UPDATE.
  */
 export async function decideSubmission(
-  input: { submissionId: string; reviewerId: string; decision: ReviewDecision; summary: string },
+  input: { submissionId: string; reviewerId: string; decision: ReviewDecision; summary: string; faultApprovalReason?: string | null },
   mails: (review: Review) => OutboxInput[],
 ): Promise<{ review: Review; mailIds: string[] } | undefined> {
   return db.transaction(async (tx) => {
@@ -207,7 +207,13 @@ export async function decideSubmission(
     if (!changed) return undefined;
     const [review] = await tx
       .insert(reviews)
-      .values({ submissionId: input.submissionId, reviewerId: input.reviewerId, decision: input.decision, summary: input.summary })
+      .values({
+        submissionId: input.submissionId,
+        reviewerId: input.reviewerId,
+        decision: input.decision,
+        summary: input.summary,
+        faultApprovalReason: input.faultApprovalReason ?? null,
+      })
       .returning();
     const mailIds = await insertOutbox(tx, mails(review));
     return { review, mailIds };

@@ -2,13 +2,20 @@
  * Typed fetch wrappers over the /api/v1 routes, for TanStack Query in client components. Every
  * failure becomes an {@link ApiError} carrying the API's one error shape (code, message, field issues).
  */
+import type { z } from "zod";
 import type { ArmListItem } from "@/db/queries/arms";
+import type { AssignmentListItem, CourseForUser, MySubmission, RosterEntry } from "@/db/queries/courses";
+import type { CommentItem, SubmissionForUser } from "@/db/queries/reviews";
+import type { Assignment, Review, Submission } from "@/db/schema/courses";
 import type { ProjectForUser } from "@/db/queries/projects";
 import type { PlanListItem, VersionListItem } from "@/db/queries/plans";
 import type { ArmRevision } from "@/db/schema/arms";
 import type { PlanVersion } from "@/db/schema/plans";
 import type { Report } from "@/kinematics";
+import type { RuleProblem } from "@/lib/shared/courses/rules";
 import type { Change } from "@/lib/shared/plan-diff";
+import type { createAssignmentSchema, createCourseSchema, inviteSchema, submitSchema } from "@/lib/shared/schemas/courses";
+import type { commentSchema, decisionSchema } from "@/lib/shared/schemas/reviews";
 
 /** A type as it arrives over JSON: dates become ISO strings. */
 export type Jsonified<T> = T extends Date
@@ -25,6 +32,16 @@ export type VersionDto = Jsonified<VersionListItem>;
 export type ArmDto = Jsonified<ArmListItem>;
 export type ArmRevisionDto = Jsonified<ArmRevision>;
 export type SavedVersionDto = Jsonified<PlanVersion> & { armRevision: number };
+/** A course as the API answers it: `joinCode` only for those who may see it (lib/server/permissions.ts). */
+export type CourseDto = Jsonified<Omit<CourseForUser, "joinCode">> & { joinCode?: string; inviteUrl?: string };
+export type AssignmentDto = Jsonified<Assignment>;
+export type AssignmentListDto = Jsonified<AssignmentListItem>;
+export type RosterEntryDto = Jsonified<RosterEntry>;
+export type OwnSubmissionDto = Jsonified<MySubmission>;
+export type SubmissionDto = Jsonified<SubmissionForUser>;
+export type ReviewDto = Jsonified<Review>;
+export type CommentDto = Jsonified<CommentItem>;
+export type SubmissionDetailDto = { submission: SubmissionDto; comments: CommentDto[] };
 
 export interface FieldIssue {
   path: string;
@@ -101,6 +118,24 @@ export const api = {
     request<{ recordings: RecordingDto[] }>(`/api/v1/projects/${projectId}/recordings`).then((r) => r.recordings),
   recordingFileUrl: (recordingId: string) => `/api/v1/recordings/${recordingId}/file`,
   check: (document: unknown) => request<{ report: Report }>("/api/v1/check", post(document)),
+
+  // Courses, assignments, submissions and reviews: inputs are the handlers' own zod schemas (z.input).
+  createCourse: (input: z.input<typeof createCourseSchema>) =>
+    request<{ course: CourseDto & { joinCode: string; inviteUrl: string } }>("/api/v1/courses", post(input)).then((r) => r.course),
+  joinCourse: (code: string) => request<{ course: Pick<CourseDto, "id" | "title" | "term">; role: CourseDto["role"] }>("/api/v1/courses/join", post({ code })),
+  inviteToCourse: (courseId: string, input: z.input<typeof inviteSchema>) =>
+    request<{ invited: string[]; inviteUrl: string }>(`/api/v1/courses/${courseId}/invitations`, post(input)),
+  removeStudent: (courseId: string, userId: string) => request<{ removed: string }>(`/api/v1/courses/${courseId}/roster/${userId}`, { method: "DELETE" }),
+  createAssignment: (courseId: string, input: z.input<typeof createAssignmentSchema>) =>
+    request<{ assignment: AssignmentDto }>(`/api/v1/courses/${courseId}/assignments`, post(input)).then((r) => r.assignment),
+  submit: (assignmentId: string, input: z.input<typeof submitSchema>) =>
+    request<{ submission: Omit<Jsonified<Submission>, "document">; report: Report; ruleProblems: RuleProblem[] }>(`/api/v1/assignments/${assignmentId}/submissions`, post(input)),
+  listOwnSubmissions: () => request<{ submissions: OwnSubmissionDto[] }>("/api/v1/submissions").then((r) => r.submissions),
+  getSubmission: (submissionId: string) => request<SubmissionDetailDto>(`/api/v1/submissions/${submissionId}`),
+  addComment: (submissionId: string, input: z.input<typeof commentSchema>) =>
+    request<{ comment: CommentDto }>(`/api/v1/reviews/${submissionId}/comments`, post(input)).then((r) => r.comment),
+  decide: (submissionId: string, input: z.input<typeof decisionSchema>) =>
+    request<{ review: ReviewDto }>(`/api/v1/reviews/${submissionId}/decision`, post(input)).then((r) => r.review),
 };
 
 /** A stored recording's metadata, as the API lists it. */

@@ -10,4 +10,9 @@ export const queryKeys = {
   arms: (projectId?: string) => (projectId ? (["arms", { projectId }] as const) : (["arms"] as const)),
   arm: (armId: string) => ["arms", armId] as const,
   recordings: (projectId: string) => ["projects", projectId, "recordings"] as const,
+  courses: () => ["courses"] as const,
+  course: (courseId: string) => ["courses", courseId] as const,
+  roster: (courseId: string) => ["courses", courseId, "roster"] as const,
+  submission: (submissionId: string) => ["submissions", submissionId] as const,
+  ownSubmissions: () => ["submissions", "own"] as const,
 };

@@ -73,14 +73,19 @@ export function submissionDecided(input: {
   decision: "returned" | "approved";
   reviewerName: string;
   summary: string;
+  /** Set when the reviewer approved although the server's check found faults. */
+  faultApprovalReason?: string | null;
   commentCount: number;
   submissionId: string;
 }): MailContent {
   const approved = input.decision === "approved";
   const paragraphs = approved
     ? [
-        `${input.reviewerName} approved your plan for ${input.assignmentTitle} in ${input.courseTitle}.`,
-        "Approval means the plan may be run on the lab's arm under your lab's safety rules: clamp the arm, clear the workspace, keep the emergency stop within reach and start at reduced speed.",
+        `${input.reviewerName} approved your plan for ${input.assignmentTitle} in ${input.courseTitle}: your instructor accepted the work for this assignment.`,
+        ...(input.faultApprovalReason
+          ? [`The server's check found faults in this plan; they are still there. ${input.reviewerName} approved it anyway, for this reason: ${input.faultApprovalReason}`]
+          : []),
+        "Approval is not a clearance to run the plan. Whether and how anything runs on the lab's arm is decided by your lab's safety rules and the people responsible for the arm; Jointproof's check is a prediction from a model, not a guarantee.",
       ]
     : [
         `${input.reviewerName} returned your plan for ${input.assignmentTitle} in ${input.courseTitle} with ${input.commentCount} comment${input.commentCount === 1 ? "" : "s"}.`,

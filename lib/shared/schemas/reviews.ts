@@ -17,13 +17,31 @@ export const commentSchema = z
   .strict();
 export type CommentInput = z.infer<typeof commentSchema>;
 
+/** Longest reason a reviewer may give for approving a submission whose check found faults. */
+export const FAULT_APPROVAL_REASON_MAX = 1000;
+
 export const decisionSchema = z
   .object({
     decision: z.enum(["returned", "approved"], { error: 'must be "returned" or "approved"' }),
     summary: z.string().trim().max(5000).default(""),
+    /**
+     * Approving a submission whose server check found a fault needs this (`true`) and a `reason`:
+     * the reviewer has seen the faults and says why the work is accepted anyway.
+     */
+    confirmFaults: z.literal(true, { error: "must be true when given" }).optional(),
+    reason: z
+      .string({ error: "must be text" })
+      .trim()
+      .min(1, { error: "is required: say why the plan is approved despite its faults" })
+      .max(FAULT_APPROVAL_REASON_MAX, { error: `must be at most ${FAULT_APPROVAL_REASON_MAX} characters` })
+      .optional(),
   })
   .strict()
-  .refine((d) => d.decision !== "returned" || d.summary.length > 0, { path: ["summary"], error: "is required when returning a submission" });
+  .refine((d) => d.decision !== "returned" || d.summary.length > 0, { path: ["summary"], error: "is required when returning a submission" })
+  .refine((d) => d.decision === "approved" || (d.confirmFaults === undefined && d.reason === undefined), { path: ["confirmFaults"], error: "applies to approvals only" })
+  .refine((d) => !d.confirmFaults || d.reason !== undefined, { path: ["reason"], error: "is required when confirming faults: say why the plan is approved despite them" })
+  .refine((d) => d.reason === undefined || d.confirmFaults === true, { path: ["confirmFaults"], error: "must be true when a reason is given" });
+export type DecisionInput = z.infer<typeof decisionSchema>;
 
 /** The review queue's filters and sort, from the query string. */
 export const queueQuerySchema = z

@@ -3,6 +3,7 @@ import { notFound } from "next/navigation";
 import { getSubmissionForUser, listComments } from "@/db/queries/reviews";
 import type { BenchPlan } from "@/components/editor/plan-state";
 import { ReviewWorkspace } from "@/components/review/review-workspace";
+import { hasFaults, reportFaults } from "@/lib/shared/courses/faults";
 import { tightenArm, type RuleProblem } from "@/lib/shared/courses/rules";
 import { limitsSchema } from "@/lib/shared/schemas/courses";
 import { parsePlan, type Report } from "@/kinematics";
@@ -35,6 +36,8 @@ export default async function ReviewPage({ params }: { params: Promise<{ submiss
       plan={plan}
       report={submission.report as Report}
       ruleProblems={submission.ruleProblems as RuleProblem[]}
+      faults={reportFaults(submission.report)}
+      needsFaultConfirmation={hasFaults(submission)}
       canReview={capabilities(actor, { kind: "submission", viewerRole: submission.viewerRole, status: submission.status }).canDecide}
       viewerRole={submission.viewerRole}
       meta={{
@@ -49,7 +52,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ submiss
         status: submission.status,
         planVersionNumber: submission.planVersionNumber,
         planId: submission.planId,
-        review: submission.review ? { decision: submission.review.decision, summary: submission.review.summary } : null,
+        review: submission.review ? { decision: submission.review.decision, summary: submission.review.summary, faultApprovalReason: submission.review.faultApprovalReason } : null,
       }}
       comments={comments.map((c) => ({ id: c.id, body: c.body, authorName: c.authorName, moveIndex: c.moveIndex, jointIndex: c.jointIndex, timeS: c.timeS, createdAt: c.createdAt.toISOString() }))}
     />
