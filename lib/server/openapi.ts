@@ -162,7 +162,7 @@ const operations: Op[] = [
   { method: "get", path: "/reviews", summary: "The review queue of the courses you teach, with filters and sorting", tag: "Reviews", query: review.queueQuerySchema, ok: 200, errors: [400, 401] },
   { method: "get", path: "/reviews/{submissionId}/comments", summary: "The comments on a submission", tag: "Reviews", params: [p("submissionId")], ok: 200, errors: [401, 403, 404] },
   { method: "post", path: "/reviews/{submissionId}/comments", summary: "Pin a comment to a move, a joint and a time of a submission (instructors)", tag: "Reviews", params: [p("submissionId")], body: ref("Comment"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415] },
-  { method: "post", path: "/reviews/{submissionId}/decision", summary: "Approve a submission or return it with a summary (instructors); the student is e-mailed", tag: "Reviews", params: [p("submissionId")], body: ref("Decision"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415] },
+  { method: "post", path: "/reviews/{submissionId}/decision", summary: "Approve a submission or return it with a summary (instructors); the student is e-mailed. Approving one whose check found a fault needs confirmFaults: true and a reason (422 otherwise); approval accepts the work and does not clear a plan to run", tag: "Reviews", params: [p("submissionId")], body: ref("Decision"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415, 422] },
 ];
 
 const statusText: Record<number, string> = {
