@@ -1,11 +1,12 @@
 import Link from "next/link";
+import { hintFor } from "@/lib/shared/glossary";
 
 /** Every check the engine runs, in the words of the product (PRODUCT.md's table). */
-const CHECKS = [
+const CHECKS: { title: string; body: string; hint?: string }[] = [
   { title: "Travel", body: "Every start and goal value inside each joint's travel, min to max." },
   { title: "Speed", body: "Each move's peak joint speed against the joint's limit, with the shortest safe duration when a move is too quick." },
   { title: "Acceleration", body: "Each move's peak joint acceleration against the joint's limit, for the shape you chose: cubic, quintic or trapezoid." },
-  { title: "Instant-move jump", body: "A duration-0 step larger than a joint can travel in one control period, which the controller would refuse." },
+  { title: "Instant-move jump", body: "A duration-0 step larger than a joint can travel in one control period, which the controller would refuse.", hint: hintFor("controlPeriod") },
   { title: "Effort", body: "Torque (or force, for a sliding joint) needed to hold and move the arm and its payload, against each motor's limit." },
   { title: "Clearance", body: "Every link against the work surface and the keep-out zones, sample by sample along the motion." },
   { title: "Tool speed", body: "The speed of the tool point in space, for first runs at reduced speed." },
@@ -43,6 +44,7 @@ export default function LandingPage() {
             <li key={c.title} className="rounded-card border border-line bg-panel p-5">
               <h3 className="font-medium text-brand-700">{c.title}</h3>
               <p className="mt-2 text-sm leading-relaxed text-ink-soft">{c.body}</p>
+              {c.hint ? <p className="mt-2 text-xs leading-relaxed text-ink-faint">{c.hint}</p> : null}
             </li>
           ))}
         </ul>

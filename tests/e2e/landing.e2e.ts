@@ -10,12 +10,14 @@ describe("landing page", () => {
     await s?.close();
   });
 
-  it("shows the product name, the pitch and a sign-in link, without console errors", async () => {
+  it("shows the product name, the pitch, sign-in, sign-up and try-out bench links, without console errors", async () => {
     const res = await s.page.goto("/");
     expect(res?.status()).toBe(200);
     await expect(s.page.locator("h1").textContent()).resolves.toContain("Jointproof");
     const signIn = s.page.getByRole("link", { name: /sign in/i }).first();
     await expect(signIn.getAttribute("href")).resolves.toBe("/sign-in");
+    await expect(s.page.getByRole("link", { name: "Create an account" }).getAttribute("href")).resolves.toBe("/sign-up");
+    await expect(s.page.getByRole("link", { name: "Open the try-out bench" }).getAttribute("href")).resolves.toBe("/bench");
     await s.page.screenshot({ path: `${screenshotDir}/landing.png`, fullPage: true });
     expect(s.errors).toEqual([]);
   });

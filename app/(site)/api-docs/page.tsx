@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { apiOperations } from "@/lib/server/openapi";
+import { PAGE_LIMIT_DEFAULT, PAGE_LIMIT_MAX } from "@/lib/server/paging";
 
 export const metadata: Metadata = { title: "API reference" };
 
@@ -57,6 +58,28 @@ export default function ApiDocsPage() {
           Saving a version states <code className="font-mono text-sm">baseVersion</code>, the version your edit started from. If someone saved in
           between, the answer is <strong>409</strong> with <code className="font-mono text-sm">latestVersion</code>: load it and merge, or save your
           work as a new plan. Nothing is overwritten.
+        </p>
+      </section>
+
+      <section className="mt-10 space-y-3">
+        <h2 className="text-xl font-semibold">Lists, a page at a time</h2>
+        <p className="text-ink-soft">
+          The lists of projects, plans, members and the audit log answer one page with <code className="font-mono text-sm">nextCursor</code>. Ask for
+          the next page with <code className="font-mono text-sm">?cursor=</code> and that value, until it is <code className="font-mono text-sm">null</code>;{" "}
+          <code className="font-mono text-sm">?limit=</code> sets the page size ({PAGE_LIMIT_DEFAULT} by default, at most {PAGE_LIMIT_MAX}). Every row comes
+          once, in a fixed order; a cursor that is not from the same list is refused with 400.
+        </p>
+        <pre className="overflow-x-auto rounded bg-brand-900 p-4 font-mono text-sm text-brand-50">
+{`GET /api/v1/projects?limit=2
+{ "projects": [ … two projects … ], "nextCursor": "WyIyMDI2LTEyLTAy…" }`}
+        </pre>
+      </section>
+
+      <section className="mt-10 space-y-3">
+        <h2 className="text-xl font-semibold">Numbering</h2>
+        <p className="text-ink-soft">
+          Screens and messages count moves, episodes and lines from 1 (&ldquo;Move 1&rdquo; is the first move). JSON stays 0-based: a finding&apos;s{" "}
+          <code className="font-mono text-sm">move: 0</code> and the field path <code className="font-mono text-sm">moves[0]</code> both name Move 1.
         </p>
       </section>
 

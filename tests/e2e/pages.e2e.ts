@@ -1,0 +1,138 @@
+// Every page of the words-and-tables pass at 1440×900, screenshots under .data/test/screenshots/,
+// and the behaviours they pin: the landing names every check, the API reference shows methods
+// in plain monospace, a 404 of our own, the demo data's hand-guided names, TanStack tables that
+// sort on a header click, and a server field error shown under its field.
+import type { Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { demoPeople } from "@/db/demo";
+import { openBrowser, screenshotDir, type BrowserSession } from "./browser";
+
+const researcher = demoPeople[3];
+
+async function shot(page: Page, name: string) {
+  await page.screenshot({ path: `${screenshotDir}/pages-${name}.png`, fullPage: true });
+}
+
+async function signIn(page: Page, email: string, password: string) {
+  await page.goto("/sign-in?callbackUrl=%2Fprojects");
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
+  await page.waitForURL(/\/projects$/);
+}
+
+describe("pages at 1440×900", () => {
+  let s: BrowserSession;
+  beforeAll(async () => {
+    s = await openBrowser();
+    await s.page.setViewportSize({ width: 1440, height: 900 });
+  });
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it("landing: names every check, links sign-in, sign-up and the try-out bench, and claims no proof", async () => {
+    const { page } = s;
+    expect((await page.goto("/"))?.status()).toBe(200);
+    const checks = await page.locator("#checks + ul h3").allTextContents();
+    expect(checks).toEqual(["Travel", "Speed", "Acceleration", "Instant-move jump", "Effort", "Clearance", "Tool speed", "Recordings"]);
+    const main = page.locator("main");
+    await expect(main.getByRole("link", { name: "Create an account" }).getAttribute("href")).resolves.toBe("/sign-up");
+    await expect(main.getByRole("link", { name: "Open the try-out bench" }).getAttribute("href")).resolves.toBe("/bench");
+    await expect(main.getByRole("link", { name: "Sign in" }).getAttribute("href")).resolves.toBe("/sign-in");
+    expect(await page.locator("body").innerText()).not.toMatch(/\bprove(n)?\b|\bproof\b/i);
+    await shot(page, "landing");
+  });
+
+  it("API reference: every method in plain monospace, no background colour per method", async () => {
+    const { page } = s;
+    expect((await page.goto("/api-docs"))?.status()).toBe(200);
+    const methods = page.locator("tbody td:first-child span");
+    expect(await methods.count()).toBeGreaterThan(30);
+    const looks = await methods.evaluateAll((els) =>
+      els.map((e) => {
+        const css = getComputedStyle(e);
+        return `${e.textContent}|${css.backgroundColor}|${css.color}|${css.fontFamily.includes("mono") || css.fontFamily.includes("JetBrains")}`;
+      }),
+    );
+    const byMethod = new Map(looks.map((l) => [l.split("|")[0], l.split("|").slice(1).join("|")]));
+    // One look for get, post, patch and delete alike: transparent background, the same colour, monospace.
+    expect(new Set(byMethod.values()).size).toBe(1);
+    expect([...byMethod.values()][0]).toMatch(/^rgba\(0, 0, 0, 0\)\|.*\|true$/);
+    await shot(page, "api-docs");
+  });
+
+  it("an unknown address answers 404 with our own page and a way on", async () => {
+    const { page } = s;
+    const res = await page.goto("/no-such-page");
+    expect(res?.status()).toBe(404);
+    await expect(page.locator("h1").textContent()).resolves.toBe("This page does not exist");
+    await expect(page.getByRole("link", { name: "Try-out bench" }).first().getAttribute("href")).resolves.toBe("/bench");
+    await shot(page, "not-found");
+  });
+
+  it("account pages: forgot-password refuses a bad address in the API's words, reset and verify explain a missing link", async () => {
+    const { page } = s;
+    await page.goto("/forgot-password");
+    await page.getByLabel("E-mail").fill("not-an-address");
+    await page.getByRole("button", { name: "Send the reset link" }).click();
+    await expect(page.getByText("E-mail must be an e-mail address.").isVisible()).resolves.toBe(true);
+    await shot(page, "forgot-password");
+    await page.goto("/reset-password?token=abc");
+    await page.getByLabel("New password").fill("short");
+    await page.getByRole("button", { name: "Set the new password" }).click();
+    await expect(page.getByText("The password must be at least 10 characters.").isVisible()).resolves.toBe(true);
+    await shot(page, "reset-password");
+    await page.goto("/reset-password");
+    await expect(page.getByRole("alert").textContent()).resolves.toContain("needs the link from the reset e-mail");
+    await page.goto("/verify-email?token=abc");
+    await shot(page, "verify-email");
+    await page.goto("/safety");
+    await shot(page, "safety");
+  });
+
+  it("projects: the demo project is hand-guided, plan tables sort on a header click", async () => {
+    const { page } = s;
+    await signIn(page, researcher.email, researcher.password);
+    await page.getByRole("heading", { name: "Hand-guided demonstrations" }).waitFor();
+    expect(await page.locator("main").innerText()).not.toMatch(/lead[- ]arm/i);
+    const table = page.getByRole("table", { name: "Plans in Hand-guided demonstrations" });
+    await expect(table.locator("tbody tr").first().innerText()).resolves.toContain("Bench arm · gripper");
+    const changed = table.getByRole("columnheader", { name: /Changed/ });
+    await expect(changed.getAttribute("aria-sort")).resolves.toBe("descending");
+    await table.getByRole("button", { name: /Plan/ }).click();
+    await expect(table.getByRole("columnheader", { name: /Plan/ }).getAttribute("aria-sort")).resolves.toBe("ascending");
+    // Dates in the one format: day, short month, year, 24-hour time.
+    expect(await table.locator("tbody time").first().textContent()).toMatch(/^\d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2}$/);
+    await shot(page, "projects");
+  });
+
+  it("project page: adding an unknown e-mail shows the API's field error under the E-mail field", async () => {
+    const { page } = s;
+    await page.getByRole("link", { name: "Hand-guided demonstrations" }).first().click();
+    await page.waitForURL(/\/projects\/[0-9a-f-]{36}$/);
+    const members = page.getByTestId("members-table");
+    await expect(members.innerText()).resolves.toContain(researcher.email);
+    const form = page.getByRole("form", { name: "Add a member" });
+    await form.getByLabel("E-mail").fill("nobody-here@example.com");
+    await form.getByRole("button", { name: "Add or change role" }).click();
+    const email = form.getByLabel("E-mail");
+    await page.waitForFunction(() => document.querySelector('form[aria-label="Add a member"] input[type="email"]')?.getAttribute("aria-invalid") === "true");
+    const errorId = (await email.getAttribute("aria-describedby"))!.split(" ").at(-1)!;
+    await expect(page.locator(`[id="${errorId}"]`).textContent()).resolves.toBe("The e-mail has no account.");
+    await expect(page.getByTestId("audit-table").innerText()).resolves.toMatch(/member\.set|plan\.create|project\.create|version\.create/);
+    await shot(page, "project");
+  });
+
+  it("API tokens: the form and the table, with a new token listed", async () => {
+    const { page } = s;
+    await page.goto("/settings/tokens");
+    await page.getByLabel("Name", { exact: true }).fill(`pages test ${Date.now()}`);
+    await page.getByRole("button", { name: "Create token" }).click();
+    await page.getByText("Copy your new token now").waitFor();
+    const rows = page.getByRole("table", { name: "Your API tokens" }).locator("tbody tr");
+    expect(await rows.count()).toBeGreaterThan(0);
+    await shot(page, "tokens");
+    expect(s.errors.filter((e) => !/404|401|400|422/.test(e))).toEqual([]);
+  });
+});
