@@ -62,7 +62,7 @@ export interface BenchProps {
 }
 
 /**
- * The bench: the plan outline and pose editor on the left, the 3D stage with the timeline strip of
+ * The bench: the plan outline and pose editor on the left, the 3D view with the timeline strip of
  * plots in the centre, the findings on the right. Every edit re-runs the engine's check in the browser
  * (use-bench-state.ts); which fix each finding offers is decided in quick-fixes.ts.
  */
@@ -173,7 +173,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
             <div className="relative h-[min(380px,48vh)] shrink-0 bg-[#f3f1ea] xl:h-auto xl:min-h-[260px] xl:flex-1 xl:shrink" data-testid="stage">
               {state.canRender3d === false ? (
                 <div role="alert" className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft">
-                  This browser offers no WebGL, so the 3D stage is off. The moves, findings and plots still work.
+                  This browser offers no WebGL, so the 3D view is off. The moves, findings and plots still work.
                 </div>
               ) : state.canRender3d ? (
                 <StageErrorBoundary>

@@ -7,8 +7,8 @@ export function ScratchBench({ plan }: { plan: BenchPlan }) {
   return (
     <Bench
       initialPlan={plan}
-      meta={{ planName: "Scratch plan", armName: plan.arm.name }}
-      actions={() => <span className="text-xs text-ink-faint">Scratch bench: nothing is saved. Sign in to keep plans in a project.</span>}
+      meta={{ planName: "Unsaved plan", armName: plan.arm.name }}
+      actions={() => <span className="text-xs text-ink-faint">Try-out bench: nothing is saved. Sign in to keep plans in a project.</span>}
     />
   );
 }

@@ -4,7 +4,7 @@ import armL from "@/kinematics/arm/presets/bench-arm-l.json";
 import { formatProblem, parseArm, armChainSchema } from "@/kinematics";
 import { scratchPlan } from "@/components/editor/demo-plan";
 
-export const metadata: Metadata = { title: "Scratch bench" };
+export const metadata: Metadata = { title: "Try-out bench" };
 
 /** A bench that needs no account: a demo plan on the light demo arm, checked live, never saved. */
 export default function ScratchBenchPage() {

@@ -49,7 +49,7 @@ describe("renamed labels stay renamed", () => {
     for (const colour of used) expect(palette.has(colour), colour).toBe(true);
   });
 
-  it("has no 'Scratch bench', 'Scratch plan' or '3D stage' in the pages this pass owns", () => {
+  it("has no 'Scratch bench', 'Scratch plan' or '3D stage' on the landing, the projects pages and the try-out bench", () => {
     const files = [
       "app/(site)/page.tsx",
       "app/(site)/api-docs/page.tsx",
@@ -58,6 +58,9 @@ describe("renamed labels stay renamed", () => {
       "app/error.tsx",
       "components/projects/projects-dashboard.tsx",
       "components/projects/project-overview.tsx",
+      "components/editor/scratch-bench.tsx",
+      "components/editor/bench.tsx",
+      "app/(workspace)/bench/page.tsx",
       "DEVELOPERS.md",
     ];
     for (const file of files) {
