@@ -62,6 +62,16 @@ describe("pages at 1440×900", () => {
     await shot(page, "api-docs");
   });
 
+  it("try-out bench: the plan is called Unsaved plan and the page Try-out bench", async () => {
+    const { page } = s;
+    expect((await page.goto("/bench"))?.status()).toBe(200);
+    await expect(page.getByTestId("plan-name").textContent()).resolves.toBe("Unsaved plan");
+    await expect(page.title()).resolves.toMatch(/^Try-out bench/);
+    await expect(page.getByText("Try-out bench: nothing is saved.").isVisible()).resolves.toBe(true);
+    await page.waitForTimeout(800);
+    await shot(page, "try-out-bench");
+  });
+
   it("an unknown address answers 404 with our own page and a way on", async () => {
     const { page } = s;
     const res = await page.goto("/no-such-page");
