@@ -44,10 +44,10 @@ step() {
   if "$@"; then log "$name: ok"; else log "$name: FAILED"; FAILED+=("$name"); fi
 }
 
-# `npm test -- ARGS`: only the matching Vitest tests (unit/integration, or browser tests when
-# an argument names tests/e2e), after the same set-up.
+# `npm test -- ARGS`: only the matching Vitest tests (unit/integration, or browser tests and
+# security probes against the real server when an argument names tests/e2e or tests/security), after the same set-up.
 if [ $# -gt 0 ]; then
-  if printf '%s\n' "$@" | grep -q 'e2e'; then
+  if printf '%s\n' "$@" | grep -qE 'e2e|tests/security'; then
     ensure_chromium
     NODE_ENV=production build_if_stale
     export JP_TEST_PORT="${JP_TEST_PORT:-3100}"

@@ -166,33 +166,41 @@ export function assertDeclaredLength(request: Request, limitBytes: number): void
  */
 export async function readBodyLimited(request: Request, limitBytes: number): Promise<Uint8Array> {
   assertDeclaredLength(request, limitBytes);
-  const declared = request.headers.get("content-length");
+  const header = request.headers.get("content-length");
+  const declared = header === null ? null : Number(header);
   if (!request.body) return new Uint8Array(0);
   const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
+  // With a declared length the bytes go straight into one buffer of that size, so the body is
+  // held once (no chunk list plus a copy); without one (chunked) the buffer grows by doubling.
+  let out = new Uint8Array(declared !== null && Number.isSafeInteger(declared) ? declared : Math.min(limitBytes, 64 * 1024));
   let total = 0;
   for (;;) {
     const { done, value } = await reader.read();
     if (done) break;
-    total += value.byteLength;
-    if (total > limitBytes) {
+    if (total + value.byteLength > limitBytes) {
       await reader.cancel();
       throw tooLarge(limitBytes);
     }
-    chunks.push(value);
+    if (declared !== null && total + value.byteLength > declared) {
+      await reader.cancel();
+      throw badLength(total + value.byteLength, declared);
+    }
+    if (total + value.byteLength > out.byteLength) {
+      const grown = new Uint8Array(Math.min(limitBytes, Math.max(out.byteLength * 2, total + value.byteLength)));
+      grown.set(out.subarray(0, total));
+      out = grown;
+    }
+    out.set(value, total);
+    total += value.byteLength;
   }
-  if (declared !== null && Number(declared) !== total) {
-    throw new AppError("bad_request:incomplete_body", `The body ended after ${total} of its declared ${declared} bytes; nothing was stored.`, {
-      issues: [{ path: "(body)", message: "is shorter than its Content-Length" }],
-    });
-  }
-  const out = new Uint8Array(total);
-  let offset = 0;
-  for (const c of chunks) {
-    out.set(c, offset);
-    offset += c.byteLength;
-  }
-  return out;
+  if (declared !== null && declared !== total) throw badLength(total, declared);
+  return total === out.byteLength ? out : out.subarray(0, total);
+}
+
+function badLength(received: number, declared: number): AppError {
+  return new AppError("bad_request:incomplete_body", `The body had ${received} bytes where Content-Length declared ${declared}; nothing was stored.`, {
+    issues: [{ path: "(body)", message: "does not match its Content-Length" }],
+  });
 }
 
 function tooLarge(limitBytes: number): AppError {

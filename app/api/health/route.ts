@@ -1,6 +1,8 @@
 import { NextResponse } from "next/server";
 import { databaseAnswers } from "@/db/queries/health";
 import pkg from "@/package.json";
+import { logger } from "@/lib/server/log";
+import { DATABASE_RETRY_AFTER_S } from "@/lib/server/route";
 
 export const dynamic = "force-dynamic";
 
@@ -10,7 +12,11 @@ export async function GET(): Promise<NextResponse> {
   try {
     if (await databaseAnswers()) db = "up";
   } catch (err) {
-    console.error("[health] database query failed:", err instanceof Error ? err.message : err);
+    logger.warn({ err: { message: err instanceof Error ? err.message : String(err) } }, "health: database query failed");
   }
-  return NextResponse.json({ ok: db === "up", db, version: pkg.version }, { status: db === "up" ? 200 : 503 });
+  if (db === "up") return NextResponse.json({ ok: true, db, version: pkg.version }, { headers: { "Cache-Control": "no-store" } });
+  return NextResponse.json(
+    { ok: false, db, version: pkg.version },
+    { status: 503, headers: { "Cache-Control": "no-store", "Retry-After": String(DATABASE_RETRY_AFTER_S) } },
+  );
 }

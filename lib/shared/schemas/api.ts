@@ -54,7 +54,12 @@ export const createVersionSchema = z.strictObject({
   note,
 });
 
-const versionNumber = z.coerce.number({ error: "must be a version number" }).int({ error: "must be a whole number" }).positive().max(1_000_000);
+/** Plain decimal digits only: `0x1`, `1e0`, `+1` and `01` are not version numbers (Number() would take them). */
+const versionNumber = z
+  .string({ error: "must be a version number" })
+  .regex(/^[1-9][0-9]{0,6}$/, { error: "must be a version number (1, 2, …)" })
+  .transform(Number)
+  .pipe(z.number().int().positive().max(1_000_000));
 
 export const diffQuery = z.strictObject({ from: versionNumber, to: versionNumber });
 

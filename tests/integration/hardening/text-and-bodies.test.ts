@@ -6,8 +6,12 @@ import { db } from "@/db";
 import { auditLog, projects } from "@/db/schema";
 import * as projectsRoute from "@/app/api/v1/projects/route";
 import * as projectRoute from "@/app/api/v1/projects/[projectId]/route";
+import * as projectPlans from "@/app/api/v1/projects/[projectId]/plans/route";
+import * as versionRoute from "@/app/api/v1/plans/[planId]/versions/[version]/route";
+import * as versionsRoute from "@/app/api/v1/plans/[planId]/versions/route";
+import * as diffRoute from "@/app/api/v1/plans/[planId]/diff/route";
 import { isDatabaseUnavailable, readBodyLimited, versionParam } from "@/lib/server/route";
-import { call, errorOf, makeUser, tokenFor, type Auth } from "../api/_helpers";
+import { call, demoArm, errorOf, gentlePlan, makeUser, tokenFor, type Auth } from "../api/_helpers";
 
 let auth: Auth;
 let projectId: string;
@@ -96,6 +100,20 @@ describe("body reading", () => {
 });
 
 describe("version numbers", () => {
+  it("in a path: version 0x1 is no version (404) where version 1 is found", async () => {
+    const created = await call(projectPlans.POST, { method: "POST", path: `/api/v1/projects/${projectId}/plans`, params: { projectId }, auth, body: { name: "Versions", armId: demoArm.id } });
+    expect(created.status, created.text).toBe(201);
+    const planId = (created.body as { plan: { id: string } }).plan.id;
+    const saved = await call(versionsRoute.POST, { method: "POST", path: `/api/v1/plans/${planId}/versions`, params: { planId }, auth, body: { baseVersion: 0, document: gentlePlan() } });
+    expect(saved.status, saved.text).toBe(201);
+    const get = (version: string) => call(versionRoute.GET, { path: `/api/v1/plans/${planId}/versions/${version}`, params: { planId, version }, auth });
+    expect((await get("1")).status).toBe(200);
+    expect((await get("0x1")).status).toBe(404);
+    const diff = await call(diffRoute.GET, { path: `/api/v1/plans/${planId}/diff?from=0x1&to=1`, auth, params: { planId } });
+    expect(diff.status).toBe(400);
+    expect(errorOf(diff).issues.map((i) => i.path)).toContain("query.from");
+  });
+
   it("take plain decimal digits only: 0x1, 1e0, +1, 01 and ' 1' are refused", () => {
     expect(versionParam.safeParse("1").data).toBe(1);
     expect(versionParam.safeParse("1000000").data).toBe(1_000_000);

@@ -1,12 +1,12 @@
 import { z } from "zod";
 import { getPlanVersion } from "@/db/queries/plans";
-import { json, readParams, route, uuidParam } from "@/lib/server/route";
+import { json, readParams, route, uuidParam, versionParam } from "@/lib/server/route";
 import { loadPlan, membershipOf } from "@/lib/server/loaders";
 import { requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
 import { authorizeProject } from "@/lib/server/permissions";
 
-const versionParams = z.object({ planId: uuidParam, version: z.coerce.number().int().positive().max(1_000_000) });
+const versionParams = z.object({ planId: uuidParam, version: versionParam });
 
 /** GET /api/v1/plans/:planId/versions/:version — the document and the stored verdict. */
 export const GET = route(async (request, context) => {
