@@ -5,9 +5,10 @@
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { demoPeople } from "@/db/demo";
-import { openBrowser, screenshotDir, type BrowserSession } from "./browser";
+import { baseUrl as baseURL, openBrowser, screenshotDir, type BrowserSession } from "./browser";
 
 const researcher = demoPeople[3];
+const aiko = demoPeople[2];
 
 async function shot(page: Page, name: string) {
   await page.screenshot({ path: `${screenshotDir}/pages-${name}.png`, fullPage: true });
@@ -25,7 +26,14 @@ describe("pages at 1440×900", () => {
   let s: BrowserSession;
   beforeAll(async () => {
     s = await openBrowser();
-    await s.page.setViewportSize({ width: 1440, height: 900 });
+    // A reader in Britain, so dates read "2 Dec 2026, 14:05" (the browser's own locale decides).
+    await s.page.close();
+    s.context = await s.browser.newContext({ baseURL, viewport: { width: 1440, height: 900 }, locale: "en-GB", timezoneId: "Europe/London" });
+    s.page = await s.context.newPage();
+    s.page.on("console", (msg) => {
+      if (msg.type() === "error") s.errors.push(msg.text());
+    });
+    s.page.on("pageerror", (err) => s.errors.push(err.message));
   });
   afterAll(async () => {
     await s?.close();
@@ -89,7 +97,7 @@ describe("pages at 1440×900", () => {
     await expect(page.getByText("E-mail must be an e-mail address.").isVisible()).resolves.toBe(true);
     await shot(page, "forgot-password");
     await page.goto("/reset-password?token=abc");
-    await page.getByLabel("New password").fill("short");
+    await page.getByLabel("New password", { exact: true }).fill("short");
     await page.getByRole("button", { name: "Set the new password" }).click();
     await expect(page.getByText("The password must be at least 10 characters.").isVisible()).resolves.toBe(true);
     await shot(page, "reset-password");
@@ -130,7 +138,15 @@ describe("pages at 1440×900", () => {
     await page.waitForFunction(() => document.querySelector('form[aria-label="Add a member"] input[type="email"]')?.getAttribute("aria-invalid") === "true");
     const errorId = (await email.getAttribute("aria-describedby"))!.split(" ").at(-1)!;
     await expect(page.locator(`[id="${errorId}"]`).textContent()).resolves.toBe("The e-mail has no account.");
-    await expect(page.getByTestId("audit-table").innerText()).resolves.toMatch(/member\.set|plan\.create|project\.create|version\.create/);
+    // A real member: listed after a reload, and the audit log says who added them.
+    await form.getByLabel("E-mail").fill(aiko.email);
+    await form.getByRole("button", { name: "Add or change role" }).click();
+    await members.getByText(aiko.email).waitFor();
+    await page.reload();
+    await expect(page.getByTestId("members-table").innerText()).resolves.toContain(aiko.email);
+    const audit = page.getByTestId("audit-table");
+    await expect(audit.innerText()).resolves.toContain("member.set");
+    await expect(audit.innerText()).resolves.toContain(researcher.name);
     await shot(page, "project");
   });
 
