@@ -26,6 +26,7 @@ export * from "./recordings/timed-replay";
 export * from "./recordings/dataset-repair";
 export * from "./recordings/dataset-read";
 export * from "./recordings/dataset-write";
+export * from "./recordings/dataset-replay";
 export * from "./check/wording";
 // The arm model: chain, forward and inverse kinematics, DH and URDF import, the arm checks,
 // dynamics, clearance and tool speed. All pure TypeScript; urdf uses fast-xml-parser, which runs

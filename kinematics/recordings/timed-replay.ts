@@ -419,7 +419,7 @@ export function auditEpisodes(arm: Arm, episodes: Iterable<Episode>, options: Au
 }
 
 /** Counts audits by verdict and findings by kind. */
-export function summarizeAudits(audits: readonly Pick<EpisodeAudit, "verdict" | "findings">[]): AuditSummary {
+export function summarizeAudits(audits: readonly { verdict: EpisodeVerdict; findings: readonly { kind: FindingKind }[] }[]): AuditSummary {
   const summary: AuditSummary = { episodes: audits.length, pass: 0, caution: 0, fault: 0, invalid: 0, byKind: {} };
   for (const audit of audits) {
     summary[audit.verdict]++;

@@ -34,6 +34,10 @@ export type ProjectAction =
   | "version:create"
   | "recording:read"
   | "recording:create"
+  | "dataset:read"
+  | "dataset:create"
+  | "dataset:audit"
+  | "dataset:repair"
   | "audit:read";
 
 const everyone: SiteAction[] = ["project:create", "token:manage", "check:run", "arm:read-builtin"];
@@ -45,8 +49,8 @@ export const sitePermissions: Record<SiteRole, ReadonlySet<SiteAction>> = {
   admin: new Set([...everyone, "project:create-course", "user:list", "user:manage"]),
 };
 
-const read: ProjectAction[] = ["project:read", "member:list", "arm:read", "plan:read", "recording:read"];
-const write: ProjectAction[] = ["arm:write", "plan:create", "plan:delete", "version:create", "recording:create"];
+const read: ProjectAction[] = ["project:read", "member:list", "arm:read", "plan:read", "recording:read", "dataset:read"];
+const write: ProjectAction[] = ["arm:write", "plan:create", "plan:delete", "version:create", "recording:create", "dataset:create", "dataset:audit", "dataset:repair"];
 
 export const projectPermissions: Record<MemberRole, ReadonlySet<ProjectAction>> = {
   viewer: new Set(read),

@@ -4,7 +4,7 @@
  * 127.0.0.1:$S3_PORT is used (scripts/fakes/start.ts), with the fake's fixed development credentials.
  * Server-side only (the seed script uses it too, so it does not import "server-only").
  */
-import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
+import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client, type PutObjectCommandInput } from "@aws-sdk/client-s3";
 import { env } from "./env";
 
 /** s3rver's built-in development credentials; only ever sent to the loopback fake. */
@@ -39,4 +39,15 @@ export async function getObject(key: string): Promise<Uint8Array> {
 
 export async function deleteObject(key: string): Promise<void> {
   await storageClient().send(new DeleteObjectCommand({ Bucket: env().S3_BUCKET, Key: key }));
+}
+
+/**
+ * Streams a body of known length into the store without holding it whole (dataset uploads). The
+ * store receives exactly `contentLength` bytes or the put fails; the caller removes the object if
+ * it then finds the body wrong.
+ */
+export async function putObjectStream(key: string, body: NodeJS.ReadableStream, contentLength: number, contentType: string): Promise<void> {
+  await storageClient().send(
+    new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: body as PutObjectCommandInput["Body"], ContentType: contentType, ContentLength: contentLength }),
+  );
 }
