@@ -8,7 +8,7 @@ import { securityHeaders } from "./lib/server/security-headers";
  * which also covers static files under `/_next/static` and `public/`.
  */
 const nextConfig: NextConfig = {
-  serverExternalPackages: ["pg", "pino"],
+  serverExternalPackages: ["pg", "pino", "tinypool", "esbuild"],
   poweredByHeader: false,
   async headers() {
     const dev = process.env.NODE_ENV === "development";

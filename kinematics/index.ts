@@ -44,6 +44,8 @@ export * from "./check/arm-state";
 export * from "./check/effort";
 export * from "./check/clearance";
 export * from "./check/tool-speed";
+export * from "./check/safe-duration";
+export * from "./check/work";
 export * from "./arm/dynamics";
 export * from "./arm/clearance";
 export * from "./arm/tool-speed";

@@ -5,7 +5,7 @@
  * @module
  */
 import type { Arm } from "../plan/arm";
-import type { SafeDuration } from "./safe-duration";
+import { longestTimingFixS, type SafeDuration } from "./safe-duration";
 import { formatNumber, jointLabel } from "./wording";
 
 /** Why no duration fixes a move, and what would: a different pose or path, a lighter payload, the other tool. */
@@ -18,5 +18,8 @@ export function noTimingFix(arm: Arm, safe: SafeDuration): string {
       `above its limit of ${formatNumber(joint.maxEffort ?? 0)} ${unit}. Choose a pose or path that keeps the load closer to the joint, carry less, or use the lighter tool.`
     );
   }
-  return `No duration fixes this move within the limits the check models; change its goal, its path or the load.`;
+  return (
+    `No duration up to ${formatNumber(longestTimingFixS)} s fixes this move (friction or the load keep it over a limit); ` +
+    `change its goal or its path, carry less, or use the lighter tool.`
+  );
 }

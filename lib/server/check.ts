@@ -1,12 +1,6 @@
 /** Running the engine for the API: the check, and the summary stored beside each plan version. */
-import { check, type Plan, type Report } from "@/kinematics";
-import { AppError } from "./errors";
-
-/**
- * Most control periods one request may check (one hour at 1 kHz). The check samples the whole plan
- * at the control rate, so without a cap a tiny body with a huge duration would hold the server.
- */
-export const MAX_CHECK_PERIODS = 3_600_000;
+import type { Plan, Report } from "@/kinematics";
+import { runCheck } from "./check-pool";
 
 export type ReportSummary = {
   verdict: Report["verdict"];
@@ -32,16 +26,11 @@ export function summarize(plan: Plan, report: Report): ReportSummary {
   };
 }
 
-/** Runs the engine on a parsed plan; `pathPrefix` names the document in the request (e.g. "document"). */
-export function checkPlan(plan: Plan, pathPrefix = ""): { report: Report; summary: ReportSummary } {
-  const durationS = plan.moves.reduce((s, m) => s + m.duration, 0);
-  const periods = durationS * plan.arm.controlRateHz;
-  if (periods > MAX_CHECK_PERIODS) {
-    const maxS = MAX_CHECK_PERIODS / plan.arm.controlRateHz;
-    throw new AppError("unprocessable:plan-too-long", `The plan lasts ${durationS} s; one check covers at most ${maxS} s at this control rate. Split it into shorter plans.`, {
-      issues: [{ path: pathPrefix ? `${pathPrefix}.moves` : "moves", message: `must last at most ${maxS} s in total` }],
-    });
-  }
-  const report = check(plan);
+/**
+ * Runs the engine on a parsed plan in the check pool (lib/server/check-pool.ts: 422 over the work
+ * budget, 503 past the time limit); `pathPrefix` names the document in the request (e.g. "document").
+ */
+export async function checkPlan(plan: Plan, pathPrefix = ""): Promise<{ report: Report; summary: ReportSummary }> {
+  const { report } = await runCheck(plan, pathPrefix);
   return { report, summary: summarize(plan, report) };
 }

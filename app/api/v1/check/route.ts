@@ -9,6 +9,6 @@ export const POST = route(async (request) => {
   const document = await readJson(request, checkPlanSchema);
   const actor = await requireActor(request);
   authorizeSite(actor, "check:run");
-  const { report, summary } = checkPlan(document);
+  const { report, summary } = await checkPlan(document);
   return json({ report, summary });
 });

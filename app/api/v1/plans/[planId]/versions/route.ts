@@ -48,7 +48,7 @@ export const POST = route(async (request, context) => {
       issues: [{ path: "document.arm", message: `must equal revision ${revision.revision} of arm "${plan.armName}" (GET /api/v1/arms/${plan.armId})` }],
     });
   }
-  const { report, summary } = checkPlan(body.document, "document");
+  const { report, summary } = await checkPlan(body.document, "document");
   const result = await createPlanVersion({
     planId,
     baseVersion: body.baseVersion,
