@@ -103,6 +103,20 @@ export function checkAgainstAssignment(
   armRevisionId: string,
   rules: AssignmentRules,
 ): { report: Report; problems: RuleProblem[]; arm: Arm } {
+  const prepared = assignmentCheckInput(plan, requiredArm, armRevisionId, rules);
+  return { report: check(prepared.plan), problems: prepared.problems, arm: prepared.arm };
+}
+
+/**
+ * What {@link checkAgainstAssignment} checks, without running the check (the server runs it in its
+ * check pool): the plan on the required arm with tightened limits, and the rule problems.
+ */
+export function assignmentCheckInput(
+  plan: Plan,
+  requiredArm: Arm,
+  armRevisionId: string,
+  rules: AssignmentRules,
+): { plan: Plan; problems: RuleProblem[]; arm: Arm } {
   const problems = ruleProblems(plan, armRevisionId, rules);
   const sameJoints = requiredArm.joints.length === plan.arm.joints.length;
   if (!sameJoints && !problems.some((p) => p.rule === "joint-count")) {
@@ -110,5 +124,5 @@ export function checkAgainstAssignment(
   }
   // Check against the required arm's limits (not the ones in the document), tightened.
   const arm = tightenArm(sameJoints ? requiredArm : plan.arm, rules.courseLimits, rules.limits);
-  return { report: check({ ...plan, arm }), problems, arm };
+  return { plan: { ...plan, arm }, problems, arm };
 }

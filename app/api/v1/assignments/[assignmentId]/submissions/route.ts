@@ -10,7 +10,8 @@ import { authorizeCourse } from "@/lib/server/permissions";
 import { AppError } from "@/lib/server/errors";
 import { enqueueMail } from "@/lib/server/mail/queue";
 import { submissionReceived } from "@/lib/server/mail/templates";
-import { checkAgainstAssignment } from "@/lib/shared/courses/rules";
+import { runCheck } from "@/lib/server/check-pool";
+import { assignmentCheckInput } from "@/lib/shared/courses/rules";
 import { assignmentParams, limitsSchema, submitSchema } from "@/lib/shared/schemas/courses";
 import { loadAssignment, outbox } from "../../../courses/course-api";
 
@@ -51,7 +52,7 @@ export const POST = route(async (request, context) => {
   const plan = parsePlan(version.document);
   const revision = await getArmRevisionById({ id: assignment.requiredArmRevisionId });
   if (!plan.ok || !revision) throw new AppError("unprocessable:plan", "The saved plan version cannot be read by this checker.");
-  const { report, problems } = checkAgainstAssignment(plan.value, armSchema.parse(revision.description), version.armRevisionId, {
+  const prepared = assignmentCheckInput(plan.value, armSchema.parse(revision.description), version.armRevisionId, {
     requiredArmRevisionId: assignment.requiredArmRevisionId,
     courseArmRevisionId: assignment.courseArmRevisionId,
     requiredStart: assignment.requiredStart as number[] | null,
@@ -60,6 +61,8 @@ export const POST = route(async (request, context) => {
     courseLimits: limitsSchema.nullable().catch(null).parse(assignment.courseLimits),
     limits: limitsSchema.nullable().catch(null).parse(assignment.limits),
   });
+  const { problems } = prepared;
+  const { report } = await runCheck(prepared.plan);
 
   const student = await getActiveUserById({ id: actor.userId });
   const instructors = await listCourseInstructors({ courseId: assignment.courseId });
