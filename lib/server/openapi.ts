@@ -5,6 +5,7 @@
 import { z } from "zod";
 import * as course from "@/lib/shared/schemas/courses";
 import * as review from "@/lib/shared/schemas/reviews";
+import * as ds from "@/lib/shared/schemas/datasets";
 import { planSchema } from "@/kinematics";
 import * as s from "../shared/schemas/api";
 import { auditPageQuery, memberPageQuery, projectsPageQuery, timePageQuery } from "./paging";
@@ -163,6 +164,28 @@ const operations: Op[] = [
   { method: "get", path: "/reviews/{submissionId}/comments", summary: "The comments on a submission", tag: "Reviews", params: [p("submissionId")], ok: 200, errors: [401, 403, 404] },
   { method: "post", path: "/reviews/{submissionId}/comments", summary: "Pin a comment to a move, a joint and a time of a submission (instructors)", tag: "Reviews", params: [p("submissionId")], body: ref("Comment"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415] },
   { method: "post", path: "/reviews/{submissionId}/decision", summary: "Approve a submission or return it with a summary (instructors); the student is e-mailed. Approving one whose check found a fault needs confirmFaults: true and a reason (422 otherwise); approval accepts the work and does not clear a plan to run", tag: "Reviews", params: [p("submissionId")], body: ref("Decision"), ok: 201, errors: [400, 401, 403, 404, 409, 413, 415, 422] },
+  { method: "get", path: "/projects/{projectId}/datasets", summary: "List a project's datasets (and the upload limit)", tag: "Datasets", params: [p("projectId")], ok: 200, errors: [401, 404] },
+  {
+    method: "post",
+    path: "/projects/{projectId}/datasets",
+    summary: "Upload a dataset (one Parquet file, a zip of Parquet or CSV files, or a CSV) with its Content-Length; stored whole or not at all",
+    tag: "Datasets",
+    params: [p("projectId")],
+    query: ds.uploadDatasetQuery,
+    body: { type: "string", format: "binary", description: "The dataset file" },
+    bodyType: "application/octet-stream",
+    ok: 201,
+    errors: [400, 401, 403, 404, 413, 422],
+  },
+  { method: "get", path: "/datasets/{datasetId}", summary: "A dataset with its audit progress and summary (counts by verdict and by finding kind; timed replay)", tag: "Datasets", params: [p("datasetId")], ok: 200, errors: [401, 404] },
+  { method: "post", path: "/datasets/{datasetId}/preview", summary: "Read the dataset with an arm and a column mapping: columns and types, episodes, first rows, problems; nothing is saved", tag: "Datasets", params: [p("datasetId")], body: ref("DatasetMapping"), ok: 200, errors: [400, 401, 404, 422] },
+  { method: "post", path: "/datasets/{datasetId}/mapping", summary: "Choose the arm revision and column mapping (422 with the file's columns when they cannot be mapped)", tag: "Datasets", params: [p("datasetId")], body: ref("DatasetMapping"), ok: 200, errors: [400, 401, 403, 404, 409, 422] },
+  { method: "post", path: "/datasets/{datasetId}/audit", summary: "Start the timed-replay audit of every episode in the background workers", tag: "Datasets", params: [p("datasetId")], ok: 202, errors: [401, 403, 404, 422] },
+  { method: "get", path: "/datasets/{datasetId}/episodes", summary: "The audited episodes: verdict, frames, duration, worst finding", tag: "Datasets", params: [p("datasetId")], ok: 200, errors: [401, 404] },
+  { method: "get", path: "/datasets/{datasetId}/episodes/{index}", summary: "One episode (0-based index): findings, frames, and the repaired frames when repaired", tag: "Datasets", params: [p("datasetId"), { name: "index", in: "path", required: true, schema: { type: "integer", minimum: 0 } }], ok: 200, errors: [400, 401, 404, 422] },
+  { method: "get", path: "/datasets/{datasetId}/episodes/{index}/replay-plan", summary: "A checked plan: rest pose to the episode's first frame, the episode, back to rest; with the safety caution", tag: "Datasets", params: [p("datasetId"), { name: "index", in: "path", required: true, schema: { type: "integer", minimum: 0 } }], ok: 200, errors: [400, 401, 404, 422] },
+  { method: "post", path: "/datasets/{datasetId}/repair", summary: "Repair the listed episodes or every one with findings; each result is audited again", tag: "Datasets", params: [p("datasetId")], body: ref("RepairDataset"), ok: 200, errors: [400, 401, 403, 404, 409, 422] },
+  { method: "get", path: "/datasets/{datasetId}/export", summary: "The checked dataset as a zip: dataset.parquet, report.json, manifest.json (SHA-256; `jointproof verify manifest.json`)", tag: "Datasets", params: [p("datasetId")], ok: 200, okDescription: "A zip archive. A passing audit does not make a replay safe: follow the safety caution in report.json.", errors: [401, 404, 409, 422] },
 ];
 
 const statusText: Record<number, string> = {
@@ -247,6 +270,8 @@ export function openApiDocument(serverUrl: string): Json {
         VerifyEmail: schemaOf(s.verifyEmailSchema),
         CreateCourse: schemaOf(course.createCourseSchema),
         JoinCourse: schemaOf(course.joinCourseSchema),
+        DatasetMapping: schemaOf(ds.datasetMappingSchema),
+        RepairDataset: schemaOf(ds.repairDatasetSchema),
         InviteToCourse: schemaOf(course.inviteSchema),
         CreateAssignment: schemaOf(course.createAssignmentSchema),
         Submit: schemaOf(course.submitSchema),

@@ -4,16 +4,32 @@
  * 127.0.0.1:$S3_PORT is used (scripts/fakes/start.ts), with the fake's fixed development credentials.
  * Server-side only (the seed script uses it too, so it does not import "server-only").
  */
-import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client, type PutObjectCommandInput } from "@aws-sdk/client-s3";
+import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client, type PutObjectCommandInput, type S3ClientConfig } from "@aws-sdk/client-s3";
 import { env } from "./env";
 
 /** s3rver's built-in development credentials; only ever sent to the loopback fake. */
 const FAKE_CREDENTIALS = { accessKeyId: "S3RVER", secretAccessKey: "S3RVER" };
 
 let client: S3Client | undefined;
+let streamingClient: S3Client | undefined;
+
+/**
+ * The client for streamed bodies: checksums only where the service requires them, so a stream is
+ * sent as plain bytes of its Content-Length (not aws-chunked with a checksum trailer, which
+ * S3-compatible stores such as the local fake do not all decode).
+ */
+function streamClient(): S3Client {
+  streamingClient ??= new S3Client({ ...clientConfig(), requestChecksumCalculation: "WHEN_REQUIRED" });
+  return streamingClient;
+}
 
 function storageClient(): S3Client {
-  if (client) return client;
+  client ??= new S3Client(clientConfig());
+  return client;
+}
+
+/** Where the store is and how to sign in to it, from the environment. */
+function clientConfig(): S3ClientConfig {
   const e = env();
   const endpoint = e.S3_ENDPOINT ?? (e.S3_PORT ? `http://127.0.0.1:${e.S3_PORT}` : undefined);
   const loopback = endpoint !== undefined && ["127.0.0.1", "localhost", "[::1]"].includes(new URL(endpoint).hostname);
@@ -23,8 +39,7 @@ function storageClient(): S3Client {
       : loopback
         ? FAKE_CREDENTIALS
         : undefined; // the SDK's default chain (instance roles and the like)
-  client = new S3Client({ region: e.S3_REGION, endpoint, forcePathStyle: e.S3_FORCE_PATH_STYLE, credentials });
-  return client;
+  return { region: e.S3_REGION, endpoint, forcePathStyle: e.S3_FORCE_PATH_STYLE, credentials };
 }
 
 export async function putObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
@@ -46,8 +61,9 @@ export async function deleteObject(key: string): Promise<void> {
  * store receives exactly `contentLength` bytes or the put fails; the caller removes the object if
  * it then finds the body wrong.
  */
-export async function putObjectStream(key: string, body: NodeJS.ReadableStream, contentLength: number, contentType: string): Promise<void> {
-  await storageClient().send(
+export async function putObjectStream(key: string, body: NodeJS.ReadableStream, contentLength: number, contentType: string, signal?: AbortSignal): Promise<void> {
+  await streamClient().send(
     new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: body as PutObjectCommandInput["Body"], ContentType: contentType, ContentLength: contentLength }),
+    { abortSignal: signal },
   );
 }

@@ -66,13 +66,20 @@ export async function storeUpload(request: Request, projectId: string): Promise<
       hash.update(chunk);
       done(null, chunk);
     },
+    // a body that ends short of its Content-Length fails the put (the store would wait for the rest)
+    flush(done) {
+      done(seen === declared ? null : new Error("body shorter than its Content-Length"));
+    },
   });
   const key = `datasets/${projectId}/${randomUUID()}`;
   const source = Readable.fromWeb(request.body as import("node:stream/web").ReadableStream<Uint8Array>);
   source.on("error", (err) => counter.destroy(err));
   const body = source.pipe(counter);
+  // a failing body (cut, too long) aborts the put rather than leave the store waiting for bytes
+  const abort = new AbortController();
+  counter.on("error", () => abort.abort());
   try {
-    await putObjectStream(key, body, declared, "application/octet-stream");
+    await putObjectStream(key, body, declared, "application/octet-stream", abort.signal);
   } catch (err) {
     await deleteObject(key).catch(() => undefined);
     if (seen !== declared) throw new AppError("bad_request:length", `The upload was cut: ${seen} of ${declared} bytes arrived; nothing was stored.`);

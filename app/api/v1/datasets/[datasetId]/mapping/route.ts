@@ -14,11 +14,11 @@ import { datasetMappingSchema } from "@/lib/shared/schemas/datasets";
 const params = z.object({ datasetId: uuidParam });
 
 /**
- * PUT /api/v1/datasets/:datasetId/mapping {armId, revision?, mapping} — chooses the arm revision and
+ * POST /api/v1/datasets/:datasetId/mapping {armId, revision?, mapping} — chooses the arm revision and
  * the column mapping. Refused (422, with the file's columns and the option to set) when the file
  * cannot be read with them; refused (409) while an audit runs.
  */
-export const PUT = route(async (request, context) => {
+export const POST = route(async (request, context) => {
   const { datasetId } = await readParams(context, params);
   const body = await readJson(request, datasetMappingSchema);
   const actor = await requireActor(request);
