@@ -41,6 +41,18 @@ import * as recordingFile from "@/app/api/v1/recordings/[recordingId]/file/route
 import * as armImport from "@/app/api/v1/projects/[projectId]/arms/import/route";
 import * as openapi from "@/app/api/v1/openapi.json/route";
 import * as audit from "@/app/api/v1/projects/[projectId]/audit/route";
+import * as projectDatasets from "@/app/api/v1/projects/[projectId]/datasets/route";
+import * as datasetRoute from "@/app/api/v1/datasets/[datasetId]/route";
+import * as datasetPreview from "@/app/api/v1/datasets/[datasetId]/preview/route";
+import * as datasetMapping from "@/app/api/v1/datasets/[datasetId]/mapping/route";
+import * as datasetAudit from "@/app/api/v1/datasets/[datasetId]/audit/route";
+import * as datasetEpisodes from "@/app/api/v1/datasets/[datasetId]/episodes/route";
+import * as datasetEpisode from "@/app/api/v1/datasets/[datasetId]/episodes/[index]/route";
+import * as datasetReplay from "@/app/api/v1/datasets/[datasetId]/episodes/[index]/replay-plan/route";
+import * as datasetRepair from "@/app/api/v1/datasets/[datasetId]/repair/route";
+import * as datasetExport from "@/app/api/v1/datasets/[datasetId]/export/route";
+import { auditedDataset, matrixParquet } from "../datasets/_fixture";
+import { armSchema } from "@/kinematics";
 import { readFileSync } from "node:fs";
 import { createRecording } from "@/db/queries/recordings";
 import { putObject } from "@/lib/server/storage";
@@ -150,7 +162,28 @@ const projectRoutes: ProjectRoute[] = [
   { name: "GET /recordings/:id/file", need: "read", ok: 200, run: (f, auth) => call(recordingFile.GET, { path: `/api/v1/recordings/${f.recordingId}/file`, params: { recordingId: f.recordingId }, auth }) },
   { name: "POST /projects/:id/arms/import", need: "write", ok: 201, run: (f, auth) => call(armImport.POST, { method: "POST", path: `/api/v1/projects/${f.projectId}/arms/import?name=Imported`, params: { projectId: f.projectId }, auth, rawBody: urdf, headers: { "content-type": "application/xml" } }) },
   { name: "GET /plans/:id/diff", need: "read", ok: 200, run: (f, auth) => call(diff.GET, { path: `/api/v1/plans/${f.planId}/diff?from=1&to=1`, params: { planId: f.planId }, auth }) },
+  ...datasetRoutes(),
 ];
+
+/** The dataset routes (viewers read; editors upload, map, audit and repair), each on a freshly audited dataset. */
+function datasetRoutes(): ProjectRoute[] {
+  const parquet = matrixParquet(armSchema.parse(demoArm.description));
+  const on = (run: (f: Fixture, auth: Auth, datasetId: string) => Promise<CallResult>) => async (f: Fixture, auth: Auth) => run(f, auth, await auditedDataset(f.projectId));
+  const at = (id: string, rest = "") => ({ path: `/api/v1/datasets/${id}${rest}`, params: { datasetId: id } });
+  return [
+    { name: "GET /projects/:id/datasets", need: "read", ok: 200, run: (f, auth) => call(projectDatasets.GET, { path: `/api/v1/projects/${f.projectId}/datasets`, params: { projectId: f.projectId }, auth }) },
+    { name: "POST /projects/:id/datasets", need: "write", ok: 201, run: (f, auth) => call(projectDatasets.POST, { method: "POST", path: `/api/v1/projects/${f.projectId}/datasets?name=Upload`, params: { projectId: f.projectId }, auth, rawBody: parquet, headers: { "content-length": String(parquet.byteLength) } }) },
+    { name: "GET /datasets/:id", need: "read", ok: 200, run: on((_f, auth, id) => call(datasetRoute.GET, { ...at(id), auth })) },
+    { name: "POST /datasets/:id/preview", need: "read", ok: 200, run: on((f, auth, id) => call(datasetPreview.POST, { method: "POST", ...at(id, "/preview"), auth, body: { armId: f.armId, mapping: {} } })) },
+    { name: "POST /datasets/:id/mapping", need: "write", ok: 200, run: on((f, auth, id) => call(datasetMapping.POST, { method: "POST", ...at(id, "/mapping"), auth, body: { armId: f.armId, mapping: {} } })) },
+    { name: "POST /datasets/:id/audit", need: "write", ok: 202, run: on((_f, auth, id) => call(datasetAudit.POST, { method: "POST", ...at(id, "/audit"), auth })) },
+    { name: "GET /datasets/:id/episodes", need: "read", ok: 200, run: on((_f, auth, id) => call(datasetEpisodes.GET, { ...at(id, "/episodes"), auth })) },
+    { name: "GET /datasets/:id/episodes/:index", need: "read", ok: 200, run: on((_f, auth, id) => call(datasetEpisode.GET, { path: `/api/v1/datasets/${id}/episodes/1`, params: { datasetId: id, index: "1" }, auth })) },
+    { name: "GET /datasets/:id/episodes/:index/replay-plan", need: "read", ok: 200, run: on((_f, auth, id) => call(datasetReplay.GET, { path: `/api/v1/datasets/${id}/episodes/0/replay-plan`, params: { datasetId: id, index: "0" }, auth })) },
+    { name: "POST /datasets/:id/repair", need: "write", ok: 200, run: on((_f, auth, id) => call(datasetRepair.POST, { method: "POST", ...at(id, "/repair"), auth, body: {} })) },
+    { name: "GET /datasets/:id/export", need: "read", ok: 200, run: on((_f, auth, id) => call(datasetExport.GET, { ...at(id, "/export"), auth })) },
+  ];
+}
 
 type SiteRoute = {
   name: string;
