@@ -94,6 +94,7 @@ export function ProjectOverview({ project, can, members, audit }: ProjectOvervie
         {project.archived ? <span className="rounded bg-caution-tint px-1.5 py-0.5 text-[11px] text-caution">archived: read only</span> : null}
         <span className="ml-auto flex gap-3 text-sm">
           <Link href={`/projects/${project.id}/recordings`} className="text-brand-600 hover:underline">Recordings</Link>
+          <Link href={`/projects/${project.id}/datasets`} className="text-brand-600 hover:underline">Datasets</Link>
           <Link href={`/projects/${project.id}/arms`} className="text-brand-600 hover:underline">Arms</Link>
         </span>
       </div>

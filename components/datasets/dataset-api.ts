@@ -1,0 +1,120 @@
+"use client";
+/** The dataset API from the browser: typed calls over the one request helper, and the upload with progress. */
+import { ApiError, request, type FieldIssue, type Jsonified } from "@/lib/client/api-client";
+import type { Dataset } from "@/db/schema/datasets";
+import type { ColumnMappingInput } from "@/lib/shared/schemas/datasets";
+import type { Arm, Plan, Report, ReplayFinding } from "@/kinematics";
+
+export type DatasetDto = Jsonified<Dataset>;
+
+export interface DatasetSummaryDto {
+  dataset: DatasetDto;
+  progress: { batchesDone: number; batches: number; episodesAudited: number; episodes: number };
+  summary: { episodes: number; pass: number; caution: number; fault: number; invalid: number; byKind: Record<string, number>; repaired: number };
+  check: string;
+}
+
+export interface EpisodeRowDto {
+  index: number;
+  episode: string;
+  samples: number;
+  durationS: number;
+  verdict: "pass" | "caution" | "fault" | "invalid";
+  findingCount: number;
+  faultCount: number;
+  worstKind: string | null;
+  worstMessage: string | null;
+  repairedVerdict: string | null;
+}
+
+export interface PreviewDto {
+  files: { name: string; rows: number; columns: { name: string; type: string }[] }[];
+  fileCount: number;
+  episodes: number;
+  frames: number;
+  firstEpisode: { episode: string; columns: string[]; rows: number[][] } | null;
+  problems: string[];
+}
+
+export interface EpisodeFrames {
+  timeS: number[];
+  position: number[];
+  jointCount: number;
+  count: number;
+}
+
+export interface EpisodeDto {
+  episode: EpisodeRowDto & { findings: ReplayFinding[]; problems: string[]; repairedFindings: ReplayFinding[] | null };
+  arm: Arm;
+  recorded: EpisodeFrames;
+  repaired: (EpisodeFrames & { filled: number[] }) | null;
+  check: string;
+}
+
+export interface RepairResultDto {
+  index: number;
+  episode: string;
+  before: string;
+  after: string | null;
+  glitchesReplaced: number;
+  framesFilled: number;
+  maxDeviation: number[];
+  note?: string;
+}
+
+export interface ReplayPlanDto {
+  plan: Plan;
+  report: Report;
+  easeInS: number;
+  easeOutS: number;
+  repaired: boolean;
+  caution: string;
+}
+
+const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
+
+export const datasetApi = {
+  list: (projectId: string) => request<{ datasets: DatasetDto[]; limitBytes: number }>(`/api/v1/projects/${projectId}/datasets`),
+  get: (datasetId: string) => request<DatasetSummaryDto>(`/api/v1/datasets/${datasetId}`),
+  preview: (datasetId: string, input: { armId: string; mapping: ColumnMappingInput }) => request<{ preview: PreviewDto }>(`/api/v1/datasets/${datasetId}/preview`, post(input)).then((r) => r.preview),
+  saveMapping: (datasetId: string, input: { armId: string; mapping: ColumnMappingInput }) => request<{ dataset: DatasetDto; preview: PreviewDto }>(`/api/v1/datasets/${datasetId}/mapping`, post(input)),
+  audit: (datasetId: string) => request<{ dataset: DatasetDto }>(`/api/v1/datasets/${datasetId}/audit`, { method: "POST" }),
+  episodes: (datasetId: string) => request<{ episodes: EpisodeRowDto[] }>(`/api/v1/datasets/${datasetId}/episodes`).then((r) => r.episodes),
+  episode: (datasetId: string, index: number) => request<EpisodeDto>(`/api/v1/datasets/${datasetId}/episodes/${index}`),
+  repair: (datasetId: string, episodes?: number[]) => request<{ repaired: RepairResultDto[] }>(`/api/v1/datasets/${datasetId}/repair`, post(episodes ? { episodes } : {})).then((r) => r.repaired),
+  replayPlan: (datasetId: string, index: number) => request<ReplayPlanDto>(`/api/v1/datasets/${datasetId}/episodes/${index}/replay-plan`),
+  exportUrl: (datasetId: string) => `/api/v1/datasets/${datasetId}/export`,
+};
+
+/**
+ * Uploads a dataset file as the request body with upload progress (0..1); the browser sends its
+ * Content-Length, which the server requires. Errors arrive as {@link ApiError}.
+ */
+export function uploadDataset(projectId: string, file: Blob, name: string, onProgress: (fraction: number) => void): Promise<DatasetDto> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open("POST", `/api/v1/projects/${projectId}/datasets?${new URLSearchParams({ name })}`);
+    xhr.setRequestHeader("Content-Type", "application/octet-stream");
+    xhr.setRequestHeader("Accept", "application/json");
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable && e.total > 0) onProgress(e.loaded / e.total);
+    };
+    xhr.onerror = () => reject(new ApiError(0, "network", "The upload did not reach the server; nothing was stored."));
+    xhr.onload = () => {
+      let body: unknown = null;
+      try {
+        body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+      } catch {
+        body = null;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) {
+        onProgress(1);
+        resolve((body as { dataset: DatasetDto }).dataset);
+        return;
+      }
+      const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } } | null)?.error;
+      reject(new ApiError(xhr.status, e?.code ?? `http_${xhr.status}`, e?.message ?? `The server answered ${xhr.status}.`, e?.issues ?? []));
+    };
+    xhr.send(file);
+  });
+}
