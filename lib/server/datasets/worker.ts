@@ -26,11 +26,14 @@ export async function sweepDatasetBatches({ fresh = false }: { fresh?: boolean }
 /** Starts working the dataset queue in this process; `stop` waits for the job in hand. */
 export async function startDatasetWorker({ pollingIntervalSeconds = 1 }: { pollingIntervalSeconds?: number } = {}): Promise<DatasetWorker> {
   const boss = await getDatasetBoss({ supervise: true });
-  const workerId = await boss.work<DatasetJob>(
+  let workerId = "";
+  workerId = await boss.work<DatasetJob>(
     DATASET_QUEUE,
     { batchSize: 1, includeMetadata: true, pollingIntervalSeconds },
     async (jobs: PgBoss.JobWithMetadata<DatasetJob>[]) => {
       for (const job of jobs) await runDatasetBatch(job.data);
+      // a job was found: look for the next at once instead of waiting out the polling interval
+      if (jobs.length > 0 && workerId) boss.notifyWorker(workerId);
     },
   );
   const sweep = () => {
