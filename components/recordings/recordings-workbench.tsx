@@ -15,6 +15,7 @@ import { SourcePanel } from "./source-panel";
 import { StreamCheckPanel } from "./stream-check-panel";
 import { TracePanel } from "./trace-panel";
 import { useRecordingSession } from "./use-recording-session";
+import { TimedReplayPanel } from "@/components/datasets/timed-replay-panel";
 
 export type { RecordingArm } from "./recording-session";
 
@@ -41,6 +42,7 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit, sto
         <Panel className="flex flex-col gap-4 p-4">
           <SourcePanel session={session} arms={arms} />
           {loaded ? <StreamCheckPanel session={session} loaded={loaded} canEdit={canEdit} /> : null}
+          {loaded && session.chosen ? <TimedReplayPanel arm={session.chosen.arm} recording={loaded.recording} name={loaded.fileName} /> : null}
           {repaired ? <RepairedPanel session={session} repaired={repaired} canEdit={canEdit} unit={unit} /> : null}
         </Panel>
         <Panel className="min-w-0 p-4">
