@@ -28,6 +28,7 @@ import type { Dataset } from "@/db/schema";
 import { AppError } from "@/lib/server/errors";
 import { deleteObject, putObjectStream } from "@/lib/server/storage";
 import { SAFETY_TEXT } from "@/lib/shared/safety";
+import { columnMappingSchema } from "@/lib/shared/schemas/datasets";
 import { datasetEnv } from "./config";
 import { armOfRevision, fileKindOf, readStoredDataset } from "./dataset-file";
 import { decodeEpisode, encodeEpisode } from "./episode-codec";
@@ -195,7 +196,8 @@ export const exportFiles = { data: "dataset.parquet", report: "report.json", man
 
 /**
  * The cleaned dataset as a zip: `dataset.parquet` (every checked episode, repaired ones in place of
- * their originals, a `filled` column marking interpolated frames), `report.json` (per-episode audit
+ * their originals, under the episode, time and joint column names of the dataset's mapping, plus
+ * `frame_index` and a `filled` column marking interpolated frames; other input columns are not carried), `report.json` (per-episode audit
  * of what was exported, and the excluded episodes with their reasons) and `manifest.json` (the
  * SHA-256 of both, with its own `export.sha256` so `jointproof verify manifest.json` accepts it).
  * Invalid episodes are excluded and listed, never silently dropped.
@@ -220,7 +222,9 @@ export async function exportDataset(found: DatasetForUser, userId: string, revis
     kept.push(episode);
     audits.push({ index: i, repaired: decoded !== null, ...auditToJson(audit) });
   }
-  const parquet = writeEpisodesParquet(arm, kept);
+  // the columns the dataset was read from (episode, time, joints or one joints list), so it reads back with the same mapping
+  const mapping = columnMappingSchema.parse(found.dataset.mapping ?? {});
+  const parquet = writeEpisodesParquet(arm, kept, { columns: { episode: mapping.episodeColumn, time: mapping.timeColumn, joints: mapping.jointColumns, jointsList: mapping.jointsColumn } });
   const report = strToU8(
     JSON.stringify({ format: "jointproof.dataset-report", dataset: found.dataset.name, arm: arm.name, check: "timed replay", summary: summarizeAudits(audits), episodes: audits, excluded, caution: SAFETY_TEXT }, null, 2) + "\n",
   );

@@ -165,6 +165,33 @@ describe("dataset reading: Parquet", () => {
   });
 });
 
+describe("dataset writing: the columns it was read from", () => {
+  it("renamed episode and time columns and one list column read back identically with the same mapping", async () => {
+    const arm = armOf();
+    const episodes = [
+      { id: "a", recording: { names: ["lift", "grip"], jointCount: 2, count: 3, timeS: Float64Array.from([0, 0.1, 0.2]), position: Float64Array.from([0.1, 0.01, 0.2, 0.02, 0.3, 0.03]) } },
+      { id: "b", recording: { names: ["lift", "grip"], jointCount: 2, count: 2, timeS: Float64Array.from([0, 0.1]), position: Float64Array.from([-0.1, 0, -0.2, 0.01]) } },
+    ];
+    const bytes = writeEpisodesParquet(arm, episodes, { columns: { episode: "take", time: "seconds", jointsList: "state" } });
+    const back = await readDataset(arm, [file("out.parquet", bytes)], { episodeColumn: "take", timeColumn: "seconds", jointsColumn: "state" });
+    expect(back.problems).toEqual([]);
+    expect(back.files[0].columns.map((c) => `${c.name}:${c.type}`)).toEqual(["take:STRING", "frame_index:INT32", "seconds:DOUBLE", "state:list<DOUBLE>"]);
+    back.episodes.forEach((e, i) => {
+      expect(e.id).toBe(episodes[i].id);
+      expect(Array.from(e.recording.timeS)).toEqual(Array.from(episodes[i].recording.timeS));
+      expect(Array.from(e.recording.position)).toEqual(Array.from(episodes[i].recording.position));
+    });
+  });
+
+  it("joint columns under other names, in the arm's order", async () => {
+    const arm = armOf();
+    const episodes = [{ id: "a", recording: { names: ["lift", "grip"], jointCount: 2, count: 2, timeS: Float64Array.from([0, 0.1]), position: Float64Array.from([0.1, 0.01, 0.2, 0.02]) } }];
+    const bytes = writeEpisodesParquet(arm, episodes, { columns: { joints: ["q0", "q1"] } });
+    const back = await readDataset(arm, [file("out.parquet", bytes)], { jointColumns: ["q0", "q1"] });
+    expect(Array.from(back.episodes[0].recording.position)).toEqual([0.1, 0.01, 0.2, 0.02]);
+  });
+});
+
 describe("dataset reading: zip, CSV and many files", () => {
   it("a zip of Parquet files is one episode per file, ids from the file names, in name order", async () => {
     const one = new Uint8Array(
