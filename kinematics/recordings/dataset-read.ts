@@ -17,6 +17,7 @@
  */
 import { parquetMetadata, parquetRead, parquetSchema } from "hyparquet";
 import { unzipSync } from "fflate";
+import { compressors } from "hyparquet-compressors";
 import type { Arm } from "../plan/arm";
 import { describeRecordingProblem, parseRecordingCsv } from "./csv";
 import type { Episode } from "./timed-replay";
@@ -224,6 +225,8 @@ async function readParquetColumns(
   await parquetRead({
     file: buffer,
     columns: columns.map((c) => c.name),
+    // every Parquet codec (gzip, zstd, brotli, lz4, snappy), not only hyparquet's built-in snappy
+    compressors,
     onChunk: ({ columnName, columnData, rowStart }) => {
       const column = out.get(columnName);
       if (!column) return;

@@ -4,7 +4,7 @@
 // §5.4.2, memory), so the values read back must equal Math.fround of what was written.
 import { describe, expect, it } from "vitest";
 import { parquetWriteBuffer } from "hyparquet-writer";
-import { zipSync, strToU8 } from "fflate";
+import { gzipSync, zipSync, strToU8 } from "fflate";
 import { parseArm, type Arm } from "@/kinematics";
 import { readDataset, type DatasetFile } from "@/kinematics/recordings/dataset-read";
 import { writeEpisodesParquet } from "@/kinematics/recordings/dataset-write";
@@ -145,6 +145,21 @@ describe("dataset reading: Parquet", () => {
     });
     const result = await readDataset(armOf(), [file("ep.parquet", buffer)]);
     expect(result.problems[0]).toMatch(/joint column "lift" \(STRING\) not numbers/);
+  });
+
+  it("reads gzip-compressed pages (compressed here with fflate's gzip, RFC 1952)", async () => {
+    const buffer = parquetWriteBuffer({
+      columnData: [
+        { name: "t", data: new Float64Array([0, 0.1, 0.2]), type: "DOUBLE" },
+        { name: "lift", data: new Float64Array([0.5, 0.51, 0.52]), type: "DOUBLE" },
+        { name: "grip", data: new Float64Array([0.01, 0.01, 0.01]), type: "DOUBLE" },
+      ],
+      codec: "GZIP",
+      compressors: { GZIP: (input: Uint8Array) => gzipSync(input) },
+    });
+    const result = await readDataset(armOf(), [file("gz.parquet", buffer)]);
+    expect(result.problems).toEqual([]);
+    expect(Array.from(result.episodes[0].recording.position)).toEqual([0.5, 0.01, 0.51, 0.01, 0.52, 0.01]);
   });
 
   it("Parquet written by the product reads back identically, float64 and float32", async () => {
