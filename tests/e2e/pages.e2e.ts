@@ -102,7 +102,7 @@ describe("pages at 1440×900", () => {
     await expect(page.getByText("The password must be at least 10 characters.").isVisible()).resolves.toBe(true);
     await shot(page, "reset-password");
     await page.goto("/reset-password");
-    await expect(page.getByRole("alert").textContent()).resolves.toContain("needs the link from the reset e-mail");
+    await expect(page.locator("main").getByRole("alert").textContent()).resolves.toContain("needs the link from the reset e-mail");
     await page.goto("/verify-email?token=abc");
     await shot(page, "verify-email");
     await page.goto("/safety");
