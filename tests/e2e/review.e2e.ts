@@ -128,17 +128,31 @@ describe("review flow in the browser", () => {
     await page.goto(reviewPath);
     await expect(page.getByTestId("review-title").textContent()).resolves.toContain("Reach without faults");
     await page.getByTestId("plots").locator("svg").first().waitFor();
-    // pin the comment half a second into the plan (move 0), so the student's click visibly moves the playhead
+    // pin the comment half a second into the plan (the first move), so the student's click visibly moves the playhead
     await page.getByLabel("Time on the plan's timeline").evaluate((el: HTMLInputElement) => {
       Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, "value")!.set!.call(el, "0.5");
       el.dispatchEvent(new Event("input", { bubbles: true }));
     });
-    await page.getByText("Pin to move 0 at t = 0.500 s", { exact: false }).waitFor();
+    await page.getByText("Pin to move 1 at t = 0.500 s", { exact: false }).waitFor();
     await page.getByRole("textbox", { name: "Comment", exact: true }).fill("The base runs above 70% of its speed here; lengthen this move.");
     await page.getByRole("combobox", { name: "Joint", exact: true }).selectOption({ label: "base" });
     await page.getByRole("button", { name: "Add comment" }).click();
     await page.getByTestId("comments").getByText("lengthen this move").waitFor();
     await page.screenshot({ path: `${screenshotDir}/review-page.png` });
+
+    // Approving this faulting submission first opens a dialog that lists the faults and asks for a
+    // reason; without a reason the approval cannot be sent. The instructor cancels and returns it.
+    await page.getByRole("button", { name: "Approve despite faults…" }).click();
+    const dialog = page.getByRole("dialog", { name: "Approve a plan whose check found faults?" });
+    await dialog.waitFor();
+    await expect(dialog.getByTestId("approval-faults").textContent()).resolves.toMatch(/Fault · move 1/);
+    expect(await dialog.getByRole("button", { name: "Approve with this reason" }).isDisabled()).toBe(true);
+    await dialog.getByRole("textbox", { name: "Reason for approving (the student sees it)" }).fill("Accepted to discuss the speed fault in class.");
+    expect(await dialog.getByRole("button", { name: "Approve with this reason" }).isDisabled()).toBe(false);
+    await page.screenshot({ path: `${screenshotDir}/review-approve-faults-dialog.png` });
+    await dialog.getByRole("button", { name: "Cancel" }).click();
+    await dialog.waitFor({ state: "detached" });
+    await expect(page.getByTestId("review-status").textContent()).resolves.toBe("Waiting for review");
     await page.getByRole("textbox", { name: "Summary for the student" }).fill("Slow the reach down and submit again.");
     await page.getByRole("button", { name: "Return with comments" }).click();
     await expect(page.getByTestId("review-status").filter({ hasText: "Returned with comments" }).waitFor()).resolves.toBeUndefined();
