@@ -9,7 +9,6 @@ import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import { JointPlots, type PlotMarker } from "@/components/plots/joint-plots";
 import { plotRateHz } from "@/components/plots/downsample";
 import { Button } from "@/components/ui/button";
-import { Dialog } from "@/components/ui/dialog";
 import { SelectField, TextAreaField } from "@/components/ui/field";
 import { ErrorNote, RailHeading } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
@@ -23,7 +22,7 @@ import { Transport } from "@/components/editor/transport";
 import type { RuleProblem } from "@/lib/shared/courses/rules";
 import { api } from "@/lib/client/api-client";
 import type { SubmissionFault } from "@/lib/shared/courses/faults";
-import { FAULT_APPROVAL_REASON_MAX } from "@/lib/shared/schemas/reviews";
+import { FaultApprovalDialog } from "./fault-approval-dialog";
 import { type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
 
@@ -259,45 +258,17 @@ function ReviewActions({
         </div>
         {decide.error && !confirming ? <ErrorNote>{decide.error.message}</ErrorNote> : null}
       </div>
-      <Dialog
+      <FaultApprovalDialog
         open={confirming}
-        title="Approve a plan whose check found faults?"
-        onClose={() => setConfirming(false)}
-        className="max-w-xl"
-        actions={
-          <>
-            <Button size="sm" onClick={() => setConfirming(false)}>Cancel</Button>
-            <Button variant="danger" size="sm" disabled={decide.isPending || !reason.trim()} onClick={() => decide.mutate("approved")}>Approve with this reason</Button>
-          </>
-        }
-      >
-        <p>
-          The server&apos;s check against the assignment&apos;s limits found {faults.length === 1 ? "this fault" : faults.length > 1 ? `these ${faults.length} faults` : "a fault verdict"}. On the arm, the
-          controller would stop or refuse the motion there. Approving accepts the work as it is; the faults stay in the plan.
-        </p>
-        {faults.length > 0 ? (
-          <ul className="mt-3 flex max-h-56 flex-col gap-1.5 overflow-y-auto" data-testid="approval-faults">
-            {faults.map((f, i) => (
-              <li key={i} className="rounded-md border border-fault/40 bg-fault-tint/40 px-2 py-1 text-xs">
-                <span className="font-semibold text-fault">Fault</span>
-                {f.move !== null ? ` · move ${f.move + 1}` : ""}
-                {f.joint !== null ? ` · ${joints[f.joint] ?? `joint ${f.joint + 1}`}` : ""}: {f.message}
-              </li>
-            ))}
-          </ul>
-        ) : null}
-        <div className="mt-3">
-          <TextAreaField
-            label="Reason for approving (the student sees it)"
-            rows={3}
-            maxLength={FAULT_APPROVAL_REASON_MAX}
-            value={reason}
-            onChange={(e) => setReason(e.target.value)}
-            hint={`Required, at most ${FAULT_APPROVAL_REASON_MAX} characters. Approval does not clear the plan to run; the lab's safety rules decide that.`}
-          />
-        </div>
-        {decide.error ? <div className="mt-2"><ErrorNote>{decide.error.message}</ErrorNote></div> : null}
-      </Dialog>
+        faults={faults}
+        joints={joints}
+        reason={reason}
+        onReasonChange={setReason}
+        pending={decide.isPending}
+        error={decide.error?.message ?? null}
+        onCancel={() => setConfirming(false)}
+        onApprove={() => decide.mutate("approved")}
+      />
     </div>
   );
 }

@@ -1,0 +1,69 @@
+"use client";
+import { Button } from "@/components/ui/button";
+import { Dialog } from "@/components/ui/dialog";
+import { TextAreaField } from "@/components/ui/field";
+import { ErrorNote } from "@/components/ui/panel";
+import type { SubmissionFault } from "@/lib/shared/courses/faults";
+import { FAULT_APPROVAL_REASON_MAX } from "@/lib/shared/schemas/reviews";
+
+export interface FaultApprovalDialogProps {
+  open: boolean;
+  /** The faults of the server's check, as the decision route counts them. */
+  faults: SubmissionFault[];
+  /** Joint names, to label faults of one joint. */
+  joints: readonly string[];
+  reason: string;
+  onReasonChange: (reason: string) => void;
+  pending: boolean;
+  error: string | null;
+  onCancel: () => void;
+  onApprove: () => void;
+}
+
+/**
+ * Approving a submission whose check found faults: the dialog lists each fault (moves counted from
+ * 1) and sends the approval only with a typed reason, which the student will see.
+ */
+export function FaultApprovalDialog({ open, faults, joints, reason, onReasonChange, pending, error, onCancel, onApprove }: FaultApprovalDialogProps) {
+  return (
+    <Dialog
+      open={open}
+      title="Approve a plan whose check found faults?"
+      onClose={onCancel}
+      className="max-w-xl"
+      actions={
+        <>
+          <Button size="sm" onClick={onCancel}>Cancel</Button>
+          <Button variant="danger" size="sm" disabled={pending || !reason.trim()} onClick={onApprove}>Approve with this reason</Button>
+        </>
+      }
+    >
+      <p>
+        The server&apos;s check against the assignment&apos;s limits found {faults.length === 1 ? "this fault" : faults.length > 1 ? `these ${faults.length} faults` : "a fault verdict"}. On the arm, the
+        controller would stop or refuse the motion there. Approving accepts the work as it is; the faults stay in the plan.
+      </p>
+      {faults.length > 0 ? (
+        <ul className="mt-3 flex max-h-56 flex-col gap-1.5 overflow-y-auto" data-testid="approval-faults">
+          {faults.map((f, i) => (
+            <li key={i} className="rounded-md border border-fault/40 bg-fault-tint/40 px-2 py-1 text-xs">
+              <span className="font-semibold text-fault">Fault</span>
+              {f.move !== null ? ` · move ${f.move + 1}` : ""}
+              {f.joint !== null ? ` · ${joints[f.joint] ?? `joint ${f.joint + 1}`}` : ""}: {f.message}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      <div className="mt-3">
+        <TextAreaField
+          label="Reason for approving (the student sees it)"
+          rows={3}
+          maxLength={FAULT_APPROVAL_REASON_MAX}
+          value={reason}
+          onChange={(e) => onReasonChange(e.target.value)}
+          hint={`Required, at most ${FAULT_APPROVAL_REASON_MAX} characters. Approval does not clear the plan to run; the lab's safety rules decide that.`}
+        />
+      </div>
+      {error ? <div className="mt-2"><ErrorNote>{error}</ErrorNote></div> : null}
+    </Dialog>
+  );
+}
