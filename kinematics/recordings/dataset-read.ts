@@ -17,7 +17,6 @@
  */
 import { parquetMetadata, parquetRead, parquetSchema } from "hyparquet";
 import { unzipSync } from "fflate";
-import { compressors } from "hyparquet-compressors";
 import type { Arm } from "../plan/arm";
 import { describeRecordingProblem, parseRecordingCsv } from "./csv";
 import type { Episode } from "./timed-replay";
@@ -222,6 +221,8 @@ async function readParquetColumns(
   const buffer = arrayBufferOf(bytes);
   const out = new Map<string, Float64Array | unknown[]>();
   for (const c of columns) out.set(c.name, numericTypes.has(c.type) ? new Float64Array(rows).fill(Number.NaN) : new Array<unknown>(rows).fill(null));
+  // The codecs load on first use, so pages that never read Parquet never instantiate their WebAssembly.
+  const { compressors } = await import("hyparquet-compressors");
   await parquetRead({
     file: buffer,
     columns: columns.map((c) => c.name),
