@@ -18,11 +18,49 @@ import { sampleRateOf, stateOf } from "./arm-state";
 import { moveSafeDuration } from "./safe-duration";
 import { verdictOf, type Finding, type MoveReport, type Report } from "./report";
 import { timelineOf } from "../motion/timeline";
-import type { CheckOptions, MoveContext } from "./types";
+import type { CheckOptions, MoveChecker, MoveContext } from "./types";
 
 /** Copies a typed array into a plain list (for the JSON report). */
 function toList(values: Float64Array): number[] {
   return Array.from(values);
+}
+
+/** What the checkers computed for one move, with finding times from the move's start. */
+interface CachedMove {
+  findings: Finding[];
+  minSafe: MoveContext["minSafe"];
+  figures: NonNullable<MoveContext["figures"]>;
+}
+
+/**
+ * Move results by everything they depend on (the arm and plan-level fields, the checkers and
+ * options, the move's index, start pose, goal, duration and shape), so that editing one move
+ * rechecks that move and the next, whose start it changes, and reuses the rest.
+ */
+const moveCache = new Map<string, CachedMove>();
+const maxCachedMoves = 4096;
+
+const checkerIds = new WeakMap<object, number>();
+let nextCheckerId = 1;
+function checkerId(checker: object): number {
+  let id = checkerIds.get(checker);
+  if (id === undefined) checkerIds.set(checker, (id = nextCheckerId++));
+  return id;
+}
+
+/** The part of a move's cache key shared by every move of the plan. */
+function moveContextKey(plan: Plan, moveCheckers: readonly MoveChecker[], sampling: string, sampleRateHz: number | undefined): string {
+  // by content, not identity: a plan edited in place must not find its old results
+  const planFields = JSON.stringify([plan.arm, plan.payload, plan.keepOut, plan.surfaceMargin, plan.maxToolSpeed]);
+  return `${planFields}|${moveCheckers.map(checkerId).join(",")}|${sampling}|${sampleRateHz ?? ""}`;
+}
+
+/** A copy of the per-move figures (the report must not share arrays with the cache). */
+function copyFigures(figures: CachedMove["figures"]): CachedMove["figures"] {
+  const out: CachedMove["figures"] = {};
+  if (figures.peakEffort) out.peakEffort = [...figures.peakEffort];
+  if (figures.peakToolSpeed !== undefined) out.peakToolSpeed = figures.peakToolSpeed;
+  return out;
 }
 
 /**
@@ -40,6 +78,8 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
 
   const state = stateOf(plan);
   const sampling = options.sampling ?? "path";
+  const reuse = options.reuse ?? true;
+  const contextKey = moveContextKey(plan, moveCheckers, sampling, options.sampleRateHz);
   const peakVelocity = new Float64Array(n);
   const peakAcceleration = new Float64Array(n);
   const moves: MoveReport[] = plan.moves.map((move, index) => {
@@ -68,12 +108,25 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       minCalm: { durationS: 0, joint: -1, check: null },
       figures: {},
     };
-    const rateHz = state ? sampleRateOf(state, context) : arm.controlRateHz;
-    const from = context.from;
-    context.minSafe = moveSafeDuration(plan, state, from, delta, shape, 1, rateHz);
-    context.minCalm = moveSafeDuration(plan, state, from, delta, shape, arm.cautionRatio, rateHz);
-    const moveFindings: Finding[] = [];
-    for (const checker of moveCheckers) checker(context, moveFindings);
+    const key = `${contextKey}|${index}|${move.duration}|${move.shape}|${Array.from(context.from).join(",")}|${move.goal.join(",")}`;
+    const cached = reuse ? moveCache.get(key) : undefined;
+    let result: CachedMove;
+    if (cached) {
+      moveCache.delete(key); // most recently used last
+      result = cached;
+    } else {
+      const rateHz = state ? sampleRateOf(state, context) : arm.controlRateHz;
+      const from = context.from;
+      context.minSafe = moveSafeDuration(plan, state, from, delta, shape, 1, rateHz);
+      context.minCalm = moveSafeDuration(plan, state, from, delta, shape, arm.cautionRatio, rateHz);
+      const moveFindings: Finding[] = [];
+      for (const checker of moveCheckers) checker(context, moveFindings);
+      // kept with times from the move's start, so a move that only starts later is reused
+      result = { findings: moveFindings.map((f) => ({ ...f, timeS: (f.timeS ?? context.startS) - context.startS })), minSafe: context.minSafe, figures: context.figures ?? {} };
+    }
+    moveCache.set(key, result);
+    if (moveCache.size > maxCachedMoves) moveCache.delete(moveCache.keys().next().value as string);
+    const moveFindings = result.findings.map((f) => ({ ...f, timeS: (f.timeS ?? 0) + context.startS }));
     findings.push(...moveFindings);
     return {
       index,
@@ -81,9 +134,9 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       shape: move.shape,
       peakVelocity: toList(peakVelocity),
       peakAcceleration: instant ? new Array<null>(n).fill(null) : toList(peakAcceleration),
-      minSafeDuration: context.minSafe.durationS,
+      minSafeDuration: result.minSafe.durationS,
       findings: moveFindings,
-      ...context.figures, // peakEffort, peakToolSpeed when the arm has a chain
+      ...copyFigures(result.figures), // peakEffort, peakToolSpeed when the arm has a chain
     };
   });
   return { verdict: verdictOf(findings), moves, findings };

@@ -32,8 +32,11 @@ export const pathGridIntervals = 64;
 /** Safety factor on the curvature estimate of the refinement bound. */
 const curvatureSafety = 4;
 
-/** Deepest bisection of one grid interval (2⁻⁴⁰ of it: far below any control period). */
-const maxRefineDepth = 40;
+/** Deepest bisection of one grid interval (2⁻³² of it: far below any control period). */
+const maxRefineDepth = 32;
+
+/** Most interval splits per channel and duration; past it an interval's bound stands for its peak. */
+const maxSplitsPerChannel = 20_000;
 
 /** Path terms of one move, per evaluated point (stride `2n + 2`: Mⱼ, gⱼ, s′, tool speed at T = 1). */
 export interface MovePath {
@@ -196,6 +199,7 @@ export function pathPeaks(s: ArmState, path: MovePath, durationS: number, rateHz
       if (v > values[gridMax]) gridMax = k;
     }
     const best = { peak: -1, tau: 0 };
+    let splits = 0;
     const evaluate = (k: number) => {
       const t = sampleTau(k);
       visited?.push(t);
@@ -222,8 +226,16 @@ export function pathPeaks(s: ArmState, path: MovePath, durationS: number, rateHz
       if (bound <= best.peak * (1 + 1e-12) + 1e-300) return;
       const k0 = Math.ceil(a * perTau - 1e-9), k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
       if (k1 < k0) return;
-      if (k1 - k0 < samplesPerLeaf || depth >= maxRefineDepth) {
+      if (k1 - k0 < samplesPerLeaf) {
         for (let k = k0; k <= k1; k++) evaluate(k);
+        return;
+      }
+      if (depth >= maxRefineDepth || ++splits > maxSplitsPerChannel) {
+        // out of refinement: take the bound itself, never less (no false pass)
+        if (bound > best.peak) {
+          best.peak = bound;
+          best.tau = (a + b) / 2;
+        }
         return;
       }
       const m = (a + b) / 2;

@@ -79,5 +79,10 @@ export interface CheckOptions {
   sampleRateHz?: number;
   /** Default `path`; see {@link CheckSampling}. */
   sampling?: CheckSampling;
+  /**
+   * Reuse the results of moves checked before with exactly the same inputs (default true): editing
+   * one move then rechecks that move and the next. False checks every move afresh.
+   */
+  reuse?: boolean;
 }
 

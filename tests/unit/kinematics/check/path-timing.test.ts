@@ -214,3 +214,19 @@ describe("shortest safe duration over every timing-dependent check", () => {
     expect(timingFaults(check(withDuration(plan, i, safe)), i)).toEqual([]);
   });
 });
+
+describe("incremental check", () => {
+  it("editing one move's duration gives the same report as a check from scratch, moves after it shifted in time", () => {
+    const plan = parse({
+      format: "jointproof.plan",
+      version: 1,
+      arm: heavy,
+      start: poseOf(heavy, [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5]),
+      keepOut: [{ name: "tray", min: [0.2, -0.2, 0], max: [0.4, 0.2, 0.1] }],
+      moves: [0.8, 0.2, 0.6].map((u, i) => ({ goal: poseOf(heavy, [u, 0.5, 0.3 + 0.1 * i, 0.5, 0.5, 0.5, 0.5]), duration: 1, shape: "quintic" })),
+    });
+    check(plan); // fills the move cache
+    const edited = withDuration(plan, 0, 1.7);
+    expect(JSON.parse(JSON.stringify(check(edited)))).toEqual(JSON.parse(JSON.stringify(check(edited, { reuse: false }))));
+  });
+});
