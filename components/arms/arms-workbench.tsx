@@ -2,14 +2,13 @@
 import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { NumberInput } from "@/components/editor/number-input";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { ErrorNote, Panel } from "@/components/ui/panel";
-import { Table, Td, Th } from "@/components/ui/table";
-import { armFromDescription, armDocumentSchema, describeIssues, formatPath, type Arm, parseUrdf } from "@/kinematics";
+import { armFromDescription, armDocumentSchema, type Arm, parseUrdf } from "@/kinematics";
 import { api } from "@/lib/client/api-client";
-import { displayDigits, fromDisplay, toDisplay, unitLabel } from "@/lib/shared/units";
+import { customArmName } from "./arm-fields";
+import { ArmForm } from "./arm-form";
 import { ArmStage } from "./arm-stage";
 
 export interface ArmEntry {
@@ -20,49 +19,37 @@ export interface ArmEntry {
   arm: Arm;
 }
 
-type LimitField = "min" | "max" | "maxVelocity" | "maxAcceleration";
-const quantityOf = { min: "position", max: "position", maxVelocity: "velocity", maxAcceleration: "acceleration" } as const;
-
 /**
- * Arms: pick one to see it on the stage and edit its limits. The form checks with the engine's arm
- * schema (the one the API uses), showing each problem beside its field; a custom arm's edit is a new
- * revision, a demo arm's edit becomes a custom arm of this project. A URDF file becomes a custom arm.
+ * Arms: pick one to see it on the stage and edit every parameter the check uses (arm-form.tsx). A
+ * custom arm's edit is a new revision; a built-in arm's edit becomes a clearly named custom copy in
+ * this project, which opens, and the built-in arm stays unchanged. A URDF file becomes a custom arm.
  */
 export function ArmsWorkbench({ projectId, projectName, arms, canEdit }: { projectId: string; projectName: string; arms: ArmEntry[]; canEdit: boolean }) {
   const router = useRouter();
   const [selectedId, setSelectedId] = useState(arms[0]?.id ?? "");
-  const selected = arms.find((a) => a.id === selectedId);
-  const [draft, setDraft] = useState<Arm | null>(selected?.arm ?? null);
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [note, setNote] = useState("");
+  const selected = arms.find((a) => a.id === selectedId) ?? arms[0];
   const [urdfProblems, setUrdfProblems] = useState<string[]>([]);
   const [urdfArm, setUrdfArm] = useState<Arm | null>(null);
   const [urdfName, setUrdfName] = useState("");
 
-  const pick = (id: string) => {
-    setSelectedId(id);
-    setDraft(arms.find((a) => a.id === id)?.arm ?? null);
-    setErrors({});
-  };
-
-  const validate = (): Arm | null => {
-    if (!draft) return null;
-    const r = armDocumentSchema.safeParse(draft);
-    if (r.success) {
-      setErrors({});
-      return r.data;
-    }
-    setErrors(Object.fromEntries(describeIssues(r.error.issues).map((p) => [formatPath(p.path), p.message])));
-    return null;
-  };
+  const pick = (id: string) => setSelectedId(id);
 
   const save = useMutation({
-    mutationFn: async (arm: Arm) => {
-      if (!selected) throw new Error("no arm chosen");
-      if (selected.builtIn) return api.createArm(projectId, { name: `${selected.name} (custom)`.slice(0, 120), description: arm, note: note || undefined });
-      return api.createArmRevision(selected.id, { description: arm, note: note || undefined });
+    mutationFn: async ({ arm, note, from }: { arm: Arm; note: string; from: string }) => {
+      const source = arms.find((a) => a.id === from);
+      if (!source) throw new Error("Choose an arm first.");
+      if (source.builtIn) {
+        const created = await api.createArm(projectId, { name: customArmName(source.name, arms.map((a) => a.name)), description: arm, note: note || undefined });
+        return { openId: created.arm.id };
+      }
+      await api.createArmRevision(source.id, { description: arm, note: note || undefined });
+      return { openId: source.id };
     },
-    onSuccess: () => router.refresh(),
+    onSuccess: ({ openId }) => {
+      // a custom copy of a built-in arm opens at once; the built-in one stays as it was
+      setSelectedId(openId);
+      router.refresh();
+    },
   });
 
   const importUrdf = useMutation({
@@ -72,12 +59,6 @@ export function ArmsWorkbench({ projectId, projectName, arms, canEdit }: { proje
       router.refresh();
     },
   });
-
-  const setField = (j: number, field: LimitField, value: number | undefined) => {
-    if (!draft) return;
-    const joints = draft.joints.map((joint, i) => (i === j ? { ...joint, [field]: value } : joint));
-    setDraft({ ...draft, joints });
-  };
 
   return (
     <div className="mx-auto max-w-7xl px-6 py-6">
@@ -131,56 +112,23 @@ export function ArmsWorkbench({ projectId, projectName, arms, canEdit }: { proje
           ) : null}
         </div>
 
-        {selected && draft ? (
+        {selected ? (
           <Panel className="flex min-w-0 flex-col gap-4 p-4">
             <ArmStage arm={urdfArm ?? selected.arm} />
-            <form aria-label={`Limits of ${selected.name}`} onSubmit={(e) => { e.preventDefault(); const a = validate(); if (a) save.mutate(a); }}>
-              <div className="flex flex-wrap items-end gap-3">
-                <h2 className="mr-auto text-sm font-semibold">Limits · revision {selected.revision}</h2>
-                <label className="flex flex-col text-xs text-ink-soft">Control rate (Hz)
-                  <NumberInput value={draft.controlRateHz} digits={0} onValue={(v) => setDraft({ ...draft, controlRateHz: v })} aria-label="Control rate (Hz)" className="w-24" aria-invalid={Boolean(errors.controlRateHz)} />
-                </label>
-                <label className="flex flex-col text-xs text-ink-soft">Caution ratio
-                  <NumberInput value={draft.cautionRatio} digits={2} onValue={(v) => setDraft({ ...draft, cautionRatio: v })} aria-label="Caution ratio" className="w-20" aria-invalid={Boolean(errors.cautionRatio)} />
-                </label>
-              </div>
-              {errors.controlRateHz || errors.cautionRatio ? <p className="mt-1 text-xs text-fault">{errors.controlRateHz ? `Control rate ${errors.controlRateHz}. ` : ""}{errors.cautionRatio ? `Caution ratio ${errors.cautionRatio}.` : ""}</p> : null}
-              <Table aria-label="Joint limits" className="mt-3">
-                <thead><tr><Th>Joint</Th><Th numeric>Min (° · mm)</Th><Th numeric>Max (° · mm)</Th><Th numeric>Max speed (/s)</Th><Th numeric>Max accel. (/s²)</Th></tr></thead>
-                <tbody>
-                  {draft.joints.map((joint, j) => (
-                    <tr key={joint.name}>
-                      <Td className="text-xs font-medium">{joint.name}<span className="block text-[10px] text-ink-faint">{joint.type}</span></Td>
-                      {(["min", "max", "maxVelocity", "maxAcceleration"] as const).map((field) => {
-                        const path = `joints[${j}].${field}`;
-                        const v = joint[field];
-                        const label = unitLabel(joint.type, "deg", quantityOf[field]);
-                        return (
-                          <Td key={field} numeric>
-                            <NumberInput value={v === undefined ? NaN : toDisplay(v, joint.type, "deg")} digits={displayDigits(joint.type, "deg")}
-                              aria-label={`${joint.name} ${field} (${label})`} aria-invalid={Boolean(errors[path])}
-                              onValue={(x) => setField(j, field, fromDisplay(x, joint.type, "deg"))} className="w-24" />
-                            {errors[path] ? <span className="block text-left text-[11px] text-fault">{errors[path]}</span> : null}
-                          </Td>
-                        );
-                      })}
-                    </tr>
-                  ))}
-                </tbody>
-              </Table>
-              <p className="mt-1 text-[11px] text-ink-faint">Revolute joints in degrees (°, °/s, °/s²), prismatic in millimetres; stored in radians and metres.</p>
-              {canEdit ? (
-                <div className="mt-3 flex flex-wrap items-end gap-2">
-                  <TextField label="Note for this revision" value={note} onChange={(e) => setNote(e.target.value)} maxLength={500} fieldClassName="flex-1" />
-                  <Button type="submit" variant="primary" disabled={save.isPending}>
-                    {selected.builtIn ? "Save as a custom arm" : `Save as revision ${selected.revision + 1}`}
-                  </Button>
-                </div>
-              ) : null}
-              {Object.keys(errors).length > 0 ? <p role="alert" className="mt-2 text-xs text-fault">Fix the marked fields; nothing was saved.</p> : null}
-              {save.error ? <div className="mt-2"><ErrorNote title="Not saved">{save.error.message}</ErrorNote></div> : null}
-              {save.isSuccess ? <p role="status" className="mt-2 text-xs text-pass">Saved.</p> : null}
-            </form>
+            <ArmForm
+              key={`${selected.id}-${selected.revision}`}
+              arm={selected.arm}
+              title={`${selected.name} · revision ${selected.revision}${selected.builtIn ? " · built-in" : ""}`}
+              canEdit={canEdit}
+              saveLabel={selected.builtIn ? "Save as a custom arm" : `Save as revision ${selected.revision + 1}`}
+              saving={save.isPending}
+              saveError={save.error ? save.error.message : null}
+              saved={save.isSuccess && save.variables?.from === selected.id}
+              onSave={(arm, note) => save.mutate({ arm, note, from: selected.id })}
+            />
+            {selected.builtIn && canEdit ? (
+              <p className="text-[11px] text-ink-faint">Built-in arms are never changed: saving makes a custom copy in this project and opens it.</p>
+            ) : null}
           </Panel>
         ) : null}
       </div>
