@@ -9,7 +9,7 @@ import { readFileSync, writeFileSync } from "node:fs";
 import { check, describeRecordingProblem, formatProblem, formatRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type PathSegment, type Report, type Verdict, repairStream, scanRecording, streamCheck, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands";
 import { auditUsage, isAuditCommand, runAuditCommand } from "./audit-command";
-import { exportFormatOf, hasExportBlock, recordedVerdict, verifyCsvChecksum, verifyJsonChecksum } from "./export-checksum";
+import { hasExportBlock, recordedVerdict, verifyExport, verifyJsonChecksum } from "../lib/shared/export-format";
 
 /** Where the command writes; replaced in tests only by the real process streams. */
 interface Io {
@@ -156,7 +156,7 @@ function formatReport(report: Report, arm: Arm): string {
   return lines.join("\n") + "\n";
 }
 
-function runCheck(args: Args, io: Io): number {
+async function runCheck(args: Args, io: Io): Promise<number> {
   const [file, ...rest] = args.positional;
   if (!file || rest.length > 0) throw new InputError(["check: needs exactly one plan file (or - for stdin)"]);
   const document = readJson(file);
@@ -164,7 +164,7 @@ function runCheck(args: Args, io: Io): number {
   const exported = hasExportBlock(document) ? document : null;
   let verifiedLine = "";
   if (exported) {
-    const checksum = verifyJsonChecksum(exported);
+    const checksum = await verifyJsonChecksum(exported);
     if (!checksum.ok) throw new InputError([checksum.problem]);
     verifiedLine = `Export checksum verified: export.sha256 ${checksum.digest} matches the content.\n`;
   }
@@ -193,20 +193,12 @@ function runCheck(args: Args, io: Io): number {
 }
 
 /** `verify`: checksum-only verification of a JSON or CSV export. */
-function runVerify(args: Args, io: Io): number {
+async function runVerify(args: Args, io: Io): Promise<number> {
   const [file, ...rest] = args.positional;
   if (!file || rest.length > 0) throw new InputError(["verify: needs exactly one export file (JSON or CSV, or - for stdin)"]);
-  const bytes = readInput(file);
-  const format = exportFormatOf(bytes);
-  let result;
-  if (format === "json") {
-    const document = parseJson(bytes, file);
-    if (!hasExportBlock(document)) throw new InputError(["export: is missing (not a JSON export: no export block with a sha256)"]);
-    result = verifyJsonChecksum(document);
-  } else {
-    result = verifyCsvChecksum(bytes);
-  }
-  if (!result.ok) throw new InputError([result.problem]);
+  const result = await verifyExport(readInput(file));
+  if (!result.ok) throw new InputError([result.problem.startsWith("not valid JSON") ? `${file === "-" ? "(stdin)" : file}: ${result.problem}` : result.problem]);
+  const format = result.format;
   const where = format === "json" ? "export.sha256" : "# sha256 (last line)";
   if (args.json) io.out(JSON.stringify({ format, verified: true, sha256: result.digest }) + "\n");
   else io.out(`Export checksum verified (${format.toUpperCase()}): ${where} ${result.digest} matches the content.\n`);
@@ -288,9 +280,9 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
       io.out(usage + armUsage + auditUsage);
       return 0;
     }
-    if (args.command === "check") return runCheck(args, io);
+    if (args.command === "check") return await runCheck(args, io);
     if (args.command === "scan") return runScan(args, io);
-    if (args.command === "verify") return runVerify(args, io);
+    if (args.command === "verify") return await runVerify(args, io);
     io.err(args.command === undefined ? usage : `${args.command}: unknown command\n${usage}`);
     return 2;
   } catch (error) {

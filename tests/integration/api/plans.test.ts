@@ -14,7 +14,7 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { verifyCsvExport, verifyJsonExport } from "@/lib/server/export";
+import { verifyExport } from "@/lib/shared/export-format";
 import { call, demoArm, errorOf, gentlePlan, jumpPlan, makeUser, tokenFor, type Auth } from "./_helpers";
 
 let auth: Auth;
@@ -118,7 +118,7 @@ describe("exports", () => {
   it("exports JSON whose SHA-256 verifies, with the waypoints at the chosen rate and the stored verdict", async () => {
     const res = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/1/export?format=json&rateHz=50`, params: { planId, version: "1" }, auth });
     expect(res.status).toBe(200);
-    expect(verifyJsonExport(res.text).ok).toBe(true);
+    expect((await verifyExport(res.text)).ok).toBe(true);
     const body = res.body as { export: { rateHz: number; waypoints: number[][]; report: { verdict: string } } };
     expect(body.export.rateHz).toBe(50);
     expect(body.export.report.verdict).toBe("pass");
@@ -128,7 +128,7 @@ describe("exports", () => {
     expect(body.export.waypoints[100][1]).toBeCloseTo(0.3, 12);
     const tampered = res.text.replace('"duration":2', '"duration":3');
     expect(tampered).not.toBe(res.text);
-    expect(verifyJsonExport(tampered).ok).toBe(false);
+    expect((await verifyExport(tampered)).ok).toBe(false);
   });
 
   it("exports CSV with a header per joint and a checksum line that detects any edit", async () => {
@@ -136,10 +136,10 @@ describe("exports", () => {
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
     expect(res.headers.get("x-jointproof-verdict")).toBe("fault");
-    expect(verifyCsvExport(res.text).ok).toBe(true);
+    expect((await verifyExport(res.text)).ok).toBe(true);
     expect(res.text).toContain(`t,${demoArm.description.joints.map((j) => j.name).join(",")}\n`);
     expect(res.text).toMatch(/# verdict: fault/);
-    expect(verifyCsvExport(res.text.replace("\n0,", "\n0.001,")).ok).toBe(false);
+    expect((await verifyExport(res.text.replace("\n0,", "\n0.001,"))).ok).toBe(false);
   });
 
   it("refuses an export that would hold too many waypoints (422 naming query.rateHz) and a rate that is not a number (400)", async () => {
@@ -166,7 +166,7 @@ describe("export and the command-line checker", () => {
     ["2", "fault", 1],
   ])("bin/jointproof check reads export of version %s as a plan and finds the stored verdict (%s)", async (number, verdict, exitCode) => {
     const res = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=20`, params: { planId, version: number }, auth });
-    expect(verifyJsonExport(res.text).ok).toBe(true);
+    expect((await verifyExport(res.text)).ok).toBe(true);
     const dir = mkdtempSync(join(tmpdir(), "jp-export-"));
     try {
       const file = join(dir, "export.json");

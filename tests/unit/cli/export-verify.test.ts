@@ -1,16 +1,14 @@
-// Issue 5: "export → bin/jointproof check verifies its checksum and finds the same verdict".
-// The exports are produced by the API's own pure functions (lib/server/export.ts; node:crypto only, no
-// server-only imports), so these tests pin the checker against the real export format.
+// An export → bin/jointproof check verifies its checksum and finds the same verdict. The exports are
+// produced by the writer of the one export-format module (lib/shared/export-format.ts) that the API's
+// export route uses, so these tests pin the command-line verifier against the real export format.
 import { spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
 import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { check } from "@/kinematics";
-import { parsePlan, type Plan } from "@/kinematics";
-import { samplePlan } from "@/kinematics/motion/sample";
-import { buildCsvExport, buildJsonExport, verifyCsvExport, verifyJsonExport, type ExportMeta } from "@/lib/server/export";
+import { check, parsePlan, samplePlan, type Plan } from "@/kinematics";
+import { buildCsvExport, buildJsonExport, csvTextField, verifyExport, type ExportMeta } from "@/lib/shared/export-format";
 
 const root = join(__dirname, "..", "..", "..");
 const bin = join(root, "bin", "jointproof");
@@ -34,12 +32,22 @@ function loadPlan(name: string): Plan {
   return parsed.value;
 }
 
-/** Both exports of a fixture plan, exactly as the API builds them (waypoints at 100 Hz). */
-function exportsOf(name: string) {
-  const plan = loadPlan(name);
+/** Both exports of a plan, exactly as the API builds them (waypoints at 100 Hz). */
+async function exportsOfPlan(plan: Plan) {
   const report = check(plan);
   const samples = samplePlan(plan, { rateHz: 100 });
-  return { report, json: buildJsonExport(plan, report, samples, meta), csv: buildCsvExport(plan, report, samples, meta) };
+  return { report, json: await buildJsonExport(plan, report, samples, meta), csv: await buildCsvExport(plan, report, samples, meta) };
+}
+
+/** Both exports of a fixture plan. */
+function exportsOf(name: string) {
+  return exportsOfPlan(loadPlan(name));
+}
+
+/** The digest the verifier computed for a tampered file. */
+async function computed(text: string): Promise<string | null> {
+  const result = await verifyExport(text);
+  return result.ok ? result.digest : result.actual;
 }
 
 /** Re-seals a JSON export by the documented rule, so that only its content (not its checksum) is wrong. */
@@ -63,9 +71,9 @@ beforeAll(() => {
 }, 60_000);
 
 describe("jointproof check on a JSON export", () => {
-  it("verifies the checksum of an untouched export and finds the same passing verdict", () => {
-    const { json } = exportsOf("gentle-pass.json");
-    expect(verifyJsonExport(json).ok).toBe(true); // the export's own verifier agrees it is sealed
+  it("verifies the checksum of an untouched export and finds the same passing verdict", async () => {
+    const { json } = await exportsOf("gentle-pass.json");
+    expect((await verifyExport(json)).ok).toBe(true); // the export's own verifier agrees it is sealed
     const { code, stdout, stderr } = run(["check", file("pass.json", json)]);
     expect(stderr).toBe("");
     expect(code).toBe(0);
@@ -74,8 +82,8 @@ describe("jointproof check on a JSON export", () => {
     expect(stdout).toContain("Verdict agrees with the export: PASS.");
   });
 
-  it("a faulting export still verifies, agrees, and exits 1 for the fault", () => {
-    const { json, report } = exportsOf("instant-jump.json");
+  it("a faulting export still verifies, agrees, and exits 1 for the fault", async () => {
+    const { json, report } = await exportsOf("instant-jump.json");
     expect(report.verdict).toBe("fault");
     const { code, stdout } = run(["check", file("fault.json", json)]);
     expect(code).toBe(1);
@@ -83,8 +91,8 @@ describe("jointproof check on a JSON export", () => {
     expect(stdout).toContain("Verdict agrees with the export: FAULT.");
   });
 
-  it("with --json, stdout is the report alone and the verification lines go to stderr", () => {
-    const { json, report } = exportsOf("just-long-enough.json");
+  it("with --json, stdout is the report alone and the verification lines go to stderr", async () => {
+    const { json, report } = await exportsOf("just-long-enough.json");
     const { code, stdout, stderr } = run(["check", file("caution.json", json), "--json"]);
     expect(code).toBe(0);
     expect(JSON.parse(stdout)).toEqual(JSON.parse(JSON.stringify(report)));
@@ -92,47 +100,47 @@ describe("jointproof check on a JSON export", () => {
     expect(stderr).toContain("Verdict agrees with the export: CAUTION.");
   });
 
-  it("a tampered waypoint makes the checksum fail: exit 2 with the expected and the computed digest", () => {
-    const { json } = exportsOf("gentle-pass.json");
+  it("a tampered waypoint makes the checksum fail: exit 2 with the expected and the computed digest", async () => {
+    const { json } = await exportsOf("gentle-pass.json");
     const document = JSON.parse(json);
     document.export.waypoints[10][1] += 0.001;
     const tampered = JSON.stringify(document);
-    expect(verifyJsonExport(tampered).ok).toBe(false);
-    const actual = verifyJsonExport(tampered).actual;
+    expect((await verifyExport(tampered)).ok).toBe(false);
+    const actual = await computed(tampered);
     const { code, stdout, stderr } = run(["check", file("tampered.json", tampered)]);
     expect(code).toBe(2);
     expect(stdout).toBe("");
     expect(stderr.trim()).toBe(`export.sha256: does not match the content (expected ${document.export.sha256}, got ${actual})`);
   });
 
-  it("a tampered plan (a longer move duration) also fails the checksum, before any check runs", () => {
-    const document = JSON.parse(exportsOf("instant-jump.json").json);
+  it("a tampered plan (a longer move duration) also fails the checksum, before any check runs", async () => {
+    const document = JSON.parse((await exportsOf("instant-jump.json")).json);
     document.moves[0].duration = 2;
     const { code, stderr } = run(["check", file("tampered-plan.json", JSON.stringify(document))]);
     expect(code).toBe(2);
     expect(stderr).toMatch(/^export\.sha256: does not match the content \(expected [0-9a-f]{64}, got [0-9a-f]{64}\)\n$/);
   });
 
-  it("a missing checksum is refused with exit 2", () => {
-    const document = JSON.parse(exportsOf("gentle-pass.json").json);
+  it("a missing checksum is refused with exit 2", async () => {
+    const document = JSON.parse((await exportsOf("gentle-pass.json")).json);
     delete document.export.sha256;
     const { code, stderr } = run(["check", file("unsealed.json", JSON.stringify(document))]);
     expect(code).toBe(2);
     expect(stderr).toContain("export.sha256: is missing");
   });
 
-  it("a sealed export whose recorded verdict differs from the fresh check exits 1 and says so", () => {
-    const document = JSON.parse(exportsOf("gentle-pass.json").json);
+  it("a sealed export whose recorded verdict differs from the fresh check exits 1 and says so", async () => {
+    const document = JSON.parse((await exportsOf("gentle-pass.json")).json);
     document.export.report.verdict = "fault";
     const resealed = reseal(document);
-    expect(verifyJsonExport(resealed).ok).toBe(true); // the checksum is right; only the verdict is off
+    expect((await verifyExport(resealed)).ok).toBe(true); // the checksum is right; only the verdict is off
     const { code, stdout } = run(["check", file("disagree.json", resealed)]);
     expect(code).toBe(1);
     expect(stdout).toContain("Export checksum verified");
     expect(stdout).toContain("Verdict disagrees with the export: it records FAULT, this check finds PASS.");
   });
 
-  it("a plain plan document (no export block) is checked without any checksum line", () => {
+  it("a plain plan document (no export block) is checked without any checksum line", async () => {
     const { code, stdout } = run(["check", join(plans, "gentle-pass.json")]);
     expect(code).toBe(0);
     expect(stdout).not.toContain("checksum");
@@ -141,9 +149,9 @@ describe("jointproof check on a JSON export", () => {
 });
 
 describe("jointproof verify", () => {
-  it("verifies an untouched CSV export and an untouched JSON export", () => {
-    const { json, csv } = exportsOf("just-long-enough.json");
-    expect(verifyCsvExport(csv).ok).toBe(true);
+  it("verifies an untouched CSV export and an untouched JSON export", async () => {
+    const { json, csv } = await exportsOf("just-long-enough.json");
+    expect((await verifyExport(csv)).ok).toBe(true);
     const csvRun = run(["verify", file("ok.csv", csv)]);
     expect(csvRun.code).toBe(0);
     const csvDigest = /# sha256: ([0-9a-f]{64})\n$/.exec(csv)![1];
@@ -153,8 +161,8 @@ describe("jointproof verify", () => {
     expect(JSON.parse(jsonRun.stdout)).toEqual({ format: "json", verified: true, sha256: JSON.parse(json).export.sha256 });
   });
 
-  it("a CSV export with one digit changed in a waypoint row fails with both digests", () => {
-    const { csv } = exportsOf("gentle-pass.json");
+  it("a CSV export with one digit changed in a waypoint row fails with both digests", async () => {
+    const { csv } = await exportsOf("gentle-pass.json");
     const lines = csv.split("\n");
     const row = lines.findIndex((l) => /^0\.5,/.test(l));
     expect(row).toBeGreaterThan(0);
@@ -164,19 +172,19 @@ describe("jointproof verify", () => {
     const { code, stderr } = run(["verify", file("tampered.csv", tampered)]);
     expect(code).toBe(2);
     expect(stderr.trim()).toBe(
-      `# sha256 (last line): does not match the content (expected ${verifyCsvExport(tampered).expected}, got ${verifyCsvExport(tampered).actual})`,
+      `# sha256 (last line): does not match the content (expected ${/# sha256: ([0-9a-f]{64})\n$/.exec(csv)![1]}, got ${await computed(tampered)})`,
     );
   });
 
-  it("a CSV export rewritten with CRLF line endings no longer matches (the digest is over bytes)", () => {
-    const { csv } = exportsOf("gentle-pass.json");
+  it("a CSV export rewritten with CRLF line endings no longer matches (the digest is over bytes)", async () => {
+    const { csv } = await exportsOf("gentle-pass.json");
     const { code, stderr } = run(["verify", file("crlf.csv", csv.replace(/\n/g, "\r\n"))]);
     expect(code).toBe(2);
     expect(stderr).toContain("does not match the content");
   });
 
-  it("a CSV without its checksum line and a JSON plan without an export block are refused", () => {
-    const { csv } = exportsOf("gentle-pass.json");
+  it("a CSV without its checksum line and a JSON plan without an export block are refused", async () => {
+    const { csv } = await exportsOf("gentle-pass.json");
     const unsealed = csv.slice(0, csv.lastIndexOf("# sha256:"));
     const csvRun = run(["verify", file("unsealed.csv", unsealed)]);
     expect(csvRun.code).toBe(2);
@@ -186,11 +194,101 @@ describe("jointproof verify", () => {
     expect(jsonRun.stderr).toContain("export: is missing");
   });
 
-  it("a tampered JSON export fails verify as it fails check", () => {
-    const document = JSON.parse(exportsOf("gentle-pass.json").json);
+  it("a tampered JSON export fails verify as it fails check", async () => {
+    const document = JSON.parse((await exportsOf("gentle-pass.json")).json);
     document.export.rateHz = 50;
     const { code, stderr } = run(["verify", "-"], JSON.stringify(document));
     expect(code).toBe(2);
     expect(stderr).toMatch(/^export\.sha256: does not match the content/);
+  });
+});
+
+/** Splits CSV text into records of fields per RFC 4180 §2 (quoted fields may hold commas, quotes and line breaks). */
+function parseCsvRecords(text: string): string[][] {
+  const records: string[][] = [];
+  let record: string[] = [];
+  let field = "";
+  let quoted = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i];
+    if (quoted) {
+      if (c === '"' && text[i + 1] === '"') {
+        field += '"';
+        i++;
+      } else if (c === '"') quoted = false;
+      else field += c;
+    } else if (c === '"' && field === "") quoted = true;
+    else if (c === ",") {
+      record.push(field);
+      field = "";
+    } else if (c === "\n") {
+      record.push(field);
+      records.push(record);
+      record = [];
+      field = "";
+    } else field += c;
+  }
+  return records;
+}
+
+describe("export format round trip", () => {
+  it("a JSON export reads back as the same plan and the same report, and its checksum verifies", async () => {
+    const plan = loadPlan("just-long-enough.json");
+    const { json, report } = await exportsOfPlan(plan);
+    const back = parsePlan(JSON.parse(json));
+    expect(back.ok).toBe(true);
+    if (!back.ok) return;
+    const { export: block, ...document } = back.value as Plan & { export?: unknown };
+    expect(block).toBeUndefined(); // the plan schema reads the export as a plan and drops the block
+    expect(document).toEqual(plan);
+    expect(JSON.parse(json).export.report).toEqual(JSON.parse(JSON.stringify(report)));
+    expect(await verifyExport(json)).toMatchObject({ ok: true, format: "json" });
+  });
+
+  it("a CSV export's waypoint rows read back to the sampled positions, and its checksum verifies", async () => {
+    const plan = loadPlan("gentle-pass.json");
+    const { csv } = await exportsOfPlan(plan);
+    const samples = samplePlan(plan, { rateHz: 100 });
+    const records = parseCsvRecords(csv).filter((r) => !r[0].startsWith("#"));
+    expect(records[0]).toEqual(["t", ...plan.arm.joints.map((j) => j.name)]);
+    expect(records).toHaveLength(1 + samples.count);
+    const n = samples.jointCount;
+    for (const k of [0, 57, samples.count - 1]) {
+      expect(Number(records[1 + k][0])).toBe(samples.timeS[k]); // shortest round-trip decimals: exact
+      for (let j = 0; j < n; j++) expect(Number(records[1 + k][1 + j])).toBe(samples.position[k * n + j]);
+    }
+    expect(await verifyExport(csv)).toMatchObject({ ok: true, format: "csv" });
+  });
+});
+
+describe("CSV export text fields (RFC 4180 §2 quoting; formula prefixes neutralised as common practice for CSV exports)", () => {
+  const awkward = ["a,b", 'x"y', "two\nlines", "=SUM(A1)", "+1", "-x", "@me"];
+
+  it("quotes a field holding a comma, a quote, CR or LF and doubles its quotes", () => {
+    expect(csvTextField("a,b")).toBe('"a,b"');
+    expect(csvTextField('x"y')).toBe('"x""y"');
+    expect(csvTextField("two\nlines")).toBe('"two\nlines"');
+    expect(csvTextField("cr\rhere")).toBe('"cr\rhere"');
+    expect(csvTextField("elbow")).toBe("elbow");
+  });
+
+  it("puts a ' before a name a spreadsheet would run as a formula (=, +, -, @, tab, CR at the start)", () => {
+    expect(["=SUM(A1)", "+1", "-x", "@me", "\tx"].map(csvTextField)).toEqual(["'=SUM(A1)", "'+1", "'-x", "'@me", "'\tx"]);
+    expect(csvTextField("\rx")).toBe("\"'\rx\"");
+    expect(csvTextField("wrist-pitch")).toBe("wrist-pitch"); // a '-' inside a name is harmless
+  });
+
+  it("keeps the header one record with one field per joint, and the command-line verifier still accepts the file", async () => {
+    const plan = loadPlan("gentle-pass.json");
+    const renamed: Plan = { ...plan, arm: { ...plan.arm, joints: plan.arm.joints.map((j, i) => ({ ...j, name: awkward[i] })) } };
+    const { csv } = await exportsOfPlan(renamed);
+    const header = parseCsvRecords(csv).find((r) => r[0] === "t");
+    expect(header).toEqual(["t", "a,b", 'x"y', "two\nlines", "'=SUM(A1)", "'+1", "'-x", "'@me"]);
+    // no line of the file starts a formula
+    for (const line of csv.split("\n")) expect(/^[=+\-@\t\r]/.test(line)).toBe(false);
+    expect(await verifyExport(csv)).toMatchObject({ ok: true });
+    const { code, stdout } = run(["verify", file("awkward.csv", csv)]);
+    expect(code).toBe(0);
+    expect(stdout).toContain("Export checksum verified (CSV)");
   });
 });

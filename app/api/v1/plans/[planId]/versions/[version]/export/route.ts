@@ -3,7 +3,7 @@ import { getPlanVersion } from "@/db/queries/plans";
 import { readParams, readQuery, route, uuidParam } from "@/lib/server/route";
 import { checkPlan } from "@/lib/server/check";
 import { planSchema, samplePlan } from "@/kinematics";
-import { buildCsvExport, buildJsonExport } from "@/lib/server/export";
+import { buildCsvExport, buildJsonExport } from "@/lib/shared/export-format";
 import { loadPlan, membershipOf } from "@/lib/server/loaders";
 import { EXPORT_MAX_VALUES, exportQuery } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";
@@ -14,7 +14,7 @@ const params = z.object({ planId: uuidParam, version: z.coerce.number().int().po
 
 /**
  * GET /api/v1/plans/:planId/versions/:version/export?format=json|csv&rateHz=…
- * The checked waypoint list with the report, the arm revision and a SHA-256 (see lib/server/export.ts).
+ * The checked waypoint list with the report, the arm revision and a SHA-256 (see lib/shared/export-format.ts).
  */
 export const GET = route(async (request, context) => {
   const { planId, version: number } = await readParams(context, params);
@@ -43,7 +43,7 @@ export const GET = route(async (request, context) => {
     armRevision: { armId: version.armId, name: plan.armName, revision: version.armRevision },
   };
   const base = `${plan.name.replace(/[^A-Za-z0-9._-]+/g, "-").slice(0, 60) || "plan"}-v${version.number}`;
-  const body = query.format === "csv" ? buildCsvExport(document, report, samples, meta) : buildJsonExport(document, report, samples, meta);
+  const body = query.format === "csv" ? await buildCsvExport(document, report, samples, meta) : await buildJsonExport(document, report, samples, meta);
   return new Response(body, {
     status: 200,
     headers: {
