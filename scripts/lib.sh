@@ -228,3 +228,20 @@ stop_pids() {
   for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
   PIDS=()
 }
+
+# The dataset audit workers (lib/server/datasets/run-workers.ts, DATASET_WORKERS processes) in the
+# background: they take audit batches from the job queue in PostgreSQL. Appends to PIDS.
+start_dataset_workers() {
+  local logf="$1"
+  : >"$logf"
+  node --conditions=react-server --import tsx lib/server/datasets/run-workers.ts >"$logf" 2>&1 &
+  PIDS+=($!)
+  local i
+  for ((i = 0; i < 120; i++)); do
+    grep -q "workers ready" "$logf" && { log "dataset workers ready"; return 0; }
+    kill -0 "${PIDS[-1]}" 2>/dev/null || break
+    sleep 0.25
+  done
+  cat "$logf" >&2
+  die "the dataset workers did not start"
+}

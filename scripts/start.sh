@@ -37,7 +37,7 @@ fi
 start_fakes
 
 # The seed stores the demo recording through the S3 API, so it runs once the fakes are up.
-node_modules/.bin/tsx db/seed.ts | tee .data/signins.txt
+node --conditions=react-server --import tsx db/seed.ts | tee .data/signins.txt
 
 build_if_stale
 
@@ -46,6 +46,7 @@ node_modules/.bin/next start -H 127.0.0.1 -p "$APP_PORT" >.data/server.log 2>&1 
 SERVER_PID=$!
 PIDS+=("$SERVER_PID")
 start_mail_worker .data/mail-worker.log
+start_dataset_workers .data/dataset-workers.log
 wait_for_http "http://127.0.0.1:$APP_PORT/api/health" 60 || { tail -30 .data/server.log >&2; die "the web server did not come up; see .data/server.log"; }
 
 log "Jointproof is running at http://127.0.0.1:$APP_PORT  (Ctrl-C stops it)"

@@ -34,7 +34,7 @@ export JP_FAKES_DIR="$ROOT/.data/test/fakes-$S3_PORT"
 export SMTP_HOST=127.0.0.1 SMTP_PORT="${JP_TEST_SMTP_PORT:-54341}" MAIL_FAKE_DIR="$JP_FAKES_DIR/mail" JP_DEV_MAIL=1 MAIL_RETRY_DELAY_S=1
 rm -rf "$JP_FAKES_DIR"
 start_fakes
-node_modules/.bin/tsx db/seed.ts >".data/test/seed-$S3_PORT.log"
+node --conditions=react-server --import tsx db/seed.ts >".data/test/seed-$S3_PORT.log"
 export NODE_ENV=test
 
 FAILED=()

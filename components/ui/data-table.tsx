@@ -106,6 +106,8 @@ export function DataTable<T extends object>({
   const rows = table.getRowModel().rows;
   const virtual = rows.length > VIRTUALIZE_ABOVE;
   const scrollRef = useRef<HTMLDivElement>(null);
+  // TanStack Virtual returns fresh functions each render by design; the compiler skipping this component is expected.
+  // eslint-disable-next-line react-hooks/incompatible-library
   const virtualizer = useVirtualizer({
     count: rows.length,
     getScrollElement: () => scrollRef.current,

@@ -34,7 +34,7 @@ export const GET = route(async (request, context) => {
       issues: [{ path: "query.rateHz", message: `must be at most ${Math.floor(EXPORT_MAX_VALUES / (document.arm.joints.length + 1) / Math.max(durationS, 1e-9))} for this plan` }],
     });
   }
-  const { report } = checkPlan(document);
+  const { report } = await checkPlan(document);
   const samples = samplePlan(document, { rateHz });
   const meta = {
     plan: { id: plan.id, name: plan.name },
