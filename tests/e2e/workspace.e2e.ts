@@ -274,7 +274,7 @@ describe("workspace", () => {
     await page.goto(`/projects/${project.id}/arms`);
     await page.getByRole("button", { name: new RegExp(`^${armName}`) }).click();
     await page.waitForSelector("[data-testid=arm-stage] canvas");
-    const speed = page.getByLabel("elbow maxVelocity (°/s)");
+    const speed = page.getByLabel("elbow Max speed (°/s)");
     await speed.fill("0");
     await page.getByRole("button", { name: "Save as revision 2" }).click();
     await page.getByText("must be greater than 0").waitFor();
