@@ -199,14 +199,24 @@ start_fakes() {
 
 # The mail worker (lib/server/mail/run-worker.ts) in the background: it sends queued messages with
 # retry. `react-server` lets `import "server-only"` load outside Next (an empty marker module).
-start_mail_worker() {
-  local logf="$1"
+start_mail_worker() { start_worker lib/server/mail/run-worker.ts "worker ready" "mail worker" "$1"; }
+
+# A background worker process (a TypeScript entry run with the react-server condition): waits for
+# its ready line, appends it to PIDS. start_worker ENTRY READY-TEXT NAME LOGFILE
+start_worker() {
+  local entry="$1" ready="$2" name="$3" logf="$4"
   : >"$logf"
-  node --conditions=react-server --import tsx lib/server/mail/run-worker.ts >"$logf" 2>&1 &
+  node --conditions=react-server --import tsx "$entry" >"$logf" 2>&1 &
   PIDS+=($!)
   local i
   for ((i = 0; i < 120; i++)); do
-    grep -q "worker ready" "$logf" && { log "mail worker ready"; return 0; }
+    grep -q "$ready" "$logf" && { log "$name ready"; return 0; }
+    kill -0 "${PIDS[-1]}" 2>/dev/null || break
+    sleep 0.25
+  done
+  cat "$logf" >&2
+  die "the $name did not start"
+}
     kill -0 "${PIDS[-1]}" 2>/dev/null || break
     sleep 0.25
   done
@@ -231,14 +241,7 @@ stop_pids() {
 
 # The dataset audit workers (lib/server/datasets/run-workers.ts, DATASET_WORKERS processes) in the
 # background: they take audit batches from the job queue in PostgreSQL. Appends to PIDS.
-start_dataset_workers() {
-  local logf="$1"
-  : >"$logf"
-  node --conditions=react-server --import tsx lib/server/datasets/run-workers.ts >"$logf" 2>&1 &
-  PIDS+=($!)
-  local i
-  for ((i = 0; i < 120; i++)); do
-    grep -q "workers ready" "$logf" && { log "dataset workers ready"; return 0; }
+start_dataset_workers() { start_worker lib/server/datasets/run-workers.ts "workers ready" "dataset workers" "$1"; }
     kill -0 "${PIDS[-1]}" 2>/dev/null || break
     sleep 0.25
   done

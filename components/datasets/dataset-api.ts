@@ -1,6 +1,6 @@
 "use client";
 /** The dataset API from the browser: typed calls over the one request helper, and the upload with progress. */
-import { ApiError, request, type FieldIssue, type Jsonified } from "@/lib/client/api-client";
+import { request, uploadWithProgress, type Jsonified } from "@/lib/client/api-client";
 import type { Dataset } from "@/db/schema/datasets";
 import type { ColumnMappingInput } from "@/lib/shared/schemas/datasets";
 import type { Arm, Plan, Report, ReplayFinding } from "@/kinematics";
@@ -90,31 +90,8 @@ export const datasetApi = {
  * Uploads a dataset file as the request body with upload progress (0..1); the browser sends its
  * Content-Length, which the server requires. Errors arrive as {@link ApiError}.
  */
-export function uploadDataset(projectId: string, file: Blob, name: string, onProgress: (fraction: number) => void): Promise<DatasetDto> {
-  return new Promise((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open("POST", `/api/v1/projects/${projectId}/datasets?${new URLSearchParams({ name })}`);
-    xhr.setRequestHeader("Content-Type", "application/octet-stream");
-    xhr.setRequestHeader("Accept", "application/json");
-    xhr.upload.onprogress = (e) => {
-      if (e.lengthComputable && e.total > 0) onProgress(e.loaded / e.total);
-    };
-    xhr.onerror = () => reject(new ApiError(0, "network", "The upload did not reach the server; nothing was stored."));
-    xhr.onload = () => {
-      let body: unknown = null;
-      try {
-        body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
-      } catch {
-        body = null;
-      }
-      if (xhr.status >= 200 && xhr.status < 300) {
-        onProgress(1);
-        resolve((body as { dataset: DatasetDto }).dataset);
-        return;
-      }
-      const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } } | null)?.error;
-      reject(new ApiError(xhr.status, e?.code ?? `http_${xhr.status}`, e?.message ?? `The server answered ${xhr.status}.`, e?.issues ?? []));
-    };
-    xhr.send(file);
-  });
+export async function uploadDataset(projectId: string, file: Blob, name: string, onProgress: (fraction: number) => void): Promise<DatasetDto> {
+  const url = `/api/v1/projects/${projectId}/datasets?${new URLSearchParams({ name })}`;
+  const body = await uploadWithProgress(url, file, "application/octet-stream", onProgress, "The upload did not reach the server; nothing was stored.");
+  return (body as { dataset: DatasetDto }).dataset;
 }

@@ -151,25 +151,19 @@ export interface RecordingDto {
 }
 
 /**
- * Uploads a recording CSV as the request body, reporting upload progress (0..1); fetch has no upload
- * progress, so this one call uses XMLHttpRequest. Errors arrive as {@link ApiError}.
+ * Sends a file as the request body, reporting upload progress (0..1); fetch has no upload progress,
+ * so uploads use XMLHttpRequest. Resolves with the parsed JSON answer; errors arrive as {@link ApiError}.
  */
-export function uploadRecording(
-  projectId: string,
-  file: Blob,
-  input: { name: string; armId?: string },
-  onProgress: (fraction: number) => void,
-): Promise<RecordingDto> {
-  const q = new URLSearchParams({ name: input.name, ...(input.armId ? { armId: input.armId } : {}) });
+export function uploadWithProgress(url: string, file: Blob, contentType: string, onProgress: (fraction: number) => void, networkMessage: string): Promise<unknown> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
-    xhr.open("POST", `/api/v1/projects/${projectId}/recordings?${q}`);
-    xhr.setRequestHeader("Content-Type", "text/csv");
+    xhr.open("POST", url);
+    xhr.setRequestHeader("Content-Type", contentType);
     xhr.setRequestHeader("Accept", "application/json");
     xhr.upload.onprogress = (e) => {
       if (e.lengthComputable && e.total > 0) onProgress(e.loaded / e.total);
     };
-    xhr.onerror = () => reject(new ApiError(0, "network", "The upload did not reach the server."));
+    xhr.onerror = () => reject(new ApiError(0, "network", networkMessage));
     xhr.onload = () => {
       let body: unknown = null;
       try {
@@ -179,7 +173,7 @@ export function uploadRecording(
       }
       if (xhr.status >= 200 && xhr.status < 300) {
         onProgress(1);
-        resolve((body as { recording: RecordingDto }).recording);
+        resolve(body);
         return;
       }
       const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null)?.error;
@@ -188,6 +182,18 @@ export function uploadRecording(
     };
     xhr.send(file);
   });
+}
+
+/** Uploads a recording CSV with upload progress (0..1). */
+export async function uploadRecording(
+  projectId: string,
+  file: Blob,
+  input: { name: string; armId?: string },
+  onProgress: (fraction: number) => void,
+): Promise<RecordingDto> {
+  const q = new URLSearchParams({ name: input.name, ...(input.armId ? { armId: input.armId } : {}) });
+  const body = await uploadWithProgress(`/api/v1/projects/${projectId}/recordings?${q}`, file, "text/csv", onProgress, "The upload did not reach the server.");
+  return (body as { recording: RecordingDto }).recording;
 }
 
 export interface DiffDto {
