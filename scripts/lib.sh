@@ -217,12 +217,6 @@ start_worker() {
   cat "$logf" >&2
   die "the $name did not start"
 }
-    kill -0 "${PIDS[-1]}" 2>/dev/null || break
-    sleep 0.25
-  done
-  cat "$logf" >&2
-  die "the mail worker did not start"
-}
 
 # Stop the background processes in PIDS: SIGTERM, up to 5 s to exit, then SIGKILL.
 stop_pids() {
@@ -242,9 +236,3 @@ stop_pids() {
 # The dataset audit workers (lib/server/datasets/run-workers.ts, DATASET_WORKERS processes) in the
 # background: they take audit batches from the job queue in PostgreSQL. Appends to PIDS.
 start_dataset_workers() { start_worker lib/server/datasets/run-workers.ts "workers ready" "dataset workers" "$1"; }
-    kill -0 "${PIDS[-1]}" 2>/dev/null || break
-    sleep 0.25
-  done
-  cat "$logf" >&2
-  die "the dataset workers did not start"
-}
