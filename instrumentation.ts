@@ -20,7 +20,10 @@ export async function register(): Promise<void> {
 async function stampPeerAddress(): Promise<void> {
   const http = await import("node:http");
   const { PEER_ADDRESS_HEADER } = await import("./lib/server/peer-address");
-  const proto = http.Server.prototype as unknown as { emit: (event: string | symbol, ...args: unknown[]) => boolean; __jpPeerStamp?: true };
+  const proto = http.Server.prototype as unknown as {
+    emit: (event: string | symbol, ...args: unknown[]) => boolean;
+    __jpPeerStamp?: true;
+  };
   if (proto.__jpPeerStamp) return;
   const emit = proto.emit;
   proto.emit = function (this: unknown, event: string | symbol, ...args: unknown[]) {

@@ -12,7 +12,9 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   async headers() {
     const dev = process.env.NODE_ENV === "development";
-    return [{ source: "/:path*", headers: Object.entries(securityHeaders(dev)).map(([key, value]) => ({ key, value })) }];
+    return [
+      { source: "/:path*", headers: Object.entries(securityHeaders(dev)).map(([key, value]) => ({ key, value })) },
+    ];
   },
 };
 

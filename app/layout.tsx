@@ -17,7 +17,10 @@ export default async function RootLayout({ children }: { children: React.ReactNo
   return (
     <html lang="en" className={`${sans.variable} ${mono.variable}`}>
       <body className="flex min-h-screen flex-col antialiased">
-        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-panel focus:px-3 focus:py-2">
+        <a
+          href="#main"
+          className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:bg-panel focus:px-3 focus:py-2"
+        >
           Skip to content
         </a>
         <header className="border-b border-line bg-panel">
@@ -29,14 +32,22 @@ export default async function RootLayout({ children }: { children: React.ReactNo
             <div className="flex flex-1 items-center gap-5 text-sm text-ink-soft">
               {user && (
                 <>
-                  <Link href="/projects" className="hover:text-ink">Projects</Link>
-                  <Link href="/courses" className="hover:text-ink">Courses</Link>
+                  <Link href="/projects" className="hover:text-ink">
+                    Projects
+                  </Link>
+                  <Link href="/courses" className="hover:text-ink">
+                    Courses
+                  </Link>
                   {capabilities(user.actor, { kind: "site" }).canCreateCourse && (
-                    <Link href="/reviews" className="hover:text-ink">Reviews</Link>
+                    <Link href="/reviews" className="hover:text-ink">
+                      Reviews
+                    </Link>
                   )}
                 </>
               )}
-              <Link href="/api-docs" className="hover:text-ink">API</Link>
+              <Link href="/api-docs" className="hover:text-ink">
+                API
+              </Link>
             </div>
             {user ? (
               <div className="flex items-center gap-4">
@@ -50,14 +61,22 @@ export default async function RootLayout({ children }: { children: React.ReactNo
               </div>
             ) : (
               <div className="flex items-center gap-4 text-sm">
-                <Link href="/bench" className="text-ink-soft hover:text-ink">Try-out bench</Link>
-                <Link href="/sign-up" className="text-ink-soft hover:text-ink">Sign up</Link>
-                <Link href="/sign-in" className="font-medium text-brand-600 hover:text-brand-700">Sign in</Link>
+                <Link href="/bench" className="text-ink-soft hover:text-ink">
+                  Try-out bench
+                </Link>
+                <Link href="/sign-up" className="text-ink-soft hover:text-ink">
+                  Sign up
+                </Link>
+                <Link href="/sign-in" className="font-medium text-brand-600 hover:text-brand-700">
+                  Sign in
+                </Link>
               </div>
             )}
           </nav>
         </header>
-        <main id="main" className="flex-1">{children}</main>
+        <main id="main" className="flex-1">
+          {children}
+        </main>
         <footer className="border-t border-line bg-panel text-sm text-ink-soft">
           <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-3 px-6 py-4">
             <p>

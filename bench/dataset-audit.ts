@@ -54,7 +54,10 @@ function main() {
   spawnSync(process.execPath, [bin, "--help"], { encoding: "utf8" }); // build the cached bundle first
   let ours: { summary: unknown } | null = null;
   const auditTime = time(() => {
-    const r = spawnSync(process.execPath, [bin, "audit", parquetPath, "--arm", armPath, "--json"], { encoding: "utf8", maxBuffer: 1 << 28 });
+    const r = spawnSync(process.execPath, [bin, "audit", parquetPath, "--arm", armPath, "--json"], {
+      encoding: "utf8",
+      maxBuffer: 1 << 28,
+    });
     if (r.status !== 1 && r.status !== 0) throw new Error(`audit failed (${r.status}): ${r.stderr}`);
     ours = JSON.parse(r.stdout);
   });
@@ -73,10 +76,13 @@ function main() {
     console.log("dataset audit: python3 with pyarrow and numpy not found; reference comparison skipped");
   }
   const oursSummary = (ours as { summary: unknown } | null)?.summary ?? null;
-  const agree = reference === null ? null : JSON.stringify(sortKeys(oursSummary)) === JSON.stringify(sortKeys(reference));
+  const agree =
+    reference === null ? null : JSON.stringify(sortKeys(oursSummary)) === JSON.stringify(sortKeys(reference));
 
   const resultsPath = join(here, "results.json");
-  const results = existsSync(resultsPath) ? (JSON.parse(readFileSync(resultsPath, "utf8")) as Record<string, unknown>) : {};
+  const results = existsSync(resultsPath)
+    ? (JSON.parse(readFileSync(resultsPath, "utf8")) as Record<string, unknown>)
+    : {};
   const workersPath = join(tmp, "dataset-workers.json");
   const workers = existsSync(workersPath) ? JSON.parse(readFileSync(workersPath, "utf8")) : null;
   results.datasetAudit = {
@@ -86,7 +92,9 @@ function main() {
     rateHz: 30,
     parquetMegabytes: round(megabytes, 2),
     auditCommand: { bestMs: round(auditTime.bestMs), medianMs: round(auditTime.medianMs) },
-    pyarrowReference: referenceTime ? { bestMs: round(referenceTime.bestMs), medianMs: round(referenceTime.medianMs) } : null,
+    pyarrowReference: referenceTime
+      ? { bestMs: round(referenceTime.bestMs), medianMs: round(referenceTime.medianMs) }
+      : null,
     ratioMedian: referenceTime ? round(auditTime.medianMs / referenceTime.medianMs, 2) : null,
     target: "ratio ≤ 1.0 (our audit, start-up included, no slower than the reference)",
     summariesAgree: agree,
@@ -94,9 +102,13 @@ function main() {
     workers,
   };
   writeFileSync(resultsPath, JSON.stringify(results, null, 2) + "\n");
-  console.log(`jointproof audit (whole command, ${episodes} episodes, ${frames} frames, ${round(megabytes, 1)} MB Parquet): ${round(auditTime.medianMs)} ms median, ${round(auditTime.bestMs)} ms best`);
+  console.log(
+    `jointproof audit (whole command, ${episodes} episodes, ${frames} frames, ${round(megabytes, 1)} MB Parquet): ${round(auditTime.medianMs)} ms median, ${round(auditTime.bestMs)} ms best`,
+  );
   if (referenceTime) {
-    console.log(`pyarrow + numpy reference: ${round(referenceTime.medianMs)} ms median, ${round(referenceTime.bestMs)} ms best; ratio ${round(auditTime.medianMs / referenceTime.medianMs, 2)} (target ≤ 1.0); summaries ${agree ? "agree" : "DISAGREE"}`);
+    console.log(
+      `pyarrow + numpy reference: ${round(referenceTime.medianMs)} ms median, ${round(referenceTime.bestMs)} ms best; ratio ${round(auditTime.medianMs / referenceTime.medianMs, 2)} (target ≤ 1.0); summaries ${agree ? "agree" : "DISAGREE"}`,
+    );
   }
   if (workers) console.log(`dataset workers: ${JSON.stringify(workers)}`);
 }
@@ -105,7 +117,11 @@ function main() {
 function sortKeys(value: unknown): unknown {
   if (Array.isArray(value)) return value.map(sortKeys);
   if (value && typeof value === "object") {
-    return Object.fromEntries(Object.entries(value as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : 1)).map(([k, v]) => [k, sortKeys(v)]));
+    return Object.fromEntries(
+      Object.entries(value as Record<string, unknown>)
+        .sort(([a], [b]) => (a < b ? -1 : 1))
+        .map(([k, v]) => [k, sortKeys(v)]),
+    );
   }
   return value;
 }

@@ -80,7 +80,7 @@ export function generateDataset(options: GenerateOptions): Episode[] {
     // per joint: centre, amplitude and angular frequency keeping speed ≤ 0.4 × maxVelocity (A·ω ≤ 0.4·v)
     const centre = arm.joints.map((j) => 0.5 * (j.min + j.max));
     const amplitude = arm.joints.map((j) => 0.3 * (j.max - j.min) * (0.3 + 0.7 * rand()));
-    const omega = arm.joints.map((j, i) => Math.min(0.4 * j.maxVelocity / amplitude[i], 0.5 + 1.5 * rand()));
+    const omega = arm.joints.map((j, i) => Math.min((0.4 * j.maxVelocity) / amplitude[i], 0.5 + 1.5 * rand()));
     const phase = arm.joints.map(() => rand() * 2 * Math.PI);
     for (let k = 0; k < count; k++) {
       const t = k / rate;
@@ -92,7 +92,8 @@ export function generateDataset(options: GenerateOptions): Episode[] {
     const joint = Math.floor(rand() * (n - 1));
     const span = arm.joints[joint].max - arm.joints[joint].min;
     if (defect === "glitch") position[at * n + joint] += (rand() < 0.5 ? -1 : 1) * 0.12 * span;
-    if (defect === "speed-over") for (let k = at; k < count; k++) position[k * n + joint] += 0.02 * span * Math.min(k - at + 1, 4);
+    if (defect === "speed-over")
+      for (let k = at; k < count; k++) position[k * n + joint] += 0.02 * span * Math.min(k - at + 1, 4);
     if (defect === "range") for (let k = at; k < at + 5; k++) position[k * n + joint] = arm.joints[joint].max + 0.01;
     if (defect === "invalid") position[at * n + joint] = Number.NaN;
     let recording = { names: arm.joints.map((j) => j.name), jointCount: n, count, timeS, position };

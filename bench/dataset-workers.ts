@@ -26,27 +26,61 @@ const EPISODES = 600;
 function startWorkers(count: number): Promise<ChildProcess[]> {
   return Promise.all(
     Array.from({ length: count }, () => {
-      const child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"], { env: process.env, stdio: ["ignore", "pipe", "inherit"] });
-      return new Promise<ChildProcess>((resolve) => child.stdout?.on("data", (d: Buffer) => d.toString().includes("ready") && resolve(child)));
+      const child = spawn(
+        process.execPath,
+        ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"],
+        { env: process.env, stdio: ["ignore", "pipe", "inherit"] },
+      );
+      return new Promise<ChildProcess>((resolve) =>
+        child.stdout?.on("data", (d: Buffer) => d.toString().includes("ready") && resolve(child)),
+      );
     }),
   );
 }
 
 async function main() {
-  const [user] = await db.insert(users).values({ email: `bench-${Date.now()}@example.com`, name: "Bench", passwordHash: "x", siteRole: "researcher" }).returning();
+  const [user] = await db
+    .insert(users)
+    .values({ email: `bench-${Date.now()}@example.com`, name: "Bench", passwordHash: "x", siteRole: "researcher" })
+    .returning();
   const project = await createProject({ userId: user.id, name: "Worker bench", kind: "research" });
-  const arm = await createArm({ projectId: project.id, name: "Copy arm", description: datasetArmDocument, userId: user.id });
+  const arm = await createArm({
+    projectId: project.id,
+    name: "Copy arm",
+    description: datasetArmDocument,
+    userId: user.id,
+  });
   if (!arm) throw new Error("arm");
   const bytes = writeEpisodesParquet(datasetArm(), generateDataset({ episodes: EPISODES }));
   const key = `datasets/${project.id}/bench.parquet`;
   await putObject(key, bytes, "application/octet-stream");
-  const dataset = await createDataset({ projectId: project.id, name: "bench", objectKey: key, fileKind: "parquet", sizeBytes: bytes.byteLength, sha256: "0".repeat(64), armRevisionId: arm.revision.id, mapping: {}, createdBy: user.id });
-  const results: Record<string, unknown> = { episodes: EPISODES, batchSize: Number(process.env.DATASET_BATCH_SIZE ?? 25) };
+  const dataset = await createDataset({
+    projectId: project.id,
+    name: "bench",
+    objectKey: key,
+    fileKind: "parquet",
+    sizeBytes: bytes.byteLength,
+    sha256: "0".repeat(64),
+    armRevisionId: arm.revision.id,
+    mapping: {},
+    createdBy: user.id,
+  });
+  const results: Record<string, unknown> = {
+    episodes: EPISODES,
+    batchSize: Number(process.env.DATASET_BATCH_SIZE ?? 25),
+  };
   for (const count of [1, 2]) {
     const workers = await startWorkers(count);
     const start = performance.now();
-    const started = await startDatasetAudit({ datasetId: dataset.id, userId: user.id, episodeCount: EPISODES, batchSize: Number(process.env.DATASET_BATCH_SIZE ?? 25) });
-    await enqueueDatasetBatches(started!.batches.map((batch) => ({ datasetId: dataset.id, generation: started!.dataset.generation, batch })));
+    const started = await startDatasetAudit({
+      datasetId: dataset.id,
+      userId: user.id,
+      episodeCount: EPISODES,
+      batchSize: Number(process.env.DATASET_BATCH_SIZE ?? 25),
+    });
+    await enqueueDatasetBatches(
+      started!.batches.map((batch) => ({ datasetId: dataset.id, generation: started!.dataset.generation, batch })),
+    );
     for (;;) {
       const [row] = await db.select({ status: datasets.status }).from(datasets).where(eq(datasets.id, dataset.id));
       if (row.status === "audited") break;
@@ -54,12 +88,20 @@ async function main() {
     }
     const seconds = (performance.now() - start) / 1000;
     for (const w of workers) w.kill("SIGTERM");
-    results[`workers${count}`] = { seconds: Number(seconds.toFixed(2)), episodesPerSecond: Math.round(EPISODES / seconds) };
-    console.log(`${count} worker${count === 1 ? "" : "s"}: ${EPISODES} episodes in ${seconds.toFixed(2)} s (${Math.round(EPISODES / seconds)} episodes/s)`);
+    results[`workers${count}`] = {
+      seconds: Number(seconds.toFixed(2)),
+      episodesPerSecond: Math.round(EPISODES / seconds),
+    };
+    console.log(
+      `${count} worker${count === 1 ? "" : "s"}: ${EPISODES} episodes in ${seconds.toFixed(2)} s (${Math.round(EPISODES / seconds)} episodes/s)`,
+    );
     await new Promise((r) => setTimeout(r, 1000));
   }
   mkdirSync(join(here, "tmp"), { recursive: true });
-  writeFileSync(join(here, "tmp", "dataset-workers.json"), JSON.stringify({ ...results, measuredAt: new Date().toISOString() }, null, 2) + "\n");
+  writeFileSync(
+    join(here, "tmp", "dataset-workers.json"),
+    JSON.stringify({ ...results, measuredAt: new Date().toISOString() }, null, 2) + "\n",
+  );
   await stopDatasetBoss();
   process.exit(0);
 }

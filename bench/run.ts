@@ -11,7 +11,21 @@ import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "no
 import { cpus } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { check, formatProblem, formatRecordingCsv, parseRecordingCsv, parseArm, parsePlan, type Arm, type Plan, samplePlan, planFromPoses, repairStream, streamCheck, type Recording } from "../kinematics";
+import {
+  check,
+  formatProblem,
+  formatRecordingCsv,
+  parseRecordingCsv,
+  parseArm,
+  parsePlan,
+  type Arm,
+  type Plan,
+  samplePlan,
+  planFromPoses,
+  repairStream,
+  streamCheck,
+  type Recording,
+} from "../kinematics";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, "..");
@@ -113,7 +127,13 @@ function main(): void {
     poses.push(arm.joints.map((joint, j) => (j === 6 ? 0.01 + 0.02 * ((i + j) % 2) : 0.5 * Math.sin(i * 0.7 + j))));
     durations.push(1.5 + 0.5 * (i % 3));
   }
-  const plan = planFromPoses(arm, arm.joints.map((_, j) => (j === 6 ? 0.02 : 0)), poses, durations, "quintic");
+  const plan = planFromPoses(
+    arm,
+    arm.joints.map((_, j) => (j === 6 ? 0.02 : 0)),
+    poses,
+    durations,
+    "quintic",
+  );
   let sampleCount = 0;
   const checkTime = time(50, () => {
     check(plan);
@@ -135,7 +155,15 @@ function main(): void {
     [0, 0.2, 0.3, 0, 0, 0, 0],
   ];
   const livePlan = (moves: { goal: number[]; duration: number }[]): Plan => {
-    const r = parsePlan({ format: "jointproof.plan", version: 1, arm: demoArm, start: [0, 0, 0, 0, 0, 0, 0], surfaceMargin: 0.01, maxToolSpeed: 0.25, moves });
+    const r = parsePlan({
+      format: "jointproof.plan",
+      version: 1,
+      arm: demoArm,
+      start: [0, 0, 0, 0, 0, 0, 0],
+      surfaceMargin: 0.01,
+      maxToolSpeed: 0.25,
+      moves,
+    });
     if (!r.ok) throw new Error(r.problems.map((p) => formatProblem(p)).join("; "));
     return r.value;
   };
@@ -153,7 +181,11 @@ function main(): void {
   // 5. the whole command: start-up, reading, parsing, checking (bundle built beforehand)
   const bin = join(root, "bin", "jointproof");
   spawnSync(process.execPath, [bin, "--help"], { encoding: "utf8" });
-  const scanRun = () => spawnSync(process.execPath, [bin, "scan", csvPath, "--arm", armPath, "--json"], { encoding: "utf8", maxBuffer: 1 << 28 });
+  const scanRun = () =>
+    spawnSync(process.execPath, [bin, "scan", csvPath, "--arm", armPath, "--json"], {
+      encoding: "utf8",
+      maxBuffer: 1 << 28,
+    });
   const first = scanRun();
   if (first.status !== 1 && first.status !== 0) throw new Error(`scan failed: ${first.stderr}`);
   const scanTime = time(5, () => {
@@ -173,7 +205,13 @@ function main(): void {
 
   const results = {
     machine: { cpus: cpus().length, cpu: cpus()[0]?.model ?? "unknown", node: process.version },
-    recording: { samples, joints: arm.joints.length, rateHz, csvMegabytes: round(csvBytes / 1e6, 1), findings: report.findings.length },
+    recording: {
+      samples,
+      joints: arm.joints.length,
+      rateHz,
+      csvMegabytes: round(csvBytes / 1e6, 1),
+      findings: report.findings.length,
+    },
     streamCheck: {
       bestMs: round(streamTime.bestMs, 2),
       medianMs: round(streamTime.medianMs, 2),
@@ -184,7 +222,10 @@ function main(): void {
       medianMs: round(parseTime.medianMs),
       megabytesPerSecond: round(csvBytes / 1e6 / (parseTime.medianMs / 1000), 1),
     },
-    repair: { medianMs: round(repairTime.medianMs, 2), samplesPerSecond: Math.round(samples / (repairTime.medianMs / 1000)) },
+    repair: {
+      medianMs: round(repairTime.medianMs, 2),
+      samplesPerSecond: Math.round(samples / (repairTime.medianMs / 1000)),
+    },
     sequence50: {
       moves: 50,
       checkMedianMs: round(checkTime.medianMs, 3),
@@ -204,15 +245,23 @@ function main(): void {
     scanCommand: { bestMs: round(scanTime.bestMs), medianMs: round(scanTime.medianMs), targetMs: 700 },
     numpyReference: numpyTime ? { bestMs: round(numpyTime.bestMs), medianMs: round(numpyTime.medianMs) } : null,
   };
-  console.log(`stream check   ${samples} samples × 7 joints: ${results.streamCheck.medianMs} ms median (${results.streamCheck.samplesPerSecond.toLocaleString("en")} samples/s)`);
-  console.log(`CSV parse      ${results.recording.csvMegabytes} MB: ${results.csvParse.medianMs} ms median (${results.csvParse.megabytesPerSecond} MB/s)`);
+  console.log(
+    `stream check   ${samples} samples × 7 joints: ${results.streamCheck.medianMs} ms median (${results.streamCheck.samplesPerSecond.toLocaleString("en")} samples/s)`,
+  );
+  console.log(
+    `CSV parse      ${results.recording.csvMegabytes} MB: ${results.csvParse.medianMs} ms median (${results.csvParse.megabytesPerSecond} MB/s)`,
+  );
   console.log(`repair         ${samples} samples: ${results.repair.medianMs} ms median`);
-  console.log(`50-move check  ${results.sequence50.checkMedianMs} ms median; sampling ${sampleCount} samples at 1 kHz: ${results.sequence50.sampleMedianMs} ms (${results.sequence50.samplesPerSecond.toLocaleString("en")} samples/s)`);
+  console.log(
+    `50-move check  ${results.sequence50.checkMedianMs} ms median; sampling ${sampleCount} samples at 1 kHz: ${results.sequence50.sampleMedianMs} ms (${results.sequence50.samplesPerSecond.toLocaleString("en")} samples/s)`,
+  );
   console.log(
     `live check     5 moves, 10 s, demo arm H: ${results.liveCheck.controlRateMedianMs} ms median (${results.liveCheck.controlRateBestMs} ms best) at the control rate, ` +
       `${results.liveCheck.at250HzMedianMs} ms at 250 Hz; effort fix search ${results.liveCheck.effortFixMedianMs} ms (target < 50 ms)`,
   );
-  console.log(`jointproof scan (whole command, ${results.recording.csvMegabytes} MB CSV): ${results.scanCommand.medianMs} ms median, ${results.scanCommand.bestMs} ms best (target < 700 ms)`);
+  console.log(
+    `jointproof scan (whole command, ${results.recording.csvMegabytes} MB CSV): ${results.scanCommand.medianMs} ms median, ${results.scanCommand.bestMs} ms best (target < 700 ms)`,
+  );
   if (results.numpyReference) console.log(`numpy reference script: ${results.numpyReference.medianMs} ms median`);
   writeFileSync(join(here, "results.json"), JSON.stringify(results, null, 2) + "\n");
 }

@@ -9,7 +9,22 @@
  * Exit codes: 0 success (ik: reachable), 1 ik unreachable, 2 bad input or usage (one line per problem).
  */
 import { readFileSync } from "node:fs";
-import { armDescriptionSchema, armFromDescription, chainLimits, compileChain, createChainBuffers, forwardKinematics, type CompiledChain, solveIk, rotationRows, describeIssues, formatProblem, parseArm, type Arm, parseUrdf } from "../kinematics";
+import {
+  armDescriptionSchema,
+  armFromDescription,
+  chainLimits,
+  compileChain,
+  createChainBuffers,
+  forwardKinematics,
+  type CompiledChain,
+  solveIk,
+  rotationRows,
+  describeIssues,
+  formatProblem,
+  parseArm,
+  type Arm,
+  parseUrdf,
+} from "../kinematics";
 
 /** Where the commands write (the same shape as the dispatcher's). */
 export interface ArmIo {
@@ -40,7 +55,8 @@ function readText(path: string): string {
   try {
     return readFileSync(path === "-" ? 0 : path, "utf8");
   } catch (error) {
-    const reason = error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
+    const reason =
+      error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
     throw new ArmInputError([`${path}: ${reason}`]);
   }
 }
@@ -75,22 +91,38 @@ function loadArm(path: string): LoadedArm {
     const candidate = obj.format === "jointproof.plan" ? obj.arm : raw;
     const prefix = obj.format === "jointproof.plan" ? ["arm"] : [];
     const c = (typeof candidate === "object" && candidate !== null ? candidate : {}) as Record<string, unknown>;
-    const isDescription = Array.isArray(c.joints) && c.joints.some((j) => typeof j === "object" && j !== null && "origin" in j) && !("chain" in c);
+    const isDescription =
+      Array.isArray(c.joints) &&
+      c.joints.some((j) => typeof j === "object" && j !== null && "origin" in j) &&
+      !("chain" in c);
     if (isDescription) {
       const d = armDescriptionSchema.safeParse(candidate);
-      if (!d.success) throw new ArmInputError(describeIssues(d.error.issues).map((p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`));
+      if (!d.success)
+        throw new ArmInputError(
+          describeIssues(d.error.issues).map(
+            (p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`,
+          ),
+        );
       arm = armFromDescription(d.data);
     } else {
       const parsed = parseArm(candidate);
-      if (!parsed.ok) throw new ArmInputError(parsed.problems.map((p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`));
+      if (!parsed.ok)
+        throw new ArmInputError(
+          parsed.problems.map((p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`),
+        );
       arm = parsed.value;
     }
   }
   if (!arm.chain) throw new ArmInputError([`${path}: arm.chain: is required for fk and ik (the arm's geometry)`]);
   if (arm.chain.joints.length > arm.joints.length) {
-    throw new ArmInputError([`${path}: arm.chain.joints: has ${arm.chain.joints.length} entries, more than the arm's ${arm.joints.length} joints`]);
+    throw new ArmInputError([
+      `${path}: arm.chain.joints: has ${arm.chain.joints.length} entries, more than the arm's ${arm.joints.length} joints`,
+    ]);
   }
-  const chain = compileChain(arm.chain, arm.joints.map((j) => j.type));
+  const chain = compileChain(
+    arm.chain,
+    arm.joints.map((j) => j.type),
+  );
   return { chain, ...chainLimits(arm.joints, chain.jointCount), jointCount: arm.joints.length };
 }
 
@@ -101,7 +133,8 @@ function numberList(option: string, text: string | undefined, count?: number): n
   if (parts.some((p) => p === "") || values.some((v) => !Number.isFinite(v))) {
     throw new ArmInputError([`${option}: must be numbers separated by commas (got "${text}")`]);
   }
-  if (count !== undefined && values.length !== count) throw new ArmInputError([`${option}: must have ${count} values (has ${values.length})`]);
+  if (count !== undefined && values.length !== count)
+    throw new ArmInputError([`${option}: must have ${count} values (has ${values.length})`]);
   return values;
 }
 
@@ -173,7 +206,10 @@ export function runArmCommand(argv: string[], io: ArmIo): number {
     const [command, ...rest] = argv;
     if (command === "arm") {
       const [sub, ...more] = rest;
-      if (sub !== "import") throw new ArmInputError([`arm ${sub ?? ""}: unknown subcommand (use "arm import FILE.urdf")`.replace("  ", " ")]);
+      if (sub !== "import")
+        throw new ArmInputError([
+          `arm ${sub ?? ""}: unknown subcommand (use "arm import FILE.urdf")`.replace("  ", " "),
+        ]);
       return runImport(more, io);
     }
     if (command === "fk") return runFk(rest, io);

@@ -83,20 +83,25 @@ function parseAuditArgs(argv: string[]): AuditArgs {
     else if (a === "--joint-columns") {
       const text = value();
       const names = text.split(",").map((s) => s.trim());
-      if (names.some((s) => s === "")) throw new AuditInputError([`--joint-columns: must be column names separated by commas (got "${text}")`]);
+      if (names.some((s) => s === ""))
+        throw new AuditInputError([`--joint-columns: must be column names separated by commas (got "${text}")`]);
       mapping.jointColumns = names;
     } else if (a === "--rate") {
       const text = value();
       const hz = Number(text);
-      if (!(hz > 0) || !Number.isFinite(hz)) throw new AuditInputError([`--rate: must be a frame rate in Hz greater than 0 (got "${text}")`]);
+      if (!(hz > 0) || !Number.isFinite(hz))
+        throw new AuditInputError([`--rate: must be a frame rate in Hz greater than 0 (got "${text}")`]);
       mapping.rateHz = hz;
     } else if (a.startsWith("--")) throw new AuditInputError([`${a}: unknown option`]);
     else positional.push(a);
   }
-  if (positional.length !== 1) throw new AuditInputError(["audit: needs exactly one dataset (a Parquet file, a folder or a .zip)"]);
+  if (positional.length !== 1)
+    throw new AuditInputError(["audit: needs exactly one dataset (a Parquet file, a folder or a .zip)"]);
   if (!arm) throw new AuditInputError(["--arm: is required (an arm JSON, a plan document or a URDF)"]);
-  if (mapping.timeColumn !== undefined && mapping.rateHz !== undefined) throw new AuditInputError(["--time-column and --rate: set one or the other"]);
-  if (mapping.jointColumns && mapping.jointsColumn !== undefined) throw new AuditInputError(["--joint-columns and --joints-column: set one or the other"]);
+  if (mapping.timeColumn !== undefined && mapping.rateHz !== undefined)
+    throw new AuditInputError(["--time-column and --rate: set one or the other"]);
+  if (mapping.jointColumns && mapping.jointsColumn !== undefined)
+    throw new AuditInputError(["--joint-columns and --joints-column: set one or the other"]);
   return { dataset: positional[0], arm, json, mapping };
 }
 
@@ -104,7 +109,8 @@ function readBytes(path: string): Uint8Array {
   try {
     return readFileSync(path);
   } catch (error) {
-    const reason = error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
+    const reason =
+      error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
     throw new AuditInputError([`${path}: ${reason}`]);
   }
 }
@@ -128,10 +134,14 @@ function loadAuditArm(path: string): Arm {
   const candidate = isPlan ? obj.arm : raw;
   const prefix = isPlan ? "arm." : "";
   const c = (typeof candidate === "object" && candidate !== null ? candidate : {}) as Record<string, unknown>;
-  const isDescription = Array.isArray(c.joints) && c.joints.some((j) => typeof j === "object" && j !== null && "origin" in j) && !("chain" in c);
+  const isDescription =
+    Array.isArray(c.joints) &&
+    c.joints.some((j) => typeof j === "object" && j !== null && "origin" in j) &&
+    !("chain" in c);
   if (isDescription) {
     const d = armDescriptionSchema.safeParse(candidate);
-    if (!d.success) throw new AuditInputError(describeIssues(d.error.issues).map((p) => `${path}: ${prefix}${p.path}: ${p.message}`));
+    if (!d.success)
+      throw new AuditInputError(describeIssues(d.error.issues).map((p) => `${path}: ${prefix}${p.path}: ${p.message}`));
     return armFromDescription(d.data);
   }
   const parsed = parseArm(candidate);
@@ -183,13 +193,25 @@ function formatAudit(arm: Arm, audits: EpisodeAudit[], durations: Map<string, nu
     "",
   ];
   const kinds = Object.entries(summary.byKind);
-  lines.push(kinds.length === 0 ? "No findings." : `Findings by kind: ${kinds.map(([k, c]) => `${k} ${c}`).join(", ")}`);
+  lines.push(
+    kinds.length === 0 ? "No findings." : `Findings by kind: ${kinds.map(([k, c]) => `${k} ${c}`).join(", ")}`,
+  );
   const worst = audits
     .filter((a) => a.verdict === "fault" || a.verdict === "caution")
-    .sort((a, b) => auditRank(b) - auditRank(a) || b.findings.filter((f) => f.severity === "fault").length - a.findings.filter((f) => f.severity === "fault").length || b.findings.length - a.findings.length);
+    .sort(
+      (a, b) =>
+        auditRank(b) - auditRank(a) ||
+        b.findings.filter((f) => f.severity === "fault").length -
+          a.findings.filter((f) => f.severity === "fault").length ||
+        b.findings.length - a.findings.length,
+    );
   if (worst.length > 0) {
     const idWidth = Math.max(8, ...worst.slice(0, limit).map((a) => a.episode.length + 2));
-    lines.push("", "Worst episodes:", `  ${pad("episode", idWidth)}${pad("verdict", 9)}${padStart("frames", 7)}${padStart("duration", 10)}${padStart("findings", 10)}  first finding`);
+    lines.push(
+      "",
+      "Worst episodes:",
+      `  ${pad("episode", idWidth)}${pad("verdict", 9)}${padStart("frames", 7)}${padStart("duration", 10)}${padStart("findings", 10)}  first finding`,
+    );
     for (const a of worst.slice(0, limit)) {
       const first = a.findings.find((f) => f.severity === "fault") ?? a.findings[0];
       lines.push(
@@ -201,7 +223,8 @@ function formatAudit(arm: Arm, audits: EpisodeAudit[], durations: Map<string, nu
   const invalid = audits.filter((a) => a.verdict === "invalid");
   if (invalid.length > 0) {
     lines.push("", "Invalid episodes (not checked):");
-    for (const a of invalid.slice(0, limit)) lines.push(`  ${a.problems[0]}${a.problems.length > 1 ? ` (and ${a.problems.length - 1} more)` : ""}`);
+    for (const a of invalid.slice(0, limit))
+      lines.push(`  ${a.problems[0]}${a.problems.length > 1 ? ` (and ${a.problems.length - 1} more)` : ""}`);
     if (invalid.length > limit) lines.push(`  … and ${invalid.length - limit} more (use --json for all)`);
   }
   lines.push(
@@ -226,7 +249,12 @@ export async function runAuditCommand(argv: string[], io: AuditIo): Promise<numb
     if (args.json) {
       io.out(JSON.stringify({ episodes: audits.map(auditToJson), summary }) + "\n");
     } else {
-      const durations = new Map(read.episodes.map((e) => [e.id, e.recording.count > 1 ? e.recording.timeS[e.recording.count - 1] - e.recording.timeS[0] : 0]));
+      const durations = new Map(
+        read.episodes.map((e) => [
+          e.id,
+          e.recording.count > 1 ? e.recording.timeS[e.recording.count - 1] - e.recording.timeS[0] : 0,
+        ]),
+      );
       io.out(formatAudit(arm, audits, durations));
     }
     return summary.fault > 0 ? 1 : summary.invalid > 0 ? 2 : 0;

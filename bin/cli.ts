@@ -6,7 +6,25 @@
  * line per problem on stderr) or a usage error.
  */
 import { readFileSync, writeFileSync } from "node:fs";
-import { check, describeRecordingProblem, formatProblem, formatRecordingCsv, parseArm, parsePlan, type Arm, type InputProblem, type PathSegment, type Report, type Verdict, repairStream, scanRecording, streamCheck, type StreamReport, formatNumber, formatQuantity } from "../kinematics";
+import {
+  check,
+  describeRecordingProblem,
+  formatProblem,
+  formatRecordingCsv,
+  parseArm,
+  parsePlan,
+  type Arm,
+  type InputProblem,
+  type PathSegment,
+  type Report,
+  type Verdict,
+  repairStream,
+  scanRecording,
+  streamCheck,
+  type StreamReport,
+  formatNumber,
+  formatQuantity,
+} from "../kinematics";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands";
 import { auditUsage, isAuditCommand, runAuditCommand } from "./audit-command";
 import { hasExportBlock, recordedVerdict, verifyExport, verifyJsonChecksum } from "../lib/shared/export-format";
@@ -66,7 +84,8 @@ function parseArgs(argv: string[]): Args {
     else if (arg === "--resample") {
       const text = value();
       const hz = Number(text);
-      if (!(hz > 0) || !Number.isFinite(hz)) throw new InputError([`--resample: must be a rate in Hz greater than 0 (got "${text}")`]);
+      if (!(hz > 0) || !Number.isFinite(hz))
+        throw new InputError([`--resample: must be a rate in Hz greater than 0 (got "${text}")`]);
       args.resampleHz = hz;
     } else if (arg === "-h" || arg === "--help") args.command = "help";
     else if (arg.startsWith("--")) throw new InputError([`${arg}: unknown option`]);
@@ -81,7 +100,8 @@ function readInput(path: string): Buffer {
   try {
     return readFileSync(path === "-" ? 0 : path);
   } catch (error) {
-    const reason = error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
+    const reason =
+      error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
     throw new InputError([`${path === "-" ? "(stdin)" : path}: ${reason}`]);
   }
 }
@@ -97,7 +117,9 @@ function parseJson(bytes: Buffer, path: string): unknown {
   try {
     return JSON.parse(text);
   } catch (error) {
-    throw new InputError([`${path === "-" ? "(stdin)" : path}: not valid JSON (${error instanceof Error ? error.message : String(error)})`]);
+    throw new InputError([
+      `${path === "-" ? "(stdin)" : path}: not valid JSON (${error instanceof Error ? error.message : String(error)})`,
+    ]);
   }
 }
 
@@ -150,7 +172,9 @@ function formatReport(report: Report, arm: Arm): string {
   else {
     lines.push("Findings:");
     for (const f of report.findings) {
-      lines.push(`  ${pad(f.severity, 8)}${pad(f.kind, 11)}${pad(f.move === null ? "start" : `move ${f.move}`, 9)}${f.message}`);
+      lines.push(
+        `  ${pad(f.severity, 8)}${pad(f.kind, 11)}${pad(f.move === null ? "start" : `move ${f.move}`, 9)}${f.message}`,
+      );
     }
   }
   return lines.join("\n") + "\n";
@@ -195,9 +219,15 @@ async function runCheck(args: Args, io: Io): Promise<number> {
 /** `verify`: checksum-only verification of a JSON or CSV export. */
 async function runVerify(args: Args, io: Io): Promise<number> {
   const [file, ...rest] = args.positional;
-  if (!file || rest.length > 0) throw new InputError(["verify: needs exactly one export file (JSON or CSV, or - for stdin)"]);
+  if (!file || rest.length > 0)
+    throw new InputError(["verify: needs exactly one export file (JSON or CSV, or - for stdin)"]);
   const result = await verifyExport(readInput(file));
-  if (!result.ok) throw new InputError([result.problem.startsWith("not valid JSON") ? `${file === "-" ? "(stdin)" : file}: ${result.problem}` : result.problem]);
+  if (!result.ok)
+    throw new InputError([
+      result.problem.startsWith("not valid JSON")
+        ? `${file === "-" ? "(stdin)" : file}: ${result.problem}`
+        : result.problem,
+    ]);
   const format = result.format;
   const where = format === "json" ? "export.sha256" : "# sha256 (last line)";
   if (args.json) io.out(JSON.stringify({ format, verified: true, sha256: result.digest }) + "\n");
@@ -224,8 +254,10 @@ function formatStreamReport(report: StreamReport, arm: Arm, limit = 50): string 
   ];
   if (report.findings.length > 0) {
     lines.push("", "Findings:");
-    for (const f of report.findings.slice(0, limit)) lines.push(`  ${pad(f.severity, 8)}${pad(f.kind, 11)}${f.message}`);
-    if (report.findings.length > limit) lines.push(`  … and ${report.findings.length - limit} more (use --json for all)`);
+    for (const f of report.findings.slice(0, limit))
+      lines.push(`  ${pad(f.severity, 8)}${pad(f.kind, 11)}${f.message}`);
+    if (report.findings.length > limit)
+      lines.push(`  … and ${report.findings.length - limit} more (use --json for all)`);
   }
   return lines.join("\n") + "\n";
 }
@@ -263,7 +295,15 @@ function runScan(args: Args, io: Io): number {
   }
   if (args.json) {
     const { verdict, samples, rateHz, findings } = report;
-    io.out(JSON.stringify(repairJson ? { verdict, samples, rateHz, findings, repair: repairJson } : { verdict, samples, rateHz, findings }, null, 2) + "\n");
+    io.out(
+      JSON.stringify(
+        repairJson
+          ? { verdict, samples, rateHz, findings, repair: repairJson }
+          : { verdict, samples, rateHz, findings },
+        null,
+        2,
+      ) + "\n",
+    );
   } else {
     io.out(formatStreamReport(report, arm) + repairText);
   }

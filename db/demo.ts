@@ -11,11 +11,41 @@ import type { SiteRole } from "./schema/users";
 export type DemoPerson = { id: string; email: string; name: string; password: string; role: SiteRole };
 
 export const demoPeople = [
-  { id: "00000000-0000-4000-8000-000000000001", email: "ines.varga@example.com", name: "Ines Varga", password: "bench-instructor-01", role: "instructor" },
-  { id: "00000000-0000-4000-8000-000000000002", email: "tomas.reyes@example.com", name: "Tomas Reyes", password: "bench-student-01", role: "student" },
-  { id: "00000000-0000-4000-8000-000000000003", email: "aiko.marsh@example.com", name: "Aiko Marsh", password: "bench-student-02", role: "student" },
-  { id: "00000000-0000-4000-8000-000000000004", email: "jun.halloran@example.com", name: "Jun Halloran", password: "bench-research-01", role: "researcher" },
-  { id: "00000000-0000-4000-8000-000000000005", email: "lab.admin@example.com", name: "Lab Admin", password: "bench-admin-0001", role: "admin" },
+  {
+    id: "00000000-0000-4000-8000-000000000001",
+    email: "ines.varga@example.com",
+    name: "Ines Varga",
+    password: "bench-instructor-01",
+    role: "instructor",
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000002",
+    email: "tomas.reyes@example.com",
+    name: "Tomas Reyes",
+    password: "bench-student-01",
+    role: "student",
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000003",
+    email: "aiko.marsh@example.com",
+    name: "Aiko Marsh",
+    password: "bench-student-02",
+    role: "student",
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000004",
+    email: "jun.halloran@example.com",
+    name: "Jun Halloran",
+    password: "bench-research-01",
+    role: "researcher",
+  },
+  {
+    id: "00000000-0000-4000-8000-000000000005",
+    email: "lab.admin@example.com",
+    name: "Lab Admin",
+    password: "bench-admin-0001",
+    role: "admin",
+  },
 ] as const satisfies readonly DemoPerson[];
 
 /** The lines `npm start` prints after seeding: `  email / password (role)`, then the course's join code when given. */
@@ -87,7 +117,11 @@ export type DemoPlan = {
   name: string;
   authorId: string;
   /** One entry per version, oldest first: the start pose and moves of the plan document. */
-  versions: { note: string; start: number[]; moves: { goal: number[]; duration: number; shape?: "cubic" | "quintic" | "trapezoid" }[] }[];
+  versions: {
+    note: string;
+    start: number[];
+    moves: { goal: number[]; duration: number; shape?: "cubic" | "quintic" | "trapezoid" }[];
+  }[];
 };
 
 const [course, research] = demoProjects;
@@ -107,7 +141,13 @@ export const demoPlans: DemoPlan[] = [
     armId: armLight.id,
     name: "Gentle pose change",
     authorId: student1.id,
-    versions: [{ note: "Two seconds, quintic", start: home, moves: [{ goal: [0.4, -0.3, 0.6, 0.2, 0, 0.3, 0.015], duration: 2 }] }],
+    versions: [
+      {
+        note: "Two seconds, quintic",
+        start: home,
+        moves: [{ goal: [0.4, -0.3, 0.6, 0.2, 0, 0.3, 0.015], duration: 2 }],
+      },
+    ],
   },
   {
     id: "00000000-0000-4000-8000-000000000302",
@@ -126,7 +166,9 @@ export const demoPlans: DemoPlan[] = [
     armId: armLight.id,
     name: "Instant swing",
     authorId: student2.id,
-    versions: [{ note: "Duration 0 across 1.2 rad", start: home, moves: [{ goal: [1.2, 0, 0, 0, 0, 0, 0.01], duration: 0 }] }],
+    versions: [
+      { note: "Duration 0 across 1.2 rad", start: home, moves: [{ goal: [1.2, 0, 0, 0, 0, 0, 0.01], duration: 0 }] },
+    ],
   },
   {
     id: "00000000-0000-4000-8000-000000000304",
@@ -152,8 +194,16 @@ export const demoPlans: DemoPlan[] = [
     name: "Replay pick, heavy gripper",
     authorId: researcher.id,
     versions: [
-      { note: "Copied from the light arm at 0.4 s", start: [0, 0, 0, 0, 0, 0, 0.02], moves: [{ goal: [1.0, -0.5, 0.9, 0.2, 0, 0.4, 0.03], duration: 0.4 }] },
-      { note: "Stretched for the heavier arm", start: [0, 0, 0, 0, 0, 0, 0.02], moves: [{ goal: [1.0, -0.5, 0.9, 0.2, 0, 0.4, 0.03], duration: 1.2 }] },
+      {
+        note: "Copied from the light arm at 0.4 s",
+        start: [0, 0, 0, 0, 0, 0, 0.02],
+        moves: [{ goal: [1.0, -0.5, 0.9, 0.2, 0, 0.4, 0.03], duration: 0.4 }],
+      },
+      {
+        note: "Stretched for the heavier arm",
+        start: [0, 0, 0, 0, 0, 0, 0.02],
+        moves: [{ goal: [1.0, -0.5, 0.9, 0.2, 0, 0.4, 0.03], duration: 1.2 }],
+      },
     ],
   },
 ];
@@ -216,14 +266,16 @@ export const demoCourse = {
     {
       id: "00000000-0000-4000-8000-000000000511",
       title: "Gentle pose change",
-      instructions: "Start at the home pose and reach any pose in one move that passes at 70% of each joint's maximum speed.",
+      instructions:
+        "Start at the home pose and reach any pose in one move that passes at 70% of each joint's maximum speed.",
       dueInDays: 14,
       requiredStart: [0, 0, 0, 0, 0, 0, 0.01],
     },
     {
       id: "00000000-0000-4000-8000-000000000512",
       title: "Reach without faults",
-      instructions: "Reach the pose below as fast as the course's limits allow, without a fault. Report the shortest safe duration you found.",
+      instructions:
+        "Reach the pose below as fast as the course's limits allow, without a fault. Report the shortest safe duration you found.",
       dueInDays: 21,
       requiredGoals: [[1.2, -0.4, 0.8, 0.3, 0, 0.5, 0.01]],
     },

@@ -11,7 +11,19 @@ import { createHash } from "node:crypto";
 import { summarize } from "../lib/server/check";
 import { putObject } from "../lib/server/storage";
 import { check, parseRecordingCsv, planSchema } from "../kinematics";
-import { armRevisions, arms, assignments, courseEnrolments, courses, planVersions, plans, projectMembers, projects, recordings, users } from "./schema";
+import {
+  armRevisions,
+  arms,
+  assignments,
+  courseEnrolments,
+  courses,
+  planVersions,
+  plans,
+  projectMembers,
+  projects,
+  recordings,
+  users,
+} from "./schema";
 import { demoArms, demoCourse, demoPeople, demoPlans, demoProjects, demoRecording, demoSignInLines } from "./demo";
 
 async function seedPeople() {
@@ -95,9 +107,22 @@ async function seedPlans() {
       .orderBy(desc(armRevisions.revision))
       .limit(1);
     await db.transaction(async (tx) => {
-      await tx.insert(plans).values({ id: p.id, projectId: p.projectId, armId: p.armId, name: p.name, createdBy: p.authorId, latestVersion: p.versions.length });
+      await tx.insert(plans).values({
+        id: p.id,
+        projectId: p.projectId,
+        armId: p.armId,
+        name: p.name,
+        createdBy: p.authorId,
+        latestVersion: p.versions.length,
+      });
       for (const [i, v] of p.versions.entries()) {
-        const document = planSchema.parse({ format: "jointproof.plan", version: 1, arm: revision.description, start: v.start, moves: v.moves });
+        const document = planSchema.parse({
+          format: "jointproof.plan",
+          version: 1,
+          arm: revision.description,
+          start: v.start,
+          moves: v.moves,
+        });
         const report = check(document);
         await tx.insert(planVersions).values({
           planId: p.id,
@@ -129,7 +154,16 @@ async function seedCourse(): Promise<string> {
   if (!revision) throw new Error(`demo course: arm ${c.armId} has no revision ${c.armRevision}`);
   const [course] = await db
     .insert(courses)
-    .values({ id: c.id, title: c.title, term: c.term, joinCode: c.joinCode, projectId: c.projectId, createdBy: c.instructorId, limits: c.limits, requiredArmRevisionId: revision.id })
+    .values({
+      id: c.id,
+      title: c.title,
+      term: c.term,
+      joinCode: c.joinCode,
+      projectId: c.projectId,
+      createdBy: c.instructorId,
+      limits: c.limits,
+      requiredArmRevisionId: revision.id,
+    })
     .onConflictDoUpdate({ target: courses.id, set: { title: c.title, term: c.term, limits: c.limits } })
     .returning({ joinCode: courses.joinCode });
   await db
@@ -172,11 +206,14 @@ async function seedRecording() {
   if (existing) return;
   const bytes = new TextEncoder().encode(demoRecording.csv());
   const parsed = parseRecordingCsv(bytes);
-  if (!parsed.recording) throw new Error(`demo recording is invalid: ${parsed.problems.map((p) => p.message).join("; ")}`);
+  if (!parsed.recording)
+    throw new Error(`demo recording is invalid: ${parsed.problems.map((p) => p.message).join("; ")}`);
   try {
     await putObject(demoRecording.objectKey, bytes, "text/csv");
   } catch (err) {
-    console.log(`[seed] object storage not reachable (${err instanceof Error ? err.message : err}); the demo recording is added on a later run`);
+    console.log(
+      `[seed] object storage not reachable (${err instanceof Error ? err.message : err}); the demo recording is added on a later run`,
+    );
     return;
   }
   const r = parsed.recording;

@@ -60,6 +60,7 @@ fi
 
 step "type-check" node_modules/.bin/tsc --noEmit --pretty false
 step "lint" node_modules/.bin/eslint . --max-warnings=0
+step "format" node_modules/.bin/prettier --check . --log-level warn
 step "unit and integration tests" node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json=.data/test/vitest.json
 
 # Browser tests need the production build and Debian's Chromium.

@@ -33,7 +33,11 @@ export function jointValue(joint: Joint, key: JointField["key"]): number | undef
 /** The joint with one field set (stored unit); `undefined` clears an optional field. */
 export function withJointValue(joint: Joint, key: JointField["key"], value: number | undefined): Joint {
   if (key === "coulomb" || key === "viscous") {
-    const friction = { coulomb: joint.friction?.coulomb ?? 0, viscous: joint.friction?.viscous ?? 0, [key]: value ?? 0 };
+    const friction = {
+      coulomb: joint.friction?.coulomb ?? 0,
+      viscous: joint.friction?.viscous ?? 0,
+      [key]: value ?? 0,
+    };
     return { ...joint, friction };
   }
   const next = { ...joint, [key]: value };
@@ -62,7 +66,10 @@ function jointFieldOf(path: readonly (string | number)[]): { joint: number; fiel
  * (`joints[1].max`, `controlRateHz`, …). A number in a joint field's message (e.g. "must not be below
  * min (0.5236)") is restated in the form's unit ("must not be below min (30.0°)").
  */
-export function armProblems(arm: unknown, unit: AngleUnit): { arm: Arm; problems: null } | { arm: null; problems: Record<string, string> } {
+export function armProblems(
+  arm: unknown,
+  unit: AngleUnit,
+): { arm: Arm; problems: null } | { arm: null; problems: Record<string, string> } {
   const parsed = armDocumentSchema.safeParse(arm);
   if (parsed.success) return { arm: parsed.data, problems: null };
   const joints = (arm as { joints?: Joint[] } | null)?.joints ?? [];
@@ -73,7 +80,10 @@ export function armProblems(arm: unknown, unit: AngleUnit): { arm: Arm; problems
     let message = problem.message;
     if (at && joint && at.field.quantity && at.field.quantity !== "effort") {
       const quantity = at.field.quantity;
-      message = message.replace(/\((-?\d+(?:\.\d+)?(?:e-?\d+)?)\)/g, (_, n: string) => `(${formatJointValue(Number(n), joint.type, unit, quantity)})`);
+      message = message.replace(
+        /\((-?\d+(?:\.\d+)?(?:e-?\d+)?)\)/g,
+        (_, n: string) => `(${formatJointValue(Number(n), joint.type, unit, quantity)})`,
+      );
     }
     problems[formatPath(problem.path)] = message;
   }

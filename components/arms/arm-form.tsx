@@ -46,13 +46,22 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
   const chain = draft.chain;
 
   const setJoint = (j: number, field: JointField, value: number | undefined) =>
-    setDraft({ ...draft, joints: draft.joints.map((joint, i) => (i === j ? withJointValue(joint, field.key, value) : joint)) });
+    setDraft({
+      ...draft,
+      joints: draft.joints.map((joint, i) => (i === j ? withJointValue(joint, field.key, value) : joint)),
+    });
 
   const setMass = (link: number, mass: number) => {
     if (!chain) return;
     // link 0 is the base; link i + 1 follows chain joint i
-    const withMass = <T extends { inertial?: { mass: number } }>(l: T): T => ({ ...l, inertial: { ...(l.inertial ?? defaultInertial()), mass } });
-    const next = link === 0 ? { ...chain, base: withMass(chain.base) } : { ...chain, joints: chain.joints.map((cj, i) => (i === link - 1 ? { ...cj, link: withMass(cj.link) } : cj)) };
+    const withMass = <T extends { inertial?: { mass: number } }>(l: T): T => ({
+      ...l,
+      inertial: { ...(l.inertial ?? defaultInertial()), mass },
+    });
+    const next =
+      link === 0
+        ? { ...chain, base: withMass(chain.base) }
+        : { ...chain, joints: chain.joints.map((cj, i) => (i === link - 1 ? { ...cj, link: withMass(cj.link) } : cj)) };
     setDraft({ ...draft, chain: next });
   };
 
@@ -73,27 +82,64 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
     onSave(result.arm, note);
   };
 
-  const links = chain ? [{ name: chain.base.name ?? "base", mass: chain.base.inertial?.mass }, ...chain.joints.map((cj, i) => ({ name: cj.link.name ?? `link ${i + 1}`, mass: cj.link.inertial?.mass }))] : [];
+  const links = chain
+    ? [
+        { name: chain.base.name ?? "base", mass: chain.base.inertial?.mass },
+        ...chain.joints.map((cj, i) => ({ name: cj.link.name ?? `link ${i + 1}`, mass: cj.link.inertial?.mass })),
+      ]
+    : [];
 
   return (
-    <form aria-label={`Parameters of ${title}`} onSubmit={(e) => { e.preventDefault(); submit(); }} className="flex flex-col gap-3">
+    <form
+      aria-label={`Parameters of ${title}`}
+      onSubmit={(e) => {
+        e.preventDefault();
+        submit();
+      }}
+      className="flex flex-col gap-3"
+    >
       <div className="flex flex-wrap items-end gap-3">
         <h2 className="mr-auto text-sm font-semibold">{title}</h2>
-        <label className="flex flex-col text-xs text-ink-soft">Angles in
-          <select aria-label="Angle unit" value={unit} onChange={(e) => setUnit(e.target.value as AngleUnit)} className="h-8 rounded border border-line bg-panel px-1 text-xs">
+        <label className="flex flex-col text-xs text-ink-soft">
+          Angles in
+          <select
+            aria-label="Angle unit"
+            value={unit}
+            onChange={(e) => setUnit(e.target.value as AngleUnit)}
+            className="h-8 rounded border border-line bg-panel px-1 text-xs"
+          >
             <option value="deg">degrees</option>
             <option value="rad">radians</option>
           </select>
         </label>
-        <label className="flex flex-col text-xs text-ink-soft">Control rate (Hz)
-          <NumberInput value={draft.controlRateHz} digits={0} onValue={(v) => setDraft({ ...draft, controlRateHz: v })} aria-label="Control rate (Hz)" className="w-24" aria-invalid={Boolean(errors.controlRateHz)} />
+        <label className="flex flex-col text-xs text-ink-soft">
+          Control rate (Hz)
+          <NumberInput
+            value={draft.controlRateHz}
+            digits={0}
+            onValue={(v) => setDraft({ ...draft, controlRateHz: v })}
+            aria-label="Control rate (Hz)"
+            className="w-24"
+            aria-invalid={Boolean(errors.controlRateHz)}
+          />
         </label>
-        <label className="flex flex-col text-xs text-ink-soft">Caution ratio
-          <NumberInput value={draft.cautionRatio} digits={2} onValue={(v) => setDraft({ ...draft, cautionRatio: v })} aria-label="Caution ratio" className="w-20" aria-invalid={Boolean(errors.cautionRatio)} />
+        <label className="flex flex-col text-xs text-ink-soft">
+          Caution ratio
+          <NumberInput
+            value={draft.cautionRatio}
+            digits={2}
+            onValue={(v) => setDraft({ ...draft, cautionRatio: v })}
+            aria-label="Caution ratio"
+            className="w-20"
+            aria-invalid={Boolean(errors.cautionRatio)}
+          />
         </label>
       </div>
       {errors.controlRateHz || errors.cautionRatio ? (
-        <p className="text-xs text-fault">{errors.controlRateHz ? `Control rate ${errors.controlRateHz}. ` : ""}{errors.cautionRatio ? `Caution ratio ${errors.cautionRatio}.` : ""}</p>
+        <p className="text-xs text-fault">
+          {errors.controlRateHz ? `Control rate ${errors.controlRateHz}. ` : ""}
+          {errors.cautionRatio ? `Caution ratio ${errors.cautionRatio}.` : ""}
+        </p>
       ) : null}
 
       <div className="overflow-x-auto">
@@ -101,17 +147,28 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
           <thead>
             <tr>
               <Th>Joint</Th>
-              {jointFields.map((f) => <Th key={f.key} numeric>{f.label}</Th>)}
+              {jointFields.map((f) => (
+                <Th key={f.key} numeric>
+                  {f.label}
+                </Th>
+              ))}
             </tr>
           </thead>
           <tbody>
             {draft.joints.map((joint, j) => (
               <tr key={joint.name}>
-                <Td className="text-xs font-medium">{joint.name}<span className="block text-[10px] text-ink-faint">{joint.type}</span></Td>
+                <Td className="text-xs font-medium">
+                  {joint.name}
+                  <span className="block text-[10px] text-ink-faint">{joint.type}</span>
+                </Td>
                 {jointFields.map((field) => {
-                  const path = field.key === "coulomb" || field.key === "viscous" ? `joints[${j}].friction.${field.key}` : `joints[${j}].${field.key}`;
+                  const path =
+                    field.key === "coulomb" || field.key === "viscous"
+                      ? `joints[${j}].friction.${field.key}`
+                      : `joints[${j}].${field.key}`;
                   const unitText = fieldUnit(joint, field, unit);
-                  const digits = field.quantity === null || field.quantity === "effort" ? 3 : displayDigits(joint.type, unit);
+                  const digits =
+                    field.quantity === null || field.quantity === "effort" ? 3 : displayDigits(joint.type, unit);
                   return (
                     <Td key={field.key} numeric>
                       <span className="flex items-center justify-end gap-1">
@@ -127,7 +184,11 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
                         />
                         <span className="w-14 text-left text-[10px] text-ink-faint">{unitText}</span>
                       </span>
-                      {errors[path] ? <span role="alert" className="block text-left text-[11px] text-fault">{field.label} {errors[path]}</span> : null}
+                      {errors[path] ? (
+                        <span role="alert" className="block text-left text-[11px] text-fault">
+                          {field.label} {errors[path]}
+                        </span>
+                      ) : null}
                     </Td>
                   );
                 })}
@@ -137,20 +198,32 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
         </Table>
       </div>
       <p className="text-[11px] text-ink-faint">
-        Revolute joints in {unit === "deg" ? "degrees (°, °/s, °/s²)" : "radians (rad, rad/s, rad/s²)"}, prismatic joints in millimetres; stored in radians and metres. An empty
-        optional field is not checked (no acceleration limit, no effort limit, no friction).
+        Revolute joints in {unit === "deg" ? "degrees (°, °/s, °/s²)" : "radians (rad, rad/s, rad/s²)"}, prismatic
+        joints in millimetres; stored in radians and metres. An empty optional field is not checked (no acceleration
+        limit, no effort limit, no friction).
       </p>
 
       {chain ? (
         <div className="grid gap-3 md:grid-cols-2">
           <Table aria-label="Link masses">
-            <thead><tr><Th>Link</Th><Th numeric>Mass (kg)</Th></tr></thead>
+            <thead>
+              <tr>
+                <Th>Link</Th>
+                <Th numeric>Mass (kg)</Th>
+              </tr>
+            </thead>
             <tbody>
               {links.map((l, k) => (
                 <tr key={`${l.name}-${k}`}>
                   <Td className="text-xs">{l.name}</Td>
                   <Td numeric>
-                    <NumberInput value={l.mass ?? NaN} digits={3} aria-label={`${l.name} mass (kg)`} onValue={(v) => setMass(k, v)} className="w-24" />
+                    <NumberInput
+                      value={l.mass ?? NaN}
+                      digits={3}
+                      aria-label={`${l.name} mass (kg)`}
+                      onValue={(v) => setMass(k, v)}
+                      className="w-24"
+                    />
                   </Td>
                 </tr>
               ))}
@@ -160,34 +233,64 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
             <p className="font-medium">Tool point, in the last link&apos;s frame (mm)</p>
             <div className="flex gap-2">
               {(["x", "y", "z"] as const).map((axis, k) => (
-                <label key={axis} className="flex flex-col text-ink-soft">{axis}
-                  <NumberInput value={chain.tool.xyz[k] * 1000} digits={1} aria-label={`Tool point ${axis} (mm)`} onValue={(v) => setTool(k as 0 | 1 | 2, v)} className="w-20" />
+                <label key={axis} className="flex flex-col text-ink-soft">
+                  {axis}
+                  <NumberInput
+                    value={chain.tool.xyz[k] * 1000}
+                    digits={1}
+                    aria-label={`Tool point ${axis} (mm)`}
+                    onValue={(v) => setTool(k as 0 | 1 | 2, v)}
+                    className="w-20"
+                  />
                 </label>
               ))}
             </div>
             <p className="text-ink-soft">
-              The payload (carried mass) and the tool-speed limit belong to each plan (its <code>payload</code> and <code>maxToolSpeed</code> fields), so that one arm
-              can carry different loads; effort and tool speed are checked with the plan&apos;s values.
+              The payload (carried mass) and the tool-speed limit belong to each plan (its <code>payload</code> and{" "}
+              <code>maxToolSpeed</code> fields), so that one arm can carry different loads; effort and tool speed are
+              checked with the plan&apos;s values.
             </p>
           </div>
         </div>
       ) : (
-        <p className="text-xs text-ink-soft">This arm has no geometry (no chain): effort, clearance and tool speed are not checked for it.</p>
+        <p className="text-xs text-ink-soft">
+          This arm has no geometry (no chain): effort, clearance and tool speed are not checked for it.
+        </p>
       )}
 
       {canEdit ? (
         <div className="flex flex-wrap items-end gap-2">
-          <TextField label="Note for this revision" value={note} onChange={(e) => setNote(e.target.value)} maxLength={500} fieldClassName="flex-1" />
-          <Button type="submit" variant="primary" disabled={saving}>{saveLabel}</Button>
+          <TextField
+            label="Note for this revision"
+            value={note}
+            onChange={(e) => setNote(e.target.value)}
+            maxLength={500}
+            fieldClassName="flex-1"
+          />
+          <Button type="submit" variant="primary" disabled={saving}>
+            {saveLabel}
+          </Button>
         </div>
       ) : null}
-      {Object.keys(errors).length > 0 ? <p role="alert" className="text-xs text-fault">Fix the marked fields; nothing was saved.</p> : null}
+      {Object.keys(errors).length > 0 ? (
+        <p role="alert" className="text-xs text-fault">
+          Fix the marked fields; nothing was saved.
+        </p>
+      ) : null}
       {saveError ? <ErrorNote title="Not saved">{saveError}</ErrorNote> : null}
-      {saved ? <p role="status" className="text-xs text-pass">Saved.</p> : null}
+      {saved ? (
+        <p role="status" className="text-xs text-pass">
+          Saved.
+        </p>
+      ) : null}
     </form>
   );
 }
 
 function defaultInertial() {
-  return { mass: 0, com: [0, 0, 0] as [number, number, number], inertia: { ixx: 0, ixy: 0, ixz: 0, iyy: 0, iyz: 0, izz: 0 } };
+  return {
+    mass: 0,
+    com: [0, 0, 0] as [number, number, number],
+    inertia: { ixx: 0, ixy: 0, ixz: 0, iyy: 0, iyz: 0, izz: 0 },
+  };
 }

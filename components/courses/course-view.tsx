@@ -13,7 +13,12 @@ import type { CourseCapabilities } from "@/lib/server/permissions";
 import { queryKeys } from "@/lib/client/query-keys";
 
 export type ArmChoice = { revisionId: string; label: string };
-export type PlanChoice = { planId: string; version: number; label: string; verdict: "pass" | "caution" | "fault" | null };
+export type PlanChoice = {
+  planId: string;
+  version: number;
+  label: string;
+  verdict: "pass" | "caution" | "fault" | null;
+};
 type Status = "not-started" | "draft" | "submitted" | "returned" | "approved";
 
 const statusWords: Record<Status, string> = {
@@ -25,17 +30,40 @@ const statusWords: Record<Status, string> = {
 };
 
 export interface CourseViewProps {
-  course: { id: string; title: string; term: string; role: "instructor" | "student"; joinCode: string | null; inviteUrl: string | null };
+  course: {
+    id: string;
+    title: string;
+    term: string;
+    role: "instructor" | "student";
+    joinCode: string | null;
+    inviteUrl: string | null;
+  };
   /** What the viewer may do here, from the server's `capabilities()`. */
   can: CourseCapabilities;
-  assignments: { id: string; title: string; instructions: string; dueAt: string; status: Status; latestSubmissionId: string | null }[];
+  assignments: {
+    id: string;
+    title: string;
+    instructions: string;
+    dueAt: string;
+    status: Status;
+    latestSubmissionId: string | null;
+  }[];
   roster: { userId: string; name: string; email: string; role: "instructor" | "student"; joinedAt: string }[];
   arms: ArmChoice[];
   plans: PlanChoice[];
 }
 
 function due(iso: string): string {
-  return new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", timeZone: "UTC" }) + " UTC";
+  return (
+    new Date(iso).toLocaleString("en-GB", {
+      day: "numeric",
+      month: "short",
+      year: "numeric",
+      hour: "2-digit",
+      minute: "2-digit",
+      timeZone: "UTC",
+    }) + " UTC"
+  );
 }
 
 function fieldError(error: unknown, path: string): string | undefined {
@@ -46,14 +74,24 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
   const teaches = can.canReadAllSubmissions;
   return (
     <div className="mx-auto max-w-6xl px-6 py-8">
-      <p className="text-sm"><Link href="/courses" className="text-brand-700 hover:underline">Courses</Link></p>
+      <p className="text-sm">
+        <Link href="/courses" className="text-brand-700 hover:underline">
+          Courses
+        </Link>
+      </p>
       <h1 className="text-2xl font-semibold tracking-tight">{course.title}</h1>
-      <p className="text-sm text-ink-soft">{course.term} · you are {teaches ? "an instructor" : "a student"} here</p>
+      <p className="text-sm text-ink-soft">
+        {course.term} · you are {teaches ? "an instructor" : "a student"} here
+      </p>
       {can.canManage ? <InstructorTools course={course} can={can} /> : null}
       <h2 className="mt-8 text-lg font-semibold">Assignments</h2>
       <Panel className="mt-2 overflow-x-auto">
         {assignments.length === 0 ? (
-          <div className="p-4"><EmptyState title="No assignments yet">{teaches ? "Set the first one below." : "Your instructor has not set one yet."}</EmptyState></div>
+          <div className="p-4">
+            <EmptyState title="No assignments yet">
+              {teaches ? "Set the first one below." : "Your instructor has not set one yet."}
+            </EmptyState>
+          </div>
         ) : (
           <Table aria-label="Assignments">
             <thead>
@@ -73,14 +111,32 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
                   </Td>
                   <Td className="tabular text-xs whitespace-nowrap">{due(a.dueAt)}</Td>
                   {teaches ? (
-                    <Td><Link className="text-brand-700 hover:underline" href={`/reviews?assignmentId=${a.id}`}>Submissions</Link></Td>
+                    <Td>
+                      <Link className="text-brand-700 hover:underline" href={`/reviews?assignmentId=${a.id}`}>
+                        Submissions
+                      </Link>
+                    </Td>
                   ) : (
                     <>
                       <Td className="text-xs">
                         {statusWords[a.status]}
-                        {a.latestSubmissionId ? <> · <Link className="text-brand-700 hover:underline" href={`/reviews/${a.latestSubmissionId}`}>open</Link></> : null}
+                        {a.latestSubmissionId ? (
+                          <>
+                            {" "}
+                            ·{" "}
+                            <Link className="text-brand-700 hover:underline" href={`/reviews/${a.latestSubmissionId}`}>
+                              open
+                            </Link>
+                          </>
+                        ) : null}
                       </Td>
-                      <Td><SubmitForm assignmentId={a.id} plans={plans} disabled={!can.canSubmit || a.status === "submitted" || a.status === "approved"} /></Td>
+                      <Td>
+                        <SubmitForm
+                          assignmentId={a.id}
+                          plans={plans}
+                          disabled={!can.canSubmit || a.status === "submitted" || a.status === "approved"}
+                        />
+                      </Td>
                     </>
                   )}
                 </tr>
@@ -97,29 +153,73 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
 
 function InstructorTools({ course, can }: { course: CourseViewProps["course"]; can: CourseCapabilities }) {
   const [emails, setEmails] = useState("");
-  const invite = useMutation({ mutationFn: () => api.inviteToCourse(course.id, { emails: emails.split(/[\s,;]+/).filter(Boolean) }) });
+  const invite = useMutation({
+    mutationFn: () => api.inviteToCourse(course.id, { emails: emails.split(/[\s,;]+/).filter(Boolean) }),
+  });
   return (
     <div className="mt-5 grid gap-4 md:grid-cols-2">
       <Panel className="p-4">
         <h2 className="font-semibold">Join code</h2>
-        <p className="mt-1 font-mono text-2xl tracking-widest" data-testid="join-code">{course.joinCode}</p>
-        <p className="mt-2 text-xs break-all text-ink-soft">Invitation link: <span className="font-mono">{course.inviteUrl}</span></p>
-        {can.canExportGrades ? <p className="mt-3 text-sm"><a className="text-brand-700 hover:underline" href={`/api/v1/courses/${course.id}/grades`}>Download grades and verdicts (CSV)</a></p> : null}
+        <p className="mt-1 font-mono text-2xl tracking-widest" data-testid="join-code">
+          {course.joinCode}
+        </p>
+        <p className="mt-2 text-xs break-all text-ink-soft">
+          Invitation link: <span className="font-mono">{course.inviteUrl}</span>
+        </p>
+        {can.canExportGrades ? (
+          <p className="mt-3 text-sm">
+            <a className="text-brand-700 hover:underline" href={`/api/v1/courses/${course.id}/grades`}>
+              Download grades and verdicts (CSV)
+            </a>
+          </p>
+        ) : null}
       </Panel>
       <Panel className="p-4">
-        <form onSubmit={(e) => { e.preventDefault(); invite.mutate(); }} className="flex flex-col gap-3">
+        <form
+          onSubmit={(e) => {
+            e.preventDefault();
+            invite.mutate();
+          }}
+          className="flex flex-col gap-3"
+        >
           <h2 className="font-semibold">Invite by e-mail</h2>
-          <TextAreaField label="Addresses" rows={3} value={emails} onChange={(e) => setEmails(e.target.value)} hint="One or more, separated by spaces, commas or new lines." />
-          <Button type="submit" variant="primary" disabled={invite.isPending || !emails.trim()}>Send invitations</Button>
-          {invite.isSuccess ? <p role="status" className="text-sm text-pass">Queued {invite.data.invited.length} invitation{invite.data.invited.length === 1 ? "" : "s"}.</p> : null}
-          {invite.error ? <ErrorNote>{invite.error instanceof ApiError && invite.error.issues[0] ? `${invite.error.issues[0].path}: ${invite.error.issues[0].message}` : invite.error.message}</ErrorNote> : null}
+          <TextAreaField
+            label="Addresses"
+            rows={3}
+            value={emails}
+            onChange={(e) => setEmails(e.target.value)}
+            hint="One or more, separated by spaces, commas or new lines."
+          />
+          <Button type="submit" variant="primary" disabled={invite.isPending || !emails.trim()}>
+            Send invitations
+          </Button>
+          {invite.isSuccess ? (
+            <p role="status" className="text-sm text-pass">
+              Queued {invite.data.invited.length} invitation{invite.data.invited.length === 1 ? "" : "s"}.
+            </p>
+          ) : null}
+          {invite.error ? (
+            <ErrorNote>
+              {invite.error instanceof ApiError && invite.error.issues[0]
+                ? `${invite.error.issues[0].path}: ${invite.error.issues[0].message}`
+                : invite.error.message}
+            </ErrorNote>
+          ) : null}
         </form>
       </Panel>
     </div>
   );
 }
 
-function SubmitForm({ assignmentId, plans, disabled }: { assignmentId: string; plans: PlanChoice[]; disabled: boolean }) {
+function SubmitForm({
+  assignmentId,
+  plans,
+  disabled,
+}: {
+  assignmentId: string;
+  plans: PlanChoice[];
+  disabled: boolean;
+}) {
   const router = useRouter();
   const [choice, setChoice] = useState(plans[0] ? `${plans[0].planId}:${plans[0].version}` : "");
   const submit = useMutation({
@@ -129,19 +229,43 @@ function SubmitForm({ assignmentId, plans, disabled }: { assignmentId: string; p
     },
     onSuccess: () => router.refresh(),
   });
-  if (plans.length === 0) return <p className="text-xs text-ink-soft">Create a plan and save a version of it first; only plans you created can be submitted.</p>;
+  if (plans.length === 0)
+    return (
+      <p className="text-xs text-ink-soft">
+        Create a plan and save a version of it first; only plans you created can be submitted.
+      </p>
+    );
   return (
-    <form onSubmit={(e) => { e.preventDefault(); submit.mutate(); }} className="flex flex-wrap items-end gap-2">
-      <SelectField label="Plan version" hideLabel value={choice} onChange={(e) => setChoice(e.target.value)} fieldClassName="w-72" disabled={disabled}>
+    <form
+      onSubmit={(e) => {
+        e.preventDefault();
+        submit.mutate();
+      }}
+      className="flex flex-wrap items-end gap-2"
+    >
+      <SelectField
+        label="Plan version"
+        hideLabel
+        value={choice}
+        onChange={(e) => setChoice(e.target.value)}
+        fieldClassName="w-72"
+        disabled={disabled}
+      >
         {plans.map((p) => (
-          <option key={`${p.planId}:${p.version}`} value={`${p.planId}:${p.version}`}>{p.label}</option>
+          <option key={`${p.planId}:${p.version}`} value={`${p.planId}:${p.version}`}>
+            {p.label}
+          </option>
         ))}
       </SelectField>
-      <Button type="submit" variant="primary" size="sm" disabled={disabled || submit.isPending}>Submit</Button>
+      <Button type="submit" variant="primary" size="sm" disabled={disabled || submit.isPending}>
+        Submit
+      </Button>
       {submit.data ? (
         <span role="status" className="flex items-center gap-1 text-xs">
           <VerdictChip size="sm" verdict={submit.data.submission.verdict} /> attempt {submit.data.submission.attempt}
-          {submit.data.ruleProblems.length ? ` · ${submit.data.ruleProblems.length} rule${submit.data.ruleProblems.length === 1 ? "" : "s"} not met` : ""}
+          {submit.data.ruleProblems.length
+            ? ` · ${submit.data.ruleProblems.length} rule${submit.data.ruleProblems.length === 1 ? "" : "s"} not met`
+            : ""}
         </span>
       ) : null}
       {submit.error ? <ErrorNote>{submit.error.message}</ErrorNote> : null}
@@ -189,14 +313,41 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
   });
   return (
     <Panel className="mt-4 p-4">
-      <form onSubmit={(e) => { e.preventDefault(); create.mutate(); }} className="grid gap-3 md:grid-cols-2">
+      <form
+        onSubmit={(e) => {
+          e.preventDefault();
+          create.mutate();
+        }}
+        className="grid gap-3 md:grid-cols-2"
+      >
         <h2 className="font-semibold md:col-span-2">New assignment</h2>
-        <TextField label="Title" value={title} onChange={(e) => setTitle(e.target.value)} error={fieldError(create.error, "title")} />
-        <TextField label="Due (UTC)" type="datetime-local" value={dueAt} onChange={(e) => setDueAt(e.target.value)} error={fieldError(create.error, "dueAt")} />
+        <TextField
+          label="Title"
+          value={title}
+          onChange={(e) => setTitle(e.target.value)}
+          error={fieldError(create.error, "title")}
+        />
+        <TextField
+          label="Due (UTC)"
+          type="datetime-local"
+          value={dueAt}
+          onChange={(e) => setDueAt(e.target.value)}
+          error={fieldError(create.error, "dueAt")}
+        />
         <SelectField label="Required arm" value={arm} onChange={(e) => setArm(e.target.value)}>
-          {arms.map((a) => <option key={a.revisionId} value={a.revisionId}>{a.label}</option>)}
+          {arms.map((a) => (
+            <option key={a.revisionId} value={a.revisionId}>
+              {a.label}
+            </option>
+          ))}
         </SelectField>
-        <TextField label="Speed limit (% of maximum, optional)" inputMode="numeric" value={speed} onChange={(e) => setSpeed(e.target.value)} hint="Applies on top of the course's limit; the stricter wins." />
+        <TextField
+          label="Speed limit (% of maximum, optional)"
+          inputMode="numeric"
+          value={speed}
+          onChange={(e) => setSpeed(e.target.value)}
+          hint="Applies on top of the course's limit; the stricter wins."
+        />
         <SelectField
           label="Required start and goal poses (optional)"
           value={posesFrom}
@@ -210,21 +361,48 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
           error={poses.error ? poses.error.message : undefined}
         >
           <option value="">Any poses</option>
-          {plans.map((p) => <option key={`${p.planId}:${p.version}`} value={`${p.planId}:${p.version}`}>{p.label}</option>)}
+          {plans.map((p) => (
+            <option key={`${p.planId}:${p.version}`} value={`${p.planId}:${p.version}`}>
+              {p.label}
+            </option>
+          ))}
         </SelectField>
-        <TextAreaField label="Instructions" rows={3} value={instructions} onChange={(e) => setInstructions(e.target.value)} fieldClassName="md:col-span-2" />
+        <TextAreaField
+          label="Instructions"
+          rows={3}
+          value={instructions}
+          onChange={(e) => setInstructions(e.target.value)}
+          fieldClassName="md:col-span-2"
+        />
         <div className="md:col-span-2">
-          <Button type="submit" variant="primary" disabled={create.isPending || (posesFrom !== "" && !poses.data)}>Set assignment</Button>
-          {create.error && !fieldError(create.error, "title") && !fieldError(create.error, "dueAt") ? <div className="mt-2"><ErrorNote>{create.error.message}</ErrorNote></div> : null}
+          <Button type="submit" variant="primary" disabled={create.isPending || (posesFrom !== "" && !poses.data)}>
+            Set assignment
+          </Button>
+          {create.error && !fieldError(create.error, "title") && !fieldError(create.error, "dueAt") ? (
+            <div className="mt-2">
+              <ErrorNote>{create.error.message}</ErrorNote>
+            </div>
+          ) : null}
         </div>
       </form>
     </Panel>
   );
 }
 
-function Roster({ courseId, roster, canManage }: { courseId: string; roster: CourseViewProps["roster"]; canManage: boolean }) {
+function Roster({
+  courseId,
+  roster,
+  canManage,
+}: {
+  courseId: string;
+  roster: CourseViewProps["roster"];
+  canManage: boolean;
+}) {
   const router = useRouter();
-  const remove = useMutation({ mutationFn: (userId: string) => api.removeStudent(courseId, userId), onSuccess: () => router.refresh() });
+  const remove = useMutation({
+    mutationFn: (userId: string) => api.removeStudent(courseId, userId),
+    onSuccess: () => router.refresh(),
+  });
   return (
     <>
       <h2 className="mt-8 text-lg font-semibold">Roster</h2>
@@ -236,7 +414,9 @@ function Roster({ courseId, roster, canManage }: { courseId: string; roster: Cou
               <Th>E-mail</Th>
               <Th>Role</Th>
               <Th>Joined</Th>
-              <Th><span className="sr-only">Actions</span></Th>
+              <Th>
+                <span className="sr-only">Actions</span>
+              </Th>
             </tr>
           </thead>
           <tbody>
@@ -248,7 +428,15 @@ function Roster({ courseId, roster, canManage }: { courseId: string; roster: Cou
                 <Td className="tabular text-xs">{due(r.joinedAt)}</Td>
                 <Td>
                   {canManage && r.role === "student" ? (
-                    <Button size="sm" variant="danger" disabled={remove.isPending} onClick={() => { if (window.confirm(`Remove ${r.name} from the course? Their submissions stay on record.`)) remove.mutate(r.userId); }}>
+                    <Button
+                      size="sm"
+                      variant="danger"
+                      disabled={remove.isPending}
+                      onClick={() => {
+                        if (window.confirm(`Remove ${r.name} from the course? Their submissions stay on record.`))
+                          remove.mutate(r.userId);
+                      }}
+                    >
                       Remove
                     </Button>
                   ) : null}
@@ -258,7 +446,11 @@ function Roster({ courseId, roster, canManage }: { courseId: string; roster: Cou
           </tbody>
         </Table>
       </Panel>
-      {remove.error ? <div className="mt-2"><ErrorNote>{remove.error.message}</ErrorNote></div> : null}
+      {remove.error ? (
+        <div className="mt-2">
+          <ErrorNote>{remove.error.message}</ErrorNote>
+        </div>
+      ) : null}
     </>
   );
 }

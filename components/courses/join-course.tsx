@@ -8,7 +8,10 @@ import { api } from "@/lib/client/api-client";
 /** Confirms joining the course an invitation link opens. */
 export function JoinCourse({ code, course }: { code: string; course: { title: string; term: string } | null }) {
   const router = useRouter();
-  const join = useMutation({ mutationFn: () => api.joinCourse(code), onSuccess: (r) => router.push(`/courses/${r.course.id}`) });
+  const join = useMutation({
+    mutationFn: () => api.joinCourse(code),
+    onSuccess: (r) => router.push(`/courses/${r.course.id}`),
+  });
   return (
     <div className="mx-auto max-w-lg px-6 py-12">
       <Panel className="p-6">
@@ -16,15 +19,23 @@ export function JoinCourse({ code, course }: { code: string; course: { title: st
           <>
             <h1 className="text-xl font-semibold">Join {course.title}</h1>
             <p className="mt-1 text-sm text-ink-soft">
-              {course.term} · join code <span className="font-mono">{code}</span>. You join as a student: you will see the course&apos;s assignments and can submit plans for review.
+              {course.term} · join code <span className="font-mono">{code}</span>. You join as a student: you will see
+              the course&apos;s assignments and can submit plans for review.
             </p>
             <Button className="mt-5" variant="primary" onClick={() => join.mutate()} disabled={join.isPending}>
               {join.isPending ? "Joining…" : "Join the course"}
             </Button>
-            {join.error ? <div className="mt-4"><ErrorNote>{join.error.message}</ErrorNote></div> : null}
+            {join.error ? (
+              <div className="mt-4">
+                <ErrorNote>{join.error.message}</ErrorNote>
+              </div>
+            ) : null}
           </>
         ) : (
-          <ErrorNote title="No course for this link">The join code {code ? <span className="font-mono">{code}</span> : null} opens no open course. Check the code with your instructor.</ErrorNote>
+          <ErrorNote title="No course for this link">
+            The join code {code ? <span className="font-mono">{code}</span> : null} opens no open course. Check the code
+            with your instructor.
+          </ErrorNote>
         )}
       </Panel>
     </div>

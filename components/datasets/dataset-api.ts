@@ -10,7 +10,15 @@ export type DatasetDto = Jsonified<Dataset>;
 export interface DatasetSummaryDto {
   dataset: DatasetDto;
   progress: { batchesDone: number; batches: number; episodesAudited: number; episodes: number };
-  summary: { episodes: number; pass: number; caution: number; fault: number; invalid: number; byKind: Record<string, number>; repaired: number };
+  summary: {
+    episodes: number;
+    pass: number;
+    caution: number;
+    fault: number;
+    invalid: number;
+    byKind: Record<string, number>;
+    repaired: number;
+  };
   check: string;
 }
 
@@ -74,15 +82,25 @@ export interface ReplayPlanDto {
 const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
 
 export const datasetApi = {
-  list: (projectId: string) => request<{ datasets: DatasetDto[]; limitBytes: number }>(`/api/v1/projects/${projectId}/datasets`),
+  list: (projectId: string) =>
+    request<{ datasets: DatasetDto[]; limitBytes: number }>(`/api/v1/projects/${projectId}/datasets`),
   get: (datasetId: string) => request<DatasetSummaryDto>(`/api/v1/datasets/${datasetId}`),
-  preview: (datasetId: string, input: { armId: string; mapping: ColumnMappingInput }) => request<{ preview: PreviewDto }>(`/api/v1/datasets/${datasetId}/preview`, post(input)).then((r) => r.preview),
-  saveMapping: (datasetId: string, input: { armId: string; mapping: ColumnMappingInput }) => request<{ dataset: DatasetDto; preview: PreviewDto }>(`/api/v1/datasets/${datasetId}/mapping`, post(input)),
-  audit: (datasetId: string) => request<{ dataset: DatasetDto }>(`/api/v1/datasets/${datasetId}/audit`, { method: "POST" }),
-  episodes: (datasetId: string) => request<{ episodes: EpisodeRowDto[] }>(`/api/v1/datasets/${datasetId}/episodes`).then((r) => r.episodes),
+  preview: (datasetId: string, input: { armId: string; mapping: ColumnMappingInput }) =>
+    request<{ preview: PreviewDto }>(`/api/v1/datasets/${datasetId}/preview`, post(input)).then((r) => r.preview),
+  saveMapping: (datasetId: string, input: { armId: string; mapping: ColumnMappingInput }) =>
+    request<{ dataset: DatasetDto; preview: PreviewDto }>(`/api/v1/datasets/${datasetId}/mapping`, post(input)),
+  audit: (datasetId: string) =>
+    request<{ dataset: DatasetDto }>(`/api/v1/datasets/${datasetId}/audit`, { method: "POST" }),
+  episodes: (datasetId: string) =>
+    request<{ episodes: EpisodeRowDto[] }>(`/api/v1/datasets/${datasetId}/episodes`).then((r) => r.episodes),
   episode: (datasetId: string, index: number) => request<EpisodeDto>(`/api/v1/datasets/${datasetId}/episodes/${index}`),
-  repair: (datasetId: string, episodes?: number[]) => request<{ repaired: RepairResultDto[] }>(`/api/v1/datasets/${datasetId}/repair`, post(episodes ? { episodes } : {})).then((r) => r.repaired),
-  replayPlan: (datasetId: string, index: number) => request<ReplayPlanDto>(`/api/v1/datasets/${datasetId}/episodes/${index}/replay-plan`),
+  repair: (datasetId: string, episodes?: number[]) =>
+    request<{ repaired: RepairResultDto[] }>(
+      `/api/v1/datasets/${datasetId}/repair`,
+      post(episodes ? { episodes } : {}),
+    ).then((r) => r.repaired),
+  replayPlan: (datasetId: string, index: number) =>
+    request<ReplayPlanDto>(`/api/v1/datasets/${datasetId}/episodes/${index}/replay-plan`),
   exportUrl: (datasetId: string) => `/api/v1/datasets/${datasetId}/export`,
 };
 
@@ -90,8 +108,19 @@ export const datasetApi = {
  * Uploads a dataset file as the request body with upload progress (0..1); the browser sends its
  * Content-Length, which the server requires. Errors arrive as {@link ApiError}.
  */
-export async function uploadDataset(projectId: string, file: Blob, name: string, onProgress: (fraction: number) => void): Promise<DatasetDto> {
+export async function uploadDataset(
+  projectId: string,
+  file: Blob,
+  name: string,
+  onProgress: (fraction: number) => void,
+): Promise<DatasetDto> {
   const url = `/api/v1/projects/${projectId}/datasets?${new URLSearchParams({ name })}`;
-  const body = await uploadWithProgress(url, file, "application/octet-stream", onProgress, "The upload did not reach the server; nothing was stored.");
+  const body = await uploadWithProgress(
+    url,
+    file,
+    "application/octet-stream",
+    onProgress,
+    "The upload did not reach the server; nothing was stored.",
+  );
   return (body as { dataset: DatasetDto }).dataset;
 }

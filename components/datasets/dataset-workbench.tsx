@@ -45,7 +45,9 @@ interface Props {
 }
 
 export function DatasetWorkbench(props: Props) {
-  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 5_000, refetchOnWindowFocus: false } } }));
+  const [client] = useState(
+    () => new QueryClient({ defaultOptions: { queries: { staleTime: 5_000, refetchOnWindowFocus: false } } }),
+  );
   return (
     <QueryClientProvider client={client}>
       <Workbench {...props} />
@@ -65,7 +67,11 @@ function Workbench({ projectId, dataset, arms, canEdit, caution }: Props) {
   });
   const status = summary.data?.dataset.status ?? dataset.status;
   const audited = status === "audited";
-  const episodes = useQuery({ queryKey: queryKeys.datasetEpisodes(dataset.id), queryFn: () => datasetApi.episodes(dataset.id), enabled: audited });
+  const episodes = useQuery({
+    queryKey: queryKeys.datasetEpisodes(dataset.id),
+    queryFn: () => datasetApi.episodes(dataset.id),
+    enabled: audited,
+  });
   const initialArm = arms.find((a) => a.revisionId === dataset.armRevisionId)?.id ?? arms[0]?.id ?? "";
   const refresh = useCallback(async () => {
     await queryClient.invalidateQueries({ queryKey: queryKeys.dataset(dataset.id) });
@@ -86,7 +92,9 @@ function Workbench({ projectId, dataset, arms, canEdit, caution }: Props) {
       const results = await datasetApi.repair(dataset.id);
       const passed = results.filter((r) => r.after === "pass").length;
       const skipped = results.filter((r) => r.after === null).length;
-      setMessage(`Repaired ${results.length - skipped} episodes: ${passed} pass after repair${skipped ? `; ${skipped} not checked, not repaired` : ""}.`);
+      setMessage(
+        `Repaired ${results.length - skipped} episodes: ${passed} pass after repair${skipped ? `; ${skipped} not checked, not repaired` : ""}.`,
+      );
       await refresh();
       if (open !== null) await queryClient.invalidateQueries({ queryKey: queryKeys.datasetEpisode(dataset.id, open) });
     } catch (err) {
@@ -101,31 +109,83 @@ function Workbench({ projectId, dataset, arms, canEdit, caution }: Props) {
     <div className="mx-auto flex max-w-7xl flex-col gap-4 p-4">
       <header className="flex flex-wrap items-baseline gap-3">
         <h1 className="text-lg font-semibold">{dataset.name}</h1>
-        <span className="text-xs text-ink-soft">{dataset.fileKind} · {formatBytes(dataset.sizeBytes)}</span>
-        <Link href={`/projects/${projectId}/datasets`} className="text-sm text-brand-600 hover:underline">All datasets</Link>
+        <span className="text-xs text-ink-soft">
+          {dataset.fileKind} · {formatBytes(dataset.sizeBytes)}
+        </span>
+        <Link href={`/projects/${projectId}/datasets`} className="text-sm text-brand-600 hover:underline">
+          All datasets
+        </Link>
         <span className="flex-1" />
-        {audited && canEdit ? <Button onClick={() => void repairAll()} disabled={repairingAll}>{repairingAll ? "Repairing…" : "Repair all episodes with findings"}</Button> : null}
-        {audited ? <a href={datasetApi.exportUrl(dataset.id)} className="rounded-md border border-line px-3 py-1.5 text-sm hover:bg-paper" data-testid="export-link" download>Export checked dataset (zip)</a> : null}
+        {audited && canEdit ? (
+          <Button onClick={() => void repairAll()} disabled={repairingAll}>
+            {repairingAll ? "Repairing…" : "Repair all episodes with findings"}
+          </Button>
+        ) : null}
+        {audited ? (
+          <a
+            href={datasetApi.exportUrl(dataset.id)}
+            className="rounded-md border border-line px-3 py-1.5 text-sm hover:bg-paper"
+            data-testid="export-link"
+            download
+          >
+            Export checked dataset (zip)
+          </a>
+        ) : null}
       </header>
-      {audited ? <p className="text-[11px] text-ink-faint" data-testid="export-caution">{caution}</p> : null}
-      {message ? <p className="text-sm" role="status" data-testid="repair-message">{message}</p> : null}
+      {audited ? (
+        <p className="text-[11px] text-ink-faint" data-testid="export-caution">
+          {caution}
+        </p>
+      ) : null}
+      {message ? (
+        <p className="text-sm" role="status" data-testid="repair-message">
+          {message}
+        </p>
+      ) : null}
       <Panel className="p-4">
         <h2 className="mb-2 text-sm font-semibold">Arm and columns</h2>
         {arms.length === 0 ? (
-          <ErrorNote title="No arm">Add an arm to this project first; the audit checks every episode against its limits.</ErrorNote>
+          <ErrorNote title="No arm">
+            Add an arm to this project first; the audit checks every episode against its limits.
+          </ErrorNote>
         ) : (
-          <MappingPanel datasetId={dataset.id} arms={arms} initialArmId={initialArm} initialMapping={dataset.mapping as ColumnMappingInput} canEdit={canEdit} busy={status === "auditing"} onAudit={startAudit} />
+          <MappingPanel
+            datasetId={dataset.id}
+            arms={arms}
+            initialArmId={initialArm}
+            initialMapping={dataset.mapping as ColumnMappingInput}
+            canEdit={canEdit}
+            busy={status === "auditing"}
+            onAudit={startAudit}
+          />
         )}
       </Panel>
       {status === "auditing" && progress ? (
         <Panel className="p-4" aria-label="Audit progress">
-          <div role="progressbar" aria-label="Audit progress" aria-valuemin={0} aria-valuemax={progress.batches} aria-valuenow={progress.batchesDone} className="h-2 overflow-hidden rounded-full bg-line/60">
-            <div className="h-full bg-brand-500 transition-[width]" style={{ width: `${progress.batches ? Math.round((100 * progress.batchesDone) / progress.batches) : 0}%` }} />
+          <div
+            role="progressbar"
+            aria-label="Audit progress"
+            aria-valuemin={0}
+            aria-valuemax={progress.batches}
+            aria-valuenow={progress.batchesDone}
+            className="h-2 overflow-hidden rounded-full bg-line/60"
+          >
+            <div
+              className="h-full bg-brand-500 transition-[width]"
+              style={{
+                width: `${progress.batches ? Math.round((100 * progress.batchesDone) / progress.batches) : 0}%`,
+              }}
+            />
           </div>
-          <p className="tabular mt-1 text-xs text-ink-soft" data-testid="audit-progress">Auditing in the background: {progress.episodesAudited} of {progress.episodes} episodes ({progress.batchesDone} of {progress.batches} batches).</p>
+          <p className="tabular mt-1 text-xs text-ink-soft" data-testid="audit-progress">
+            Auditing in the background: {progress.episodesAudited} of {progress.episodes} episodes (
+            {progress.batchesDone} of {progress.batches} batches).
+          </p>
         </Panel>
       ) : null}
-      {status === "uploaded" ? <p className="text-sm text-ink-soft">Not audited yet: choose the arm and columns, preview, then audit.</p> : null}
+      {status === "uploaded" ? (
+        <p className="text-sm text-ink-soft">Not audited yet: choose the arm and columns, preview, then audit.</p>
+      ) : null}
       {audited && summary.data ? (
         <Panel className="p-4">
           <DatasetSummary summary={summary.data.summary} episodes={episodes.data ?? []} onOpen={setOpen} />
@@ -137,7 +197,21 @@ function Workbench({ projectId, dataset, arms, canEdit, caution }: Props) {
             <EpisodeTable episodes={episodes.data} selected={open} onOpen={setOpen} />
           </Panel>
           <Panel className="p-4">
-            {open === null ? <p className="text-sm text-ink-soft">Open an episode from the table or the chart to see its findings, plots and replay.</p> : <EpisodeView key={open} datasetId={dataset.id} index={open} canEdit={canEdit} unit="deg" onRepaired={() => void refresh()} caution={caution} />}
+            {open === null ? (
+              <p className="text-sm text-ink-soft">
+                Open an episode from the table or the chart to see its findings, plots and replay.
+              </p>
+            ) : (
+              <EpisodeView
+                key={open}
+                datasetId={dataset.id}
+                index={open}
+                canEdit={canEdit}
+                unit="deg"
+                onRepaired={() => void refresh()}
+                caution={caution}
+              />
+            )}
           </Panel>
         </div>
       ) : null}

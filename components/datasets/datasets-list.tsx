@@ -28,7 +28,19 @@ export function formatBytes(bytes: number): string {
   return `${bytes} B`;
 }
 
-export function DatasetsList({ projectId, projectName, canEdit, limitBytes, datasets }: { projectId: string; projectName: string; canEdit: boolean; limitBytes: number; datasets: DatasetListItem[] }) {
+export function DatasetsList({
+  projectId,
+  projectName,
+  canEdit,
+  limitBytes,
+  datasets,
+}: {
+  projectId: string;
+  projectName: string;
+  canEdit: boolean;
+  limitBytes: number;
+  datasets: DatasetListItem[];
+}) {
   const router = useRouter();
   const [file, setFile] = useState<File | null>(null);
   const [name, setName] = useState("");
@@ -44,7 +56,12 @@ export function DatasetsList({ projectId, projectName, canEdit, limitBytes, data
     setError(null);
     setProgress(0);
     try {
-      const dataset = await uploadDataset(projectId, file, name.trim() || file.name.replace(/\.(parquet|zip|csv)$/i, ""), setProgress);
+      const dataset = await uploadDataset(
+        projectId,
+        file,
+        name.trim() || file.name.replace(/\.(parquet|zip|csv)$/i, ""),
+        setProgress,
+      );
       router.push(`/projects/${projectId}/datasets/${dataset.id}`);
     } catch (err) {
       setProgress(null);
@@ -56,11 +73,14 @@ export function DatasetsList({ projectId, projectName, canEdit, limitBytes, data
     <div className="mx-auto flex max-w-5xl flex-col gap-4 p-4">
       <header className="flex flex-wrap items-baseline gap-3">
         <h1 className="text-lg font-semibold">Datasets</h1>
-        <Link href={`/projects/${projectId}`} className="text-sm text-brand-600 hover:underline">{projectName}</Link>
+        <Link href={`/projects/${projectId}`} className="text-sm text-brand-600 hover:underline">
+          {projectName}
+        </Link>
       </header>
       <p className="max-w-3xl text-sm text-ink-soft">
-        A dataset is many recorded episodes uploaded together: one Parquet file, a zip of Parquet or CSV files, or one CSV. Each episode is audited as a timed replay
-        (every frame reached in the time between frames) against the arm you choose, in the background.
+        A dataset is many recorded episodes uploaded together: one Parquet file, a zip of Parquet or CSV files, or one
+        CSV. Each episode is audited as a timed replay (every frame reached in the time between frames) against the arm
+        you choose, in the background.
       </p>
       {canEdit ? (
         <Panel className="flex flex-col gap-3 p-4" aria-label="Upload a dataset">
@@ -68,24 +88,52 @@ export function DatasetsList({ projectId, projectName, canEdit, limitBytes, data
           <div className="flex flex-wrap items-end gap-3">
             <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
               File (.parquet, .zip or .csv), up to {formatBytes(limitBytes)}
-              <input type="file" accept=".parquet,.zip,.csv" aria-label="Dataset file" className="text-sm text-ink" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+              <input
+                type="file"
+                accept=".parquet,.zip,.csv"
+                aria-label="Dataset file"
+                className="text-sm text-ink"
+                onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+              />
             </label>
-            <TextField label="Name" value={name} onChange={(e) => setName(e.target.value)} placeholder={file?.name ?? "Week 1 demonstrations"} maxLength={120} />
-            <Button variant="primary" disabled={!file || progress !== null} onClick={() => void upload()}>Upload</Button>
+            <TextField
+              label="Name"
+              value={name}
+              onChange={(e) => setName(e.target.value)}
+              placeholder={file?.name ?? "Week 1 demonstrations"}
+              maxLength={120}
+            />
+            <Button variant="primary" disabled={!file || progress !== null} onClick={() => void upload()}>
+              Upload
+            </Button>
           </div>
           {progress !== null ? (
             <div>
-              <div role="progressbar" aria-label="Uploading" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(progress * 100)} className="h-2 overflow-hidden rounded-full bg-line/60">
-                <div className="h-full bg-brand-500 transition-[width]" style={{ width: `${Math.round(progress * 100)}%` }} />
+              <div
+                role="progressbar"
+                aria-label="Uploading"
+                aria-valuemin={0}
+                aria-valuemax={100}
+                aria-valuenow={Math.round(progress * 100)}
+                className="h-2 overflow-hidden rounded-full bg-line/60"
+              >
+                <div
+                  className="h-full bg-brand-500 transition-[width]"
+                  style={{ width: `${Math.round(progress * 100)}%` }}
+                />
               </div>
-              <p className="tabular mt-1 text-[11px] text-ink-faint">{progress < 1 ? `Uploading… ${Math.round(progress * 100)}%` : "Stored; opening…"}</p>
+              <p className="tabular mt-1 text-[11px] text-ink-faint">
+                {progress < 1 ? `Uploading… ${Math.round(progress * 100)}%` : "Stored; opening…"}
+              </p>
             </div>
           ) : null}
           {error ? <ErrorNote title="The upload was refused">{error}</ErrorNote> : null}
         </Panel>
       ) : null}
       {datasets.length === 0 ? (
-        <EmptyState title="No datasets yet">{canEdit ? "Upload a Parquet file, a zip or a CSV above." : "An editor of this project can upload one."}</EmptyState>
+        <EmptyState title="No datasets yet">
+          {canEdit ? "Upload a Parquet file, a zip or a CSV above." : "An editor of this project can upload one."}
+        </EmptyState>
       ) : (
         <Table aria-label="Datasets">
           <thead>
@@ -100,7 +148,11 @@ export function DatasetsList({ projectId, projectName, canEdit, limitBytes, data
           <tbody>
             {datasets.map((d) => (
               <tr key={d.id} className="hover:bg-paper">
-                <Td><Link href={`/projects/${projectId}/datasets/${d.id}`} className="text-brand-600 hover:underline">{d.name}</Link></Td>
+                <Td>
+                  <Link href={`/projects/${projectId}/datasets/${d.id}`} className="text-brand-600 hover:underline">
+                    {d.name}
+                  </Link>
+                </Td>
                 <Td>{d.fileKind}</Td>
                 <Td numeric>{formatBytes(d.sizeBytes)}</Td>
                 <Td numeric>{d.episodeCount || "—"}</Td>

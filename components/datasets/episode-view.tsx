@@ -21,10 +21,19 @@ import { queryKeys } from "@/lib/client/query-keys";
 import type { AngleUnit } from "@/lib/shared/units";
 import { datasetApi, type EpisodeDto, type EpisodeFrames, type ReplayPlanDto } from "./dataset-api";
 
-const Stage = dynamic(() => import("@/components/viewer/stage"), { ssr: false, loading: () => <Skeleton className="h-full w-full rounded-none" /> });
+const Stage = dynamic(() => import("@/components/viewer/stage"), {
+  ssr: false,
+  loading: () => <Skeleton className="h-full w-full rounded-none" />,
+});
 
 function recordingOf(frames: EpisodeFrames, names: string[]): Recording {
-  return { names, jointCount: frames.jointCount, count: frames.count, timeS: Float64Array.from(frames.timeS), position: Float64Array.from(frames.position) };
+  return {
+    names,
+    jointCount: frames.jointCount,
+    count: frames.count,
+    timeS: Float64Array.from(frames.timeS),
+    position: Float64Array.from(frames.position),
+  };
 }
 
 /** The timed-replay findings in the shape the recording plot draws (a gap on every joint). */
@@ -57,7 +66,11 @@ function ReplayStage({ replay, arm }: { replay: ReplayPlanDto; arm: EpisodeDto["
         <StageErrorBoundary>
           <Stage chain={chain} joints={arm.joints} timeline={timeline} ghosts={[]} linkSeverity={[]} />
         </StageErrorBoundary>
-        {!arm.chain ? <span className="absolute top-2 left-2 rounded bg-caution-tint px-1.5 py-0.5 text-[11px] text-caution">Schematic: this arm has no geometry</span> : null}
+        {!arm.chain ? (
+          <span className="absolute top-2 left-2 rounded bg-caution-tint px-1.5 py-0.5 text-[11px] text-caution">
+            Schematic: this arm has no geometry
+          </span>
+        ) : null}
       </div>
       <PlayControls playhead={playhead} />
     </PlayheadContext.Provider>
@@ -68,22 +81,75 @@ function PlayControls({ playhead }: { playhead: Playhead }) {
   const { timeS, totalS, playing } = usePlayhead();
   return (
     <div className="flex items-center gap-2">
-      <Button size="sm" onClick={() => playhead.toggle()} aria-label={playing ? "Pause" : "Play the replay"}>{playing ? <PauseIcon size={14} /> : <PlayIcon size={14} />}</Button>
-      <input type="range" min={0} max={totalS} step={0.01} value={timeS} onChange={(e) => playhead.seek(Number(e.target.value))} aria-label="Replay time" className="flex-1" />
-      <span className="tabular w-28 text-right text-xs">{timeS.toFixed(2)} / {totalS.toFixed(2)} s</span>
+      <Button size="sm" onClick={() => playhead.toggle()} aria-label={playing ? "Pause" : "Play the replay"}>
+        {playing ? <PauseIcon size={14} /> : <PlayIcon size={14} />}
+      </Button>
+      <input
+        type="range"
+        min={0}
+        max={totalS}
+        step={0.01}
+        value={timeS}
+        onChange={(e) => playhead.seek(Number(e.target.value))}
+        aria-label="Replay time"
+        className="flex-1"
+      />
+      <span className="tabular w-28 text-right text-xs">
+        {timeS.toFixed(2)} / {totalS.toFixed(2)} s
+      </span>
     </div>
   );
 }
 
-export function EpisodeView({ datasetId, index, canEdit, unit, onRepaired, caution }: { datasetId: string; index: number; canEdit: boolean; unit: AngleUnit; onRepaired: () => void; caution: string }) {
+export function EpisodeView({
+  datasetId,
+  index,
+  canEdit,
+  unit,
+  onRepaired,
+  caution,
+}: {
+  datasetId: string;
+  index: number;
+  canEdit: boolean;
+  unit: AngleUnit;
+  onRepaired: () => void;
+  caution: string;
+}) {
   const [joint, setJoint] = useState(0);
   const [repairing, setRepairing] = useState(false);
   const [error, setError] = useState<string | null>(null);
-  const episode = useQuery({ queryKey: queryKeys.datasetEpisode(datasetId, index), queryFn: () => datasetApi.episode(datasetId, index) });
-  const replay = useQuery({ queryKey: [...queryKeys.datasetEpisode(datasetId, index), "replay-plan"], queryFn: () => datasetApi.replayPlan(datasetId, index), enabled: episode.data?.episode.verdict !== "invalid" && episode.isSuccess, retry: false });
+  const episode = useQuery({
+    queryKey: queryKeys.datasetEpisode(datasetId, index),
+    queryFn: () => datasetApi.episode(datasetId, index),
+  });
+  const replay = useQuery({
+    queryKey: [...queryKeys.datasetEpisode(datasetId, index), "replay-plan"],
+    queryFn: () => datasetApi.replayPlan(datasetId, index),
+    enabled: episode.data?.episode.verdict !== "invalid" && episode.isSuccess,
+    retry: false,
+  });
   const data = episode.data;
-  const original = useMemo(() => (data ? recordingOf(data.recorded, data.arm.joints.map((j) => j.name)) : null), [data]);
-  const repaired = useMemo(() => (data?.repaired ? recordingOf(data.repaired, data.arm.joints.map((j) => j.name)) : null), [data]);
+  const original = useMemo(
+    () =>
+      data
+        ? recordingOf(
+            data.recorded,
+            data.arm.joints.map((j) => j.name),
+          )
+        : null,
+    [data],
+  );
+  const repaired = useMemo(
+    () =>
+      data?.repaired
+        ? recordingOf(
+            data.repaired,
+            data.arm.joints.map((j) => j.name),
+          )
+        : null,
+    [data],
+  );
   if (episode.isPending) return <Skeleton className="h-64 w-full" />;
   if (episode.isError) return <ErrorNote>{episode.error.message}</ErrorNote>;
   const { episode: audit, arm } = episode.data;
@@ -106,7 +172,9 @@ export function EpisodeView({ datasetId, index, canEdit, unit, onRepaired, cauti
 
   const downloadPlan = () => {
     if (!replay.data) return;
-    const blob = new Blob([JSON.stringify({ ...replay.data.plan, caution: replay.data.caution }, null, 2) + "\n"], { type: "application/json" });
+    const blob = new Blob([JSON.stringify({ ...replay.data.plan, caution: replay.data.caution }, null, 2) + "\n"], {
+      type: "application/json",
+    });
     const a = document.createElement("a");
     a.href = URL.createObjectURL(blob);
     a.download = `episode-${index + 1}-replay-plan.json`;
@@ -117,22 +185,53 @@ export function EpisodeView({ datasetId, index, canEdit, unit, onRepaired, cauti
   return (
     <section aria-label={`Episode ${index + 1}`} className="flex flex-col gap-3" data-testid="episode-view">
       <header className="flex flex-wrap items-center gap-2">
-        <h2 className="text-sm font-semibold">Episode {index + 1} <span className="font-mono text-xs text-ink-soft">{audit.episode}</span></h2>
-        {audit.verdict === "invalid" ? <span className="text-xs text-ink-soft">⊘ Not checked</span> : <VerdictChip verdict={audit.verdict} />}
-        <span className="text-xs text-ink-soft">timed replay · {audit.samples} frames · {audit.durationS.toFixed(2)} s</span>
-        {audit.repairedVerdict ? <span className="flex items-center gap-1 text-xs text-ink-soft">repaired: {audit.repairedVerdict === "invalid" ? "not checked" : <VerdictChip verdict={audit.repairedVerdict as "pass" | "caution" | "fault"} size="sm" />}</span> : null}
+        <h2 className="text-sm font-semibold">
+          Episode {index + 1} <span className="font-mono text-xs text-ink-soft">{audit.episode}</span>
+        </h2>
+        {audit.verdict === "invalid" ? (
+          <span className="text-xs text-ink-soft">⊘ Not checked</span>
+        ) : (
+          <VerdictChip verdict={audit.verdict} />
+        )}
+        <span className="text-xs text-ink-soft">
+          timed replay · {audit.samples} frames · {audit.durationS.toFixed(2)} s
+        </span>
+        {audit.repairedVerdict ? (
+          <span className="flex items-center gap-1 text-xs text-ink-soft">
+            repaired:{" "}
+            {audit.repairedVerdict === "invalid" ? (
+              "not checked"
+            ) : (
+              <VerdictChip verdict={audit.repairedVerdict as "pass" | "caution" | "fault"} size="sm" />
+            )}
+          </span>
+        ) : null}
         <span className="flex-1" />
-        {canEdit && audit.verdict !== "invalid" && audit.findingCount > 0 ? <Button size="sm" variant="primary" disabled={repairing} onClick={() => void repair()}>{repairing ? "Repairing…" : "Repair this episode"}</Button> : null}
-        <Button size="sm" disabled={!replay.data} onClick={downloadPlan}>Download replay plan</Button>
+        {canEdit && audit.verdict !== "invalid" && audit.findingCount > 0 ? (
+          <Button size="sm" variant="primary" disabled={repairing} onClick={() => void repair()}>
+            {repairing ? "Repairing…" : "Repair this episode"}
+          </Button>
+        ) : null}
+        <Button size="sm" disabled={!replay.data} onClick={downloadPlan}>
+          Download replay plan
+        </Button>
       </header>
       {error ? <ErrorNote>{error}</ErrorNote> : null}
       {audit.problems.length > 0 ? (
         <ErrorNote title="This episode could not be checked">
-          <ul className="text-xs">{audit.problems.map((p, i) => <li key={i}>{p}</li>)}</ul>
+          <ul className="text-xs">
+            {audit.problems.map((p, i) => (
+              <li key={i}>{p}</li>
+            ))}
+          </ul>
         </ErrorNote>
       ) : null}
       {audit.findings.length > 0 ? (
-        <ol className="flex max-h-40 flex-col gap-1 overflow-auto text-xs" aria-label="Findings" data-testid="episode-findings">
+        <ol
+          className="flex max-h-40 flex-col gap-1 overflow-auto text-xs"
+          aria-label="Findings"
+          data-testid="episode-findings"
+        >
           {audit.findings.map((f, i) => (
             <li key={i} className="flex gap-2">
               <VerdictChip verdict={f.severity} size="sm" />
@@ -141,35 +240,61 @@ export function EpisodeView({ datasetId, index, canEdit, unit, onRepaired, cauti
             </li>
           ))}
         </ol>
-      ) : audit.verdict !== "invalid" ? <p className="text-xs text-ink-soft">No findings: every frame is within travel and reachable in the time between frames.</p> : null}
+      ) : audit.verdict !== "invalid" ? (
+        <p className="text-xs text-ink-soft">
+          No findings: every frame is within travel and reachable in the time between frames.
+        </p>
+      ) : null}
       {original && audit.verdict !== "invalid" ? (
         <>
           <div role="group" aria-label="Joint to plot" className="flex flex-wrap gap-1">
             {arm.joints.map((j, i) => {
               const count = audit.findings.filter((f) => f.joint === i).length;
               return (
-                <button key={j.name} type="button" aria-pressed={joint === i} onClick={() => setJoint(i)}
-                  className={joint === i ? "rounded-full bg-brand-600 px-2 py-0.5 text-xs text-white" : "rounded-full border border-line px-2 py-0.5 text-xs text-ink-soft hover:text-ink"}>
-                  {j.name}{count ? ` · ${count}` : ""}
+                <button
+                  key={j.name}
+                  type="button"
+                  aria-pressed={joint === i}
+                  onClick={() => setJoint(i)}
+                  className={
+                    joint === i
+                      ? "rounded-full bg-brand-600 px-2 py-0.5 text-xs text-white"
+                      : "rounded-full border border-line px-2 py-0.5 text-xs text-ink-soft hover:text-ink"
+                  }
+                >
+                  {j.name}
+                  {count ? ` · ${count}` : ""}
                 </button>
               );
             })}
           </div>
           <div data-testid="episode-plot">
-            <RecordingPlot original={original} repaired={repaired} joint={joint} jointInfo={arm.joints[joint]} findings={findings} unit={unit} />
+            <RecordingPlot
+              original={original}
+              repaired={repaired}
+              joint={joint}
+              jointInfo={arm.joints[joint]}
+              findings={findings}
+              unit={unit}
+            />
           </div>
         </>
       ) : null}
       {replay.data ? (
         <div className="flex flex-col gap-2">
           <p className="text-xs text-ink-soft">
-            Replay plan{replay.data.repaired ? " (repaired episode)" : ""}: ease in from rest over {replay.data.easeInS} s, the episode, ease out over {replay.data.easeOutS} s;
-            plan check <VerdictChip verdict={replay.data.report.verdict} size="sm" />.
+            Replay plan{replay.data.repaired ? " (repaired episode)" : ""}: ease in from rest over {replay.data.easeInS}{" "}
+            s, the episode, ease out over {replay.data.easeOutS} s; plan check{" "}
+            <VerdictChip verdict={replay.data.report.verdict} size="sm" />.
           </p>
           <ReplayStage replay={replay.data} arm={arm} />
-          <p className="text-[11px] text-ink-faint" data-testid="replay-caution">{caution}</p>
+          <p className="text-[11px] text-ink-faint" data-testid="replay-caution">
+            {caution}
+          </p>
         </div>
-      ) : replay.isError ? <EmptyState title="No replay plan">{replay.error.message}</EmptyState> : null}
+      ) : replay.isError ? (
+        <EmptyState title="No replay plan">{replay.error.message}</EmptyState>
+      ) : null}
     </section>
   );
 }

@@ -14,12 +14,23 @@ export function TimedReplayPanel({ arm, recording, name }: { arm: Arm; recording
     <section aria-label="Timed replay" className="flex flex-col gap-2" data-testid="timed-replay">
       <div className="flex items-center gap-2">
         <h2 className="text-sm font-semibold">Timed replay</h2>
-        {audit.verdict === "invalid" ? <span className="text-xs text-ink-soft">⊘ Not checked</span> : <VerdictChip verdict={audit.verdict} />}
+        {audit.verdict === "invalid" ? (
+          <span className="text-xs text-ink-soft">⊘ Not checked</span>
+        ) : (
+          <VerdictChip verdict={audit.verdict} />
+        )}
       </div>
       <p className="text-xs text-ink-soft">
-        A different check from the stream check above: each sample reached in the time between samples (as a dataset episode is audited), not streamed as instant moves.
+        A different check from the stream check above: each sample reached in the time between samples (as a dataset
+        episode is audited), not streamed as instant moves.
       </p>
-      {audit.problems.length > 0 ? <ul className="text-xs">{audit.problems.map((p, i) => <li key={i}>{p}</li>)}</ul> : null}
+      {audit.problems.length > 0 ? (
+        <ul className="text-xs">
+          {audit.problems.map((p, i) => (
+            <li key={i}>{p}</li>
+          ))}
+        </ul>
+      ) : null}
       {audit.findings.length > 0 ? (
         <ol className="flex max-h-40 flex-col gap-1 overflow-auto text-xs">
           {audit.findings.slice(0, 100).map((f, i) => (
@@ -28,9 +39,13 @@ export function TimedReplayPanel({ arm, recording, name }: { arm: Arm; recording
               <span>{f.message}</span>
             </li>
           ))}
-          {audit.findings.length > 100 ? <li className="text-ink-faint">… and {audit.findings.length - 100} more</li> : null}
+          {audit.findings.length > 100 ? (
+            <li className="text-ink-faint">… and {audit.findings.length - 100} more</li>
+          ) : null}
         </ol>
-      ) : audit.verdict === "pass" ? <p className="text-xs text-ink-soft">No findings.</p> : null}
+      ) : audit.verdict === "pass" ? (
+        <p className="text-xs text-ink-soft">No findings.</p>
+      ) : null}
     </section>
   );
 }

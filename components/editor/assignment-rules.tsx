@@ -23,12 +23,18 @@ export function assignmentArm(assignment: BenchAssignment): (arm: Arm) => Arm {
 }
 
 /** One line per limit, in words: "course limit: 70% of maximum speed". */
-export function limitLines(owner: "course" | "assignment", limits: Limits | null | undefined, joints: readonly Joint[], unit: AngleUnit): string[] {
+export function limitLines(
+  owner: "course" | "assignment",
+  limits: Limits | null | undefined,
+  joints: readonly Joint[],
+  unit: AngleUnit,
+): string[] {
   if (!limits) return [];
   const out: string[] = [];
   const percent = (r: number) => `${Number((r * 100).toPrecision(4))}%`;
   if (limits.velocityScale !== undefined) out.push(`${owner} limit: ${percent(limits.velocityScale)} of maximum speed`);
-  if (limits.accelerationScale !== undefined) out.push(`${owner} limit: ${percent(limits.accelerationScale)} of maximum acceleration`);
+  if (limits.accelerationScale !== undefined)
+    out.push(`${owner} limit: ${percent(limits.accelerationScale)} of maximum acceleration`);
   for (const cap of limits.joints ?? []) {
     const joint = joints[cap.joint];
     if (!joint) continue;
@@ -38,8 +44,10 @@ export function limitLines(owner: "course" | "assignment", limits: Limits | null
       const hi = cap.max === undefined ? "its maximum" : formatJointValue(cap.max, joint.type, unit);
       parts.push(`travel ${lo} to ${hi}`);
     }
-    if (cap.maxVelocity !== undefined) parts.push(`speed at most ${formatJointValue(cap.maxVelocity, joint.type, unit, "velocity")}`);
-    if (cap.maxAcceleration !== undefined) parts.push(`acceleration at most ${formatJointValue(cap.maxAcceleration, joint.type, unit, "acceleration")}`);
+    if (cap.maxVelocity !== undefined)
+      parts.push(`speed at most ${formatJointValue(cap.maxVelocity, joint.type, unit, "velocity")}`);
+    if (cap.maxAcceleration !== undefined)
+      parts.push(`acceleration at most ${formatJointValue(cap.maxAcceleration, joint.type, unit, "acceleration")}`);
     if (parts.length > 0) out.push(`${owner} limit for ${joint.name}: ${parts.join(", ")}`);
   }
   return out;
@@ -48,8 +56,10 @@ export function limitLines(owner: "course" | "assignment", limits: Limits | null
 /** The pose tolerance with its units: radians and degrees for revolute joints, millimetres for prismatic ones. */
 export function toleranceText(tolerance: number, joints: readonly Joint[]): string {
   const parts: string[] = [];
-  if (joints.some((j) => j.type === "revolute")) parts.push(`±${Number(((tolerance * 180) / Math.PI).toPrecision(3))}° (${tolerance} rad) on revolute joints`);
-  if (joints.some((j) => j.type === "prismatic")) parts.push(`±${Number((tolerance * 1000).toPrecision(3))} mm on prismatic joints`);
+  if (joints.some((j) => j.type === "revolute"))
+    parts.push(`±${Number(((tolerance * 180) / Math.PI).toPrecision(3))}° (${tolerance} rad) on revolute joints`);
+  if (joints.some((j) => j.type === "prismatic"))
+    parts.push(`±${Number((tolerance * 1000).toPrecision(3))} mm on prismatic joints`);
   return parts.join(", ");
 }
 
@@ -58,12 +68,29 @@ export function toleranceText(tolerance: number, joints: readonly Joint[]): stri
  * code the server runs at submission), the required poses with their tolerance and which ones the
  * plan meets, and the other rules the plan breaks.
  */
-export function AssignmentRulesPanel({ assignment, plan, unit }: { assignment: BenchAssignment; plan: BenchPlan; unit: AngleUnit }) {
+export function AssignmentRulesPanel({
+  assignment,
+  plan,
+  unit,
+}: {
+  assignment: BenchAssignment;
+  plan: BenchPlan;
+  unit: AngleUnit;
+}) {
   const { rules } = assignment;
   const joints = plan.arm.joints;
-  const lines = [...limitLines("course", rules.courseLimits, joints, unit), ...limitLines("assignment", rules.limits, joints, unit)];
+  const lines = [
+    ...limitLines("course", rules.courseLimits, joints, unit),
+    ...limitLines("assignment", rules.limits, joints, unit),
+  ];
   const status = useMemo(() => requiredPoseStatus(plan, rules), [plan, rules]);
-  const problems = useMemo(() => ruleProblems(plan, assignment.armRevisionId, rules).filter((p) => p.rule !== "goal-pose" && p.rule !== "start-pose"), [plan, assignment.armRevisionId, rules]);
+  const problems = useMemo(
+    () =>
+      ruleProblems(plan, assignment.armRevisionId, rules).filter(
+        (p) => p.rule !== "goal-pose" && p.rule !== "start-pose",
+      ),
+    [plan, assignment.armRevisionId, rules],
+  );
   const poses: { label: string; met: boolean }[] = [
     ...(status.start === null ? [] : [{ label: "Start pose", met: status.start }]),
     ...status.goals.map((met, k) => ({ label: `Goal pose ${k + 1} (in order)`, met })),
@@ -73,13 +100,18 @@ export function AssignmentRulesPanel({ assignment, plan, unit }: { assignment: B
       <RailHeading>Assignment</RailHeading>
       <div className="flex flex-col gap-2 px-3 pb-3 text-xs">
         <p>
-          <span className="font-semibold">{assignment.title}</span> <span className="text-ink-soft">· {assignment.courseTitle}</span>
+          <span className="font-semibold">{assignment.title}</span>{" "}
+          <span className="text-ink-soft">· {assignment.courseTitle}</span>
         </p>
-        <p className="text-ink-soft">This bench checks the plan against the course&apos;s limits, with the same rules as the check at submission.</p>
+        <p className="text-ink-soft">
+          This bench checks the plan against the course&apos;s limits, with the same rules as the check at submission.
+        </p>
         {lines.length > 0 ? (
           <ul className="flex flex-col gap-0.5" aria-label="Limits the check uses">
             {lines.map((line) => (
-              <li key={line} className="tabular font-mono text-[11px]">{line}</li>
+              <li key={line} className="tabular font-mono text-[11px]">
+                {line}
+              </li>
             ))}
           </ul>
         ) : (
@@ -91,7 +123,11 @@ export function AssignmentRulesPanel({ assignment, plan, unit }: { assignment: B
             <ul className="mt-1 flex flex-col gap-0.5" aria-label="Required poses">
               {poses.map((p) => (
                 <li key={p.label} className="flex items-center gap-1.5" data-met={p.met}>
-                  {p.met ? <PassIcon size={12} className="text-pass" /> : <CautionIcon size={12} className="text-caution" />}
+                  {p.met ? (
+                    <PassIcon size={12} className="text-pass" />
+                  ) : (
+                    <CautionIcon size={12} className="text-caution" />
+                  )}
                   <span>{p.label}:</span>
                   <span className={p.met ? "text-pass" : "text-caution"}>{p.met ? "met" : "not met yet"}</span>
                 </li>
@@ -100,7 +136,9 @@ export function AssignmentRulesPanel({ assignment, plan, unit }: { assignment: B
           </div>
         ) : null}
         {problems.map((p) => (
-          <p key={p.rule} role="alert" className="text-fault">{p.message}</p>
+          <p key={p.rule} role="alert" className="text-fault">
+            {p.message}
+          </p>
         ))}
       </div>
     </section>

@@ -68,7 +68,23 @@ export interface BenchProps {
  */
 export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange, checkArm, aside }: BenchProps) {
   const state = useBenchState(initialPlan, { onPlanChange, checkArm });
-  const { plan, checked, dispatch, selected, selectTarget, unit, setUnit, playhead, live, full, report, fixes, status, deferred, effort } = state;
+  const {
+    plan,
+    checked,
+    dispatch,
+    selected,
+    selectTarget,
+    unit,
+    setUnit,
+    playhead,
+    live,
+    full,
+    report,
+    fixes,
+    status,
+    deferred,
+    effort,
+  } = state;
   const replace = useCallback((p: BenchPlan) => dispatch({ type: "replace", plan: p }), [dispatch]);
 
   const selectedMove = selected === "start" ? null : plan.moves[selected];
@@ -86,7 +102,9 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
       <div className="flex flex-col xl:h-[calc(100vh-3.5rem)] xl:min-h-[640px]">
         <header className="flex flex-wrap items-center gap-x-4 gap-y-1 border-b border-line bg-panel px-4 py-2">
           <div className="min-w-0">
-            <h1 className="truncate text-base font-semibold" data-testid="plan-name">{meta.planName}</h1>
+            <h1 className="truncate text-base font-semibold" data-testid="plan-name">
+              {meta.planName}
+            </h1>
             <p className="tabular truncate text-xs text-ink-soft">
               {meta.armName}
               {meta.armRevision ? ` · arm revision ${meta.armRevision}` : ""}
@@ -102,13 +120,23 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
         {/* 1280 px and up: three rails side by side; a tablet (1024 px): a 400 px outline left, stage, plots and findings stacked right */}
         <div className="grid min-h-0 flex-1 grid-cols-1 md:grid-cols-[minmax(340px,40%)_1fr] lg:grid-cols-[400px_1fr] xl:grid-cols-[minmax(330px,370px)_1fr_minmax(260px,310px)]">
           {/* left rail: plan outline and the selected pose */}
-          <aside aria-label="Plan outline" className="flex min-h-0 flex-col overflow-y-auto border-r border-line bg-panel md:row-span-2 xl:row-span-1">
-            {planId ? <PlanReviewComments planId={planId} joints={state.jointNames} onJump={state.jumpToComment} /> : null}
+          <aside
+            aria-label="Plan outline"
+            className="flex min-h-0 flex-col overflow-y-auto border-r border-line bg-panel md:row-span-2 xl:row-span-1"
+          >
+            {planId ? (
+              <PlanReviewComments planId={planId} joints={state.jointNames} onJump={state.jumpToComment} />
+            ) : null}
             {aside ? aside(actionState) : null}
             <RailHeading
               action={
                 planFix ? (
-                  <Button size="sm" variant="secondary" title="Every move's duration times one factor; the checked copy of the plan has no fault" onClick={() => state.applyFix(planFix)}>
+                  <Button
+                    size="sm"
+                    variant="secondary"
+                    title="Every move's duration times one factor; the checked copy of the plan has no fault"
+                    onClick={() => state.applyFix(planFix)}
+                  >
                     Scale to pass <span className="tabular font-mono">×{(planFix.factor ?? 1).toFixed(3)}</span>
                   </Button>
                 ) : null
@@ -150,7 +178,12 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
                 currentLabel={<CurrentTime />}
               >
                 {plan.arm.chain ? (
-                  <CartesianGoal chain={plan.arm.chain} joints={plan.arm.joints} seed={poseOf(plan, selected)} onSolved={(pose) => dispatch({ type: "set-pose", target: selected, pose })} />
+                  <CartesianGoal
+                    chain={plan.arm.chain}
+                    joints={plan.arm.joints}
+                    seed={poseOf(plan, selected)}
+                    onSolved={(pose) => dispatch({ type: "set-pose", target: selected, pose })}
+                  />
                 ) : null}
               </PoseEditor>
               {selectedMove && selectedReport && selectedMove.duration > 0 ? (
@@ -170,25 +203,49 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
 
           {/* centre: the stage and the timeline strip */}
           <section aria-label="Stage and timeline" className="flex min-h-0 min-w-0 flex-col overflow-y-auto">
-            <div className="relative h-[min(380px,48vh)] shrink-0 bg-[#f3f1ea] xl:h-auto xl:min-h-[260px] xl:flex-1 xl:shrink" data-testid="stage">
+            <div
+              className="relative h-[min(380px,48vh)] shrink-0 bg-[#f3f1ea] xl:h-auto xl:min-h-[260px] xl:flex-1 xl:shrink"
+              data-testid="stage"
+            >
               {state.canRender3d === false ? (
-                <div role="alert" className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft">
+                <div
+                  role="alert"
+                  className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft"
+                >
                   This browser offers no WebGL, so the 3D view is off. The moves, findings and plots still work.
                 </div>
               ) : state.canRender3d ? (
                 <StageErrorBoundary>
-                  <Stage chain={state.chain} joints={plan.arm.joints} timeline={deferred.timeline} ghosts={state.ghosts} linkSeverity={state.linkSeverity} keepOut={plan.keepOut} />
+                  <Stage
+                    chain={state.chain}
+                    joints={plan.arm.joints}
+                    timeline={deferred.timeline}
+                    ghosts={state.ghosts}
+                    linkSeverity={state.linkSeverity}
+                    keepOut={plan.keepOut}
+                  />
                 </StageErrorBoundary>
               ) : (
                 <Skeleton className="h-full w-full rounded-none" />
               )}
               <div className="pointer-events-none absolute top-2 left-2 flex flex-col gap-1 text-[11px] text-ink-soft">
                 <span className="rounded bg-panel/85 px-1.5 py-0.5">
-                  <span className="mr-1 inline-block h-2 w-2 rounded-full bg-brand-500/40 align-middle" />start ghost
-                  {selected !== "start" ? <><span className="mr-1 ml-2 inline-block h-2 w-2 rounded-full bg-[#6d4bc3]/40 align-middle" />goal ghost</> : null}
-                  <span className="mr-1 ml-2 inline-block h-0.5 w-3 bg-copper-500 align-middle" />tool path
+                  <span className="mr-1 inline-block h-2 w-2 rounded-full bg-brand-500/40 align-middle" />
+                  start ghost
+                  {selected !== "start" ? (
+                    <>
+                      <span className="mr-1 ml-2 inline-block h-2 w-2 rounded-full bg-[#6d4bc3]/40 align-middle" />
+                      goal ghost
+                    </>
+                  ) : null}
+                  <span className="mr-1 ml-2 inline-block h-0.5 w-3 bg-copper-500 align-middle" />
+                  tool path
                 </span>
-                {state.schematic ? <span className="rounded bg-caution-tint px-1.5 py-0.5 text-caution">Schematic arm: this arm has no geometry, so clearance is not checked.</span> : null}
+                {state.schematic ? (
+                  <span className="rounded bg-caution-tint px-1.5 py-0.5 text-caution">
+                    Schematic arm: this arm has no geometry, so clearance is not checked.
+                  </span>
+                ) : null}
               </div>
             </div>
             <Transport />
@@ -208,16 +265,29 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
           </section>
 
           {/* right rail: findings */}
-          <aside aria-label="Findings" className="flex min-h-0 flex-col border-t border-line bg-paper md:col-start-2 xl:col-start-3 xl:border-t-0 xl:border-l">
+          <aside
+            aria-label="Findings"
+            className="flex min-h-0 flex-col border-t border-line bg-paper md:col-start-2 xl:col-start-3 xl:border-t-0 xl:border-l"
+          >
             <FindingsPanel
-              verdict={status.kind === "checked" ? status.verdict : status.kind !== "empty" && status.faultSoFar ? "fault" : null}
+              verdict={
+                status.kind === "checked"
+                  ? status.verdict
+                  : status.kind !== "empty" && status.faultSoFar
+                    ? "fault"
+                    : null
+              }
               summary={summary}
               items={state.items}
               joints={checked.arm.joints}
               onJump={state.jump}
               className="min-h-0 flex-1"
             />
-            <p suppressHydrationWarning data-testid="check-status" className="tabular border-t border-line px-3 py-1.5 text-[10px] text-ink-faint">
+            <p
+              suppressHydrationWarning
+              data-testid="check-status"
+              className="tabular border-t border-line px-3 py-1.5 text-[10px] text-ink-faint"
+            >
               {full.error
                 ? `Arm-model checks failed: ${full.error}`
                 : full.report
@@ -249,8 +319,10 @@ function statusChip(status: BenchStatus, findings: number): ReactNode {
 /** The findings rail's line under its heading, when the count of findings would not be the whole truth. */
 function findingsSummary(status: BenchStatus, schematic: boolean): string | undefined {
   if (status.kind === "empty") return "No moves yet: the arm holds its start pose. Add a move to check a motion.";
-  if (status.kind === "checking" && !status.faultSoFar) return "Joint checks found no fault; effort, clearance and tool speed are still being checked.";
-  if (status.kind === "unchecked") return `The arm-model checks did not run (${status.error}), so this plan is not fully checked.`;
+  if (status.kind === "checking" && !status.faultSoFar)
+    return "Joint checks found no fault; effort, clearance and tool speed are still being checked.";
+  if (status.kind === "unchecked")
+    return `The arm-model checks did not run (${status.error}), so this plan is not fully checked.`;
   if (status.kind === "checked" && status.verdict === "pass" && schematic) {
     return "No findings in the joint checks. This arm has no geometry, so effort, clearance and tool speed are not checked.";
   }

@@ -18,7 +18,14 @@ export interface CartesianGoalProps {
  * the point, it says so and how far the closest pose stays away.
  */
 export function CartesianGoal({ chain, joints, seed, onSolved }: CartesianGoalProps) {
-  const compiled = useMemo(() => compileChain(chain, joints.map((j) => j.type)), [chain, joints]);
+  const compiled = useMemo(
+    () =>
+      compileChain(
+        chain,
+        joints.map((j) => j.type),
+      ),
+    [chain, joints],
+  );
   const here = useMemo(() => {
     const t = forwardKinematics(compiled, seed, createChainBuffers(compiled));
     return [t[12] * 1000, t[13] * 1000, t[14] * 1000];
@@ -28,15 +35,22 @@ export function CartesianGoal({ chain, joints, seed, onSolved }: CartesianGoalPr
   const xyz = target ?? here;
 
   const solve = () => {
-    const result = solveIk(compiled, { position: [xyz[0] / 1000, xyz[1] / 1000, xyz[2] / 1000] }, {
-      seed,
-      lower: joints.map((j) => j.min),
-      upper: joints.map((j) => j.max),
-    });
+    const result = solveIk(
+      compiled,
+      { position: [xyz[0] / 1000, xyz[1] / 1000, xyz[2] / 1000] },
+      {
+        seed,
+        lower: joints.map((j) => j.min),
+        upper: joints.map((j) => j.max),
+      },
+    );
     if (result.reachable) {
       onSolved(result.pose.slice(0, joints.length).concat(seed.slice(result.pose.length)));
       setTarget(null);
-      setMessage({ ok: true, text: `Solved: the tool point is within ${(result.positionErrorM * 1000).toFixed(2)} mm of the target.` });
+      setMessage({
+        ok: true,
+        text: `Solved: the tool point is within ${(result.positionErrorM * 1000).toFixed(2)} mm of the target.`,
+      });
     } else {
       setMessage({
         ok: false,
@@ -64,10 +78,14 @@ export function CartesianGoal({ chain, joints, seed, onSolved }: CartesianGoalPr
             />
           </label>
         ))}
-        <Button size="sm" onClick={solve} className="h-8">Solve</Button>
+        <Button size="sm" onClick={solve} className="h-8">
+          Solve
+        </Button>
       </div>
       {message ? (
-        <p role="status" className={message.ok ? "mt-1.5 text-[11px] text-pass" : "mt-1.5 text-[11px] text-fault"}>{message.text}</p>
+        <p role="status" className={message.ok ? "mt-1.5 text-[11px] text-pass" : "mt-1.5 text-[11px] text-fault"}>
+          {message.text}
+        </p>
       ) : null}
     </fieldset>
   );

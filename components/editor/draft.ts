@@ -25,7 +25,13 @@ export function draftKey(planId: string, baseVersion: number): string {
 }
 
 /** Keeps the plan as the draft of (planId, baseVersion); a full or refused storage is not an error. */
-export function keepDraft(store: DraftStore, planId: string, baseVersion: number, plan: BenchPlan, now = new Date()): boolean {
+export function keepDraft(
+  store: DraftStore,
+  planId: string,
+  baseVersion: number,
+  plan: BenchPlan,
+  now = new Date(),
+): boolean {
   try {
     store.setItem(draftKey(planId, baseVersion), JSON.stringify({ savedAt: now.toISOString(), plan }));
     return true;

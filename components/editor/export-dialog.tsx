@@ -16,12 +16,17 @@ export function exportFileName(planName: string, version: number, format: "json"
 /** The safety caution, shown before anything leaves Jointproof. */
 export function SafetyCaution() {
   return (
-    <section aria-label="Safety caution" className="rounded-md border border-caution/40 bg-caution-tint p-3 text-caution">
+    <section
+      aria-label="Safety caution"
+      className="rounded-md border border-caution/40 bg-caution-tint p-3 text-caution"
+    >
       <p className="flex items-start gap-2 font-semibold">
         <CautionIcon size={16} className="mt-0.5 shrink-0" /> {SAFETY_SHORT}
       </p>
       <ul className="mt-2 list-disc space-y-0.5 pl-6 text-xs leading-relaxed text-ink">
-        {SAFETY_POINTS.map((p) => <li key={p}>{p}</li>)}
+        {SAFETY_POINTS.map((p) => (
+          <li key={p}>{p}</li>
+        ))}
       </ul>
     </section>
   );
@@ -31,7 +36,14 @@ export function SafetyCaution() {
  * Export of a saved version: the safety caution first (acknowledged before any link works), then JSON
  * or CSV of the checked, sampled waypoint list at a chosen rate, and the command that verifies it.
  */
-export function ExportDialog({ planId, planName, version, dirty, controlRateHz, onClose }: {
+export function ExportDialog({
+  planId,
+  planName,
+  version,
+  dirty,
+  controlRateHz,
+  onClose,
+}: {
   planId: string;
   planName: string;
   version: number;
@@ -43,13 +55,26 @@ export function ExportDialog({ planId, planName, version, dirty, controlRateHz, 
   const [rateHz, setRateHz] = useState(controlRateHz);
   const [copied, setCopied] = useState(false);
   const command = `bin/jointproof check ${exportFileName(planName, version, "json")}`;
-  const rates = [...new Set([controlRateHz, 500, 250, 100, 50])].filter((r) => r <= controlRateHz).sort((a, b) => b - a);
+  const rates = [...new Set([controlRateHz, 500, 250, 100, 50])]
+    .filter((r) => r <= controlRateHz)
+    .sort((a, b) => b - a);
   return (
-    <Dialog open title={`Export version ${version}`} onClose={onClose} actions={<Button onClick={onClose}>Close</Button>} className="max-w-xl">
+    <Dialog
+      open
+      title={`Export version ${version}`}
+      onClose={onClose}
+      actions={<Button onClick={onClose}>Close</Button>}
+      className="max-w-xl"
+    >
       <div className="flex flex-col gap-3">
         <SafetyCaution />
         <label className="flex items-start gap-2 text-sm">
-          <input type="checkbox" checked={ack} onChange={(e) => setAck(e.target.checked)} className="mt-1 accent-brand-600" />
+          <input
+            type="checkbox"
+            checked={ack}
+            onChange={(e) => setAck(e.target.checked)}
+            className="mt-1 accent-brand-600"
+          />
           <span>I have read the caution; this export is a prediction to verify on the arm at reduced speed.</span>
         </label>
         {dirty ? (
@@ -57,33 +82,57 @@ export function ExportDialog({ planId, planName, version, dirty, controlRateHz, 
             You have unsaved edits. The export is version {version} as saved; save a new version to export your edits.
           </p>
         ) : null}
-        <SelectField label="Waypoint rate" value={rateHz} onChange={(e) => setRateHz(Number(e.target.value))} hint="The control rate gives one waypoint per controller cycle.">
-          {rates.map((r) => <option key={r} value={r}>{r} Hz{r === controlRateHz ? " (control rate)" : ""}</option>)}
+        <SelectField
+          label="Waypoint rate"
+          value={rateHz}
+          onChange={(e) => setRateHz(Number(e.target.value))}
+          hint="The control rate gives one waypoint per controller cycle."
+        >
+          {rates.map((r) => (
+            <option key={r} value={r}>
+              {r} Hz{r === controlRateHz ? " (control rate)" : ""}
+            </option>
+          ))}
         </SelectField>
         <div className="flex flex-wrap gap-2" aria-disabled={!ack}>
           {(["json", "csv"] as const).map((format) =>
             ack ? (
-              <a key={format} href={api.exportUrl(planId, version, format, rateHz)} download={exportFileName(planName, version, format)}
-                className="inline-flex h-9 items-center rounded-md bg-brand-600 px-3.5 text-sm font-medium text-white hover:bg-brand-700">
+              <a
+                key={format}
+                href={api.exportUrl(planId, version, format, rateHz)}
+                download={exportFileName(planName, version, format)}
+                className="inline-flex h-9 items-center rounded-md bg-brand-600 px-3.5 text-sm font-medium text-white hover:bg-brand-700"
+              >
                 Download {format.toUpperCase()}
               </a>
             ) : (
-              <Button key={format} variant="primary" disabled>Download {format.toUpperCase()}</Button>
+              <Button key={format} variant="primary" disabled>
+                Download {format.toUpperCase()}
+              </Button>
             ),
           )}
         </div>
         <div>
           <p className="text-xs font-medium text-ink-soft">Verify the download with the command-line checker</p>
           <div className="mt-1 flex items-center gap-2">
-            <code className="flex-1 truncate rounded-md border border-line bg-paper px-2 py-1.5 font-mono text-xs" data-testid="check-command">{command}</code>
-            <Button size="sm" disabled={!ack} onClick={async () => {
-              try {
-                await navigator.clipboard.writeText(command);
-                setCopied(true);
-              } catch {
-                setCopied(false);
-              }
-            }}>
+            <code
+              className="flex-1 truncate rounded-md border border-line bg-paper px-2 py-1.5 font-mono text-xs"
+              data-testid="check-command"
+            >
+              {command}
+            </code>
+            <Button
+              size="sm"
+              disabled={!ack}
+              onClick={async () => {
+                try {
+                  await navigator.clipboard.writeText(command);
+                  setCopied(true);
+                } catch {
+                  setCopied(false);
+                }
+              }}
+            >
               {copied ? "Copied" : "Copy command"}
             </Button>
           </div>

@@ -19,7 +19,10 @@ export function importPlanText(text: string, current: BenchPlan): ImportResult {
   try {
     raw = JSON.parse(text);
   } catch (err) {
-    return { ok: false, problems: [{ path: [], message: `is not JSON (${err instanceof Error ? err.message : "parse error"})` }] };
+    return {
+      ok: false,
+      problems: [{ path: [], message: `is not JSON (${err instanceof Error ? err.message : "parse error"})` }],
+    };
   }
   // An export wraps the document; accept it too.
   const doc = raw && typeof raw === "object" && "document" in raw ? (raw as { document: unknown }).document : raw;
@@ -30,18 +33,33 @@ export function importPlanText(text: string, current: BenchPlan): ImportResult {
   if (value.arm.joints.length !== n) {
     return {
       ok: false,
-      problems: [{ path: ["arm", "joints"], message: `has ${value.arm.joints.length} joints; this plan's arm "${current.arm.name}" has ${n}` }],
+      problems: [
+        {
+          path: ["arm", "joints"],
+          message: `has ${value.arm.joints.length} joints; this plan's arm "${current.arm.name}" has ${n}`,
+        },
+      ],
     };
   }
   const sameArm = JSON.stringify(value.arm) === JSON.stringify(current.arm);
   return {
     ok: true,
     plan: { ...current, start: value.start, moves: value.moves },
-    note: sameArm ? undefined : `The file is for arm "${value.arm.name}"; its start pose and ${value.moves.length} moves were taken onto this plan's arm "${current.arm.name}", whose limits apply.`,
+    note: sameArm
+      ? undefined
+      : `The file is for arm "${value.arm.name}"; its start pose and ${value.moves.length} moves were taken onto this plan's arm "${current.arm.name}", whose limits apply.`,
   };
 }
 
-export function ImportDialog({ current, onClose, onImport }: { current: BenchPlan; onClose: () => void; onImport: (plan: BenchPlan) => void }) {
+export function ImportDialog({
+  current,
+  onClose,
+  onImport,
+}: {
+  current: BenchPlan;
+  onClose: () => void;
+  onImport: (plan: BenchPlan) => void;
+}) {
   const [text, setText] = useState("");
   const [result, setResult] = useState<ImportResult | null>(null);
   const read = (t: string) => {
@@ -66,23 +84,40 @@ export function ImportDialog({ current, onClose, onImport }: { current: BenchPla
       <div className="flex flex-col gap-3">
         <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
           JSON file (a plan document or an export)
-          <input type="file" accept="application/json,.json" className="text-sm"
+          <input
+            type="file"
+            accept="application/json,.json"
+            className="text-sm"
             onChange={async (e) => {
               const file = e.target.files?.[0];
               if (file) read(await file.text());
-            }} />
+            }}
+          />
         </label>
-        <TextAreaField label="…or paste the JSON" value={text} onChange={(e) => read(e.target.value)} className="min-h-32 font-mono text-xs" spellCheck={false} />
+        <TextAreaField
+          label="…or paste the JSON"
+          value={text}
+          onChange={(e) => read(e.target.value)}
+          className="min-h-32 font-mono text-xs"
+          spellCheck={false}
+        />
         {result && !result.ok ? (
-          <ErrorNote title={`The document was refused (${result.problems.length} problem${result.problems.length === 1 ? "" : "s"})`}>
+          <ErrorNote
+            title={`The document was refused (${result.problems.length} problem${result.problems.length === 1 ? "" : "s"})`}
+          >
             <ul className="mt-1 space-y-0.5" data-testid="import-problems">
-              {result.problems.map((p, i) => <li key={i}><code className="font-mono">{formatPath(p.path)}</code>: {p.message}</li>)}
+              {result.problems.map((p, i) => (
+                <li key={i}>
+                  <code className="font-mono">{formatPath(p.path)}</code>: {p.message}
+                </li>
+              ))}
             </ul>
           </ErrorNote>
         ) : null}
         {result?.ok ? (
           <p role="status" className="rounded-md bg-pass-tint px-3 py-2 text-xs text-pass">
-            Valid: {result.plan.moves.length} moves. {result.note ?? ""} Your current edits will be replaced (saved versions stay).
+            Valid: {result.plan.moves.length} moves. {result.note ?? ""} Your current edits will be replaced (saved
+            versions stay).
           </p>
         ) : null}
       </div>

@@ -3,7 +3,18 @@
  * (travel, speed, acceleration, jumps: well under a millisecond) and the sampled signals the plots and
  * stage draw. The arm model's checks (effort, clearance, tool speed) run in a worker (use-full-check.ts).
  */
-import { check, checkAcceleration, checkGoalRange, checkSpeed, checkStartRange, type Report, sampleTimeline, type Samples, timelineOf, type Timeline } from "@/kinematics";
+import {
+  check,
+  checkAcceleration,
+  checkGoalRange,
+  checkSpeed,
+  checkStartRange,
+  type Report,
+  sampleTimeline,
+  type Samples,
+  timelineOf,
+  type Timeline,
+} from "@/kinematics";
 import { plotRateHz } from "@/components/plots/downsample";
 import type { BenchPlan } from "./plan-state";
 
@@ -17,7 +28,10 @@ export interface LiveCheck {
 
 export function runLiveCheck(plan: BenchPlan): LiveCheck {
   const t0 = performance.now();
-  const report = check(plan, { planCheckers: [checkStartRange], moveCheckers: [checkGoalRange, checkSpeed, checkAcceleration] });
+  const report = check(plan, {
+    planCheckers: [checkStartRange],
+    moveCheckers: [checkGoalRange, checkSpeed, checkAcceleration],
+  });
   const timeline = timelineOf(plan);
   const samples = sampleTimeline(timeline, plotRateHz(plan.arm.controlRateHz, timeline.totalS));
   return { report, timeline, samples, elapsedMs: performance.now() - t0 };

@@ -15,11 +15,16 @@ export interface MoveFigures {
 }
 
 export function moveFigures(report: MoveReport | undefined, joints: readonly Joint[]): MoveFigures {
-  const toolSpeed = report?.peakToolSpeed !== undefined && Number.isFinite(report.peakToolSpeed) ? `${report.peakToolSpeed.toFixed(3)} m/s` : null;
+  const toolSpeed =
+    report?.peakToolSpeed !== undefined && Number.isFinite(report.peakToolSpeed)
+      ? `${report.peakToolSpeed.toFixed(3)} m/s`
+      : null;
   let effort: string | null = null;
   const peaks = report?.peakEffort;
   if (peaks) {
-    let best = -1, bestRatio = -Infinity, largest = -1;
+    let best = -1,
+      bestRatio = -Infinity,
+      largest = -1;
     peaks.forEach((tau, j) => {
       if (tau === null || !Number.isFinite(tau) || !joints[j]) return;
       const max = joints[j].maxEffort;
@@ -35,7 +40,9 @@ export function moveFigures(report: MoveReport | undefined, joints: readonly Joi
       const joint = joints[j];
       const unit = unitLabel(joint.type, "rad", "effort");
       const tau = peaks[j] ?? 0;
-      effort = `${joint.name} ${tau.toFixed(2)} ${unit}` + (best >= 0 ? ` (${Math.round(bestRatio * 100)}% of ${joint.maxEffort!.toFixed(2)} ${unit})` : "");
+      effort =
+        `${joint.name} ${tau.toFixed(2)} ${unit}` +
+        (best >= 0 ? ` (${Math.round(bestRatio * 100)}% of ${joint.maxEffort!.toFixed(2)} ${unit})` : "");
     }
   }
   return { toolSpeed, effort };

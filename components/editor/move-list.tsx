@@ -5,7 +5,15 @@ import { cn } from "@/components/ui/cn";
 import { CopyIcon, DownIcon, PlusIcon, TrashIcon, UpIcon } from "@/components/ui/icons";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { shapeNames, type Joint, type Move, type ShapeName, verdictOf, type MoveReport, type Verdict } from "@/kinematics";
+import {
+  shapeNames,
+  type Joint,
+  type Move,
+  type ShapeName,
+  verdictOf,
+  type MoveReport,
+  type Verdict,
+} from "@/kinematics";
 import { toDisplay, unitLabel, type AngleUnit } from "@/lib/shared/units";
 import { moveFigures } from "./move-figures";
 import { NumberInput } from "./number-input";
@@ -33,14 +41,25 @@ export interface MoveListProps {
 }
 
 /** A move's goal in a few characters: the joints that change, in display units. */
-function goalSummary(joints: readonly Joint[], goal: readonly number[], before: readonly number[], unit: AngleUnit): string {
+function goalSummary(
+  joints: readonly Joint[],
+  goal: readonly number[],
+  before: readonly number[],
+  unit: AngleUnit,
+): string {
   const parts: string[] = [];
   joints.forEach((joint, j) => {
     if (Math.abs(goal[j] - before[j]) < 1e-12) return;
     const v = toDisplay(goal[j], joint.type, unit);
-    parts.push(`${joint.name} ${v.toFixed(joint.type === "prismatic" || unit === "deg" ? 0 : 2)}${unitLabel(joint.type, unit) === "°" ? "°" : ""}`);
+    parts.push(
+      `${joint.name} ${v.toFixed(joint.type === "prismatic" || unit === "deg" ? 0 : 2)}${unitLabel(joint.type, unit) === "°" ? "°" : ""}`,
+    );
   });
-  return parts.length === 0 ? "holds pose" : parts.length > 2 ? `${parts.slice(0, 2).join(", ")} +${parts.length - 2}` : parts.join(", ");
+  return parts.length === 0
+    ? "holds pose"
+    : parts.length > 2
+      ? `${parts.slice(0, 2).join(", ")} +${parts.length - 2}`
+      : parts.join(", ");
 }
 
 /**
@@ -48,7 +67,18 @@ function goalSummary(joints: readonly Joint[], goal: readonly number[], before: 
  * verdict and actions. Rows are reordered with the up/down buttons or Alt+↑ / Alt+↓ on a focused row;
  * the change is announced to screen readers.
  */
-export function MoveList({ joints, startPose, moves, reports, unit, selected, onSelect, dispatch, startVerdict, fixes }: MoveListProps) {
+export function MoveList({
+  joints,
+  startPose,
+  moves,
+  reports,
+  unit,
+  selected,
+  onSelect,
+  dispatch,
+  startVerdict,
+  fixes,
+}: MoveListProps) {
   const [announcement, setAnnouncement] = useState("");
   const rows = useRef<(HTMLTableRowElement | null)[]>([]);
 
@@ -86,7 +116,9 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
         <thead>
           <tr>
             <Th>Move · goal</Th>
-            <Th numeric className="w-[5.5rem]">Duration s</Th>
+            <Th numeric className="w-[5.5rem]">
+              Duration s
+            </Th>
             <Th className="w-[5.75rem]">Shape</Th>
             <Th className="w-[4.75rem]">Verdict</Th>
           </tr>
@@ -125,11 +157,18 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
                   data-testid={`move-row-${i}`}
                   onClick={() => onSelect(i)}
                   onKeyDown={(e) => onRowKey(e, i)}
-                  className={cn("cursor-pointer focus:outline-2 focus:-outline-offset-2 focus:outline-brand-500", isSelected ? "bg-brand-50" : "hover:bg-paper")}
+                  className={cn(
+                    "cursor-pointer focus:outline-2 focus:-outline-offset-2 focus:outline-brand-500",
+                    isSelected ? "bg-brand-50" : "hover:bg-paper",
+                  )}
                 >
                   <Td className="max-w-0">
-                    <span className="block text-xs font-semibold">{move.duration === 0 ? `Instant move ${i}` : `Move ${i}`}</span>
-                    <span className="block truncate text-[11px] text-ink-soft" title={summary}>{summary}</span>
+                    <span className="block text-xs font-semibold">
+                      {move.duration === 0 ? `Instant move ${i}` : `Move ${i}`}
+                    </span>
+                    <span className="block truncate text-[11px] text-ink-soft" title={summary}>
+                      {summary}
+                    </span>
                   </Td>
                   <Td numeric onClick={(e) => e.stopPropagation()}>
                     <NumberInput
@@ -148,11 +187,15 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
                       className="h-7 w-full rounded border border-line bg-panel px-1 text-xs"
                     >
                       {shapeNames.map((s) => (
-                        <option key={s} value={s}>{s}</option>
+                        <option key={s} value={s}>
+                          {s}
+                        </option>
                       ))}
                     </select>
                   </Td>
-                  <Td><VerdictChip verdict={verdict} size="sm" /></Td>
+                  <Td>
+                    <VerdictChip verdict={verdict} size="sm" />
+                  </Td>
                 </tr>
                 {isSelected ? (
                   <tr className="bg-brand-50">
@@ -168,19 +211,50 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
                             Shortest safe: <span className="tabular font-mono">{safe.toFixed(3)} s</span>
                           </Button>
                         ) : noDuration ? (
-                          <span className="text-[11px] text-fault" data-testid={`no-duration-${i}`}>No duration of this move passes every check.</span>
+                          <span className="text-[11px] text-fault" data-testid={`no-duration-${i}`}>
+                            No duration of this move passes every check.
+                          </span>
                         ) : null}
                         <span className="flex-1" />
-                        <Button size="sm" variant="ghost" aria-label={`Move ${i} up`} disabled={i === 0} onClick={() => reorder(i, -1)}>
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          aria-label={`Move ${i} up`}
+                          disabled={i === 0}
+                          onClick={() => reorder(i, -1)}
+                        >
                           <UpIcon size={13} />
                         </Button>
-                        <Button size="sm" variant="ghost" aria-label={`Move ${i} down`} disabled={i === moves.length - 1} onClick={() => reorder(i, 1)}>
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          aria-label={`Move ${i} down`}
+                          disabled={i === moves.length - 1}
+                          onClick={() => reorder(i, 1)}
+                        >
                           <DownIcon size={13} />
                         </Button>
-                        <Button size="sm" variant="ghost" aria-label={`Duplicate move ${i}`} onClick={() => { dispatch({ type: "duplicate-move", index: i }); setAnnouncement(`Move ${i} duplicated as move ${i + 1}.`); }}>
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          aria-label={`Duplicate move ${i}`}
+                          onClick={() => {
+                            dispatch({ type: "duplicate-move", index: i });
+                            setAnnouncement(`Move ${i} duplicated as move ${i + 1}.`);
+                          }}
+                        >
                           <CopyIcon size={13} />
                         </Button>
-                        <Button size="sm" variant="ghost" aria-label={`Delete move ${i}`} onClick={() => { dispatch({ type: "delete-move", index: i }); onSelect(i > 0 ? i - 1 : "start"); setAnnouncement(`Move ${i} deleted.`); }}>
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          aria-label={`Delete move ${i}`}
+                          onClick={() => {
+                            dispatch({ type: "delete-move", index: i });
+                            onSelect(i > 0 ? i - 1 : "start");
+                            setAnnouncement(`Move ${i} deleted.`);
+                          }}
+                        >
                           <TrashIcon size={13} />
                         </Button>
                       </div>
@@ -193,26 +267,63 @@ export function MoveList({ joints, startPose, moves, reports, unit, selected, on
           })}
         </tbody>
       </Table>
-      {moves.length === 0 ? <p className="px-2 text-xs text-ink-soft">No moves yet: the arm holds its start pose. Add a move to plan motion.</p> : null}
+      {moves.length === 0 ? (
+        <p className="px-2 text-xs text-ink-soft">
+          No moves yet: the arm holds its start pose. Add a move to plan motion.
+        </p>
+      ) : null}
       <div className="flex items-center gap-2">
-        <Button size="sm" onClick={() => { dispatch({ type: "add-move" }); onSelect(moves.length); setAnnouncement(`Move ${moves.length} added.`); }}>
+        <Button
+          size="sm"
+          onClick={() => {
+            dispatch({ type: "add-move" });
+            onSelect(moves.length);
+            setAnnouncement(`Move ${moves.length} added.`);
+          }}
+        >
           <PlusIcon size={13} /> Add move
         </Button>
-        <p id="move-list-help" className="text-[11px] text-ink-faint">Alt+↑/↓ on a row reorders it; Delete removes it.</p>
+        <p id="move-list-help" className="text-[11px] text-ink-faint">
+          Alt+↑/↓ on a row reorders it; Delete removes it.
+        </p>
       </div>
-      <p aria-live="polite" className="sr-only">{announcement}</p>
+      <p aria-live="polite" className="sr-only">
+        {announcement}
+      </p>
     </div>
   );
 }
 
 /** Peak effort and tool speed of the selected move, from the arm model (nothing without a chain). */
-function MoveFiguresLine({ index, report, joints }: { index: number; report: MoveReport | undefined; joints: readonly Joint[] }) {
+function MoveFiguresLine({
+  index,
+  report,
+  joints,
+}: {
+  index: number;
+  report: MoveReport | undefined;
+  joints: readonly Joint[];
+}) {
   const { toolSpeed, effort } = moveFigures(report, joints);
   if (!toolSpeed && !effort) return null;
   return (
-    <dl className="tabular mt-1 flex flex-wrap gap-x-3 px-0.5 font-mono text-[11px] text-ink-soft" aria-label={`Move ${index} peaks`} data-testid={`move-figures-${index}`}>
-      {effort ? (<div className="flex gap-1"><dt className="font-sans text-ink-faint">Peak effort</dt><dd>{effort}</dd></div>) : null}
-      {toolSpeed ? (<div className="flex gap-1"><dt className="font-sans text-ink-faint">Tool speed</dt><dd>{toolSpeed}</dd></div>) : null}
+    <dl
+      className="tabular mt-1 flex flex-wrap gap-x-3 px-0.5 font-mono text-[11px] text-ink-soft"
+      aria-label={`Move ${index} peaks`}
+      data-testid={`move-figures-${index}`}
+    >
+      {effort ? (
+        <div className="flex gap-1">
+          <dt className="font-sans text-ink-faint">Peak effort</dt>
+          <dd>{effort}</dd>
+        </div>
+      ) : null}
+      {toolSpeed ? (
+        <div className="flex gap-1">
+          <dt className="font-sans text-ink-faint">Tool speed</dt>
+          <dd>{toolSpeed}</dd>
+        </div>
+      ) : null}
     </dl>
   );
 }

@@ -48,7 +48,12 @@ export function PlanActions(props: PlanActionsProps) {
 
   const save = useMutation({
     mutationFn: (input: { baseVersion: number; document: BenchPlan; note: string }) =>
-      api.saveVersion(planId, { baseVersion: input.baseVersion, document: input.document, note: input.note || undefined, armRevision }),
+      api.saveVersion(planId, {
+        baseVersion: input.baseVersion,
+        document: input.document,
+        note: input.note || undefined,
+        armRevision,
+      }),
     onSuccess: (res, input) => {
       setSavedPlan(input.document);
       onSaved(res.version.number);
@@ -78,12 +83,40 @@ export function PlanActions(props: PlanActionsProps) {
   return (
     <>
       <span className="text-xs text-ink-soft" aria-live="polite" data-testid="save-state">
-        {dirty ? "Unsaved changes" : lastSaved ? <>Saved as version {lastSaved.number} <VerdictChip verdict={lastSaved.verdict} size="sm" /></> : version > 0 ? `Version ${version}` : "Not saved yet"}
+        {dirty ? (
+          "Unsaved changes"
+        ) : lastSaved ? (
+          <>
+            Saved as version {lastSaved.number} <VerdictChip verdict={lastSaved.verdict} size="sm" />
+          </>
+        ) : version > 0 ? (
+          `Version ${version}`
+        ) : (
+          "Not saved yet"
+        )}
       </span>
-      <Button size="sm" onClick={() => setOpen("versions")} disabled={version === 0}>Versions</Button>
-      <Button size="sm" onClick={() => setOpen("import")} disabled={!canEdit}>Import</Button>
-      <Button size="sm" onClick={() => setOpen("export")} disabled={version === 0} title={version === 0 ? "Save a version first: exports come from saved versions" : undefined}>Export</Button>
-      <Button size="sm" variant="primary" onClick={() => setOpen("save")} disabled={!canEdit || (!dirty && version > 0)}>Save version</Button>
+      <Button size="sm" onClick={() => setOpen("versions")} disabled={version === 0}>
+        Versions
+      </Button>
+      <Button size="sm" onClick={() => setOpen("import")} disabled={!canEdit}>
+        Import
+      </Button>
+      <Button
+        size="sm"
+        onClick={() => setOpen("export")}
+        disabled={version === 0}
+        title={version === 0 ? "Save a version first: exports come from saved versions" : undefined}
+      >
+        Export
+      </Button>
+      <Button
+        size="sm"
+        variant="primary"
+        onClick={() => setOpen("save")}
+        disabled={!canEdit || (!dirty && version > 0)}
+      >
+        Save version
+      </Button>
 
       <Dialog
         open={open === "save"}
@@ -92,22 +125,39 @@ export function PlanActions(props: PlanActionsProps) {
         actions={
           <>
             <Button onClick={() => setOpen(null)}>Cancel</Button>
-            <Button variant="primary" disabled={save.isPending} onClick={() => save.mutate({ baseVersion: version, document: plan, note })}>
+            <Button
+              variant="primary"
+              disabled={save.isPending}
+              onClick={() => save.mutate({ baseVersion: version, document: plan, note })}
+            >
               {save.isPending ? "Saving…" : "Save"}
             </Button>
           </>
         }
       >
         <p className="mb-3 text-ink-soft">
-          The server checks the plan again against arm revision {armRevision} and stores its verdict with the version. Versions are never edited; a save adds one.
+          The server checks the plan again against arm revision {armRevision} and stores its verdict with the version.
+          Versions are never edited; a save adds one.
         </p>
-        <TextAreaField label="Note (what changed and why)" value={note} onChange={(e) => setNote(e.target.value)} maxLength={500} placeholder="e.g. Move 2 lengthened to its shortest safe duration" />
+        <TextAreaField
+          label="Note (what changed and why)"
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+          maxLength={500}
+          placeholder="e.g. Move 2 lengthened to its shortest safe duration"
+        />
         {save.error && !(save.error instanceof ApiError && save.error.status === 409) ? (
           <div className="mt-3">
             <ErrorNote title="The version was not saved">
               {save.error.message}
               {save.error instanceof ApiError && save.error.issues.length > 0 ? (
-                <ul className="mt-1 list-disc pl-4">{save.error.issues.map((i) => <li key={i.path}><code>{i.path}</code>: {i.message}</li>)}</ul>
+                <ul className="mt-1 list-disc pl-4">
+                  {save.error.issues.map((i) => (
+                    <li key={i.path}>
+                      <code>{i.path}</code>: {i.message}
+                    </li>
+                  ))}
+                </ul>
               ) : null}
             </ErrorNote>
           </div>
@@ -127,13 +177,32 @@ export function PlanActions(props: PlanActionsProps) {
               overwritten. Choose what happens to your edits:
             </p>
             <div className="flex flex-col gap-2">
-              <Button variant="primary" className="justify-start" onClick={() => { onSaved(conflict.latest); save.mutate({ baseVersion: conflict.latest, document: plan, note: note || `Saved over version ${conflict.latest} after a conflict` }); }}>
+              <Button
+                variant="primary"
+                className="justify-start"
+                onClick={() => {
+                  onSaved(conflict.latest);
+                  save.mutate({
+                    baseVersion: conflict.latest,
+                    document: plan,
+                    note: note || `Saved over version ${conflict.latest} after a conflict`,
+                  });
+                }}
+              >
                 Save my edits as version {conflict.latest + 1} (they replace version {conflict.latest}&apos;s content)
               </Button>
               <Button className="justify-start" onClick={() => setOpen("versions")}>
                 Compare versions first
               </Button>
-              <Button variant="danger" className="justify-start" onClick={async () => { await loadVersion(conflict.latest); onSaved(conflict.latest); setConflict(null); }}>
+              <Button
+                variant="danger"
+                className="justify-start"
+                onClick={async () => {
+                  await loadVersion(conflict.latest);
+                  onSaved(conflict.latest);
+                  setConflict(null);
+                }}
+              >
                 Discard my edits and load version {conflict.latest}
               </Button>
             </div>
@@ -142,13 +211,34 @@ export function PlanActions(props: PlanActionsProps) {
       </Dialog>
 
       {open === "versions" ? (
-        <VersionsDialog planId={planId} onClose={() => setOpen(null)} onLoad={async (n) => { await loadVersion(n); setOpen(null); }} />
+        <VersionsDialog
+          planId={planId}
+          onClose={() => setOpen(null)}
+          onLoad={async (n) => {
+            await loadVersion(n);
+            setOpen(null);
+          }}
+        />
       ) : null}
       {open === "import" ? (
-        <ImportDialog current={plan} onClose={() => setOpen(null)} onImport={(p) => { replace(p); setOpen(null); }} />
+        <ImportDialog
+          current={plan}
+          onClose={() => setOpen(null)}
+          onImport={(p) => {
+            replace(p);
+            setOpen(null);
+          }}
+        />
       ) : null}
       {open === "export" ? (
-        <ExportDialog planId={planId} planName={props.planName} version={version} dirty={dirty} controlRateHz={plan.arm.controlRateHz} onClose={() => setOpen(null)} />
+        <ExportDialog
+          planId={planId}
+          planName={props.planName}
+          version={version}
+          dirty={dirty}
+          controlRateHz={plan.arm.controlRateHz}
+          onClose={() => setOpen(null)}
+        />
       ) : null}
     </>
   );

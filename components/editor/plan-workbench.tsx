@@ -86,7 +86,11 @@ export function PlanWorkbench(props: PlanWorkbenchProps) {
         planId={planId}
         onPlanChange={onPlanChange}
         checkArm={checkArm}
-        aside={assignment ? ({ plan, unit }) => <AssignmentRulesPanel assignment={assignment} plan={plan} unit={unit} /> : undefined}
+        aside={
+          assignment
+            ? ({ plan, unit }) => <AssignmentRulesPanel assignment={assignment} plan={plan} unit={unit} />
+            : undefined
+        }
         meta={{ planName: props.planName, armName: props.armName, armRevision: props.armRevision, version }}
         actions={({ plan, report, replace }) => (
           <PlanActions
@@ -105,12 +109,35 @@ export function PlanWorkbench(props: PlanWorkbenchProps) {
         )}
         banner={({ replace }) =>
           offered ? (
-            <div role="status" data-testid="draft-offer" className="flex flex-wrap items-center gap-2 border-b border-line bg-caution-tint px-4 py-1.5 text-xs text-ink">
+            <div
+              role="status"
+              data-testid="draft-offer"
+              className="flex flex-wrap items-center gap-2 border-b border-line bg-caution-tint px-4 py-1.5 text-xs text-ink"
+            >
               <span>
-                Unsaved edits to version {props.version || "0 (never saved)"} from <DateTime value={offered.savedAt} /> are kept in this browser.
+                Unsaved edits to version {props.version || "0 (never saved)"} from <DateTime value={offered.savedAt} />{" "}
+                are kept in this browser.
               </span>
-              <Button size="sm" variant="primary" onClick={() => { replace(offered.plan); setOffered(null); }}>Restore the edits</Button>
-              <Button size="sm" variant="ghost" onClick={() => { dropDraft(window.localStorage, planId, props.version); setOffered(null); }}>Discard them</Button>
+              <Button
+                size="sm"
+                variant="primary"
+                onClick={() => {
+                  replace(offered.plan);
+                  setOffered(null);
+                }}
+              >
+                Restore the edits
+              </Button>
+              <Button
+                size="sm"
+                variant="ghost"
+                onClick={() => {
+                  dropDraft(window.localStorage, planId, props.version);
+                  setOffered(null);
+                }}
+              >
+                Discard them
+              </Button>
             </div>
           ) : null
         }
@@ -121,14 +148,16 @@ export function PlanWorkbench(props: PlanWorkbenchProps) {
         onClose={guard.stay}
         actions={
           <>
-            <Button variant="primary" onClick={guard.stay}>Stay on the bench</Button>
+            <Button variant="primary" onClick={guard.stay}>
+              Stay on the bench
+            </Button>
             <Button onClick={guard.leave}>Leave</Button>
           </>
         }
       >
         <p>
-          Your edits since {version > 0 ? `version ${version}` : "the plan was created"} are not saved. A draft stays in this
-          browser and is offered back when you open this plan again.
+          Your edits since {version > 0 ? `version ${version}` : "the plan was created"} are not saved. A draft stays in
+          this browser and is offered back when you open this plan again.
         </p>
       </Dialog>
     </>

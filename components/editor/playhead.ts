@@ -28,7 +28,8 @@ export class Playhead {
   private set(patch: Partial<PlayheadState>) {
     const next = { ...this.state, ...patch };
     next.timeS = Math.min(Math.max(0, next.timeS), next.totalS);
-    if (next.timeS === this.state.timeS && next.playing === this.state.playing && next.totalS === this.state.totalS) return;
+    if (next.timeS === this.state.timeS && next.playing === this.state.playing && next.totalS === this.state.totalS)
+      return;
     this.state = next;
     for (const l of this.listeners) l();
   }

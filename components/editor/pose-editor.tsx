@@ -37,7 +37,8 @@ function stepFor(joint: Joint, unit: AngleUnit): number {
  * and its fix can be read together.
  */
 export function PoseEditor(props: PoseEditorProps) {
-  const { title, joints, pose, unit, onUnitChange, onJointChange, onCopyCurrent, onHome, currentLabel, children } = props;
+  const { title, joints, pose, unit, onUnitChange, onJointChange, onCopyCurrent, onHome, currentLabel, children } =
+    props;
   return (
     <section aria-label={title} className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -49,7 +50,10 @@ export function PoseEditor(props: PoseEditorProps) {
               type="button"
               aria-pressed={unit === u}
               onClick={() => onUnitChange(u)}
-              className={cn("rounded px-2 py-0.5 font-medium", unit === u ? "bg-brand-600 text-white" : "text-ink-soft hover:text-ink")}
+              className={cn(
+                "rounded px-2 py-0.5 font-medium",
+                unit === u ? "bg-brand-600 text-white" : "text-ink-soft hover:text-ink",
+              )}
             >
               {u === "deg" ? "Degrees" : "Radians"}
             </button>
@@ -97,7 +101,9 @@ export function PoseEditor(props: PoseEditorProps) {
                   onValue={(v) => onJointChange(j, fromDisplay(v, joint.type, unit))}
                   className={cn("pr-7", outside && "border-fault text-fault")}
                 />
-                <span className="pointer-events-none absolute top-1/2 right-2 -translate-y-1/2 text-[11px] text-ink-faint">{label}</span>
+                <span className="pointer-events-none absolute top-1/2 right-2 -translate-y-1/2 text-[11px] text-ink-faint">
+                  {label}
+                </span>
               </div>
               {outside ? (
                 <p className="col-span-3 col-start-1 text-[11px] text-fault">
@@ -119,7 +125,9 @@ export function PoseEditor(props: PoseEditorProps) {
             <HomeIcon size={13} /> Home
           </Button>
         ) : null}
-        {currentLabel && onCopyCurrent ? <span className="text-[11px] text-ink-faint">current: {currentLabel}</span> : null}
+        {currentLabel && onCopyCurrent ? (
+          <span className="text-[11px] text-ink-faint">current: {currentLabel}</span>
+        ) : null}
       </div>
       {children}
     </section>

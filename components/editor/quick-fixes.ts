@@ -13,12 +13,27 @@
  * - A move that already passes is only ever shortened to its shortest passing duration, never stretched,
  *   except by the whole-plan factor the user chooses.
  */
-import { check, moveLabel, scaleToPass, type Finding, type FindingKind, type Plan, type Report, type Verdict } from "@/kinematics";
+import {
+  check,
+  moveLabel,
+  scaleToPass,
+  type Finding,
+  type FindingKind,
+  type Plan,
+  type Report,
+  type Verdict,
+} from "@/kinematics";
 import { ceilToMs, formatJointValue, type AngleUnit } from "@/lib/shared/units";
 import { planReducer, type BenchPlan, type PlanAction } from "./plan-state";
 
 /** Finding kinds whose value depends on the move's duration: a longer duration can clear them. */
-export const timingKinds: ReadonlySet<FindingKind> = new Set<FindingKind>(["speed-over", "accel-over", "jump", "effort-over", "tool-speed"]);
+export const timingKinds: ReadonlySet<FindingKind> = new Set<FindingKind>([
+  "speed-over",
+  "accel-over",
+  "jump",
+  "effort-over",
+  "tool-speed",
+]);
 
 /** One verified fix: the edit to dispatch, what it is, and what the checked copy showed. */
 export interface QuickFix {
@@ -107,7 +122,13 @@ export function quickFixes(plan: BenchPlan, report: Report, checkPlan: PlanCheck
     if (copy === plan) return null;
     return { copy, after: checkPlan(copy) };
   };
-  const asFix = (scope: QuickFix["scope"], move: number | null, action: PlanAction, after: Report, factor: number | null = null): QuickFix => ({
+  const asFix = (
+    scope: QuickFix["scope"],
+    move: number | null,
+    action: PlanAction,
+    after: Report,
+    factor: number | null = null,
+  ): QuickFix => ({
     scope,
     move,
     action,
@@ -120,10 +141,14 @@ export function quickFixes(plan: BenchPlan, report: Report, checkPlan: PlanCheck
     const safe = shortestPassing(report, m);
     if (safe === null) return null;
     const faulting = !movePasses(report, m);
-    const hasTimingFault = report.findings.some((f) => f.move === m && f.severity === "fault" && timingKinds.has(f.kind));
+    const hasTimingFault = report.findings.some(
+      (f) => f.move === m && f.severity === "fault" && timingKinds.has(f.kind),
+    );
     if (faulting && !hasTimingFault) return null; // no duration fixes this move's faults
     // a faulting move is only stretched (or given a duration when instant); a passing one only shortened
-    const allowed = faulting ? move.duration === 0 || safe > move.duration + 5e-4 : move.duration > 0 && safe < move.duration - 5e-4;
+    const allowed = faulting
+      ? move.duration === 0 || safe > move.duration + 5e-4
+      : move.duration > 0 && safe < move.duration - 5e-4;
     if (!allowed) return null;
     const action: PlanAction = { type: "set-duration", index: m, duration: safe };
     const tried = tryCopy(action);
@@ -148,15 +173,23 @@ export function quickFixes(plan: BenchPlan, report: Report, checkPlan: PlanCheck
     const m = finding.move;
     if (timingKinds.has(finding.kind) && m !== null) {
       const moveFix = moves[m];
-      if (moveFix && moveFix.action.type === "set-duration" && moveFix.action.duration > plan.moves[m].duration) fixes.push(moveFix);
+      if (moveFix && moveFix.action.type === "set-duration" && moveFix.action.duration > plan.moves[m].duration)
+        fixes.push(moveFix);
       if (planFix && plan.moves[m].duration > 0) fixes.push(planFix);
     }
     if (finding.kind === "range" && finding.joint !== null) {
-      const action: PlanAction = { type: "set-joint", target: m === null ? "start" : m, joint: finding.joint, value: finding.limit };
+      const action: PlanAction = {
+        type: "set-joint",
+        target: m === null ? "start" : m,
+        joint: finding.joint,
+        value: finding.limit,
+      };
       const tried = tryCopy(action);
       const cleared =
         tried !== null &&
-        !tried.after.findings.some((f) => f.kind === "range" && f.severity === "fault" && f.move === m && f.joint === finding.joint);
+        !tried.after.findings.some(
+          (f) => f.kind === "range" && f.severity === "fault" && f.move === m && f.joint === finding.joint,
+        );
       if (tried && cleared && noNewFaults(report, tried.after) && faultCount(tried.after) < faultCount(report)) {
         fixes.push(asFix("pose", m, action, tried.after));
       }

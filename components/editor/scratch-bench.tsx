@@ -8,7 +8,11 @@ export function ScratchBench({ plan }: { plan: BenchPlan }) {
     <Bench
       initialPlan={plan}
       meta={{ planName: "Unsaved plan", armName: plan.arm.name }}
-      actions={() => <span className="text-xs text-ink-faint">Try-out bench: nothing is saved. Sign in to keep plans in a project.</span>}
+      actions={() => (
+        <span className="text-xs text-ink-faint">
+          Try-out bench: nothing is saved. Sign in to keep plans in a project.
+        </span>
+      )}
     />
   );
 }

@@ -9,7 +9,13 @@ export function Transport() {
   const { timeS, playing, totalS } = usePlayhead();
   return (
     <div className="flex shrink-0 items-center gap-2 border-t border-line bg-panel px-3 py-1.5">
-      <Button size="sm" variant="primary" onClick={() => p.toggle()} aria-label={playing ? "Pause" : "Play"} disabled={totalS <= 0}>
+      <Button
+        size="sm"
+        variant="primary"
+        onClick={() => p.toggle()}
+        aria-label={playing ? "Pause" : "Play"}
+        disabled={totalS <= 0}
+      >
         {playing ? <PauseIcon size={12} /> : <PlayIcon size={12} />}
         {playing ? "Pause" : "Play"}
       </Button>

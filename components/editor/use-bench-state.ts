@@ -39,7 +39,11 @@ export interface BenchStateOptions {
 }
 
 /** The status of a plan from its live (joint checks) and full (arm model too) results. */
-export function benchStatus(moveCount: number, live: Report, full: { report: Report | null; error: string | null }): BenchStatus {
+export function benchStatus(
+  moveCount: number,
+  live: Report,
+  full: { report: Report | null; error: string | null },
+): BenchStatus {
   if (moveCount === 0) return { kind: "empty" };
   const faultSoFar = live.verdict === "fault";
   if (full.error) return { kind: "unchecked", error: full.error, faultSoFar };
@@ -78,7 +82,9 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
   const effort = useMemo(() => effortSeries(deferredPlan, deferred.samples), [deferredPlan, deferred.samples]);
 
   const [selectedJoints, setSelectedJoints] = useState<number[]>(() => {
-    const worst = worstFirst(runLiveCheck(checkArm ? { ...initialPlan, arm: checkArm(initialPlan.arm) } : initialPlan).report.findings)[0];
+    const worst = worstFirst(
+      runLiveCheck(checkArm ? { ...initialPlan, arm: checkArm(initialPlan.arm) } : initialPlan).report.findings,
+    )[0];
     return [worst?.joint ?? 0];
   });
 
@@ -129,7 +135,11 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
         return {
           finding,
           timeS: findingTimeS(finding, timeline),
-          fixes: (offered?.fixes ?? []).map((fix) => ({ label: fixLabel(fix, plan, unit), scope: fix.scope, apply: () => applyFix(fix) })),
+          fixes: (offered?.fixes ?? []).map((fix) => ({
+            label: fixLabel(fix, plan, unit),
+            scope: fix.scope,
+            apply: () => applyFix(fix),
+          })),
           remedy: offered?.remedy ?? null,
         };
       }),

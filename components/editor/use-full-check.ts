@@ -5,9 +5,7 @@ import type { BenchPlan } from "./plan-state";
 import { quickFixes, type QuickFixes } from "./quick-fixes";
 
 type WorkerReply =
-  | { id: number; report: Report; elapsedMs: number }
-  | { id: number; fixes: QuickFixes }
-  | { id: number; error: string };
+  { id: number; report: Report; elapsedMs: number } | { id: number; fixes: QuickFixes } | { id: number; error: string };
 
 export interface FullCheck {
   /** The full report (joint and arm-model checks) of exactly this plan, or null while it runs. */
@@ -59,7 +57,8 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
       const reply = event.data;
       if (reply.id !== id || id !== latest.current) return;
       if ("error" in reply) setResult({ ...empty, error: reply.error, plan });
-      else if ("report" in reply) setResult({ report: reply.report, fixes: null, elapsedMs: reply.elapsedMs, error: null, plan });
+      else if ("report" in reply)
+        setResult({ report: reply.report, fixes: null, elapsedMs: reply.elapsedMs, error: null, plan });
       else setResult((r) => (r.plan === plan ? { ...r, fixes: reply.fixes } : r));
     };
     w.addEventListener("message", onMessage);
@@ -68,5 +67,7 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
   }, [plan]);
 
   const current = result.plan === plan;
-  return current ? { report: result.report, fixes: result.fixes, elapsedMs: result.elapsedMs, error: result.error } : { ...empty };
+  return current
+    ? { report: result.report, fixes: result.fixes, elapsedMs: result.elapsedMs, error: result.error }
+    : { ...empty };
 }

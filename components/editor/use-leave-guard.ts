@@ -23,9 +23,19 @@ export function useLeaveGuard(active: boolean) {
       event.returnValue = "";
     };
     const onClick = (event: MouseEvent) => {
-      if (bypass.current || event.defaultPrevented || event.button !== 0 || event.metaKey || event.ctrlKey || event.shiftKey || event.altKey) return;
+      if (
+        bypass.current ||
+        event.defaultPrevented ||
+        event.button !== 0 ||
+        event.metaKey ||
+        event.ctrlKey ||
+        event.shiftKey ||
+        event.altKey
+      )
+        return;
       const anchor = (event.target as Element | null)?.closest?.("a[href]");
-      if (!(anchor instanceof HTMLAnchorElement) || anchor.target === "_blank" || anchor.hasAttribute("download")) return;
+      if (!(anchor instanceof HTMLAnchorElement) || anchor.target === "_blank" || anchor.hasAttribute("download"))
+        return;
       const to = new URL(anchor.href, window.location.href);
       if (to.origin !== window.location.origin) return; // leaving the app: beforeunload asks
       if (to.pathname === window.location.pathname && to.search === window.location.search) return; // a fragment on this page

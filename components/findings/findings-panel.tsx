@@ -47,7 +47,9 @@ export function FindingsPanel({ verdict, summary, items, joints, onJump, classNa
   return (
     <section aria-labelledby="findings-heading" className={cn("flex min-h-0 flex-col", className)}>
       <div className="flex items-center justify-between gap-2 px-3 pt-3 pb-2">
-        <h2 id="findings-heading" className="text-[11px] font-semibold tracking-widest text-ink-faint uppercase">Findings</h2>
+        <h2 id="findings-heading" className="text-[11px] font-semibold tracking-widest text-ink-faint uppercase">
+          Findings
+        </h2>
         {verdict ? <VerdictChip verdict={verdict} /> : null}
       </div>
       <p className="px-3 pb-2 text-xs text-ink-soft" aria-live="polite" data-testid="findings-summary">
@@ -62,7 +64,10 @@ export function FindingsPanel({ verdict, summary, items, joints, onJump, classNa
           const joint = finding.joint === null ? undefined : joints[finding.joint];
           const ratio = finding.kind !== "range" && finding.limit > 0 ? finding.value / finding.limit : null;
           return (
-            <li key={`${finding.kind}-${finding.move}-${finding.joint}-${k}`} className={cn("rounded-md border bg-panel", look.border)}>
+            <li
+              key={`${finding.kind}-${finding.move}-${finding.joint}-${k}`}
+              className={cn("rounded-md border bg-panel", look.border)}
+            >
               <button
                 type="button"
                 onClick={() => onJump(timeS, finding.move)}
@@ -73,17 +78,36 @@ export function FindingsPanel({ verdict, summary, items, joints, onJump, classNa
                   <VerdictChip verdict={finding.severity} size="sm" />
                   <span className="text-xs font-semibold">{kindWords[finding.kind]}</span>
                   {ratio !== null ? (
-                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>{(ratio * 100).toFixed(ratio < 10 ? 1 : 0)}% of limit</span>
+                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>
+                      {(ratio * 100).toFixed(ratio < 10 ? 1 : 0)}% of limit
+                    </span>
                   ) : finding.kind === "clearance" ? (
-                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>{(finding.value * 1000).toFixed(1)} mm deep</span>
+                    <span className={cn("tabular ml-auto font-mono text-[11px]", look.text)}>
+                      {(finding.value * 1000).toFixed(1)} mm deep
+                    </span>
                   ) : null}
                 </div>
                 <dl className="tabular mt-1 flex flex-wrap gap-x-3 font-mono text-[11px] text-ink-soft">
-                  {joint ? (<><dt className="sr-only">Joint</dt><dd>{joint.name}</dd></>) : null}
+                  {joint ? (
+                    <>
+                      <dt className="sr-only">Joint</dt>
+                      <dd>{joint.name}</dd>
+                    </>
+                  ) : null}
                   <dt className="sr-only">Move</dt>
                   <dd>{finding.move === null ? "start pose" : `move ${finding.move}`}</dd>
-                  {finding.link ? (<><dt className="sr-only">Link</dt><dd>link {finding.link}</dd></>) : null}
-                  {finding.zone ? (<><dt className="sr-only">Zone</dt><dd>into {finding.zone}</dd></>) : null}
+                  {finding.link ? (
+                    <>
+                      <dt className="sr-only">Link</dt>
+                      <dd>link {finding.link}</dd>
+                    </>
+                  ) : null}
+                  {finding.zone ? (
+                    <>
+                      <dt className="sr-only">Zone</dt>
+                      <dd>into {finding.zone}</dd>
+                    </>
+                  ) : null}
                   <dt className="sr-only">Time</dt>
                   <dd>t = {timeS.toFixed(3)} s</dd>
                 </dl>
@@ -91,11 +115,22 @@ export function FindingsPanel({ verdict, summary, items, joints, onJump, classNa
               </button>
               {remedy || (fixes && fixes.length > 0) ? (
                 <div className="flex flex-col gap-1.5 border-t border-line/70 px-2.5 py-1.5">
-                  {remedy ? <p className="text-xs leading-snug text-ink-soft" data-testid="finding-remedy">{remedy}</p> : null}
+                  {remedy ? (
+                    <p className="text-xs leading-snug text-ink-soft" data-testid="finding-remedy">
+                      {remedy}
+                    </p>
+                  ) : null}
                   {fixes && fixes.length > 0 ? (
                     <div className="flex flex-wrap gap-1.5">
                       {fixes.map((fix) => (
-                        <Button key={fix.label} size="sm" variant={fix.scope === "plan" ? "ghost" : "secondary"} onClick={fix.apply}>{fix.label}</Button>
+                        <Button
+                          key={fix.label}
+                          size="sm"
+                          variant={fix.scope === "plan" ? "ghost" : "secondary"}
+                          onClick={fix.apply}
+                        >
+                          {fix.label}
+                        </Button>
                       ))}
                     </div>
                   ) : null}

@@ -16,8 +16,15 @@ export interface EffortSeries {
 export function effortSeries(plan: BenchPlan, samples: Samples): EffortSeries | null {
   const chain = plan.arm.chain;
   if (!chain) return null;
-  const compiled = compileChain(chain, plan.arm.joints.map((j) => j.type), plan.payload);
-  const ws = createDynamicsWorkspace(compiled, plan.arm.joints.map((j) => j.friction));
+  const compiled = compileChain(
+    chain,
+    plan.arm.joints.map((j) => j.type),
+    plan.payload,
+  );
+  const ws = createDynamicsWorkspace(
+    compiled,
+    plan.arm.joints.map((j) => j.friction),
+  );
   const m = compiled.jointCount;
   const n = samples.jointCount;
   const values = new Float64Array(samples.count * m);

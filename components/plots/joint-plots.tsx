@@ -37,7 +37,8 @@ export interface JointPlotsProps {
 
 /** What the plots say when there is no time span to draw. */
 export function noMotionText(moveCount: number | undefined): string {
-  if (moveCount === undefined || moveCount === 0) return "No moves yet: add a move with a duration to see positions, speeds and accelerations over time.";
+  if (moveCount === undefined || moveCount === 0)
+    return "No moves yet: add a move with a duration to see positions, speeds and accelerations over time.";
   return (
     `${moveCount === 1 ? "The plan's one move is an instant move" : `All ${moveCount} moves are instant moves`}: the controller is asked to be at each goal ` +
     "at its next cycle, so there is no motion over time to plot. An instant move faults when its step exceeds what a joint travels in one control period; " +
@@ -48,12 +49,18 @@ export function noMotionText(moveCount: number | undefined): string {
 const Y_AXIS_WIDTH = 52;
 const RIGHT_MARGIN = 12;
 
-const quantityWords: Record<Quantity, string> = { position: "Position", velocity: "Velocity", acceleration: "Acceleration", effort: "Effort" };
+const quantityWords: Record<Quantity, string> = {
+  position: "Position",
+  velocity: "Velocity",
+  acceleration: "Acceleration",
+  effort: "Effort",
+};
 
 function limitsOf(joint: Joint, q: Quantity): { lo: number; hi: number } | null {
   if (q === "position") return { lo: joint.min, hi: joint.max };
   if (q === "velocity") return { lo: -joint.maxVelocity, hi: joint.maxVelocity };
-  if (q === "acceleration" && joint.maxAcceleration !== undefined) return { lo: -joint.maxAcceleration, hi: joint.maxAcceleration };
+  if (q === "acceleration" && joint.maxAcceleration !== undefined)
+    return { lo: -joint.maxAcceleration, hi: joint.maxAcceleration };
   if (q === "effort" && joint.maxEffort !== undefined) return { lo: -joint.maxEffort, hi: joint.maxEffort };
   return null;
 }
@@ -64,9 +71,22 @@ function limitsOf(joint: Joint, q: Quantity): { lo: number; hi: number } | null 
  * and the playhead as a cursor line. Click or drag on a chart to move the playhead.
  */
 export function JointPlots(props: JointPlotsProps) {
-  const { samples, joints, cautionRatio, unit, selectedJoints, onSelectedJointsChange, markers, effort, buckets = 400, className } = props;
+  const {
+    samples,
+    joints,
+    cautionRatio,
+    unit,
+    selectedJoints,
+    onSelectedJointsChange,
+    markers,
+    effort,
+    buckets = 400,
+    className,
+  } = props;
   const quantities = useMemo<readonly Quantity[]>(
-    () => props.quantities ?? (effort ? ["position", "velocity", "acceleration", "effort"] : ["position", "velocity", "acceleration"]),
+    () =>
+      props.quantities ??
+      (effort ? ["position", "velocity", "acceleration", "effort"] : ["position", "velocity", "acceleration"]),
     [props.quantities, effort],
   );
   const n = samples.jointCount;
@@ -78,7 +98,13 @@ export function JointPlots(props: JointPlotsProps) {
     for (const q of quantities) {
       const isEffort = q === "effort";
       if (isEffort && !effort) continue;
-      const arr = isEffort ? effort!.values : q === "position" ? samples.position : q === "velocity" ? samples.velocity : samples.acceleration;
+      const arr = isEffort
+        ? effort!.values
+        : q === "position"
+          ? samples.position
+          : q === "velocity"
+            ? samples.velocity
+            : samples.acceleration;
       const stride = isEffort ? effort!.stride : n;
       const qCols = isEffort ? cols.filter((j) => j < stride) : cols;
       const idx = minMaxIndices(samples.count, arr, stride, qCols, buckets);
@@ -86,7 +112,8 @@ export function JointPlots(props: JointPlotsProps) {
       for (let r = 0; r < idx.length; r++) {
         const k = idx[r];
         const row: Record<string, number> = { t: samples.timeS[k] };
-        for (const j of qCols) row[`j${j}`] = arr[k * stride + j] * (isEffort ? 1 : displayFactor(joints[j].type, unit));
+        for (const j of qCols)
+          row[`j${j}`] = arr[k * stride + j] * (isEffort ? 1 : displayFactor(joints[j].type, unit));
         rows[r] = row;
       }
       byQuantity[q] = rows;
@@ -105,43 +132,72 @@ export function JointPlots(props: JointPlotsProps) {
               key={joint.name}
               type="button"
               aria-pressed={on}
-              onClick={() => onSelectedJointsChange(on ? selectedJoints.filter((x) => x !== j) : [...selectedJoints, j].sort((a, b) => a - b))}
-              className={cn("inline-flex items-center gap-1 rounded-full border px-2 py-px text-[11px]", on ? "border-ink/30 bg-panel text-ink" : "border-line text-ink-faint hover:text-ink")}
+              onClick={() =>
+                onSelectedJointsChange(
+                  on ? selectedJoints.filter((x) => x !== j) : [...selectedJoints, j].sort((a, b) => a - b),
+                )
+              }
+              className={cn(
+                "inline-flex items-center gap-1 rounded-full border px-2 py-px text-[11px]",
+                on ? "border-ink/30 bg-panel text-ink" : "border-line text-ink-faint hover:text-ink",
+              )}
             >
-              <span aria-hidden="true" className="inline-block h-2 w-2 rounded-full" style={{ background: on ? jointColor(j) : "transparent", border: `1.5px solid ${jointColor(j)}` }} />
+              <span
+                aria-hidden="true"
+                className="inline-block h-2 w-2 rounded-full"
+                style={{ background: on ? jointColor(j) : "transparent", border: `1.5px solid ${jointColor(j)}` }}
+              />
               {joint.name}
             </button>
           );
         })}
         <span className="ml-auto flex items-center gap-3 text-[10px] text-ink-faint" aria-hidden="true">
-          <span className="inline-flex items-center gap-1"><span className="inline-block h-0 w-4 border-t-2 border-fault" /> limit</span>
-          <span className="inline-flex items-center gap-1"><span className="inline-block h-0 w-4 border-t-2 border-dashed border-caution" /> caution {Math.round(cautionRatio * 100)}%</span>
+          <span className="inline-flex items-center gap-1">
+            <span className="inline-block h-0 w-4 border-t-2 border-fault" /> limit
+          </span>
+          <span className="inline-flex items-center gap-1">
+            <span className="inline-block h-0 w-4 border-t-2 border-dashed border-caution" /> caution{" "}
+            {Math.round(cautionRatio * 100)}%
+          </span>
         </span>
       </div>
       {totalS <= 0 ? (
-        <p className="px-2 py-6 text-center text-xs text-ink-soft" data-testid="plots-empty">{noMotionText(props.moveCount)}</p>
+        <p className="px-2 py-6 text-center text-xs text-ink-soft" data-testid="plots-empty">
+          {noMotionText(props.moveCount)}
+        </p>
       ) : selectedJoints.length === 0 ? (
         <p className="px-2 py-6 text-center text-xs text-ink-soft">Pick a joint above to plot it.</p>
       ) : (
-        quantities.filter((q) => data[q]).map((q) => (
-          <QuantityChart
-            key={q}
-            quantity={q}
-            rows={data[q]}
-            totalS={totalS}
-            joints={joints}
-            selectedJoints={selectedJoints.filter((j) => j < (q === "effort" && effort ? effort.stride : n))}
-            cautionRatio={cautionRatio}
-            unit={unit}
-            markers={markers}
-          />
-        ))
+        quantities
+          .filter((q) => data[q])
+          .map((q) => (
+            <QuantityChart
+              key={q}
+              quantity={q}
+              rows={data[q]}
+              totalS={totalS}
+              joints={joints}
+              selectedJoints={selectedJoints.filter((j) => j < (q === "effort" && effort ? effort.stride : n))}
+              cautionRatio={cautionRatio}
+              unit={unit}
+              markers={markers}
+            />
+          ))
       )}
     </div>
   );
 }
 
-function QuantityChart({ quantity, rows, totalS, joints, selectedJoints, cautionRatio, unit, markers }: {
+function QuantityChart({
+  quantity,
+  rows,
+  totalS,
+  joints,
+  selectedJoints,
+  cautionRatio,
+  unit,
+  markers,
+}: {
   quantity: Quantity;
   rows: Record<string, number>[];
   totalS: number;
@@ -160,10 +216,22 @@ function QuantityChart({ quantity, rows, totalS, joints, selectedJoints, caution
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={rows} margin={{ top: 12, right: RIGHT_MARGIN, bottom: 0, left: 0 }}>
             <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" vertical={false} />
-            <XAxis dataKey="t" type="number" domain={[0, totalS || 1]} tick={{ fontSize: 10, fill: "#6b7280" }} tickCount={8}
-              tickFormatter={(v: number) => `${Number(v.toFixed(2))}`} height={16} allowDataOverflow />
-            <YAxis width={Y_AXIS_WIDTH} tick={{ fontSize: 10, fill: "#6b7280" }} tickCount={4}
-              tickFormatter={(v: number) => `${Math.abs(v) >= 100 ? v.toFixed(0) : Number(v.toFixed(1))}`} />
+            <XAxis
+              dataKey="t"
+              type="number"
+              domain={[0, totalS || 1]}
+              tick={{ fontSize: 10, fill: "#6b7280" }}
+              tickCount={8}
+              tickFormatter={(v: number) => `${Number(v.toFixed(2))}`}
+              height={16}
+              allowDataOverflow
+            />
+            <YAxis
+              width={Y_AXIS_WIDTH}
+              tick={{ fontSize: 10, fill: "#6b7280" }}
+              tickCount={4}
+              tickFormatter={(v: number) => `${Math.abs(v) >= 100 ? v.toFixed(0) : Number(v.toFixed(1))}`}
+            />
             {selectedJoints.map((j) => {
               const lim = limitsOf(joints[j], quantity);
               if (!lim) return null;
@@ -173,18 +241,52 @@ function QuantityChart({ quantity, rows, totalS, joints, selectedJoints, caution
                 { y: lim.lo * f, dash: undefined, color: verdictLook.fault.stroke, key: "lo" },
               ];
               if (quantity !== "position") {
-                lines.push({ y: lim.hi * f * cautionRatio, dash: "4 3", color: verdictLook.caution.stroke, key: "chi" } as never);
-                lines.push({ y: lim.lo * f * cautionRatio, dash: "4 3", color: verdictLook.caution.stroke, key: "clo" } as never);
+                lines.push({
+                  y: lim.hi * f * cautionRatio,
+                  dash: "4 3",
+                  color: verdictLook.caution.stroke,
+                  key: "chi",
+                } as never);
+                lines.push({
+                  y: lim.lo * f * cautionRatio,
+                  dash: "4 3",
+                  color: verdictLook.caution.stroke,
+                  key: "clo",
+                } as never);
               }
               return lines.map((l) => (
-                <ReferenceLine key={`${j}-${l.key}`} y={l.y} stroke={l.color} strokeDasharray={l.dash} strokeWidth={1} ifOverflow="extendDomain" />
+                <ReferenceLine
+                  key={`${j}-${l.key}`}
+                  y={l.y}
+                  stroke={l.color}
+                  strokeDasharray={l.dash}
+                  strokeWidth={1}
+                  ifOverflow="extendDomain"
+                />
               ));
             })}
-            {markers.filter((m) => m.joint === null || selectedJoints.includes(m.joint)).map((m, i) => (
-              <ReferenceLine key={`m${i}`} x={m.timeS} stroke={verdictLook[m.severity].stroke} strokeOpacity={0.5} strokeWidth={6} />
-            ))}
+            {markers
+              .filter((m) => m.joint === null || selectedJoints.includes(m.joint))
+              .map((m, i) => (
+                <ReferenceLine
+                  key={`m${i}`}
+                  x={m.timeS}
+                  stroke={verdictLook[m.severity].stroke}
+                  strokeOpacity={0.5}
+                  strokeWidth={6}
+                />
+              ))}
             {selectedJoints.map((j) => (
-              <Line key={j} dataKey={`j${j}`} stroke={jointColor(j)} strokeWidth={1.5} dot={false} isAnimationActive={false} type="linear" name={joints[j].name} />
+              <Line
+                key={j}
+                dataKey={`j${j}`}
+                stroke={jointColor(j)}
+                strokeWidth={1.5}
+                dot={false}
+                isAnimationActive={false}
+                type="linear"
+                name={joints[j].name}
+              />
             ))}
           </LineChart>
         </ResponsiveContainer>
@@ -219,7 +321,10 @@ function PlotCursor({ totalS }: { totalS: number }) {
         if (e.buttons & 1) seekFrom(e);
       }}
     >
-      <div className="pointer-events-none absolute top-0 bottom-0 w-px bg-copper-500" style={{ left: `${frac * 100}%` }} />
+      <div
+        className="pointer-events-none absolute top-0 bottom-0 w-px bg-copper-500"
+        style={{ left: `${frac * 100}%` }}
+      />
     </div>
   );
 }

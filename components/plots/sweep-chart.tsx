@@ -14,7 +14,14 @@ export interface SweepPoint {
  * The duration sweep of one move: for durations around its shortest safe duration, the worst joint's
  * peak-to-limit ratio (speed or acceleration, whichever is closer to its limit). Ratio 1 is the limit.
  */
-export function durationSweep(shape: ShapeName, delta: ArrayLike<number>, joints: readonly Joint[], fromS: number, toS: number, steps = 80): SweepPoint[] {
+export function durationSweep(
+  shape: ShapeName,
+  delta: ArrayLike<number>,
+  joints: readonly Joint[],
+  fromS: number,
+  toS: number,
+  steps = 80,
+): SweepPoint[] {
   const id = shapeId(shape);
   const v = new Float64Array(joints.length);
   const a = new Float64Array(joints.length);
@@ -52,11 +59,18 @@ export function SweepChart({ shape, delta, joints, cautionRatio, minSafeS, curre
     return durationSweep(shape, delta, joints, lo, hi).map((p) => ({ d: p.durationS, r: Math.min(p.ratio, 2.5) }));
   }, [shape, delta, joints, minSafeS, currentS]);
   if (minSafeS === null) {
-    return <p className="text-xs text-fault" data-testid="sweep-no-duration">No duration of this move passes every check: the findings say what would fix it.</p>;
+    return (
+      <p className="text-xs text-fault" data-testid="sweep-no-duration">
+        No duration of this move passes every check: the findings say what would fix it.
+      </p>
+    );
   }
-  if (!(minSafeS > 0)) return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
+  if (!(minSafeS > 0))
+    return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
   return (
-    <figure aria-label={`Duration sweep: worst joint's peak-to-limit ratio against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}>
+    <figure
+      aria-label={`Duration sweep: worst joint's peak-to-limit ratio against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}
+    >
       <figcaption className="mb-1 flex justify-between text-[11px] text-ink-soft">
         <span>Duration sweep (speed and acceleration, worst joint, peak ÷ limit)</span>
         <span className="tabular font-mono">safe ≥ {minSafeS.toFixed(3)} s</span>
@@ -65,12 +79,38 @@ export function SweepChart({ shape, delta, joints, cautionRatio, minSafeS, curre
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={data} margin={{ top: 4, right: 8, bottom: 0, left: 0 }}>
             <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" />
-            <XAxis dataKey="d" type="number" domain={["dataMin", "dataMax"]} tick={{ fontSize: 10, fill: "#6b7280" }} tickFormatter={(v: number) => `${Number(v.toFixed(2))}s`} height={16} />
-            <YAxis width={34} domain={[0, 2.5]} ticks={[0, 0.5, 1, 1.5, 2, 2.5]} tick={{ fontSize: 10, fill: "#6b7280" }} />
+            <XAxis
+              dataKey="d"
+              type="number"
+              domain={["dataMin", "dataMax"]}
+              tick={{ fontSize: 10, fill: "#6b7280" }}
+              tickFormatter={(v: number) => `${Number(v.toFixed(2))}s`}
+              height={16}
+            />
+            <YAxis
+              width={34}
+              domain={[0, 2.5]}
+              ticks={[0, 0.5, 1, 1.5, 2, 2.5]}
+              tick={{ fontSize: 10, fill: "#6b7280" }}
+            />
             <ReferenceLine y={1} stroke={verdictLook.fault.stroke} />
             <ReferenceLine y={cautionRatio} stroke={verdictLook.caution.stroke} strokeDasharray="4 3" />
-            <ReferenceLine x={minSafeS} stroke={verdictLook.pass.stroke} strokeDasharray="3 2" label={{ value: "shortest safe", position: "insideTopRight", fontSize: 10, fill: verdictLook.pass.stroke }} />
-            <ReferenceLine x={currentS} stroke="#b8612a" label={{ value: "now", position: "insideTopLeft", fontSize: 10, fill: "#9a4f21" }} />
+            <ReferenceLine
+              x={minSafeS}
+              stroke={verdictLook.pass.stroke}
+              strokeDasharray="3 2"
+              label={{
+                value: "shortest safe",
+                position: "insideTopRight",
+                fontSize: 10,
+                fill: verdictLook.pass.stroke,
+              }}
+            />
+            <ReferenceLine
+              x={currentS}
+              stroke="#b8612a"
+              label={{ value: "now", position: "insideTopLeft", fontSize: 10, fill: "#9a4f21" }}
+            />
             <Line dataKey="r" stroke="#1f6f86" strokeWidth={1.5} dot={false} isAnimationActive={false} />
           </LineChart>
         </ResponsiveContainer>

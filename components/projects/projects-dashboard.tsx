@@ -53,13 +53,22 @@ const planColumns = col.columns([
     sortFn: "text",
     meta: { headerClassName: "pl-4", cellClassName: "pl-4" },
     cell: (c) => (
-      <Link href={`/projects/${c.row.original.projectId}/plans/${c.row.original.id}`} className="font-medium text-brand-700 hover:underline">
+      <Link
+        href={`/projects/${c.row.original.projectId}/plans/${c.row.original.id}`}
+        className="font-medium text-brand-700 hover:underline"
+      >
         {c.getValue()}
       </Link>
     ),
   }),
   col.accessor("armName", { header: "Arm", sortFn: "text", meta: { cellClassName: "text-ink-soft" } }),
-  col.accessor("latestVersion", { header: "Version", sortFn: "basic", enableGlobalFilter: false, meta: { numeric: true }, cell: (c) => c.getValue() || "—" }),
+  col.accessor("latestVersion", {
+    header: "Version",
+    sortFn: "basic",
+    enableGlobalFilter: false,
+    meta: { numeric: true },
+    cell: (c) => c.getValue() || "—",
+  }),
   col.accessor("latestVerdict", {
     header: "Last verdict",
     enableGlobalFilter: false,
@@ -85,11 +94,17 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
   const [newProject, setNewProject] = useState(false);
   const [newPlanFor, setNewPlanFor] = useState<DashboardProject | null>(null);
 
-  const withRows = useMemo(() => projects.map((p) => ({ ...p, rows: p.plans.map((pl) => ({ ...pl, projectId: p.id })) })), [projects]);
+  const withRows = useMemo(
+    () => projects.map((p) => ({ ...p, rows: p.plans.map((pl) => ({ ...pl, projectId: p.id })) })),
+    [projects],
+  );
   const q = query.trim().toLowerCase();
   // A project shows when its name matches (all its plans), or when one of its plans does (the table filters them).
   const shown = withRows.filter(
-    (p) => !q || p.name.toLowerCase().includes(q) || p.plans.some((pl) => pl.name.toLowerCase().includes(q) || pl.armName.toLowerCase().includes(q)),
+    (p) =>
+      !q ||
+      p.name.toLowerCase().includes(q) ||
+      p.plans.some((pl) => pl.name.toLowerCase().includes(q) || pl.armName.toLowerCase().includes(q)),
   );
 
   return (
@@ -98,10 +113,18 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
         <div className="mr-auto">
           <h1 className="text-2xl font-semibold tracking-tight">Projects</h1>
           <p className="text-sm text-ink-soft">
-            Your projects and their plans, with the verdict of each plan&apos;s latest saved version. Click a column heading to sort.
+            Your projects and their plans, with the verdict of each plan&apos;s latest saved version. Click a column
+            heading to sort.
           </p>
         </div>
-        <TextField label="Filter plans" placeholder="Plan, project or arm" value={query} onChange={(e) => setQuery(e.target.value)} fieldClassName="w-64" type="search" />
+        <TextField
+          label="Filter plans"
+          placeholder="Plan, project or arm"
+          value={query}
+          onChange={(e) => setQuery(e.target.value)}
+          fieldClassName="w-64"
+          type="search"
+        />
         <Button variant="primary" onClick={() => setNewProject(true)}>
           <PlusIcon size={14} /> New project
         </Button>
@@ -109,7 +132,14 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
 
       <div className="mt-6 flex flex-col gap-5">
         {projects.length === 0 ? (
-          <EmptyState title="No projects yet" action={<Button variant="primary" onClick={() => setNewProject(true)}>Create your first project</Button>}>
+          <EmptyState
+            title="No projects yet"
+            action={
+              <Button variant="primary" onClick={() => setNewProject(true)}>
+                Create your first project
+              </Button>
+            }
+          >
             A project holds plans for one or more arms; create one to start planning moves.
           </EmptyState>
         ) : shown.length === 0 ? (
@@ -121,14 +151,22 @@ export function ProjectsDashboard({ projects, arms }: { projects: DashboardProje
               <Panel key={p.id} className="overflow-hidden" aria-labelledby={`project-${p.id}`}>
                 <div className="flex flex-wrap items-center gap-3 border-b border-line px-4 py-3">
                   <h2 id={`project-${p.id}`} className="font-semibold">
-                    <Link href={`/projects/${p.id}`} className="hover:underline">{p.name}</Link>
+                    <Link href={`/projects/${p.id}`} className="hover:underline">
+                      {p.name}
+                    </Link>
                   </h2>
                   <span className="rounded bg-brand-50 px-1.5 py-0.5 text-[11px] text-brand-700">{p.kind}</span>
                   <span className="text-xs text-ink-faint">your role: {p.role}</span>
                   <span className="ml-auto flex items-center gap-3">
-                    <Link href={`/projects/${p.id}`} className="text-sm text-brand-600 hover:underline">Members and activity</Link>
-                    <Link href={`/projects/${p.id}/recordings`} className="text-sm text-brand-600 hover:underline">Recordings</Link>
-                    <Link href={`/projects/${p.id}/arms`} className="text-sm text-brand-600 hover:underline">Arms</Link>
+                    <Link href={`/projects/${p.id}`} className="text-sm text-brand-600 hover:underline">
+                      Members and activity
+                    </Link>
+                    <Link href={`/projects/${p.id}/recordings`} className="text-sm text-brand-600 hover:underline">
+                      Recordings
+                    </Link>
+                    <Link href={`/projects/${p.id}/arms`} className="text-sm text-brand-600 hover:underline">
+                      Arms
+                    </Link>
                     {p.role !== "viewer" ? (
                       <Button size="sm" onClick={() => setNewPlanFor(p)} aria-label={`New plan in ${p.name}`}>
                         <PlusIcon size={13} /> New plan
@@ -195,7 +233,13 @@ function NewProjectDialog({ open, onClose, onCreated }: { open: boolean; onClose
       }
     >
       <form id={formId} className="flex flex-col gap-3" onSubmit={onSubmit} noValidate>
-        <TextField label="Name" maxLength={120} autoFocus error={fieldMessage("The name", errors.name)} {...form.register("name")} />
+        <TextField
+          label="Name"
+          maxLength={120}
+          autoFocus
+          error={fieldMessage("The name", errors.name)}
+          {...form.register("name")}
+        />
         <SelectField label="Kind" error={fieldMessage("The kind", errors.kind)} {...form.register("kind")}>
           <option value="research">Research (a team&apos;s shared space)</option>
           <option value="personal">Personal</option>
@@ -206,10 +250,23 @@ function NewProjectDialog({ open, onClose, onCreated }: { open: boolean; onClose
   );
 }
 
-function NewPlanDialog({ project, arms, onClose, onCreated }: { project: DashboardProject; arms: DashboardArm[]; onClose: () => void; onCreated: (planId: string) => void }) {
+function NewPlanDialog({
+  project,
+  arms,
+  onClose,
+  onCreated,
+}: {
+  project: DashboardProject;
+  arms: DashboardArm[];
+  onClose: () => void;
+  onCreated: (planId: string) => void;
+}) {
   const formId = useId();
   const [failure, setFailure] = useState<string | undefined>();
-  const form = useForm({ resolver: zodResolver(createPlanSchema), defaultValues: { name: "", armId: arms[0]?.id ?? "" } });
+  const form = useForm({
+    resolver: zodResolver(createPlanSchema),
+    defaultValues: { name: "", armId: arms[0]?.id ?? "" },
+  });
   const { errors, isSubmitting } = form.formState;
   const onSubmit = form.handleSubmit(async (body) => {
     setFailure(undefined);
@@ -235,7 +292,13 @@ function NewPlanDialog({ project, arms, onClose, onCreated }: { project: Dashboa
       }
     >
       <form id={formId} className="flex flex-col gap-3" onSubmit={onSubmit} noValidate>
-        <TextField label="Plan name" maxLength={120} autoFocus error={fieldMessage("The plan name", errors.name)} {...form.register("name")} />
+        <TextField
+          label="Plan name"
+          maxLength={120}
+          autoFocus
+          error={fieldMessage("The plan name", errors.name)}
+          {...form.register("name")}
+        />
         <SelectField
           label="Arm"
           error={fieldMessage("The arm", errors.armId)}
@@ -243,7 +306,10 @@ function NewPlanDialog({ project, arms, onClose, onCreated }: { project: Dashboa
           {...form.register("armId")}
         >
           {arms.map((a) => (
-            <option key={a.id} value={a.id}>{a.name}{a.builtIn ? " (demo arm)" : " (custom)"}</option>
+            <option key={a.id} value={a.id}>
+              {a.name}
+              {a.builtIn ? " (demo arm)" : " (custom)"}
+            </option>
           ))}
         </SelectField>
         {failure ? <ErrorNote title="The plan was not created">{failure}</ErrorNote> : null}

@@ -6,23 +6,55 @@ import { Dialog } from "@/components/ui/dialog";
 import { formatRecordingCsv, type Recording } from "@/kinematics";
 
 /** Export of a repaired recording as CSV, behind the safety caution. */
-export function ExportDialogShell({ recording, fileName, onClose }: { recording: Recording; fileName: string; onClose: () => void }) {
+export function ExportDialogShell({
+  recording,
+  fileName,
+  onClose,
+}: {
+  recording: Recording;
+  fileName: string;
+  onClose: () => void;
+}) {
   const [ack, setAck] = useState(false);
-  const href = useMemo(() => (ack ? URL.createObjectURL(new Blob([formatRecordingCsv(recording)], { type: "text/csv" })) : null), [ack, recording]);
+  const href = useMemo(
+    () => (ack ? URL.createObjectURL(new Blob([formatRecordingCsv(recording)], { type: "text/csv" })) : null),
+    [ack, recording],
+  );
   return (
-    <Dialog open title="Export the repaired recording" onClose={onClose} actions={<Button onClick={onClose}>Close</Button>}>
+    <Dialog
+      open
+      title="Export the repaired recording"
+      onClose={onClose}
+      actions={<Button onClick={onClose}>Close</Button>}
+    >
       <div className="flex flex-col gap-3">
         <SafetyCaution />
         <label className="flex items-start gap-2 text-sm">
-          <input type="checkbox" checked={ack} onChange={(e) => setAck(e.target.checked)} className="mt-1 accent-brand-600" />
+          <input
+            type="checkbox"
+            checked={ack}
+            onChange={(e) => setAck(e.target.checked)}
+            className="mt-1 accent-brand-600"
+          />
           <span>I have read the caution; the repaired log is a prediction to verify on the arm at reduced speed.</span>
         </label>
         {href ? (
-          <a href={href} download={fileName} className="inline-flex h-9 w-fit items-center rounded-md bg-brand-600 px-3.5 text-sm font-medium text-white hover:bg-brand-700">Download {fileName}</a>
+          <a
+            href={href}
+            download={fileName}
+            className="inline-flex h-9 w-fit items-center rounded-md bg-brand-600 px-3.5 text-sm font-medium text-white hover:bg-brand-700"
+          >
+            Download {fileName}
+          </a>
         ) : (
-          <Button variant="primary" disabled className="w-fit">Download CSV</Button>
+          <Button variant="primary" disabled className="w-fit">
+            Download CSV
+          </Button>
         )}
-        <p className="text-xs text-ink-soft">Check it again from the command line: <code className="font-mono">bin/jointproof scan {fileName} --arm ARM.json</code></p>
+        <p className="text-xs text-ink-soft">
+          Check it again from the command line:{" "}
+          <code className="font-mono">bin/jointproof scan {fileName} --arm ARM.json</code>
+        </p>
       </div>
     </Dialog>
   );

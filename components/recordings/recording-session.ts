@@ -99,7 +99,16 @@ export function sessionReducer(state: RecordingSession, action: SessionAction): 
       // a check against another arm says nothing about this one: drop every result
       return { ...state, armId: action.armId, loaded: null, repaired: null, planPreview: null };
     case "read-start":
-      return { ...state, problems: [], loaded: null, repaired: null, planPreview: null, progress: 0, file: action.file, uploadProgress: null };
+      return {
+        ...state,
+        problems: [],
+        loaded: null,
+        repaired: null,
+        planPreview: null,
+        progress: 0,
+        file: action.file,
+        uploadProgress: null,
+      };
     case "read-progress":
       return { ...state, progress: action.fraction };
     case "refused":

@@ -22,7 +22,13 @@ export type { RecordingArm } from "./recording-session";
 /** Revolute joints are shown in degrees on this page. */
 const unit: AngleUnit = "deg";
 
-export function RecordingsWorkbench({ projectId, projectName, arms, canEdit, stored }: {
+export function RecordingsWorkbench({
+  projectId,
+  projectName,
+  arms,
+  canEdit,
+  stored,
+}: {
   projectId: string;
   projectName: string;
   arms: RecordingArm[];
@@ -36,13 +42,18 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit, sto
   return (
     <div className="mx-auto max-w-7xl px-6 py-6">
       <h1 className="text-2xl font-semibold tracking-tight">Recordings</h1>
-      <p className="text-sm text-ink-soft">{projectName}: check a recorded joint log as if streamed to the controller sample by sample, repair it, and keep it as a plan.</p>
+      <p className="text-sm text-ink-soft">
+        {projectName}: check a recorded joint log as if streamed to the controller sample by sample, repair it, and keep
+        it as a plan.
+      </p>
 
       <div className="mt-5 grid gap-5 lg:grid-cols-[360px_1fr]">
         <Panel className="flex flex-col gap-4 p-4">
           <SourcePanel session={session} arms={arms} />
           {loaded ? <StreamCheckPanel session={session} loaded={loaded} canEdit={canEdit} /> : null}
-          {loaded && session.chosen ? <TimedReplayPanel arm={session.chosen.arm} recording={loaded.recording} name={loaded.fileName} /> : null}
+          {loaded && session.chosen ? (
+            <TimedReplayPanel arm={session.chosen.arm} recording={loaded.recording} name={loaded.fileName} />
+          ) : null}
           {repaired ? <RepairedPanel session={session} repaired={repaired} canEdit={canEdit} unit={unit} /> : null}
         </Panel>
         <Panel className="min-w-0 p-4">
@@ -50,7 +61,11 @@ export function RecordingsWorkbench({ projectId, projectName, arms, canEdit, sto
         </Panel>
       </div>
       {state.exporting && repaired ? (
-        <ExportDialogShell recording={repaired.recording} fileName={(loaded?.fileName ?? "recording.csv").replace(/\.csv$/i, "") + "-repaired.csv"} onClose={() => dispatch({ type: "exporting", open: false })} />
+        <ExportDialogShell
+          recording={repaired.recording}
+          fileName={(loaded?.fileName ?? "recording.csv").replace(/\.csv$/i, "") + "-repaired.csv"}
+          onClose={() => dispatch({ type: "exporting", open: false })}
+        />
       ) : null}
     </div>
   );

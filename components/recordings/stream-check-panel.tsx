@@ -7,7 +7,15 @@ import { VerdictChip, type VerdictName } from "@/components/ui/verdict-chip";
 import type { LoadedRecording } from "./recording-session";
 import type { RecordingSessionApi } from "./use-recording-session";
 
-export function StreamCheckPanel({ session, loaded, canEdit }: { session: RecordingSessionApi; loaded: LoadedRecording; canEdit: boolean }) {
+export function StreamCheckPanel({
+  session,
+  loaded,
+  canEdit,
+}: {
+  session: RecordingSessionApi;
+  loaded: LoadedRecording;
+  canEdit: boolean;
+}) {
   const { state, dispatch, chosen, upload, repair } = session;
   const joints = chosen?.arm.joints ?? [];
   const { recording, report } = loaded;
@@ -18,16 +26,24 @@ export function StreamCheckPanel({ session, loaded, canEdit }: { session: Record
         <VerdictChip verdict={report.verdict as VerdictName} />
       </div>
       <p className="tabular text-xs text-ink-soft">
-        {loaded.fileName}: {recording.count.toLocaleString("en")} samples over {(recording.timeS[recording.count - 1] - recording.timeS[0]).toFixed(3)} s at {report.rateHz.toFixed(0)} Hz; checked in {loaded.checkMs.toFixed(0)} ms.
+        {loaded.fileName}: {recording.count.toLocaleString("en")} samples over{" "}
+        {(recording.timeS[recording.count - 1] - recording.timeS[0]).toFixed(3)} s at {report.rateHz.toFixed(0)} Hz;
+        checked in {loaded.checkMs.toFixed(0)} ms.
       </p>
       <ol className="flex max-h-64 flex-col gap-1.5 overflow-auto" data-testid="stream-findings">
         {report.findings.map((f, i) => (
           <li key={i}>
-            <button type="button" onClick={() => dispatch({ type: "show-joint", joint: f.joint })} className="w-full rounded-md border border-line bg-panel px-2 py-1.5 text-left hover:bg-paper">
+            <button
+              type="button"
+              onClick={() => dispatch({ type: "show-joint", joint: f.joint })}
+              className="w-full rounded-md border border-line bg-panel px-2 py-1.5 text-left hover:bg-paper"
+            >
               <span className="flex items-center gap-1.5">
                 <VerdictChip verdict={f.severity} size="sm" />
                 <span className="text-xs font-semibold">{kindWords[f.kind] ?? f.kind}</span>
-                <span className="tabular ml-auto font-mono text-[11px] text-ink-soft">{joints[f.joint]?.name} · line {f.line} · t = {f.time.toFixed(3)} s</span>
+                <span className="tabular ml-auto font-mono text-[11px] text-ink-soft">
+                  {joints[f.joint]?.name} · line {f.line} · t = {f.time.toFixed(3)} s
+                </span>
               </span>
               <span className="mt-0.5 block text-xs leading-snug">{f.message}</span>
             </button>
@@ -37,19 +53,36 @@ export function StreamCheckPanel({ session, loaded, canEdit }: { session: Record
       {canEdit ? (
         <div className="flex flex-col gap-1 rounded-md border border-line p-2">
           <Button size="sm" onClick={() => upload.mutate()} disabled={upload.isPending || upload.isSuccess}>
-            {upload.isSuccess ? "Kept in the project" : upload.isPending ? "Uploading…" : "Keep the original in the project"}
+            {upload.isSuccess
+              ? "Kept in the project"
+              : upload.isPending
+                ? "Uploading…"
+                : "Keep the original in the project"}
           </Button>
           {state.uploadProgress !== null ? (
-            <div role="progressbar" aria-label="Uploading the recording" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(state.uploadProgress * 100)}
-              className="h-1.5 overflow-hidden rounded-full bg-line/60">
-              <div className="h-full bg-copper-500 transition-[width]" style={{ width: `${Math.round(state.uploadProgress * 100)}%` }} />
+            <div
+              role="progressbar"
+              aria-label="Uploading the recording"
+              aria-valuemin={0}
+              aria-valuemax={100}
+              aria-valuenow={Math.round(state.uploadProgress * 100)}
+              className="h-1.5 overflow-hidden rounded-full bg-line/60"
+            >
+              <div
+                className="h-full bg-copper-500 transition-[width]"
+                style={{ width: `${Math.round(state.uploadProgress * 100)}%` }}
+              />
             </div>
           ) : null}
           {upload.error ? <ErrorNote title="The recording was not stored">{upload.error.message}</ErrorNote> : null}
         </div>
       ) : null}
-      {report.findings.length === 0 ? <p className="text-xs text-pass">No step is a jump or over a speed limit: the log can be streamed as it is.</p> : null}
-      <Button variant="primary" onClick={repair} disabled={report.verdict === "pass" && state.repaired !== null}>Repair (rate-limit to the arm&apos;s limits)</Button>
+      {report.findings.length === 0 ? (
+        <p className="text-xs text-pass">No step is a jump or over a speed limit: the log can be streamed as it is.</p>
+      ) : null}
+      <Button variant="primary" onClick={repair} disabled={report.verdict === "pass" && state.repaired !== null}>
+        Repair (rate-limit to the arm&apos;s limits)
+      </Button>
     </section>
   );
 }

@@ -15,19 +15,34 @@ import { readWithProgress } from "./read-file";
 import { initialSession, sessionReducer, type RecordingArm } from "./recording-session";
 
 /** The session of the recordings page for one project. */
-export function useRecordingSession({ projectId, arms, stored }: { projectId: string; arms: RecordingArm[]; stored: RecordingDto[] }) {
+export function useRecordingSession({
+  projectId,
+  arms,
+  stored,
+}: {
+  projectId: string;
+  arms: RecordingArm[];
+  stored: RecordingDto[];
+}) {
   const router = useRouter();
   const queryClient = useQueryClient();
   const [state, dispatch] = useReducer(sessionReducer, arms[0]?.id ?? "", initialSession);
   const chosen = arms.find((a) => a.id === state.armId);
-  const storedList = useQuery({ queryKey: queryKeys.recordings(projectId), queryFn: () => api.listRecordings(projectId), initialData: stored });
+  const storedList = useQuery({
+    queryKey: queryKeys.recordings(projectId),
+    queryFn: () => api.listRecordings(projectId),
+    initialData: stored,
+  });
 
   const upload = useMutation({
     mutationFn: () => {
       if (!state.file || !chosen) throw new Error("choose a file first");
       dispatch({ type: "upload-progress", fraction: 0 });
-      return uploadRecording(projectId, state.file, { name: state.file.name.slice(0, 120), armId: chosen.id }, (fraction) =>
-        dispatch({ type: "upload-progress", fraction }),
+      return uploadRecording(
+        projectId,
+        state.file,
+        { name: state.file.name.slice(0, 120), armId: chosen.id },
+        (fraction) => dispatch({ type: "upload-progress", fraction }),
       );
     },
     onSuccess: () => void queryClient.invalidateQueries({ queryKey: queryKeys.recordings(projectId) }),
@@ -44,7 +59,10 @@ export function useRecordingSession({ projectId, arms, stored }: { projectId: st
       dispatch({ type: "refused", problems: scanned.problems.map(describeRecordingProblem) });
       return;
     }
-    dispatch({ type: "loaded", loaded: { fileName: file.name, sizeBytes: file.size, ...scanned, checkMs: performance.now() - t0 } });
+    dispatch({
+      type: "loaded",
+      loaded: { fileName: file.name, sizeBytes: file.size, ...scanned, checkMs: performance.now() - t0 },
+    });
   };
 
   const openStored = async (r: RecordingDto) => {
@@ -68,7 +86,8 @@ export function useRecordingSession({ projectId, arms, stored }: { projectId: st
   };
 
   const setSpacing = (spacingS: number) => {
-    const planPreview = chosen && state.repaired ? planFromRecording(chosen.arm, state.repaired.recording, spacingS) : state.planPreview;
+    const planPreview =
+      chosen && state.repaired ? planFromRecording(chosen.arm, state.repaired.recording, spacingS) : state.planPreview;
     dispatch({ type: "spacing", spacingS, planPreview });
   };
 

@@ -24,7 +24,17 @@ export interface FaultApprovalDialogProps {
  * Approving a submission whose check found faults: the dialog lists each fault (moves counted from
  * 1) and sends the approval only with a typed reason, which the student will see.
  */
-export function FaultApprovalDialog({ open, faults, joints, reason, onReasonChange, pending, error, onCancel, onApprove }: FaultApprovalDialogProps) {
+export function FaultApprovalDialog({
+  open,
+  faults,
+  joints,
+  reason,
+  onReasonChange,
+  pending,
+  error,
+  onCancel,
+  onApprove,
+}: FaultApprovalDialogProps) {
   return (
     <Dialog
       open={open}
@@ -33,14 +43,20 @@ export function FaultApprovalDialog({ open, faults, joints, reason, onReasonChan
       className="max-w-xl"
       actions={
         <>
-          <Button size="sm" onClick={onCancel}>Cancel</Button>
-          <Button variant="danger" size="sm" disabled={pending || !reason.trim()} onClick={onApprove}>Approve with this reason</Button>
+          <Button size="sm" onClick={onCancel}>
+            Cancel
+          </Button>
+          <Button variant="danger" size="sm" disabled={pending || !reason.trim()} onClick={onApprove}>
+            Approve with this reason
+          </Button>
         </>
       }
     >
       <p>
-        The server&apos;s check against the assignment&apos;s limits found {faults.length === 1 ? "this fault" : faults.length > 1 ? `these ${faults.length} faults` : "a fault verdict"}. On the arm, the
-        controller would stop or refuse the motion there. Approving accepts the work as it is; the faults stay in the plan.
+        The server&apos;s check against the assignment&apos;s limits found{" "}
+        {faults.length === 1 ? "this fault" : faults.length > 1 ? `these ${faults.length} faults` : "a fault verdict"}.
+        On the arm, the controller would stop or refuse the motion there. Approving accepts the work as it is; the
+        faults stay in the plan.
       </p>
       {faults.length > 0 ? (
         <ul className="mt-3 flex max-h-56 flex-col gap-1.5 overflow-y-auto" data-testid="approval-faults">
@@ -63,7 +79,11 @@ export function FaultApprovalDialog({ open, faults, joints, reason, onReasonChan
           hint={`Required, at most ${FAULT_APPROVAL_REASON_MAX} characters. Approval does not clear the plan to run; the lab's safety rules decide that.`}
         />
       </div>
-      {error ? <div className="mt-2"><ErrorNote>{error}</ErrorNote></div> : null}
+      {error ? (
+        <div className="mt-2">
+          <ErrorNote>{error}</ErrorNote>
+        </div>
+      ) : null}
     </Dialog>
   );
 }

@@ -21,10 +21,22 @@ export interface QueueRow {
   status: Status;
 }
 
-const statusWords: Record<Status, string> = { submitted: "Waiting for review", returned: "Returned", approved: "Approved" };
+const statusWords: Record<Status, string> = {
+  submitted: "Waiting for review",
+  returned: "Returned",
+  approved: "Approved",
+};
 
 function when(iso: string): string {
-  return new Date(iso).toLocaleString("en-GB", { day: "numeric", month: "short", hour: "2-digit", minute: "2-digit", timeZone: "UTC" }) + " UTC";
+  return (
+    new Date(iso).toLocaleString("en-GB", {
+      day: "numeric",
+      month: "short",
+      hour: "2-digit",
+      minute: "2-digit",
+      timeZone: "UTC",
+    }) + " UTC"
+  );
 }
 
 /** A link to the same queue with some filter or sort changed (the URL is the queue's state, so it can be shared). */
@@ -35,7 +47,15 @@ function hrefWith(filter: QueueQuery, patch: Partial<QueueQuery>): string {
   return `/reviews?${params.toString()}`;
 }
 
-function SortHeader({ filter, column, children }: { filter: QueueQuery; column: QueueQuery["sort"]; children: string }) {
+function SortHeader({
+  filter,
+  column,
+  children,
+}: {
+  filter: QueueQuery;
+  column: QueueQuery["sort"];
+  children: string;
+}) {
   const active = filter.sort === column;
   const order = active && filter.order === "asc" ? "desc" : "asc";
   return (
@@ -60,7 +80,16 @@ export function ReviewQueue({
   teaches: boolean;
   courses: { id: string; title: string }[];
   queue: QueueRow[];
-  mine: { id: string; assignmentTitle: string; courseTitle: string; submittedAt: string; attempt: number; verdict: Verdict; status: Status; late: boolean }[];
+  mine: {
+    id: string;
+    assignmentTitle: string;
+    courseTitle: string;
+    submittedAt: string;
+    attempt: number;
+    verdict: Verdict;
+    status: Status;
+    late: boolean;
+  }[];
 }) {
   const select = "h-9 rounded-md border border-line bg-panel px-2 text-sm";
   return (
@@ -68,13 +97,25 @@ export function ReviewQueue({
       <h1 className="text-2xl font-semibold tracking-tight">Reviews</h1>
       {teaches ? (
         <>
-          <p className="text-sm text-ink-soft">Submitted plans in your courses. Open one to see it in the viewer, comment on a move and a moment, and approve or return it.</p>
-          <form method="get" action="/reviews" className="mt-5 flex flex-wrap items-end gap-3" aria-label="Filter the queue">
+          <p className="text-sm text-ink-soft">
+            Submitted plans in your courses. Open one to see it in the viewer, comment on a move and a moment, and
+            approve or return it.
+          </p>
+          <form
+            method="get"
+            action="/reviews"
+            className="mt-5 flex flex-wrap items-end gap-3"
+            aria-label="Filter the queue"
+          >
             <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
               Course
               <select name="courseId" defaultValue={filter.courseId ?? ""} className={select}>
                 <option value="">All courses</option>
-                {courses.map((c) => <option key={c.id} value={c.id}>{c.title}</option>)}
+                {courses.map((c) => (
+                  <option key={c.id} value={c.id}>
+                    {c.title}
+                  </option>
+                ))}
               </select>
             </label>
             <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
@@ -98,39 +139,65 @@ export function ReviewQueue({
             {filter.assignmentId ? <input type="hidden" name="assignmentId" value={filter.assignmentId} /> : null}
             <input type="hidden" name="sort" value={filter.sort} />
             <input type="hidden" name="order" value={filter.order} />
-            <button type="submit" className="h-9 rounded-md bg-brand-600 px-3.5 text-sm font-medium text-white hover:bg-brand-700">Apply</button>
-            <Link href="/reviews" className="h-9 px-2 text-sm leading-9 text-ink-soft hover:text-ink">Clear</Link>
+            <button
+              type="submit"
+              className="h-9 rounded-md bg-brand-600 px-3.5 text-sm font-medium text-white hover:bg-brand-700"
+            >
+              Apply
+            </button>
+            <Link href="/reviews" className="h-9 px-2 text-sm leading-9 text-ink-soft hover:text-ink">
+              Clear
+            </Link>
           </form>
           <Panel className="mt-4 overflow-x-auto">
             {queue.length === 0 ? (
-              <div className="p-4"><EmptyState title="Nothing here">No submissions match these filters.</EmptyState></div>
+              <div className="p-4">
+                <EmptyState title="Nothing here">No submissions match these filters.</EmptyState>
+              </div>
             ) : (
               <Table aria-label="Review queue" data-testid="review-queue">
                 <thead>
                   <tr>
-                    <SortHeader filter={filter} column="student">Student</SortHeader>
-                    <SortHeader filter={filter} column="assignment">Assignment</SortHeader>
-                    <SortHeader filter={filter} column="submittedAt">Submitted</SortHeader>
-                    <SortHeader filter={filter} column="verdict">Verdict</SortHeader>
-                    <SortHeader filter={filter} column="status">Status</SortHeader>
+                    <SortHeader filter={filter} column="student">
+                      Student
+                    </SortHeader>
+                    <SortHeader filter={filter} column="assignment">
+                      Assignment
+                    </SortHeader>
+                    <SortHeader filter={filter} column="submittedAt">
+                      Submitted
+                    </SortHeader>
+                    <SortHeader filter={filter} column="verdict">
+                      Verdict
+                    </SortHeader>
+                    <SortHeader filter={filter} column="status">
+                      Status
+                    </SortHeader>
                   </tr>
                 </thead>
                 <tbody>
                   {queue.map((q) => (
                     <tr key={q.id} data-testid="queue-row">
                       <Td>
-                        <Link href={`/reviews/${q.id}`} className="font-medium text-brand-700 hover:underline">{q.studentName}</Link>
+                        <Link href={`/reviews/${q.id}`} className="font-medium text-brand-700 hover:underline">
+                          {q.studentName}
+                        </Link>
                         <p className="text-xs text-ink-faint">{q.studentEmail}</p>
                       </Td>
                       <Td>
                         {q.assignmentTitle}
-                        <p className="text-xs text-ink-faint">{q.courseTitle}{q.attempt > 1 ? ` · attempt ${q.attempt}` : ""}</p>
+                        <p className="text-xs text-ink-faint">
+                          {q.courseTitle}
+                          {q.attempt > 1 ? ` · attempt ${q.attempt}` : ""}
+                        </p>
                       </Td>
                       <Td className="tabular text-xs whitespace-nowrap">
                         {when(q.submittedAt)}
                         {q.late ? <span className="ml-1 rounded bg-caution-tint px-1 text-caution">late</span> : null}
                       </Td>
-                      <Td><VerdictChip size="sm" verdict={q.verdict} /></Td>
+                      <Td>
+                        <VerdictChip size="sm" verdict={q.verdict} />
+                      </Td>
                       <Td className="text-xs">{statusWords[q.status]}</Td>
                     </tr>
                   ))}
@@ -145,7 +212,11 @@ export function ReviewQueue({
           <h2 className="mt-8 text-lg font-semibold">Your submissions</h2>
           <Panel className="mt-2 overflow-x-auto">
             {mine.length === 0 ? (
-              <div className="p-4"><EmptyState title="No submissions yet">Submit a saved plan version from a course&apos;s assignment list.</EmptyState></div>
+              <div className="p-4">
+                <EmptyState title="No submissions yet">
+                  Submit a saved plan version from a course&apos;s assignment list.
+                </EmptyState>
+              </div>
             ) : (
               <Table aria-label="Your submissions">
                 <thead>
@@ -160,11 +231,20 @@ export function ReviewQueue({
                   {mine.map((m) => (
                     <tr key={m.id}>
                       <Td>
-                        <Link href={`/reviews/${m.id}`} className="font-medium text-brand-700 hover:underline">{m.assignmentTitle}</Link>
-                        <p className="text-xs text-ink-faint">{m.courseTitle} · attempt {m.attempt}</p>
+                        <Link href={`/reviews/${m.id}`} className="font-medium text-brand-700 hover:underline">
+                          {m.assignmentTitle}
+                        </Link>
+                        <p className="text-xs text-ink-faint">
+                          {m.courseTitle} · attempt {m.attempt}
+                        </p>
                       </Td>
-                      <Td className="tabular text-xs">{when(m.submittedAt)}{m.late ? " · late" : ""}</Td>
-                      <Td><VerdictChip size="sm" verdict={m.verdict} /></Td>
+                      <Td className="tabular text-xs">
+                        {when(m.submittedAt)}
+                        {m.late ? " · late" : ""}
+                      </Td>
+                      <Td>
+                        <VerdictChip size="sm" verdict={m.verdict} />
+                      </Td>
                       <Td className="text-xs">{statusWords[m.status]}</Td>
                     </tr>
                   ))}

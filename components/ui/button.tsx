@@ -6,7 +6,8 @@ type Size = "sm" | "md";
 
 const variants: Record<Variant, string> = {
   primary: "bg-brand-600 text-white hover:bg-brand-700 disabled:bg-brand-100 disabled:text-ink-faint",
-  secondary: "border border-line bg-panel text-ink hover:border-brand-500 disabled:text-ink-faint disabled:hover:border-line",
+  secondary:
+    "border border-line bg-panel text-ink hover:border-brand-500 disabled:text-ink-faint disabled:hover:border-line",
   ghost: "text-ink-soft hover:bg-brand-50 hover:text-ink disabled:text-ink-faint disabled:hover:bg-transparent",
   danger: "border border-fault/40 bg-panel text-fault hover:bg-fault-tint disabled:text-ink-faint",
 };

@@ -147,7 +147,9 @@ export function DataTable<T extends object>({
                     key={header.id}
                     numeric={meta?.numeric}
                     className={meta?.headerClassName}
-                    aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : canSort ? "none" : undefined}
+                    aria-sort={
+                      sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : canSort ? "none" : undefined
+                    }
                   >
                     {header.isPlaceholder ? null : canSort ? (
                       <button
@@ -156,7 +158,9 @@ export function DataTable<T extends object>({
                         className={cn("inline-flex items-center gap-1 uppercase hover:text-ink", sorted && "text-ink")}
                       >
                         <table.FlexRender header={header} />
-                        <span aria-hidden className="font-mono text-[10px]">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
+                        <span aria-hidden className="font-mono text-[10px]">
+                          {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}
+                        </span>
                       </button>
                     ) : (
                       <table.FlexRender header={header} />
@@ -170,7 +174,11 @@ export function DataTable<T extends object>({
         <tbody>
           {padTop > 0 ? <tr aria-hidden style={{ height: padTop }} /> : null}
           {shown.map((row, i) => (
-            <tr key={row.id} className={cn("hover:bg-paper", rowClassName)} aria-rowindex={(items ? items[i].index : i) + 2}>
+            <tr
+              key={row.id}
+              className={cn("hover:bg-paper", rowClassName)}
+              aria-rowindex={(items ? items[i].index : i) + 2}
+            >
               {row.getAllCells().map((cell) => {
                 const meta = cell.column.columnDef.meta;
                 return (
@@ -184,7 +192,9 @@ export function DataTable<T extends object>({
           {padBottom > 0 ? <tr aria-hidden style={{ height: padBottom }} /> : null}
           {rows.length === 0 ? (
             <tr>
-              <Td colSpan={columnCount} className="py-4 text-ink-soft">{noMatch ?? "Nothing matches the filter."}</Td>
+              <Td colSpan={columnCount} className="py-4 text-ink-soft">
+                {noMatch ?? "Nothing matches the filter."}
+              </Td>
             </tr>
           ) : null}
         </tbody>

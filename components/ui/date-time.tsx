@@ -10,8 +10,20 @@ const noop = () => () => {};
  * the first render (server and hydration) shows UTC with the zone named; the browser then shows
  * the reader's own locale and zone.
  */
-export function DateTime({ value, day = false, className }: { value: Date | string | null | undefined; day?: boolean; className?: string }) {
-  const inBrowser = useSyncExternalStore(noop, () => true, () => false);
+export function DateTime({
+  value,
+  day = false,
+  className,
+}: {
+  value: Date | string | null | undefined;
+  day?: boolean;
+  className?: string;
+}) {
+  const inBrowser = useSyncExternalStore(
+    noop,
+    () => true,
+    () => false,
+  );
   if (value === null || value === undefined) return <span className={className}>—</span>;
   const iso = typeof value === "string" ? value : value.toISOString();
   const text = day

@@ -35,19 +35,34 @@ export function Dialog({ open, title, onClose, children, actions, className }: D
   }, [open, onClose]);
   if (!open) return null;
   return (
-    <div className="fixed inset-0 z-50 flex items-center justify-center bg-brand-900/40 p-4" onMouseDown={(e) => e.target === e.currentTarget && onClose()}>
+    <div
+      className="fixed inset-0 z-50 flex items-center justify-center bg-brand-900/40 p-4"
+      onMouseDown={(e) => e.target === e.currentTarget && onClose()}
+    >
       <div
         ref={panel}
         role="dialog"
         aria-modal="true"
         aria-labelledby={titleId}
         tabIndex={-1}
-        className={cn("max-h-[90vh] w-full overflow-auto rounded-card border border-line bg-panel shadow-xl focus:outline-none", className ?? "max-w-lg")}
+        className={cn(
+          "max-h-[90vh] w-full overflow-auto rounded-card border border-line bg-panel shadow-xl focus:outline-none",
+          className ?? "max-w-lg",
+        )}
       >
         <div className="flex items-center justify-between border-b border-line px-5 py-3">
-          <h2 id={titleId} className="text-base font-semibold">{title}</h2>
-          <button type="button" onClick={onClose} className="rounded p-1 text-ink-faint hover:text-ink" aria-label="Close">
-            <svg width="16" height="16" viewBox="0 0 16 16" aria-hidden="true"><path d="m4 4 8 8M12 4l-8 8" stroke="currentColor" strokeWidth="1.75" strokeLinecap="round" /></svg>
+          <h2 id={titleId} className="text-base font-semibold">
+            {title}
+          </h2>
+          <button
+            type="button"
+            onClick={onClose}
+            className="rounded p-1 text-ink-faint hover:text-ink"
+            aria-label="Close"
+          >
+            <svg width="16" height="16" viewBox="0 0 16 16" aria-hidden="true">
+              <path d="m4 4 8 8M12 4l-8 8" stroke="currentColor" strokeWidth="1.75" strokeLinecap="round" />
+            </svg>
           </button>
         </div>
         <div className="px-5 py-4 text-sm">{children}</div>

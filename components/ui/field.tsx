@@ -1,4 +1,10 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
+import {
+  useId,
+  type InputHTMLAttributes,
+  type ReactNode,
+  type SelectHTMLAttributes,
+  type TextareaHTMLAttributes,
+} from "react";
 import { cn } from "./cn";
 
 const control =
@@ -28,33 +34,74 @@ export function Field({ label, hint, error, hideLabel, className, children }: Fi
         {label}
       </label>
       {children({ id, describedBy, invalid: Boolean(error) })}
-      {hint ? <p id={hintId} className="text-xs text-ink-faint">{hint}</p> : null}
-      {error ? <p id={errorId} className="text-xs text-fault">{error}</p> : null}
+      {hint ? (
+        <p id={hintId} className="text-xs text-ink-faint">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={errorId} className="text-xs text-fault">
+          {error}
+        </p>
+      ) : null}
     </div>
   );
 }
 
-type InputProps = Omit<InputHTMLAttributes<HTMLInputElement>, "id"> & { label: string; hint?: ReactNode; error?: string; hideLabel?: boolean; fieldClassName?: string };
+type InputProps = Omit<InputHTMLAttributes<HTMLInputElement>, "id"> & {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+  hideLabel?: boolean;
+  fieldClassName?: string;
+};
 
 /** A labelled text or number input. */
 export function TextField({ label, hint, error, hideLabel, fieldClassName, className, ...rest }: InputProps) {
   return (
     <Field label={label} hint={hint} error={error} hideLabel={hideLabel} className={fieldClassName}>
       {({ id, describedBy, invalid }) => (
-        <input id={id} aria-describedby={describedBy} aria-invalid={invalid} className={cn(control, className)} {...rest} />
+        <input
+          id={id}
+          aria-describedby={describedBy}
+          aria-invalid={invalid}
+          className={cn(control, className)}
+          {...rest}
+        />
       )}
     </Field>
   );
 }
 
-type SelectProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, "id"> & { label: string; hint?: ReactNode; error?: string; hideLabel?: boolean; fieldClassName?: string };
+type SelectProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, "id"> & {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+  hideLabel?: boolean;
+  fieldClassName?: string;
+};
 
 /** A labelled select. */
-export function SelectField({ label, hint, error, hideLabel, fieldClassName, className, children, ...rest }: SelectProps) {
+export function SelectField({
+  label,
+  hint,
+  error,
+  hideLabel,
+  fieldClassName,
+  className,
+  children,
+  ...rest
+}: SelectProps) {
   return (
     <Field label={label} hint={hint} error={error} hideLabel={hideLabel} className={fieldClassName}>
       {({ id, describedBy, invalid }) => (
-        <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={cn(control, "pr-7", className)} {...rest}>
+        <select
+          id={id}
+          aria-describedby={describedBy}
+          aria-invalid={invalid}
+          className={cn(control, "pr-7", className)}
+          {...rest}
+        >
           {children}
         </select>
       )}
@@ -62,15 +109,25 @@ export function SelectField({ label, hint, error, hideLabel, fieldClassName, cla
   );
 }
 
-type TextAreaProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, "id"> & { label: string; hint?: ReactNode; error?: string; fieldClassName?: string };
+type TextAreaProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, "id"> & {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+  fieldClassName?: string;
+};
 
 /** A labelled multi-line text box. */
 export function TextAreaField({ label, hint, error, fieldClassName, className, ...rest }: TextAreaProps) {
   return (
     <Field label={label} hint={hint} error={error} className={fieldClassName}>
       {({ id, describedBy, invalid }) => (
-        <textarea id={id} aria-describedby={describedBy} aria-invalid={invalid}
-          className={cn(control, "h-auto min-h-20 py-2", className)} {...rest} />
+        <textarea
+          id={id}
+          aria-describedby={describedBy}
+          aria-invalid={invalid}
+          className={cn(control, "h-auto min-h-20 py-2", className)}
+          {...rest}
+        />
       )}
     </Field>
   );

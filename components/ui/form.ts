@@ -77,8 +77,10 @@ export function fieldMessage(label: string, error: FieldError | undefined): stri
 
 /** The message for a failed submit that names no field: the API's own message, or the network's. */
 export function formFailure(error: unknown, rest: readonly FieldIssue[]): string | undefined {
-  if (rest.length > 0) return rest.map((i) => (i.path && i.path !== "(body)" ? `${i.path} ${i.message}` : i.message)).join("; ");
+  if (rest.length > 0)
+    return rest.map((i) => (i.path && i.path !== "(body)" ? `${i.path} ${i.message}` : i.message)).join("; ");
   if (error instanceof ApiError) return error.issues.length > 0 ? undefined : error.message;
-  if (error instanceof Error) return "The request failed before the server answered. Check your connection and try again.";
+  if (error instanceof Error)
+    return "The request failed before the server answered. Check your connection and try again.";
   return undefined;
 }

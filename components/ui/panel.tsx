@@ -10,7 +10,9 @@ export function Panel({ className, ...rest }: HTMLAttributes<HTMLDivElement>) {
 export function RailHeading({ children, action, id }: { children: ReactNode; action?: ReactNode; id?: string }) {
   return (
     <div className="flex items-center justify-between gap-2 px-3 pt-3 pb-2">
-      <h2 id={id} className="text-[11px] font-semibold tracking-widest text-ink-faint uppercase">{children}</h2>
+      <h2 id={id} className="text-[11px] font-semibold tracking-widest text-ink-faint uppercase">
+        {children}
+      </h2>
       {action}
     </div>
   );

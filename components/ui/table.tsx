@@ -23,7 +23,11 @@ export function Th({ className, numeric, ...rest }: ThHTMLAttributes<HTMLTableCe
 export function Td({ className, numeric, ...rest }: TdHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
   return (
     <td
-      className={cn("border-b border-line/70 px-2 py-1.5 align-middle", numeric && "tabular text-right font-mono text-[13px]", className)}
+      className={cn(
+        "border-b border-line/70 px-2 py-1.5 align-middle",
+        numeric && "tabular text-right font-mono text-[13px]",
+        className,
+      )}
       {...rest}
     />
   );

@@ -29,7 +29,12 @@ export function ShapeMesh({ shape, material }: { shape: CollisionShape; material
   if (shape.kind === "box") {
     // URDF rpy is R = Rz(yaw)·Ry(pitch)·Rx(roll): three's Euler order "ZYX" composes the same matrix.
     return (
-      <mesh position={shape.center} rotation={new THREE.Euler(shape.rpy[0], shape.rpy[1], shape.rpy[2], "ZYX")} material={material} castShadow>
+      <mesh
+        position={shape.center}
+        rotation={new THREE.Euler(shape.rpy[0], shape.rpy[1], shape.rpy[2], "ZYX")}
+        material={material}
+        castShadow
+      >
         <boxGeometry args={shape.size} />
       </mesh>
     );

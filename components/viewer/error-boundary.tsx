@@ -23,11 +23,14 @@ export class StageErrorBoundary extends Component<{ children: ReactNode; onError
   render() {
     if (this.state.error) {
       return (
-        <div role="alert" className="flex h-full flex-col items-center justify-center gap-2 bg-paper p-6 text-center text-sm text-ink-soft">
+        <div
+          role="alert"
+          className="flex h-full flex-col items-center justify-center gap-2 bg-paper p-6 text-center text-sm text-ink-soft"
+        >
           <p className="font-medium text-ink">The 3D stage could not start.</p>
           <p>
-            The browser refused a WebGL context ({this.state.error.message}). The moves, findings and plots still
-            work; try another browser or enable hardware acceleration to see the arm.
+            The browser refused a WebGL context ({this.state.error.message}). The moves, findings and plots still work;
+            try another browser or enable hardware acceleration to see the arm.
           </p>
           <button type="button" className="text-brand-600 underline" onClick={() => this.setState({ error: null })}>
             Try again

@@ -5,7 +5,14 @@
  */
 import type { ArmChain, Joint } from "@/kinematics";
 
-const AXES: [number, number, number][] = [[0, 0, 1], [0, 1, 0], [0, 1, 0], [0, 1, 0], [0, 0, 1], [0, 1, 0]];
+const AXES: [number, number, number][] = [
+  [0, 0, 1],
+  [0, 1, 0],
+  [0, 1, 0],
+  [0, 1, 0],
+  [0, 0, 1],
+  [0, 1, 0],
+];
 const LENGTHS = [0.1, 0.09, 0.28, 0.24, 0.07, 0.06];
 
 export function schematicChain(joints: readonly Joint[]): ArmChain {
@@ -16,11 +23,17 @@ export function schematicChain(joints: readonly Joint[]): ArmChain {
     chainJoints.push({
       origin: { xyz: [0, 0, LENGTHS[i]], rpy: [0, 0, 0] },
       axis: AXES[i],
-      link: { name: joints[i]?.name ?? `link${i + 1}`, collision: [{ kind: "capsule", from: [0, 0, 0], to: [0, 0, next], radius: 0.035 - i * 0.003 }] },
+      link: {
+        name: joints[i]?.name ?? `link${i + 1}`,
+        collision: [{ kind: "capsule", from: [0, 0, 0], to: [0, 0, next], radius: 0.035 - i * 0.003 }],
+      },
     });
   }
   return {
-    base: { name: "base", collision: [{ kind: "box", center: [0, 0, 0.04], size: [0.14, 0.14, 0.08], rpy: [0, 0, 0] }] },
+    base: {
+      name: "base",
+      collision: [{ kind: "box", center: [0, 0, 0.04], size: [0.14, 0.14, 0.08], rpy: [0, 0, 0] }],
+    },
     joints: chainJoints,
     tool: { xyz: [0, 0, 0.1], rpy: [0, 0, 0] },
     gravity: [0, 0, -9.81],

@@ -3,7 +3,18 @@ import { Edges, Grid, Line, OrbitControls } from "@react-three/drei";
 import { Canvas, useFrame, useThree } from "@react-three/fiber";
 import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
-import { type ArmChain, type KeepOutBox, compileChain, createChainBuffers, forwardKinematics, linkFrames, type CompiledChain, type Joint, sampleTimeline, type Timeline } from "@/kinematics";
+import {
+  type ArmChain,
+  type KeepOutBox,
+  compileChain,
+  createChainBuffers,
+  forwardKinematics,
+  linkFrames,
+  type CompiledChain,
+  type Joint,
+  sampleTimeline,
+  type Timeline,
+} from "@/kinematics";
 import { verdictLook } from "@/components/ui/verdict-chip";
 import { usePlayheadStore, type Playhead } from "@/components/editor/playhead";
 import { linkShapes, ShapeMesh } from "./arm-mesh";
@@ -25,7 +36,14 @@ const BASE_COLOR = new THREE.Color("#5b6472");
 const SEVERITY_COLOR = { fault: new THREE.Color(verdictLook.fault.stroke), caution: new THREE.Color("#d08a1a") };
 
 function useCompiled(chain: ArmChain, joints: readonly Joint[]): CompiledChain {
-  return useMemo(() => compileChain(chain, joints.map((j) => j.type)), [chain, joints]);
+  return useMemo(
+    () =>
+      compileChain(
+        chain,
+        joints.map((j) => j.type),
+      ),
+    [chain, joints],
+  );
 }
 
 /** Re-renders the canvas (frameloop "demand") whenever the playhead moves. */
@@ -36,7 +54,13 @@ function Invalidator({ playhead }: { playhead: Playhead }) {
 }
 
 /** The arm at the playhead: link frames from forward kinematics every frame, no allocation per frame. */
-function AnimatedArm({ chain, compiled, timeline, linkSeverity, playhead }: {
+function AnimatedArm({
+  chain,
+  compiled,
+  timeline,
+  linkSeverity,
+  playhead,
+}: {
   chain: ArmChain;
   compiled: CompiledChain;
   timeline: Timeline;
@@ -47,14 +71,22 @@ function AnimatedArm({ chain, compiled, timeline, linkSeverity, playhead }: {
   const groups = useRef<(THREE.Group | null)[]>([]);
   const tip = useRef<THREE.Mesh>(null);
   const materials = useMemo(
-    () => Array.from({ length: linkCount }, (_, i) => new THREE.MeshStandardMaterial({ color: i === 0 ? BASE_COLOR : LINK_COLOR, roughness: 0.55, metalness: 0.1 })),
+    () =>
+      Array.from(
+        { length: linkCount },
+        (_, i) =>
+          new THREE.MeshStandardMaterial({ color: i === 0 ? BASE_COLOR : LINK_COLOR, roughness: 0.55, metalness: 0.1 }),
+      ),
     [linkCount],
   );
-  const work = useMemo(() => ({
-    pose: new Float64Array(timeline.jointCount),
-    scratch: createPoseScratch(timeline.jointCount),
-    buffers: createChainBuffers(compiled),
-  }), [timeline, compiled]);
+  const work = useMemo(
+    () => ({
+      pose: new Float64Array(timeline.jointCount),
+      scratch: createPoseScratch(timeline.jointCount),
+      buffers: createChainBuffers(compiled),
+    }),
+    [timeline, compiled],
+  );
   // The move whose highlight colours are on the materials; reset when the findings change.
   const shownMove = useRef(-2);
   useEffect(() => {
@@ -87,7 +119,13 @@ function AnimatedArm({ chain, compiled, timeline, linkSeverity, playhead }: {
   return (
     <group name="arm">
       {Array.from({ length: linkCount }, (_, i) => (
-        <group key={i} ref={(g) => { groups.current[i] = g; }} matrixAutoUpdate={false}>
+        <group
+          key={i}
+          ref={(g) => {
+            groups.current[i] = g;
+          }}
+          matrixAutoUpdate={false}
+        >
           {linkShapes(chain, i).map((shape, k) => (
             <ShapeMesh key={k} shape={shape} material={materials[i]} />
           ))}
@@ -102,10 +140,23 @@ function AnimatedArm({ chain, compiled, timeline, linkSeverity, playhead }: {
 }
 
 /** A translucent copy of the arm at a fixed pose. */
-function GhostArm({ chain, compiled, pose, color }: { chain: ArmChain; compiled: CompiledChain; pose: readonly number[]; color: string }) {
+function GhostArm({
+  chain,
+  compiled,
+  pose,
+  color,
+}: {
+  chain: ArmChain;
+  compiled: CompiledChain;
+  pose: readonly number[];
+  color: string;
+}) {
   const linkCount = compiled.jointCount + 1;
   const groups = useRef<(THREE.Group | null)[]>([]);
-  const material = useMemo(() => new THREE.MeshBasicMaterial({ color, transparent: true, opacity: 0.16, depthWrite: false }), [color]);
+  const material = useMemo(
+    () => new THREE.MeshBasicMaterial({ color, transparent: true, opacity: 0.16, depthWrite: false }),
+    [color],
+  );
   useEffect(() => () => material.dispose(), [material]);
   useLayoutEffect(() => {
     const frames = linkFrames(compiled, pose, new Float64Array(16 * linkCount));
@@ -119,7 +170,13 @@ function GhostArm({ chain, compiled, pose, color }: { chain: ArmChain; compiled:
   return (
     <group>
       {Array.from({ length: linkCount }, (_, i) => (
-        <group key={i} ref={(g) => { groups.current[i] = g; }} matrixAutoUpdate={false}>
+        <group
+          key={i}
+          ref={(g) => {
+            groups.current[i] = g;
+          }}
+          matrixAutoUpdate={false}
+        >
           {linkShapes(chain, i).map((shape, k) => (
             <ShapeMesh key={k} shape={shape} material={material} />
           ))}
@@ -148,7 +205,11 @@ function ToolPath({ compiled, timeline }: { compiled: CompiledChain; timeline: T
 
 function KeepOut({ box }: { box: KeepOutBox }) {
   const size: [number, number, number] = [box.max[0] - box.min[0], box.max[1] - box.min[1], box.max[2] - box.min[2]];
-  const center: [number, number, number] = [(box.max[0] + box.min[0]) / 2, (box.max[1] + box.min[1]) / 2, (box.max[2] + box.min[2]) / 2];
+  const center: [number, number, number] = [
+    (box.max[0] + box.min[0]) / 2,
+    (box.max[1] + box.min[1]) / 2,
+    (box.max[2] + box.min[2]) / 2,
+  ];
   return (
     <mesh position={center}>
       <boxGeometry args={size} />
@@ -196,7 +257,10 @@ export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, k
     const target: [number, number, number] = [0, 0, reach * 0.42];
     const dir = [1, -0.95, 0.42];
     const k = (reach * 2.5) / Math.hypot(dir[0], dir[1], dir[2]);
-    return { target, position: [target[0] + dir[0] * k, target[1] + dir[1] * k, target[2] + dir[2] * k] as [number, number, number] };
+    return {
+      target,
+      position: [target[0] + dir[0] * k, target[1] + dir[1] * k, target[2] + dir[2] * k] as [number, number, number],
+    };
   }, [chain]);
   return (
     <Canvas
@@ -213,12 +277,26 @@ export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, k
       <directionalLight position={[-1.5, 1, 1]} intensity={0.5} />
       <Invalidator playhead={playhead} />
       <WorkSurface />
-      {keepOut?.map((b, i) => <KeepOut key={i} box={b} />)}
+      {keepOut?.map((b, i) => (
+        <KeepOut key={i} box={b} />
+      ))}
       {ghosts.map((g) => (
-        <GhostArm key={g.label} chain={chain} compiled={compiled} pose={g.pose} color={g.label === "start" ? "#1f6f86" : "#6d4bc3"} />
+        <GhostArm
+          key={g.label}
+          chain={chain}
+          compiled={compiled}
+          pose={g.pose}
+          color={g.label === "start" ? "#1f6f86" : "#6d4bc3"}
+        />
       ))}
       <ToolPath compiled={compiled} timeline={timeline} />
-      <AnimatedArm chain={chain} compiled={compiled} timeline={timeline} linkSeverity={linkSeverity} playhead={playhead} />
+      <AnimatedArm
+        chain={chain}
+        compiled={compiled}
+        timeline={timeline}
+        linkSeverity={linkSeverity}
+        playhead={playhead}
+      />
       <OrbitControls makeDefault target={view.target} enableDamping={false} />
     </Canvas>
   );

@@ -28,7 +28,13 @@ export async function createAccountToken({
 }
 
 /** Uses a token once: unexpired, unused, for this purpose. Returns its user id, or undefined. */
-export async function consumeAccountToken({ tokenHash, purpose }: { tokenHash: string; purpose: AccountTokenPurpose }): Promise<string | undefined> {
+export async function consumeAccountToken({
+  tokenHash,
+  purpose,
+}: {
+  tokenHash: string;
+  purpose: AccountTokenPurpose;
+}): Promise<string | undefined> {
   const [row] = await db
     .update(accountTokens)
     .set({ usedAt: new Date() })
@@ -46,6 +52,8 @@ export async function consumeAccountToken({ tokenHash, purpose }: { tokenHash: s
 
 /** Marks the user's address as verified (after `consumeAccountToken` for `email-verification`). */
 export async function markEmailVerified({ userId }: { userId: string }): Promise<void> {
-  await db.update(users).set({ emailVerifiedAt: new Date() }).where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
+  await db
+    .update(users)
+    .set({ emailVerifiedAt: new Date() })
+    .where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
 }
-

@@ -26,7 +26,13 @@ export type ArmListItem = {
 };
 
 /** Built-in arms and the arms of the user's projects (or of one project), with their latest revision number. */
-export async function listArmsForUser({ userId, projectId }: { userId: string; projectId?: string }): Promise<ArmListItem[]> {
+export async function listArmsForUser({
+  userId,
+  projectId,
+}: {
+  userId: string;
+  projectId?: string;
+}): Promise<ArmListItem[]> {
   return db
     .select({
       id: arms.id,
@@ -58,7 +64,13 @@ export type ArmForUser = {
 };
 
 /** One arm, if the user may see it. */
-export async function getArmForUser({ armId, userId }: { armId: string; userId: string }): Promise<ArmForUser | undefined> {
+export async function getArmForUser({
+  armId,
+  userId,
+}: {
+  armId: string;
+  userId: string;
+}): Promise<ArmForUser | undefined> {
   const [row] = await db
     .select({
       id: arms.id,
@@ -72,7 +84,13 @@ export async function getArmForUser({ armId, userId }: { armId: string; userId: 
     .leftJoin(projects, eq(projects.id, arms.projectId))
     .where(and(eq(arms.id, armId), armVisibleTo(userId)));
   if (!row) return undefined;
-  return { id: row.id, name: row.name, projectId: row.projectId, role: row.role, projectArchived: row.archivedAt !== null };
+  return {
+    id: row.id,
+    name: row.name,
+    projectId: row.projectId,
+    role: row.role,
+    projectArchived: row.archivedAt !== null,
+  };
 }
 
 /** An arm's revisions, newest first, if the user may see the arm. */
@@ -100,7 +118,13 @@ export async function getArmRevisionForUser({
     .select({ revision: armRevisions })
     .from(armRevisions)
     .innerJoin(arms, eq(arms.id, armRevisions.armId))
-    .where(and(eq(armRevisions.armId, armId), armVisibleTo(userId), revision === undefined ? undefined : eq(armRevisions.revision, revision)))
+    .where(
+      and(
+        eq(armRevisions.armId, armId),
+        armVisibleTo(userId),
+        revision === undefined ? undefined : eq(armRevisions.revision, revision),
+      ),
+    )
     .orderBy(desc(armRevisions.revision))
     .limit(1);
   return row?.revision;
@@ -173,18 +197,38 @@ export async function createArmRevision(input: {
  * An arm revision by id, not scoped to a user: only for the server's own re-check of a submission
  * against the revision its assignment requires (the student need not be able to read that arm).
  */
-export async function getArmRevisionById({ id }: { id: string }): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
+export async function getArmRevisionById({
+  id,
+}: {
+  id: string;
+}): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
   const [row] = await db
-    .select({ id: armRevisions.id, armId: armRevisions.armId, revision: armRevisions.revision, description: armRevisions.description })
+    .select({
+      id: armRevisions.id,
+      armId: armRevisions.armId,
+      revision: armRevisions.revision,
+      description: armRevisions.description,
+    })
     .from(armRevisions)
     .where(eq(armRevisions.id, id));
   return row;
 }
 
 /** An arm revision by id, only if the user may read its arm (built in, or in a project they are a member of). */
-export async function getReadableArmRevision({ id, userId }: { id: string; userId: string }): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
+export async function getReadableArmRevision({
+  id,
+  userId,
+}: {
+  id: string;
+  userId: string;
+}): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
   const [row] = await db
-    .select({ id: armRevisions.id, armId: armRevisions.armId, revision: armRevisions.revision, description: armRevisions.description })
+    .select({
+      id: armRevisions.id,
+      armId: armRevisions.armId,
+      revision: armRevisions.revision,
+      description: armRevisions.description,
+    })
     .from(armRevisions)
     .innerJoin(arms, eq(arms.id, armRevisions.armId))
     .where(and(eq(armRevisions.id, id), armVisibleTo(userId)));

@@ -52,10 +52,17 @@ export async function listProjectAuditPage({
     .where(
       and(
         eq(auditLog.projectId, projectId),
-        after ? sql`(${auditLog.createdAt}, ${auditLog.id}) < (${after.key}::timestamptz, ${after.id}::bigint)` : undefined,
+        after
+          ? sql`(${auditLog.createdAt}, ${auditLog.id}) < (${after.key}::timestamptz, ${after.id}::bigint)`
+          : undefined,
       ),
     )
     .orderBy(desc(auditLog.createdAt), desc(auditLog.id))
     .limit(limit + 1);
-  return toPage(rows, limit, (r) => String(r.id), ({ pageKey: _key, ...entry }) => entry);
+  return toPage(
+    rows,
+    limit,
+    (r) => String(r.id),
+    ({ pageKey: _key, ...entry }) => entry,
+  );
 }

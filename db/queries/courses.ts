@@ -3,7 +3,17 @@ import { randomInt } from "node:crypto";
 import { and, asc, desc, eq, exists, gte, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { planVersions, users, type Verdict } from "@/db/schema";
-import { assignments, courseEnrolments, courses, submissions, type Assignment, type Course, type CourseRole, type Submission, type SubmissionStatus } from "@/db/schema/courses";
+import {
+  assignments,
+  courseEnrolments,
+  courses,
+  submissions,
+  type Assignment,
+  type Course,
+  type CourseRole,
+  type Submission,
+  type SubmissionStatus,
+} from "@/db/schema/courses";
 import { insertOutbox, type OutboxInput } from "./mail";
 
 /** Letters and digits without look-alikes (no 0/O, 1/I/L). */
@@ -93,7 +103,13 @@ export async function listCoursesForUser({ userId }: { userId: string }): Promis
 }
 
 /** One course, only if the user is enrolled in it. */
-export async function getCourseForUser({ courseId, userId }: { courseId: string; userId: string }): Promise<CourseForUser | undefined> {
+export async function getCourseForUser({
+  courseId,
+  userId,
+}: {
+  courseId: string;
+  userId: string;
+}): Promise<CourseForUser | undefined> {
   const [row] = await db
     .select(courseWithRole)
     .from(courses)
@@ -103,7 +119,11 @@ export async function getCourseForUser({ courseId, userId }: { courseId: string;
 }
 
 /** The course a join code opens (the code is the credential, so no user scope). */
-export async function getCourseByJoinCode({ code }: { code: string }): Promise<Pick<Course, "id" | "title" | "term" | "archivedAt"> | undefined> {
+export async function getCourseByJoinCode({
+  code,
+}: {
+  code: string;
+}): Promise<Pick<Course, "id" | "title" | "term" | "archivedAt"> | undefined> {
   const [row] = await db
     .select({ id: courses.id, title: courses.title, term: courses.term, archivedAt: courses.archivedAt })
     .from(courses)
@@ -126,7 +146,13 @@ export type RosterEntry = { userId: string; name: string; email: string; role: C
 /** Everyone in the course, listed only to someone enrolled in it (the handler allows instructors only). */
 export async function listRoster({ courseId, userId }: { courseId: string; userId: string }): Promise<RosterEntry[]> {
   return db
-    .select({ userId: users.id, name: users.name, email: users.email, role: courseEnrolments.role, joinedAt: courseEnrolments.joinedAt })
+    .select({
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      role: courseEnrolments.role,
+      joinedAt: courseEnrolments.joinedAt,
+    })
     .from(courseEnrolments)
     .innerJoin(users, eq(users.id, courseEnrolments.userId))
     .where(and(eq(courseEnrolments.courseId, courseId), enrolled(courseId, userId, "instructor")))
@@ -134,7 +160,15 @@ export async function listRoster({ courseId, userId }: { courseId: string; userI
 }
 
 /** Removes a student from a course the instructor teaches; their submissions stay for the record. */
-export async function removeStudent({ courseId, instructorId, userId }: { courseId: string; instructorId: string; userId: string }): Promise<boolean> {
+export async function removeStudent({
+  courseId,
+  instructorId,
+  userId,
+}: {
+  courseId: string;
+  instructorId: string;
+  userId: string;
+}): Promise<boolean> {
   const removed = await db
     .delete(courseEnrolments)
     .where(
@@ -150,7 +184,11 @@ export async function removeStudent({ courseId, instructorId, userId }: { course
 }
 
 /** The instructors of a course (who receive "submission received"). */
-export async function listCourseInstructors({ courseId }: { courseId: string }): Promise<{ id: string; name: string; email: string }[]> {
+export async function listCourseInstructors({
+  courseId,
+}: {
+  courseId: string;
+}): Promise<{ id: string; name: string; email: string }[]> {
   return db
     .select({ id: users.id, name: users.name, email: users.email })
     .from(courseEnrolments)
@@ -199,7 +237,13 @@ export type AssignmentStatus = "not-started" | "draft" | SubmissionStatus;
 export type AssignmentListItem = Assignment & { status: AssignmentStatus; latestSubmissionId: string | null };
 
 /** The assignments of a course the user is enrolled in, by due date, with the user's own status. */
-export async function listAssignmentsForUser({ courseId, userId }: { courseId: string; userId: string }): Promise<AssignmentListItem[]> {
+export async function listAssignmentsForUser({
+  courseId,
+  userId,
+}: {
+  courseId: string;
+  userId: string;
+}): Promise<AssignmentListItem[]> {
   const rows = await db
     .select()
     .from(assignments)
@@ -207,9 +251,21 @@ export async function listAssignmentsForUser({ courseId, userId }: { courseId: s
     .orderBy(asc(assignments.dueAt), asc(assignments.title));
   if (rows.length === 0) return [];
   const latest = await db
-    .selectDistinctOn([submissions.assignmentId], { assignmentId: submissions.assignmentId, id: submissions.id, status: submissions.status })
+    .selectDistinctOn([submissions.assignmentId], {
+      assignmentId: submissions.assignmentId,
+      id: submissions.id,
+      status: submissions.status,
+    })
     .from(submissions)
-    .where(and(eq(submissions.studentId, userId), inArray(submissions.assignmentId, rows.map((r) => r.id))))
+    .where(
+      and(
+        eq(submissions.studentId, userId),
+        inArray(
+          submissions.assignmentId,
+          rows.map((r) => r.id),
+        ),
+      ),
+    )
     .orderBy(submissions.assignmentId, desc(submissions.attempt));
   const byAssignment = new Map(latest.map((l) => [l.assignmentId, l]));
   // "Draft": nothing submitted yet, but the user saved a plan version on the required arm revision
@@ -228,14 +284,24 @@ export async function listAssignmentsForUser({ courseId, userId }: { courseId: s
                 db
                   .select({ one: planVersions.id })
                   .from(planVersions)
-                  .where(and(eq(planVersions.authorId, userId), eq(planVersions.armRevisionId, assignments.requiredArmRevisionId), gte(planVersions.createdAt, assignments.createdAt))),
+                  .where(
+                    and(
+                      eq(planVersions.authorId, userId),
+                      eq(planVersions.armRevisionId, assignments.requiredArmRevisionId),
+                      gte(planVersions.createdAt, assignments.createdAt),
+                    ),
+                  ),
               ),
             ),
           );
   const drafts = new Set(drafted.map((d) => d.id));
   return rows.map((a) => {
     const l = byAssignment.get(a.id);
-    return { ...a, status: l?.status ?? (drafts.has(a.id) ? "draft" : "not-started"), latestSubmissionId: l?.id ?? null };
+    return {
+      ...a,
+      status: l?.status ?? (drafts.has(a.id) ? "draft" : "not-started"),
+      latestSubmissionId: l?.id ?? null,
+    };
   });
 }
 
@@ -247,7 +313,13 @@ export type AssignmentForUser = Assignment & {
 };
 
 /** One assignment, only for someone enrolled in its course. */
-export async function getAssignmentForUser({ assignmentId, userId }: { assignmentId: string; userId: string }): Promise<AssignmentForUser | undefined> {
+export async function getAssignmentForUser({
+  assignmentId,
+  userId,
+}: {
+  assignmentId: string;
+  userId: string;
+}): Promise<AssignmentForUser | undefined> {
   const [row] = await db
     .select({
       assignment: assignments,
@@ -261,7 +333,13 @@ export async function getAssignmentForUser({ assignmentId, userId }: { assignmen
     .innerJoin(courseEnrolments, and(eq(courseEnrolments.courseId, courses.id), eq(courseEnrolments.userId, userId)))
     .where(eq(assignments.id, assignmentId));
   if (!row) return undefined;
-  return { ...row.assignment, role: row.role, courseTitle: row.courseTitle, courseArmRevisionId: row.courseArmRevisionId, courseLimits: row.courseLimits };
+  return {
+    ...row.assignment,
+    role: row.role,
+    courseTitle: row.courseTitle,
+    courseArmRevisionId: row.courseArmRevisionId,
+    courseLimits: row.courseLimits,
+  };
 }
 
 export type NewSubmission = {
@@ -293,7 +371,11 @@ export async function createSubmission(
       .from(assignments)
       .innerJoin(
         courseEnrolments,
-        and(eq(courseEnrolments.courseId, assignments.courseId), eq(courseEnrolments.userId, input.studentId), eq(courseEnrolments.role, "student")),
+        and(
+          eq(courseEnrolments.courseId, assignments.courseId),
+          eq(courseEnrolments.userId, input.studentId),
+          eq(courseEnrolments.role, "student"),
+        ),
       )
       .where(eq(assignments.id, input.assignmentId));
     if (!assignment) return { notEnrolled: true as const };
@@ -316,10 +398,20 @@ export async function createSubmission(
   });
 }
 
-export type MySubmission = Omit<Submission, "document" | "report"> & { assignmentTitle: string; courseId: string; courseTitle: string };
+export type MySubmission = Omit<Submission, "document" | "report"> & {
+  assignmentTitle: string;
+  courseId: string;
+  courseTitle: string;
+};
 
 /** The user's own submissions, newest first (optionally for one assignment). */
-export async function listOwnSubmissions({ userId, assignmentId }: { userId: string; assignmentId?: string }): Promise<MySubmission[]> {
+export async function listOwnSubmissions({
+  userId,
+  assignmentId,
+}: {
+  userId: string;
+  assignmentId?: string;
+}): Promise<MySubmission[]> {
   return db
     .select({
       id: submissions.id,
@@ -343,6 +435,8 @@ export async function listOwnSubmissions({ userId, assignmentId }: { userId: str
     .from(submissions)
     .innerJoin(assignments, eq(assignments.id, submissions.assignmentId))
     .innerJoin(courses, eq(courses.id, assignments.courseId))
-    .where(and(eq(submissions.studentId, userId), assignmentId ? eq(submissions.assignmentId, assignmentId) : undefined))
+    .where(
+      and(eq(submissions.studentId, userId), assignmentId ? eq(submissions.assignmentId, assignmentId) : undefined),
+    )
     .orderBy(desc(submissions.submittedAt));
 }

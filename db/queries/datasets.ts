@@ -1,7 +1,16 @@
 import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { db, inTransaction } from "@/db";
-import { armRevisions, datasetBatches, datasetEpisodes, datasets, projectMembers, projects, type Dataset, type DatasetEpisode } from "@/db/schema";
+import {
+  armRevisions,
+  datasetBatches,
+  datasetEpisodes,
+  datasets,
+  projectMembers,
+  projects,
+  type Dataset,
+  type DatasetEpisode,
+} from "@/db/schema";
 
 export type NewDataset = typeof datasets.$inferInsert;
 
@@ -120,7 +129,15 @@ export async function startDatasetAudit({
  * user): the dataset and the batch, when the batch is still of the dataset's current generation
  * and not done. Counts the attempt.
  */
-export async function claimDatasetBatchForWorker({ datasetId, generation, batch }: { datasetId: string; generation: number; batch: number }) {
+export async function claimDatasetBatchForWorker({
+  datasetId,
+  generation,
+  batch,
+}: {
+  datasetId: string;
+  generation: number;
+  batch: number;
+}) {
   const [row] = await db
     .update(datasetBatches)
     .set({ attempts: sql`${datasetBatches.attempts} + 1` })
@@ -213,11 +230,16 @@ export async function storeDatasetBatchResults({
 }
 
 /** Batches not done of the dataset's current generation (the worker's sweep re-enqueues them). */
-export async function listOpenDatasetBatchesForWorker(): Promise<{ datasetId: string; generation: number; batch: number }[]> {
+export async function listOpenDatasetBatchesForWorker(): Promise<
+  { datasetId: string; generation: number; batch: number }[]
+> {
   return db
     .select({ datasetId: datasetBatches.datasetId, generation: datasetBatches.generation, batch: datasetBatches.batch })
     .from(datasetBatches)
-    .innerJoin(datasets, and(eq(datasets.id, datasetBatches.datasetId), eq(datasets.generation, datasetBatches.generation)))
+    .innerJoin(
+      datasets,
+      and(eq(datasets.id, datasetBatches.datasetId), eq(datasets.generation, datasetBatches.generation)),
+    )
     .where(eq(datasetBatches.done, false));
 }
 
@@ -229,7 +251,10 @@ export async function getDatasetProgress({ datasetId, userId }: { datasetId: str
       total: sql<number>`count(*)::int`,
     })
     .from(datasetBatches)
-    .innerJoin(datasets, and(eq(datasets.id, datasetBatches.datasetId), eq(datasets.generation, datasetBatches.generation)))
+    .innerJoin(
+      datasets,
+      and(eq(datasets.id, datasetBatches.datasetId), eq(datasets.generation, datasetBatches.generation)),
+    )
     .innerJoin(projectMembers, and(eq(projectMembers.projectId, datasets.projectId), eq(projectMembers.userId, userId)))
     .where(eq(datasetBatches.datasetId, datasetId));
   return row ?? { done: 0, total: 0 };
@@ -258,7 +283,13 @@ export async function listDatasetEpisodes({ datasetId, userId }: { datasetId: st
 }
 
 /** Findings of every episode of the current audit (for the summary counts by kind). */
-export async function countDatasetFindingsByKind({ datasetId, userId }: { datasetId: string; userId: string }): Promise<Record<string, number>> {
+export async function countDatasetFindingsByKind({
+  datasetId,
+  userId,
+}: {
+  datasetId: string;
+  userId: string;
+}): Promise<Record<string, number>> {
   const rows = await db.execute<{ kind: string; count: number }>(sql`
     select f->>'kind' as kind, count(*)::int as count
     from ${datasetEpisodes} e
@@ -271,11 +302,22 @@ export async function countDatasetFindingsByKind({ datasetId, userId }: { datase
 }
 
 /** One episode's full row, if the user is a member of its dataset's project. */
-export async function getDatasetEpisodeForUser({ datasetId, index, userId }: { datasetId: string; index: number; userId: string }): Promise<DatasetEpisode | undefined> {
+export async function getDatasetEpisodeForUser({
+  datasetId,
+  index,
+  userId,
+}: {
+  datasetId: string;
+  index: number;
+  userId: string;
+}): Promise<DatasetEpisode | undefined> {
   const [row] = await db
     .select({ episode: datasetEpisodes })
     .from(datasetEpisodes)
-    .innerJoin(datasets, and(eq(datasets.id, datasetEpisodes.datasetId), eq(datasets.generation, datasetEpisodes.generation)))
+    .innerJoin(
+      datasets,
+      and(eq(datasets.id, datasetEpisodes.datasetId), eq(datasets.generation, datasetEpisodes.generation)),
+    )
     .innerJoin(projectMembers, and(eq(projectMembers.projectId, datasets.projectId), eq(projectMembers.userId, userId)))
     .where(and(eq(datasetEpisodes.datasetId, datasetId), eq(datasetEpisodes.index, index)));
   return row?.episode;
@@ -312,18 +354,31 @@ export async function saveDatasetEpisodeRepair({
 }
 
 /** The repaired bytes of every repaired episode of the current audit, by index. */
-export async function listDatasetRepairs({ datasetId, userId }: { datasetId: string; userId: string }): Promise<Map<number, Buffer>> {
+export async function listDatasetRepairs({
+  datasetId,
+  userId,
+}: {
+  datasetId: string;
+  userId: string;
+}): Promise<Map<number, Buffer>> {
   const rows = await db
     .select({ index: datasetEpisodes.index, repaired: datasetEpisodes.repaired })
     .from(datasetEpisodes)
-    .innerJoin(datasets, and(eq(datasets.id, datasetEpisodes.datasetId), eq(datasets.generation, datasetEpisodes.generation)))
+    .innerJoin(
+      datasets,
+      and(eq(datasets.id, datasetEpisodes.datasetId), eq(datasets.generation, datasetEpisodes.generation)),
+    )
     .innerJoin(projectMembers, and(eq(projectMembers.projectId, datasets.projectId), eq(projectMembers.userId, userId)))
     .where(and(eq(datasetEpisodes.datasetId, datasetId), sql`${datasetEpisodes.repaired} is not null`));
   return new Map(rows.map((r) => [r.index, r.repaired!]));
 }
 
 /** For the audit worker: the arm revision a dataset is audited against. */
-export async function getDatasetArmForWorker({ datasetId }: { datasetId: string }): Promise<{ id: string; description: unknown } | undefined> {
+export async function getDatasetArmForWorker({
+  datasetId,
+}: {
+  datasetId: string;
+}): Promise<{ id: string; description: unknown } | undefined> {
   const [row] = await db
     .select({ id: armRevisions.id, description: armRevisions.description })
     .from(datasets)
@@ -333,7 +388,13 @@ export async function getDatasetArmForWorker({ datasetId }: { datasetId: string 
 }
 
 /** The arm revision of a dataset, if the user is a member of its project. */
-export async function getDatasetArmForUser({ datasetId, userId }: { datasetId: string; userId: string }): Promise<{ id: string; description: unknown } | undefined> {
+export async function getDatasetArmForUser({
+  datasetId,
+  userId,
+}: {
+  datasetId: string;
+  userId: string;
+}): Promise<{ id: string; description: unknown } | undefined> {
   const [row] = await db
     .select({ id: armRevisions.id, description: armRevisions.description })
     .from(datasets)

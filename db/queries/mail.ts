@@ -7,12 +7,23 @@ import { mailOutbox, type MailOutboxRow } from "@/db/schema/mail";
 export type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
 /** One message to queue; `dedupeKey` names the event (e.g. `submission-received:<id>:<instructor>`). */
-export type OutboxInput = { kind: string; dedupeKey: string; toAddress: string; subject: string; text: string; html: string };
+export type OutboxInput = {
+  kind: string;
+  dedupeKey: string;
+  toAddress: string;
+  subject: string;
+  text: string;
+  html: string;
+};
 
 /** Queues messages in the caller's transaction; an event already queued adds nothing. Returns the new rows' ids. */
 export async function insertOutbox(tx: Tx, rows: OutboxInput[]): Promise<string[]> {
   if (rows.length === 0) return [];
-  const inserted = await tx.insert(mailOutbox).values(rows).onConflictDoNothing({ target: mailOutbox.dedupeKey }).returning({ id: mailOutbox.id });
+  const inserted = await tx
+    .insert(mailOutbox)
+    .values(rows)
+    .onConflictDoNothing({ target: mailOutbox.dedupeKey })
+    .returning({ id: mailOutbox.id });
   return inserted.map((r) => r.id);
 }
 
@@ -28,11 +39,18 @@ export async function queueMail(rows: OutboxInput[]): Promise<string[]> {
 export async function claimOutbox({ id, leaseS }: { id: string; leaseS: number }): Promise<MailOutboxRow | undefined> {
   const [row] = await db
     .update(mailOutbox)
-    .set({ status: "sending", attempts: sql`${mailOutbox.attempts} + 1`, claimedUntil: sql`now() + make_interval(secs => ${leaseS})` })
+    .set({
+      status: "sending",
+      attempts: sql`${mailOutbox.attempts} + 1`,
+      claimedUntil: sql`now() + make_interval(secs => ${leaseS})`,
+    })
     .where(
       and(
         eq(mailOutbox.id, id),
-        or(eq(mailOutbox.status, "queued"), and(eq(mailOutbox.status, "sending"), lt(mailOutbox.claimedUntil, sql`now()`))),
+        or(
+          eq(mailOutbox.status, "queued"),
+          and(eq(mailOutbox.status, "sending"), lt(mailOutbox.claimedUntil, sql`now()`)),
+        ),
       ),
     )
     .returning();
@@ -48,7 +66,15 @@ export async function markOutboxSent({ id, messageId }: { id: string; messageId:
 }
 
 /** Releases a claimed message after a failed attempt: queued again for the next retry, or failed for good. */
-export async function markOutboxAttemptFailed({ id, error, final }: { id: string; error: string; final: boolean }): Promise<void> {
+export async function markOutboxAttemptFailed({
+  id,
+  error,
+  final,
+}: {
+  id: string;
+  error: string;
+  final: boolean;
+}): Promise<void> {
   await db
     .update(mailOutbox)
     .set({ status: final ? "failed" : "queued", lastError: error.slice(0, 1000), claimedUntil: null })
@@ -56,11 +82,19 @@ export async function markOutboxAttemptFailed({ id, error, final }: { id: string
 }
 
 /** Messages waiting whose job was never created (the enqueue after commit failed) or is older than `staleBefore`. */
-export async function listOutboxToEnqueue({ staleBefore, limit = 100 }: { staleBefore: Date; limit?: number }): Promise<string[]> {
+export async function listOutboxToEnqueue({
+  staleBefore,
+  limit = 100,
+}: {
+  staleBefore: Date;
+  limit?: number;
+}): Promise<string[]> {
   const rows = await db
     .select({ id: mailOutbox.id })
     .from(mailOutbox)
-    .where(and(eq(mailOutbox.status, "queued"), or(isNull(mailOutbox.enqueuedAt), lt(mailOutbox.enqueuedAt, staleBefore))))
+    .where(
+      and(eq(mailOutbox.status, "queued"), or(isNull(mailOutbox.enqueuedAt), lt(mailOutbox.enqueuedAt, staleBefore))),
+    )
     .orderBy(mailOutbox.createdAt)
     .limit(limit);
   return rows.map((r) => r.id);

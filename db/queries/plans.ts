@@ -23,7 +23,13 @@ const memberOfPlanProject = (userId: string) =>
 export type PlanListItem = Plan & { armName: string; latestVerdict: Verdict | null };
 
 /** The plans of a project the user is a member of, most recently changed first. */
-export async function listPlansForProject({ projectId, userId }: { projectId: string; userId: string }): Promise<PlanListItem[]> {
+export async function listPlansForProject({
+  projectId,
+  userId,
+}: {
+  projectId: string;
+  userId: string;
+}): Promise<PlanListItem[]> {
   const rows = await db
     .select({
       plan: plans,
@@ -74,13 +80,24 @@ export async function listPlansPageForProject({
     )
     .orderBy(desc(plans.updatedAt), desc(plans.id))
     .limit(limit + 1);
-  return toPage(rows, limit, (r) => r.plan.id, (r) => ({ ...r.plan, armName: r.armName, latestVerdict: r.latestVerdict }));
+  return toPage(
+    rows,
+    limit,
+    (r) => r.plan.id,
+    (r) => ({ ...r.plan, armName: r.armName, latestVerdict: r.latestVerdict }),
+  );
 }
 
 export type PlanForUser = Plan & { role: MemberRole; projectArchived: boolean; armName: string };
 
 /** One plan, if the user is a member of its project. */
-export async function getPlanForUser({ planId, userId }: { planId: string; userId: string }): Promise<PlanForUser | undefined> {
+export async function getPlanForUser({
+  planId,
+  userId,
+}: {
+  planId: string;
+  userId: string;
+}): Promise<PlanForUser | undefined> {
   const [row] = await db
     .select({ plan: plans, role: projectMembers.role, archivedAt: projects.archivedAt, armName: arms.name })
     .from(plans)
@@ -92,7 +109,12 @@ export async function getPlanForUser({ planId, userId }: { planId: string; userI
   return { ...row.plan, role: row.role, projectArchived: row.archivedAt !== null, armName: row.armName };
 }
 
-export async function createPlan(input: { projectId: string; armId: string; name: string; userId: string }): Promise<Plan> {
+export async function createPlan(input: {
+  projectId: string;
+  armId: string;
+  name: string;
+  userId: string;
+}): Promise<Plan> {
   const [row] = await db
     .insert(plans)
     .values({ projectId: input.projectId, armId: input.armId, name: input.name, createdBy: input.userId })
@@ -118,7 +140,13 @@ export async function deletePlan({ planId, userId }: { planId: string; userId: s
 export type VersionListItem = Omit<PlanVersion, "document"> & { authorName: string; armRevision: number };
 
 /** A plan's versions, newest first, for a member of its project (documents left out). */
-export async function listPlanVersions({ planId, userId }: { planId: string; userId: string }): Promise<VersionListItem[]> {
+export async function listPlanVersions({
+  planId,
+  userId,
+}: {
+  planId: string;
+  userId: string;
+}): Promise<VersionListItem[]> {
   const rows = await db
     .select({
       id: planVersions.id,
@@ -143,7 +171,12 @@ export async function listPlanVersions({ planId, userId }: { planId: string; use
   return rows;
 }
 
-export type VersionForUser = PlanVersion & { armId: string; armRevision: number; armDescription: unknown; authorName: string };
+export type VersionForUser = PlanVersion & {
+  armId: string;
+  armRevision: number;
+  armDescription: unknown;
+  authorName: string;
+};
 
 /** One version of a plan, with the arm revision it was checked against, for a member of its project. */
 export async function getPlanVersion({
@@ -170,7 +203,13 @@ export async function getPlanVersion({
     .innerJoin(users, eq(users.id, planVersions.authorId))
     .where(and(eq(planVersions.planId, planId), eq(planVersions.number, number)));
   if (!row) return undefined;
-  return { ...row.version, armId: row.armId, armRevision: row.armRevision, armDescription: row.armDescription, authorName: row.authorName };
+  return {
+    ...row.version,
+    armId: row.armId,
+    armRevision: row.armRevision,
+    armDescription: row.armDescription,
+    authorName: row.authorName,
+  };
 }
 
 export type NewVersion = {
@@ -197,7 +236,10 @@ export async function createPlanVersion(input: NewVersion): Promise<{ version: P
       .where(and(eq(plans.id, input.planId), eq(plans.latestVersion, input.baseVersion)))
       .returning({ latestVersion: plans.latestVersion });
     if (!bumped) {
-      const [current] = await tx.select({ latestVersion: plans.latestVersion }).from(plans).where(eq(plans.id, input.planId));
+      const [current] = await tx
+        .select({ latestVersion: plans.latestVersion })
+        .from(plans)
+        .where(eq(plans.id, input.planId));
       return { conflict: current?.latestVersion ?? 0 };
     }
     const [version] = await tx
@@ -234,7 +276,15 @@ export type VersionForSubmission = {
  * A plan version as its would-be submitter sees it: found only in a project they are a member of,
  * with whether they created the plan and saved the version (the submission rule asks both).
  */
-export async function getVersionForSubmission({ planId, number, userId }: { planId: string; number: number; userId: string }): Promise<VersionForSubmission | undefined> {
+export async function getVersionForSubmission({
+  planId,
+  number,
+  userId,
+}: {
+  planId: string;
+  number: number;
+  userId: string;
+}): Promise<VersionForSubmission | undefined> {
   const [row] = await db
     .select({
       id: planVersions.id,
@@ -253,7 +303,13 @@ export async function getVersionForSubmission({ planId, number, userId }: { plan
   return row;
 }
 
-export type SubmittablePlan = { planId: string; planName: string; projectName: string; version: number; verdict: Verdict };
+export type SubmittablePlan = {
+  planId: string;
+  planName: string;
+  projectName: string;
+  version: number;
+  verdict: Verdict;
+};
 
 /**
  * In one query: every plan the user created, in a project they are still a member of, with its latest
@@ -261,7 +317,13 @@ export type SubmittablePlan = { planId: string; planName: string; projectName: s
  */
 export async function listSubmittablePlans({ userId }: { userId: string }): Promise<SubmittablePlan[]> {
   return db
-    .select({ planId: plans.id, planName: plans.name, projectName: projects.name, version: planVersions.number, verdict: planVersions.verdict })
+    .select({
+      planId: plans.id,
+      planName: plans.name,
+      projectName: projects.name,
+      version: planVersions.number,
+      verdict: planVersions.verdict,
+    })
     .from(plans)
     .innerJoin(projectMembers, memberOfPlanProject(userId))
     .innerJoin(projects, eq(projects.id, plans.projectId))

@@ -35,7 +35,13 @@ export async function listProjectsForUser({
 }
 
 /** One project, only if the user is a member (otherwise undefined: it does not exist for them). */
-export async function getProjectForUser({ projectId, userId }: { projectId: string; userId: string }): Promise<ProjectForUser | undefined> {
+export async function getProjectForUser({
+  projectId,
+  userId,
+}: {
+  projectId: string;
+  userId: string;
+}): Promise<ProjectForUser | undefined> {
   const [row] = await db
     .select(projectWithRole)
     .from(projects)
@@ -45,7 +51,15 @@ export async function getProjectForUser({ projectId, userId }: { projectId: stri
 }
 
 /** Creates a project with its creator as owner, in one transaction. */
-export async function createProject({ name, kind, userId }: { name: string; kind: ProjectKind; userId: string }): Promise<ProjectForUser> {
+export async function createProject({
+  name,
+  kind,
+  userId,
+}: {
+  name: string;
+  kind: ProjectKind;
+  userId: string;
+}): Promise<ProjectForUser> {
   return db.transaction(async (tx) => {
     const [project] = await tx.insert(projects).values({ name, kind, createdBy: userId }).returning();
     await tx.insert(projectMembers).values({ projectId: project.id, userId, role: "owner" });
@@ -83,14 +97,22 @@ function inMembership(projectId: string, userId: string, role: MemberRole) {
     db
       .select({ one: projectMembers.userId })
       .from(projectMembers)
-      .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId), eq(projectMembers.role, role))),
+      .where(
+        and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId), eq(projectMembers.role, role)),
+      ),
   );
 }
 
 export type MemberListItem = { userId: string; email: string; name: string; role: MemberRole; createdAt: Date };
 
 /** Members of a project, listed only to someone who is a member of it. */
-export async function listMembers({ projectId, userId }: { projectId: string; userId: string }): Promise<MemberListItem[]> {
+export async function listMembers({
+  projectId,
+  userId,
+}: {
+  projectId: string;
+  userId: string;
+}): Promise<MemberListItem[]> {
   return db
     .select({
       userId: projectMembers.userId,
@@ -133,7 +155,9 @@ export async function upsertMember({
   const [target] = await db
     .select({ id: users.id, email: users.email, name: users.name })
     .from(users)
-    .where(and(eq(users.email, email.toLowerCase()), isNull(users.disabledAt), inMembership(projectId, ownerId, "owner")));
+    .where(
+      and(eq(users.email, email.toLowerCase()), isNull(users.disabledAt), inMembership(projectId, ownerId, "owner")),
+    );
   if (!target) return undefined;
   const [row] = await db
     .insert(projectMembers)
@@ -144,10 +168,24 @@ export async function upsertMember({
 }
 
 /** Removes a member from a project the caller owns. */
-export async function removeMember({ projectId, ownerId, userId }: { projectId: string; ownerId: string; userId: string }): Promise<boolean> {
+export async function removeMember({
+  projectId,
+  ownerId,
+  userId,
+}: {
+  projectId: string;
+  ownerId: string;
+  userId: string;
+}): Promise<boolean> {
   const rows = await db
     .delete(projectMembers)
-    .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId), inMembership(projectId, ownerId, "owner")))
+    .where(
+      and(
+        eq(projectMembers.projectId, projectId),
+        eq(projectMembers.userId, userId),
+        inMembership(projectId, ownerId, "owner"),
+      ),
+    )
     .returning({ userId: projectMembers.userId });
   return rows.length > 0;
 }
@@ -158,7 +196,8 @@ export async function countOwners({ projectId }: { projectId: string }): Promise
 }
 
 /** A timestamp as PostgreSQL holds it (microseconds), in UTC ISO form: a page key that a JS Date would round. */
-const utcKey = (column: typeof projects.updatedAt) => sql<string>`to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`;
+const utcKey = (column: typeof projects.updatedAt) =>
+  sql<string>`to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`;
 
 /**
  * One page of the user's projects, newest activity first, ties broken by id (the order
@@ -182,12 +221,19 @@ export async function listProjectsPageForUser({
     .where(
       and(
         includeArchived ? undefined : isNull(projects.archivedAt),
-        after ? sql`(${projects.updatedAt}, ${projects.id}) < (${after.key}::timestamptz, ${after.id}::uuid)` : undefined,
+        after
+          ? sql`(${projects.updatedAt}, ${projects.id}) < (${after.key}::timestamptz, ${after.id}::uuid)`
+          : undefined,
       ),
     )
     .orderBy(desc(projects.updatedAt), desc(projects.id))
     .limit(limit + 1);
-  return toPage(rows, limit, (r) => r.id, ({ pageKey: _key, ...project }) => project);
+  return toPage(
+    rows,
+    limit,
+    (r) => r.id,
+    ({ pageKey: _key, ...project }) => project,
+  );
 }
 
 /** One page of a project's members by e-mail (then id), listed only to a member of the project. */
@@ -227,5 +273,10 @@ export async function listMembersPage({
     )
     .orderBy(asc(users.email), asc(projectMembers.userId))
     .limit(limit + 1);
-  return toPage(rows, limit, (r) => r.userId, ({ pageKey: _key, ...member }) => member);
+  return toPage(
+    rows,
+    limit,
+    (r) => r.userId,
+    ({ pageKey: _key, ...member }) => member,
+  );
 }

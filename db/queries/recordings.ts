@@ -11,11 +11,20 @@ export async function createRecording(input: NewRecording): Promise<Recording> {
 }
 
 /** The recordings of a project the user is a member of, newest first. */
-export async function listRecordings({ projectId, userId }: { projectId: string; userId: string }): Promise<Recording[]> {
+export async function listRecordings({
+  projectId,
+  userId,
+}: {
+  projectId: string;
+  userId: string;
+}): Promise<Recording[]> {
   const rows = await db
     .select({ recording: recordings })
     .from(recordings)
-    .innerJoin(projectMembers, and(eq(projectMembers.projectId, recordings.projectId), eq(projectMembers.userId, userId)))
+    .innerJoin(
+      projectMembers,
+      and(eq(projectMembers.projectId, recordings.projectId), eq(projectMembers.userId, userId)),
+    )
     .where(eq(recordings.projectId, projectId))
     .orderBy(desc(recordings.createdAt));
   return rows.map((r) => r.recording);
@@ -26,7 +35,10 @@ export async function getRecordingForUser({ recordingId, userId }: { recordingId
   const [row] = await db
     .select({ recording: recordings, role: projectMembers.role })
     .from(recordings)
-    .innerJoin(projectMembers, and(eq(projectMembers.projectId, recordings.projectId), eq(projectMembers.userId, userId)))
+    .innerJoin(
+      projectMembers,
+      and(eq(projectMembers.projectId, recordings.projectId), eq(projectMembers.userId, userId)),
+    )
     .where(eq(recordings.id, recordingId));
   return row;
 }

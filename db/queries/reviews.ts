@@ -2,7 +2,21 @@ import "server-only";
 import { aliasedTable, and, asc, desc, eq, exists, or, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db";
 import { users, type Verdict } from "@/db/schema";
-import { assignments, courseEnrolments, courses, reviewComments, reviews, submissions, type Assignment, type CourseRole, type Review, type ReviewComment, type ReviewDecision, type Submission, type SubmissionStatus } from "@/db/schema/courses";
+import {
+  assignments,
+  courseEnrolments,
+  courses,
+  reviewComments,
+  reviews,
+  submissions,
+  type Assignment,
+  type CourseRole,
+  type Review,
+  type ReviewComment,
+  type ReviewDecision,
+  type Submission,
+  type SubmissionStatus,
+} from "@/db/schema/courses";
 import { insertOutbox, type OutboxInput } from "./mail";
 
 /** SQL condition: `userId` teaches the course the submission's assignment belongs to. */
@@ -11,7 +25,13 @@ function teachesSubmission(userId: string) {
     db
       .select({ one: courseEnrolments.userId })
       .from(courseEnrolments)
-      .where(and(eq(courseEnrolments.courseId, assignments.courseId), eq(courseEnrolments.userId, userId), eq(courseEnrolments.role, "instructor"))),
+      .where(
+        and(
+          eq(courseEnrolments.courseId, assignments.courseId),
+          eq(courseEnrolments.userId, userId),
+          eq(courseEnrolments.role, "instructor"),
+        ),
+      ),
   );
 }
 
@@ -42,7 +62,13 @@ export type QueueFilter = {
 };
 
 /** The review queue: submissions to the courses the user teaches, filtered and sorted. */
-export async function listReviewQueue({ userId, filter }: { userId: string; filter: QueueFilter }): Promise<QueueItem[]> {
+export async function listReviewQueue({
+  userId,
+  filter,
+}: {
+  userId: string;
+  filter: QueueFilter;
+}): Promise<QueueItem[]> {
   const sortColumn = {
     submittedAt: submissions.submittedAt,
     student: users.name,
@@ -96,7 +122,13 @@ export type SubmissionForUser = Submission & {
 };
 
 /** One submission, only for its student or an instructor of its course. */
-export async function getSubmissionForUser({ submissionId, userId }: { submissionId: string; userId: string }): Promise<SubmissionForUser | undefined> {
+export async function getSubmissionForUser({
+  submissionId,
+  userId,
+}: {
+  submissionId: string;
+  userId: string;
+}): Promise<SubmissionForUser | undefined> {
   const student = aliasedTable(users, "student");
   const [row] = await db
     .select({
@@ -131,14 +163,25 @@ export async function getSubmissionForUser({ submissionId, userId }: { submissio
 export type CommentItem = ReviewComment & { authorName: string };
 
 /** A submission's comments, oldest first, for its student or an instructor of its course. */
-export async function listComments({ submissionId, userId }: { submissionId: string; userId: string }): Promise<CommentItem[]> {
+export async function listComments({
+  submissionId,
+  userId,
+}: {
+  submissionId: string;
+  userId: string;
+}): Promise<CommentItem[]> {
   const rows = await db
     .select({ comment: reviewComments, authorName: users.name })
     .from(reviewComments)
     .innerJoin(submissions, eq(submissions.id, reviewComments.submissionId))
     .innerJoin(assignments, eq(assignments.id, submissions.assignmentId))
     .innerJoin(users, eq(users.id, reviewComments.authorId))
-    .where(and(eq(reviewComments.submissionId, submissionId), or(eq(submissions.studentId, userId), teachesSubmission(userId))))
+    .where(
+      and(
+        eq(reviewComments.submissionId, submissionId),
+        or(eq(submissions.studentId, userId), teachesSubmission(userId)),
+      ),
+    )
     .orderBy(asc(reviewComments.createdAt), asc(reviewComments.id));
   return rows.map((r) => ({ ...r.comment, authorName: r.authorName }));
 }
@@ -156,7 +199,13 @@ export async function addComment(input: {
     .select({ id: submissions.id })
     .from(submissions)
     .innerJoin(assignments, eq(assignments.id, submissions.assignmentId))
-    .where(and(eq(submissions.id, input.submissionId), eq(submissions.status, "submitted"), teachesSubmission(input.authorId)));
+    .where(
+      and(
+        eq(submissions.id, input.submissionId),
+        eq(submissions.status, "submitted"),
+        teachesSubmission(input.authorId),
+      ),
+    );
   if (!open) return undefined;
   const [row] = await db
     .insert(reviewComments)
@@ -177,7 +226,13 @@ export async function addComment(input: {
  * decisions at once exactly one wins: the status change is a compare-and-set in one UPDATE.
  */
 export async function decideSubmission(
-  input: { submissionId: string; reviewerId: string; decision: ReviewDecision; summary: string; faultApprovalReason?: string | null },
+  input: {
+    submissionId: string;
+    reviewerId: string;
+    decision: ReviewDecision;
+    summary: string;
+    faultApprovalReason?: string | null;
+  },
   mails: (review: Review) => OutboxInput[],
 ): Promise<{ review: Review; mailIds: string[] } | undefined> {
   return db.transaction(async (tx) => {

@@ -38,7 +38,13 @@ export async function listApiTokens({ userId }: { userId: string }): Promise<Tok
 }
 
 /** Revokes one of the user's own tokens; undefined when it is not theirs or does not exist. */
-export async function revokeApiToken({ id, userId }: { id: string; userId: string }): Promise<TokenListItem | undefined> {
+export async function revokeApiToken({
+  id,
+  userId,
+}: {
+  id: string;
+  userId: string;
+}): Promise<TokenListItem | undefined> {
   const [row] = await db
     .update(apiTokens)
     .set({ revokedAt: new Date() })

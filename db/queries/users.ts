@@ -1,7 +1,15 @@
 import "server-only";
 import { and, asc, count, eq, gt, gte, isNull, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { accountTokens, revokedSessions, signInAttempts, signUpAttempts, users, type SiteRole, type User } from "@/db/schema";
+import {
+  accountTokens,
+  revokedSessions,
+  signInAttempts,
+  signUpAttempts,
+  users,
+  type SiteRole,
+  type User,
+} from "@/db/schema";
 
 /** The public view of a user: never the password hash. */
 export type PublicUser = Pick<User, "id" | "email" | "name" | "siteRole" | "createdAt" | "disabledAt">;
@@ -35,7 +43,13 @@ export async function getActiveUserById({ id }: { id: string }): Promise<PublicU
  * The session cookie check (lib/server/auth-request.ts): an enabled user by id, with when their
  * password last changed, provided the session `sessionId` has not been signed out.
  */
-export async function getSessionUserById({ id, sessionId }: { id: string; sessionId: string }): Promise<SessionUser | undefined> {
+export async function getSessionUserById({
+  id,
+  sessionId,
+}: {
+  id: string;
+  sessionId: string;
+}): Promise<SessionUser | undefined> {
   const [row] = await db
     .select({ ...publicColumns, passwordChangedAt: users.passwordChangedAt })
     .from(users)
@@ -50,7 +64,15 @@ export async function getSessionUserById({ id, sessionId }: { id: string; sessio
 }
 
 /** Records a signed-out session until its cookie would have expired; a second sign-out is a no-op. Old rows are pruned on the way. */
-export async function revokeSession({ sessionId, userId, expiresAt }: { sessionId: string; userId: string; expiresAt: Date }): Promise<void> {
+export async function revokeSession({
+  sessionId,
+  userId,
+  expiresAt,
+}: {
+  sessionId: string;
+  userId: string;
+  expiresAt: Date;
+}): Promise<void> {
   await db.transaction(async (tx) => {
     await tx.insert(revokedSessions).values({ sessionId, userId, expiresAt }).onConflictDoNothing();
     await tx.delete(revokedSessions).where(sql`${revokedSessions.expiresAt} < now()`);
@@ -63,7 +85,15 @@ export async function recordSignUpAttempt({ email, ip }: { email: string; ip: st
 }
 
 /** Sign-up requests for one address, and from one client, since a moment. */
-export async function countSignUpAttempts({ email, ip, since }: { email: string; ip: string | null; since: Date }): Promise<{ byEmail: number; byIp: number }> {
+export async function countSignUpAttempts({
+  email,
+  ip,
+  since,
+}: {
+  email: string;
+  ip: string | null;
+  since: Date;
+}): Promise<{ byEmail: number; byIp: number }> {
   const [row] = await db
     .select({
       byEmail: sql<number>`count(*) filter (where ${signUpAttempts.email} = ${email.toLowerCase()})`.mapWith(Number),
@@ -118,7 +148,11 @@ export async function updateUserByAdmin({
   return row;
 }
 
-export async function recordSignInAttempt(input: { email: string; ip: string | null; succeeded: boolean }): Promise<void> {
+export async function recordSignInAttempt(input: {
+  email: string;
+  ip: string | null;
+  succeeded: boolean;
+}): Promise<void> {
   await db.insert(signInAttempts).values({ ...input, email: input.email.toLowerCase() });
 }
 
@@ -153,7 +187,13 @@ export type SignInFailures = { failures: number; lastFailureAt: Date | null };
  * Failed sign-in attempts for one e-mail since a moment and after its latest successful sign-in
  * (a correct password ends the back-off), with the time of the latest.
  */
-export async function recentFailedSignInsForEmail({ email, since }: { email: string; since: Date }): Promise<SignInFailures> {
+export async function recentFailedSignInsForEmail({
+  email,
+  since,
+}: {
+  email: string;
+  since: Date;
+}): Promise<SignInFailures> {
   const e = email.toLowerCase();
   const [row] = await db
     .select({ n: count(), last: sql<string | null>`max(${signInAttempts.attemptedAt})` })
@@ -185,7 +225,13 @@ export async function recentFailedSignInsFromIp({ ip, since }: { ip: string; sin
  * or undefined for an unknown, used or expired token (or a disabled account).
  * It lives here rather than next to the other token queries because it is the password's writer.
  */
-export async function setPasswordWithResetToken({ tokenHash, passwordHash }: { tokenHash: string; passwordHash: string }): Promise<string | undefined> {
+export async function setPasswordWithResetToken({
+  tokenHash,
+  passwordHash,
+}: {
+  tokenHash: string;
+  passwordHash: string;
+}): Promise<string | undefined> {
   return db.transaction(async (tx) => {
     const [token] = await tx
       .update(accountTokens)
@@ -210,7 +256,13 @@ export async function setPasswordWithResetToken({ tokenHash, passwordHash }: { t
     await tx
       .update(accountTokens)
       .set({ usedAt: new Date() })
-      .where(and(eq(accountTokens.userId, token.userId), eq(accountTokens.purpose, "password-reset"), isNull(accountTokens.usedAt)));
+      .where(
+        and(
+          eq(accountTokens.userId, token.userId),
+          eq(accountTokens.purpose, "password-reset"),
+          isNull(accountTokens.usedAt),
+        ),
+      );
     return token.userId;
   });
 }
@@ -225,6 +277,12 @@ export async function countPasswordResetsSince({ email, since }: { email: string
     .select({ n: count() })
     .from(accountTokens)
     .innerJoin(users, eq(users.id, accountTokens.userId))
-    .where(and(eq(users.email, email.toLowerCase()), eq(accountTokens.purpose, "password-reset"), gte(accountTokens.createdAt, since)));
+    .where(
+      and(
+        eq(users.email, email.toLowerCase()),
+        eq(accountTokens.purpose, "password-reset"),
+        gte(accountTokens.createdAt, since),
+      ),
+    );
   return row?.n ?? 0;
 }

@@ -20,7 +20,9 @@ export const arms = pgTable(
     check("arms_name_length", sql`char_length(${t.name}) between 1 and 120`),
     unique("arms_project_name").on(t.projectId, t.name),
     // NULL project ids are distinct in a plain unique constraint, so built-in names get their own index.
-    uniqueIndex("arms_builtin_name").on(t.name).where(sql`${t.projectId} is null`),
+    uniqueIndex("arms_builtin_name")
+      .on(t.name)
+      .where(sql`${t.projectId} is null`),
     index("arms_project").on(t.projectId),
   ],
 );

@@ -133,7 +133,9 @@ export const submissions = pgTable(
     report: jsonb("report").notNull(),
     verdict: verdict("verdict").notNull(),
     /** Assignment rules the plan does not meet (required start, goals, arm revision). */
-    ruleProblems: jsonb("rule_problems").notNull().default(sql`'[]'::jsonb`),
+    ruleProblems: jsonb("rule_problems")
+      .notNull()
+      .default(sql`'[]'::jsonb`),
     late: boolean("late").notNull(),
     status: submissionStatus("status").notNull().default("submitted"),
     attempt: integer("attempt").notNull().default(1),
@@ -145,7 +147,9 @@ export const submissions = pgTable(
     check("submissions_document_object", sql`jsonb_typeof(${t.document}) = 'object'`),
     uniqueIndex("submissions_previous_once").on(t.previousId),
     // At most one submission waiting for review per student and assignment.
-    uniqueIndex("submissions_one_open").on(t.assignmentId, t.studentId).where(sql`${t.status} = 'submitted'`),
+    uniqueIndex("submissions_one_open")
+      .on(t.assignmentId, t.studentId)
+      .where(sql`${t.status} = 'submitted'`),
     index("submissions_assignment_time").on(t.assignmentId, t.submittedAt),
     index("submissions_student").on(t.studentId),
   ],
@@ -174,8 +178,14 @@ export const reviews = pgTable(
   },
   (t) => [
     check("reviews_summary_length", sql`char_length(${t.summary}) <= 5000`),
-    check("reviews_fault_approval_reason_length", sql`${t.faultApprovalReason} is null or char_length(${t.faultApprovalReason}) between 1 and 1000`),
-    check("reviews_fault_approval_reason_approved_only", sql`${t.faultApprovalReason} is null or ${t.decision} = 'approved'`),
+    check(
+      "reviews_fault_approval_reason_length",
+      sql`${t.faultApprovalReason} is null or char_length(${t.faultApprovalReason}) between 1 and 1000`,
+    ),
+    check(
+      "reviews_fault_approval_reason_approved_only",
+      sql`${t.faultApprovalReason} is null or ${t.decision} = 'approved'`,
+    ),
   ],
 );
 

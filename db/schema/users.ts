@@ -77,7 +77,10 @@ export const signUpAttempts = pgTable(
     ip: text("ip"),
     attemptedAt: timestamp("attempted_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("sign_up_attempts_email_time").on(t.email, t.attemptedAt), index("sign_up_attempts_ip_time").on(t.ip, t.attemptedAt)],
+  (t) => [
+    index("sign_up_attempts_email_time").on(t.email, t.attemptedAt),
+    index("sign_up_attempts_ip_time").on(t.ip, t.attemptedAt),
+  ],
 );
 
 export type User = typeof users.$inferSelect;

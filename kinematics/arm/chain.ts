@@ -163,7 +163,12 @@ export function createChainBuffers(chain: CompiledChain): ChainBuffers {
  * frame 0 is the base). Frame i = frame(i−1) · origin(i) · motion(qᵢ), the URDF joint model;
  * extra pose entries beyond the chain (e.g. a gripper) are ignored.
  */
-export function linkFrames(chain: CompiledChain, pose: ArrayLike<number>, out: Float64Array, poseOffset = 0): Float64Array {
+export function linkFrames(
+  chain: CompiledChain,
+  pose: ArrayLike<number>,
+  out: Float64Array,
+  poseOffset = 0,
+): Float64Array {
   mat4.identity(out, 0);
   const ax = chain.axis;
   for (let i = 0; i < chain.jointCount; i++) {
@@ -171,10 +176,18 @@ export function linkFrames(chain: CompiledChain, pose: ArrayLike<number>, out: F
     const o = 16 * (i + 1);
     // A = frame(i−1) · origin(i), written into frame i's slot.
     mat4.multiplyRigid(out, out, chain.origin, o, 16 * i, 16 * i);
-    const x = ax[3 * i], y = ax[3 * i + 1], z = ax[3 * i + 2];
-    const a00 = out[o], a10 = out[o + 1], a20 = out[o + 2];
-    const a01 = out[o + 4], a11 = out[o + 5], a21 = out[o + 6];
-    const a02 = out[o + 8], a12 = out[o + 9], a22 = out[o + 10];
+    const x = ax[3 * i],
+      y = ax[3 * i + 1],
+      z = ax[3 * i + 2];
+    const a00 = out[o],
+      a10 = out[o + 1],
+      a20 = out[o + 2];
+    const a01 = out[o + 4],
+      a11 = out[o + 5],
+      a21 = out[o + 6];
+    const a02 = out[o + 8],
+      a12 = out[o + 9],
+      a22 = out[o + 10];
     if (chain.prismatic[i]) {
       // Translation along the axis: p += A_R·(axis·q); the rotation is unchanged.
       out[o + 12] += (a00 * x + a01 * y + a02 * z) * q;
@@ -184,10 +197,18 @@ export function linkFrames(chain: CompiledChain, pose: ArrayLike<number>, out: F
     }
     // Rotation about the axis, Rodrigues' formula R = I + sinθ[k]× + (1 − cosθ)[k]×² (Lynch & Park eq. 3.51);
     // A · R touches only A's rotation part (R has no translation).
-    const c = Math.cos(q), sn = Math.sin(q), t = 1 - c;
-    const m00 = t * x * x + c, m10 = t * x * y + sn * z, m20 = t * x * z - sn * y;
-    const m01 = t * x * y - sn * z, m11 = t * y * y + c, m21 = t * y * z + sn * x;
-    const m02 = t * x * z + sn * y, m12 = t * y * z - sn * x, m22 = t * z * z + c;
+    const c = Math.cos(q),
+      sn = Math.sin(q),
+      t = 1 - c;
+    const m00 = t * x * x + c,
+      m10 = t * x * y + sn * z,
+      m20 = t * x * z - sn * y;
+    const m01 = t * x * y - sn * z,
+      m11 = t * y * y + c,
+      m21 = t * y * z + sn * x;
+    const m02 = t * x * z + sn * y,
+      m12 = t * y * z - sn * x,
+      m22 = t * z * z + c;
     out[o] = a00 * m00 + a01 * m10 + a02 * m20;
     out[o + 1] = a10 * m00 + a11 * m10 + a12 * m20;
     out[o + 2] = a20 * m00 + a21 * m10 + a22 * m20;
@@ -226,10 +247,14 @@ export function toolJacobian(chain: CompiledChain, buffers: ChainBuffers, out: F
   const n = chain.jointCount;
   const f = buffers.frames;
   const t = buffers.tool;
-  const px = t[12], py = t[13], pz = t[14];
+  const px = t[12],
+    py = t[13],
+    pz = t[14];
   for (let i = 0; i < n; i++) {
     const o = 16 * (i + 1);
-    const ax = chain.axis[3 * i], ay = chain.axis[3 * i + 1], az = chain.axis[3 * i + 2];
+    const ax = chain.axis[3 * i],
+      ay = chain.axis[3 * i + 1],
+      az = chain.axis[3 * i + 2];
     // Axis in the base frame: the axis is fixed in the joint frame and invariant under its own motion.
     const zx = f[o] * ax + f[o + 4] * ay + f[o + 8] * az;
     const zy = f[o + 1] * ax + f[o + 5] * ay + f[o + 9] * az;
@@ -240,7 +265,9 @@ export function toolJacobian(chain: CompiledChain, buffers: ChainBuffers, out: F
       out[2 * n + i] = zz;
       out[3 * n + i] = out[4 * n + i] = out[5 * n + i] = 0;
     } else {
-      const rx = px - f[o + 12], ry = py - f[o + 13], rz = pz - f[o + 14];
+      const rx = px - f[o + 12],
+        ry = py - f[o + 13],
+        rz = pz - f[o + 14];
       out[i] = zy * rz - zz * ry;
       out[n + i] = zz * rx - zx * rz;
       out[2 * n + i] = zx * ry - zy * rx;
@@ -302,7 +329,11 @@ export function armFromDescription(desc: ArmDescription, controlRateHz = 1000): 
     })),
     chain: {
       base: desc.links[0] ?? { collision: [] },
-      joints: desc.joints.map((j, i) => ({ origin: j.origin, axis: j.axis, link: desc.links[i + 1] ?? { collision: [] } })),
+      joints: desc.joints.map((j, i) => ({
+        origin: j.origin,
+        axis: j.axis,
+        link: desc.links[i + 1] ?? { collision: [] },
+      })),
       tool: desc.tool,
       gravity: desc.gravity,
     },
@@ -310,8 +341,12 @@ export function armFromDescription(desc: ArmDescription, controlRateHz = 1000): 
 }
 
 /** Lower and upper travel of the chain joints (±Infinity where there is none). */
-export function chainLimits(joints: readonly ChainJointLimits[], n: number): { lower: Float64Array; upper: Float64Array } {
-  const lower = new Float64Array(n), upper = new Float64Array(n);
+export function chainLimits(
+  joints: readonly ChainJointLimits[],
+  n: number,
+): { lower: Float64Array; upper: Float64Array } {
+  const lower = new Float64Array(n),
+    upper = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const j = joints[i];
     lower[i] = j && j.min !== null && j.type !== "continuous" ? j.min : -Infinity;

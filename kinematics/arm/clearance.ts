@@ -11,7 +11,9 @@ import type { ArmChain, KeepOutBox } from "../plan/arm-model";
 import { createChainBuffers, linkFrames, type ChainBuffers, type CompiledChain } from "./chain";
 import * as mat4 from "./mat4";
 
-const SPHERE = 0, CAPSULE = 1, BOX = 2;
+const SPHERE = 0,
+  CAPSULE = 1,
+  BOX = 2;
 
 /** The chain's collision shapes in flat arrays. */
 export interface CollisionModel {
@@ -87,7 +89,8 @@ export function compileCollision(chain: ArmChain): CollisionModel {
 
 /** Builds the zones from a plan's `surfaceMargin` (m, default 0) and `keepOut` boxes. */
 export function clearanceZones(surfaceMarginM = 0, keepOut: readonly KeepOutBox[] = []): ClearanceZones {
-  const boxMin = new Float64Array(3 * keepOut.length), boxMax = new Float64Array(3 * keepOut.length);
+  const boxMin = new Float64Array(3 * keepOut.length),
+    boxMax = new Float64Array(3 * keepOut.length);
   keepOut.forEach((b, i) => {
     boxMin.set(b.min, 3 * i);
     boxMax.set(b.max, 3 * i);
@@ -100,11 +103,20 @@ export function clearanceZones(surfaceMarginM = 0, keepOut: readonly KeepOutBox[
  * |max(d, 0)| + min(max(dx, dy, dz), 0) with d = |p − c| − h (derived; Ericson, Real-Time
  * Collision Detection, 2005, §5.1.3 gives the outside part).
  */
-export function boxSignedDistance(x: number, y: number, z: number, mn: ArrayLike<number>, mx: ArrayLike<number>, o = 0): number {
+export function boxSignedDistance(
+  x: number,
+  y: number,
+  z: number,
+  mn: ArrayLike<number>,
+  mx: ArrayLike<number>,
+  o = 0,
+): number {
   const dx = Math.max(mn[o] - x, x - mx[o]);
   const dy = Math.max(mn[o + 1] - y, y - mx[o + 1]);
   const dz = Math.max(mn[o + 2] - z, z - mx[o + 2]);
-  const ox = dx > 0 ? dx : 0, oy = dy > 0 ? dy : 0, oz = dz > 0 ? dz : 0;
+  const ox = dx > 0 ? dx : 0,
+    oy = dy > 0 ? dy : 0,
+    oz = dz > 0 ? dz : 0;
   const outside = Math.sqrt(ox * ox + oy * oy + oz * oz);
   return outside + Math.min(Math.max(dx, dy, dz), 0);
 }
@@ -121,12 +133,17 @@ export function segmentBoxSignedDistance(
   mx: ArrayLike<number>,
   o = 0,
 ): number {
-  const ex = b[0] - a[0], ey = b[1] - a[1], ez = b[2] - a[2];
+  const ex = b[0] - a[0],
+    ey = b[1] - a[1],
+    ez = b[2] - a[2];
   const f = (t: number) => boxSignedDistance(a[0] + t * ex, a[1] + t * ey, a[2] + t * ez, mn, mx, o);
   const g = 0.6180339887498949; // (√5 − 1)/2
-  let lo = 0, hi = 1;
-  let x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo);
-  let f1 = f(x1), f2 = f(x2);
+  let lo = 0,
+    hi = 1;
+  let x1 = hi - g * (hi - lo),
+    x2 = lo + g * (hi - lo);
+  let f1 = f(x1),
+    f2 = f(x2);
   // 30 steps shrink the bracket to 0.618³⁰ ≈ 5e-7 of the segment: sub-micrometre for arm links.
   for (let it = 0; it < 30; it++) {
     if (f1 < f2) {
@@ -166,9 +183,15 @@ export function orientedBoxIntrusion(
     u[3 * k + 1] = w[wo + 4 * k + 1];
     u[3 * k + 2] = w[wo + 4 * k + 2];
   }
-  const h0 = h[ho], h1 = h[ho + 1], h2 = h[ho + 2];
-  const bh0 = (mx[o] - mn[o]) / 2, bh1 = (mx[o + 1] - mn[o + 1]) / 2, bh2 = (mx[o + 2] - mn[o + 2]) / 2;
-  const d0 = w[wo + 12] - (mn[o] + mx[o]) / 2, d1 = w[wo + 13] - (mn[o + 1] + mx[o + 1]) / 2, d2 = w[wo + 14] - (mn[o + 2] + mx[o + 2]) / 2;
+  const h0 = h[ho],
+    h1 = h[ho + 1],
+    h2 = h[ho + 2];
+  const bh0 = (mx[o] - mn[o]) / 2,
+    bh1 = (mx[o + 1] - mn[o + 1]) / 2,
+    bh2 = (mx[o + 2] - mn[o + 2]) / 2;
+  const d0 = w[wo + 12] - (mn[o] + mx[o]) / 2,
+    d1 = w[wo + 13] - (mn[o + 1] + mx[o + 1]) / 2,
+    d2 = w[wo + 14] - (mn[o + 2] + mx[o + 2]) / 2;
   let best = Infinity;
   // Candidate axes: the 3 world axes, the 3 box axes, and the 9 cross products world × box.
   for (let c = 0; c < 15; c++) {
@@ -182,8 +205,11 @@ export function orientedBoxIntrusion(
       ly = u[3 * (c - 3) + 1];
       lz = u[3 * (c - 3) + 2];
     } else {
-      const e = Math.floor((c - 6) / 3), k = (c - 6) % 3;
-      const ax = u[3 * k], ay = u[3 * k + 1], az = u[3 * k + 2];
+      const e = Math.floor((c - 6) / 3),
+        k = (c - 6) % 3;
+      const ax = u[3 * k],
+        ay = u[3 * k + 1],
+        az = u[3 * k + 2];
       // e_e × a
       lx = e === 0 ? 0 : e === 1 ? az : -ay;
       ly = e === 0 ? -az : e === 1 ? 0 : ax;
@@ -196,7 +222,9 @@ export function orientedBoxIntrusion(
     lz /= len;
     // Projected radii: oriented box Σ hᵢ|uᵢ·L|, axis-aligned box Σ bhᵢ|Lᵢ|; overlap = ra + rb − |d·L|.
     const ra =
-      h0 * Math.abs(u[0] * lx + u[1] * ly + u[2] * lz) + h1 * Math.abs(u[3] * lx + u[4] * ly + u[5] * lz) + h2 * Math.abs(u[6] * lx + u[7] * ly + u[8] * lz);
+      h0 * Math.abs(u[0] * lx + u[1] * ly + u[2] * lz) +
+      h1 * Math.abs(u[3] * lx + u[4] * ly + u[5] * lz) +
+      h2 * Math.abs(u[6] * lx + u[7] * ly + u[8] * lz);
     const rb = bh0 * Math.abs(lx) + bh1 * Math.abs(ly) + bh2 * Math.abs(lz);
     const overlap = ra + rb - Math.abs(d0 * lx + d1 * ly + d2 * lz);
     if (overlap < best) best = overlap;
@@ -242,16 +270,22 @@ export function shapeIntrusions(
       mat4.multiply(world, frames, model.local, 0, fo, 16 * s);
       // Lowest corner: c_z − Σₖ hₖ·|R[2,k]| (support point of a box, derived).
       const h = model.half;
-      const low = world[14] - h[3 * s] * Math.abs(world[2]) - h[3 * s + 1] * Math.abs(world[6]) - h[3 * s + 2] * Math.abs(world[10]);
+      const low =
+        world[14] -
+        h[3 * s] * Math.abs(world[2]) -
+        h[3 * s + 1] * Math.abs(world[6]) -
+        h[3 * s + 2] * Math.abs(world[10]);
       out[base] = model.link[s] === 0 ? -Infinity : zones.surfaceMarginM - low;
-      for (let k = 0; k < boxes; k++) out[base + 1 + k] = orientedBoxIntrusion(world, 0, h, 3 * s, zones.boxMin, zones.boxMax, 3 * k);
+      for (let k = 0; k < boxes; k++)
+        out[base + 1 + k] = orientedBoxIntrusion(world, 0, h, 3 * s, zones.boxMin, zones.boxMax, 3 * k);
       continue;
     }
     mat4.transformPoint(a, frames, model.p1, 0, fo, 3 * s);
     const r = model.radius[s];
     if (kind === SPHERE) {
       out[base] = model.link[s] === 0 ? -Infinity : zones.surfaceMarginM - (a[2] - r);
-      for (let k = 0; k < boxes; k++) out[base + 1 + k] = r - boxSignedDistance(a[0], a[1], a[2], zones.boxMin, zones.boxMax, 3 * k);
+      for (let k = 0; k < boxes; k++)
+        out[base + 1 + k] = r - boxSignedDistance(a[0], a[1], a[2], zones.boxMin, zones.boxMax, 3 * k);
     } else {
       mat4.transformPoint(b, frames, model.p2, 0, fo, 3 * s);
       out[base] = model.link[s] === 0 ? -Infinity : zones.surfaceMarginM - (Math.min(a[2], b[2]) - r);
@@ -260,7 +294,8 @@ export function shapeIntrusions(
         // Quick reject: the capsule's bounding box does not reach the keep-out box.
         let apart = false;
         for (let ax = 0; ax < 3 && !apart; ax++) {
-          const lo = Math.min(a[ax], b[ax]) - r, hi = Math.max(a[ax], b[ax]) + r;
+          const lo = Math.min(a[ax], b[ax]) - r,
+            hi = Math.max(a[ax], b[ax]) + r;
           if (hi < zones.boxMin[o + ax] || lo > zones.boxMax[o + ax]) apart = true;
         }
         out[base + 1 + k] = apart ? -r : r - segmentBoxSignedDistance(a, b, zones.boxMin, zones.boxMax, o);
@@ -302,7 +337,11 @@ export interface ClearanceScanner {
 }
 
 /** Allocates a scanner for one chain and zone set. */
-export function createClearanceScanner(chain: CompiledChain, model: CollisionModel, zones: ClearanceZones): ClearanceScanner {
+export function createClearanceScanner(
+  chain: CompiledChain,
+  model: CollisionModel,
+  zones: ClearanceZones,
+): ClearanceScanner {
   const boxes = zones.boxMin.length / 3;
   return {
     chain,
@@ -418,7 +457,8 @@ export function scanClearanceBounded(
       const reach = linkSpeed[model.link[s]] * dt;
       for (let z = 0; z < zonesPer; z++) {
         const p = s * zonesPer + z;
-        const d0 = coarse[c * pairs + p], d1 = coarse[(c + 1) * pairs + p];
+        const d0 = coarse[c * pairs + p],
+          d1 = coarse[(c + 1) * pairs + p];
         // −Infinity (the base on the surface) stays clear; anything else must be provably apart.
         if (!(d0 + d1 + reach < 0)) {
           clear = false;

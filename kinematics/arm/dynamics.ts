@@ -44,7 +44,8 @@ export function createDynamicsWorkspace(
   signEpsilon = 0.01,
 ): DynamicsWorkspace {
   const n = chain.jointCount;
-  const coulomb = new Float64Array(n), viscous = new Float64Array(n);
+  const coulomb = new Float64Array(n),
+    viscous = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     coulomb[i] = friction[i]?.coulomb ?? 0;
     viscous[i] = friction[i]?.viscous ?? 0;
@@ -96,7 +97,8 @@ export function inverseDynamics(
 ): Float64Array {
   const n = chain.jointCount;
   const { rot, pos, w, dw, dv, force, moment } = ws;
-  const org = chain.origin, ax = chain.axis;
+  const org = chain.origin,
+    ax = chain.axis;
   // Base: at rest, accelerating upwards at −g (Craig eq. 6.49 trick for gravity).
   w[0] = w[1] = w[2] = dw[0] = dw[1] = dw[2] = 0;
   const gs = includeGravity ? 1 : 0;
@@ -105,34 +107,59 @@ export function inverseDynamics(
   dv[2] = -gs * chain.gravity[2];
 
   for (let i = 0; i < n; i++) {
-    const qi = q[offset + i], qdi = qd[offset + i], qddi = qdd[offset + i];
-    const zx = ax[3 * i], zy = ax[3 * i + 1], zz = ax[3 * i + 2];
+    const qi = q[offset + i],
+      qdi = qd[offset + i],
+      qddi = qdd[offset + i];
+    const zx = ax[3 * i],
+      zy = ax[3 * i + 1],
+      zz = ax[3 * i + 2];
     const o = 16 * i;
     const r = 9 * i;
     // ᶦ⁻¹Rᵢ = R_origin · R_motion; ᶦ⁻¹pᵢ = p_origin (+ R_origin·z·q for a prismatic joint).
     if (chain.prismatic[i]) {
       for (let c = 0; c < 3; c++) for (let k = 0; k < 3; k++) rot[r + 3 * c + k] = org[o + 4 * c + k];
-      for (let k = 0; k < 3; k++) pos[3 * i + k] = org[o + 12 + k] + (org[o + k] * zx + org[o + 4 + k] * zy + org[o + 8 + k] * zz) * qi;
+      for (let k = 0; k < 3; k++)
+        pos[3 * i + k] = org[o + 12 + k] + (org[o + k] * zx + org[o + 4 + k] * zy + org[o + 8 + k] * zz) * qi;
     } else {
       // Rodrigues' formula for R_motion (Lynch & Park eq. 3.51), then R_origin · R_motion.
-      const cq = Math.cos(qi), sq = Math.sin(qi), t = 1 - cq;
-      const m00 = t * zx * zx + cq, m10 = t * zx * zy + sq * zz, m20 = t * zx * zz - sq * zy;
-      const m01 = t * zx * zy - sq * zz, m11 = t * zy * zy + cq, m21 = t * zy * zz + sq * zx;
-      const m02 = t * zx * zz + sq * zy, m12 = t * zy * zz - sq * zx, m22 = t * zz * zz + cq;
+      const cq = Math.cos(qi),
+        sq = Math.sin(qi),
+        t = 1 - cq;
+      const m00 = t * zx * zx + cq,
+        m10 = t * zx * zy + sq * zz,
+        m20 = t * zx * zz - sq * zy;
+      const m01 = t * zx * zy - sq * zz,
+        m11 = t * zy * zy + cq,
+        m21 = t * zy * zz + sq * zx;
+      const m02 = t * zx * zz + sq * zy,
+        m12 = t * zy * zz - sq * zx,
+        m22 = t * zz * zz + cq;
       for (let k = 0; k < 3; k++) {
-        const a0 = org[o + k], a1 = org[o + 4 + k], a2 = org[o + 8 + k];
+        const a0 = org[o + k],
+          a1 = org[o + 4 + k],
+          a2 = org[o + 8 + k];
         rot[r + k] = a0 * m00 + a1 * m10 + a2 * m20;
         rot[r + 3 + k] = a0 * m01 + a1 * m11 + a2 * m21;
         rot[r + 6 + k] = a0 * m02 + a1 * m12 + a2 * m22;
         pos[3 * i + k] = org[o + 12 + k];
       }
     }
-    const p = 3 * i, c0 = 3 * i, c1 = 3 * (i + 1);
-    const px = pos[p], py = pos[p + 1], pz = pos[p + 2];
-    const wx = w[c0], wy = w[c0 + 1], wz = w[c0 + 2];
-    const dwx = dw[c0], dwy = dw[c0 + 1], dwz = dw[c0 + 2];
+    const p = 3 * i,
+      c0 = 3 * i,
+      c1 = 3 * (i + 1);
+    const px = pos[p],
+      py = pos[p + 1],
+      pz = pos[p + 2];
+    const wx = w[c0],
+      wy = w[c0 + 1],
+      wz = w[c0 + 2];
+    const dwx = dw[c0],
+      dwy = dw[c0 + 1],
+      dwz = dw[c0 + 2];
     // a = ω̇ × p + ω × (ω × p) + v̇ in frame i−1 (Craig eq. 6.47).
-    const wpx = wy * pz - wz * py, wpy = wz * px - wx * pz, wpz = wx * py - wy * px;
+    const wpx = wy * pz - wz * py,
+      wpy = wz * px - wx * pz,
+      wpz = wx * py - wy * px;
     const ax0 = dwy * pz - dwz * py + (wy * wpz - wz * wpy) + dv[c0];
     const ay0 = dwz * px - dwx * pz + (wz * wpx - wx * wpz) + dv[c0 + 1];
     const az0 = dwx * py - dwy * px + (wx * wpy - wy * wpx) + dv[c0 + 2];
@@ -171,15 +198,24 @@ export function inverseDynamics(
     dv[c1 + 2] = dvz;
     // Com acceleration v̇c = ω̇ × c + ω × (ω × c) + v̇ (Craig eq. 6.48); F = m·v̇c (eq. 6.51).
     const m = chain.mass[i];
-    const cx = chain.com[3 * i], cy = chain.com[3 * i + 1], cz = chain.com[3 * i + 2];
-    const Wx = w[c1], Wy = w[c1 + 1], Wz = w[c1 + 2];
-    const Dx = dw[c1], Dy = dw[c1 + 1], Dz = dw[c1 + 2];
-    const wcx = Wy * cz - Wz * cy, wcy = Wz * cx - Wx * cz, wcz = Wx * cy - Wy * cx;
+    const cx = chain.com[3 * i],
+      cy = chain.com[3 * i + 1],
+      cz = chain.com[3 * i + 2];
+    const Wx = w[c1],
+      Wy = w[c1 + 1],
+      Wz = w[c1 + 2];
+    const Dx = dw[c1],
+      Dy = dw[c1 + 1],
+      Dz = dw[c1 + 2];
+    const wcx = Wy * cz - Wz * cy,
+      wcy = Wz * cx - Wx * cz,
+      wcz = Wx * cy - Wy * cx;
     force[p] = m * (Dy * cz - Dz * cy + (Wy * wcz - Wz * wcy) + dvx);
     force[p + 1] = m * (Dz * cx - Dx * cz + (Wz * wcx - Wx * wcz) + dvy);
     force[p + 2] = m * (Dx * cy - Dy * cx + (Wx * wcy - Wy * wcx) + dvz);
     // N = I·ω̇ + ω × I·ω (Euler's equation, Craig eq. 6.52).
-    const I = chain.inertia, ii = 9 * i;
+    const I = chain.inertia,
+      ii = 9 * i;
     const iwx = I[ii] * Wx + I[ii + 3] * Wy + I[ii + 6] * Wz;
     const iwy = I[ii + 1] * Wx + I[ii + 4] * Wy + I[ii + 7] * Wz;
     const iwz = I[ii + 2] * Wx + I[ii + 5] * Wy + I[ii + 8] * Wz;
@@ -193,18 +229,29 @@ export function inverseDynamics(
   for (let i = n - 1; i >= 0; i--) {
     const p = 3 * i;
     if (i < n - 1) {
-      const r = 9 * (i + 1), c = 3 * (i + 1);
-      const fx = force[c], fy = force[c + 1], fz = force[c + 2];
-      const nx = moment[c], ny = moment[c + 1], nz = moment[c + 2];
+      const r = 9 * (i + 1),
+        c = 3 * (i + 1);
+      const fx = force[c],
+        fy = force[c + 1],
+        fz = force[c + 2];
+      const nx = moment[c],
+        ny = moment[c + 1],
+        nz = moment[c + 2];
       const rfx = rot[r] * fx + rot[r + 3] * fy + rot[r + 6] * fz;
       const rfy = rot[r + 1] * fx + rot[r + 4] * fy + rot[r + 7] * fz;
       const rfz = rot[r + 2] * fx + rot[r + 5] * fy + rot[r + 8] * fz;
       const rnx = rot[r] * nx + rot[r + 3] * ny + rot[r + 6] * nz;
       const rny = rot[r + 1] * nx + rot[r + 4] * ny + rot[r + 7] * nz;
       const rnz = rot[r + 2] * nx + rot[r + 5] * ny + rot[r + 8] * nz;
-      const qx = pos[c], qy = pos[c + 1], qz = pos[c + 2];
-      const cx = chain.com[p], cy = chain.com[p + 1], cz = chain.com[p + 2];
-      const Fx = force[p], Fy = force[p + 1], Fz = force[p + 2];
+      const qx = pos[c],
+        qy = pos[c + 1],
+        qz = pos[c + 2];
+      const cx = chain.com[p],
+        cy = chain.com[p + 1],
+        cz = chain.com[p + 2];
+      const Fx = force[p],
+        Fy = force[p + 1],
+        Fz = force[p + 2];
       moment[p] += rnx + (cy * Fz - cz * Fy) + (qy * rfz - qz * rfy);
       moment[p + 1] += rny + (cz * Fx - cx * Fz) + (qz * rfx - qx * rfz);
       moment[p + 2] += rnz + (cx * Fy - cy * Fx) + (qx * rfy - qy * rfx);
@@ -212,8 +259,12 @@ export function inverseDynamics(
       force[p + 1] = Fy + rfy;
       force[p + 2] = Fz + rfz;
     } else {
-      const cx = chain.com[p], cy = chain.com[p + 1], cz = chain.com[p + 2];
-      const Fx = force[p], Fy = force[p + 1], Fz = force[p + 2];
+      const cx = chain.com[p],
+        cy = chain.com[p + 1],
+        cz = chain.com[p + 2];
+      const Fx = force[p],
+        Fy = force[p + 1],
+        Fz = force[p + 2];
       moment[p] += cy * Fz - cz * Fy;
       moment[p + 1] += cz * Fx - cx * Fz;
       moment[p + 2] += cx * Fy - cy * Fx;
@@ -246,4 +297,3 @@ export function gravityEffort(
   for (let i = 0; i < n; i++) ws.pose[i] = q[offset + i];
   return inverseDynamics(chain, ws, ws.pose, ws.zero, ws.zero, out, 0, outOffset, true, false);
 }
-

@@ -53,7 +53,12 @@ const scratchE = new Float64Array(9);
  * logarithm of Lynch & Park, Modern Robotics (2017), §3.2.3.3, including its θ = π branch.
  * Writes 3 values into `out` at `oo`.
  */
-export function rotationErrorVector(out: Float64Array, target: Float64Array, current: Float64Array, oo = 0): Float64Array {
+export function rotationErrorVector(
+  out: Float64Array,
+  target: Float64Array,
+  current: Float64Array,
+  oo = 0,
+): Float64Array {
   // E = Rt·Rcᵀ; E[r][c] = Σk Rt[r][k]·Rc[c][k] (column-major element [r + 4c]).
   const e = scratchE;
   for (let r = 0; r < 3; r++)
@@ -65,7 +70,9 @@ export function rotationErrorVector(out: Float64Array, target: Float64Array, cur
   const tr = e[0] + e[4] + e[8];
   const cosT = Math.max(-1, Math.min(1, (tr - 1) / 2)); // clamp before acos
   const theta = Math.acos(cosT);
-  const vx = e[5] - e[7], vy = e[6] - e[2], vz = e[1] - e[3]; // vee(E − Eᵀ)
+  const vx = e[5] - e[7],
+    vy = e[6] - e[2],
+    vz = e[1] - e[3]; // vee(E − Eᵀ)
   if (theta < 1e-9) {
     out[oo] = out[oo + 1] = out[oo + 2] = 0;
   } else if (Math.PI - theta > 1e-6) {
@@ -134,9 +141,11 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
   const maxIter = options.maxIterations ?? 150;
   const maxStep = options.maxStep ?? 0.4;
   const restarts = options.restarts ?? 12;
-  const lower = new Float64Array(n), upper = new Float64Array(n);
+  const lower = new Float64Array(n),
+    upper = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const lo = options.lower?.[i], hi = options.upper?.[i];
+    const lo = options.lower?.[i],
+      hi = options.upper?.[i];
     lower[i] = lo !== undefined && lo !== null && Number.isFinite(lo) ? lo : -Infinity;
     upper[i] = hi !== undefined && hi !== null && Number.isFinite(hi) ? hi : Infinity;
   }
@@ -147,8 +156,12 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
   const y = new Float64Array(m);
   const err = new Float64Array(6);
   const free = new Uint8Array(n);
-  const q = new Float64Array(n), trial = new Float64Array(n), best = new Float64Array(n);
-  let bestCost = Infinity, bestP = Infinity, bestR = Infinity;
+  const q = new Float64Array(n),
+    trial = new Float64Array(n),
+    best = new Float64Array(n);
+  let bestCost = Infinity,
+    bestP = Infinity,
+    bestR = Infinity;
   let iterations = 0;
 
   const clampInto = (v: Float64Array) => {
@@ -191,7 +204,12 @@ export function solveIk(chain: CompiledChain, goal: CartesianGoal, options: IkOp
       // limit often has its solution just inside it, past a local minimum on the limit) and the
       // whole travel (other solution branches). Derived; found by the IK round-trip property test.
       const radius = 0.3 * Math.ceil(attempt / 2);
-      q[i] = attempt === 0 ? start : attempt % 2 === 1 ? start + (2 * rand() - 1) * radius * Math.min(1, (hi - lo) / 2) : lo + rand() * (hi - lo);
+      q[i] =
+        attempt === 0
+          ? start
+          : attempt % 2 === 1
+            ? start + (2 * rand() - 1) * radius * Math.min(1, (hi - lo) / 2)
+            : lo + rand() * (hi - lo);
     }
     clampInto(q);
     let cost = evaluate(q);

@@ -44,12 +44,27 @@ export function multiply(
   ao = 0,
   bo = 0,
 ): Float64Array {
-  const a00 = a[ao], a10 = a[ao + 1], a20 = a[ao + 2], a30 = a[ao + 3];
-  const a01 = a[ao + 4], a11 = a[ao + 5], a21 = a[ao + 6], a31 = a[ao + 7];
-  const a02 = a[ao + 8], a12 = a[ao + 9], a22 = a[ao + 10], a32 = a[ao + 11];
-  const a03 = a[ao + 12], a13 = a[ao + 13], a23 = a[ao + 14], a33 = a[ao + 15];
+  const a00 = a[ao],
+    a10 = a[ao + 1],
+    a20 = a[ao + 2],
+    a30 = a[ao + 3];
+  const a01 = a[ao + 4],
+    a11 = a[ao + 5],
+    a21 = a[ao + 6],
+    a31 = a[ao + 7];
+  const a02 = a[ao + 8],
+    a12 = a[ao + 9],
+    a22 = a[ao + 10],
+    a32 = a[ao + 11];
+  const a03 = a[ao + 12],
+    a13 = a[ao + 13],
+    a23 = a[ao + 14],
+    a33 = a[ao + 15];
   for (let c = 0; c < 4; c++) {
-    const b0 = b[bo + 4 * c], b1 = b[bo + 4 * c + 1], b2 = b[bo + 4 * c + 2], b3 = b[bo + 4 * c + 3];
+    const b0 = b[bo + 4 * c],
+      b1 = b[bo + 4 * c + 1],
+      b2 = b[bo + 4 * c + 2],
+      b3 = b[bo + 4 * c + 3];
     out[o + 4 * c] = a00 * b0 + a01 * b1 + a02 * b2 + a03 * b3;
     out[o + 4 * c + 1] = a10 * b0 + a11 * b1 + a12 * b2 + a13 * b3;
     out[o + 4 * c + 2] = a20 * b0 + a21 * b1 + a22 * b2 + a23 * b3;
@@ -70,12 +85,22 @@ export function multiplyRigid(
   ao = 0,
   bo = 0,
 ): Float64Array {
-  const a00 = a[ao], a10 = a[ao + 1], a20 = a[ao + 2];
-  const a01 = a[ao + 4], a11 = a[ao + 5], a21 = a[ao + 6];
-  const a02 = a[ao + 8], a12 = a[ao + 9], a22 = a[ao + 10];
-  const a03 = a[ao + 12], a13 = a[ao + 13], a23 = a[ao + 14];
+  const a00 = a[ao],
+    a10 = a[ao + 1],
+    a20 = a[ao + 2];
+  const a01 = a[ao + 4],
+    a11 = a[ao + 5],
+    a21 = a[ao + 6];
+  const a02 = a[ao + 8],
+    a12 = a[ao + 9],
+    a22 = a[ao + 10];
+  const a03 = a[ao + 12],
+    a13 = a[ao + 13],
+    a23 = a[ao + 14];
   for (let c = 0; c < 4; c++) {
-    const b0 = b[bo + 4 * c], b1 = b[bo + 4 * c + 1], b2 = b[bo + 4 * c + 2];
+    const b0 = b[bo + 4 * c],
+      b1 = b[bo + 4 * c + 1],
+      b2 = b[bo + 4 * c + 2];
     const w = c === 3 ? 1 : 0; // b's bottom row is (0, 0, 0, 1)
     out[o + 4 * c] = a00 * b0 + a01 * b1 + a02 * b2 + a03 * w;
     out[o + 4 * c + 1] = a10 * b0 + a11 * b1 + a12 * b2 + a13 * w;
@@ -90,9 +115,12 @@ export function multiplyRigid(
  * R = Rz(yaw)·Ry(pitch)·Rx(roll) — URDF XML specification, `<origin>` element.
  */
 export function fromXyzRpy(out: Float64Array, xyz: Vec3Like, rpy: Vec3Like, o = 0): Float64Array {
-  const cr = Math.cos(rpy[0]), sr = Math.sin(rpy[0]);
-  const cp = Math.cos(rpy[1]), sp = Math.sin(rpy[1]);
-  const cy = Math.cos(rpy[2]), sy = Math.sin(rpy[2]);
+  const cr = Math.cos(rpy[0]),
+    sr = Math.sin(rpy[0]);
+  const cp = Math.cos(rpy[1]),
+    sp = Math.sin(rpy[1]);
+  const cy = Math.cos(rpy[2]),
+    sy = Math.sin(rpy[2]);
   // Expanded Rz(y)·Ry(p)·Rx(r) (derived by multiplying the three elementary rotations).
   out[o] = cy * cp;
   out[o + 1] = sy * cp;
@@ -119,8 +147,11 @@ export function fromXyzRpy(out: Float64Array, xyz: Vec3Like, rpy: Vec3Like, o = 
  * remaining rotation, so that `fromXyzRpy` rebuilds the same matrix.
  */
 export function toRpy(out: Float64Array | number[], m: ArrayLike<number>, mo = 0): Float64Array | number[] {
-  const r00 = m[mo], r10 = m[mo + 1], r20 = m[mo + 2];
-  const r21 = m[mo + 6], r22 = m[mo + 10];
+  const r00 = m[mo],
+    r10 = m[mo + 1],
+    r20 = m[mo + 2];
+  const r21 = m[mo + 6],
+    r22 = m[mo + 10];
   // pitch = asin(−r20), clamped before asin (guarded maths).
   const sp = Math.max(-1, Math.min(1, -r20));
   const pitch = Math.asin(sp);
@@ -144,8 +175,12 @@ export function toRpy(out: Float64Array | number[], m: ArrayLike<number>, mo = 0
  * The axis is assumed to be of unit length (the chain compiler normalises it).
  */
 export function fromAxisAngle(out: Float64Array, axis: Vec3Like, angleRad: number, o = 0, ax = 0): Float64Array {
-  const x = axis[ax], y = axis[ax + 1], z = axis[ax + 2];
-  const c = Math.cos(angleRad), s = Math.sin(angleRad), t = 1 - c;
+  const x = axis[ax],
+    y = axis[ax + 1],
+    z = axis[ax + 2];
+  const c = Math.cos(angleRad),
+    s = Math.sin(angleRad),
+    t = 1 - c;
   out[o] = t * x * x + c;
   out[o + 1] = t * x * y + s * z;
   out[o + 2] = t * x * z - s * y;
@@ -177,7 +212,8 @@ export function fromAxisTranslation(out: Float64Array, axis: Vec3Like, d: number
 /** Rotation about x by `angleRad` (elementary rotation, any kinematics text). */
 export function fromRotationX(out: Float64Array, angleRad: number, o = 0): Float64Array {
   identity(out, o);
-  const c = Math.cos(angleRad), s = Math.sin(angleRad);
+  const c = Math.cos(angleRad),
+    s = Math.sin(angleRad);
   out[o + 5] = c;
   out[o + 6] = s;
   out[o + 9] = -s;
@@ -188,7 +224,8 @@ export function fromRotationX(out: Float64Array, angleRad: number, o = 0): Float
 /** Rotation about z by `angleRad` (elementary rotation, any kinematics text). */
 export function fromRotationZ(out: Float64Array, angleRad: number, o = 0): Float64Array {
   identity(out, o);
-  const c = Math.cos(angleRad), s = Math.sin(angleRad);
+  const c = Math.cos(angleRad),
+    s = Math.sin(angleRad);
   out[o] = c;
   out[o + 1] = s;
   out[o + 4] = -s;
@@ -211,7 +248,9 @@ export function fromTranslation(out: Float64Array, x: number, y: number, z: numb
  */
 export function invertRigid(out: Float64Array, m: ArrayLike<number>, o = 0, mo = 0): Float64Array {
   for (let r = 0; r < 3; r++) for (let c = 0; c < 3; c++) out[o + 4 * c + r] = m[mo + 4 * r + c];
-  const px = m[mo + 12], py = m[mo + 13], pz = m[mo + 14];
+  const px = m[mo + 12],
+    py = m[mo + 13],
+    pz = m[mo + 14];
   out[o + 3] = out[o + 7] = out[o + 11] = 0;
   out[o + 12] = -(out[o] * px + out[o + 4] * py + out[o + 8] * pz);
   out[o + 13] = -(out[o + 1] * px + out[o + 5] * py + out[o + 9] * pz);
@@ -229,7 +268,9 @@ export function transformPoint(
   mo = 0,
   po = 0,
 ): Float64Array | number[] {
-  const x = p[po], y = p[po + 1], z = p[po + 2];
+  const x = p[po],
+    y = p[po + 1],
+    z = p[po + 2];
   out[oo] = m[mo] * x + m[mo + 4] * y + m[mo + 8] * z + m[mo + 12];
   out[oo + 1] = m[mo + 1] * x + m[mo + 5] * y + m[mo + 9] * z + m[mo + 13];
   out[oo + 2] = m[mo + 2] * x + m[mo + 6] * y + m[mo + 10] * z + m[mo + 14];
@@ -245,7 +286,9 @@ export function rotateVector(
   mo = 0,
   vo = 0,
 ): Float64Array | number[] {
-  const x = v[vo], y = v[vo + 1], z = v[vo + 2];
+  const x = v[vo],
+    y = v[vo + 1],
+    z = v[vo + 2];
   out[oo] = m[mo] * x + m[mo + 4] * y + m[mo + 8] * z;
   out[oo + 1] = m[mo + 1] * x + m[mo + 5] * y + m[mo + 9] * z;
   out[oo + 2] = m[mo + 2] * x + m[mo + 6] * y + m[mo + 10] * z;

@@ -29,7 +29,11 @@ export interface ReachBounds {
  * Compiles the distance bounds. `travelM[i]` is max(|min|, |max|) of chain joint i (used for
  * prismatic joints, whose travel lengthens the chain).
  */
-export function compileReachBounds(chain: CompiledChain, model: CollisionModel, travelM: ArrayLike<number>): ReachBounds {
+export function compileReachBounds(
+  chain: CompiledChain,
+  model: CollisionModel,
+  travelM: ArrayLike<number>,
+): ReachBounds {
   const n = chain.jointCount;
   // Extent of each link's collision shapes from its own frame origin.
   const extent = new Float64Array(n + 1);
@@ -37,15 +41,20 @@ export function compileReachBounds(chain: CompiledChain, model: CollisionModel, 
     const m = model.link[s];
     const p1 = Math.hypot(model.p1[3 * s], model.p1[3 * s + 1], model.p1[3 * s + 2]);
     let e: number;
-    if (model.kind[s] === 2) e = p1 + Math.hypot(model.half[3 * s], model.half[3 * s + 1], model.half[3 * s + 2]); // box: centre + half diagonal
-    else if (model.kind[s] === 1) e = Math.max(p1, Math.hypot(model.p2[3 * s], model.p2[3 * s + 1], model.p2[3 * s + 2])) + model.radius[s]; // capsule
+    if (model.kind[s] === 2)
+      e = p1 + Math.hypot(model.half[3 * s], model.half[3 * s + 1], model.half[3 * s + 2]); // box: centre + half diagonal
+    else if (model.kind[s] === 1)
+      e = Math.max(p1, Math.hypot(model.p2[3 * s], model.p2[3 * s + 1], model.p2[3 * s + 2])) + model.radius[s]; // capsule
     else e = p1 + model.radius[s]; // sphere
     if (e > extent[m]) extent[m] = e;
   }
   // Length that chain joint k adds between frame k + 1 and frame k + 2: the next joint's origin offset plus its travel.
   const step = (k: number) => {
     const o = 16 * k;
-    return Math.hypot(chain.origin[o + 12], chain.origin[o + 13], chain.origin[o + 14]) + (chain.prismatic[k] ? Math.abs(travelM[k] ?? 0) : 0);
+    return (
+      Math.hypot(chain.origin[o + 12], chain.origin[o + 13], chain.origin[o + 14]) +
+      (chain.prismatic[k] ? Math.abs(travelM[k] ?? 0) : 0)
+    );
   };
   const link = new Float64Array(n * (n + 1));
   const tool = new Float64Array(n);
@@ -66,7 +75,12 @@ export function compileReachBounds(chain: CompiledChain, model: CollisionModel, 
  * Upper bound (m/s) on the speed of any collision point of each link, given the largest |q̇ᵢ|
  * of each chain joint over a move (rad/s or m/s); writes n + 1 values (link 0, the base, is 0).
  */
-export function linkSpeedBounds(bounds: ReachBounds, chain: CompiledChain, peakQd: ArrayLike<number>, out: Float64Array): Float64Array {
+export function linkSpeedBounds(
+  bounds: ReachBounds,
+  chain: CompiledChain,
+  peakQd: ArrayLike<number>,
+  out: Float64Array,
+): Float64Array {
   const n = bounds.n;
   out[0] = 0;
   for (let m = 1; m <= n; m++) {
@@ -84,11 +98,20 @@ export function linkSpeedBounds(bounds: ReachBounds, chain: CompiledChain, peakQ
  * so |a| ≤ Σ|q̈ᵢ|Rᵢ + Ω·S + 2·S·Σ|q̇ᵢ| (prismatic joints count with Rᵢ = 1). The speed |v| changes
  * no faster than |a|.
  */
-export function toolAccelerationBound(bounds: ReachBounds, chain: CompiledChain, peakQd: ArrayLike<number>, peakQdd: ArrayLike<number>): number {
-  let accel = 0, omega = 0, s = 0, sumQd = 0;
+export function toolAccelerationBound(
+  bounds: ReachBounds,
+  chain: CompiledChain,
+  peakQd: ArrayLike<number>,
+  peakQdd: ArrayLike<number>,
+): number {
+  let accel = 0,
+    omega = 0,
+    s = 0,
+    sumQd = 0;
   for (let i = 0; i < bounds.n; i++) {
     const r = chain.prismatic[i] ? 1 : bounds.tool[i];
-    const qd = Math.abs(peakQd[i]), qdd = Math.abs(peakQdd[i]);
+    const qd = Math.abs(peakQd[i]),
+      qdd = Math.abs(peakQdd[i]);
     accel += qdd * r;
     if (!chain.prismatic[i]) omega += qd;
     s += qd * r;

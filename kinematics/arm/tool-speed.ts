@@ -19,7 +19,12 @@ export interface ToolSpeedScanner {
 
 /** Allocates a scanner for one chain. */
 export function createToolSpeedScanner(chain: CompiledChain): ToolSpeedScanner {
-  return { chain, buffers: createChainBuffers(chain), jacobian: new Float64Array(6 * chain.jointCount), coarse: new Float64Array(0) };
+  return {
+    chain,
+    buffers: createChainBuffers(chain),
+    jacobian: new Float64Array(6 * chain.jointCount),
+    coarse: new Float64Array(0),
+  };
 }
 
 /** Tool-point speed (m/s) at pose `q` with joint velocities `qd` (values from `offset`). */
@@ -27,7 +32,9 @@ export function toolSpeedAt(s: ToolSpeedScanner, q: ArrayLike<number>, qd: Array
   const n = s.chain.jointCount;
   forwardKinematics(s.chain, q, s.buffers, offset);
   const j = toolJacobian(s.chain, s.buffers, s.jacobian);
-  let vx = 0, vy = 0, vz = 0;
+  let vx = 0,
+    vy = 0,
+    vz = 0;
   for (let i = 0; i < n; i++) {
     const w = qd[offset + i];
     vx += j[i] * w; // v = J_v·q̇, rows 0–2 of the geometric Jacobian
@@ -57,7 +64,8 @@ export function scanToolSpeed(
   times: ArrayLike<number>,
   count: number,
 ): ToolSpeedPeak {
-  let peakSpeed = 0, timeS = count > 0 ? times[0] : 0;
+  let peakSpeed = 0,
+    timeS = count > 0 ? times[0] : 0;
   for (let k = 0; k < count; k++) {
     // Positions and velocities share the stride; evaluate with offset k·stride.
     const v = toolSpeedAt(s, positions, velocities, k * stride);
@@ -94,7 +102,8 @@ export function scanToolSpeedBounded(
   const coarse = s.coarse;
   const indexOf = (c: number) => Math.min(c * step, count - 1);
   // The full scan starts at 0 and keeps the first sample of a strictly larger speed: same rule here.
-  let peakSpeed = 0, peakK = 0;
+  let peakSpeed = 0,
+    peakK = 0;
   const visit = (v: number, k: number) => {
     if (v > peakSpeed || (v === peakSpeed && v > 0 && k < peakK)) {
       peakSpeed = v;
@@ -107,7 +116,8 @@ export function scanToolSpeedBounded(
     visit(coarse[c], k);
   }
   for (let c = 0; c + 1 < coarseCount; c++) {
-    const k0 = indexOf(c), k1 = indexOf(c + 1);
+    const k0 = indexOf(c),
+      k1 = indexOf(c + 1);
     if (k1 - k0 <= 1) continue;
     const bound = (coarse[c] + coarse[c + 1] + accelBound * (times[k1] - times[k0])) / 2;
     if (bound < peakSpeed) continue;

@@ -85,7 +85,8 @@ function importUrdf(xml: string): ArmDescription {
     ignoreAttributes: false,
     attributeNamePrefix: "",
     parseAttributeValue: false,
-    isArray: (name, _jpath, _leaf, isAttribute) => !isAttribute && ["link", "joint", "collision", "robot"].includes(name),
+    isArray: (name, _jpath, _leaf, isAttribute) =>
+      !isAttribute && ["link", "joint", "collision", "robot"].includes(name),
   });
   const doc = parser.parse(xml) as { robot?: XmlNode[] };
   const robot = doc.robot?.[0];
@@ -109,7 +110,11 @@ function importUrdf(xml: string): ArmDescription {
     if (jointNames.has(raw.name)) problems.push({ element: `joint "${raw.name}"`, message: "is defined twice" });
     jointNames.add(raw.name);
     for (const side of ["parent", "child"] as const) {
-      if (!links.has(raw[side])) problems.push({ element: `joint "${raw.name}" <${side}>`, message: `names link "${raw[side]}", which is not defined` });
+      if (!links.has(raw[side]))
+        problems.push({
+          element: `joint "${raw.name}" <${side}>`,
+          message: `names link "${raw[side]}", which is not defined`,
+        });
     }
     joints.push(raw);
   }
@@ -121,7 +126,11 @@ function importUrdf(xml: string): ArmDescription {
   const children = new Map<string, RawJoint[]>();
   for (const j of joints) {
     const earlier = parentOf.get(j.child);
-    if (earlier) problems.push({ element: `joint "${j.name}"`, message: `link "${j.child}" already has parent joint "${earlier.name}"` });
+    if (earlier)
+      problems.push({
+        element: `joint "${j.name}"`,
+        message: `link "${j.child}" already has parent joint "${earlier.name}"`,
+      });
     parentOf.set(j.child, j);
     children.set(j.parent, [...(children.get(j.parent) ?? []), j]);
   }
@@ -134,9 +143,15 @@ function importUrdf(xml: string): ArmDescription {
   };
   roots.forEach(walk);
   const inCycle = joints.filter((j) => !reached.has(j.child)).map((j) => `"${j.name}"`);
-  if (inCycle.length) throw new UrdfError([{ element: `joints ${inCycle.join(", ")}`, message: "form a cycle; a URDF must be a tree" }]);
+  if (inCycle.length)
+    throw new UrdfError([{ element: `joints ${inCycle.join(", ")}`, message: "form a cycle; a URDF must be a tree" }]);
   if (roots.length !== 1) {
-    throw new UrdfError([{ element: "<robot>", message: `must have one root link, has ${roots.length} (${roots.map((r) => `"${r}"`).join(", ")})` }]);
+    throw new UrdfError([
+      {
+        element: "<robot>",
+        message: `must have one root link, has ${roots.length} (${roots.map((r) => `"${r}"`).join(", ")})`,
+      },
+    ]);
   }
 
   // Main path: the branch with the most moving joints (then the deepest); other branches must be fixed.
@@ -149,7 +164,8 @@ function importUrdf(xml: string): ArmDescription {
     }
     return best;
   };
-  const movingBelow = (n: string): boolean => (children.get(n) ?? []).some((j) => MOVING.has(j.type) || movingBelow(j.child));
+  const movingBelow = (n: string): boolean =>
+    (children.get(n) ?? []).some((j) => MOVING.has(j.type) || movingBelow(j.child));
 
   const outJoints: ArmDescriptionJoint[] = [];
   const outLinks: Link[] = [];
@@ -173,7 +189,10 @@ function importUrdf(xml: string): ArmDescription {
     for (const side of kids) {
       if (side === next) continue;
       if (MOVING.has(side.type) || movingBelow(side.child)) {
-        problems.push({ element: `joint "${side.name}"`, message: `starts a second moving branch at link "${link}"; only serial chains are supported` });
+        problems.push({
+          element: `joint "${side.name}"`,
+          message: `starts a second moving branch at link "${link}"; only serial chains are supported`,
+        });
       } else {
         foldSubtree(body, side, acc, links, children);
       }
@@ -202,8 +221,15 @@ function importUrdf(xml: string): ArmDescription {
     foldLink(body, links.get(link)!, acc);
   }
   outLinks.push(finishBody(body));
-  if (outJoints.length === 0) throw new UrdfError([{ element: "<robot>", message: "has no revolute, continuous or prismatic joint" }]);
-  return { name: attr(robot, "name") ?? "imported arm", joints: outJoints, links: outLinks, tool: originOf(acc), gravity: [0, 0, -9.81] };
+  if (outJoints.length === 0)
+    throw new UrdfError([{ element: "<robot>", message: "has no revolute, continuous or prismatic joint" }]);
+  return {
+    name: attr(robot, "name") ?? "imported arm",
+    joints: outJoints,
+    links: outLinks,
+    tool: originOf(acc),
+    gravity: [0, 0, -9.81],
+  };
 }
 
 interface Body {
@@ -238,7 +264,13 @@ function foldLink(body: Body, link: RawLink, t: Float64Array) {
   for (const c of link.collision) body.collision.push(placeShape(mat4.multiply(mat4.create(), t, c.origin), c.shape));
 }
 
-function foldSubtree(body: Body, j: RawJoint, t: Float64Array, links: Map<string, RawLink>, children: Map<string, RawJoint[]>) {
+function foldSubtree(
+  body: Body,
+  j: RawJoint,
+  t: Float64Array,
+  links: Map<string, RawLink>,
+  children: Map<string, RawJoint[]>,
+) {
   const at = mat4.multiply(mat4.create(), t, j.origin);
   foldLink(body, links.get(j.child)!, at);
   for (const k of children.get(j.child) ?? []) foldSubtree(body, k, at, links, children);
@@ -270,7 +302,9 @@ function originOf(m: Float64Array) {
 
 function asList(v: unknown): XmlNode[] {
   if (v === undefined || v === null || v === "") return [];
-  return (Array.isArray(v) ? v : [v]).map((x) => (typeof x === "object" && x !== null ? (x as XmlNode) : ({} as XmlNode)));
+  return (Array.isArray(v) ? v : [v]).map((x) =>
+    typeof x === "object" && x !== null ? (x as XmlNode) : ({} as XmlNode),
+  );
 }
 
 function first(v: unknown): XmlNode | undefined {
@@ -278,7 +312,13 @@ function first(v: unknown): XmlNode | undefined {
   return l[0];
 }
 
-function numbers(text: string | undefined, count: number, element: string, problems: UrdfProblem[], fallback: number[]): number[] {
+function numbers(
+  text: string | undefined,
+  count: number,
+  element: string,
+  problems: UrdfProblem[],
+  fallback: number[],
+): number[] {
   if (text === undefined) return fallback;
   const parts = text.trim().split(/\s+/);
   const vals = parts.map(Number);
@@ -303,7 +343,8 @@ function readLink(l: XmlNode, name: string, problems: UrdfProblem[]): RawLink {
     const origin = readOrigin(first(inr.origin), `${el} <inertial>`, problems);
     const massNode = first(inr.mass);
     const mass = numbers(massNode?.value as string | undefined, 1, `${el} <inertial><mass value>`, problems, [NaN])[0];
-    if (massNode === undefined || massNode.value === undefined) problems.push({ element: `${el} <inertial><mass>`, message: "is required" });
+    if (massNode === undefined || massNode.value === undefined)
+      problems.push({ element: `${el} <inertial><mass>`, message: "is required" });
     else if (mass < 0) problems.push({ element: `${el} <inertial><mass value>`, message: "must be at least 0" });
     const it = first(inr.inertia);
     const keys = ["ixx", "ixy", "ixz", "iyy", "iyz", "izz"] as const;
@@ -319,7 +360,14 @@ function readLink(l: XmlNode, name: string, problems: UrdfProblem[]): RawLink {
       inertial = transformInertial(origin, {
         mass,
         com: [0, 0, 0],
-        inertia: inertiaToMatrix({ ixx: vals.ixx, ixy: vals.ixy, ixz: vals.ixz, iyy: vals.iyy, iyz: vals.iyz, izz: vals.izz }),
+        inertia: inertiaToMatrix({
+          ixx: vals.ixx,
+          ixy: vals.ixy,
+          ixz: vals.ixz,
+          iyy: vals.iyy,
+          iyz: vals.iyz,
+          izz: vals.izz,
+        }),
       });
     }
   }
@@ -340,10 +388,14 @@ function readLink(l: XmlNode, name: string, problems: UrdfProblem[]): RawLink {
       const size = numbers(first(g.box)?.size as string | undefined, 3, `${cel} <box size>`, problems, [NaN, NaN, NaN]);
       if (first(g.box)?.size === undefined) problems.push({ element: `${cel} <box size>`, message: "is required" });
       else if (size.every((v) => positive(v, "<box size>") > 0))
-        collision.push({ origin, shape: { kind: "box", center: [0, 0, 0], size: [size[0], size[1], size[2]], rpy: [0, 0, 0] } });
+        collision.push({
+          origin,
+          shape: { kind: "box", center: [0, 0, 0], size: [size[0], size[1], size[2]], rpy: [0, 0, 0] },
+        });
     } else if (g.sphere !== undefined) {
       const r = numbers(first(g.sphere)?.radius as string | undefined, 1, `${cel} <sphere radius>`, problems, [NaN])[0];
-      if (positive(r, "<sphere radius>") > 0) collision.push({ origin, shape: { kind: "sphere", center: [0, 0, 0], radius: r } });
+      if (positive(r, "<sphere radius>") > 0)
+        collision.push({ origin, shape: { kind: "sphere", center: [0, 0, 0], radius: r } });
     } else if (g.cylinder !== undefined) {
       const cyl = first(g.cylinder);
       const r = numbers(cyl?.radius as string | undefined, 1, `${cel} <cylinder radius>`, problems, [NaN])[0];
@@ -381,15 +433,18 @@ function readJoint(j: XmlNode, problems: UrdfProblem[]): RawJoint | null {
   }
   const parent = first(j.parent)?.link as string | undefined;
   const child = first(j.child)?.link as string | undefined;
-  if (!parent) problems.push({ element: `${el} <parent>`, message: "is missing (needs link=\"…\")" });
-  if (!child) problems.push({ element: `${el} <child>`, message: "is missing (needs link=\"…\")" });
+  if (!parent) problems.push({ element: `${el} <parent>`, message: 'is missing (needs link="…")' });
+  if (!child) problems.push({ element: `${el} <child>`, message: 'is missing (needs link="…")' });
   const origin = readOrigin(first(j.origin), el, problems);
   const a = numbers(first(j.axis)?.xyz as string | undefined, 3, `${el} <axis xyz>`, problems, [1, 0, 0]);
   const len = Math.hypot(a[0], a[1], a[2]);
   if (len < 1e-12) problems.push({ element: `${el} <axis xyz>`, message: "must not be the zero vector" });
   const axis: [number, number, number] = len > 0 ? [a[0] / len, a[1] / len, a[2] / len] : [1, 0, 0];
   const lim = first(j.limit);
-  let min: number | null = null, max: number | null = null, maxVelocity: number | null = null, maxEffort: number | null = null;
+  let min: number | null = null,
+    max: number | null = null,
+    maxVelocity: number | null = null,
+    maxEffort: number | null = null;
   if (type === "revolute" || type === "prismatic") {
     if (!lim) problems.push({ element: `${el} <limit>`, message: `is required on a ${type} joint` });
     else {
@@ -404,8 +459,10 @@ function readJoint(j: XmlNode, problems: UrdfProblem[]): RawJoint | null {
     }
     maxVelocity = numbers(lim.velocity as string | undefined, 1, `${el} <limit velocity>`, problems, [NaN])[0];
     maxEffort = numbers(lim.effort as string | undefined, 1, `${el} <limit effort>`, problems, [NaN])[0];
-    if (lim.velocity !== undefined && Number.isFinite(maxVelocity) && !(maxVelocity > 0)) problems.push({ element: `${el} <limit velocity>`, message: "must be greater than 0" });
-    if (lim.effort !== undefined && Number.isFinite(maxEffort) && !(maxEffort >= 0)) problems.push({ element: `${el} <limit effort>`, message: "must be at least 0" });
+    if (lim.velocity !== undefined && Number.isFinite(maxVelocity) && !(maxVelocity > 0))
+      problems.push({ element: `${el} <limit velocity>`, message: "must be greater than 0" });
+    if (lim.effort !== undefined && Number.isFinite(maxEffort) && !(maxEffort >= 0))
+      problems.push({ element: `${el} <limit effort>`, message: "must be at least 0" });
     if (!Number.isFinite(maxVelocity)) maxVelocity = null;
     if (!Number.isFinite(maxEffort)) maxEffort = null;
   }

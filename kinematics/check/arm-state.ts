@@ -80,14 +80,21 @@ export function stateOf(plan: Plan): ArmState | null {
     states.set(plan, same);
     return same;
   }
-  const chain = compileChain(arm.chain, arm.joints.map((j) => j.type), plan.payload);
+  const chain = compileChain(
+    arm.chain,
+    arm.joints.map((j) => j.type),
+    plan.payload,
+  );
   const n = chain.jointCount;
   const collision = compileCollision(arm.chain);
   const travelM = arm.joints.slice(0, n).map((j) => Math.max(Math.abs(j.min), Math.abs(j.max)));
   const state: ArmState = {
     chain,
     n,
-    dynamics: createDynamicsWorkspace(chain, arm.joints.slice(0, n).map((j) => j.friction)),
+    dynamics: createDynamicsWorkspace(
+      chain,
+      arm.joints.slice(0, n).map((j) => j.friction),
+    ),
     clearance: createClearanceScanner(chain, collision, clearanceZones(plan.surfaceMargin ?? 0, plan.keepOut ?? [])),
     toolSpeed: createToolSpeedScanner(chain),
     reach: compileReachBounds(chain, collision, travelM),
@@ -133,7 +140,8 @@ export function sampleMove(s: ArmState, context: MoveContext, durationS: number,
     const t = Math.min(k / rateHz, durationS);
     s.time[k] = t;
     scalingAt(shape, blend, t / durationS, s.scale);
-    const v = s.scale[1] / durationS, a = s.scale[2] / (durationS * durationS);
+    const v = s.scale[1] / durationS,
+      a = s.scale[2] / (durationS * durationS);
     for (let j = 0; j < n; j++) {
       s.q[k * n + j] = from[j] + s.scale[0] * delta[j];
       s.qd[k * n + j] = delta[j] * v;

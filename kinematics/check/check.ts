@@ -49,7 +49,12 @@ function checkerId(checker: object): number {
 }
 
 /** The part of a move's cache key shared by every move of the plan. */
-function moveContextKey(plan: Plan, moveCheckers: readonly MoveChecker[], sampling: string, sampleRateHz: number | undefined): string {
+function moveContextKey(
+  plan: Plan,
+  moveCheckers: readonly MoveChecker[],
+  sampling: string,
+  sampleRateHz: number | undefined,
+): string {
   // by content, not identity: a plan edited in place must not find its old results
   const planFields = JSON.stringify([plan.arm, plan.payload, plan.keepOut, plan.surfaceMargin, plan.maxToolSpeed]);
   return `${planFields}|${moveCheckers.map(checkerId).join(",")}|${sampling}|${sampleRateHz ?? ""}`;
@@ -122,7 +127,11 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       const moveFindings: Finding[] = [];
       for (const checker of moveCheckers) checker(context, moveFindings);
       // kept with times from the move's start, so a move that only starts later is reused
-      result = { findings: moveFindings.map((f) => ({ ...f, timeS: (f.timeS ?? context.startS) - context.startS })), minSafe: context.minSafe, figures: context.figures ?? {} };
+      result = {
+        findings: moveFindings.map((f) => ({ ...f, timeS: (f.timeS ?? context.startS) - context.startS })),
+        minSafe: context.minSafe,
+        figures: context.figures ?? {},
+      };
     }
     moveCache.set(key, result);
     if (moveCache.size > maxCachedMoves) moveCache.delete(moveCache.keys().next().value as string);

@@ -20,5 +20,9 @@ export const armPlanCheckers: readonly PlanChecker[] = [checkStartEffort];
 export const defaultPlanCheckers: readonly PlanChecker[] = [checkStartRange, ...armPlanCheckers];
 
 /** The move checkers {@link check} runs by default, in report order. */
-export const defaultMoveCheckers: readonly MoveChecker[] = [checkGoalRange, checkSpeed, checkAcceleration, ...armMoveCheckers];
-
+export const defaultMoveCheckers: readonly MoveChecker[] = [
+  checkGoalRange,
+  checkSpeed,
+  checkAcceleration,
+  ...armMoveCheckers,
+];

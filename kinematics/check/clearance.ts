@@ -26,11 +26,15 @@ export type ClearanceFinding = Finding & { link: string; zone: string; time: num
 export const checkClearance: MoveChecker = (context, out) => {
   const s = stateOf(context.plan);
   if (!s) return;
-  const count = context.instant ? sampleGoal(s, context) : sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
+  const count = context.instant
+    ? sampleGoal(s, context)
+    : sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
   // Links move at most linkSpeed m/s (from the move's peak joint speeds), so samples between two
   // provably clear ones are skipped; the result equals the full scan (see scanClearanceBounded).
   // An instant move has one sample and no peak speeds to bound with.
-  const speeds = context.instant ? s.linkSpeed.fill(Infinity) : linkSpeedBounds(s.reach, s.chain, context.peakVelocity, s.linkSpeed);
+  const speeds = context.instant
+    ? s.linkSpeed.fill(Infinity)
+    : linkSpeedBounds(s.reach, s.chain, context.peakVelocity, s.linkSpeed);
   const hits = scanClearanceBounded(s.clearance, s.q, s.n, s.time, count, speeds);
   const margin = context.plan.surfaceMargin ?? 0;
   for (const h of hits) {
@@ -40,7 +44,10 @@ export const checkClearance: MoveChecker = (context, out) => {
           ? `${formatNumber(h.depthM * 1000)} mm into the ${formatNumber(margin * 1000)} mm margin above the work surface`
           : `${formatNumber(h.depthM * 1000)} mm into the work surface`
         : `${formatNumber(h.depthM * 1000)} mm into ${h.zoneName}`;
-    const span = h.firstTimeS === h.lastTimeS ? `at ${formatNumber(h.timeS)} s` : `from ${formatNumber(h.firstTimeS)} s to ${formatNumber(h.lastTimeS)} s, deepest at ${formatNumber(h.timeS)} s`;
+    const span =
+      h.firstTimeS === h.lastTimeS
+        ? `at ${formatNumber(h.timeS)} s`
+        : `from ${formatNumber(h.firstTimeS)} s to ${formatNumber(h.lastTimeS)} s, deepest at ${formatNumber(h.timeS)} s`;
     const finding: ClearanceFinding = {
       kind: "clearance",
       severity: "fault",
@@ -59,4 +66,3 @@ export const checkClearance: MoveChecker = (context, out) => {
     out.push(finding);
   }
 };
-

@@ -56,8 +56,10 @@ export function movePathPeaks(s: ArmState, context: MoveContext): { path: MovePa
 /** What to do about an effort finding that a longer duration fixes, or why none does. */
 function effortFix(context: MoveContext, severity: "caution" | "fault"): string {
   const target = severity === "fault" ? context.minSafe : context.minCalm;
-  const within = severity === "fault" ? "within every limit" : `below ${formatPercent(context.arm.cautionRatio)} of every limit`;
-  if (target.durationS !== null) return `Lengthen the move to at least ${formatDurationUp(target.durationS)} to stay ${within} (the shortest safe duration for its ${context.move.shape} shape).`;
+  const within =
+    severity === "fault" ? "within every limit" : `below ${formatPercent(context.arm.cautionRatio)} of every limit`;
+  if (target.durationS !== null)
+    return `Lengthen the move to at least ${formatDurationUp(target.durationS)} to stay ${within} (the shortest safe duration for its ${context.move.shape} shape).`;
   return noTimingFix(context.arm, target);
 }
 
@@ -72,13 +74,20 @@ export const checkEffort: MoveChecker = (context, out) => {
   if (!s) return;
   const { arm } = context;
   const n = s.n;
-  const peak = new Float64Array(n), at = new Float64Array(n);
+  const peak = new Float64Array(n),
+    at = new Float64Array(n);
   let path: MovePath | null = null;
   if (context.instant) {
     effortPeaks(s, sampleGoal(s, context), peak, at);
   } else if (context.sampling === "control-rate") {
     effortPeaks(s, sampleMove(s, context, context.move.duration, sampleRateOf(s, context)), peak, at);
-    path = movePath(s, context.from, context.delta, context.timeline.shape[context.index], context.timeline.blend[context.index]);
+    path = movePath(
+      s,
+      context.from,
+      context.delta,
+      context.timeline.shape[context.index],
+      context.timeline.blend[context.index],
+    );
   } else {
     const result = movePathPeaks(s, context);
     path = result.path;
@@ -112,7 +121,8 @@ export const checkEffort: MoveChecker = (context, out) => {
     } else {
       fix = effortFix(context, severity);
     }
-    const outcome = severity === "fault" ? "; the motor cannot deliver it and the controller will stop the arm. " : ". ";
+    const outcome =
+      severity === "fault" ? "; the motor cannot deliver it and the controller will stop the arm. " : ". ";
     out.push({
       kind: "effort-over",
       severity,
@@ -156,4 +166,3 @@ export const checkStartEffort: PlanChecker = ({ plan, arm }, out) => {
     });
   }
 };
-

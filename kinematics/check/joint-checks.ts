@@ -12,7 +12,14 @@ import type { MoveChecker, MoveContext, PlanChecker } from "./types";
 import { formatDurationUp, formatPercent, formatQuantity, jointLabel, limitLevel, moveLabel } from "./wording";
 
 /** A finding for a pose value outside the joint's travel, or nothing. */
-function rangeFinding(value: number, joint: Joint, j: number, move: number | null, where: string, timeS: number): Finding | null {
+function rangeFinding(
+  value: number,
+  joint: Joint,
+  j: number,
+  move: number | null,
+  where: string,
+  timeS: number,
+): Finding | null {
   if (value >= joint.min && value <= joint.max) return null;
   const limit = value > joint.max ? joint.max : joint.min;
   const side = value > joint.max ? "max" : "min";
@@ -43,7 +50,14 @@ export const checkStartRange: PlanChecker = ({ arm, plan }, out) => {
 /** Move checker: every goal value within its joint's travel (`range`). */
 export const checkGoalRange: MoveChecker = ({ arm, index, move, goal, startS }, out) => {
   arm.joints.forEach((joint, j) => {
-    const finding = rangeFinding(goal[j], joint, j, index, `The goal of ${moveLabel(index, move.duration === 0).toLowerCase()}`, startS + move.duration);
+    const finding = rangeFinding(
+      goal[j],
+      joint,
+      j,
+      index,
+      `The goal of ${moveLabel(index, move.duration === 0).toLowerCase()}`,
+      startS + move.duration,
+    );
     if (finding) out.push(finding);
   });
 };
@@ -51,7 +65,9 @@ export const checkGoalRange: MoveChecker = ({ arm, index, move, goal, startS }, 
 /** "at least 1.2 s", or "at least 1.2 s … " when a caution-free duration exists, for the fix sentences. */
 function calmClause(context: MoveContext): string {
   const { minCalm, arm } = context;
-  return minCalm.durationS !== null ? `${formatDurationUp(minCalm.durationS)} keeps it below ${formatPercent(arm.cautionRatio)} of every limit` : "";
+  return minCalm.durationS !== null
+    ? `${formatDurationUp(minCalm.durationS)} keeps it below ${formatPercent(arm.cautionRatio)} of every limit`
+    : "";
 }
 
 /**
@@ -75,7 +91,9 @@ function durationFix(severity: Severity, context: MoveContext): string {
 export const checkSpeed: MoveChecker = (context, out) => {
   const { arm, index, move, instant, peakVelocity, delta, minSafe, minCalm, startS } = context;
   // the peak's time: the instant move's start, else the shape's first velocity peak
-  const timeS = instant ? startS : startS + velocityPeakTau(context.timeline.shape[index], context.timeline.blend[index]) * move.duration;
+  const timeS = instant
+    ? startS
+    : startS + velocityPeakTau(context.timeline.shape[index], context.timeline.blend[index]) * move.duration;
   arm.joints.forEach((joint, j) => {
     const value = peakVelocity[j];
     const severity = severityOf(value, joint.maxVelocity, arm.cautionRatio);
@@ -88,7 +106,9 @@ export const checkSpeed: MoveChecker = (context, out) => {
       const periodMs = 1000 / arm.controlRateHz;
       const stepLimit = joint.maxVelocity / arm.controlRateHz;
       const outcome =
-        severity === "fault" ? "the controller will stop with a jump-too-far fault" : "the controller will accept it, close to its jump limit";
+        severity === "fault"
+          ? "the controller will stop with a jump-too-far fault"
+          : "the controller will accept it, close to its jump limit";
       message =
         `${label}: a step of ${formatQuantity(Math.abs(delta[j]), joint, "step")} in one ${formatNumberMs(periodMs)} control period needs ` +
         `${formatQuantity(value, joint, "velocity")}, ${level}, which allows at most ${formatQuantity(stepLimit, joint, "step")} per period; ` +
@@ -97,7 +117,9 @@ export const checkSpeed: MoveChecker = (context, out) => {
           ? minSafe.durationS === null
             ? `Make the step smaller. ${noTimingFix(arm, minSafe)}`
             : `Give the move a duration of at least ${formatDurationUp(minSafe.durationS)} with its ${move.shape} shape, or make the step smaller` +
-              (minCalm.durationS !== null ? `; ${formatDurationUp(minCalm.durationS)} stays below ${formatPercent(arm.cautionRatio)} of every limit.` : ".")
+              (minCalm.durationS !== null
+                ? `; ${formatDurationUp(minCalm.durationS)} stays below ${formatPercent(arm.cautionRatio)} of every limit.`
+                : ".")
           : minCalm.durationS !== null
             ? `A duration of ${formatDurationUp(minCalm.durationS)} with its ${move.shape} shape keeps it below ${formatPercent(arm.cautionRatio)} of every limit.`
             : `Make the step smaller for more margin.`);
@@ -105,7 +127,16 @@ export const checkSpeed: MoveChecker = (context, out) => {
       const outcome = severity === "fault" ? "; the controller will refuse the move. " : ". ";
       message = `${label}: peak speed ${formatQuantity(value, joint, "velocity")} is ${level}${outcome}${durationFix(severity, context)}`;
     }
-    out.push({ kind: instant ? "jump" : "speed-over", severity, move: index, joint: j, value, limit: joint.maxVelocity, message, timeS });
+    out.push({
+      kind: instant ? "jump" : "speed-over",
+      severity,
+      move: index,
+      joint: j,
+      value,
+      limit: joint.maxVelocity,
+      message,
+      timeS,
+    });
   });
 };
 
@@ -130,7 +161,15 @@ export const checkAcceleration: MoveChecker = (context, out) => {
     const message =
       `${moveLabel(index, move.duration === 0)}, ${jointLabel(joint)}: peak acceleration ${formatQuantity(value, joint, "acceleration")} ` +
       `is ${level}${outcome}${durationFix(severity, context)}`;
-    out.push({ kind: "accel-over", severity, move: index, joint: j, value, limit: joint.maxAcceleration, message, timeS });
+    out.push({
+      kind: "accel-over",
+      severity,
+      move: index,
+      joint: j,
+      value,
+      limit: joint.maxAcceleration,
+      message,
+      timeS,
+    });
   });
 };
-

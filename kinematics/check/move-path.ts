@@ -63,7 +63,10 @@ const maxCachedPaths = 512;
 function evaluatePoint(s: ArmState, path: MovePath, tau: number, out: Float64Array, offset: number): void {
   const { n } = path;
   scalingAt(path.shape, path.blend, tau, s.scale);
-  const q = s.searchQ, qd = s.searchQd, qdd = s.searchQdd, tmp = s.tau;
+  const q = s.searchQ,
+    qd = s.searchQd,
+    qdd = s.searchQdd,
+    tmp = s.tau;
   for (let i = 0; i < n; i++) {
     q[i] = path.from[i] + s.scale[0] * path.delta[i];
     qd[i] = path.delta[i] * s.scale[1]; // q̇ at T = 1
@@ -92,7 +95,13 @@ function gridOf(blend: number): Float64Array {
  * The path terms of a move (chain joints of `from` and `delta`), computed once and cached in the
  * arm state by start, displacement, shape and blend.
  */
-export function movePath(s: ArmState, from: ArrayLike<number>, delta: ArrayLike<number>, shape: number, blend: number): MovePath {
+export function movePath(
+  s: ArmState,
+  from: ArrayLike<number>,
+  delta: ArrayLike<number>,
+  shape: number,
+  blend: number,
+): MovePath {
   const n = s.n;
   let key = `${shape}|${blend}`;
   for (let i = 0; i < n; i++) key += `|${from[i]}|${delta[i]}`;
@@ -141,7 +150,12 @@ function effortOf(s: ArmState, path: MovePath, terms: Float64Array, offset: numb
   const x = 1 / T;
   const qd = path.delta[j] * terms[offset + 2 * n] * x;
   const d = s.dynamics;
-  return Math.abs(terms[offset + j] * x * x + d.viscous[j] * qd + terms[offset + n + j] + d.coulomb[j] * Math.tanh(qd / d.signEpsilon));
+  return Math.abs(
+    terms[offset + j] * x * x +
+      d.viscous[j] * qd +
+      terms[offset + n + j] +
+      d.coulomb[j] * Math.tanh(qd / d.signEpsilon),
+  );
 }
 
 /** Channel c of a path point at duration T: c < n the effort of joint c, c = n the tool speed (m/s). */
@@ -181,7 +195,14 @@ const samplesPerLeaf = 4;
  * are evaluated. Deterministic for a given path, duration and rate (the memo only saves work).
  * `visited`, when given, receives the τ of every evaluated sample.
  */
-export function pathPeaks(s: ArmState, path: MovePath, durationS: number, rateHz: number, out: PathPeaks, visited?: number[]): PathPeaks {
+export function pathPeaks(
+  s: ArmState,
+  path: MovePath,
+  durationS: number,
+  rateHz: number,
+  out: PathPeaks,
+  visited?: number[],
+): PathPeaks {
   const n = path.n;
   const stride = 2 * n + 2;
   const { tau, grid } = path;
@@ -217,14 +238,16 @@ export function pathPeaks(s: ArmState, path: MovePath, durationS: number, rateHz
     // Curvature estimate at each grid point from divided differences (0 at the ends).
     const curvature = (k: number) => {
       if (k <= 0 || k >= count - 1) return 0;
-      const h0 = tau[k] - tau[k - 1], h1 = tau[k + 1] - tau[k];
+      const h0 = tau[k] - tau[k - 1],
+        h1 = tau[k + 1] - tau[k];
       return Math.abs((2 * ((values[k + 1] - values[k]) / h1 - (values[k] - values[k - 1]) / h0)) / (h0 + h1));
     };
     const visit = (a: number, va: number, b: number, vb: number, K: number, depth: number) => {
       const h = b - a;
       const bound = Math.max(va, vb) + (curvatureSafety * K * h * h) / 8;
       if (bound <= best.peak * (1 + 1e-12) + 1e-300) return;
-      const k0 = Math.ceil(a * perTau - 1e-9), k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
+      const k0 = Math.ceil(a * perTau - 1e-9),
+        k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
       if (k1 < k0) return;
       if (k1 - k0 < samplesPerLeaf) {
         for (let k = k0; k <= k1; k++) evaluate(k);
@@ -262,8 +285,10 @@ export function pathPeaks(s: ArmState, path: MovePath, durationS: number, rateHz
 
 /** The largest |gⱼ| (gravity alone, N·m or N) over the grid points of the path, and where (τ). */
 export function pathGravityPeak(path: MovePath, j: number): { value: number; tau: number } {
-  const n = path.n, stride = 2 * n + 2;
-  let value = 0, tau = 0;
+  const n = path.n,
+    stride = 2 * n + 2;
+  let value = 0,
+    tau = 0;
   for (let k = 0; k < path.tau.length; k++) {
     const g = Math.abs(path.grid[k * stride + n + j]);
     if (g > value) {
@@ -275,7 +300,12 @@ export function pathGravityPeak(path: MovePath, j: number): { value: number; tau
 }
 
 /** Calls `visit(terms, offset)` for every grid point and every refinement point τ in `extra`. */
-function forEachPoint(s: ArmState, path: MovePath, extra: readonly number[], visit: (terms: Float64Array, offset: number) => void): void {
+function forEachPoint(
+  s: ArmState,
+  path: MovePath,
+  extra: readonly number[],
+  visit: (terms: Float64Array, offset: number) => void,
+): void {
   const stride = 2 * path.n + 2;
   for (let k = 0; k < path.tau.length; k++) visit(path.grid, k * stride);
   for (const t of extra) visit(termsAt(s, path, t), 0);
@@ -287,9 +317,18 @@ function forEachPoint(s: ArmState, path: MovePath, extra: readonly number[], vis
  * M·x² + F_v·D·s′·x + g + F_c·sgn = ±limit (the smoothed Coulomb sign taken at `atDurationS`).
  * Infinity when gravity alone exceeds the limit at one of those points.
  */
-export function shortestEffortDuration(s: ArmState, path: MovePath, j: number, limit: number, atDurationS: number, extra: readonly number[] = []): number {
+export function shortestEffortDuration(
+  s: ArmState,
+  path: MovePath,
+  j: number,
+  limit: number,
+  atDurationS: number,
+  extra: readonly number[] = [],
+): number {
   const n = path.n;
-  const fv = s.dynamics.viscous[j], fc = s.dynamics.coulomb[j], eps = s.dynamics.signEpsilon;
+  const fv = s.dynamics.viscous[j],
+    fc = s.dynamics.coulomb[j],
+    eps = s.dynamics.signEpsilon;
   const D = path.delta[j];
   let xBest = Infinity;
   forEachPoint(s, path, extra, (terms, o) => {
@@ -314,7 +353,12 @@ export function shortestEffortDuration(s: ArmState, path: MovePath, j: number, l
 }
 
 /** The least duration (s) at which the tool speed at the grid and `extra` points is within `limit` (tool speed ∝ 1/T). */
-export function shortestToolDuration(s: ArmState, path: MovePath, limit: number, extra: readonly number[] = []): number {
+export function shortestToolDuration(
+  s: ArmState,
+  path: MovePath,
+  limit: number,
+  extra: readonly number[] = [],
+): number {
   const n = path.n;
   let u = 0;
   forEachPoint(s, path, extra, (terms, o) => {
@@ -334,7 +378,8 @@ function firstRoot(a: number, b: number, c: number): number {
   const r = Math.sqrt(disc);
   // numerically stable pair of roots (Press et al., Numerical Recipes, §5.6)
   const qv = -0.5 * (b + (b >= 0 ? r : -r));
-  const x1 = qv / a, x2 = qv !== 0 ? c / qv : Infinity;
+  const x1 = qv / a,
+    x2 = qv !== 0 ? c / qv : Infinity;
   let best = Infinity;
   if (x1 > 0 && x1 < best) best = x1;
   if (x2 > 0 && x2 < best) best = x2;

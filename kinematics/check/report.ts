@@ -13,15 +13,7 @@ import type { ShapeName } from "../plan/document";
  * the timed-replay audit of recordings (kinematics/recordings/timed-replay.ts).
  */
 export type FindingKind =
-  | "range"
-  | "speed-over"
-  | "accel-over"
-  | "jump"
-  | "effort-over"
-  | "clearance"
-  | "tool-speed"
-  | "glitch"
-  | "gap";
+  "range" | "speed-over" | "accel-over" | "jump" | "effort-over" | "clearance" | "tool-speed" | "glitch" | "gap";
 
 /** All finding kinds, in the order reports and tables list them. */
 export const findingKinds: readonly FindingKind[] = [

@@ -15,7 +15,14 @@ import { limitTolerance } from "./report";
 import { moveBlend } from "../motion/shapes";
 import { safeDuration, timedPeaks, withinLimits } from "../motion/peaks";
 import type { ArmState } from "./arm-state";
-import { createPathPeaks, movePath, pathGravityPeak, pathPeaks, shortestEffortDuration, shortestToolDuration } from "./move-path";
+import {
+  createPathPeaks,
+  movePath,
+  pathGravityPeak,
+  pathPeaks,
+  shortestEffortDuration,
+  shortestToolDuration,
+} from "./move-path";
 
 /** Which timing-dependent check sets a move's shortest safe duration. */
 export type TimingCheck = "speed" | "acceleration" | "effort" | "tool-speed";
@@ -57,9 +64,11 @@ export function moveSafeDuration(
   const jointOnly = safeDuration(shape, delta, joints, limitScale);
   const limiting = (T: number): TimingCheck | null => {
     if (jointOnly.joint < 0 || !(T > 0)) return null;
-    const v = new Float64Array(joints.length), a = new Float64Array(joints.length);
+    const v = new Float64Array(joints.length),
+      a = new Float64Array(joints.length);
     timedPeaks(shape, moveBlend(shape, delta, T, joints), delta, T, v, a);
-    const j = jointOnly.joint, maxA = joints[j].maxAcceleration;
+    const j = jointOnly.joint,
+      maxA = joints[j].maxAcceleration;
     return maxA !== undefined && a[j] / maxA > v[j] / joints[j].maxVelocity ? "acceleration" : "speed";
   };
   if (!state) return { durationS: jointOnly.durationS, joint: jointOnly.joint, check: limiting(jointOnly.durationS) };
@@ -78,7 +87,8 @@ export function moveSafeDuration(
     const limit = effortLimit(j);
     if (limit === undefined) continue;
     const g = pathGravityPeak(first, j);
-    if (g.value > limit * (1 + limitTolerance)) return { durationS: null, joint: j, check: "effort", gravityEffort: g.value };
+    if (g.value > limit * (1 + limitTolerance))
+      return { durationS: null, joint: j, check: "effort", gravityEffort: g.value };
   }
   let moving = false;
   for (let j = 0; j < joints.length; j++) if (delta[j] !== 0) moving = true;
@@ -87,17 +97,20 @@ export function moveSafeDuration(
   const peaks = createPathPeaks(n);
   // the refinement points of the last confirmation: the next closed form includes them
   const visited: number[] = [];
-  const v = new Float64Array(joints.length), a = new Float64Array(joints.length);
+  const v = new Float64Array(joints.length),
+    a = new Float64Array(joints.length);
   /** What faults at T: null when nothing does. */
   const failing = (T: number): { check: TimingCheck; joint: number } | null => {
-    if (!withinLimits(shape, delta, T, joints, limitScale, v, a)) return { check: limiting(T) ?? "speed", joint: jointOnly.joint };
+    if (!withinLimits(shape, delta, T, joints, limitScale, v, a))
+      return { check: limiting(T) ?? "speed", joint: jointOnly.joint };
     visited.length = 0;
     pathPeaks(state, pathAt(T), T, rateHz, peaks, visited);
     for (let j = 0; j < n; j++) {
       const limit = effortLimit(j);
       if (limit !== undefined && peaks.effort[j] > limit * (1 + limitTolerance)) return { check: "effort", joint: j };
     }
-    if (toolLimit !== undefined && peaks.toolSpeed > toolLimit * (1 + limitTolerance)) return { check: "tool-speed", joint: -1 };
+    if (toolLimit !== undefined && peaks.toolSpeed > toolLimit * (1 + limitTolerance))
+      return { check: "tool-speed", joint: -1 };
     return null;
   };
 
@@ -135,7 +148,8 @@ export function moveSafeDuration(
       const limit = effortLimit(j);
       if (limit === undefined) continue;
       const te = shortestEffortDuration(state, path, j, limit, T, visited);
-      if (!Number.isFinite(te)) return { durationS: null, joint: j, check: "effort", gravityEffort: pathGravityPeak(path, j).value };
+      if (!Number.isFinite(te))
+        return { durationS: null, joint: j, check: "effort", gravityEffort: pathGravityPeak(path, j).value };
       if (te > candidate) {
         candidate = te;
         setBy = { check: "effort", joint: j };
@@ -156,6 +170,7 @@ export function moveSafeDuration(
     T = Math.max(candidate * (1 + 1e-9), candidate + Number.EPSILON);
   }
   // No convergence (a trapezoid whose blend keeps moving the path): double until it passes.
-  for (let k = 0; k < 64 && T <= longestTimingFixS; k++, T *= 2) if (!failing(T)) return { durationS: T, joint: setBy.joint, check: setBy.check };
+  for (let k = 0; k < 64 && T <= longestTimingFixS; k++, T *= 2)
+    if (!failing(T)) return { durationS: T, joint: setBy.joint, check: setBy.check };
   return { durationS: null, joint: setBy.joint, check: setBy.check };
 }

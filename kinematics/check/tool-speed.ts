@@ -26,7 +26,9 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
   if (context.instant) {
     // |Δp_tool| × control rate: the step is covered in one control period.
     const t = forwardKinematics(s.chain, context.from, s.toolSpeed.buffers);
-    const x0 = t[12], y0 = t[13], z0 = t[14];
+    const x0 = t[12],
+      y0 = t[13],
+      z0 = t[14];
     forwardKinematics(s.chain, context.goal, s.toolSpeed.buffers);
     peak = Math.hypot(t[12] - x0, t[13] - y0, t[14] - z0) * context.arm.controlRateHz;
     at = 0;
@@ -39,7 +41,12 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     const count = sampleMove(s, context, context.move.duration, sampleRateOf(s, context));
     // The tool speed changes at most accelBound m/s² (from the move's peak joint speeds and
     // accelerations), so only the stretches that could hold the peak are evaluated sample by sample.
-    const accelBound = toolAccelerationBound(s.reach, s.chain, context.peakVelocity, context.peakAcceleration ?? context.peakVelocity.map(() => Infinity));
+    const accelBound = toolAccelerationBound(
+      s.reach,
+      s.chain,
+      context.peakVelocity,
+      context.peakAcceleration ?? context.peakVelocity.map(() => Infinity),
+    );
     const r = scanToolSpeedBounded(s.toolSpeed, s.q, s.qd, s.n, s.time, count, accelBound);
     peak = r.peakSpeed;
     at = r.timeS;
@@ -73,4 +80,3 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     timeS: context.startS + at,
   });
 };
-

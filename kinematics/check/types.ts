@@ -85,4 +85,3 @@ export interface CheckOptions {
    */
   reuse?: boolean;
 }
-

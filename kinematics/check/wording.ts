@@ -9,7 +9,12 @@ import type { Joint } from "../plan/arm";
 /** What a number measures, to pick its unit. */
 export type Quantity = "position" | "velocity" | "acceleration" | "step";
 
-const revoluteUnits: Record<Quantity, string> = { position: "rad", velocity: "rad/s", acceleration: "rad/s²", step: "rad" };
+const revoluteUnits: Record<Quantity, string> = {
+  position: "rad",
+  velocity: "rad/s",
+  acceleration: "rad/s²",
+  step: "rad",
+};
 const prismaticUnits: Record<Quantity, string> = { position: "m", velocity: "m/s", acceleration: "m/s²", step: "m" };
 const degreeUnits: Record<Quantity, string> = { position: "°", velocity: "°/s", acceleration: "°/s²", step: "°" };
 
@@ -52,6 +57,13 @@ export function moveLabel(index: number, instant: boolean): string {
  * How far over a limit a value is, in words: "above its limit of 2 rad/s" (fault) or
  * "above 90% of its limit of 2 rad/s" (caution). `owner` names whose limit it is ("its", "the plan's").
  */
-export function limitLevel(severity: "caution" | "fault", cautionRatio: number, limitText: string, owner = "its"): string {
-  return severity === "fault" ? `above ${owner} limit of ${limitText}` : `above ${formatPercent(cautionRatio)} of ${owner} limit of ${limitText}`;
+export function limitLevel(
+  severity: "caution" | "fault",
+  cautionRatio: number,
+  limitText: string,
+  owner = "its",
+): string {
+  return severity === "fault"
+    ? `above ${owner} limit of ${limitText}`
+    : `above ${formatPercent(cautionRatio)} of ${owner} limit of ${limitText}`;
 }

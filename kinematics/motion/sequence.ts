@@ -53,7 +53,8 @@ function safeDurationsOf(plan: Plan, limitScale: number): (number | null)[] {
   const state = stateOf(plan);
   const n = timeline.jointCount;
   return plan.moves.map((_, i) => {
-    const from = timeline.from.subarray(i * n, i * n + n), delta = timeline.delta.subarray(i * n, i * n + n);
+    const from = timeline.from.subarray(i * n, i * n + n),
+      delta = timeline.delta.subarray(i * n, i * n + n);
     return moveSafeDuration(plan, state, from, delta, timeline.shape[i], limitScale, plan.arm.controlRateHz).durationS;
   });
 }
@@ -128,7 +129,10 @@ export function scaleToPass(plan: Plan, options: ScaleOptions = {}): ScaleResult
     report.findings.filter(
       (f) =>
         f.severity === "fault" &&
-        (f.kind === "jump" || f.kind === "range" || f.kind === "clearance" || (f.move !== null && plan.moves[f.move].duration > 0 && needed[f.move] === null)),
+        (f.kind === "jump" ||
+          f.kind === "range" ||
+          f.kind === "clearance" ||
+          (f.move !== null && plan.moves[f.move].duration > 0 && needed[f.move] === null)),
     );
   if (plan.moves.some((move, i) => move.duration > 0 && needed[i] === null)) {
     const report = check(plan);

@@ -159,7 +159,12 @@ export function trapezoidBlend(delta: ArrayLike<number>, durationS: number, join
 }
 
 /** The blend fraction a move uses: the trapezoid's from {@link trapezoidBlend}, 0 for the polynomial shapes. */
-export function moveBlend(shape: number, delta: ArrayLike<number>, durationS: number, joints: readonly Joint[]): number {
+export function moveBlend(
+  shape: number,
+  delta: ArrayLike<number>,
+  durationS: number,
+  joints: readonly Joint[],
+): number {
   return shape === TRAPEZOID ? trapezoidBlend(delta, durationS, joints) : 0;
 }
 

@@ -55,7 +55,9 @@ export const armSchema = z.object(
       .positive({ error: "must be greater than 0" })
       .max(1, { error: "must be at most 1" })
       .default(0.9),
-    joints: z.array(jointSchema, { error: typeError("a list of joints") }).min(1, { error: "must list at least one joint" }),
+    joints: z
+      .array(jointSchema, { error: typeError("a list of joints") })
+      .min(1, { error: "must list at least one joint" }),
     chain: armChainSchema.optional(),
   },
   { error: typeError("an object (an arm)") },
@@ -74,12 +76,20 @@ export function addJointIssues(joints: unknown[], ctx: z.RefinementCtx, base: (s
     const joint = raw as { name?: unknown; min?: unknown; max?: unknown } | null;
     if (!joint || typeof joint !== "object") return;
     if (typeof joint.min === "number" && typeof joint.max === "number" && joint.min > joint.max) {
-      ctx.addIssue({ code: "custom", path: [...base, "joints", j, "max"], message: `must not be below min (${joint.min})` });
+      ctx.addIssue({
+        code: "custom",
+        path: [...base, "joints", j, "max"],
+        message: `must not be below min (${joint.min})`,
+      });
     }
     if (typeof joint.name !== "string") return;
     const earlier = seen.get(joint.name);
     if (earlier !== undefined) {
-      ctx.addIssue({ code: "custom", path: [...base, "joints", j, "name"], message: `repeats the name of joint ${earlier}` });
+      ctx.addIssue({
+        code: "custom",
+        path: [...base, "joints", j, "name"],
+        message: `repeats the name of joint ${earlier}`,
+      });
     } else {
       seen.set(joint.name, j);
     }

@@ -20,7 +20,9 @@ import { finite, isObjectPayload, listOf, nonNegative, positive, typeError } fro
 export const shapeNames = ["cubic", "quintic", "trapezoid"] as const;
 
 /** How a move is interpolated between its start and goal poses. */
-export const shapeSchema = z.enum(shapeNames, { error: `must be one of ${shapeNames.map((s) => `"${s}"`).join(", ")}` });
+export const shapeSchema = z.enum(shapeNames, {
+  error: `must be one of ${shapeNames.map((s) => `"${s}"`).join(", ")}`,
+});
 
 /** Shape name: `cubic`, `quintic` or `trapezoid`. */
 export type ShapeName = z.infer<typeof shapeSchema>;

@@ -21,11 +21,16 @@ export function parsePlan(input: unknown): ParseResult<Plan> {
   const resolved = resolveCartesianGoals(input);
   const result = planSchema.safeParse(resolved.document);
   if (result.success && resolved.problems.length === 0) return { ok: true, value: result.data };
-  return { ok: false, problems: [...(result.success ? [] : describeIssues(result.error.issues)), ...resolved.problems] };
+  return {
+    ok: false,
+    problems: [...(result.success ? [] : describeIssues(result.error.issues)), ...resolved.problems],
+  };
 }
 
 /** Validates an unknown value (parsed JSON) as the `arm` object of a plan document. */
 export function parseArm(input: unknown): ParseResult<Arm> {
   const result = armDocumentSchema.safeParse(input);
-  return result.success ? { ok: true, value: result.data } : { ok: false, problems: describeIssues(result.error.issues) };
+  return result.success
+    ? { ok: true, value: result.data }
+    : { ok: false, problems: describeIssues(result.error.issues) };
 }

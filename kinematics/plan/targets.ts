@@ -57,7 +57,9 @@ export function resolveCartesianGoals(input: unknown): { document: unknown; prob
   }));
   const limits = chainLimits(travel, n);
   // without a start pose, seed from home; a joint without a finite travel seeds at 0
-  const home = homePose({ joints: travel.map((_, i) => ({ min: limits.lower[i], max: limits.upper[i] })) }).map((q) => (Number.isFinite(q) ? q : 0));
+  const home = homePose({ joints: travel.map((_, i) => ({ min: limits.lower[i], max: limits.upper[i] })) }).map((q) =>
+    Number.isFinite(q) ? q : 0,
+  );
   let pose: number[] = numberList(input.start)?.slice() ?? home;
   const moves = input.moves.map((m, i) => {
     if (!isRecord(m)) return m;
@@ -70,12 +72,18 @@ export function resolveCartesianGoals(input: unknown): { document: unknown; prob
     const target = cartesianGoalSchema.safeParse(m.target);
     if (!target.success) {
       for (const issue of target.error.issues) {
-        problems.push({ path: ["moves", i, "target", ...issue.path.map((p) => (typeof p === "number" ? p : String(p)))], message: issue.message });
+        problems.push({
+          path: ["moves", i, "target", ...issue.path.map((p) => (typeof p === "number" ? p : String(p)))],
+          message: issue.message,
+        });
       }
       return m;
     }
     if (!compiled) {
-      problems.push({ path: ["moves", i, "target"], message: "needs the arm's chain (arm.chain) to be turned into a joint goal" });
+      problems.push({
+        path: ["moves", i, "target"],
+        message: "needs the arm's chain (arm.chain) to be turned into a joint goal",
+      });
       return m;
     }
     const result = solveIk(compiled, target.data, { seed: pose, lower: limits.lower, upper: limits.upper });
@@ -88,7 +96,9 @@ export function resolveCartesianGoals(input: unknown): { document: unknown; prob
         message:
           `the tool point cannot reach (${p.map((v) => Number(v.toPrecision(4))).join(", ")}) m${target.data.rpy ? " with that orientation" : ""} ` +
           `within the joint travel: the closest pose found is ${Number((result.positionErrorM * 1000).toPrecision(3))} mm away` +
-          (target.data.rpy ? ` and ${Number(((result.orientationErrorRad * 180) / Math.PI).toPrecision(3))}° off` : "") +
+          (target.data.rpy
+            ? ` and ${Number(((result.orientationErrorRad * 180) / Math.PI).toPrecision(3))}° off`
+            : "") +
           `; choose a nearer target or give a joint goal`,
       });
     }

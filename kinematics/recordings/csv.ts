@@ -184,7 +184,11 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
       if (!valid || !Number.isFinite(value)) {
         if (!bad) {
           const text = textDecoder.decode(bytes.subarray(fieldStart, pos)).trim();
-          add(line, col === 0 ? "t" : (names[col - 1] ?? null), `not a number (${text === "" ? "empty" : JSON.stringify(text)})`);
+          add(
+            line,
+            col === 0 ? "t" : (names[col - 1] ?? null),
+            `not a number (${text === "" ? "empty" : JSON.stringify(text)})`,
+          );
         }
         bad = true;
       }
@@ -207,7 +211,13 @@ export function parseRecordingCsv(input: Uint8Array, options: CsvOptions = {}): 
   const problems = list.done();
   if (problems.length > 0) return { recording: null, problems };
   return {
-    recording: { names, jointCount: n, count: row, timeS: timeS.subarray(0, row), position: position.subarray(0, row * n) },
+    recording: {
+      names,
+      jointCount: n,
+      count: row,
+      timeS: timeS.subarray(0, row),
+      position: position.subarray(0, row * n),
+    },
     problems,
   };
 }

@@ -74,7 +74,13 @@ export function isDatasetFileName(name: string): boolean {
 
 /** True when the bytes start like a zip archive (local file header "PK\x03\x04", or an empty archive). */
 export function isZip(bytes: Uint8Array): boolean {
-  return bytes.length >= 4 && bytes[0] === 0x50 && bytes[1] === 0x4b && (bytes[2] === 3 || bytes[2] === 5) && (bytes[3] === 4 || bytes[3] === 6);
+  return (
+    bytes.length >= 4 &&
+    bytes[0] === 0x50 &&
+    bytes[1] === 0x4b &&
+    (bytes[2] === 3 || bytes[2] === 5) &&
+    (bytes[3] === 4 || bytes[3] === 6)
+  );
 }
 
 /** The Parquet and CSV files of a zip archive, sorted by name. Throws on an archive that is not valid. */
@@ -92,7 +98,13 @@ function stem(name: string): string {
 }
 
 interface SchemaNode {
-  element: { name: string; type?: string; converted_type?: string; logical_type?: { type: string }; repetition_type?: string };
+  element: {
+    name: string;
+    type?: string;
+    converted_type?: string;
+    logical_type?: { type: string };
+    repetition_type?: string;
+  };
   children: SchemaNode[];
 }
 
@@ -125,7 +137,8 @@ function toDouble(value: unknown): number {
 
 /** The bytes as an ArrayBuffer of their own (no copy when they already fill one). */
 function arrayBufferOf(bytes: Uint8Array): ArrayBuffer {
-  if (bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.buffer instanceof ArrayBuffer) return bytes.buffer;
+  if (bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.buffer instanceof ArrayBuffer)
+    return bytes.buffer;
   return bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
 }
 
@@ -134,7 +147,10 @@ export function parquetColumns(bytes: Uint8Array): { rows: number; columns: Colu
   const buffer = arrayBufferOf(bytes);
   const metadata = parquetMetadata(buffer);
   const tree = parquetSchema(metadata) as unknown as SchemaNode;
-  return { rows: Number(metadata.num_rows), columns: tree.children.map((c) => ({ name: c.element.name, type: typeOf(c) })) };
+  return {
+    rows: Number(metadata.num_rows),
+    columns: tree.children.map((c) => ({ name: c.element.name, type: typeOf(c) })),
+  };
 }
 
 /** Columns and types as one list for refusal messages: `t (DOUBLE), state (list<FLOAT>)`. */
@@ -149,7 +165,14 @@ function planColumns(
   columns: ColumnInfo[],
   mapping: ColumnMapping,
   timeFromRows: boolean,
-): { episode: string | null; time: string | null; frame: string | null; joints: string[] | null; list: string | null; problems: string[] } {
+): {
+  episode: string | null;
+  time: string | null;
+  frame: string | null;
+  joints: string[] | null;
+  list: string | null;
+  problems: string[];
+} {
   const byName = new Map(columns.map((c) => [c.name, c]));
   const problems: string[] = [];
   const listed = `Its columns: ${columnList(columns)}.`;
@@ -157,7 +180,11 @@ function planColumns(
 
   let episode: string | null = null;
   if (mapping.episodeColumn !== undefined) {
-    if (!byName.has(mapping.episodeColumn)) refuse(`has no episode column "${mapping.episodeColumn}"`, `Set ${optionNames.episodeColumn} to one of its columns, or leave it out for one episode per file.`);
+    if (!byName.has(mapping.episodeColumn))
+      refuse(
+        `has no episode column "${mapping.episodeColumn}"`,
+        `Set ${optionNames.episodeColumn} to one of its columns, or leave it out for one episode per file.`,
+      );
     else episode = mapping.episodeColumn;
   } else if (byName.has("episode")) episode = "episode";
 
@@ -165,19 +192,35 @@ function planColumns(
   let frame: string | null = null;
   if (mapping.timeColumn !== undefined) {
     const c = byName.get(mapping.timeColumn);
-    if (!c) refuse(`has no time column "${mapping.timeColumn}"`, `Set ${optionNames.timeColumn} to its time column (seconds), or ${optionNames.rateHz} HZ to count frames.`);
-    else if (!numericTypes.has(c.type)) refuse(`time column "${c.name}" is ${c.type}, not a number`, `Set ${optionNames.timeColumn} to a numeric column (seconds).`);
+    if (!c)
+      refuse(
+        `has no time column "${mapping.timeColumn}"`,
+        `Set ${optionNames.timeColumn} to its time column (seconds), or ${optionNames.rateHz} HZ to count frames.`,
+      );
+    else if (!numericTypes.has(c.type))
+      refuse(
+        `time column "${c.name}" is ${c.type}, not a number`,
+        `Set ${optionNames.timeColumn} to a numeric column (seconds).`,
+      );
     else time = c.name;
   } else if (byName.has("t") && mapping.rateHz === undefined) {
     const c = byName.get("t")!;
-    if (!numericTypes.has(c.type)) refuse(`time column "t" is ${c.type}, not a number`, `Set ${optionNames.timeColumn} to a numeric column (seconds), or ${optionNames.rateHz} HZ.`);
+    if (!numericTypes.has(c.type))
+      refuse(
+        `time column "t" is ${c.type}, not a number`,
+        `Set ${optionNames.timeColumn} to a numeric column (seconds), or ${optionNames.rateHz} HZ.`,
+      );
     else time = "t";
   } else if (mapping.rateHz !== undefined) {
     if (!timeFromRows) {
-      frame = ["frame_index", "frame"].find((name) => byName.has(name) && numericTypes.has(byName.get(name)!.type)) ?? null;
+      frame =
+        ["frame_index", "frame"].find((name) => byName.has(name) && numericTypes.has(byName.get(name)!.type)) ?? null;
     }
   } else {
-    refuse('has no time column "t"', `Set ${optionNames.timeColumn} to its time column (seconds), or ${optionNames.rateHz} HZ to take time from the frame index.`);
+    refuse(
+      'has no time column "t"',
+      `Set ${optionNames.timeColumn} to its time column (seconds), or ${optionNames.rateHz} HZ to take time from the frame index.`,
+    );
   }
 
   let joints: string[] | null = null;
@@ -185,13 +228,23 @@ function planColumns(
   const armNames = arm.joints.map((j) => j.name);
   if (mapping.jointsColumn !== undefined) {
     const c = byName.get(mapping.jointsColumn);
-    if (!c) refuse(`has no joints column "${mapping.jointsColumn}"`, `Set ${optionNames.jointsColumn} to its list column holding all joints.`);
-    else if (!/^list<(DOUBLE|FLOAT|INT32|INT64)>$/.test(c.type)) refuse(`joints column "${c.name}" is ${c.type}, not a list of numbers`, `Set ${optionNames.jointsColumn} to a list column of numbers, or ${optionNames.jointColumns} A,B,… for one column per joint.`);
+    if (!c)
+      refuse(
+        `has no joints column "${mapping.jointsColumn}"`,
+        `Set ${optionNames.jointsColumn} to its list column holding all joints.`,
+      );
+    else if (!/^list<(DOUBLE|FLOAT|INT32|INT64)>$/.test(c.type))
+      refuse(
+        `joints column "${c.name}" is ${c.type}, not a list of numbers`,
+        `Set ${optionNames.jointsColumn} to a list column of numbers, or ${optionNames.jointColumns} A,B,… for one column per joint.`,
+      );
     else list = c.name;
   } else {
     const names = mapping.jointColumns ?? armNames;
     if (mapping.jointColumns && names.length !== armNames.length) {
-      problems.push(`${fileName}: ${optionNames.jointColumns} names ${names.length} columns; the arm "${arm.name}" has ${armNames.length} joints (${armNames.join(", ")}).`);
+      problems.push(
+        `${fileName}: ${optionNames.jointColumns} names ${names.length} columns; the arm "${arm.name}" has ${armNames.length} joints (${armNames.join(", ")}).`,
+      );
     }
     const missing = names.filter((name) => !byName.has(name));
     const wrong = names.filter((name) => byName.has(name) && !numericTypes.has(byName.get(name)!.type));
@@ -203,7 +256,10 @@ function planColumns(
         `Set ${optionNames.jointsColumn} NAME for a list column holding all joints, or ${optionNames.jointColumns} A,B,… naming one column per joint in the arm's order (${armNames.join(", ")}).`,
       );
     } else if (wrong.length > 0) {
-      refuse(`joint column${wrong.length === 1 ? "" : "s"} ${wrong.map((w) => `"${w}" (${byName.get(w)!.type})`).join(", ")} not numbers`, `Set ${optionNames.jointColumns} to numeric columns.`);
+      refuse(
+        `joint column${wrong.length === 1 ? "" : "s"} ${wrong.map((w) => `"${w}" (${byName.get(w)!.type})`).join(", ")} not numbers`,
+        `Set ${optionNames.jointColumns} to numeric columns.`,
+      );
     } else joints = names;
   }
   return { episode, time, frame, joints, list, problems };
@@ -220,7 +276,11 @@ async function readParquetColumns(
 ): Promise<Map<string, Float64Array | unknown[]>> {
   const buffer = arrayBufferOf(bytes);
   const out = new Map<string, Float64Array | unknown[]>();
-  for (const c of columns) out.set(c.name, numericTypes.has(c.type) ? new Float64Array(rows).fill(Number.NaN) : new Array<unknown>(rows).fill(null));
+  for (const c of columns)
+    out.set(
+      c.name,
+      numericTypes.has(c.type) ? new Float64Array(rows).fill(Number.NaN) : new Array<unknown>(rows).fill(null),
+    );
   // The codecs load on first use, so pages that never read Parquet never instantiate their WebAssembly.
   const { compressors } = await import("hyparquet-compressors");
   await parquetRead({
@@ -233,7 +293,11 @@ async function readParquetColumns(
       if (!column) return;
       const length = Math.min(columnData.length, rows - rowStart);
       if (column instanceof Float64Array) {
-        if (columnData instanceof Float64Array || columnData instanceof Float32Array || columnData instanceof Int32Array) {
+        if (
+          columnData instanceof Float64Array ||
+          columnData instanceof Float32Array ||
+          columnData instanceof Int32Array
+        ) {
           column.set(length === columnData.length ? columnData : columnData.subarray(0, length), rowStart);
         } else {
           for (let i = 0; i < length; i++) column[rowStart + i] = toDouble(columnData[i]);
@@ -294,7 +358,13 @@ function episodesOf(
   multiFile: boolean,
   rows: number,
   data: Map<string, Float64Array | unknown[]>,
-  plan: { episode: string | null; time: string | null; frame: string | null; joints: string[] | null; list: string | null },
+  plan: {
+    episode: string | null;
+    time: string | null;
+    frame: string | null;
+    joints: string[] | null;
+    list: string | null;
+  },
   rateHz: number | undefined,
 ): Episode[] {
   const n = arm.joints.length;
@@ -329,17 +399,27 @@ function episodesOf(
       }
     }
     const id = plan.episode ? (multiFile ? `${stem(fileName)}/${group.id}` : group.id) : stem(fileName);
-    return { id, recording: { names, jointCount, count, timeS, position: jointCount === n ? position : new Float64Array(0) } };
+    return {
+      id,
+      recording: { names, jointCount, count, timeS, position: jointCount === n ? position : new Float64Array(0) },
+    };
   });
 }
 
 /** Reads one CSV recording file (header `t,<names>`) as episodes. */
-function csvEpisodes(arm: Arm, file: DatasetFile, multiFile: boolean, mapping: ColumnMapping): { episodes: Episode[]; columns: ColumnInfo[]; rows: number; problems: string[] } {
+function csvEpisodes(
+  arm: Arm,
+  file: DatasetFile,
+  multiFile: boolean,
+  mapping: ColumnMapping,
+): { episodes: Episode[]; columns: ColumnInfo[]; rows: number; problems: string[] } {
   const parsed = parseRecordingCsv(file.bytes);
   if (!parsed.recording) {
     const lines = parsed.problems.map((p) => `${file.name}: ${describeRecordingProblem(p)}`);
     if (mapping.rateHz !== undefined || mapping.timeColumn !== undefined) {
-      lines.push(`${file.name}: a CSV file must start with a time column "t" in seconds; ${optionNames.timeColumn} and ${optionNames.rateHz} apply to Parquet files only.`);
+      lines.push(
+        `${file.name}: a CSV file must start with a time column "t" in seconds; ${optionNames.timeColumn} and ${optionNames.rateHz} apply to Parquet files only.`,
+      );
     }
     return { episodes: [], columns: [], rows: 0, problems: lines };
   }
@@ -352,9 +432,20 @@ function csvEpisodes(arm: Arm, file: DatasetFile, multiFile: boolean, mapping: C
     for (let k = 0; k < r.count; k++) column[k] = r.position[k * r.jointCount + c];
     data.set(name, column);
   });
-  const plan = planColumns(arm, file.name, columns, { ...mapping, timeColumn: mapping.timeColumn ?? "t", rateHz: undefined }, false);
+  const plan = planColumns(
+    arm,
+    file.name,
+    columns,
+    { ...mapping, timeColumn: mapping.timeColumn ?? "t", rateHz: undefined },
+    false,
+  );
   if (plan.problems.length > 0) return { episodes: [], columns, rows: r.count, problems: plan.problems };
-  return { episodes: episodesOf(arm, file.name, multiFile, r.count, data, plan, undefined), columns, rows: r.count, problems: [] };
+  return {
+    episodes: episodesOf(arm, file.name, multiFile, r.count, data, plan, undefined),
+    columns,
+    rows: r.count,
+    problems: [],
+  };
 }
 
 /**
@@ -364,7 +455,11 @@ function csvEpisodes(arm: Arm, file: DatasetFile, multiFile: boolean, mapping: C
  * not audited (non-finite values, time not increasing, wrong joint count) are returned, and the audit
  * marks them invalid.
  */
-export async function readDataset(arm: Arm, input: DatasetFile[], mapping: ColumnMapping = {}): Promise<DatasetReadResult> {
+export async function readDataset(
+  arm: Arm,
+  input: DatasetFile[],
+  mapping: ColumnMapping = {},
+): Promise<DatasetReadResult> {
   const problems: string[] = [];
   const files: DatasetReadResult["files"] = [];
   const episodes: Episode[] = [];
@@ -372,7 +467,11 @@ export async function readDataset(arm: Arm, input: DatasetFile[], mapping: Colum
     return { episodes, files, problems: [`${optionNames.rateHz}: must be a frame rate in Hz greater than 0`] };
   }
   if (mapping.jointColumns && mapping.jointsColumn) {
-    return { episodes, files, problems: [`${optionNames.jointColumns} and ${optionNames.jointsColumn}: set one or the other`] };
+    return {
+      episodes,
+      files,
+      problems: [`${optionNames.jointColumns} and ${optionNames.jointsColumn}: set one or the other`],
+    };
   }
   if (mapping.timeColumn && mapping.rateHz !== undefined) {
     return { episodes, files, problems: [`${optionNames.timeColumn} and ${optionNames.rateHz}: set one or the other`] };
@@ -385,7 +484,9 @@ export async function readDataset(arm: Arm, input: DatasetFile[], mapping: Colum
         if (inner.length === 0) problems.push(`${file.name}: the archive holds no .parquet or .csv file`);
         expanded.push(...inner);
       } catch (error) {
-        problems.push(`${file.name}: not a readable zip archive (${error instanceof Error ? error.message : String(error)})`);
+        problems.push(
+          `${file.name}: not a readable zip archive (${error instanceof Error ? error.message : String(error)})`,
+        );
       }
     } else expanded.push(file);
   }
@@ -404,7 +505,9 @@ export async function readDataset(arm: Arm, input: DatasetFile[], mapping: Colum
       try {
         info = parquetColumns(file.bytes);
       } catch (error) {
-        problems.push(`${file.name}: not a readable Parquet file (${error instanceof Error ? error.message : String(error)})`);
+        problems.push(
+          `${file.name}: not a readable Parquet file (${error instanceof Error ? error.message : String(error)})`,
+        );
         continue;
       }
       files.push({ name: file.name, ...info });
@@ -413,10 +516,16 @@ export async function readDataset(arm: Arm, input: DatasetFile[], mapping: Colum
         problems.push(...plan.problems);
         continue;
       }
-      const needed = new Set([plan.episode, plan.time, plan.frame, plan.list, ...(plan.joints ?? [])].filter((c): c is string => c !== null));
+      const needed = new Set(
+        [plan.episode, plan.time, plan.frame, plan.list, ...(plan.joints ?? [])].filter((c): c is string => c !== null),
+      );
       let data: Map<string, Float64Array | unknown[]>;
       try {
-        data = await readParquetColumns(file.bytes, info.columns.filter((c) => needed.has(c.name)), info.rows);
+        data = await readParquetColumns(
+          file.bytes,
+          info.columns.filter((c) => needed.has(c.name)),
+          info.rows,
+        );
       } catch (error) {
         problems.push(`${file.name}: cannot be read (${error instanceof Error ? error.message : String(error)})`);
         continue;

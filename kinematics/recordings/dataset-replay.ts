@@ -29,7 +29,13 @@ function upToMs(durationS: number): number {
 
 /** The shortest passing duration of one quintic move from `from` to `to` (at least 0.1 s). */
 function easeDuration(arm: Arm, from: number[], to: number[]): number {
-  const probe: Plan = { format: planFormat, version: planVersion, arm, start: from, moves: [{ goal: to, duration: 1, shape: "quintic" }] } as Plan;
+  const probe: Plan = {
+    format: planFormat,
+    version: planVersion,
+    arm,
+    start: from,
+    moves: [{ goal: to, duration: 1, shape: "quintic" }],
+  } as Plan;
   const minSafe = check(probe).moves[0]?.minSafeDuration ?? 1;
   return Math.max(0.1, upToMs(Number.isFinite(minSafe) ? minSafe : 1));
 }

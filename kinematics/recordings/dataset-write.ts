@@ -33,7 +33,11 @@ export interface WriteOptions {
 }
 
 /** The episodes as the bytes of one Parquet file (snappy-compressed pages). */
-export function writeEpisodesParquet(arm: Arm, episodes: readonly EpisodeToWrite[], options: WriteOptions = {}): Uint8Array {
+export function writeEpisodesParquet(
+  arm: Arm,
+  episodes: readonly EpisodeToWrite[],
+  options: WriteOptions = {},
+): Uint8Array {
   const n = arm.joints.length;
   let rows = 0;
   for (const e of episodes) rows += e.recording.count;
@@ -58,7 +62,8 @@ export function writeEpisodesParquet(arm: Arm, episodes: readonly EpisodeToWrite
   const jointType = options.float32 ? "FLOAT" : "DOUBLE";
   const names = options.columns ?? {};
   const jointNames = names.joints ?? arm.joints.map((joint) => joint.name);
-  if (jointNames.length !== n) throw new RangeError(`columns.joints names ${jointNames.length} columns; the arm has ${n} joints`);
+  if (jointNames.length !== n)
+    throw new RangeError(`columns.joints names ${jointNames.length} columns; the arm has ${n} joints`);
   const head = [
     { name: names.episode ?? "episode", data: episode, type: "STRING" as const, nullable: false },
     { name: "frame_index", data: frame, type: "INT32" as const, nullable: false },
@@ -75,7 +80,14 @@ export function writeEpisodesParquet(arm: Arm, episodes: readonly EpisodeToWrite
     }
     const columnData = [...head, { name: names.jointsList, data: lists }, ...tail];
     const leaf = (c: { name: string; type: "STRING" | "INT32" | "DOUBLE" | "BOOLEAN" }) =>
-      c.type === "STRING" ? { name: c.name, type: "BYTE_ARRAY" as const, converted_type: "UTF8" as const, repetition_type: "REQUIRED" as const } : { name: c.name, type: c.type, repetition_type: "REQUIRED" as const };
+      c.type === "STRING"
+        ? {
+            name: c.name,
+            type: "BYTE_ARRAY" as const,
+            converted_type: "UTF8" as const,
+            repetition_type: "REQUIRED" as const,
+          }
+        : { name: c.name, type: c.type, repetition_type: "REQUIRED" as const };
     const buffer = parquetWriteBuffer({
       columnData: columnData.map(({ name, data }) => ({ name, data })),
       schema: [
@@ -92,7 +104,11 @@ export function writeEpisodesParquet(arm: Arm, episodes: readonly EpisodeToWrite
     return new Uint8Array(buffer);
   }
   const buffer = parquetWriteBuffer({
-    columnData: [...head, ...jointNames.map((name, j) => ({ name, data: joints[j], type: jointType, nullable: false }) as const), ...tail],
+    columnData: [
+      ...head,
+      ...jointNames.map((name, j) => ({ name, data: joints[j], type: jointType, nullable: false }) as const),
+      ...tail,
+    ],
     rowGroupSize: 100000,
     createdBy: "jointproof",
   });

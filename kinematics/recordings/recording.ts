@@ -44,7 +44,10 @@ export function lineOfSample(k: number): number {
 export const headerLine = 1;
 
 /** Collects problems up to a limit and counts the rest in one last `null`-line problem. */
-export function problemList(maxProblems: number): { add: (problem: RecordingProblem) => void; done: () => RecordingProblem[] } {
+export function problemList(maxProblems: number): {
+  add: (problem: RecordingProblem) => void;
+  done: () => RecordingProblem[];
+} {
   const problems: RecordingProblem[] = [];
   let extra = 0;
   return {
@@ -52,7 +55,8 @@ export function problemList(maxProblems: number): { add: (problem: RecordingProb
       if (problems.length < maxProblems) problems.push(problem);
       else extra++;
     },
-    done: () => (extra > 0 ? [...problems, { line: null, column: null, message: `and ${extra} more problems` }] : problems),
+    done: () =>
+      extra > 0 ? [...problems, { line: null, column: null, message: `and ${extra} more problems` }] : problems,
   };
 }
 
@@ -72,11 +76,19 @@ export interface ValidateOptions {
  * no gap longer than `maxGapS`, and with an arm one column per joint. `arm` may be `null` for a
  * recording stored without an arm. Returns the problems with their lines (empty when valid).
  */
-export function validateRecording(arm: Arm | null, recording: Recording, options: ValidateOptions = {}): RecordingProblem[] {
+export function validateRecording(
+  arm: Arm | null,
+  recording: Recording,
+  options: ValidateOptions = {},
+): RecordingProblem[] {
   const { count, jointCount: n, timeS, position, names } = recording;
   const list = problemList(options.maxProblems ?? 20);
   if (arm && n !== arm.joints.length) {
-    list.add({ line: headerLine, column: null, message: `has ${n} joint columns; the arm has ${arm.joints.length} joints` });
+    list.add({
+      line: headerLine,
+      column: null,
+      message: `has ${n} joint columns; the arm has ${arm.joints.length} joints`,
+    });
   }
   if (count === 0) list.add({ line: headerLine, column: null, message: "has no data rows" });
   const spanS = count > 1 ? timeS[count - 1] - timeS[0] : 0;
@@ -88,14 +100,20 @@ export function validateRecording(arm: Arm | null, recording: Recording, options
     if (!Number.isFinite(t)) list.add({ line, column: "t", message: `time is not a finite number (${t})` });
     else if (k > 0 && Number.isFinite(timeS[k - 1])) {
       const dt = t - timeS[k - 1];
-      if (!(dt > 0)) list.add({ line, column: "t", message: `time ${t} s is not after the previous line's ${timeS[k - 1]} s` });
+      if (!(dt > 0))
+        list.add({ line, column: "t", message: `time ${t} s is not after the previous line's ${timeS[k - 1]} s` });
       else if (dt > maxGapS) {
-        list.add({ line, column: "t", message: `gap of ${formatNumber(dt)} s after the previous line (longer than ${formatNumber(maxGapS)} s)` });
+        list.add({
+          line,
+          column: "t",
+          message: `gap of ${formatNumber(dt)} s after the previous line (longer than ${formatNumber(maxGapS)} s)`,
+        });
       }
     }
     for (let j = 0; j < n; j++) {
       const q = position[k * n + j];
-      if (!Number.isFinite(q)) list.add({ line, column: names[j] ?? null, message: `position is not a finite number (${q})` });
+      if (!Number.isFinite(q))
+        list.add({ line, column: names[j] ?? null, message: `position is not a finite number (${q})` });
     }
   }
   return list.done();
@@ -105,7 +123,10 @@ export function validateRecording(arm: Arm | null, recording: Recording, options
  * Puts a recording's columns in the arm's joint order. Every arm joint needs exactly one column of the
  * same name; unknown or missing names are problems on the header line.
  */
-export function alignRecording(arm: Arm, recording: Recording): { recording: Recording | null; problems: RecordingProblem[] } {
+export function alignRecording(
+  arm: Arm,
+  recording: Recording,
+): { recording: Recording | null; problems: RecordingProblem[] } {
   const problems: RecordingProblem[] = [];
   const columnOf = new Map<string, number>();
   recording.names.forEach((name, c) => {
@@ -114,11 +135,13 @@ export function alignRecording(arm: Arm, recording: Recording): { recording: Rec
   });
   const armNames = new Set(arm.joints.map((joint) => joint.name));
   for (const name of recording.names) {
-    if (!armNames.has(name)) problems.push({ line: headerLine, column: name, message: `is not a joint of the arm "${arm.name}"` });
+    if (!armNames.has(name))
+      problems.push({ line: headerLine, column: name, message: `is not a joint of the arm "${arm.name}"` });
   }
   const order = arm.joints.map((joint) => columnOf.get(joint.name) ?? -1);
   arm.joints.forEach((joint, j) => {
-    if (order[j] < 0) problems.push({ line: headerLine, column: joint.name, message: "is a joint of the arm but has no column" });
+    if (order[j] < 0)
+      problems.push({ line: headerLine, column: joint.name, message: "is a joint of the arm but has no column" });
   });
   if (problems.length > 0) return { recording: null, problems };
   if (order.every((c, j) => c === j)) return { recording, problems };

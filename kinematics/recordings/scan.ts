@@ -40,8 +40,16 @@ const encoder = new TextEncoder();
  * check. With `arm` `null` (a recording kept without an arm), the file is parsed and validated but not
  * aligned or stream-checked, and `report` is `null`.
  */
-export function scanRecording(arm: Arm, input: Uint8Array | string, options?: ScanOptions): ScannedRecording<StreamReport> | RefusedRecording;
-export function scanRecording(arm: null, input: Uint8Array | string, options?: ScanOptions): ScannedRecording<null> | RefusedRecording;
+export function scanRecording(
+  arm: Arm,
+  input: Uint8Array | string,
+  options?: ScanOptions,
+): ScannedRecording<StreamReport> | RefusedRecording;
+export function scanRecording(
+  arm: null,
+  input: Uint8Array | string,
+  options?: ScanOptions,
+): ScannedRecording<null> | RefusedRecording;
 export function scanRecording(
   arm: Arm | null,
   input: Uint8Array | string,

@@ -102,7 +102,19 @@ export function streamCheck(arm: Arm, recording: Recording, options: StreamOptio
     if (level === 2) faults++;
     else cautions++;
     if (found.length < maxFindings) {
-      found.push(streamFinding(arm, kind, j, runStart[slot], endSample, timeS[runStart[slot]], runWorst[slot], level === 2 ? "fault" : "caution", recording));
+      found.push(
+        streamFinding(
+          arm,
+          kind,
+          j,
+          runStart[slot],
+          endSample,
+          timeS[runStart[slot]],
+          runWorst[slot],
+          level === 2 ? "fault" : "caution",
+          recording,
+        ),
+      );
     }
     runStart[slot] = -1;
     openRuns[j] = runStart[j] >= 0 || runStart[n + j] >= 0 || runStart[2 * n + j] >= 0 ? 1 : 0;
@@ -143,7 +155,9 @@ export function streamCheck(arm: Arm, recording: Recording, options: StreamOptio
     }
   }
   for (let slot = 0; slot < 3 * n; slot++) if (runStart[slot] >= 0) close(slot, count - 1);
-  found.sort((a, b) => a.sample - b.sample || a.joint - b.joint || findingKinds.indexOf(a.kind) - findingKinds.indexOf(b.kind));
+  found.sort(
+    (a, b) => a.sample - b.sample || a.joint - b.joint || findingKinds.indexOf(a.kind) - findingKinds.indexOf(b.kind),
+  );
   const verdict: Verdict = faults > 0 ? "fault" : cautions > 0 ? "caution" : "pass";
   const spanS = count > 1 ? timeS[count - 1] - timeS[0] : 0;
   return { verdict, samples: count, rateHz: spanS > 0 ? (count - 1) / spanS : 0, findings: found };
@@ -192,7 +206,10 @@ function streamFinding(
   }
   if (kind === JUMP) {
     const limit = v / arm.controlRateHz;
-    const outcome = severity === "fault" ? "the controller will stop with a jump-too-far fault" : "the controller will follow, close to its jump limit";
+    const outcome =
+      severity === "fault"
+        ? "the controller will stop with a jump-too-far fault"
+        : "the controller will follow, close to its jump limit";
     return {
       kind: "jump",
       severity,
@@ -226,4 +243,3 @@ function streamFinding(
       `${limitLevel(severity, arm.cautionRatio, formatQuantity(v, joint, "velocity"))}. ${fix}`,
   };
 }
-

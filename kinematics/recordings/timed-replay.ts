@@ -156,7 +156,9 @@ export function episodeProblems(arm: Arm, episode: Episode, options: AuditOption
     const t = timeS[k];
     if (!Number.isFinite(t)) add(`frame ${k + 1}: time is not a finite number (${t})`);
     else if (k > 0 && Number.isFinite(timeS[k - 1]) && !(t > timeS[k - 1])) {
-      add(`frame ${k + 1}: time ${formatNumber(t)} s is not after the previous frame's ${formatNumber(timeS[k - 1])} s`);
+      add(
+        `frame ${k + 1}: time ${formatNumber(t)} s is not after the previous frame's ${formatNumber(timeS[k - 1])} s`,
+      );
     }
     for (let j = 0; j < n; j++) {
       const q = position[k * n + j];
@@ -301,7 +303,9 @@ export function replayFindings(arm: Arm, recording: Recording): ReplayFinding[] 
   }
   found.sort(
     (a, b) =>
-      a.sample - b.sample || (a.joint ?? -1) - (b.joint ?? -1) || findingKinds.indexOf(a.kind) - findingKinds.indexOf(b.kind),
+      a.sample - b.sample ||
+      (a.joint ?? -1) - (b.joint ?? -1) ||
+      findingKinds.indexOf(a.kind) - findingKinds.indexOf(b.kind),
   );
   return found;
 }
@@ -316,7 +320,14 @@ function where(arm: Arm, j: number, sample: number, endSample: number, timeS: Fl
   return `${label[0].toUpperCase()}${label.slice(1)}, ${span}`;
 }
 
-function rangeFinding(arm: Arm, j: number, sample: number, endSample: number, timeS: Float64Array, value: number): ReplayFinding {
+function rangeFinding(
+  arm: Arm,
+  j: number,
+  sample: number,
+  endSample: number,
+  timeS: Float64Array,
+  value: number,
+): ReplayFinding {
   const joint = arm.joints[j];
   const limit = value > joint.max ? joint.max : joint.min;
   return {
@@ -346,9 +357,12 @@ function speedFinding(
 ): ReplayFinding {
   const joint = arm.joints[j];
   const v = joint.maxVelocity;
-  const level = severity === "fault" ? "above its limit of" : `above ${formatPercent(arm.cautionRatio)} of its limit of`;
+  const level =
+    severity === "fault" ? "above its limit of" : `above ${formatPercent(arm.cautionRatio)} of its limit of`;
   const outcome =
-    severity === "fault" ? "replayed frame by frame the arm cannot follow and will lag or fault" : "the arm will follow, close to its limit";
+    severity === "fault"
+      ? "replayed frame by frame the arm cannot follow and will lag or fault"
+      : "the arm will follow, close to its limit";
   return {
     kind: "speed-over",
     severity,
@@ -419,7 +433,9 @@ export function auditEpisodes(arm: Arm, episodes: Iterable<Episode>, options: Au
 }
 
 /** Counts audits by verdict and findings by kind. */
-export function summarizeAudits(audits: readonly { verdict: EpisodeVerdict; findings: readonly { kind: FindingKind }[] }[]): AuditSummary {
+export function summarizeAudits(
+  audits: readonly { verdict: EpisodeVerdict; findings: readonly { kind: FindingKind }[] }[],
+): AuditSummary {
   const summary: AuditSummary = { episodes: audits.length, pass: 0, caution: 0, fault: 0, invalid: 0, byKind: {} };
   for (const audit of audits) {
     summary[audit.verdict]++;

@@ -14,7 +14,12 @@ import type { PlanVersion } from "@/db/schema/plans";
 import type { Report } from "@/kinematics";
 import type { RuleProblem } from "@/lib/shared/courses/rules";
 import type { Change } from "@/lib/shared/plan-diff";
-import type { createAssignmentSchema, createCourseSchema, inviteSchema, submitSchema } from "@/lib/shared/schemas/courses";
+import type {
+  createAssignmentSchema,
+  createCourseSchema,
+  inviteSchema,
+  submitSchema,
+} from "@/lib/shared/schemas/courses";
 import type { commentSchema, decisionSchema } from "@/lib/shared/schemas/reviews";
 
 /** A type as it arrives over JSON: dates become ISO strings. */
@@ -68,11 +73,19 @@ export async function request<T>(path: string, init?: RequestInit): Promise<T> {
   try {
     res = await fetch(path, {
       ...init,
-      headers: { Accept: "application/json", ...(init?.body ? { "Content-Type": "application/json" } : {}), ...init?.headers },
+      headers: {
+        Accept: "application/json",
+        ...(init?.body ? { "Content-Type": "application/json" } : {}),
+        ...init?.headers,
+      },
       credentials: "same-origin",
     });
   } catch (err) {
-    throw new ApiError(0, "network", `The server could not be reached (${err instanceof Error ? err.message : "network error"}).`);
+    throw new ApiError(
+      0,
+      "network",
+      `The server could not be reached (${err instanceof Error ? err.message : "network error"}).`,
+    );
   }
   const text = await res.text();
   let body: unknown = null;
@@ -82,9 +95,17 @@ export async function request<T>(path: string, init?: RequestInit): Promise<T> {
     body = null;
   }
   if (!res.ok) {
-    const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null)?.error;
+    const e = (
+      body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null
+    )?.error;
     const { code, message, issues, ...details } = e ?? {};
-    throw new ApiError(res.status, code ?? `http_${res.status}`, message ?? `The server answered ${res.status}.`, issues ?? [], details);
+    throw new ApiError(
+      res.status,
+      code ?? `http_${res.status}`,
+      message ?? `The server answered ${res.status}.`,
+      issues ?? [],
+      details,
+    );
   }
   return body as T;
 }
@@ -95,25 +116,38 @@ export const api = {
   listProjects: () => request<{ projects: ProjectDto[] }>("/api/v1/projects").then((r) => r.projects),
   createProject: (input: { name: string; kind?: "research" | "personal" | "course" }) =>
     request<{ project: ProjectDto }>("/api/v1/projects", post(input)).then((r) => r.project),
-  listPlans: (projectId: string) => request<{ plans: PlanDto[] }>(`/api/v1/projects/${projectId}/plans`).then((r) => r.plans),
+  listPlans: (projectId: string) =>
+    request<{ plans: PlanDto[] }>(`/api/v1/projects/${projectId}/plans`).then((r) => r.plans),
   createPlan: (projectId: string, input: { name: string; armId: string }) =>
     request<{ plan: PlanDto }>(`/api/v1/projects/${projectId}/plans`, post(input)).then((r) => r.plan),
-  listVersions: (planId: string) => request<{ versions: VersionDto[] }>(`/api/v1/plans/${planId}/versions`).then((r) => r.versions),
+  listVersions: (planId: string) =>
+    request<{ versions: VersionDto[] }>(`/api/v1/plans/${planId}/versions`).then((r) => r.versions),
   getVersion: (planId: string, number: number) =>
-    request<{ version: Jsonified<PlanVersion> & { armRevision: number; authorName: string } }>(`/api/v1/plans/${planId}/versions/${number}`).then((r) => r.version),
-  saveVersion: (planId: string, input: { baseVersion: number; document: unknown; note?: string; armRevision?: number }) =>
-    request<{ version: SavedVersionDto; report: Report }>(`/api/v1/plans/${planId}/versions`, post(input)),
+    request<{ version: Jsonified<PlanVersion> & { armRevision: number; authorName: string } }>(
+      `/api/v1/plans/${planId}/versions/${number}`,
+    ).then((r) => r.version),
+  saveVersion: (
+    planId: string,
+    input: { baseVersion: number; document: unknown; note?: string; armRevision?: number },
+  ) => request<{ version: SavedVersionDto; report: Report }>(`/api/v1/plans/${planId}/versions`, post(input)),
   diff: (planId: string, from: number, to: number) =>
     request<DiffDto>(`/api/v1/plans/${planId}/diff?from=${from}&to=${to}`),
   exportUrl: (planId: string, number: number, format: "json" | "csv", rateHz?: number) =>
     `/api/v1/plans/${planId}/versions/${number}/export?format=${format}${rateHz ? `&rateHz=${rateHz}` : ""}`,
   listArms: (projectId?: string) =>
     request<{ arms: ArmDto[] }>(projectId ? `/api/v1/projects/${projectId}/arms` : "/api/v1/arms").then((r) => r.arms),
-  getArm: (armId: string) => request<{ arm: { id: string; name: string; projectId: string | null; role: string | null; projectArchived: boolean }; revisions: ArmRevisionDto[] }>(`/api/v1/arms/${armId}`),
+  getArm: (armId: string) =>
+    request<{
+      arm: { id: string; name: string; projectId: string | null; role: string | null; projectArchived: boolean };
+      revisions: ArmRevisionDto[];
+    }>(`/api/v1/arms/${armId}`),
   createArmRevision: (armId: string, input: { description: unknown; note?: string }) =>
     request<{ revision: ArmRevisionDto }>(`/api/v1/arms/${armId}/revisions`, post(input)).then((r) => r.revision),
   createArm: (projectId: string, input: { name: string; description: unknown; note?: string }) =>
-    request<{ arm: { id: string; name: string; projectId: string }; revision: ArmRevisionDto }>(`/api/v1/projects/${projectId}/arms`, post(input)),
+    request<{ arm: { id: string; name: string; projectId: string }; revision: ArmRevisionDto }>(
+      `/api/v1/projects/${projectId}/arms`,
+      post(input),
+    ),
   listRecordings: (projectId: string) =>
     request<{ recordings: RecordingDto[] }>(`/api/v1/projects/${projectId}/recordings`).then((r) => r.recordings),
   recordingFileUrl: (recordingId: string) => `/api/v1/recordings/${recordingId}/file`,
@@ -121,16 +155,29 @@ export const api = {
 
   // Courses, assignments, submissions and reviews: inputs are the handlers' own zod schemas (z.input).
   createCourse: (input: z.input<typeof createCourseSchema>) =>
-    request<{ course: CourseDto & { joinCode: string; inviteUrl: string } }>("/api/v1/courses", post(input)).then((r) => r.course),
-  joinCourse: (code: string) => request<{ course: Pick<CourseDto, "id" | "title" | "term">; role: CourseDto["role"] }>("/api/v1/courses/join", post({ code })),
+    request<{ course: CourseDto & { joinCode: string; inviteUrl: string } }>("/api/v1/courses", post(input)).then(
+      (r) => r.course,
+    ),
+  joinCourse: (code: string) =>
+    request<{ course: Pick<CourseDto, "id" | "title" | "term">; role: CourseDto["role"] }>(
+      "/api/v1/courses/join",
+      post({ code }),
+    ),
   inviteToCourse: (courseId: string, input: z.input<typeof inviteSchema>) =>
     request<{ invited: string[]; inviteUrl: string }>(`/api/v1/courses/${courseId}/invitations`, post(input)),
-  removeStudent: (courseId: string, userId: string) => request<{ removed: string }>(`/api/v1/courses/${courseId}/roster/${userId}`, { method: "DELETE" }),
+  removeStudent: (courseId: string, userId: string) =>
+    request<{ removed: string }>(`/api/v1/courses/${courseId}/roster/${userId}`, { method: "DELETE" }),
   createAssignment: (courseId: string, input: z.input<typeof createAssignmentSchema>) =>
-    request<{ assignment: AssignmentDto }>(`/api/v1/courses/${courseId}/assignments`, post(input)).then((r) => r.assignment),
+    request<{ assignment: AssignmentDto }>(`/api/v1/courses/${courseId}/assignments`, post(input)).then(
+      (r) => r.assignment,
+    ),
   submit: (assignmentId: string, input: z.input<typeof submitSchema>) =>
-    request<{ submission: Omit<Jsonified<Submission>, "document">; report: Report; ruleProblems: RuleProblem[] }>(`/api/v1/assignments/${assignmentId}/submissions`, post(input)),
-  listOwnSubmissions: () => request<{ submissions: OwnSubmissionDto[] }>("/api/v1/submissions").then((r) => r.submissions),
+    request<{ submission: Omit<Jsonified<Submission>, "document">; report: Report; ruleProblems: RuleProblem[] }>(
+      `/api/v1/assignments/${assignmentId}/submissions`,
+      post(input),
+    ),
+  listOwnSubmissions: () =>
+    request<{ submissions: OwnSubmissionDto[] }>("/api/v1/submissions").then((r) => r.submissions),
   getSubmission: (submissionId: string) => request<SubmissionDetailDto>(`/api/v1/submissions/${submissionId}`),
   addComment: (submissionId: string, input: z.input<typeof commentSchema>) =>
     request<{ comment: CommentDto }>(`/api/v1/reviews/${submissionId}/comments`, post(input)).then((r) => r.comment),
@@ -154,7 +201,13 @@ export interface RecordingDto {
  * Sends a file as the request body, reporting upload progress (0..1); fetch has no upload progress,
  * so uploads use XMLHttpRequest. Resolves with the parsed JSON answer; errors arrive as {@link ApiError}.
  */
-export function uploadWithProgress(url: string, file: Blob, contentType: string, onProgress: (fraction: number) => void, networkMessage: string): Promise<unknown> {
+export function uploadWithProgress(
+  url: string,
+  file: Blob,
+  contentType: string,
+  onProgress: (fraction: number) => void,
+  networkMessage: string,
+): Promise<unknown> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open("POST", url);
@@ -176,9 +229,19 @@ export function uploadWithProgress(url: string, file: Blob, contentType: string,
         resolve(body);
         return;
       }
-      const e = (body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null)?.error;
+      const e = (
+        body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null
+      )?.error;
       const { code, message, issues, ...details } = e ?? {};
-      reject(new ApiError(xhr.status, code ?? `http_${xhr.status}`, message ?? `The server answered ${xhr.status}.`, issues ?? [], details));
+      reject(
+        new ApiError(
+          xhr.status,
+          code ?? `http_${xhr.status}`,
+          message ?? `The server answered ${xhr.status}.`,
+          issues ?? [],
+          details,
+        ),
+      );
     };
     xhr.send(file);
   });
@@ -192,7 +255,13 @@ export async function uploadRecording(
   onProgress: (fraction: number) => void,
 ): Promise<RecordingDto> {
   const q = new URLSearchParams({ name: input.name, ...(input.armId ? { armId: input.armId } : {}) });
-  const body = await uploadWithProgress(`/api/v1/projects/${projectId}/recordings?${q}`, file, "text/csv", onProgress, "The upload did not reach the server.");
+  const body = await uploadWithProgress(
+    `/api/v1/projects/${projectId}/recordings?${q}`,
+    file,
+    "text/csv",
+    onProgress,
+    "The upload did not reach the server.",
+  );
   return (body as { recording: RecordingDto }).recording;
 }
 

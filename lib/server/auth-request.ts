@@ -90,7 +90,10 @@ export async function requireActor(request: Request): Promise<Actor> {
   const actor = await authenticate(request);
   if (!actor) {
     const hadBearer = request.headers.has("authorization");
-    throw new AppError("unauthorized", hadBearer ? "The API token is not valid, has expired or was revoked." : undefined);
+    throw new AppError(
+      "unauthorized",
+      hadBearer ? "The API token is not valid, has expired or was revoked." : undefined,
+    );
   }
   if (actor.via === "session") assertSameOrigin(request);
   const ctx = requestContext();

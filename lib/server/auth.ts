@@ -10,7 +10,14 @@ import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { randomUUID } from "node:crypto";
-import { getUserForSignIn, recentFailedSignInsForEmail, recentFailedSignInsFromIp, recordSignInAttempt, revokeSession, type SignInFailures } from "@/db/queries/users";
+import {
+  getUserForSignIn,
+  recentFailedSignInsForEmail,
+  recentFailedSignInsFromIp,
+  recordSignInAttempt,
+  revokeSession,
+  type SignInFailures,
+} from "@/db/queries/users";
 import { env } from "./env";
 import { PEER_ADDRESS_HEADER } from "./peer-address";
 import { signInSchema } from "../shared/schemas/auth";
@@ -19,7 +26,13 @@ import { signInSchema } from "../shared/schemas/auth";
  * Sign-in back-off: failures within the window beyond the free ones make the next attempt wait
  * 2, 4, 8 … seconds after the latest failure, up to the cap (per account and per client address).
  */
-export const SIGN_IN_BACKOFF = { freePerEmail: 3, freePerIp: 10, maxDelayPerEmailS: 300, maxDelayPerIpS: 60, windowMinutes: 15 } as const;
+export const SIGN_IN_BACKOFF = {
+  freePerEmail: 3,
+  freePerIp: 10,
+  maxDelayPerEmailS: 300,
+  maxDelayPerIpS: 60,
+  windowMinutes: 15,
+} as const;
 
 /** Seconds to wait after the latest failure, given how many failures there were. */
 export function backoffDelayS(failures: number, free: number, maxS: number): number {
@@ -68,7 +81,10 @@ const UNKNOWN_USER_HASH = "$2b$10$s2KksfKqIyMoHmh/0udEPe2wFY5DzlAUsYZW1Z.QpKawvG
  * Checks an e-mail and password. Returns the user, or throws an Error whose message the
  * sign-in form shows (next-auth passes it through as `error`).
  */
-export async function verifyCredentials(raw: unknown, ip: string | null): Promise<{ id: string; email: string; name: string }> {
+export async function verifyCredentials(
+  raw: unknown,
+  ip: string | null,
+): Promise<{ id: string; email: string; name: string }> {
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) throw new Error(BAD_CREDENTIALS_MESSAGE);
   const { email, password } = parsed.data;
@@ -121,7 +137,10 @@ export function clientIp(
   const trustedSet = new Set(trusted.map(normaliseIp));
   let client = normaliseIp(peer);
   if (!trustedSet.has(client)) return client;
-  const hops = (get("x-forwarded-for") ?? "").split(",").map((h) => normaliseIp(h)).filter(Boolean);
+  const hops = (get("x-forwarded-for") ?? "")
+    .split(",")
+    .map((h) => normaliseIp(h))
+    .filter(Boolean);
   while (hops.length > 0) {
     client = hops.pop()!;
     if (!trustedSet.has(client)) return client;

@@ -58,7 +58,8 @@ function newestSource(): number {
 
 /** Builds the worker bundle when it is missing or older than its sources. */
 async function ensureBundle(): Promise<string> {
-  const sourcesExist = existsSync(join(root, "kinematics")) && existsSync(join(root, "lib", "server", "check-worker.ts"));
+  const sourcesExist =
+    existsSync(join(root, "kinematics")) && existsSync(join(root, "lib", "server", "check-worker.ts"));
   if (existsSync(bundlePath) && (!sourcesExist || statSync(bundlePath).mtimeMs >= newestSource())) return bundlePath;
   mkdirSync(bundleDir, { recursive: true });
   const esbuild = await import("esbuild");
@@ -138,7 +139,15 @@ export function assertWithinBudget(plan: Plan, pathPrefix = ""): number {
       `This plan needs ${work.toLocaleString("en")} units of check work (path points × joints: ${plan.moves.length} moves, ` +
         `${plan.arm.joints.length} joints, ${plan.arm.controlRateHz} Hz control rate); one check may use at most ${CHECK_WORK_BUDGET.toLocaleString("en")}. ` +
         `Nothing was checked. Split it into shorter plans, or use fewer, longer moves.`,
-      { issues: [{ path, message: `must need at most ${CHECK_WORK_BUDGET} units of check work (path points × joints); needs ${work}` }], details: { work, budget: CHECK_WORK_BUDGET } },
+      {
+        issues: [
+          {
+            path,
+            message: `must need at most ${CHECK_WORK_BUDGET} units of check work (path points × joints); needs ${work}`,
+          },
+        ],
+        details: { work, budget: CHECK_WORK_BUDGET },
+      },
     );
   }
   return work;
@@ -160,19 +169,31 @@ export async function runCheck(plan: Plan, pathPrefix = ""): Promise<{ report: R
     const name = err instanceof Error ? err.name : "";
     const message = err instanceof Error ? err.message : String(err);
     if (name === "AbortError" || name === "TimeoutError") {
-      throw new AppError("unavailable:check-time-limit", `The check ran longer than its limit of ${limitS} s and was stopped; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s, or split the plan into shorter ones.`, {
-        details: { retryAfterS: CHECK_RETRY_AFTER_S, timeLimitS: limitS },
-      });
+      throw new AppError(
+        "unavailable:check-time-limit",
+        `The check ran longer than its limit of ${limitS} s and was stopped; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s, or split the plan into shorter ones.`,
+        {
+          details: { retryAfterS: CHECK_RETRY_AFTER_S, timeLimitS: limitS },
+        },
+      );
     }
     if (/queue is at limit|No task queue/i.test(message)) {
-      throw new AppError("unavailable:check-busy", `Every checker is busy; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s.`, {
-        details: { retryAfterS: CHECK_RETRY_AFTER_S },
-      });
+      throw new AppError(
+        "unavailable:check-busy",
+        `Every checker is busy; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s.`,
+        {
+          details: { retryAfterS: CHECK_RETRY_AFTER_S },
+        },
+      );
     }
     if (/memory|ERR_WORKER_OUT_OF_MEMORY/i.test(message)) {
-      throw new AppError("unavailable:check-memory", `The check needed more memory than one checker has and was stopped; nothing was checked or saved. Split the plan into shorter ones.`, {
-        details: { retryAfterS: CHECK_RETRY_AFTER_S },
-      });
+      throw new AppError(
+        "unavailable:check-memory",
+        `The check needed more memory than one checker has and was stopped; nothing was checked or saved. Split the plan into shorter ones.`,
+        {
+          details: { retryAfterS: CHECK_RETRY_AFTER_S },
+        },
+      );
     }
     throw err;
   }

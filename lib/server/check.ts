@@ -22,7 +22,13 @@ export function summarize(plan: Plan, report: Report): ReportSummary {
     durationS: plan.moves.reduce((s, m) => s + m.duration, 0),
     faults: faults.length,
     cautions: cautions.length,
-    worst: worst && { kind: worst.kind, severity: worst.severity, move: worst.move, joint: worst.joint, message: worst.message },
+    worst: worst && {
+      kind: worst.kind,
+      severity: worst.severity,
+      move: worst.move,
+      joint: worst.joint,
+      message: worst.message,
+    },
   };
 }
 

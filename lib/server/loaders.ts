@@ -27,6 +27,10 @@ export async function loadArm(actor: Actor, armId: string): Promise<ArmForUser> 
 }
 
 /** The membership view lib/permissions needs. */
-export function membershipOf(resource: { role: ProjectForUser["role"]; archivedAt?: Date | null; projectArchived?: boolean }) {
+export function membershipOf(resource: {
+  role: ProjectForUser["role"];
+  archivedAt?: Date | null;
+  projectArchived?: boolean;
+}) {
   return { role: resource.role, archived: resource.projectArchived ?? (resource.archivedAt ?? null) !== null };
 }

@@ -13,7 +13,10 @@ export const logger = pino({
   level: process.env.LOG_LEVEL ?? (process.env.NODE_ENV === "test" ? "warn" : "info"),
   base: { service: "jointproof" },
   // Belt and braces: the request line never carries these, and neither may anything else.
-  redact: { paths: ["password", "token", "cookie", "authorization", "*.password", "*.token", "*.cookie", "*.authorization"], censor: "[redacted]" },
+  redact: {
+    paths: ["password", "token", "cookie", "authorization", "*.password", "*.token", "*.cookie", "*.authorization"],
+    censor: "[redacted]",
+  },
 });
 
 /** What one request has learnt so far; filled in by requireActor and the check routes. */

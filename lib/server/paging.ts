@@ -30,7 +30,14 @@ function validTimestamp(key: string): boolean {
   if (!m) return false;
   const [y, mo, d, h, mi, s] = m.slice(1).map(Number);
   const date = new Date(Date.UTC(y, mo - 1, d, h, mi, s));
-  return date.getUTCFullYear() === y && date.getUTCMonth() === mo - 1 && date.getUTCDate() === d && h < 24 && mi < 60 && s < 60;
+  return (
+    date.getUTCFullYear() === y &&
+    date.getUTCMonth() === mo - 1 &&
+    date.getUTCDate() === d &&
+    h < 24 &&
+    mi < 60 &&
+    s < 60
+  );
 }
 
 export function encodeCursor(after: PageAfter): string {
@@ -46,7 +53,8 @@ export function decodeCursor(cursor: string, kind: CursorKind): PageAfter | null
   } catch {
     return null;
   }
-  if (!Array.isArray(value) || value.length !== 2 || typeof value[0] !== "string" || typeof value[1] !== "string") return null;
+  if (!Array.isArray(value) || value.length !== 2 || typeof value[0] !== "string" || typeof value[1] !== "string")
+    return null;
   const [key, id] = value as [string, string];
   if (kind.key === "timestamp" ? !validTimestamp(key) : key.length === 0 || key.length > 320) return null;
   if (!(kind.id === "uuid" ? UUID : SERIAL).test(id)) return null;
@@ -91,11 +99,19 @@ export const auditPageQuery = z.strictObject(pageQueryShape({ key: "timestamp", 
  * Rows fetched as `limit + 1` → one page: the extra row only tells that a next page exists; the
  * cursor names the last row shown.
  */
-export function toPage<R extends { pageKey: string }, T>(rows: R[], limit: number, idOf: (row: R) => string, shape: (row: R) => T): Page<T> {
+export function toPage<R extends { pageKey: string }, T>(
+  rows: R[],
+  limit: number,
+  idOf: (row: R) => string,
+  shape: (row: R) => T,
+): Page<T> {
   const more = rows.length > limit;
   const shown = more ? rows.slice(0, limit) : rows;
   const last = shown[shown.length - 1];
-  return { items: shown.map(shape), nextCursor: more && last ? encodeCursor({ key: last.pageKey, id: idOf(last) }) : null };
+  return {
+    items: shown.map(shape),
+    nextCursor: more && last ? encodeCursor({ key: last.pageKey, id: idOf(last) }) : null,
+  };
 }
 
 /** `GET /projects`: the archived filter and a page. */

@@ -49,8 +49,24 @@ export const sitePermissions: Record<SiteRole, ReadonlySet<SiteAction>> = {
   admin: new Set([...everyone, "project:create-course", "user:list", "user:manage"]),
 };
 
-const read: ProjectAction[] = ["project:read", "member:list", "arm:read", "plan:read", "recording:read", "dataset:read"];
-const write: ProjectAction[] = ["arm:write", "plan:create", "plan:delete", "version:create", "recording:create", "dataset:create", "dataset:audit", "dataset:repair"];
+const read: ProjectAction[] = [
+  "project:read",
+  "member:list",
+  "arm:read",
+  "plan:read",
+  "recording:read",
+  "dataset:read",
+];
+const write: ProjectAction[] = [
+  "arm:write",
+  "plan:create",
+  "plan:delete",
+  "version:create",
+  "recording:create",
+  "dataset:create",
+  "dataset:audit",
+  "dataset:repair",
+];
 
 export const projectPermissions: Record<MemberRole, ReadonlySet<ProjectAction>> = {
   viewer: new Set(read),
@@ -75,7 +91,8 @@ export function canProject(membership: { role: MemberRole; archived: boolean }, 
 
 /** Throws `forbidden:<subject>` unless the actor's site role allows the action. */
 export function authorizeSite(actor: Actor, action: SiteAction): void {
-  if (!canSite(actor, action)) throw new AppError(`forbidden:${action.split(":")[0]}`, `Your role (${actor.siteRole}) does not allow ${action}.`);
+  if (!canSite(actor, action))
+    throw new AppError(`forbidden:${action.split(":")[0]}`, `Your role (${actor.siteRole}) does not allow ${action}.`);
 }
 
 /** Throws `forbidden:<subject>` unless the membership allows the action. */
@@ -84,7 +101,10 @@ export function authorizeProject(membership: { role: MemberRole; archived: boole
   if (membership.archived && projectPermissions[membership.role].has(action)) {
     throw new AppError("forbidden:archived", "The project is archived; un-archive it to make changes.");
   }
-  throw new AppError(`forbidden:${action.split(":")[0]}`, `Your project role (${membership.role}) does not allow ${action}.`);
+  throw new AppError(
+    `forbidden:${action.split(":")[0]}`,
+    `Your project role (${membership.role}) does not allow ${action}.`,
+  );
 }
 
 /** Actions inside one course; the actor's course role decides (independent of their site role). */
@@ -148,9 +168,16 @@ export function visibleJoinCode(course: { role: CourseRole; joinCode: string }):
  * The last-owner rule, decided once: a project always keeps at least one owner. Refuses removing
  * (`nextRole: null`) or demoting the only owner.
  */
-export function assertKeepsAnOwner(change: { currentRole: MemberRole | undefined; nextRole: MemberRole | null; ownerCount: number }): void {
+export function assertKeepsAnOwner(change: {
+  currentRole: MemberRole | undefined;
+  nextRole: MemberRole | null;
+  ownerCount: number;
+}): void {
   if (change.currentRole === "owner" && change.nextRole !== "owner" && change.ownerCount <= 1) {
-    throw new AppError("unprocessable:last-owner", "A project needs at least one owner; make someone else owner first.");
+    throw new AppError(
+      "unprocessable:last-owner",
+      "A project needs at least one owner; make someone else owner first.",
+    );
   }
 }
 
@@ -189,13 +216,26 @@ export type SubmissionCapabilities = { canComment: boolean; canDecide: boolean }
  * page never shows a control the API would refuse (nor hides one it would allow).
  */
 export function capabilities(actor: Actor, resource: { kind: "site" }): SiteCapabilities;
-export function capabilities(actor: Actor, resource: { kind: "project"; role: MemberRole; archived: boolean }): ProjectCapabilities;
+export function capabilities(
+  actor: Actor,
+  resource: { kind: "project"; role: MemberRole; archived: boolean },
+): ProjectCapabilities;
 export function capabilities(actor: Actor, resource: { kind: "course"; role: CourseRole }): CourseCapabilities;
-export function capabilities(actor: Actor, resource: { kind: "submission"; viewerRole: CourseRole; status: SubmissionStatus }): SubmissionCapabilities;
-export function capabilities(actor: Actor, resource: CapabilityResource): SiteCapabilities | ProjectCapabilities | CourseCapabilities | SubmissionCapabilities {
+export function capabilities(
+  actor: Actor,
+  resource: { kind: "submission"; viewerRole: CourseRole; status: SubmissionStatus },
+): SubmissionCapabilities;
+export function capabilities(
+  actor: Actor,
+  resource: CapabilityResource,
+): SiteCapabilities | ProjectCapabilities | CourseCapabilities | SubmissionCapabilities {
   switch (resource.kind) {
     case "site":
-      return { canCreateProject: canSite(actor, "project:create"), canCreateCourse: canSite(actor, "project:create-course"), canManageUsers: canSite(actor, "user:manage") };
+      return {
+        canCreateProject: canSite(actor, "project:create"),
+        canCreateCourse: canSite(actor, "project:create-course"),
+        canManageUsers: canSite(actor, "user:manage"),
+      };
     case "project": {
       const can = (action: ProjectAction) => canProject(resource, action);
       return {
@@ -224,7 +264,10 @@ export function capabilities(actor: Actor, resource: CapabilityResource): SiteCa
     case "submission": {
       // Comments and decisions are for a submission still waiting for review (the queries refuse later ones).
       const open = resource.status === "submitted";
-      return { canComment: open && canCourse(resource.viewerRole, "review:comment"), canDecide: open && canCourse(resource.viewerRole, "review:decide") };
+      return {
+        canComment: open && canCourse(resource.viewerRole, "review:comment"),
+        canDecide: open && canCourse(resource.viewerRole, "review:decide"),
+      };
     }
   }
 }

@@ -65,8 +65,21 @@ function routeName(url: string): string {
  * connections, and the PostgreSQL SQLSTATE classes 08 (connection exception) and 57P (operator
  * intervention: shutdown, cannot connect now), and 53300 (too many connections).
  */
-const UNAVAILABLE_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "EPIPE", "ENOTFOUND", "EAI_AGAIN", "EHOSTUNREACH", "57P01", "57P02", "57P03", "53300"]);
-const UNAVAILABLE_MESSAGES = /Connection terminated|connection timeout|timeout exceeded when trying to connect|Client has encountered a connection error|Connection refused/i;
+const UNAVAILABLE_CODES = new Set([
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "ETIMEDOUT",
+  "EPIPE",
+  "ENOTFOUND",
+  "EAI_AGAIN",
+  "EHOSTUNREACH",
+  "57P01",
+  "57P02",
+  "57P03",
+  "53300",
+]);
+const UNAVAILABLE_MESSAGES =
+  /Connection terminated|connection timeout|timeout exceeded when trying to connect|Client has encountered a connection error|Connection refused/i;
 
 /** Whether an error (or one of its causes, as Drizzle wraps pg's) says the database is unreachable. */
 export function isDatabaseUnavailable(err: unknown): boolean {
@@ -93,15 +106,26 @@ export function errorResponse(err: unknown): Response {
     const headers: Record<string, string> = { "Cache-Control": "no-store" };
     if (err.status === 401) headers["WWW-Authenticate"] = 'Bearer realm="jointproof"'; // RFC 6750 §3
     const retryAfterS = err.details?.retryAfterS;
-    if (typeof retryAfterS === "number" && (err.status === 429 || err.status === 503)) headers["Retry-After"] = String(Math.max(1, Math.ceil(retryAfterS)));
+    if (typeof retryAfterS === "number" && (err.status === 429 || err.status === 503))
+      headers["Retry-After"] = String(Math.max(1, Math.ceil(retryAfterS)));
     return NextResponse.json(withId(err), { status: err.status, headers });
   }
   if (isDatabaseUnavailable(err)) {
-    logger.warn({ requestId, err: { message: err instanceof Error ? err.message : String(err) } }, "database unreachable");
-    const unavailable = new AppError("unavailable:database", `The database cannot be reached right now; nothing was saved. Try again in ${DATABASE_RETRY_AFTER_S} seconds.`, {
-      details: { retryAfterS: DATABASE_RETRY_AFTER_S },
+    logger.warn(
+      { requestId, err: { message: err instanceof Error ? err.message : String(err) } },
+      "database unreachable",
+    );
+    const unavailable = new AppError(
+      "unavailable:database",
+      `The database cannot be reached right now; nothing was saved. Try again in ${DATABASE_RETRY_AFTER_S} seconds.`,
+      {
+        details: { retryAfterS: DATABASE_RETRY_AFTER_S },
+      },
+    );
+    return NextResponse.json(withId(unavailable), {
+      status: 503,
+      headers: { "Cache-Control": "no-store", "Retry-After": String(DATABASE_RETRY_AFTER_S) },
     });
-    return NextResponse.json(withId(unavailable), { status: 503, headers: { "Cache-Control": "no-store", "Retry-After": String(DATABASE_RETRY_AFTER_S) } });
   }
   // Database and unexpected errors are logged once with their cause and never shown.
   logger.error({ requestId, err }, "unexpected error");
@@ -117,7 +141,10 @@ export function toIssues(error: z.ZodError, prefix: PropertyKey[] = []): Issue[]
   return error.issues.flatMap((i) =>
     // An unknown key is named by its own path, so the caller sees which field was not expected.
     i.code === "unrecognized_keys"
-      ? i.keys.map((key) => ({ path: formatPath([...prefix, ...i.path, key], "(body)"), message: "is not a known field" }))
+      ? i.keys.map((key) => ({
+          path: formatPath([...prefix, ...i.path, key], "(body)"),
+          message: "is not a known field",
+        }))
       : [{ path: formatPath([...prefix, ...i.path], "(body)"), message: i.message }],
   );
 }
@@ -125,7 +152,9 @@ export function toIssues(error: z.ZodError, prefix: PropertyKey[] = []): Issue[]
 function parseOrThrow<S extends z.ZodType>(schema: S, value: unknown, prefix: PropertyKey[], what: string): z.infer<S> {
   const result = schema.safeParse(value);
   if (!result.success) {
-    throw new AppError("bad_request:validation", `The ${what} is not valid.`, { issues: toIssues(result.error, prefix) });
+    throw new AppError("bad_request:validation", `The ${what} is not valid.`, {
+      issues: toIssues(result.error, prefix),
+    });
   }
   return result.data;
 }
@@ -172,7 +201,9 @@ export async function readBodyLimited(request: Request, limitBytes: number): Pro
   const reader = request.body.getReader();
   // With a declared length the bytes go straight into one buffer of that size, so the body is
   // held once (no chunk list plus a copy); without one (chunked) the buffer grows by doubling.
-  let out = new Uint8Array(declared !== null && Number.isSafeInteger(declared) ? declared : Math.min(limitBytes, 64 * 1024));
+  let out = new Uint8Array(
+    declared !== null && Number.isSafeInteger(declared) ? declared : Math.min(limitBytes, 64 * 1024),
+  );
   let total = 0;
   for (;;) {
     const { done, value } = await reader.read();
@@ -198,17 +229,27 @@ export async function readBodyLimited(request: Request, limitBytes: number): Pro
 }
 
 function badLength(received: number, declared: number): AppError {
-  return new AppError("bad_request:incomplete_body", `The body had ${received} bytes where Content-Length declared ${declared}; nothing was stored.`, {
-    issues: [{ path: "(body)", message: "does not match its Content-Length" }],
-  });
+  return new AppError(
+    "bad_request:incomplete_body",
+    `The body had ${received} bytes where Content-Length declared ${declared}; nothing was stored.`,
+    {
+      issues: [{ path: "(body)", message: "does not match its Content-Length" }],
+    },
+  );
 }
 
 function tooLarge(limitBytes: number): AppError {
-  return new AppError("payload_too_large", `The request body is larger than ${limitBytes} bytes.`, { details: { limitBytes } });
+  return new AppError("payload_too_large", `The request body is larger than ${limitBytes} bytes.`, {
+    details: { limitBytes },
+  });
 }
 
 /** A JSON body: content type, size limit, JSON syntax, then the schema; each failure a 4xx. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S, limitBytes = jsonBodyLimit()): Promise<z.infer<S>> {
+export async function readJson<S extends z.ZodType>(
+  request: Request,
+  schema: S,
+  limitBytes = jsonBodyLimit(),
+): Promise<z.infer<S>> {
   const type = request.headers.get("content-type") ?? "";
   if (!/^application\/([a-z0-9.+-]+\+)?json\s*(;|$)/i.test(type)) {
     throw new AppError("unsupported_media_type", "Send the body as JSON (Content-Type: application/json).");
@@ -217,20 +258,26 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S,
   // RFC 8259 §8.1: JSON text must not start with a byte-order mark. TextDecoder would drop it
   // silently, so it is refused here, the same way on every route.
   if (bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) {
-    throw new AppError("bad_request:json", "The body starts with a byte-order mark; send UTF-8 JSON without one.", { issues: [{ path: "(body)", message: "must not start with a byte-order mark" }] });
+    throw new AppError("bad_request:json", "The body starts with a byte-order mark; send UTF-8 JSON without one.", {
+      issues: [{ path: "(body)", message: "must not start with a byte-order mark" }],
+    });
   }
   let text: string;
   try {
     text = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true }).decode(bytes);
   } catch {
-    throw new AppError("bad_request:json", "The body is not UTF-8 text.", { issues: [{ path: "(body)", message: "must be UTF-8 text" }] });
+    throw new AppError("bad_request:json", "The body is not UTF-8 text.", {
+      issues: [{ path: "(body)", message: "must be UTF-8 text" }],
+    });
   }
   assertNestingDepth(text);
   let value: unknown;
   try {
     value = JSON.parse(text);
   } catch {
-    throw new AppError("bad_request:json", "The body is not valid JSON.", { issues: [{ path: "(body)", message: "must be valid JSON" }] });
+    throw new AppError("bad_request:json", "The body is not valid JSON.", {
+      issues: [{ path: "(body)", message: "must be valid JSON" }],
+    });
   }
   assertCleanText(value, []);
   return parseOrThrow(schema, value, [], "request body");
@@ -246,12 +293,15 @@ function assertNestingDepth(text: string): void {
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i);
     if (inString) {
-      if (c === 0x5c) i++; // backslash: skip the escaped character
+      if (c === 0x5c)
+        i++; // backslash: skip the escaped character
       else if (c === 0x22) inString = false;
     } else if (c === 0x22) inString = true;
     else if (c === 0x7b || c === 0x5b) {
       if (++depth > MAX_JSON_DEPTH) {
-        throw new AppError("bad_request:json", `The body is nested more than ${MAX_JSON_DEPTH} levels deep.`, { issues: [{ path: "(body)", message: `must be nested at most ${MAX_JSON_DEPTH} levels deep` }] });
+        throw new AppError("bad_request:json", `The body is nested more than ${MAX_JSON_DEPTH} levels deep.`, {
+          issues: [{ path: "(body)", message: `must be nested at most ${MAX_JSON_DEPTH} levels deep` }],
+        });
       }
     } else if (c === 0x7d || c === 0x5d) depth--;
   }
@@ -264,7 +314,9 @@ const BAD_TEXT = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])
 export function textProblem(value: string): string | null {
   const m = BAD_TEXT.exec(value);
   if (!m) return null;
-  return m[0] === "\u0000" ? "must not contain NUL characters" : "must not contain unpaired surrogates (not valid Unicode text)";
+  return m[0] === "\u0000"
+    ? "must not contain NUL characters"
+    : "must not contain unpaired surrogates (not valid Unicode text)";
 }
 
 /**

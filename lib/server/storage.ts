@@ -4,7 +4,14 @@
  * 127.0.0.1:$S3_PORT is used (scripts/fakes/start.ts), with the fake's fixed development credentials.
  * Server-side only (the seed script uses it too, so it does not import "server-only").
  */
-import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client, type PutObjectCommandInput, type S3ClientConfig } from "@aws-sdk/client-s3";
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  PutObjectCommand,
+  S3Client,
+  type PutObjectCommandInput,
+  type S3ClientConfig,
+} from "@aws-sdk/client-s3";
 import { env } from "./env";
 
 /** s3rver's built-in development credentials; only ever sent to the loopback fake. */
@@ -43,7 +50,15 @@ function clientConfig(): S3ClientConfig {
 }
 
 export async function putObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
-  await storageClient().send(new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: body, ContentType: contentType, ContentLength: body.byteLength }));
+  await storageClient().send(
+    new PutObjectCommand({
+      Bucket: env().S3_BUCKET,
+      Key: key,
+      Body: body,
+      ContentType: contentType,
+      ContentLength: body.byteLength,
+    }),
+  );
 }
 
 export async function getObject(key: string): Promise<Uint8Array> {
@@ -61,9 +76,21 @@ export async function deleteObject(key: string): Promise<void> {
  * store receives exactly `contentLength` bytes or the put fails; the caller removes the object if
  * it then finds the body wrong.
  */
-export async function putObjectStream(key: string, body: NodeJS.ReadableStream, contentLength: number, contentType: string, signal?: AbortSignal): Promise<void> {
+export async function putObjectStream(
+  key: string,
+  body: NodeJS.ReadableStream,
+  contentLength: number,
+  contentType: string,
+  signal?: AbortSignal,
+): Promise<void> {
   await streamClient().send(
-    new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: body as PutObjectCommandInput["Body"], ContentType: contentType, ContentLength: contentLength }),
+    new PutObjectCommand({
+      Bucket: env().S3_BUCKET,
+      Key: key,
+      Body: body as PutObjectCommandInput["Body"],
+      ContentType: contentType,
+      ContentLength: contentLength,
+    }),
     { abortSignal: signal },
   );
 }

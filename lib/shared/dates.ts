@@ -14,7 +14,14 @@ export interface DateFormatOptions {
 /** The locale and zone a server render uses, before the browser's own are known. */
 export const SERVER_DATE_OPTIONS: Readonly<Required<DateFormatOptions>> = { locale: "en-GB", timeZone: "UTC" };
 
-const dateTimeParts: Intl.DateTimeFormatOptions = { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", hourCycle: "h23" };
+const dateTimeParts: Intl.DateTimeFormatOptions = {
+  day: "numeric",
+  month: "short",
+  year: "numeric",
+  hour: "2-digit",
+  minute: "2-digit",
+  hourCycle: "h23",
+};
 const dateParts: Intl.DateTimeFormatOptions = { day: "numeric", month: "short", year: "numeric" };
 
 function toDate(value: Date | string | number): Date | null {
@@ -22,7 +29,11 @@ function toDate(value: Date | string | number): Date | null {
   return Number.isNaN(date.getTime()) ? null : date;
 }
 
-function format(value: Date | string | number | null | undefined, parts: Intl.DateTimeFormatOptions, options: DateFormatOptions): string {
+function format(
+  value: Date | string | number | null | undefined,
+  parts: Intl.DateTimeFormatOptions,
+  options: DateFormatOptions,
+): string {
   if (value === null || value === undefined) return "—";
   const date = toDate(value);
   if (!date) return "—";
@@ -30,7 +41,10 @@ function format(value: Date | string | number | null | undefined, parts: Intl.Da
 }
 
 /** A moment as "2 Dec 2026, 14:05"; "—" for a missing or unreadable value. */
-export function formatDateTime(value: Date | string | number | null | undefined, options: DateFormatOptions = {}): string {
+export function formatDateTime(
+  value: Date | string | number | null | undefined,
+  options: DateFormatOptions = {},
+): string {
   return format(value, dateTimeParts, options);
 }
 

@@ -60,7 +60,12 @@ function waypointRows(samples: Samples): number[][] {
 }
 
 /** The JSON export: the plan document with its `export` block, sealed by `export.sha256`. */
-export async function buildJsonExport(document: Plan, report: Report, samples: Samples, meta: ExportMeta): Promise<string> {
+export async function buildJsonExport(
+  document: Plan,
+  report: Report,
+  samples: Samples,
+  meta: ExportMeta,
+): Promise<string> {
   const body = {
     ...document,
     export: {
@@ -92,14 +97,22 @@ export function csvTextField(text: string): string {
 const oneLine = (s: string) => s.replace(/[\r\n]+/g, " ");
 
 /** The CSV export: comment lines, the header, one row per waypoint, and the `# sha256:` line. */
-export async function buildCsvExport(document: Plan, report: Report, samples: Samples, meta: ExportMeta): Promise<string> {
+export async function buildCsvExport(
+  document: Plan,
+  report: Report,
+  samples: Samples,
+  meta: ExportMeta,
+): Promise<string> {
   const faults = report.findings.filter((f) => f.severity === "fault").length;
   const cautions = report.findings.length - faults;
   const lines = [
     `# jointproof export: plan "${oneLine(meta.plan.name)}" (${meta.plan.id}) version ${meta.planVersion}, saved ${meta.savedAt}`,
     `# arm: ${oneLine(meta.armRevision.name)} revision ${meta.armRevision.revision} (${meta.armRevision.armId})`,
     `# verdict: ${report.verdict} (${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"})`,
-    ...report.findings.map((f) => `# finding: ${f.severity} ${f.kind} move ${f.move ?? "start"} joint ${f.joint ?? "-"}: ${oneLine(f.message)}`),
+    ...report.findings.map(
+      (f) =>
+        `# finding: ${f.severity} ${f.kind} move ${f.move ?? "start"} joint ${f.joint ?? "-"}: ${oneLine(f.message)}`,
+    ),
     `# rate_hz: ${samples.rateHz}`,
     `# units: t in s; revolute joints in rad, prismatic joints in m`,
     ["t", ...document.arm.joints.map((j) => csvTextField(j.name))].join(","),
@@ -112,7 +125,13 @@ export async function buildCsvExport(document: Plan, report: Report, samples: Sa
 /** True when a parsed JSON document carries an `export` block (a plan document exported by the API). */
 export function hasExportBlock(document: unknown): document is { export: Record<string, unknown> } {
   const block = (document as { export?: unknown } | null)?.export;
-  return typeof document === "object" && document !== null && typeof block === "object" && block !== null && !Array.isArray(block);
+  return (
+    typeof document === "object" &&
+    document !== null &&
+    typeof block === "object" &&
+    block !== null &&
+    !Array.isArray(block)
+  );
 }
 
 /**
@@ -122,12 +141,24 @@ export function hasExportBlock(document: unknown): document is { export: Record<
 export async function verifyJsonChecksum(document: { export: Record<string, unknown> }): Promise<ChecksumResult> {
   const stored = document.export.sha256;
   if (typeof stored !== "string" || !hexDigest.test(stored)) {
-    return { ok: false, format: "json", problem: "export.sha256: is missing or is not 64 lowercase hex digits", expected: null, actual: null };
+    return {
+      ok: false,
+      format: "json",
+      problem: "export.sha256: is missing or is not 64 lowercase hex digits",
+      expected: null,
+      actual: null,
+    };
   }
   const { sha256: _stored, ...rest } = document.export;
   const actual = await sha256Hex(JSON.stringify({ ...document, export: rest }));
   if (actual !== stored) {
-    return { ok: false, format: "json", problem: `export.sha256: does not match the content (expected ${stored}, got ${actual})`, expected: stored, actual };
+    return {
+      ok: false,
+      format: "json",
+      problem: `export.sha256: does not match the content (expected ${stored}, got ${actual})`,
+      expected: stored,
+      actual,
+    };
   }
   return { ok: true, format: "json", digest: actual };
 }
@@ -150,12 +181,24 @@ export async function verifyCsvChecksum(input: Uint8Array | string): Promise<Che
   while (start > 0 && bytes[start - 1] !== LF) start--;
   const match = checksumLine.exec(latin1.decode(bytes.subarray(start, end)));
   if (!match) {
-    return { ok: false, format: "csv", problem: 'last line: must be "# sha256: <64 hex digits>" (the export\'s checksum line)', expected: null, actual: null };
+    return {
+      ok: false,
+      format: "csv",
+      problem: 'last line: must be "# sha256: <64 hex digits>" (the export\'s checksum line)',
+      expected: null,
+      actual: null,
+    };
   }
   const stored = match[1];
   const actual = await sha256Hex(bytes.subarray(0, start));
   if (actual !== stored) {
-    return { ok: false, format: "csv", problem: `# sha256 (last line): does not match the content (expected ${stored}, got ${actual})`, expected: stored, actual };
+    return {
+      ok: false,
+      format: "csv",
+      problem: `# sha256 (last line): does not match the content (expected ${stored}, got ${actual})`,
+      expected: stored,
+      actual,
+    };
   }
   return { ok: true, format: "csv", digest: actual };
 }
@@ -185,10 +228,22 @@ export async function verifyExport(input: Uint8Array | string): Promise<Checksum
   try {
     document = JSON.parse(typeof input === "string" ? input : new TextDecoder().decode(input));
   } catch (error) {
-    return { ok: false, format: "json", problem: `not valid JSON (${error instanceof Error ? error.message : String(error)})`, expected: null, actual: null };
+    return {
+      ok: false,
+      format: "json",
+      problem: `not valid JSON (${error instanceof Error ? error.message : String(error)})`,
+      expected: null,
+      actual: null,
+    };
   }
   if (!hasExportBlock(document)) {
-    return { ok: false, format: "json", problem: "export: is missing (not a JSON export: no export block with a sha256)", expected: null, actual: null };
+    return {
+      ok: false,
+      format: "json",
+      problem: "export: is missing (not a JSON export: no export block with a sha256)",
+      expected: null,
+      actual: null,
+    };
   }
   return verifyJsonChecksum(document);
 }

@@ -8,7 +8,12 @@ function isObject(v: unknown): v is Record<string, unknown> {
 }
 
 /** Every leaf that differs, in document order; arrays compared index by index. */
-export function diffDocuments(from: unknown, to: unknown, path: (string | number)[] = [], out: Change[] = []): Change[] {
+export function diffDocuments(
+  from: unknown,
+  to: unknown,
+  path: (string | number)[] = [],
+  out: Change[] = [],
+): Change[] {
   if (Array.isArray(from) && Array.isArray(to)) {
     const n = Math.max(from.length, to.length);
     for (let i = 0; i < n; i++) {

@@ -44,7 +44,12 @@ export function displayDigits(type: JointKind, unit: AngleUnit): number {
 }
 
 /** A stored value formatted in display units with its unit: `45.0°`, `0.785 rad`, `12.0 mm`. */
-export function formatJointValue(value: number, type: JointKind, unit: AngleUnit, quantity: Quantity = "position"): string {
+export function formatJointValue(
+  value: number,
+  type: JointKind,
+  unit: AngleUnit,
+  quantity: Quantity = "position",
+): string {
   if (!Number.isFinite(value)) return "—";
   if (quantity === "effort") return `${value.toFixed(2)} ${unitLabel(type, unit, quantity)}`;
   const shown = toDisplay(value, type, unit).toFixed(displayDigits(type, unit));

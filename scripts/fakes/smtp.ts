@@ -32,7 +32,15 @@ function addressText(a: AddressObject | AddressObject[] | undefined): string {
 }
 
 /** Starts the fake on `host:port` (port 0 picks a free one) and stores messages under `dir`. */
-export async function startFakeSmtp({ port = 0, host = "127.0.0.1", dir }: { port?: number; host?: string; dir: string }): Promise<FakeSmtp> {
+export async function startFakeSmtp({
+  port = 0,
+  host = "127.0.0.1",
+  dir,
+}: {
+  port?: number;
+  host?: string;
+  dir: string;
+}): Promise<FakeSmtp> {
   await mkdir(dir, { recursive: true });
   const server = new SMTPServer({
     disabledCommands: ["AUTH", "STARTTLS"],
@@ -67,7 +75,10 @@ export async function startFakeSmtp({ port = 0, host = "127.0.0.1", dir }: { por
           // Time first so a plain sort of the names is the order of arrival.
           const name = `${message.receivedAt.replace(/[:.]/g, "-")}-${message.id}.json`;
           await writeFile(path.join(dir, name), JSON.stringify(message, null, 2));
-        })().then(() => callback(), (err: Error) => callback(err));
+        })().then(
+          () => callback(),
+          (err: Error) => callback(err),
+        );
       });
     },
   });

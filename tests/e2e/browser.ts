@@ -33,9 +33,19 @@ export async function openBrowser(): Promise<BrowserSession> {
       "--disable-component-update",
       "--disable-sync",
     ],
-    env: { ...process.env, HOME: home, XDG_CONFIG_HOME: join(home, "config"), XDG_CACHE_HOME: join(home, "cache"), XDG_DATA_HOME: join(home, "data") },
+    env: {
+      ...process.env,
+      HOME: home,
+      XDG_CONFIG_HOME: join(home, "config"),
+      XDG_CACHE_HOME: join(home, "cache"),
+      XDG_DATA_HOME: join(home, "data"),
+    },
   });
-  const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 800 }, acceptDownloads: true });
+  const context = await browser.newContext({
+    baseURL: baseUrl,
+    viewport: { width: 1280, height: 800 },
+    acceptDownloads: true,
+  });
   const page = await context.newPage();
   const errors: string[] = [];
   page.on("console", (msg) => {

@@ -35,7 +35,10 @@ function episodes(): Episode[] {
       }
     }
     if (e % 4 === 1) position[45 * n + 2] += 0.6;
-    return { id: `take-${String(e + 1).padStart(2, "0")}`, recording: { names: arm.joints.map((j) => j.name), jointCount: n, count, timeS, position } };
+    return {
+      id: `take-${String(e + 1).padStart(2, "0")}`,
+      recording: { names: arm.joints.map((j) => j.name), jointCount: n, count, timeS, position },
+    };
   });
 }
 
@@ -58,7 +61,11 @@ describe("datasets", () => {
     const parsed = parseArm(armL);
     if (!parsed.ok) throw new Error("demo arm");
     writeFileSync(parquetPath, writeEpisodesParquet(parsed.value, episodes()));
-    worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"], { env: process.env, stdio: ["ignore", "pipe", "inherit"] });
+    worker = spawn(
+      process.execPath,
+      ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"],
+      { env: process.env, stdio: ["ignore", "pipe", "inherit"] },
+    );
     await new Promise<void>((resolve, reject) => {
       const timer = setTimeout(() => reject(new Error("the dataset worker did not start")), 30_000);
       worker.stdout?.on("data", (d: Buffer) => {
@@ -70,7 +77,10 @@ describe("datasets", () => {
     });
     s = await openBrowser();
     await signIn(s.page);
-    const created = await s.page.request.post("/api/v1/projects", { data: { name: `Demonstrations ${stamp}`, kind: "research" }, headers: { origin: baseUrl } });
+    const created = await s.page.request.post("/api/v1/projects", {
+      data: { name: `Demonstrations ${stamp}`, kind: "research" },
+      headers: { origin: baseUrl },
+    });
     expect(created.status()).toBe(201);
     projectId = ((await created.json()) as { project: { id: string } }).project.id;
   }, 90_000);
@@ -137,7 +147,10 @@ describe("datasets", () => {
     const verified = execFileSync(process.execPath, ["bin/jointproof", "verify", manifestPath], { encoding: "utf8" });
     expect(verified).toContain("Export checksum verified");
     const report = JSON.parse(new TextDecoder().decode(files["report.json"]));
-    expect(report.episodes.find((e: { episode: string }) => e.episode === "take-02")).toMatchObject({ repaired: true, verdict: "pass" });
+    expect(report.episodes.find((e: { episode: string }) => e.episode === "take-02")).toMatchObject({
+      repaired: true,
+      verdict: "pass",
+    });
     expect(s.errors.filter((e) => !/WebGL|GPU|favicon/i.test(e))).toEqual([]);
   }, 180_000);
 });

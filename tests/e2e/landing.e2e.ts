@@ -16,15 +16,22 @@ describe("landing page", () => {
     await expect(s.page.locator("h1").textContent()).resolves.toContain("Jointproof");
     const signIn = s.page.getByRole("link", { name: /sign in/i }).first();
     await expect(signIn.getAttribute("href")).resolves.toBe("/sign-in");
-    await expect(s.page.getByRole("link", { name: "Create an account" }).getAttribute("href")).resolves.toBe("/sign-up");
-    await expect(s.page.getByRole("link", { name: "Open the try-out bench" }).getAttribute("href")).resolves.toBe("/bench");
+    await expect(s.page.getByRole("link", { name: "Create an account" }).getAttribute("href")).resolves.toBe(
+      "/sign-up",
+    );
+    await expect(s.page.getByRole("link", { name: "Open the try-out bench" }).getAttribute("href")).resolves.toBe(
+      "/bench",
+    );
     await s.page.screenshot({ path: `${screenshotDir}/landing.png`, fullPage: true });
     expect(s.errors).toEqual([]);
   });
 
   it("links the safety caution from the footer", async () => {
     await s.page.goto("/");
-    await s.page.getByRole("link", { name: /safety/i }).last().click();
+    await s.page
+      .getByRole("link", { name: /safety/i })
+      .last()
+      .click();
     await s.page.waitForURL("**/safety");
     await expect(s.page.locator("h1").textContent()).resolves.toMatch(/safety/i);
   });

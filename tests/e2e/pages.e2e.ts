@@ -28,7 +28,12 @@ describe("pages at 1440×900", () => {
     s = await openBrowser();
     // A reader in Britain, so dates read "2 Dec 2026, 14:05" (the browser's own locale decides).
     await s.page.close();
-    s.context = await s.browser.newContext({ baseURL, viewport: { width: 1440, height: 900 }, locale: "en-GB", timezoneId: "Europe/London" });
+    s.context = await s.browser.newContext({
+      baseURL,
+      viewport: { width: 1440, height: 900 },
+      locale: "en-GB",
+      timezoneId: "Europe/London",
+    });
     s.page = await s.context.newPage();
     s.page.on("console", (msg) => {
       if (msg.type() === "error") s.errors.push(msg.text());
@@ -43,10 +48,21 @@ describe("pages at 1440×900", () => {
     const { page } = s;
     expect((await page.goto("/"))?.status()).toBe(200);
     const checks = await page.locator("#checks + ul h3").allTextContents();
-    expect(checks).toEqual(["Travel", "Speed", "Acceleration", "Instant-move jump", "Effort", "Clearance", "Tool speed", "Recordings"]);
+    expect(checks).toEqual([
+      "Travel",
+      "Speed",
+      "Acceleration",
+      "Instant-move jump",
+      "Effort",
+      "Clearance",
+      "Tool speed",
+      "Recordings",
+    ]);
     const main = page.locator("main");
     await expect(main.getByRole("link", { name: "Create an account" }).getAttribute("href")).resolves.toBe("/sign-up");
-    await expect(main.getByRole("link", { name: "Open the try-out bench" }).getAttribute("href")).resolves.toBe("/bench");
+    await expect(main.getByRole("link", { name: "Open the try-out bench" }).getAttribute("href")).resolves.toBe(
+      "/bench",
+    );
     await expect(main.getByRole("link", { name: "Sign in" }).getAttribute("href")).resolves.toBe("/sign-in");
     expect(await page.locator("body").innerText()).not.toMatch(/\bprove(n)?\b|\bproof\b/i);
     await shot(page, "landing");
@@ -85,7 +101,9 @@ describe("pages at 1440×900", () => {
     const res = await page.goto("/no-such-page");
     expect(res?.status()).toBe(404);
     await expect(page.locator("h1").textContent()).resolves.toBe("This page does not exist");
-    await expect(page.getByRole("link", { name: "Try-out bench" }).first().getAttribute("href")).resolves.toBe("/bench");
+    await expect(page.getByRole("link", { name: "Try-out bench" }).first().getAttribute("href")).resolves.toBe(
+      "/bench",
+    );
     await shot(page, "not-found");
   });
 
@@ -102,7 +120,9 @@ describe("pages at 1440×900", () => {
     await expect(page.getByText("The password must be at least 10 characters.").isVisible()).resolves.toBe(true);
     await shot(page, "reset-password");
     await page.goto("/reset-password");
-    await expect(page.locator("main").getByRole("alert").textContent()).resolves.toContain("needs the link from the reset e-mail");
+    await expect(page.locator("main").getByRole("alert").textContent()).resolves.toContain(
+      "needs the link from the reset e-mail",
+    );
     await page.goto("/verify-email?token=abc");
     await shot(page, "verify-email");
     await page.goto("/safety");
@@ -119,9 +139,13 @@ describe("pages at 1440×900", () => {
     const changed = table.getByRole("columnheader", { name: /Changed/ });
     await expect(changed.getAttribute("aria-sort")).resolves.toBe("descending");
     await table.getByRole("button", { name: /Plan/ }).click();
-    await expect(table.getByRole("columnheader", { name: /Plan/ }).getAttribute("aria-sort")).resolves.toBe("ascending");
+    await expect(table.getByRole("columnheader", { name: /Plan/ }).getAttribute("aria-sort")).resolves.toBe(
+      "ascending",
+    );
     // Dates in the one format: day, short month, year, 24-hour time.
-    expect(await table.locator("tbody time").first().textContent()).toMatch(/^\d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2}$/);
+    expect(await table.locator("tbody time").first().textContent()).toMatch(
+      /^\d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2}$/,
+    );
     await shot(page, "projects");
   });
 
@@ -135,7 +159,11 @@ describe("pages at 1440×900", () => {
     await form.getByLabel("E-mail").fill("nobody-here@example.com");
     await form.getByRole("button", { name: "Add or change role" }).click();
     const email = form.getByLabel("E-mail");
-    await page.waitForFunction(() => document.querySelector('form[aria-label="Add a member"] input[type="email"]')?.getAttribute("aria-invalid") === "true");
+    await page.waitForFunction(
+      () =>
+        document.querySelector('form[aria-label="Add a member"] input[type="email"]')?.getAttribute("aria-invalid") ===
+        "true",
+    );
     const errorId = (await email.getAttribute("aria-describedby"))!.split(" ").at(-1)!;
     await expect(page.locator(`[id="${errorId}"]`).textContent()).resolves.toBe("The e-mail has no account.");
     // A real member: listed after a reload, and the audit log says who added them.

@@ -112,17 +112,28 @@ describe("review flow in the browser", () => {
     await studentPage.getByRole("button", { name: "Join", exact: true }).click();
     await studentPage.waitForURL(`**${courseUrl}`);
     const row = studentPage.getByTestId("assignment-row").filter({ hasText: "Reach without faults" });
-    await row.getByLabel("Plan version").selectOption({ label: "Robot Motion I / Fast reach, just long enough · version 2" });
+    await row
+      .getByLabel("Plan version")
+      .selectOption({ label: "Robot Motion I / Fast reach, just long enough · version 2" });
     await row.getByRole("button", { name: "Submit" }).click();
     await expect(row.getByRole("status").textContent()).resolves.toContain("Fault");
 
     // Every e-mail names the course, whose title is new in each run: older messages never match.
-    const received = await waitForMail((m) => m.to === instructor.email && m.text.includes(title) && m.subject.includes(`${student.name}, Reach without faults`) && !m.subject.includes("attempt"));
+    const received = await waitForMail(
+      (m) =>
+        m.to === instructor.email &&
+        m.text.includes(title) &&
+        m.subject.includes(`${student.name}, Reach without faults`) &&
+        !m.subject.includes("attempt"),
+    );
     const reviewPath = linkIn(received, "/reviews/");
 
     // The queue, then the review page from the e-mail's link.
     await page.goto("/reviews?status=submitted&sort=submittedAt&order=desc");
-    const queueRow = page.getByTestId("queue-row").filter({ hasText: student.name }).filter({ hasText: "Reach without faults" });
+    const queueRow = page
+      .getByTestId("queue-row")
+      .filter({ hasText: student.name })
+      .filter({ hasText: "Reach without faults" });
     await queueRow.first().waitFor();
     await page.screenshot({ path: `${screenshotDir}/review-queue.png`, fullPage: true });
     await page.goto(reviewPath);
@@ -134,7 +145,9 @@ describe("review flow in the browser", () => {
       el.dispatchEvent(new Event("input", { bubbles: true }));
     });
     await page.getByText("Pin to move 1 at t = 0.500 s", { exact: false }).waitFor();
-    await page.getByRole("textbox", { name: "Comment", exact: true }).fill("The base runs above 70% of its speed here; lengthen this move.");
+    await page
+      .getByRole("textbox", { name: "Comment", exact: true })
+      .fill("The base runs above 70% of its speed here; lengthen this move.");
     await page.getByRole("combobox", { name: "Joint", exact: true }).selectOption({ label: "base" });
     await page.getByRole("button", { name: "Add comment" }).click();
     await page.getByTestId("comments").getByText("lengthen this move").waitFor();
@@ -147,7 +160,9 @@ describe("review flow in the browser", () => {
     await dialog.waitFor();
     await expect(dialog.getByTestId("approval-faults").textContent()).resolves.toMatch(/Fault · move 1/);
     expect(await dialog.getByRole("button", { name: "Approve with this reason" }).isDisabled()).toBe(true);
-    await dialog.getByRole("textbox", { name: "Reason for approving (the student sees it)" }).fill("Accepted to discuss the speed fault in class.");
+    await dialog
+      .getByRole("textbox", { name: "Reason for approving (the student sees it)" })
+      .fill("Accepted to discuss the speed fault in class.");
     expect(await dialog.getByRole("button", { name: "Approve with this reason" }).isDisabled()).toBe(false);
     await page.screenshot({ path: `${screenshotDir}/review-approve-faults-dialog.png` });
     await dialog.getByRole("button", { name: "Cancel" }).click();
@@ -155,10 +170,17 @@ describe("review flow in the browser", () => {
     await expect(page.getByTestId("review-status").textContent()).resolves.toBe("Waiting for review");
     await page.getByRole("textbox", { name: "Summary for the student" }).fill("Slow the reach down and submit again.");
     await page.getByRole("button", { name: "Return with comments" }).click();
-    await expect(page.getByTestId("review-status").filter({ hasText: "Returned with comments" }).waitFor()).resolves.toBeUndefined();
+    await expect(
+      page.getByTestId("review-status").filter({ hasText: "Returned with comments" }).waitFor(),
+    ).resolves.toBeUndefined();
 
     // The student's e-mail arrives; its link opens the review with the pinned comment.
-    const returned = await waitForMail((m) => m.to === student.email && m.text.includes(title) && m.subject === "Returned with comments: Reach without faults");
+    const returned = await waitForMail(
+      (m) =>
+        m.to === student.email &&
+        m.text.includes(title) &&
+        m.subject === "Returned with comments: Reach without faults",
+    );
     await studentPage.goto(linkIn(returned, "/reviews/"));
     await studentPage.getByTestId("comments").getByText("lengthen this move").click();
     await expect(studentPage.getByTestId("review-summary").textContent()).resolves.toContain("Slow the reach down");
@@ -183,11 +205,16 @@ describe("review flow in the browser", () => {
     await again.getByRole("button", { name: "Submit" }).click();
     await expect(again.getByRole("status").textContent()).resolves.toContain("attempt 2");
 
-    const second = await waitForMail((m) => m.to === instructor.email && m.text.includes(title) && m.subject.includes("Reach without faults (attempt 2)"));
+    const second = await waitForMail(
+      (m) =>
+        m.to === instructor.email && m.text.includes(title) && m.subject.includes("Reach without faults (attempt 2)"),
+    );
     await page.goto(linkIn(second, "/reviews/"));
     await page.getByRole("button", { name: "Approve" }).click();
     await page.getByTestId("review-status").filter({ hasText: "Approved" }).waitFor();
-    await waitForMail((m) => m.to === student.email && m.text.includes(title) && m.subject === "Approved: Reach without faults");
+    await waitForMail(
+      (m) => m.to === student.email && m.text.includes(title) && m.subject === "Approved: Reach without faults",
+    );
 
     // The development mail page is for a signed-in admin only (tests/integration/hardening/dev-mail.test.ts
     // reads it as the admin): the instructor signed in here gets a plain 404, not the mailbox.

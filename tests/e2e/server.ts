@@ -16,7 +16,8 @@ async function waitForHealth(timeoutMs: number): Promise<void> {
     } catch {
       // not listening yet
     }
-    if (server?.exitCode != null) throw new Error(`next start exited with code ${server.exitCode}; see .data/test/server.log`);
+    if (server?.exitCode != null)
+      throw new Error(`next start exited with code ${server.exitCode}; see .data/test/server.log`);
     await new Promise((r) => setTimeout(r, 250));
   }
   throw new Error(`the server did not answer ${baseUrl}/api/health within ${timeoutMs} ms`);

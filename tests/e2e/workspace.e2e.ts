@@ -58,7 +58,9 @@ describe("workspace", () => {
     await s.page.getByLabel("Name", { exact: true }).fill(project.name);
     await s.page.getByRole("button", { name: "Create project" }).click();
     await s.page.getByRole("heading", { name: project.name }).waitFor();
-    const list = (await (await s.page.request.get("/api/v1/projects")).json()) as { projects: { id: string; name: string }[] };
+    const list = (await (await s.page.request.get("/api/v1/projects")).json()) as {
+      projects: { id: string; name: string }[];
+    };
     project.id = list.projects.find((p) => p.name === project.name)!.id;
     // A custom arm with the light demo arm's full model (geometry included), so the stage draws its links.
     armName = `Bench arm L with geometry ${stamp}`;
@@ -86,9 +88,19 @@ describe("workspace", () => {
 
     await page.getByRole("button", { name: "Import" }).click();
     // a field error first: the import names the field path
-    await page.getByLabel("…or paste the JSON").fill(JSON.stringify({ format: "jointproof.plan", version: 1, arm: armL, start: pose(), moves: [{ goal: pose(), duration: -1 }] }));
+    await page.getByLabel("…or paste the JSON").fill(
+      JSON.stringify({
+        format: "jointproof.plan",
+        version: 1,
+        arm: armL,
+        start: pose(),
+        moves: [{ goal: pose(), duration: -1 }],
+      }),
+    );
     await expect(page.getByTestId("import-problems").textContent()).resolves.toContain("moves[0].duration");
-    await page.getByLabel("…or paste the JSON").fill(JSON.stringify({ format: "jointproof.plan", version: 1, arm: armL, start: pose(), moves }));
+    await page
+      .getByLabel("…or paste the JSON")
+      .fill(JSON.stringify({ format: "jointproof.plan", version: 1, arm: armL, start: pose(), moves }));
     await page.getByRole("button", { name: "Replace the bench's plan" }).click();
     await expect(page.getByTestId("move-row-3").isVisible()).resolves.toBe(true);
     await page.waitForSelector("[data-testid=stage] canvas");
@@ -133,16 +145,26 @@ describe("workspace", () => {
     expect(await speedFaults(page)).toBe(1);
     // the engine agrees: at this duration the base is over its speed limit, 0.1 s longer it was not
     const at = (dur: number) => {
-      const parsed = parsePlan({ format: "jointproof.plan", version: 1, arm: armL, start: pose(), moves: moves.map((m, i) => (i === 1 ? { ...m, duration: dur } : m)) });
+      const parsed = parsePlan({
+        format: "jointproof.plan",
+        version: 1,
+        arm: armL,
+        start: pose(),
+        moves: moves.map((m, i) => (i === 1 ? { ...m, duration: dur } : m)),
+      });
       if (!parsed.ok) throw new Error("test plan does not parse");
       return check(parsed.value);
     };
     expect(at(d).findings.some((f) => f.kind === "speed-over" && f.severity === "fault" && f.move === 1)).toBe(true);
-    expect(at(d + 0.1).findings.some((f) => f.kind === "speed-over" && f.severity === "fault" && f.move === 1)).toBe(false);
+    expect(at(d + 0.1).findings.some((f) => f.kind === "speed-over" && f.severity === "fault" && f.move === 1)).toBe(
+      false,
+    );
     await expect(page.getByTestId("move-row-1").getAttribute("aria-label")).resolves.toBe("Move 1: fault");
     // a click on the finding moves the playhead to its moment: mid-move 1 (moves 0 and 1 run back to back)
     await page.getByRole("button", { name: /^Fault: Speed over limit, base, move 1\./ }).click();
-    await expect(page.getByTestId("playhead-time").textContent()).resolves.toMatch(new RegExp(`^${(1.5 + d / 2).toFixed(3)} / `));
+    await expect(page.getByTestId("playhead-time").textContent()).resolves.toMatch(
+      new RegExp(`^${(1.5 + d / 2).toFixed(3)} / `),
+    );
     await page.screenshot({ path: `${screenshotDir}/workspace-speed-fault.png` });
 
     await page.getByTestId("move-row-1").click({ position: { x: 20, y: 10 } });
@@ -158,7 +180,10 @@ describe("workspace", () => {
     await page.getByRole("button", { name: "Save version" }).click();
     await page.getByLabel("Note (what changed and why)").fill("Move 1 at its shortest safe duration");
     await page.getByRole("button", { name: "Save", exact: true }).click();
-    await page.getByTestId("save-state").getByText(/Saved as version 1/).waitFor({ timeout: 15_000 });
+    await page
+      .getByTestId("save-state")
+      .getByText(/Saved as version 1/)
+      .waitFor({ timeout: 15_000 });
     const savedVerdict = await page.getByTestId("save-state").locator("[data-verdict]").getAttribute("data-verdict");
     expect(["pass", "caution"]).toContain(savedVerdict);
 
@@ -168,7 +193,10 @@ describe("workspace", () => {
     expect(await page.getByRole("link", { name: "Download JSON" }).count()).toBe(0); // not before the caution is acknowledged
     await page.getByLabel(/I have read the caution/).check();
     await page.screenshot({ path: `${screenshotDir}/workspace-export.png` });
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download JSON" }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("link", { name: "Download JSON" }).click(),
+    ]);
     const file = join(outDir, download.suggestedFilename());
     await download.saveAs(file);
     const command = await page.getByTestId("check-command").textContent();
@@ -193,10 +221,15 @@ describe("workspace", () => {
     await page.getByRole("button", { name: "Save version" }).click();
     await page.getByLabel("Note (what changed and why)").fill("Move 2 slower");
     await page.getByRole("button", { name: "Save", exact: true }).click();
-    await page.getByTestId("save-state").getByText(/Saved as version 2/).waitFor({ timeout: 15_000 });
+    await page
+      .getByTestId("save-state")
+      .getByText(/Saved as version 2/)
+      .waitFor({ timeout: 15_000 });
 
     // someone else saves version 3 on top of version 2 (another tab, the API)
-    const v2 = (await (await page.request.get(`/api/v1/plans/${planId}/versions/2`)).json()) as { version: { document: unknown } };
+    const v2 = (await (await page.request.get(`/api/v1/plans/${planId}/versions/2`)).json()) as {
+      version: { document: unknown };
+    };
     const other = await page.request.post(`/api/v1/plans/${planId}/versions`, {
       data: { baseVersion: 2, document: v2.version.document, note: "from another tab" },
       headers: { Origin: baseUrl },
@@ -208,10 +241,15 @@ describe("workspace", () => {
     await page.getByRole("button", { name: "Save", exact: true }).click();
     const conflict = page.getByRole("dialog", { name: "Someone saved this plan in the meantime" });
     await conflict.waitFor();
-    await expect(conflict.textContent()).resolves.toContain("You started from version 2; version 3 has been saved since.");
+    await expect(conflict.textContent()).resolves.toContain(
+      "You started from version 2; version 3 has been saved since.",
+    );
     await page.screenshot({ path: `${screenshotDir}/workspace-conflict.png` });
     await conflict.getByRole("button", { name: /Save my edits as version 4/ }).click();
-    await page.getByTestId("save-state").getByText(/Saved as version 4/).waitFor({ timeout: 15_000 });
+    await page
+      .getByTestId("save-state")
+      .getByText(/Saved as version 4/)
+      .waitFor({ timeout: 15_000 });
 
     await page.getByRole("button", { name: "Versions" }).click();
     const versions = page.getByRole("dialog", { name: "Versions" });
@@ -243,14 +281,20 @@ describe("workspace", () => {
     await page.getByLabel("Recording CSV file").setInputFiles(csv);
     const findings = page.getByTestId("stream-findings");
     await findings.waitFor();
-    await expect(page.getByRole("progressbar", { name: "Reading the file" }).getAttribute("aria-valuenow")).resolves.toBe("100");
+    await expect(
+      page.getByRole("progressbar", { name: "Reading the file" }).getAttribute("aria-valuenow"),
+    ).resolves.toBe("100");
     expect(await findings.getByText("Jump too far").count()).toBe(3);
     // keep the original in the project: uploaded with a progress bar, then listed
     await page.getByRole("button", { name: "Keep the original in the project" }).click();
     await page.getByRole("button", { name: "Kept in the project" }).waitFor({ timeout: 20_000 });
-    await expect(page.getByRole("progressbar", { name: "Uploading the recording" }).getAttribute("aria-valuenow")).resolves.toBe("100");
+    await expect(
+      page.getByRole("progressbar", { name: "Uploading the recording" }).getAttribute("aria-valuenow"),
+    ).resolves.toBe("100");
     await page.getByRole("region", { name: "Stored recordings" }).getByText(`guided-${stamp}.csv`).waitFor();
-    await expect(page.getByRole("region", { name: "Stream check" }).locator("[data-verdict]").first().getAttribute("data-verdict")).resolves.toBe("fault");
+    await expect(
+      page.getByRole("region", { name: "Stream check" }).locator("[data-verdict]").first().getAttribute("data-verdict"),
+    ).resolves.toBe("fault");
     await page.getByRole("button", { name: /^Repair/ }).click();
     const repaired = page.getByRole("region", { name: "Repaired recording" });
     await expect(repaired.locator("[data-verdict]").first().getAttribute("data-verdict")).resolves.toBe("pass");
@@ -262,7 +306,9 @@ describe("workspace", () => {
     await page.waitForURL(/\/plans\/[0-9a-f-]{36}$/);
     await expect(page.getByTestId("plan-name").textContent()).resolves.toBe(`Guided sweep ${stamp}`);
     const planId = page.url().split("/").pop()!;
-    const versions = (await (await page.request.get(`/api/v1/plans/${planId}/versions`)).json()) as { versions: { number: number; verdict: string }[] };
+    const versions = (await (await page.request.get(`/api/v1/plans/${planId}/versions`)).json()) as {
+      versions: { number: number; verdict: string }[];
+    };
     expect(versions.versions).toHaveLength(1);
     expect(versions.versions[0].verdict).not.toBe("fault");
     await page.waitForTimeout(1000);
@@ -283,7 +329,9 @@ describe("workspace", () => {
     await speed.fill("180");
     await page.getByRole("button", { name: "Save as revision 2" }).click();
     await page.getByRole("status").getByText("Saved.", { exact: true }).waitFor();
-    const arms = (await (await page.request.get(`/api/v1/projects/${project.id}/arms`)).json()) as { arms: { name: string; latestRevision: number }[] };
+    const arms = (await (await page.request.get(`/api/v1/projects/${project.id}/arms`)).json()) as {
+      arms: { name: string; latestRevision: number }[];
+    };
     expect(arms.arms.find((a) => a.name === armName)?.latestRevision).toBe(2);
   });
 

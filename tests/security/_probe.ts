@@ -17,7 +17,14 @@ export type Answer = { status: number; text: string; body: unknown; headers: Hea
 /** One request to the running server; a cookie session sends this site's Origin on writes, as a browser does. */
 export async function http(
   path: string,
-  options: { method?: string; auth?: Auth; json?: unknown; body?: BodyInit; headers?: Record<string, string>; duplex?: "half" } = {},
+  options: {
+    method?: string;
+    auth?: Auth;
+    json?: unknown;
+    body?: BodyInit;
+    headers?: Record<string, string>;
+    duplex?: "half";
+  } = {},
 ): Promise<Answer> {
   const method = options.method ?? (options.json !== undefined || options.body !== undefined ? "POST" : "GET");
   const headers = new Headers(options.headers);
@@ -32,7 +39,13 @@ export async function http(
     if (!headers.has("content-type")) headers.set("content-type", "application/json");
   }
   const started = performance.now();
-  const res = await fetch(`${BASE}${path}`, { method, headers, body, redirect: "manual", ...(options.duplex ? { duplex: options.duplex } : {}) } as RequestInit);
+  const res = await fetch(`${BASE}${path}`, {
+    method,
+    headers,
+    body,
+    redirect: "manual",
+    ...(options.duplex ? { duplex: options.duplex } : {}),
+  } as RequestInit);
   const text = await res.text();
   const ms = performance.now() - started;
   let parsed: unknown = text;
@@ -45,18 +58,33 @@ export async function http(
 }
 
 /** Signs in through the real next-auth endpoints (CSRF cookie, credentials callback); the cookie header for the session, or null. */
-export async function signInOverHttp(email: string, password: string, headers: Record<string, string> = {}): Promise<{ cookie: string | null; location: string }> {
+export async function signInOverHttp(
+  email: string,
+  password: string,
+  headers: Record<string, string> = {},
+): Promise<{ cookie: string | null; location: string }> {
   const csrf = await fetch(`${BASE}/api/auth/csrf`, { headers });
   const csrfCookies = csrf.headers.getSetCookie().map((c) => c.split(";")[0]);
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
   const res = await fetch(`${BASE}/api/auth/callback/credentials`, {
     method: "POST",
     redirect: "manual",
-    headers: { ...headers, "content-type": "application/x-www-form-urlencoded", cookie: csrfCookies.join("; "), origin: BASE },
+    headers: {
+      ...headers,
+      "content-type": "application/x-www-form-urlencoded",
+      cookie: csrfCookies.join("; "),
+      origin: BASE,
+    },
     body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE}/projects` }),
   });
-  const session = res.headers.getSetCookie().map((c) => c.split(";")[0]).find((c) => /^(__Secure-)?jp\.session=./.test(c));
-  return { cookie: session ? [...csrfCookies, session].join("; ") : null, location: decodeURIComponent(res.headers.get("location") ?? "") };
+  const session = res.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .find((c) => /^(__Secure-)?jp\.session=./.test(c));
+  return {
+    cookie: session ? [...csrfCookies, session].join("; ") : null,
+    location: decodeURIComponent(res.headers.get("location") ?? ""),
+  };
 }
 
 /** Signs out through next-auth's own endpoint with the session's cookies. */

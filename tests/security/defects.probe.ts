@@ -8,7 +8,17 @@ import { randomUUID } from "node:crypto";
 import { beforeAll, describe, expect, it } from "vitest";
 import { projects, users } from "@/db/schema";
 import { demoPeople } from "@/db/demo";
-import { BASE, http, makeUser, rows, sessionCookieFor, signInOverHttp, signOutOverHttp, tokenFor, type Auth } from "./_probe";
+import {
+  BASE,
+  http,
+  makeUser,
+  rows,
+  sessionCookieFor,
+  signInOverHttp,
+  signOutOverHttp,
+  tokenFor,
+  type Auth,
+} from "./_probe";
 
 const admin = demoPeople.find((p) => p.role === "admin")!;
 let owner: Awaited<ReturnType<typeof makeUser>>;
@@ -61,7 +71,12 @@ describe("2. sign-in limits and forwarded addresses", () => {
 describe("3. NUL characters and lone surrogates", () => {
   it("are refused with 400 naming the field, and nothing is renamed", async () => {
     for (const raw of ['{"name":"x\\u0000y"}', '{"name":"x\\ud800"}']) {
-      const res = await http(`/api/v1/projects/${projectId}`, { method: "PATCH", auth: ownerToken, body: raw, headers: { "content-type": "application/json" } });
+      const res = await http(`/api/v1/projects/${projectId}`, {
+        method: "PATCH",
+        auth: ownerToken,
+        body: raw,
+        headers: { "content-type": "application/json" },
+      });
       expect(res.status, raw).toBe(400);
       expect((res.body as { error: { issues: { path: string }[] } }).error.issues[0].path).toBe("name");
     }
@@ -72,7 +87,12 @@ describe("3. NUL characters and lone surrogates", () => {
 
 describe("5. body limits", () => {
   it("a JSON route refuses a declared length over its limit with 413 before reading the body", async () => {
-    const res = await http("/api/v1/projects", { method: "POST", auth: ownerToken, body: JSON.stringify({ name: "x".repeat(1_200_000) }), headers: { "content-type": "application/json" } });
+    const res = await http("/api/v1/projects", {
+      method: "POST",
+      auth: ownerToken,
+      body: JSON.stringify({ name: "x".repeat(1_200_000) }),
+      headers: { "content-type": "application/json" },
+    });
     expect(res.status).toBe(413);
   });
 });
@@ -80,18 +100,33 @@ describe("5. body limits", () => {
 describe("7. sign-up", () => {
   it("answers an existing and a new address alike (202, same body) and refuses unknown fields", async () => {
     const before = await rows(users);
-    const existing = await http("/api/v1/accounts", { json: { email: owner.email, name: "Other", password: "a-long-password-1" } });
-    const fresh = await http("/api/v1/accounts", { json: { email: `probe-${randomUUID().slice(0, 8)}@example.com`, name: "New", password: "a-long-password-1" } });
+    const existing = await http("/api/v1/accounts", {
+      json: { email: owner.email, name: "Other", password: "a-long-password-1" },
+    });
+    const fresh = await http("/api/v1/accounts", {
+      json: { email: `probe-${randomUUID().slice(0, 8)}@example.com`, name: "New", password: "a-long-password-1" },
+    });
     expect([existing.status, fresh.status]).toEqual([202, 202]);
     expect(existing.body).toEqual(fresh.body);
     expect(await rows(users)).toBe(before + 1);
-    const unknown = await http("/api/v1/accounts", { json: { email: `u-${randomUUID().slice(0, 8)}@example.com`, name: "U", password: "a-long-password-1", siteRoleX: "admin" } });
+    const unknown = await http("/api/v1/accounts", {
+      json: {
+        email: `u-${randomUUID().slice(0, 8)}@example.com`,
+        name: "U",
+        password: "a-long-password-1",
+        siteRoleX: "admin",
+      },
+    });
     expect(unknown.status).toBe(400);
   });
 
   it("refuses a 10,000-deep nested body with 400", async () => {
     const deep = `{"email":"d@example.com","name":"D","password":"a-long-password-1","x":${"[".repeat(10_000)}${"]".repeat(10_000)}}`;
-    const res = await http("/api/v1/accounts", { method: "POST", body: deep, headers: { "content-type": "application/json" } });
+    const res = await http("/api/v1/accounts", {
+      method: "POST",
+      body: deep,
+      headers: { "content-type": "application/json" },
+    });
     expect(res.status).toBe(400);
   });
 });
@@ -116,9 +151,17 @@ describe("9. same-origin check", () => {
   it("accepts exactly the configured origin: localhost is not 127.0.0.1", async () => {
     const cookie = await sessionCookieFor(owner.id);
     const other = BASE.replace("127.0.0.1", "localhost");
-    const cross = await http("/api/v1/projects", { auth: { cookie }, json: { name: "From localhost" }, headers: { origin: other } });
+    const cross = await http("/api/v1/projects", {
+      auth: { cookie },
+      json: { name: "From localhost" },
+      headers: { origin: other },
+    });
     expect(cross.status).toBe(403);
-    const same = await http("/api/v1/projects", { auth: { cookie }, json: { name: "Same origin" }, headers: { origin: BASE } });
+    const same = await http("/api/v1/projects", {
+      auth: { cookie },
+      json: { name: "Same origin" },
+      headers: { origin: BASE },
+    });
     expect(same.status).toBe(201);
   });
 });
@@ -127,7 +170,12 @@ describe("11. minor ones", () => {
   it("0x1 is not a version number, and a byte-order mark before JSON is refused", async () => {
     const res = await http(`/api/v1/plans/${randomUUID()}/versions/0x1`, { auth: ownerToken });
     expect(res.status).toBe(404);
-    const bom = await http(`/api/v1/projects/${projectId}`, { method: "PATCH", auth: ownerToken, body: "\ufeff{\"name\":\"B\"}", headers: { "content-type": "application/json" } });
+    const bom = await http(`/api/v1/projects/${projectId}`, {
+      method: "PATCH",
+      auth: ownerToken,
+      body: '\ufeff{"name":"B"}',
+      headers: { "content-type": "application/json" },
+    });
     expect(bom.status).toBe(400);
   });
 
@@ -152,17 +200,29 @@ describe("observability", () => {
     expect(id).toMatch(/^[0-9a-f-]{36}$/);
     expect((res.body as { error: { requestId: string } }).error.requestId).toBe(id);
     await new Promise((r) => setTimeout(r, 300));
-    const lines = readFileSync(".data/test/server.log", "utf8").split("\n").filter((l) => l.includes(id!));
+    const lines = readFileSync(".data/test/server.log", "utf8")
+      .split("\n")
+      .filter((l) => l.includes(id!));
     expect(lines).toHaveLength(1);
     const line = JSON.parse(lines[0]) as Record<string, unknown>;
-    expect(line).toMatchObject({ requestId: id, method: "GET", route: "/api/v1/projects/:id", status: 404, actorId: owner.id });
+    expect(line).toMatchObject({
+      requestId: id,
+      method: "GET",
+      route: "/api/v1/projects/:id",
+      status: 404,
+      actorId: owner.id,
+    });
     expect(typeof line.durationMs).toBe("number");
     expect(lines[0]).not.toContain((ownerToken as { bearer: string }).bearer);
   });
 
   it("row counts do not move for refused writes", async () => {
     const before = await rows(projects);
-    await http("/api/v1/projects", { auth: ownerToken, body: '{"name":"\\u0000"}', headers: { "content-type": "application/json" } });
+    await http("/api/v1/projects", {
+      auth: ownerToken,
+      body: '{"name":"\\u0000"}',
+      headers: { "content-type": "application/json" },
+    });
     await http("/api/v1/projects", { auth: ownerToken, body: "{", headers: { "content-type": "application/json" } });
     expect(await rows(projects)).toBe(before);
   });

@@ -17,18 +17,31 @@ const timeLimitMs = 300;
 let server: ChildProcess | undefined;
 let token = "";
 
-const heavyArm = JSON.parse(readFileSync("kinematics/arm/presets/bench-arm-h.json", "utf8")) as { joints: Record<string, unknown>[] } & Record<string, unknown>;
+const heavyArm = JSON.parse(readFileSync("kinematics/arm/presets/bench-arm-h.json", "utf8")) as {
+  joints: Record<string, unknown>[];
+} & Record<string, unknown>;
 const home = heavyArm.joints.map(() => 0);
 const away = heavyArm.joints.map((_, i) => (i < 6 ? 0.5 : 0.01));
-const plan = (extra: Record<string, unknown>) => ({ format: "jointproof.plan", version: 1, arm: heavyArm, start: home, ...extra });
+const plan = (extra: Record<string, unknown>) => ({
+  format: "jointproof.plan",
+  version: 1,
+  arm: heavyArm,
+  start: home,
+  ...extra,
+});
 
 const documents = {
-  "8,000 moves of 0.01 s": plan({ moves: Array.from({ length: 8000 }, (_, i) => ({ goal: i % 2 ? home : away, duration: 0.01, shape: "cubic" })) }),
+  "8,000 moves of 0.01 s": plan({
+    moves: Array.from({ length: 8000 }, (_, i) => ({ goal: i % 2 ? home : away, duration: 0.01, shape: "cubic" })),
+  }),
   "one 40 s move with a huge viscous friction": plan({
     arm: { ...heavyArm, joints: heavyArm.joints.map((j) => ({ ...j, friction: { coulomb: 0.3, viscous: 1e9 } })) },
     moves: [{ goal: away, duration: 40, shape: "quintic" }],
   }),
-  "a control rate of 10⁶ Hz with one 3.5 s move": plan({ arm: { ...heavyArm, controlRateHz: 1e6 }, moves: [{ goal: away, duration: 3.5, shape: "quintic" }] }),
+  "a control rate of 10⁶ Hz with one 3.5 s move": plan({
+    arm: { ...heavyArm, controlRateHz: 1e6 },
+    moves: [{ goal: away, duration: 3.5, shape: "quintic" }],
+  }),
 };
 
 /** Within the work budget but slow: 400 s of motion at 1 kHz, intruding all along, so every sample is scanned. */
@@ -46,7 +59,8 @@ async function waitForHealth(timeoutMs: number): Promise<void> {
     } catch {
       // not listening yet
     }
-    if (server?.exitCode != null) throw new Error(`next start exited with ${server.exitCode}; see .data/test/freezing-server.log`);
+    if (server?.exitCode != null)
+      throw new Error(`next start exited with ${server.exitCode}; see .data/test/freezing-server.log`);
     await new Promise((r) => setTimeout(r, 250));
   }
   throw new Error(`no answer from ${base}/api/health within ${timeoutMs} ms`);
@@ -83,7 +97,13 @@ beforeAll(async () => {
   mkdirSync(".data/test", { recursive: true });
   const out = openSync(".data/test/freezing-server.log", "w");
   server = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(port)], {
-    env: { ...process.env, NODE_ENV: "production", APP_URL: base, NEXTAUTH_URL: base, JP_CHECK_TIME_LIMIT_MS: String(timeLimitMs) },
+    env: {
+      ...process.env,
+      NODE_ENV: "production",
+      APP_URL: base,
+      NEXTAUTH_URL: base,
+      JP_CHECK_TIME_LIMIT_MS: String(timeLimitMs),
+    },
     stdio: ["ignore", out, out],
   });
   await waitForHealth(60_000);
@@ -105,7 +125,9 @@ describe("documents that froze the server get a bounded answer while health keep
     it(`${name}: 422 over the work budget or 503 past the time limit (or the whole report), and health answers meanwhile`, async () => {
       const { answer, health } = await checkWhilePolling(doc);
       const worstHealthMs = Math.max(...health.map((h) => h.ms));
-      console.log(`[freezing] ${name}: ${answer.status} in ${answer.ms.toFixed(0)} ms; health ×${health.length}, worst ${worstHealthMs.toFixed(1)} ms`);
+      console.log(
+        `[freezing] ${name}: ${answer.status} in ${answer.ms.toFixed(0)} ms; health ×${health.length}, worst ${worstHealthMs.toFixed(1)} ms`,
+      );
       expect([200, 422, 503]).toContain(answer.status);
       if (answer.status === 422) {
         expect(answer.body.error?.code).toBe("unprocessable:check-budget");
@@ -126,7 +148,9 @@ describe("documents that froze the server get a bounded answer while health keep
 
   it("a check within the budget that runs past the time limit is stopped: 503 with Retry-After and a message saying nothing was checked", async () => {
     const { answer, health } = await checkWhilePolling(slowWithinBudget);
-    console.log(`[freezing] slow plan within budget: ${answer.status} in ${answer.ms.toFixed(0)} ms; health worst ${Math.max(...health.map((h) => h.ms)).toFixed(1)} ms over ${health.length}`);
+    console.log(
+      `[freezing] slow plan within budget: ${answer.status} in ${answer.ms.toFixed(0)} ms; health worst ${Math.max(...health.map((h) => h.ms)).toFixed(1)} ms over ${health.length}`,
+    );
     expect(answer.status).toBe(503);
     expect(answer.body.error?.code).toBe("unavailable:check-time-limit");
     expect(answer.body.error?.message).toMatch(/stopped; nothing was checked/);

@@ -51,7 +51,13 @@ function chunked(data: Buffer): ReadableStream<Uint8Array> {
 }
 
 const upload = (query: string, body: BodyInit, headers: Record<string, string> = {}, duplex?: "half") =>
-  http(`/api/v1/projects/${projectId}/recordings?${query}`, { method: "POST", auth, body, headers: { "content-type": "text/csv", ...headers }, duplex });
+  http(`/api/v1/projects/${projectId}/recordings?${query}`, {
+    method: "POST",
+    auth,
+    body,
+    headers: { "content-type": "text/csv", ...headers },
+    duplex,
+  });
 
 beforeAll(async () => {
   const u = await makeUser("researcher", "upload-probe");
@@ -60,7 +66,10 @@ beforeAll(async () => {
   projectId = (p.body as { project: { id: string } }).project.id;
 });
 
-type Uploaded = { recording: { id: string; sizeBytes: number; sha256: string; sampleCount: number }; stream: { verdict: string; findings: { kind: string; sample: number }[] } };
+type Uploaded = {
+  recording: { id: string; sizeBytes: number; sha256: string; sampleCount: number };
+  stream: { verdict: string; findings: { kind: string; sample: number }[] };
+};
 
 describe("uploads through the running server", () => {
   it("stores a 20 MB recording whole (byte count and SHA-256 of the stored file match) and finds the fault 50 rows before its end", async () => {
@@ -73,7 +82,9 @@ describe("uploads through the running server", () => {
     expect(body.recording.sampleCount).toBe(n);
     expect(body.stream.verdict).toBe("fault");
     expect(body.stream.findings.filter((f) => f.kind === "jump").map((f) => f.sample)).toContain(jumpRow);
-    const stored = await fetch(`${process.env.APP_URL}/api/v1/recordings/${body.recording.id}/file`, { headers: { authorization: `Bearer ${(auth as { bearer: string }).bearer}` } });
+    const stored = await fetch(`${process.env.APP_URL}/api/v1/recordings/${body.recording.id}/file`, {
+      headers: { authorization: `Bearer ${(auth as { bearer: string }).bearer}` },
+    });
     const storedBytes = Buffer.from(await stored.arrayBuffer());
     expect(storedBytes.length).toBe(csv.length);
     expect(createHash("sha256").update(storedBytes).digest("hex")).toBe(body.recording.sha256);
@@ -101,7 +112,9 @@ describe("uploads through the running server", () => {
         offset += MB;
       },
     });
-    const res = await upload("name=Huge", body, { "content-length": String(data.length) }, "half").catch((err: Error) => ({ status: -1, text: err.message }) as { status: number; text: string });
+    const res = await upload("name=Huge", body, { "content-length": String(data.length) }, "half").catch(
+      (err: Error) => ({ status: -1, text: err.message }) as { status: number; text: string },
+    );
     // fetch either sees the 413 or the server closing the socket mid-body; either way nothing may be stored
     if (res.status !== -1) expect(res.status).toBe(413);
     expect(pulled).toBeLessThan(60 * MB);
@@ -110,7 +123,9 @@ describe("uploads through the running server", () => {
 
   it("refuses a 60 MB chunked upload with 413 once the count passes the limit, and stores nothing", async () => {
     const before = await rows(recordings);
-    const res = await upload("name=HugeChunked", chunked(Buffer.alloc(60 * MB, 0x30)), {}, "half").catch((err: Error) => ({ status: -1, text: err.message }) as { status: number; text: string });
+    const res = await upload("name=HugeChunked", chunked(Buffer.alloc(60 * MB, 0x30)), {}, "half").catch(
+      (err: Error) => ({ status: -1, text: err.message }) as { status: number; text: string },
+    );
     if (res.status !== -1) expect(res.status).toBe(413);
     expect(await rows(recordings)).toBe(before);
   });

@@ -31,9 +31,13 @@ export function ForgotPasswordForm({ validMinutes }: { validMinutes: number }) {
       <div role="status" className="mt-8 rounded-md border border-line bg-panel px-4 py-3 text-sm text-ink">
         <p className="font-medium">Check your inbox</p>
         <p className="mt-1 text-ink-soft">
-          If an account uses <span className="font-medium text-ink">{sentTo}</span>, a reset link is on its way. It works once, for {validMinutes} minutes.
-          Nothing arrived after a few minutes? Look in the spam folder, or{" "}
-          <button type="button" onClick={() => setSentTo(null)} className="font-medium text-brand-600 underline underline-offset-2 hover:text-brand-700">
+          If an account uses <span className="font-medium text-ink">{sentTo}</span>, a reset link is on its way. It
+          works once, for {validMinutes} minutes. Nothing arrived after a few minutes? Look in the spam folder, or{" "}
+          <button
+            type="button"
+            onClick={() => setSentTo(null)}
+            className="font-medium text-brand-600 underline underline-offset-2 hover:text-brand-700"
+          >
             ask again
           </button>
           .
@@ -44,7 +48,14 @@ export function ForgotPasswordForm({ validMinutes }: { validMinutes: number }) {
 
   return (
     <form onSubmit={onSubmit} className="mt-8 space-y-4" noValidate>
-      <TextField label="E-mail" type="email" autoComplete="email" required error={fieldMessage("E-mail", errors.email)} {...form.register("email")} />
+      <TextField
+        label="E-mail"
+        type="email"
+        autoComplete="email"
+        required
+        error={fieldMessage("E-mail", errors.email)}
+        {...form.register("email")}
+      />
       {failure ? <ErrorNote title="The link could not be sent">{failure}</ErrorNote> : null}
       <Button type="submit" variant="primary" disabled={isSubmitting} className="w-full">
         {isSubmitting ? "Sending…" : "Send the reset link"}

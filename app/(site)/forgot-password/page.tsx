@@ -10,7 +10,8 @@ export default function ForgotPasswordPage() {
     <section className="mx-auto max-w-sm px-6 py-16">
       <h1 className="text-2xl font-semibold tracking-tight text-ink">Forgot your password?</h1>
       <p className="mt-2 text-sm text-ink-soft">
-        Enter the e-mail address of your account. We send a link that lets you choose a new password; it works once, for {RESET_VALID_MINUTES} minutes.
+        Enter the e-mail address of your account. We send a link that lets you choose a new password; it works once, for{" "}
+        {RESET_VALID_MINUTES} minutes.
       </p>
       <ForgotPasswordForm validMinutes={RESET_VALID_MINUTES} />
       <p className="mt-6 text-sm text-ink-soft">

@@ -5,7 +5,11 @@ import { ResetPasswordForm } from "./reset-password-form";
 // The link carries a one-time token: keep the page out of search indexes.
 export const metadata: Metadata = { title: "Choose a new password", robots: { index: false, follow: false } };
 
-export default async function ResetPasswordPage({ searchParams }: { searchParams: Promise<{ token?: string | string[] }> }) {
+export default async function ResetPasswordPage({
+  searchParams,
+}: {
+  searchParams: Promise<{ token?: string | string[] }>;
+}) {
   const { token } = await searchParams;
   const value = typeof token === "string" ? token : undefined;
   return (
@@ -13,7 +17,9 @@ export default async function ResetPasswordPage({ searchParams }: { searchParams
       <h1 className="text-2xl font-semibold tracking-tight text-ink">Choose a new password</h1>
       {value ? (
         <>
-          <p className="mt-2 text-sm text-ink-soft">The new password replaces the old one at once; other reset links you asked for stop working.</p>
+          <p className="mt-2 text-sm text-ink-soft">
+            The new password replaces the old one at once; other reset links you asked for stop working.
+          </p>
           <ResetPasswordForm token={value} />
         </>
       ) : (

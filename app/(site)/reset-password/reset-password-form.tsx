@@ -30,11 +30,17 @@ export function ResetPasswordForm({ token }: { token: string }) {
     async ({ token: t, password }) => {
       setFailure(undefined);
       try {
-        await request("/api/v1/accounts/password-reset/confirm", { method: "POST", body: JSON.stringify({ token: t, password }) });
+        await request("/api/v1/accounts/password-reset/confirm", {
+          method: "POST",
+          body: JSON.stringify({ token: t, password }),
+        });
         setDone(true);
       } catch (error) {
         const issues = apiIssues(error);
-        if ((error instanceof ApiError && error.code === "bad_request:token") || issues.some((i) => i.path === "token")) {
+        if (
+          (error instanceof ApiError && error.code === "bad_request:token") ||
+          issues.some((i) => i.path === "token")
+        ) {
           setLinkDead(true);
           return;
         }
@@ -99,7 +105,10 @@ export function ResetPasswordForm({ token }: { token: string }) {
         {isSubmitting ? "Saving…" : "Set the new password"}
       </Button>
       <p className="text-sm text-ink-soft">
-        Changed your mind? <Link href="/sign-in" className={linkClass}>Back to sign-in</Link>
+        Changed your mind?{" "}
+        <Link href="/sign-in" className={linkClass}>
+          Back to sign-in
+        </Link>
       </p>
     </form>
   );

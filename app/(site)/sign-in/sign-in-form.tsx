@@ -35,18 +35,34 @@ export function SignInForm({ next, initialError }: { next: string; initialError:
     <form onSubmit={onSubmit} className="mt-8 space-y-4" noValidate>
       <label className="block text-sm font-medium text-ink">
         E-mail
-        <input name="email" type="email" autoComplete="email" required className="mt-1 block w-full rounded border border-line bg-panel px-3 py-2 text-ink focus:border-brand-500 focus:outline-none focus:ring-2 focus:ring-brand-100" />
+        <input
+          name="email"
+          type="email"
+          autoComplete="email"
+          required
+          className="mt-1 block w-full rounded border border-line bg-panel px-3 py-2 text-ink focus:border-brand-500 focus:ring-2 focus:ring-brand-100 focus:outline-none"
+        />
       </label>
       <label className="block text-sm font-medium text-ink">
         Password
-        <input name="password" type="password" autoComplete="current-password" required className="mt-1 block w-full rounded border border-line bg-panel px-3 py-2 text-ink focus:border-brand-500 focus:outline-none focus:ring-2 focus:ring-brand-100" />
+        <input
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          required
+          className="mt-1 block w-full rounded border border-line bg-panel px-3 py-2 text-ink focus:border-brand-500 focus:ring-2 focus:ring-brand-100 focus:outline-none"
+        />
       </label>
       {error ? (
         <p role="alert" className="rounded border border-fault/30 bg-fault-tint px-3 py-2 text-sm text-fault">
           {error}
         </p>
       ) : null}
-      <button type="submit" disabled={pending} className="w-full rounded bg-brand-600 px-4 py-2 text-sm font-medium text-white hover:bg-brand-700 disabled:opacity-60">
+      <button
+        type="submit"
+        disabled={pending}
+        className="w-full rounded bg-brand-600 px-4 py-2 text-sm font-medium text-white hover:bg-brand-700 disabled:opacity-60"
+      >
         {pending ? "Signing in…" : "Sign in"}
       </button>
     </form>

@@ -9,7 +9,8 @@ export default function SignUpPage() {
     <section className="mx-auto max-w-sm px-6 py-16">
       <h1 className="text-2xl font-semibold tracking-tight text-ink">Create an account</h1>
       <p className="mt-2 text-sm text-ink-soft">
-        Students and researchers sign up here; instructors get their role from a lab admin. We send a link to confirm your e-mail address; you can start working before you open it.
+        Students and researchers sign up here; instructors get their role from a lab admin. We send a link to confirm
+        your e-mail address; you can start working before you open it.
       </p>
       <SignUpForm />
       <p className="mt-6 text-sm text-ink-soft">

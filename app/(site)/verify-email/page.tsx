@@ -5,7 +5,11 @@ import { VerifyEmailForm } from "./verify-email-form";
 // The link carries a one-time token: keep the page out of search indexes.
 export const metadata: Metadata = { title: "Confirm your e-mail address", robots: { index: false, follow: false } };
 
-export default async function VerifyEmailPage({ searchParams }: { searchParams: Promise<{ token?: string | string[] }> }) {
+export default async function VerifyEmailPage({
+  searchParams,
+}: {
+  searchParams: Promise<{ token?: string | string[] }>;
+}) {
   const { token } = await searchParams;
   const value = typeof token === "string" ? token : undefined;
   return (

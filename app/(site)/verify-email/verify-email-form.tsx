@@ -7,7 +7,8 @@ import { ErrorNote } from "@/components/ui/panel";
 import { postAccount } from "@/lib/client/auth";
 import { verifyEmailSchema } from "@/lib/shared/schemas/auth";
 
-type State = { kind: "idle" } | { kind: "pending" } | { kind: "done" } | { kind: "dead" } | { kind: "error"; message: string };
+type State =
+  { kind: "idle" } | { kind: "pending" } | { kind: "done" } | { kind: "dead" } | { kind: "error"; message: string };
 
 export function VerifyEmailForm({ token }: { token: string }) {
   const [state, setState] = useState<State>({ kind: "idle" });

@@ -15,12 +15,20 @@ export default async function CoursesPage() {
   const courses = await listCoursesForUser({ userId: actor.userId });
   const armList = canCreate ? await listArmsForUser({ userId: actor.userId }) : [];
   const revisions = await Promise.all(armList.map((a) => getArmRevisionForUser({ armId: a.id, userId: actor.userId })));
-  const arms = armList.flatMap((a, i) => (revisions[i] ? [{ revisionId: revisions[i].id, label: `${a.name} · revision ${revisions[i].revision}` }] : []));
+  const arms = armList.flatMap((a, i) =>
+    revisions[i] ? [{ revisionId: revisions[i].id, label: `${a.name} · revision ${revisions[i].revision}` }] : [],
+  );
   return (
     <CoursesHome
       arms={arms}
       canCreate={canCreate}
-      courses={courses.map((c) => ({ id: c.id, title: c.title, term: c.term, role: c.role, joinCode: visibleJoinCode(c) }))}
+      courses={courses.map((c) => ({
+        id: c.id,
+        title: c.title,
+        term: c.term,
+        role: c.role,
+        joinCode: visibleJoinCode(c),
+      }))}
     />
   );
 }

@@ -13,7 +13,10 @@ export const dynamic = "force-dynamic";
 /** The user's projects with their plans and each plan's last verdict (first load on the server). */
 export default async function ProjectsPage() {
   const actor = await requirePageActor("/projects");
-  const [projects, arms] = await Promise.all([listProjectsForUser({ userId: actor.userId }), listArmsForUser({ userId: actor.userId })]);
+  const [projects, arms] = await Promise.all([
+    listProjectsForUser({ userId: actor.userId }),
+    listArmsForUser({ userId: actor.userId }),
+  ]);
   const withPlans: DashboardProject[] = await Promise.all(
     projects.map(async (p) => ({
       id: p.id,

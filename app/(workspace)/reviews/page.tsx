@@ -15,7 +15,9 @@ type Search = Record<string, string | string[] | undefined>;
 export default async function ReviewsPage({ searchParams }: { searchParams: Promise<Search> }) {
   const raw = await searchParams;
   const actor = await requirePageActor("/reviews");
-  const flat = Object.fromEntries(Object.entries(raw).flatMap(([k, v]) => (typeof v === "string" && v !== "" ? [[k, v]] : [])));
+  const flat = Object.fromEntries(
+    Object.entries(raw).flatMap(([k, v]) => (typeof v === "string" && v !== "" ? [[k, v]] : [])),
+  );
   const parsed = queueQuerySchema.safeParse(flat);
   const filter = parsed.success ? parsed.data : queueQuerySchema.parse({});
   const [queue, mine, courses] = await Promise.all([
@@ -30,7 +32,16 @@ export default async function ReviewsPage({ searchParams }: { searchParams: Prom
       teaches={taught.length > 0}
       courses={taught.map((c) => ({ id: c.id, title: c.title }))}
       queue={queue.map((q) => ({ ...q, submittedAt: q.submittedAt.toISOString(), dueAt: q.dueAt.toISOString() }))}
-      mine={mine.map((m) => ({ id: m.id, assignmentTitle: m.assignmentTitle, courseTitle: m.courseTitle, submittedAt: m.submittedAt.toISOString(), attempt: m.attempt, verdict: m.verdict, status: m.status, late: m.late }))}
+      mine={mine.map((m) => ({
+        id: m.id,
+        assignmentTitle: m.assignmentTitle,
+        courseTitle: m.courseTitle,
+        submittedAt: m.submittedAt.toISOString(),
+        attempt: m.attempt,
+        verdict: m.verdict,
+        status: m.status,
+        late: m.late,
+      }))}
     />
   );
 }

@@ -12,9 +12,13 @@ export async function GET(): Promise<NextResponse> {
   try {
     if (await databaseAnswers()) db = "up";
   } catch (err) {
-    logger.warn({ err: { message: err instanceof Error ? err.message : String(err) } }, "health: database query failed");
+    logger.warn(
+      { err: { message: err instanceof Error ? err.message : String(err) } },
+      "health: database query failed",
+    );
   }
-  if (db === "up") return NextResponse.json({ ok: true, db, version: pkg.version }, { headers: { "Cache-Control": "no-store" } });
+  if (db === "up")
+    return NextResponse.json({ ok: true, db, version: pkg.version }, { headers: { "Cache-Control": "no-store" } });
   return NextResponse.json(
     { ok: false, db, version: pkg.version },
     { status: 503, headers: { "Cache-Control": "no-store", "Retry-After": String(DATABASE_RETRY_AFTER_S) } },

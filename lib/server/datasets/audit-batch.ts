@@ -6,7 +6,12 @@
  */
 import "server-only";
 import { auditEpisode, type Episode, type EpisodeAudit } from "@/kinematics";
-import { claimDatasetBatchForWorker, getDatasetArmForWorker, storeDatasetBatchResults, type EpisodeResult } from "@/db/queries/datasets";
+import {
+  claimDatasetBatchForWorker,
+  getDatasetArmForWorker,
+  storeDatasetBatchResults,
+  type EpisodeResult,
+} from "@/db/queries/datasets";
 import { armOfRevision, readStoredDataset } from "./dataset-file";
 import type { DatasetJob } from "./queue";
 
@@ -34,7 +39,10 @@ export function episodeResult(index: number, episode: Episode, audit: EpisodeAud
 export type BatchOutcome = "stored" | "skipped";
 
 /** Runs one batch job; throws when it cannot (pg-boss then retries it). */
-export async function runDatasetBatch(job: DatasetJob, options: { beforeStore?: () => Promise<void> } = {}): Promise<BatchOutcome> {
+export async function runDatasetBatch(
+  job: DatasetJob,
+  options: { beforeStore?: () => Promise<void> } = {},
+): Promise<BatchOutcome> {
   const claimed = await claimDatasetBatchForWorker(job);
   if (!claimed) return "skipped"; // done already, or an audit of a newer generation started
   const revision = await getDatasetArmForWorker({ datasetId: job.datasetId });

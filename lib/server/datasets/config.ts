@@ -5,7 +5,11 @@ import { z } from "zod";
 
 const datasetEnvSchema = z.object({
   /** Largest dataset upload, bytes (default 2 GiB; a single recording's limit is UPLOAD_LIMIT_BYTES). */
-  DATASET_UPLOAD_LIMIT_BYTES: z.coerce.number().int().positive().default(2 * 1024 ** 3),
+  DATASET_UPLOAD_LIMIT_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(2 * 1024 ** 3),
   /** Episodes per audit job. */
   DATASET_BATCH_SIZE: z.coerce.number().int().min(1).max(10_000).default(25),
   /** Worker processes `run-workers.ts` starts on this machine. */

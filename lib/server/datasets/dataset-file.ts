@@ -18,7 +18,15 @@ export function fileKindOf(head: Uint8Array): "parquet" | "zip" | "csv" {
 /** The name the engine sees for a stored single file (the zip's own names are kept). */
 function innerName(name: string, kind: string): string {
   const base = name.replace(/[^A-Za-z0-9._-]+/g, "-") || "dataset";
-  return kind === "parquet" ? (base.endsWith(".parquet") ? base : `${base}.parquet`) : kind === "csv" ? (base.endsWith(".csv") ? base : `${base}.csv`) : `${base}.zip`;
+  return kind === "parquet"
+    ? base.endsWith(".parquet")
+      ? base
+      : `${base}.parquet`
+    : kind === "csv"
+      ? base.endsWith(".csv")
+        ? base
+        : `${base}.csv`
+      : `${base}.zip`;
 }
 
 const cache = new Map<string, Promise<DatasetReadResult>>();

@@ -17,8 +17,12 @@ export function datasetMembership(found: DatasetForUser) {
 }
 
 /** The arm revision chosen for the dataset; 422 when none is chosen yet. */
-export async function loadDatasetArm(actor: Actor, found: DatasetForUser): Promise<{ id: string; description: unknown }> {
+export async function loadDatasetArm(
+  actor: Actor,
+  found: DatasetForUser,
+): Promise<{ id: string; description: unknown }> {
   const revision = await getDatasetArmForUser({ datasetId: found.dataset.id, userId: actor.userId });
-  if (!revision) throw new AppError("unprocessable:mapping", "Choose the arm and the column mapping first (POST …/mapping).");
+  if (!revision)
+    throw new AppError("unprocessable:mapping", "Choose the arm and the column mapping first (POST …/mapping).");
   return revision;
 }

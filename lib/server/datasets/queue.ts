@@ -25,7 +25,12 @@ export function getDatasetBoss({ supervise = false }: { supervise?: boolean } = 
       schedule: false,
       application_name: "jointproof-datasets",
       // expired jobs are found by maintenance: look often enough that a lost batch is retried soon
-      ...(supervise ? { maintenanceIntervalSeconds: Math.max(1, Math.min(60, datasetEnv().DATASET_SWEEP_S)), monitorStateIntervalSeconds: 60 } : {}),
+      ...(supervise
+        ? {
+            maintenanceIntervalSeconds: Math.max(1, Math.min(60, datasetEnv().DATASET_SWEEP_S)),
+            monitorStateIntervalSeconds: 60,
+          }
+        : {}),
     });
     boss.on("error", (err) => console.error("[datasets] queue error:", err.message));
     await boss.start();
@@ -52,7 +57,10 @@ function jobId(job: DatasetJob): string {
 }
 
 /** Enqueues batch jobs; a batch already queued is not queued twice. `fresh` gives lost jobs a new id. */
-export async function enqueueDatasetBatches(jobs: DatasetJob[], { fresh = false }: { fresh?: boolean } = {}): Promise<void> {
+export async function enqueueDatasetBatches(
+  jobs: DatasetJob[],
+  { fresh = false }: { fresh?: boolean } = {},
+): Promise<void> {
   if (jobs.length === 0) return;
   const boss = await getDatasetBoss();
   const e = datasetEnv();

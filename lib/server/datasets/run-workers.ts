@@ -17,7 +17,10 @@ let stopping = false;
 let ready = 0;
 
 function start(): void {
-  const child = fork(script, [], { execArgv: ["--conditions=react-server", "--import", "tsx"], stdio: ["ignore", "pipe", "inherit", "ipc"] });
+  const child = fork(script, [], {
+    execArgv: ["--conditions=react-server", "--import", "tsx"],
+    stdio: ["ignore", "pipe", "inherit", "ipc"],
+  });
   children.add(child);
   child.stdout?.on("data", (chunk: Buffer) => {
     process.stdout.write(chunk);

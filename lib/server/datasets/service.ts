@@ -52,9 +52,15 @@ export async function storeUpload(request: Request, projectId: string): Promise<
   const header = request.headers.get("content-length");
   const declared = header === null ? NaN : Number(header);
   if (!Number.isSafeInteger(declared) || declared < 0) {
-    throw new AppError("bad_request:length", "Send the dataset with a Content-Length header (the upload is stored whole or not at all).");
+    throw new AppError(
+      "bad_request:length",
+      "Send the dataset with a Content-Length header (the upload is stored whole or not at all).",
+    );
   }
-  if (declared > limit) throw new AppError("payload_too_large", `The dataset is larger than the limit of ${limit} bytes.`, { details: { limitBytes: limit } });
+  if (declared > limit)
+    throw new AppError("payload_too_large", `The dataset is larger than the limit of ${limit} bytes.`, {
+      details: { limitBytes: limit },
+    });
   if (declared === 0 || !request.body) throw new AppError("unprocessable:dataset", "The dataset file is empty.");
   const hash = createHash("sha256");
   const head = new Uint8Array(4);
@@ -83,12 +89,19 @@ export async function storeUpload(request: Request, projectId: string): Promise<
     await putObjectStream(key, body, declared, "application/octet-stream", abort.signal);
   } catch (err) {
     await deleteObject(key).catch(() => undefined);
-    if (seen !== declared) throw new AppError("bad_request:length", `The upload was cut: ${seen} of ${declared} bytes arrived; nothing was stored.`);
+    if (seen !== declared)
+      throw new AppError(
+        "bad_request:length",
+        `The upload was cut: ${seen} of ${declared} bytes arrived; nothing was stored.`,
+      );
     throw err;
   }
   if (seen !== declared) {
     await deleteObject(key).catch(() => undefined);
-    throw new AppError("bad_request:length", `The upload was cut: ${seen} of ${declared} bytes arrived; nothing was stored.`);
+    throw new AppError(
+      "bad_request:length",
+      `The upload was cut: ${seen} of ${declared} bytes arrived; nothing was stored.`,
+    );
   }
   return { key, sizeBytes: declared, sha256: hash.digest("hex"), fileKind: fileKindOf(head) };
 }
@@ -100,7 +113,8 @@ export async function previewDataset(dataset: Dataset, arm: Arm, armKey: string,
   const rows: number[][] = [];
   if (first) {
     const { count, jointCount, timeS, position } = first.recording;
-    for (let k = 0; k < Math.min(5, count); k++) rows.push([timeS[k], ...Array.from(position.subarray(k * jointCount, k * jointCount + jointCount))]);
+    for (let k = 0; k < Math.min(5, count); k++)
+      rows.push([timeS[k], ...Array.from(position.subarray(k * jointCount, k * jointCount + jointCount))]);
   }
   return {
     files: read.files.slice(0, 20),
@@ -113,7 +127,11 @@ export async function previewDataset(dataset: Dataset, arm: Arm, armKey: string,
 }
 
 /** Starts the audit of a mapped dataset: counts its episodes, creates the batches and their jobs. */
-export async function startAudit(found: DatasetForUser, userId: string, revision: { id: string; description: unknown }) {
+export async function startAudit(
+  found: DatasetForUser,
+  userId: string,
+  revision: { id: string; description: unknown },
+) {
   const arm = armOfRevision(revision.description);
   const read = await readStoredDataset(found.dataset, arm, revision.id, found.dataset.mapping);
   if (read.problems.length > 0) {
@@ -121,10 +139,17 @@ export async function startAudit(found: DatasetForUser, userId: string, revision
       issues: read.problems.slice(0, 50).map((message) => ({ path: "(file)", message })),
     });
   }
-  const started = await startDatasetAudit({ datasetId: found.dataset.id, userId, episodeCount: read.episodes.length, batchSize: datasetEnv().DATASET_BATCH_SIZE });
+  const started = await startDatasetAudit({
+    datasetId: found.dataset.id,
+    userId,
+    episodeCount: read.episodes.length,
+    batchSize: datasetEnv().DATASET_BATCH_SIZE,
+  });
   if (!started) throw new AppError("not_found:dataset", "No such dataset.");
   try {
-    await enqueueDatasetBatches(started.batches.map((batch) => ({ datasetId: found.dataset.id, generation: started.dataset.generation, batch })));
+    await enqueueDatasetBatches(
+      started.batches.map((batch) => ({ datasetId: found.dataset.id, generation: started.dataset.generation, batch })),
+    );
   } catch (err) {
     // the batches are committed; a worker's sweep enqueues them
     console.error("[datasets] could not enqueue (the sweep will):", err instanceof Error ? err.message : err);
@@ -135,7 +160,8 @@ export async function startAudit(found: DatasetForUser, userId: string, revision
 /** The episodes of a dataset with the repaired ones in place of their originals. */
 async function currentEpisodes(found: DatasetForUser, userId: string, arm: Arm, revisionId: string) {
   const read = await readStoredDataset(found.dataset, arm, revisionId, found.dataset.mapping);
-  if (read.problems.length > 0) throw new AppError("unprocessable:dataset", `The dataset cannot be read with its mapping: ${read.problems[0]}`);
+  if (read.problems.length > 0)
+    throw new AppError("unprocessable:dataset", `The dataset cannot be read with its mapping: ${read.problems[0]}`);
   const repairs = await listDatasetRepairs({ datasetId: found.dataset.id, userId });
   return { read, repairs };
 }
@@ -144,18 +170,42 @@ async function currentEpisodes(found: DatasetForUser, userId: string, arm: Arm, 
  * Repairs episodes (the given indices, or every one with findings) and audits each result again.
  * Invalid episodes are not repaired (they could not be checked). Returns what was done per episode.
  */
-export async function repairDatasetEpisodes(found: DatasetForUser, userId: string, revision: { id: string; description: unknown }, indices?: number[]) {
+export async function repairDatasetEpisodes(
+  found: DatasetForUser,
+  userId: string,
+  revision: { id: string; description: unknown },
+  indices?: number[],
+) {
   const arm = armOfRevision(revision.description);
   const read = await readStoredDataset(found.dataset, arm, revision.id, found.dataset.mapping);
-  if (read.problems.length > 0) throw new AppError("unprocessable:dataset", `The dataset cannot be read with its mapping: ${read.problems[0]}`);
+  if (read.problems.length > 0)
+    throw new AppError("unprocessable:dataset", `The dataset cannot be read with its mapping: ${read.problems[0]}`);
   const rows = await listDatasetEpisodes({ datasetId: found.dataset.id, userId });
   const wanted = indices ? new Set(indices) : null;
-  const results: { index: number; episode: string; before: string; after: string | null; glitchesReplaced: number; framesFilled: number; maxDeviation: number[]; note?: string }[] = [];
+  const results: {
+    index: number;
+    episode: string;
+    before: string;
+    after: string | null;
+    glitchesReplaced: number;
+    framesFilled: number;
+    maxDeviation: number[];
+    note?: string;
+  }[] = [];
   for (const row of rows) {
     if (wanted ? !wanted.has(row.index) : row.findingCount === 0) continue;
     const episode = read.episodes[row.index];
     if (!episode || row.verdict === "invalid") {
-      results.push({ index: row.index, episode: row.episode, before: row.verdict, after: null, glitchesReplaced: 0, framesFilled: 0, maxDeviation: [], note: "invalid episodes cannot be repaired" });
+      results.push({
+        index: row.index,
+        episode: row.episode,
+        before: row.verdict,
+        after: null,
+        glitchesReplaced: 0,
+        framesFilled: 0,
+        maxDeviation: [],
+        note: "invalid episodes cannot be repaired",
+      });
       continue;
     }
     const repair = repairEpisode(arm, episode.recording);
@@ -168,20 +218,41 @@ export async function repairDatasetEpisodes(found: DatasetForUser, userId: strin
       verdict: audit.verdict,
       findings: audit.findings,
     });
-    results.push({ index: row.index, episode: row.episode, before: row.verdict, after: audit.verdict, glitchesReplaced: repair.glitchesReplaced, framesFilled: repair.framesFilled, maxDeviation: repair.maxDeviation });
+    results.push({
+      index: row.index,
+      episode: row.episode,
+      before: row.verdict,
+      after: audit.verdict,
+      glitchesReplaced: repair.glitchesReplaced,
+      framesFilled: repair.framesFilled,
+      maxDeviation: repair.maxDeviation,
+    });
   }
-  if (wanted) for (const i of wanted) if (!rows.some((r) => r.index === i)) throw new AppError("not_found:episode", `No episode ${i + 1} in this dataset.`);
+  if (wanted)
+    for (const i of wanted)
+      if (!rows.some((r) => r.index === i))
+        throw new AppError("not_found:episode", `No episode ${i + 1} in this dataset.`);
   return results;
 }
 
 /** One episode's data for the episode view: recorded, and repaired when there is a repair. */
-export async function episodeData(found: DatasetForUser, userId: string, revision: { id: string; description: unknown }, index: number) {
+export async function episodeData(
+  found: DatasetForUser,
+  userId: string,
+  revision: { id: string; description: unknown },
+  index: number,
+) {
   const arm = armOfRevision(revision.description);
   const { read, repairs } = await currentEpisodes(found, userId, arm, revision.id);
   const episode = read.episodes[index];
   if (!episode) throw new AppError("not_found:episode", `No episode ${index + 1} in this dataset.`);
   const names = arm.joints.map((j) => j.name);
-  const toJson = (e: Episode["recording"]) => ({ timeS: Array.from(e.timeS), position: Array.from(e.position), jointCount: e.jointCount, count: e.count });
+  const toJson = (e: Episode["recording"]) => ({
+    timeS: Array.from(e.timeS),
+    position: Array.from(e.position),
+    jointCount: e.jointCount,
+    count: e.count,
+  });
   const stored = repairs.get(index);
   const repaired = stored ? decodeEpisode(stored, names) : null;
   return {
@@ -202,7 +273,11 @@ export const exportFiles = { data: "dataset.parquet", report: "report.json", man
  * SHA-256 of both, with its own `export.sha256` so `jointproof verify manifest.json` accepts it).
  * Invalid episodes are excluded and listed, never silently dropped.
  */
-export async function exportDataset(found: DatasetForUser, userId: string, revision: { id: string; description: unknown }): Promise<Uint8Array> {
+export async function exportDataset(
+  found: DatasetForUser,
+  userId: string,
+  revision: { id: string; description: unknown },
+): Promise<Uint8Array> {
   const arm = armOfRevision(revision.description);
   const { read, repairs } = await currentEpisodes(found, userId, arm, revision.id);
   const names = arm.joints.map((j) => j.name);
@@ -213,7 +288,9 @@ export async function exportDataset(found: DatasetForUser, userId: string, revis
     const original = read.episodes[i];
     const stored = repairs.get(i);
     const decoded = stored ? decodeEpisode(stored, names) : null;
-    const episode: EpisodeToWrite = decoded ? { id: original.id, recording: decoded.recording, filled: decoded.filled } : original;
+    const episode: EpisodeToWrite = decoded
+      ? { id: original.id, recording: decoded.recording, filled: decoded.filled }
+      : original;
     const audit = auditEpisode(arm, episode);
     if (audit.verdict === "invalid") {
       excluded.push({ index: i, episode: original.id, reason: audit.problems[0] ?? "invalid" });
@@ -224,9 +301,29 @@ export async function exportDataset(found: DatasetForUser, userId: string, revis
   }
   // the columns the dataset was read from (episode, time, joints or one joints list), so it reads back with the same mapping
   const mapping = columnMappingSchema.parse(found.dataset.mapping ?? {});
-  const parquet = writeEpisodesParquet(arm, kept, { columns: { episode: mapping.episodeColumn, time: mapping.timeColumn, joints: mapping.jointColumns, jointsList: mapping.jointsColumn } });
+  const parquet = writeEpisodesParquet(arm, kept, {
+    columns: {
+      episode: mapping.episodeColumn,
+      time: mapping.timeColumn,
+      joints: mapping.jointColumns,
+      jointsList: mapping.jointsColumn,
+    },
+  });
   const report = strToU8(
-    JSON.stringify({ format: "jointproof.dataset-report", dataset: found.dataset.name, arm: arm.name, check: "timed replay", summary: summarizeAudits(audits), episodes: audits, excluded, caution: SAFETY_TEXT }, null, 2) + "\n",
+    JSON.stringify(
+      {
+        format: "jointproof.dataset-report",
+        dataset: found.dataset.name,
+        arm: arm.name,
+        check: "timed replay",
+        summary: summarizeAudits(audits),
+        episodes: audits,
+        excluded,
+        caution: SAFETY_TEXT,
+      },
+      null,
+      2,
+    ) + "\n",
   );
   const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
   const manifestBody = {
@@ -245,19 +342,41 @@ export async function exportDataset(found: DatasetForUser, userId: string, revis
   // export.sha256: SHA-256 of JSON.stringify of the document without it, keys in order (bin/export-checksum.ts)
   manifestBody.export.sha256 = sha(strToU8(JSON.stringify(manifestBody)));
   const manifest = strToU8(JSON.stringify(manifestBody, null, 2) + "\n");
-  return zipSync({ [exportFiles.data]: [parquet, { level: 0 }], [exportFiles.report]: report, [exportFiles.manifest]: manifest });
+  return zipSync({
+    [exportFiles.data]: [parquet, { level: 0 }],
+    [exportFiles.report]: report,
+    [exportFiles.manifest]: manifest,
+  });
 }
 
 /** The replay plan of one episode (repaired when there is a repair), checked, with the caution. */
-export async function episodeReplayPlan(found: DatasetForUser, userId: string, revision: { id: string; description: unknown }, index: number) {
+export async function episodeReplayPlan(
+  found: DatasetForUser,
+  userId: string,
+  revision: { id: string; description: unknown },
+  index: number,
+) {
   const arm = armOfRevision(revision.description);
   const { read, repairs } = await currentEpisodes(found, userId, arm, revision.id);
   const original = read.episodes[index];
   if (!original) throw new AppError("not_found:episode", `No episode ${index + 1} in this dataset.`);
   const stored = repairs.get(index);
-  const recording = stored ? decodeEpisode(stored, arm.joints.map((j) => j.name)).recording : original.recording;
+  const recording = stored
+    ? decodeEpisode(
+        stored,
+        arm.joints.map((j) => j.name),
+      ).recording
+    : original.recording;
   const audit = auditEpisode(arm, { id: original.id, recording });
-  if (audit.verdict === "invalid") throw new AppError("unprocessable:episode", `Episode ${index + 1} cannot be replayed: ${audit.problems[0]}`);
+  if (audit.verdict === "invalid")
+    throw new AppError("unprocessable:episode", `Episode ${index + 1} cannot be replayed: ${audit.problems[0]}`);
   const replay = replayPlanOf(arm, recording);
-  return { plan: replay.plan, report: replay.report, easeInS: replay.easeInS, easeOutS: replay.easeOutS, repaired: stored !== undefined, caution: SAFETY_TEXT };
+  return {
+    plan: replay.plan,
+    report: replay.report,
+    easeInS: replay.easeInS,
+    easeOutS: replay.easeOutS,
+    repaired: stored !== undefined,
+    caution: SAFETY_TEXT,
+  };
 }

@@ -24,7 +24,9 @@ export async function sweepDatasetBatches({ fresh = false }: { fresh?: boolean }
 }
 
 /** Starts working the dataset queue in this process; `stop` waits for the job in hand. */
-export async function startDatasetWorker({ pollingIntervalSeconds = 1 }: { pollingIntervalSeconds?: number } = {}): Promise<DatasetWorker> {
+export async function startDatasetWorker({
+  pollingIntervalSeconds = 1,
+}: { pollingIntervalSeconds?: number } = {}): Promise<DatasetWorker> {
   const boss = await getDatasetBoss({ supervise: true });
   let workerId = "";
   workerId = await boss.work<DatasetJob>(
@@ -37,7 +39,9 @@ export async function startDatasetWorker({ pollingIntervalSeconds = 1 }: { polli
     },
   );
   const sweep = () => {
-    sweepDatasetBatches().catch((err: unknown) => console.error("[datasets] sweep failed:", err instanceof Error ? err.message : err));
+    sweepDatasetBatches().catch((err: unknown) =>
+      console.error("[datasets] sweep failed:", err instanceof Error ? err.message : err),
+    );
   };
   sweep();
   const timer = setInterval(sweep, datasetEnv().DATASET_SWEEP_S * 1000);

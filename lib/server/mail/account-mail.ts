@@ -39,9 +39,21 @@ export async function requestPasswordReset({ email }: { email: string }): Promis
   const since = new Date(Date.now() - RESET_REQUEST_LIMIT.windowMinutes * 60_000);
   if ((await countPasswordResetsSince({ email, since })) >= RESET_REQUEST_LIMIT.perEmail) return;
   const { token, hash } = newToken();
-  const user = await createAccountToken({ email, purpose: "password-reset", tokenHash: hash, expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000) });
+  const user = await createAccountToken({
+    email,
+    purpose: "password-reset",
+    tokenHash: hash,
+    expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000),
+  });
   if (!user) return;
-  const ids = await queueMail([{ kind: "password-reset", dedupeKey: `password-reset:${hash}`, toAddress: user.email, ...passwordReset({ name: user.name, token, validMinutes: RESET_VALID_MINUTES }) }]);
+  const ids = await queueMail([
+    {
+      kind: "password-reset",
+      dedupeKey: `password-reset:${hash}`,
+      toAddress: user.email,
+      ...passwordReset({ name: user.name, token, validMinutes: RESET_VALID_MINUTES }),
+    },
+  ]);
   await enqueueMail(ids);
 }
 
@@ -51,7 +63,10 @@ export async function requestPasswordReset({ email }: { email: string }): Promis
  * `passwordSchema`. False when the token is unknown, used or expired.
  */
 export async function resetPassword({ token, password }: { token: string; password: string }): Promise<boolean> {
-  const userId = await setPasswordWithResetToken({ tokenHash: hashAccountToken(token), passwordHash: await bcrypt.hash(password, 10) });
+  const userId = await setPasswordWithResetToken({
+    tokenHash: hashAccountToken(token),
+    passwordHash: await bcrypt.hash(password, 10),
+  });
   if (!userId) return false;
   // The account's owner is the actor: the one-time token proves they read the e-mail.
   await recordAudit({ actorId: userId, action: "account.password_reset", targetType: "user", targetId: userId });
@@ -61,9 +76,21 @@ export async function resetPassword({ token, password }: { token: string; passwo
 /** Queues the verification e-mail for an address (after sign-up, or on request). */
 export async function requestEmailVerification({ email }: { email: string }): Promise<void> {
   const { token, hash } = newToken();
-  const user = await createAccountToken({ email, purpose: "email-verification", tokenHash: hash, expiresAt: new Date(Date.now() + VERIFY_VALID_MINUTES * 60_000) });
+  const user = await createAccountToken({
+    email,
+    purpose: "email-verification",
+    tokenHash: hash,
+    expiresAt: new Date(Date.now() + VERIFY_VALID_MINUTES * 60_000),
+  });
   if (!user) return;
-  const ids = await queueMail([{ kind: "email-verification", dedupeKey: `email-verification:${hash}`, toAddress: user.email, ...emailVerification({ name: user.name, token, validMinutes: VERIFY_VALID_MINUTES }) }]);
+  const ids = await queueMail([
+    {
+      kind: "email-verification",
+      dedupeKey: `email-verification:${hash}`,
+      toAddress: user.email,
+      ...emailVerification({ name: user.name, token, validMinutes: VERIFY_VALID_MINUTES }),
+    },
+  ]);
   await enqueueMail(ids);
 }
 

@@ -8,7 +8,10 @@ const mailEnvSchema = z.object({
   SMTP_HOST: z.string().min(1).default("127.0.0.1"),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
   /** `true` for implicit TLS (port 465); otherwise STARTTLS is used when the server offers it. */
-  SMTP_SECURE: z.enum(["true", "false"]).default("false").transform((v) => v === "true"),
+  SMTP_SECURE: z
+    .enum(["true", "false"])
+    .default("false")
+    .transform((v) => v === "true"),
   SMTP_USER: z.string().min(1).optional(),
   SMTP_PASS: z.string().min(1).optional(),
   SMTP_FROM: z.string().min(3).default("Jointproof <no-reply@example.com>"),

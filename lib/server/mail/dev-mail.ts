@@ -35,7 +35,10 @@ export function listeningAddresses(): string[] {
 }
 
 /** Whether this process serves only loopback: APP_URL is loopback and no socket listens elsewhere. */
-export function servesLoopbackOnly(appUrl: string = env().APP_URL, addresses: string[] = listeningAddresses()): boolean {
+export function servesLoopbackOnly(
+  appUrl: string = env().APP_URL,
+  addresses: string[] = listeningAddresses(),
+): boolean {
   if (!LOOPBACK.test(new URL(appUrl).hostname)) return false;
   // A Unix socket path (starts with "/") is local too.
   return addresses.every((a) => LOOPBACK.test(a) || a.startsWith("/"));
@@ -51,7 +54,17 @@ export function devMailEnabled(): boolean {
 export type DevMailView = {
   dir: string | null;
   messages: FakeMessage[];
-  outbox: { id: string; kind: string; toAddress: string; subject: string; status: string; attempts: number; lastError: string | null; createdAt: string; sentAt: string | null }[];
+  outbox: {
+    id: string;
+    kind: string;
+    toAddress: string;
+    subject: string;
+    status: string;
+    attempts: number;
+    lastError: string | null;
+    createdAt: string;
+    sentAt: string | null;
+  }[];
 };
 
 /** Newest first. */

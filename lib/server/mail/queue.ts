@@ -22,7 +22,13 @@ const globalForBoss = globalThis as unknown as { jointproofBoss?: Promise<PgBoss
  */
 export function getBoss({ supervise = false }: { supervise?: boolean } = {}): Promise<PgBoss> {
   globalForBoss.jointproofBoss ??= (async () => {
-    const boss = new PgBoss({ connectionString: env().DATABASE_URL, max: 3, supervise, schedule: false, application_name: "jointproof-mail" });
+    const boss = new PgBoss({
+      connectionString: env().DATABASE_URL,
+      max: 3,
+      supervise,
+      schedule: false,
+      application_name: "jointproof-mail",
+    });
     boss.on("error", (err) => console.error("[mail] queue error:", err.message));
     await boss.start();
     await boss.createQueue(MAIL_QUEUE);
@@ -44,7 +50,12 @@ export async function stopBoss(): Promise<void> {
 /** The retry policy of a mail job: exponential back-off from MAIL_RETRY_DELAY_S. */
 export function retryOptions() {
   const e = mailEnv();
-  return { retryLimit: e.MAIL_RETRY_LIMIT, retryDelay: e.MAIL_RETRY_DELAY_S, retryBackoff: true, expireInSeconds: JOB_EXPIRE_S };
+  return {
+    retryLimit: e.MAIL_RETRY_LIMIT,
+    retryDelay: e.MAIL_RETRY_DELAY_S,
+    retryBackoff: true,
+    expireInSeconds: JOB_EXPIRE_S,
+  };
 }
 
 /**
@@ -56,7 +67,11 @@ export async function enqueueMail(ids: string[], options: { jobId?: "row" | "fre
   try {
     const boss = await getBoss();
     for (const id of ids) {
-      await boss.send(MAIL_QUEUE, { outboxId: id }, { ...retryOptions(), ...(options.jobId === "fresh" ? {} : { id }) });
+      await boss.send(
+        MAIL_QUEUE,
+        { outboxId: id },
+        { ...retryOptions(), ...(options.jobId === "fresh" ? {} : { id }) },
+      );
     }
     await markOutboxEnqueued({ ids });
   } catch (err) {

@@ -35,6 +35,13 @@ function existingAccountNote(): MailContent {
 /** Queues the note for an existing account's address (at most one per address per 15 minutes). */
 export async function notifyExistingAccountSignUp({ email }: { email: string }): Promise<void> {
   const bucket = Math.floor(Date.now() / NOTE_WINDOW_MS);
-  const ids = await queueMail([{ kind: "sign-up-existing", dedupeKey: `sign-up-existing:${email.toLowerCase()}:${bucket}`, toAddress: email.toLowerCase(), ...existingAccountNote() }]);
+  const ids = await queueMail([
+    {
+      kind: "sign-up-existing",
+      dedupeKey: `sign-up-existing:${email.toLowerCase()}:${bucket}`,
+      toAddress: email.toLowerCase(),
+      ...existingAccountNote(),
+    },
+  ]);
   await enqueueMail(ids);
 }

@@ -8,7 +8,10 @@ export type MailContent = { subject: string; text: string; html: string };
 
 /** Escapes text for HTML element content and attribute values. */
 export function escapeHtml(value: string): string {
-  return value.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c] ?? c);
+  return value.replace(
+    /[&<>"']/g,
+    (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c] ?? c,
+  );
 }
 
 /** An absolute link into the app. */
@@ -17,7 +20,12 @@ export function appLink(path: string): string {
 }
 
 /** Paragraphs and one call to action, as text and as HTML. */
-function compose(subject: string, paragraphs: string[], action: { label: string; url: string }, footer?: string): MailContent {
+function compose(
+  subject: string,
+  paragraphs: string[],
+  action: { label: string; url: string },
+  footer?: string,
+): MailContent {
   const foot = footer ?? "You receive this because of your account on Jointproof.";
   const text = [...paragraphs, `${action.label}: ${action.url}`, "", "--", foot].join("\n\n");
   const html = [
@@ -31,7 +39,12 @@ function compose(subject: string, paragraphs: string[], action: { label: string;
   return { subject, text, html };
 }
 
-export function courseInvitation(input: { courseTitle: string; term: string; instructorName: string; joinCode: string }): MailContent {
+export function courseInvitation(input: {
+  courseTitle: string;
+  term: string;
+  instructorName: string;
+  joinCode: string;
+}): MailContent {
   const url = appLink(`/courses/join?code=${encodeURIComponent(input.joinCode)}`);
   return compose(
     `Invitation to ${input.courseTitle} (${input.term})`,
@@ -56,7 +69,9 @@ export function submissionReceived(input: {
 }): MailContent {
   const facts = [
     `Verdict against the assignment's limits: ${input.verdict}.`,
-    input.ruleProblemCount > 0 ? `Assignment rules not met: ${input.ruleProblemCount}.` : "All assignment rules are met.",
+    input.ruleProblemCount > 0
+      ? `Assignment rules not met: ${input.ruleProblemCount}.`
+      : "All assignment rules are met.",
     input.late ? "Submitted after the due date." : "Submitted on time.",
   ].join(" ");
   return compose(
@@ -83,7 +98,9 @@ export function submissionDecided(input: {
     ? [
         `${input.reviewerName} approved your plan for ${input.assignmentTitle} in ${input.courseTitle}: your instructor accepted the work for this assignment.`,
         ...(input.faultApprovalReason
-          ? [`The server's check found faults in this plan; they are still there. ${input.reviewerName} approved it anyway, for this reason: ${input.faultApprovalReason}`]
+          ? [
+              `The server's check found faults in this plan; they are still there. ${input.reviewerName} approved it anyway, for this reason: ${input.faultApprovalReason}`,
+            ]
           : []),
         "Approval is not a clearance to run the plan. Whether and how anything runs on the lab's arm is decided by your lab's safety rules and the people responsible for the arm; Jointproof's check is a prediction from a model, not a guarantee.",
       ]
@@ -114,7 +131,10 @@ export function passwordReset(input: { name: string; token: string; validMinutes
 export function emailVerification(input: { name: string; token: string; validMinutes: number }): MailContent {
   return compose(
     "Confirm your e-mail address",
-    [`Hello ${input.name},`, `Confirm that this address is yours. The link works once, for ${input.validMinutes} minutes.`],
+    [
+      `Hello ${input.name},`,
+      `Confirm that this address is yours. The link works once, for ${input.validMinutes} minutes.`,
+    ],
     { label: "Confirm the address", url: appLink(`/verify-email?token=${encodeURIComponent(input.token)}`) },
   );
 }

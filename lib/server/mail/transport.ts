@@ -30,7 +30,9 @@ export function messageIdFor(outboxId: string): string {
 }
 
 /** Hands one outbox message to the SMTP server; resolves with its Message-ID when accepted. */
-export async function deliver(row: Pick<MailOutboxRow, "id" | "kind" | "toAddress" | "subject" | "text" | "html">): Promise<string> {
+export async function deliver(
+  row: Pick<MailOutboxRow, "id" | "kind" | "toAddress" | "subject" | "text" | "html">,
+): Promise<string> {
   const messageId = messageIdFor(row.id);
   await getTransport().sendMail({
     from: mailEnv().SMTP_FROM,

@@ -61,7 +61,9 @@ export async function startMailWorker({
     },
   );
   const sweep = () => {
-    sweepOutbox().catch((err: unknown) => console.error("[mail] sweep failed:", err instanceof Error ? err.message : err));
+    sweepOutbox().catch((err: unknown) =>
+      console.error("[mail] sweep failed:", err instanceof Error ? err.message : err),
+    );
   };
   sweep();
   const timer = setInterval(sweep, sweepIntervalMs);

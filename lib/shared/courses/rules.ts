@@ -30,7 +30,10 @@ export function tightenArm(arm: Arm, ...limits: (Limits | null | undefined)[]): 
       if (joint.min > joint.max) joint.min = joint.max;
       if (cap.maxVelocity !== undefined) joint.maxVelocity = Math.min(joint.maxVelocity, cap.maxVelocity);
       if (cap.maxAcceleration !== undefined) {
-        joint.maxAcceleration = joint.maxAcceleration === undefined ? cap.maxAcceleration : Math.min(joint.maxAcceleration, cap.maxAcceleration);
+        joint.maxAcceleration =
+          joint.maxAcceleration === undefined
+            ? cap.maxAcceleration
+            : Math.min(joint.maxAcceleration, cap.maxAcceleration);
       }
     }
   }
@@ -61,7 +64,10 @@ export type RequiredPoseStatus = { start: boolean | null; goals: boolean[] };
  * Whether the plan meets each required pose, within the tolerance: the start pose (`null` when none is
  * required), and the required goals reached in order by some of the plan's moves (others may come between).
  */
-export function requiredPoseStatus(plan: Plan, rules: Pick<AssignmentRules, "requiredStart" | "requiredGoals" | "poseTolerance">): RequiredPoseStatus {
+export function requiredPoseStatus(
+  plan: Plan,
+  rules: Pick<AssignmentRules, "requiredStart" | "requiredGoals" | "poseTolerance">,
+): RequiredPoseStatus {
   const start = rules.requiredStart ? near(plan.start, rules.requiredStart, rules.poseTolerance) : null;
   const required = rules.requiredGoals ?? [];
   let next = 0;
@@ -76,22 +82,40 @@ export function requiredPoseStatus(plan: Plan, rules: Pick<AssignmentRules, "req
 export function ruleProblems(plan: Plan, armRevisionId: string, rules: AssignmentRules): RuleProblem[] {
   const out: RuleProblem[] = [];
   const n = plan.arm.joints.length;
-  if (armRevisionId !== rules.requiredArmRevisionId || (rules.courseArmRevisionId && armRevisionId !== rules.courseArmRevisionId)) {
-    out.push({ rule: "arm-revision", message: "The plan was saved for another arm revision than the assignment requires; open it on the required arm and save again." });
+  if (
+    armRevisionId !== rules.requiredArmRevisionId ||
+    (rules.courseArmRevisionId && armRevisionId !== rules.courseArmRevisionId)
+  ) {
+    out.push({
+      rule: "arm-revision",
+      message:
+        "The plan was saved for another arm revision than the assignment requires; open it on the required arm and save again.",
+    });
   }
-  const poses = [rules.requiredStart ?? undefined, ...(rules.requiredGoals ?? [])].filter((p): p is number[] => p !== undefined);
+  const poses = [rules.requiredStart ?? undefined, ...(rules.requiredGoals ?? [])].filter(
+    (p): p is number[] => p !== undefined,
+  );
   if (poses.some((p) => p.length !== n)) {
-    out.push({ rule: "joint-count", message: `The plan's arm has ${n} joints, but the assignment's poses do not; check the required arm.` });
+    out.push({
+      rule: "joint-count",
+      message: `The plan's arm has ${n} joints, but the assignment's poses do not; check the required arm.`,
+    });
     return out;
   }
   if (rules.requiredStart && !near(plan.start, rules.requiredStart, rules.poseTolerance)) {
-    out.push({ rule: "start-pose", message: `The plan does not start at the required start pose (within ${rules.poseTolerance} per joint).` });
+    out.push({
+      rule: "start-pose",
+      message: `The plan does not start at the required start pose (within ${rules.poseTolerance} per joint).`,
+    });
   }
   // The required goals must be reached in order by some of the plan's moves (other moves may come between).
   const next = requiredPoseStatus(plan, rules).goals.filter(Boolean).length;
   const total = rules.requiredGoals?.length ?? 0;
   if (next < total) {
-    out.push({ rule: "goal-pose", message: `Required goal pose ${next + 1} of ${total} is not reached (in order, within ${rules.poseTolerance} per joint).` });
+    out.push({
+      rule: "goal-pose",
+      message: `Required goal pose ${next + 1} of ${total} is not reached (in order, within ${rules.poseTolerance} per joint).`,
+    });
   }
   return out;
 }
@@ -120,7 +144,10 @@ export function assignmentCheckInput(
   const problems = ruleProblems(plan, armRevisionId, rules);
   const sameJoints = requiredArm.joints.length === plan.arm.joints.length;
   if (!sameJoints && !problems.some((p) => p.rule === "joint-count")) {
-    problems.push({ rule: "joint-count", message: `The required arm has ${requiredArm.joints.length} joints; the plan has ${plan.arm.joints.length}.` });
+    problems.push({
+      rule: "joint-count",
+      message: `The required arm has ${requiredArm.joints.length} joints; the plan has ${plan.arm.joints.length}.`,
+    });
   }
   // Check against the required arm's limits (not the ones in the document), tightened.
   const arm = tightenArm(sameJoints ? requiredArm : plan.arm, rules.courseLimits, rules.limits);

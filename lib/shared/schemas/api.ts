@@ -18,13 +18,19 @@ export const planDocumentInput = z.unknown().transform((value, ctx): Plan => {
 });
 
 const name = (max = 120) =>
-  z.string({ error: "is required" }).trim().min(1, { error: "must not be empty" }).max(max, { error: `must be at most ${max} characters` });
+  z
+    .string({ error: "is required" })
+    .trim()
+    .min(1, { error: "must not be empty" })
+    .max(max, { error: `must be at most ${max} characters` });
 const id = z.string({ error: "is required" }).uuid({ error: "must be an id" });
 const note = z.string().trim().max(500, { error: "must be at most 500 characters" }).optional();
 
 export const createProjectSchema = z.strictObject({
   name: name(),
-  kind: z.enum(["course", "research", "personal"], { error: 'must be "course", "research" or "personal"' }).default("personal"),
+  kind: z
+    .enum(["course", "research", "personal"], { error: 'must be "course", "research" or "personal"' })
+    .default("personal"),
 });
 
 export const updateProjectSchema = z
@@ -47,7 +53,11 @@ export const createPlanSchema = z.strictObject({ name: name(), armId: id });
 
 export const createVersionSchema = z.strictObject({
   /** The version the edit started from (0 for a plan's first save); a newer one in between is a 409. */
-  baseVersion: z.number({ error: "must be a whole number" }).int({ error: "must be a whole number" }).min(0).max(1_000_000),
+  baseVersion: z
+    .number({ error: "must be a whole number" })
+    .int({ error: "must be a whole number" })
+    .min(0)
+    .max(1_000_000),
   /** The arm revision to check against (default: the arm's latest); `document.arm` must equal it. */
   armRevision: z.number().int().positive().max(1_000_000).optional(),
   document: planDocumentInput,
@@ -70,7 +80,11 @@ export const EXPORT_MAX_VALUES = 5_000_000;
 export const exportQuery = z.strictObject({
   format: z.enum(["json", "csv"], { error: 'must be "json" or "csv"' }).default("json"),
   /** Sampling rate of the waypoint list, Hz (default: the arm's control rate). */
-  rateHz: z.coerce.number({ error: "must be a number" }).positive({ error: "must be greater than 0" }).max(EXPORT_MAX_RATE_HZ).optional(),
+  rateHz: z.coerce
+    .number({ error: "must be a number" })
+    .positive({ error: "must be greater than 0" })
+    .max(EXPORT_MAX_RATE_HZ)
+    .optional(),
 });
 
 export const createTokenSchema = z.strictObject({
@@ -84,7 +98,10 @@ export const adminUpdateUserSchema = z
     siteRole: z.enum(["student", "researcher", "instructor", "admin"], { error: "must be a site role" }).optional(),
     disabled: z.boolean({ error: "must be true or false" }).optional(),
   })
-  .refine((v) => v.siteRole !== undefined || v.disabled !== undefined, { error: "give siteRole or disabled", path: ["siteRole"] });
+  .refine((v) => v.siteRole !== undefined || v.disabled !== undefined, {
+    error: "give siteRole or disabled",
+    path: ["siteRole"],
+  });
 
 export { passwordResetConfirmSchema, passwordResetRequestSchema, signUpSchema, verifyEmailSchema } from "./auth";
 
@@ -102,5 +119,9 @@ export const importUrdfQuery = z.strictObject({
   /** The arm's name in the project (default: the URDF robot's name). */
   name: name().optional(),
   /** The controller's control rate, Hz (URDF does not say; default 1000). */
-  controlRateHz: z.coerce.number({ error: "must be a number" }).positive({ error: "must be greater than 0" }).max(100_000).default(1000),
+  controlRateHz: z.coerce
+    .number({ error: "must be a number" })
+    .positive({ error: "must be greater than 0" })
+    .max(100_000)
+    .default(1000),
 });

@@ -25,7 +25,11 @@ export const signInSchema = z.object({
 /** Self sign-up picks student or researcher; instructor and admin are granted by an admin. */
 export const signUpSchema = z.object({
   email: emailSchema,
-  name: z.string({ error: "is required" }).trim().min(1, { error: "is required" }).max(120, { error: "must be at most 120 characters" }),
+  name: z
+    .string({ error: "is required" })
+    .trim()
+    .min(1, { error: "is required" })
+    .max(120, { error: "must be at most 120 characters" }),
   password: passwordSchema,
   siteRole: z.enum(["student", "researcher"], { error: 'must be "student" or "researcher"' }).default("student"),
 });

@@ -5,7 +5,8 @@
 import { z } from "zod";
 
 const finite = () => z.number({ error: "must be a number" });
-const ratio = () => finite().gt(0, { error: "must be greater than 0" }).max(1, { error: "must be at most 1 (limits only get stricter)" });
+const ratio = () =>
+  finite().gt(0, { error: "must be greater than 0" }).max(1, { error: "must be at most 1 (limits only get stricter)" });
 
 /** Limits stricter than the arm's own. Scales multiply the arm's limits; per-joint caps replace them where lower. */
 export const limitsSchema = z
@@ -31,14 +32,22 @@ export const limitsSchema = z
   .strict();
 export type Limits = z.infer<typeof limitsSchema>;
 
-const title = z.string({ error: "is required" }).trim().min(1, { error: "is required" }).max(120, { error: "must be at most 120 characters" });
+const title = z
+  .string({ error: "is required" })
+  .trim()
+  .min(1, { error: "is required" })
+  .max(120, { error: "must be at most 120 characters" });
 const uuid = z.uuid({ error: "must be an id" });
 const pose = z.array(finite(), { error: "must be a list of numbers, one per joint" }).min(1).max(64);
 
 export const createCourseSchema = z
   .object({
     title,
-    term: z.string({ error: "is required" }).trim().min(1, { error: "is required" }).max(60, { error: "must be at most 60 characters" }),
+    term: z
+      .string({ error: "is required" })
+      .trim()
+      .min(1, { error: "is required" })
+      .max(60, { error: "must be at most 60 characters" }),
     projectId: uuid.optional(),
     requiredArmRevisionId: uuid.optional(),
     limits: limitsSchema.optional(),
@@ -47,7 +56,13 @@ export const createCourseSchema = z
 export type CreateCourseInput = z.infer<typeof createCourseSchema>;
 
 export const joinCourseSchema = z
-  .object({ code: z.string({ error: "is required" }).trim().toUpperCase().regex(/^[A-Z0-9]{8}$/, { error: "must be 8 letters and digits" }) })
+  .object({
+    code: z
+      .string({ error: "is required" })
+      .trim()
+      .toUpperCase()
+      .regex(/^[A-Z0-9]{8}$/, { error: "must be 8 letters and digits" }),
+  })
   .strict();
 
 export const inviteSchema = z

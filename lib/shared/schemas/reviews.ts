@@ -37,10 +37,22 @@ export const decisionSchema = z
       .optional(),
   })
   .strict()
-  .refine((d) => d.decision !== "returned" || d.summary.length > 0, { path: ["summary"], error: "is required when returning a submission" })
-  .refine((d) => d.decision === "approved" || (d.confirmFaults === undefined && d.reason === undefined), { path: ["confirmFaults"], error: "applies to approvals only" })
-  .refine((d) => !d.confirmFaults || d.reason !== undefined, { path: ["reason"], error: "is required when confirming faults: say why the plan is approved despite them" })
-  .refine((d) => d.reason === undefined || d.confirmFaults === true, { path: ["confirmFaults"], error: "must be true when a reason is given" });
+  .refine((d) => d.decision !== "returned" || d.summary.length > 0, {
+    path: ["summary"],
+    error: "is required when returning a submission",
+  })
+  .refine((d) => d.decision === "approved" || (d.confirmFaults === undefined && d.reason === undefined), {
+    path: ["confirmFaults"],
+    error: "applies to approvals only",
+  })
+  .refine((d) => !d.confirmFaults || d.reason !== undefined, {
+    path: ["reason"],
+    error: "is required when confirming faults: say why the plan is approved despite them",
+  })
+  .refine((d) => d.reason === undefined || d.confirmFaults === true, {
+    path: ["confirmFaults"],
+    error: "must be true when a reason is given",
+  });
 export type DecisionInput = z.infer<typeof decisionSchema>;
 
 /** The review queue's filters and sort, from the query string. */
@@ -55,4 +67,3 @@ export const queueQuerySchema = z
   })
   .strict();
 export type QueueQuery = z.infer<typeof queueQuerySchema>;
-

@@ -19,9 +19,15 @@ export type AccountHarness = MailWithWorker;
 export const startAccountHarness = startMailWithWorker;
 
 /** Signs in through next-auth (CSRF token, credentials callback); the session cookie, or undefined when refused. */
-export async function signIn(email: string, password: string): Promise<{ session: Cookie | undefined; redirect: string }> {
+export async function signIn(
+  email: string,
+  password: string,
+): Promise<{ session: Cookie | undefined; redirect: string }> {
   const host = new URL(BASE).host;
-  const csrf = await AuthHandler({ req: { action: "csrf", method: "GET", origin: BASE, cookies: {}, headers: { host } }, options: authOptions() });
+  const csrf = await AuthHandler({
+    req: { action: "csrf", method: "GET", origin: BASE, cookies: {}, headers: { host } },
+    options: authOptions(),
+  });
   const csrfToken = (csrf.body as { csrfToken: string }).csrfToken;
   const cookies = Object.fromEntries(((csrf.cookies ?? []) as Cookie[]).map((c) => [c.name, c.value]));
   const res = await AuthHandler({
@@ -45,7 +51,13 @@ export async function signIn(email: string, password: string): Promise<{ session
 export async function refreshSession(session: Cookie): Promise<Cookie | undefined> {
   const host = new URL(BASE).host;
   const res = await AuthHandler({
-    req: { action: "session", method: "GET", origin: BASE, cookies: { [session.name]: session.value }, headers: { host } },
+    req: {
+      action: "session",
+      method: "GET",
+      origin: BASE,
+      cookies: { [session.name]: session.value },
+      headers: { host },
+    },
     options: authOptions(),
   });
   return ((res.cookies ?? []) as Cookie[]).find((c) => c.name === sessionCookieName() && c.value !== "");

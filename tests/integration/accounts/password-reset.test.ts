@@ -33,13 +33,16 @@ const cookieOf = (session: { name: string; value: string } | undefined) => {
   return { cookie: `${session.name}=${session.value}` };
 };
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-const confirm = (body: unknown) => call(confirmRoute.POST, { method: "POST", path: "/api/v1/accounts/password-reset/confirm", body });
+const confirm = (body: unknown) =>
+  call(confirmRoute.POST, { method: "POST", path: "/api/v1/accounts/password-reset/confirm", body });
 
 /** The token of the reset e-mail number `nth` (0 = the first) sent to this address, waiting for it to arrive. */
 async function resetEmailFor(email: string, nth = 0): Promise<string> {
   const isReset = (m: { to: string; kind: string | null }) => m.to === email && m.kind === "password-reset";
   for (const until = Date.now() + 25_000; ; await new Promise((r) => setTimeout(r, 200))) {
-    const resets = (await harness.mail.messages()).filter(isReset).sort((a, b) => a.receivedAt.localeCompare(b.receivedAt));
+    const resets = (await harness.mail.messages())
+      .filter(isReset)
+      .sort((a, b) => a.receivedAt.localeCompare(b.receivedAt));
     const message = resets[nth];
     if (message) {
       expect(message.html).toContain("/reset-password?token=");
@@ -71,7 +74,10 @@ describe("password reset through the API", () => {
 
     const again = await confirm({ token, password: "yet-another-password-8" });
     expect(again.status).toBe(400);
-    expect(errorOf(again)).toMatchObject({ code: "bad_request:token", message: "The link has expired or was already used." });
+    expect(errorOf(again)).toMatchObject({
+      code: "bad_request:token",
+      message: "The link has expired or was already used.",
+    });
     expect((await signIn(user.email, "yet-another-password-8")).session).toBeUndefined();
   });
 
@@ -80,7 +86,10 @@ describe("password reset through the API", () => {
     const before = (await harness.mail.messages()).length;
     const forUnknown = await requestReset("nobody-at-all@example.com");
     const forKnown = await requestReset(known.email);
-    expect({ status: forUnknown.status, body: forUnknown.body }).toEqual({ status: forKnown.status, body: forKnown.body });
+    expect({ status: forUnknown.status, body: forUnknown.body }).toEqual({
+      status: forKnown.status,
+      body: forKnown.body,
+    });
     expect(forUnknown.status).toBe(202);
     await resetEmailFor(known.email);
     await new Promise((r) => setTimeout(r, 1_500));
@@ -107,7 +116,10 @@ describe("password reset through the API", () => {
     const user = await makeUser("student", "reset-expired");
     expect((await requestReset(user.email)).status).toBe(202);
     const token = await resetEmailFor(user.email);
-    await db.update(accountTokens).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(accountTokens.userId, user.id));
+    await db
+      .update(accountTokens)
+      .set({ expiresAt: new Date(Date.now() - 60_000) })
+      .where(eq(accountTokens.userId, user.id));
     const res = await confirm({ token, password: "too-late-password-3" });
     expect(res.status).toBe(400);
     expect(errorOf(res).message).toBe("The link has expired or was already used.");
@@ -205,10 +217,12 @@ describe("password reset hardening", () => {
     const user = await makeUser("student", "reset-limit");
     const answers = [];
     for (let i = 0; i <= RESET_REQUEST_LIMIT.perEmail; i++) answers.push(await requestReset(user.email));
-    for (const a of answers) expect({ status: a.status, body: a.body }).toEqual({ status: 202, body: { accepted: true } });
+    for (const a of answers)
+      expect({ status: a.status, body: a.body }).toEqual({ status: 202, body: { accepted: true } });
     await resetEmailFor(user.email, RESET_REQUEST_LIMIT.perEmail - 1);
     await sleep(1_500);
-    const sent = async () => (await harness.mail.messages()).filter((m) => m.to === user.email && m.kind === "password-reset").length;
+    const sent = async () =>
+      (await harness.mail.messages()).filter((m) => m.to === user.email && m.kind === "password-reset").length;
     expect(await sent()).toBe(RESET_REQUEST_LIMIT.perEmail);
 
     // The window slides: once the earlier requests are older than it, the address may ask again.

@@ -23,7 +23,8 @@ afterAll(async () => {
   await harness?.stop();
 });
 
-const verify = (body: unknown) => call(verifyRoute.POST, { method: "POST", path: "/api/v1/accounts/verify-email", body });
+const verify = (body: unknown) =>
+  call(verifyRoute.POST, { method: "POST", path: "/api/v1/accounts/verify-email", body });
 
 async function verifiedAt(email: string): Promise<Date | null> {
   const [row] = await db.select({ at: users.emailVerifiedAt }).from(users).where(eq(users.email, email));
@@ -33,7 +34,11 @@ async function verifiedAt(email: string): Promise<Date | null> {
 describe("e-mail verification through the API", () => {
   it("sign-up sends the verification e-mail; its token confirms the address once", async () => {
     const email = `verify-${randomUUID().slice(0, 8)}@example.com`;
-    const signUp = await call(accountsRoute.POST, { method: "POST", path: "/api/v1/accounts", body: { email, name: "Pella Ostrand", password: "a-long-password-9" } });
+    const signUp = await call(accountsRoute.POST, {
+      method: "POST",
+      path: "/api/v1/accounts",
+      body: { email, name: "Pella Ostrand", password: "a-long-password-9" },
+    });
     expect(signUp.status, signUp.text).toBe(202);
     // Sign-in does not wait for the address to be confirmed.
     expect((await signIn(email, "a-long-password-9")).session).toBeDefined();
@@ -50,14 +55,27 @@ describe("e-mail verification through the API", () => {
 
     const again = await verify({ token });
     expect(again.status).toBe(400);
-    expect(errorOf(again)).toMatchObject({ code: "bad_request:token", message: "The link has expired or was already used." });
+    expect(errorOf(again)).toMatchObject({
+      code: "bad_request:token",
+      message: "The link has expired or was already used.",
+    });
   });
 
   it("refuses a reset token as a verification token (each token has one purpose)", async () => {
     const email = `verify-purpose-${randomUUID().slice(0, 8)}@example.com`;
-    expect((await call(accountsRoute.POST, { method: "POST", path: "/api/v1/accounts", body: { email, name: "Oren Vale", password: "a-long-password-9" } })).status).toBe(202);
+    expect(
+      (
+        await call(accountsRoute.POST, {
+          method: "POST",
+          path: "/api/v1/accounts",
+          body: { email, name: "Oren Vale", password: "a-long-password-9" },
+        })
+      ).status,
+    ).toBe(202);
     const { POST: requestReset } = await import("@/app/api/v1/accounts/password-reset/route");
-    expect((await call(requestReset, { method: "POST", path: "/api/v1/accounts/password-reset", body: { email } })).status).toBe(202);
+    expect(
+      (await call(requestReset, { method: "POST", path: "/api/v1/accounts/password-reset", body: { email } })).status,
+    ).toBe(202);
     const reset = await harness.mail.waitFor((m) => m.to === email && m.kind === "password-reset");
     const res = await verify({ token: tokenFromLink(reset.text, "/reset-password") });
     expect(res.status).toBe(400);

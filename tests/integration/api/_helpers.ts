@@ -22,7 +22,12 @@ export type TestUser = { id: string; email: string; password: string; siteRole: 
 export async function makeUser(siteRole: SiteRole, label: string = siteRole): Promise<TestUser> {
   const email = `${label}-${randomUUID().slice(0, 8)}@example.com`;
   const password = "test-password-123";
-  const user = await createUser({ email, name: `Test ${label}`, siteRole, passwordHash: await bcrypt.hash(password, 4) });
+  const user = await createUser({
+    email,
+    name: `Test ${label}`,
+    siteRole,
+    passwordHash: await bcrypt.hash(password, 4),
+  });
   if (!user) throw new Error("test user not created");
   return { id: user.id, email, password, siteRole };
 }

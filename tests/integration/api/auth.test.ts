@@ -18,10 +18,18 @@ import { BASE, call, demoArm, errorOf, makeUser, sessionCookieFor, tokenFor } fr
 describe("API tokens", () => {
   it("is shown once, stored only as its SHA-256, and works as a Bearer token with its owner's identity", async () => {
     const owner = await makeUser("researcher");
-    const created = await call(tokens.POST, { method: "POST", path: "/api/v1/tokens", auth: { cookie: await sessionCookieFor(owner.id) }, body: { name: "ci" } });
+    const created = await call(tokens.POST, {
+      method: "POST",
+      path: "/api/v1/tokens",
+      auth: { cookie: await sessionCookieFor(owner.id) },
+      body: { name: "ci" },
+    });
     expect(created.status).toBe(201);
     const secret = (created.body as { token: string; id: string }).token;
-    const [row] = await db.select().from(apiTokens).where(eq(apiTokens.id, (created.body as { id: string }).id));
+    const [row] = await db
+      .select()
+      .from(apiTokens)
+      .where(eq(apiTokens.id, (created.body as { id: string }).id));
     expect(row.tokenHash).toBe(hashToken(secret));
     expect(JSON.stringify(row)).not.toContain(secret);
     const list = await call(tokens.GET, { path: "/api/v1/tokens", auth: { bearer: secret } });
@@ -36,9 +44,17 @@ describe("API tokens", () => {
     const secret = await tokenFor(owner.id);
     const before = await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } });
     expect(before.status).toBe(200);
-    const [row] = await db.select().from(apiTokens).where(eq(apiTokens.tokenHash, hashToken(secret)));
+    const [row] = await db
+      .select()
+      .from(apiTokens)
+      .where(eq(apiTokens.tokenHash, hashToken(secret)));
     // Revoked by its owner, signed in: a token cannot revoke tokens itself.
-    const revoked = await call(token.DELETE, { method: "DELETE", path: `/api/v1/tokens/${row.id}`, params: { tokenId: row.id }, auth: { cookie: await sessionCookieFor(owner.id) } });
+    const revoked = await call(token.DELETE, {
+      method: "DELETE",
+      path: `/api/v1/tokens/${row.id}`,
+      params: { tokenId: row.id },
+      auth: { cookie: await sessionCookieFor(owner.id) },
+    });
     expect(revoked.status).toBe(200);
     const after = await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } });
     expect(after.status).toBe(401);
@@ -49,7 +65,10 @@ describe("API tokens", () => {
   it("refuses an expired token and a made-up one", async () => {
     const owner = await makeUser("student");
     const secret = await tokenFor(owner.id);
-    await db.update(apiTokens).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(apiTokens.tokenHash, hashToken(secret)));
+    await db
+      .update(apiTokens)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(apiTokens.tokenHash, hashToken(secret)));
     expect((await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } })).status).toBe(401);
     expect((await call(me.GET, { path: "/api/v1/me", auth: { bearer: "jpt_not-a-real-token" } })).status).toBe(401);
   });
@@ -59,7 +78,13 @@ describe("API tokens", () => {
     const victim = await makeUser("student");
     const secret = await tokenFor(victim.id);
     const cookie = await sessionCookieFor(victim.id);
-    const res = await call(userRoute.PATCH, { method: "PATCH", path: `/api/v1/users/${victim.id}`, params: { userId: victim.id }, auth: { bearer: await tokenFor(admin.id) }, body: { disabled: true } });
+    const res = await call(userRoute.PATCH, {
+      method: "PATCH",
+      path: `/api/v1/users/${victim.id}`,
+      params: { userId: victim.id },
+      auth: { bearer: await tokenFor(admin.id) },
+      body: { disabled: true },
+    });
     expect(res.status).toBe(200);
     expect((await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } })).status).toBe(401);
     expect((await call(me.GET, { path: "/api/v1/me", auth: { cookie } })).status).toBe(401);
@@ -70,7 +95,10 @@ describe("sessions", () => {
   it("accepts the next-auth session cookie and refuses a tampered one", async () => {
     const u = await makeUser("instructor");
     const cookie = await sessionCookieFor(u.id);
-    expect((await call(me.GET, { path: "/api/v1/me", auth: { cookie } })).body).toMatchObject({ user: { id: u.id }, via: "session" });
+    expect((await call(me.GET, { path: "/api/v1/me", auth: { cookie } })).body).toMatchObject({
+      user: { id: u.id },
+      via: "session",
+    });
     const tampered = cookie.slice(0, -4) + (cookie.endsWith("AAAA") ? "BBBB" : "AAAA");
     expect((await call(me.GET, { path: "/api/v1/me", auth: { cookie: tampered } })).status).toBe(401);
   });
@@ -79,12 +107,30 @@ describe("sessions", () => {
     const u = await makeUser("researcher");
     const cookie = await sessionCookieFor(u.id);
     const before = await db.$count(users);
-    const cross = await call(projects.POST, { method: "POST", path: "/api/v1/projects", auth: { cookie }, headers: { origin: "https://elsewhere.example.com" }, body: { name: "CSRF" } });
+    const cross = await call(projects.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth: { cookie },
+      headers: { origin: "https://elsewhere.example.com" },
+      body: { name: "CSRF" },
+    });
     expect(cross.status).toBe(403);
     expect(errorOf(cross).code).toBe("forbidden:origin");
-    const noOrigin = await call(projects.POST, { method: "POST", path: "/api/v1/projects", auth: { cookie }, headers: { origin: "" }, body: { name: "CSRF" } });
+    const noOrigin = await call(projects.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth: { cookie },
+      headers: { origin: "" },
+      body: { name: "CSRF" },
+    });
     expect(noOrigin.status).toBe(403);
-    const same = await call(projects.POST, { method: "POST", path: "/api/v1/projects", auth: { cookie }, headers: { origin: BASE }, body: { name: "Same site" } });
+    const same = await call(projects.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth: { cookie },
+      headers: { origin: BASE },
+      body: { name: "Same site" },
+    });
     expect(same.status).toBe(201);
     expect(await db.$count(users)).toBe(before);
   });
@@ -93,14 +139,20 @@ describe("sessions", () => {
 describe("sign-in", () => {
   it("signs every demo person in with the printed password", async () => {
     for (const p of demoPeople) {
-      await expect(verifyCredentials({ email: p.email.toUpperCase(), password: p.password }, null)).resolves.toMatchObject({ id: p.id });
+      await expect(
+        verifyCredentials({ email: p.email.toUpperCase(), password: p.password }, null),
+      ).resolves.toMatchObject({ id: p.id });
     }
   });
 
   it("refuses a wrong password with one message that does not say whether the account exists", async () => {
     const u = await makeUser("student");
-    await expect(verifyCredentials({ email: u.email, password: "wrong-password" }, null)).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
-    await expect(verifyCredentials({ email: `nobody-${u.id}@example.com`, password: "wrong-password" }, null)).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
+    await expect(verifyCredentials({ email: u.email, password: "wrong-password" }, null)).rejects.toThrow(
+      BAD_CREDENTIALS_MESSAGE,
+    );
+    await expect(
+      verifyCredentials({ email: `nobody-${u.id}@example.com`, password: "wrong-password" }, null),
+    ).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
   });
 
   it(`makes even the right password wait, and says how many seconds, after ${SIGN_IN_BACKOFF.freePerEmail + 1} failed attempts`, async () => {
@@ -108,7 +160,9 @@ describe("sign-in", () => {
     // Addresses from the documentation ranges (RFC 5737), fresh per run so earlier runs do not count.
     const octet = () => 1 + Math.floor(Math.random() * 254);
     for (let i = 0; i < SIGN_IN_BACKOFF.freePerEmail + 1; i++) {
-      await expect(verifyCredentials({ email: u.email, password: `wrong-${i}` }, `203.0.113.${octet()}`)).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
+      await expect(
+        verifyCredentials({ email: u.email, password: `wrong-${i}` }, `203.0.113.${octet()}`),
+      ).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
     }
     const refused = verifyCredentials({ email: u.email, password: u.password }, `198.51.100.${octet()}`);
     await expect(refused).rejects.toThrow(RATE_LIMITED_MESSAGE);
@@ -118,11 +172,17 @@ describe("sign-in", () => {
   it("lets the right password in once the back-off delay (2 s after one failure over the free ones) has passed", async () => {
     const u = await makeUser("student");
     for (let i = 0; i < SIGN_IN_BACKOFF.freePerEmail + 1; i++) {
-      await expect(verifyCredentials({ email: u.email, password: `wrong-${i}` }, null)).rejects.toThrow(BAD_CREDENTIALS_MESSAGE);
+      await expect(verifyCredentials({ email: u.email, password: `wrong-${i}` }, null)).rejects.toThrow(
+        BAD_CREDENTIALS_MESSAGE,
+      );
     }
-    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).rejects.toThrow(RATE_LIMITED_MESSAGE);
+    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).rejects.toThrow(
+      RATE_LIMITED_MESSAGE,
+    );
     await new Promise((r) => setTimeout(r, 2_100));
-    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).resolves.toMatchObject({ id: u.id });
+    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).resolves.toMatchObject({
+      id: u.id,
+    });
   });
 
   it("allows a correct password after no more failures than the free ones", async () => {
@@ -130,7 +190,9 @@ describe("sign-in", () => {
     for (let i = 0; i < SIGN_IN_BACKOFF.freePerEmail; i++) {
       await expect(verifyCredentials({ email: u.email, password: `wrong-${i}` }, null)).rejects.toThrow();
     }
-    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).resolves.toMatchObject({ id: u.id });
+    await expect(verifyCredentials({ email: u.email, password: u.password }, null)).resolves.toMatchObject({
+      id: u.id,
+    });
   });
 });
 
@@ -138,20 +200,51 @@ describe("archived projects", () => {
   it("stay readable but refuse changes until un-archived", async () => {
     const owner = await makeUser("researcher");
     const auth = { bearer: await tokenFor(owner.id) };
-    const created = await call(projects.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: "Old work" } });
+    const created = await call(projects.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth,
+      body: { name: "Old work" },
+    });
     const projectId = (created.body as { project: { id: string } }).project.id;
-    const archive = await call(project.PATCH, { method: "PATCH", path: `/api/v1/projects/${projectId}`, params: { projectId }, auth, body: { archived: true } });
+    const archive = await call(project.PATCH, {
+      method: "PATCH",
+      path: `/api/v1/projects/${projectId}`,
+      params: { projectId },
+      auth,
+      body: { archived: true },
+    });
     expect(archive.status).toBe(200);
     const list = await call(projects.GET, { path: "/api/v1/projects", auth });
     expect((list.body as { projects: { id: string }[] }).projects.map((p) => p.id)).not.toContain(projectId);
     const withArchived = await call(projects.GET, { path: "/api/v1/projects?archived=include", auth });
     expect((withArchived.body as { projects: { id: string }[] }).projects.map((p) => p.id)).toContain(projectId);
-    const write = await call(projectPlans.POST, { method: "POST", path: `/api/v1/projects/${projectId}/plans`, params: { projectId }, auth, body: { name: "P", armId: demoArm.id } });
+    const write = await call(projectPlans.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/plans`,
+      params: { projectId },
+      auth,
+      body: { name: "P", armId: demoArm.id },
+    });
     expect(write.status).toBe(403);
     expect(errorOf(write).code).toBe("forbidden:archived");
-    expect((await call(project.GET, { path: `/api/v1/projects/${projectId}`, params: { projectId }, auth })).status).toBe(200);
-    await call(project.PATCH, { method: "PATCH", path: `/api/v1/projects/${projectId}`, params: { projectId }, auth, body: { archived: false } });
-    const again = await call(projectPlans.POST, { method: "POST", path: `/api/v1/projects/${projectId}/plans`, params: { projectId }, auth, body: { name: "P", armId: demoArm.id } });
+    expect(
+      (await call(project.GET, { path: `/api/v1/projects/${projectId}`, params: { projectId }, auth })).status,
+    ).toBe(200);
+    await call(project.PATCH, {
+      method: "PATCH",
+      path: `/api/v1/projects/${projectId}`,
+      params: { projectId },
+      auth,
+      body: { archived: false },
+    });
+    const again = await call(projectPlans.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/plans`,
+      params: { projectId },
+      auth,
+      body: { name: "P", armId: demoArm.id },
+    });
     expect(again.status).toBe(201);
   });
 });
@@ -161,9 +254,20 @@ describe("audit log", () => {
     const { GET } = await import("@/app/api/v1/projects/[projectId]/audit/route");
     const owner = await makeUser("researcher");
     const auth = { bearer: await tokenFor(owner.id) };
-    const created = await call(projects.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: "Audited" } });
+    const created = await call(projects.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth,
+      body: { name: "Audited" },
+    });
     const projectId = (created.body as { project: { id: string } }).project.id;
-    await call(projectPlans.POST, { method: "POST", path: `/api/v1/projects/${projectId}/plans`, params: { projectId }, auth, body: { name: "P", armId: demoArm.id } });
+    await call(projectPlans.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/plans`,
+      params: { projectId },
+      auth,
+      body: { name: "P", armId: demoArm.id },
+    });
     const log = await call(GET, { path: `/api/v1/projects/${projectId}/audit`, params: { projectId }, auth });
     expect(log.status).toBe(200);
     const entries = (log.body as { entries: { action: string; actorId: string }[] }).entries;

@@ -6,7 +6,17 @@
 import "./_env";
 import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db";
-import { apiTokens, armRevisions, arms, auditLog, planVersions, plans, projectMembers, projects, users } from "@/db/schema";
+import {
+  apiTokens,
+  armRevisions,
+  arms,
+  auditLog,
+  planVersions,
+  plans,
+  projectMembers,
+  projects,
+  users,
+} from "@/db/schema";
 import { createArm } from "@/db/queries/arms";
 import { createPlan } from "@/db/queries/plans";
 import { createProject } from "@/db/queries/projects";
@@ -27,7 +37,17 @@ import * as check from "@/app/api/v1/check/route";
 import { call, demoArm, errorOf, gentlePlan, makeUser, tokenFor, type Auth, sessionCookieFor } from "./_helpers";
 
 type Handler = Parameters<typeof call>[0];
-type Target = { name: string; handler: Handler; method: string; path: () => string; params: () => Record<string, string>; admin?: boolean; session?: boolean; needsMailToken?: boolean; valid: () => unknown };
+type Target = {
+  name: string;
+  handler: Handler;
+  method: string;
+  path: () => string;
+  params: () => Record<string, string>;
+  admin?: boolean;
+  session?: boolean;
+  needsMailToken?: boolean;
+  valid: () => unknown;
+};
 type BadCase = { what: string; body?: unknown; raw?: string; type?: string; status: number; path?: string };
 
 let auth: Auth;
@@ -49,7 +69,11 @@ beforeAll(async () => {
   ids = { projectId: p.id, armId: a!.armId, planId: pl.id, userId: colleague.id, memberEmail: colleague.email };
 });
 
-const doc = () => ({ ...gentlePlan(), arm: demoArm.description }) as unknown as Record<string, unknown> & { moves: Record<string, unknown>[]; arm: { joints: Record<string, unknown>[] } };
+const doc = () =>
+  ({ ...gentlePlan(), arm: demoArm.description }) as unknown as Record<string, unknown> & {
+    moves: Record<string, unknown>[];
+    arm: { joints: Record<string, unknown>[] };
+  };
 const withMove = (patch: Record<string, unknown>) => {
   const d = doc();
   d.moves = [{ ...d.moves[0], ...patch }];
@@ -64,7 +88,11 @@ const withJoint = (j: number, patch: Record<string, unknown>) => {
 /** Bad plan documents, with the field path each must be refused at (relative to the document). */
 const badDocuments: { what: string; document?: unknown; raw?: (prefix: string) => string; path: string }[] = [
   { what: "a start pose with one value too few", document: { ...doc(), start: [0, 0, 0, 0, 0, 0] }, path: "start" },
-  { what: "a goal pose with one value too many", document: withMove({ goal: [0, 0, 0, 0, 0, 0, 0, 0] }), path: "moves[0].goal" },
+  {
+    what: "a goal pose with one value too many",
+    document: withMove({ goal: [0, 0, 0, 0, 0, 0, 0, 0] }),
+    path: "moves[0].goal",
+  },
   { what: "a negative duration", document: withMove({ duration: -1 }), path: "moves[0].duration" },
   { what: "a duration given as text", document: withMove({ duration: "2" }), path: "moves[0].duration" },
   { what: "NaN sent as text", document: withMove({ duration: "NaN" }), path: "moves[0].duration" },
@@ -74,27 +102,130 @@ const badDocuments: { what: string; document?: unknown; raw?: (prefix: string) =
   { what: "a missing format", document: { ...doc(), format: undefined }, path: "format" },
   {
     what: "a number too large for a double (1e400 parses as Infinity)",
-    raw: (prefix) => JSON.stringify(prefix ? { baseVersion: 0, document: doc() } : doc()).replace('"duration":2', '"duration":1e400'),
+    raw: (prefix) =>
+      JSON.stringify(prefix ? { baseVersion: 0, document: doc() } : doc()).replace('"duration":2', '"duration":1e400'),
     path: "moves[0].duration",
   },
 ];
 
 const targets: Target[] = [
-  { name: "POST /accounts", handler: accounts.POST, method: "POST", path: () => "/api/v1/accounts", params: () => ({}), valid: () => ({ email: "x@example.com", name: "X", password: "long-enough-1" }) },
-  { name: "POST /accounts/password-reset", handler: passwordReset.POST, method: "POST", path: () => "/api/v1/accounts/password-reset", params: () => ({}), valid: () => ({ email: "bad-input-nobody@example.com" }) },
+  {
+    name: "POST /accounts",
+    handler: accounts.POST,
+    method: "POST",
+    path: () => "/api/v1/accounts",
+    params: () => ({}),
+    valid: () => ({ email: "x@example.com", name: "X", password: "long-enough-1" }),
+  },
+  {
+    name: "POST /accounts/password-reset",
+    handler: passwordReset.POST,
+    method: "POST",
+    path: () => "/api/v1/accounts/password-reset",
+    params: () => ({}),
+    valid: () => ({ email: "bad-input-nobody@example.com" }),
+  },
   // A valid body needs a real token from an e-mail: tests/integration/accounts covers the accepted case.
-  { name: "POST /accounts/password-reset/confirm", handler: passwordResetConfirm.POST, method: "POST", path: () => "/api/v1/accounts/password-reset/confirm", params: () => ({}), needsMailToken: true, valid: () => ({ token: "D".repeat(43), password: "long-enough-pass-1" }) },
-  { name: "POST /accounts/verify-email", handler: verifyEmail.POST, method: "POST", path: () => "/api/v1/accounts/verify-email", params: () => ({}), needsMailToken: true, valid: () => ({ token: "E".repeat(43) }) },
-  { name: "POST /tokens", handler: tokens.POST, method: "POST", path: () => "/api/v1/tokens", params: () => ({}), session: true, valid: () => ({ name: "ci" }) },
-  { name: "PATCH /users/:id", handler: user.PATCH, method: "PATCH", path: () => `/api/v1/users/${ids.userId}`, params: () => ({ userId: ids.userId }), admin: true, valid: () => ({ siteRole: "researcher" }) },
-  { name: "POST /projects", handler: projectsRoute.POST, method: "POST", path: () => "/api/v1/projects", params: () => ({}), valid: () => ({ name: "P" }) },
-  { name: "PATCH /projects/:id", handler: project.PATCH, method: "PATCH", path: () => `/api/v1/projects/${ids.projectId}`, params: () => ({ projectId: ids.projectId }), valid: () => ({ name: "P" }) },
-  { name: "POST /projects/:id/members", handler: members.POST, method: "POST", path: () => `/api/v1/projects/${ids.projectId}/members`, params: () => ({ projectId: ids.projectId }), valid: () => ({ email: ids.memberEmail, role: "viewer" }) },
-  { name: "POST /projects/:id/arms", handler: projectArms.POST, method: "POST", path: () => `/api/v1/projects/${ids.projectId}/arms`, params: () => ({ projectId: ids.projectId }), valid: () => ({ name: "A", description: demoArm.description }) },
-  { name: "POST /arms/:id/revisions", handler: armRevisionsRoute.POST, method: "POST", path: () => `/api/v1/arms/${ids.armId}/revisions`, params: () => ({ armId: ids.armId }), valid: () => ({ description: demoArm.description }) },
-  { name: "POST /projects/:id/plans", handler: projectPlans.POST, method: "POST", path: () => `/api/v1/projects/${ids.projectId}/plans`, params: () => ({ projectId: ids.projectId }), valid: () => ({ name: "P", armId: ids.armId }) },
-  { name: "POST /plans/:id/versions", handler: versions.POST, method: "POST", path: () => `/api/v1/plans/${ids.planId}/versions`, params: () => ({ planId: ids.planId }), valid: () => ({ baseVersion: 0, document: doc() }) },
-  { name: "POST /check", handler: check.POST, method: "POST", path: () => "/api/v1/check", params: () => ({}), valid: () => doc() },
+  {
+    name: "POST /accounts/password-reset/confirm",
+    handler: passwordResetConfirm.POST,
+    method: "POST",
+    path: () => "/api/v1/accounts/password-reset/confirm",
+    params: () => ({}),
+    needsMailToken: true,
+    valid: () => ({ token: "D".repeat(43), password: "long-enough-pass-1" }),
+  },
+  {
+    name: "POST /accounts/verify-email",
+    handler: verifyEmail.POST,
+    method: "POST",
+    path: () => "/api/v1/accounts/verify-email",
+    params: () => ({}),
+    needsMailToken: true,
+    valid: () => ({ token: "E".repeat(43) }),
+  },
+  {
+    name: "POST /tokens",
+    handler: tokens.POST,
+    method: "POST",
+    path: () => "/api/v1/tokens",
+    params: () => ({}),
+    session: true,
+    valid: () => ({ name: "ci" }),
+  },
+  {
+    name: "PATCH /users/:id",
+    handler: user.PATCH,
+    method: "PATCH",
+    path: () => `/api/v1/users/${ids.userId}`,
+    params: () => ({ userId: ids.userId }),
+    admin: true,
+    valid: () => ({ siteRole: "researcher" }),
+  },
+  {
+    name: "POST /projects",
+    handler: projectsRoute.POST,
+    method: "POST",
+    path: () => "/api/v1/projects",
+    params: () => ({}),
+    valid: () => ({ name: "P" }),
+  },
+  {
+    name: "PATCH /projects/:id",
+    handler: project.PATCH,
+    method: "PATCH",
+    path: () => `/api/v1/projects/${ids.projectId}`,
+    params: () => ({ projectId: ids.projectId }),
+    valid: () => ({ name: "P" }),
+  },
+  {
+    name: "POST /projects/:id/members",
+    handler: members.POST,
+    method: "POST",
+    path: () => `/api/v1/projects/${ids.projectId}/members`,
+    params: () => ({ projectId: ids.projectId }),
+    valid: () => ({ email: ids.memberEmail, role: "viewer" }),
+  },
+  {
+    name: "POST /projects/:id/arms",
+    handler: projectArms.POST,
+    method: "POST",
+    path: () => `/api/v1/projects/${ids.projectId}/arms`,
+    params: () => ({ projectId: ids.projectId }),
+    valid: () => ({ name: "A", description: demoArm.description }),
+  },
+  {
+    name: "POST /arms/:id/revisions",
+    handler: armRevisionsRoute.POST,
+    method: "POST",
+    path: () => `/api/v1/arms/${ids.armId}/revisions`,
+    params: () => ({ armId: ids.armId }),
+    valid: () => ({ description: demoArm.description }),
+  },
+  {
+    name: "POST /projects/:id/plans",
+    handler: projectPlans.POST,
+    method: "POST",
+    path: () => `/api/v1/projects/${ids.projectId}/plans`,
+    params: () => ({ projectId: ids.projectId }),
+    valid: () => ({ name: "P", armId: ids.armId }),
+  },
+  {
+    name: "POST /plans/:id/versions",
+    handler: versions.POST,
+    method: "POST",
+    path: () => `/api/v1/plans/${ids.planId}/versions`,
+    params: () => ({ planId: ids.planId }),
+    valid: () => ({ baseVersion: 0, document: doc() }),
+  },
+  {
+    name: "POST /check",
+    handler: check.POST,
+    method: "POST",
+    path: () => "/api/v1/check",
+    params: () => ({}),
+    valid: () => doc(),
+  },
 ];
 
 /** Cases every write route must refuse, whatever its body looks like. */
@@ -114,9 +245,24 @@ const generalCases: BadCase[] = [
 const specificCases: Record<string, BadCase[]> = {
   "POST /accounts": [
     { what: "no fields", body: {}, status: 400, path: "email" },
-    { what: "a short password", body: { email: "a@example.com", name: "A", password: "short" }, status: 400, path: "password" },
-    { what: "a bad e-mail", body: { email: "not-an-address", name: "A", password: "long-enough-1" }, status: 400, path: "email" },
-    { what: "a site role that cannot be chosen", body: { email: "a@example.com", name: "A", password: "long-enough-1", siteRole: "admin" }, status: 400, path: "siteRole" },
+    {
+      what: "a short password",
+      body: { email: "a@example.com", name: "A", password: "short" },
+      status: 400,
+      path: "password",
+    },
+    {
+      what: "a bad e-mail",
+      body: { email: "not-an-address", name: "A", password: "long-enough-1" },
+      status: 400,
+      path: "email",
+    },
+    {
+      what: "a site role that cannot be chosen",
+      body: { email: "a@example.com", name: "A", password: "long-enough-1", siteRole: "admin" },
+      status: 400,
+      path: "siteRole",
+    },
   ],
   "POST /accounts/password-reset": [
     { what: "no e-mail", body: {}, status: 400, path: "email" },
@@ -126,10 +272,25 @@ const specificCases: Record<string, BadCase[]> = {
   ],
   "POST /accounts/password-reset/confirm": [
     { what: "no token", body: { password: "long-enough-pass-1" }, status: 400, path: "token" },
-    { what: "a token with spaces", body: { token: "not a token", password: "long-enough-pass-1" }, status: 400, path: "token" },
+    {
+      what: "a token with spaces",
+      body: { token: "not a token", password: "long-enough-pass-1" },
+      status: 400,
+      path: "token",
+    },
     { what: "a short password", body: { token: "D".repeat(43), password: "short" }, status: 400, path: "password" },
-    { what: "a password over 72 bytes", body: { token: "D".repeat(43), password: "é".repeat(40) }, status: 400, path: "password" },
-    { what: "a token nobody was sent", body: { token: "D".repeat(43), password: "long-enough-pass-1" }, status: 400, path: "token" },
+    {
+      what: "a password over 72 bytes",
+      body: { token: "D".repeat(43), password: "é".repeat(40) },
+      status: 400,
+      path: "password",
+    },
+    {
+      what: "a token nobody was sent",
+      body: { token: "D".repeat(43), password: "long-enough-pass-1" },
+      status: 400,
+      path: "token",
+    },
   ],
   "POST /accounts/verify-email": [
     { what: "no token", body: {}, status: 400, path: "token" },
@@ -163,13 +324,38 @@ const specificCases: Record<string, BadCase[]> = {
   ],
   "POST /projects/:id/arms": [
     { what: "no description", body: { name: "A" }, status: 400, path: "description" },
-    { what: "a joint with min above max", body: { name: "A", description: withJoint(0, { min: 2, max: 1 }).arm }, status: 400, path: "description.joints[0].max" },
-    { what: "repeated joint names", body: { name: "A", description: withJoint(1, { name: "base" }).arm }, status: 400, path: "description.joints[1].name" },
-    { what: "a negative control rate", body: { name: "A", description: { ...demoArm.description, controlRateHz: -1000 } }, status: 400, path: "description.controlRateHz" },
+    {
+      what: "a joint with min above max",
+      body: { name: "A", description: withJoint(0, { min: 2, max: 1 }).arm },
+      status: 400,
+      path: "description.joints[0].max",
+    },
+    {
+      what: "repeated joint names",
+      body: { name: "A", description: withJoint(1, { name: "base" }).arm },
+      status: 400,
+      path: "description.joints[1].name",
+    },
+    {
+      what: "a negative control rate",
+      body: { name: "A", description: { ...demoArm.description, controlRateHz: -1000 } },
+      status: 400,
+      path: "description.controlRateHz",
+    },
   ],
   "POST /arms/:id/revisions": [
-    { what: "no joints", body: { description: { ...demoArm.description, joints: [] } }, status: 400, path: "description.joints" },
-    { what: "an infinite velocity limit (as text)", body: { description: withJoint(3, { maxVelocity: "Infinity" }).arm }, status: 400, path: "description.joints[3].maxVelocity" },
+    {
+      what: "no joints",
+      body: { description: { ...demoArm.description, joints: [] } },
+      status: 400,
+      path: "description.joints",
+    },
+    {
+      what: "an infinite velocity limit (as text)",
+      body: { description: withJoint(3, { maxVelocity: "Infinity" }).arm },
+      status: 400,
+      path: "description.joints[3].maxVelocity",
+    },
   ],
   "POST /projects/:id/plans": [
     { what: "no arm", body: { name: "P" }, status: 400, path: "armId" },
@@ -178,9 +364,19 @@ const specificCases: Record<string, BadCase[]> = {
   "POST /plans/:id/versions": [
     { what: "no base version", body: { document: doc() }, status: 400, path: "baseVersion" },
     { what: "a base version as text", body: { baseVersion: "0", document: doc() }, status: 400, path: "baseVersion" },
-    { what: "a fractional base version", body: { baseVersion: 0.5, document: doc() }, status: 400, path: "baseVersion" },
+    {
+      what: "a fractional base version",
+      body: { baseVersion: 0.5, document: doc() },
+      status: 400,
+      path: "baseVersion",
+    },
     { what: "no document", body: { baseVersion: 0 }, status: 400, path: "document" },
-    { what: "a plan lasting ten million seconds", body: { baseVersion: 0, document: withMove({ duration: 1e7 }) }, status: 422, path: "document.moves" },
+    {
+      what: "a plan lasting ten million seconds",
+      body: { baseVersion: 0, document: withMove({ duration: 1e7 }) },
+      status: 422,
+      path: "document.moves",
+    },
     ...badDocuments.map((d) =>
       d.raw
         ? { what: d.what, raw: d.raw("document"), status: 400, path: `document.${d.path}` }
@@ -188,8 +384,17 @@ const specificCases: Record<string, BadCase[]> = {
     ),
   ],
   "POST /check": [
-    ...badDocuments.map((d) => (d.raw ? { what: d.what, raw: d.raw(""), status: 400, path: d.path } : { what: d.what, body: d.document, status: 400, path: d.path })),
-    { what: "a plan lasting ten million seconds (too long to check in one request)", body: withMove({ duration: 1e7 }), status: 422, path: "moves" },
+    ...badDocuments.map((d) =>
+      d.raw
+        ? { what: d.what, raw: d.raw(""), status: 400, path: d.path }
+        : { what: d.what, body: d.document, status: 400, path: d.path },
+    ),
+    {
+      what: "a plan lasting ten million seconds (too long to check in one request)",
+      body: withMove({ duration: 1e7 }),
+      status: 422,
+      path: "moves",
+    },
   ],
 };
 
@@ -200,7 +405,9 @@ async function counts() {
   return out;
 }
 
-const cases = targets.flatMap((t) => [...generalCases, ...(specificCases[t.name] ?? [])].map((c) => ({ target: t, ...c })));
+const cases = targets.flatMap((t) =>
+  [...generalCases, ...(specificCases[t.name] ?? [])].map((c) => ({ target: t, ...c })),
+);
 
 describe("bad input on every write route", () => {
   it("has specific cases for every write route", () => {
@@ -209,7 +416,13 @@ describe("bad input on every write route", () => {
 
   it("accepts each route's valid body (so the refusals below are about the bad field)", async () => {
     for (const t of targets.filter((t) => t.name !== "POST /accounts" && !t.needsMailToken)) {
-      const res = await call(t.handler, { method: t.method, path: t.path(), params: t.params(), auth: t.admin ? adminAuth : t.session ? sessionAuth : auth, body: t.valid() });
+      const res = await call(t.handler, {
+        method: t.method,
+        path: t.path(),
+        params: t.params(),
+        auth: t.admin ? adminAuth : t.session ? sessionAuth : auth,
+        body: t.valid(),
+      });
       expect(res.status, `${t.name}: ${res.text}`).toBeLessThan(300);
     }
   });
@@ -221,7 +434,9 @@ describe("bad input on every write route", () => {
       path: c.target.path(),
       params: c.target.params(),
       auth: c.target.admin ? adminAuth : c.target.session ? sessionAuth : auth,
-      ...(c.raw !== undefined ? { rawBody: c.raw, headers: { "content-type": c.type ?? "application/json" } } : { body: c.body }),
+      ...(c.raw !== undefined
+        ? { rawBody: c.raw, headers: { "content-type": c.type ?? "application/json" } }
+        : { body: c.body }),
     });
     expect(res.status, res.text).toBe(c.status);
     const error = errorOf(res);

@@ -18,7 +18,11 @@ import { call, demoArm, errorOf, makeUser, tokenFor, type Auth, type CallResult 
 type Listed = { id?: string; userId?: string; email?: string; updatedAt?: string; createdAt?: string };
 
 /** Follows `nextCursor` from the first page to the last; returns every page's rows. */
-async function walk(get: (query: string) => Promise<CallResult>, key: string, limit: number): Promise<{ pages: Listed[][]; cursors: (string | null)[] }> {
+async function walk(
+  get: (query: string) => Promise<CallResult>,
+  key: string,
+  limit: number,
+): Promise<{ pages: Listed[][]; cursors: (string | null)[] }> {
   const pages: Listed[][] = [];
   const cursors: (string | null)[] = [];
   let cursor: string | null = null;
@@ -39,21 +43,38 @@ async function setUp() {
   const auth: Auth = { bearer: await tokenFor(owner.id) };
   const projectIds: string[] = [];
   for (let i = 0; i < 7; i++) {
-    const res = await call(projectsRoute.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: `Paged ${i}`, kind: "research" } });
+    const res = await call(projectsRoute.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth,
+      body: { name: `Paged ${i}`, kind: "research" },
+    });
     expect(res.status, res.text).toBe(201);
     projectIds.push((res.body as { project: { id: string } }).project.id);
   }
   const projectId = projectIds[0];
   const planIds: string[] = [];
   for (let i = 0; i < 9; i++) {
-    const res = await call(plansRoute.POST, { method: "POST", path: `/api/v1/projects/${projectId}/plans`, params: { projectId }, auth, body: { name: `Plan ${i}`, armId: demoArm.id } });
+    const res = await call(plansRoute.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/plans`,
+      params: { projectId },
+      auth,
+      body: { name: `Plan ${i}`, armId: demoArm.id },
+    });
     expect(res.status, res.text).toBe(201);
     planIds.push((res.body as { plan: { id: string } }).plan.id);
   }
   const memberEmails: string[] = [owner.email];
   for (let i = 0; i < 5; i++) {
     const m = await makeUser("student", `member${i}`);
-    const res = await call(membersRoute.POST, { method: "POST", path: `/api/v1/projects/${projectId}/members`, params: { projectId }, auth, body: { email: m.email, role: "viewer" } });
+    const res = await call(membersRoute.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/members`,
+      params: { projectId },
+      auth,
+      body: { email: m.email, role: "viewer" },
+    });
     expect(res.status, res.text).toBe(201);
     memberEmails.push(m.email);
   }
@@ -66,9 +87,24 @@ describe("cursor paging of the list endpoints", () => {
     f = await setUp();
   }, 60_000);
   const getProjects = (q: string) => call(projectsRoute.GET, { path: `/api/v1/projects${q}`, auth: f.auth });
-  const getPlans = (q: string) => call(plansRoute.GET, { path: `/api/v1/projects/${f.projectId}/plans${q}`, params: { projectId: f.projectId }, auth: f.auth });
-  const getMembers = (q: string) => call(membersRoute.GET, { path: `/api/v1/projects/${f.projectId}/members${q}`, params: { projectId: f.projectId }, auth: f.auth });
-  const getAudit = (q: string) => call(auditRoute.GET, { path: `/api/v1/projects/${f.projectId}/audit${q}`, params: { projectId: f.projectId }, auth: f.auth });
+  const getPlans = (q: string) =>
+    call(plansRoute.GET, {
+      path: `/api/v1/projects/${f.projectId}/plans${q}`,
+      params: { projectId: f.projectId },
+      auth: f.auth,
+    });
+  const getMembers = (q: string) =>
+    call(membersRoute.GET, {
+      path: `/api/v1/projects/${f.projectId}/members${q}`,
+      params: { projectId: f.projectId },
+      auth: f.auth,
+    });
+  const getAudit = (q: string) =>
+    call(auditRoute.GET, {
+      path: `/api/v1/projects/${f.projectId}/audit${q}`,
+      params: { projectId: f.projectId },
+      auth: f.auth,
+    });
 
   it("pages the projects three at a time: every project once, newest activity first, the same order as one large page", async () => {
     const { pages, cursors } = await walk(getProjects, "projects", 3);
@@ -86,7 +122,10 @@ describe("cursor paging of the list endpoints", () => {
 
   it("pages plans whose change times are all equal by id, every plan once", async () => {
     // The same instant on every plan: only the id can order them.
-    await db.update(plans).set({ updatedAt: new Date("2026-06-01T10:00:00.000Z") }).where(eq(plans.projectId, f.projectId));
+    await db
+      .update(plans)
+      .set({ updatedAt: new Date("2026-06-01T10:00:00.000Z") })
+      .where(eq(plans.projectId, f.projectId));
     const { pages } = await walk(getPlans, "plans", 2);
     expect(pages.map((p) => p.length)).toEqual([2, 2, 2, 2, 1]);
     const ids = pages.flat().map((p) => p.id!);
@@ -96,8 +135,15 @@ describe("cursor paging of the list endpoints", () => {
   it("keeps plans apart that differ by one microsecond (finer than a JavaScript date)", async () => {
     const [a, b, c] = f.planIds;
     const at = (iso: string) => sql`${iso}::timestamptz`;
-    for (const [id, iso] of [[a, "2026-06-02 10:00:00.000003+00"], [b, "2026-06-02 10:00:00.000002+00"], [c, "2026-06-02 10:00:00.000001+00"]] as const) {
-      await db.update(plans).set({ updatedAt: at(iso) }).where(eq(plans.id, id));
+    for (const [id, iso] of [
+      [a, "2026-06-02 10:00:00.000003+00"],
+      [b, "2026-06-02 10:00:00.000002+00"],
+      [c, "2026-06-02 10:00:00.000001+00"],
+    ] as const) {
+      await db
+        .update(plans)
+        .set({ updatedAt: at(iso) })
+        .where(eq(plans.id, id));
     }
     const { pages } = await walk(getPlans, "plans", 1);
     const ids = pages.flat().map((p) => p.id!);
@@ -129,7 +175,9 @@ describe("cursor paging of the list endpoints", () => {
       expect(res.status, cursor).toBe(400);
       expect(errorOf(res).issues.map((i) => i.path)).toEqual(["query.cursor"]);
     }
-    const auditWithUuid = await getAudit(`?cursor=${encodeCursor({ key: "2026-06-01T10:00:00.000000Z", id: f.planIds[0] })}`);
+    const auditWithUuid = await getAudit(
+      `?cursor=${encodeCursor({ key: "2026-06-01T10:00:00.000000Z", id: f.planIds[0] })}`,
+    );
     expect(auditWithUuid.status).toBe(400);
   });
 

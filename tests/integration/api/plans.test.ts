@@ -23,7 +23,12 @@ let planId: string;
 beforeAll(async () => {
   const user = await makeUser("researcher");
   auth = { bearer: await tokenFor(user.id) };
-  const project = await call(projectsRoute.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: "Duration sweep", kind: "research" } });
+  const project = await call(projectsRoute.POST, {
+    method: "POST",
+    path: "/api/v1/projects",
+    auth,
+    body: { name: "Duration sweep", kind: "research" },
+  });
   expect(project.status).toBe(201);
   const projectId = (project.body as { project: { id: string } }).project.id;
   const plan = await call(plansRoute.POST, {
@@ -38,21 +43,36 @@ beforeAll(async () => {
 });
 
 function saveVersion(baseVersion: number, document: unknown) {
-  return call(versionsRoute.POST, { method: "POST", path: `/api/v1/plans/${planId}/versions`, params: { planId }, auth, body: { baseVersion, document } });
+  return call(versionsRoute.POST, {
+    method: "POST",
+    path: `/api/v1/plans/${planId}/versions`,
+    params: { planId },
+    auth,
+    body: { baseVersion, document },
+  });
 }
 
 describe("plan versions", () => {
   it("stores the engine's verdict with each saved version, checked on the server", async () => {
     const first = await saveVersion(0, gentlePlan());
     expect(first.status).toBe(201);
-    expect((first.body as { version: { number: number; verdict: string } }).version).toMatchObject({ number: 1, verdict: "pass" });
+    expect((first.body as { version: { number: number; verdict: string } }).version).toMatchObject({
+      number: 1,
+      verdict: "pass",
+    });
     const second = await saveVersion(1, jumpPlan());
     expect(second.status).toBe(201);
-    const body = second.body as { version: { number: number; verdict: string }; report: { findings: { kind: string }[] } };
+    const body = second.body as {
+      version: { number: number; verdict: string };
+      report: { findings: { kind: string }[] };
+    };
     expect(body.version).toMatchObject({ number: 2, verdict: "fault" });
     expect(body.report.findings.map((f) => f.kind)).toContain("jump");
     const rows = await db.select().from(planVersions).where(eq(planVersions.planId, planId));
-    expect(rows.map((r) => [r.number, r.verdict]).sort()).toEqual([[1, "pass"], [2, "fault"]]);
+    expect(rows.map((r) => [r.number, r.verdict]).sort()).toEqual([
+      [1, "pass"],
+      [2, "fault"],
+    ]);
   });
 
   it("answers 409 when a save is based on a version that is no longer the newest, and writes nothing", async () => {
@@ -81,32 +101,57 @@ describe("plan versions", () => {
 
   it("reads a document the way the command line does: a Cartesian target becomes a joint goal, an unreachable one is refused at its path", async () => {
     const base = await db.$count(planVersions, eq(planVersions.planId, planId));
-    const withTarget = { ...gentlePlan(), start: [0, 0.3, 0.5, 0.2, 0, 0, 0.01], moves: [{ target: { position: [0.3, 0, 0.3] }, duration: 2 }] };
+    const withTarget = {
+      ...gentlePlan(),
+      start: [0, 0.3, 0.5, 0.2, 0, 0, 0.01],
+      moves: [{ target: { position: [0.3, 0, 0.3] }, duration: 2 }],
+    };
     const saved = await saveVersion(base, withTarget);
     expect(saved.status, saved.text).toBe(201);
     const number = (saved.body as { version: { number: number } }).version.number;
-    const [row] = await db.select().from(planVersions).where(eq(planVersions.planId, planId)).orderBy(planVersions.number).offset(number - 1);
+    const [row] = await db
+      .select()
+      .from(planVersions)
+      .where(eq(planVersions.planId, planId))
+      .orderBy(planVersions.number)
+      .offset(number - 1);
     const goal = (row.document as { moves: { goal: number[] }[] }).moves[0].goal;
     expect(goal).toHaveLength(7);
     expect(goal[6]).toBe(0.01); // the gripper is outside the chain and keeps its value
-    const unreachable = await saveVersion(number, { ...withTarget, moves: [{ target: { position: [5, 5, 5] }, duration: 2 }] });
+    const unreachable = await saveVersion(number, {
+      ...withTarget,
+      moves: [{ target: { position: [5, 5, 5] }, duration: 2 }],
+    });
     expect(unreachable.status).toBe(400);
     expect(errorOf(unreachable).issues.map((i) => i.path)).toContain("document.moves[0].target");
   });
 
   it("returns a version's document and the arm revision it was checked against", async () => {
-    const res = await call(versionRoute.GET, { path: `/api/v1/plans/${planId}/versions/2`, params: { planId, version: "2" }, auth });
+    const res = await call(versionRoute.GET, {
+      path: `/api/v1/plans/${planId}/versions/2`,
+      params: { planId, version: "2" },
+      auth,
+    });
     expect(res.status).toBe(200);
-    const v = (res.body as { version: { document: { moves: unknown[] }; armRevision: number; verdict: string } }).version;
+    const v = (res.body as { version: { document: { moves: unknown[] }; armRevision: number; verdict: string } })
+      .version;
     expect(v.verdict).toBe("fault");
     expect(v.armRevision).toBeGreaterThanOrEqual(1);
     expect(v.document.moves).toEqual((jumpPlan().moves as object[]).map((m) => ({ shape: "quintic", ...m })));
   });
 
   it("diffs two versions field by field", async () => {
-    const res = await call(diffRoute.GET, { path: `/api/v1/plans/${planId}/diff?from=1&to=2`, params: { planId }, auth });
+    const res = await call(diffRoute.GET, {
+      path: `/api/v1/plans/${planId}/diff?from=1&to=2`,
+      params: { planId },
+      auth,
+    });
     expect(res.status).toBe(200);
-    const body = res.body as { from: { verdict: string }; to: { verdict: string }; changes: { path: string; from: unknown; to: unknown }[] };
+    const body = res.body as {
+      from: { verdict: string };
+      to: { verdict: string };
+      changes: { path: string; from: unknown; to: unknown }[];
+    };
     expect([body.from.verdict, body.to.verdict]).toEqual(["pass", "fault"]);
     expect(body.changes).toContainEqual({ path: "moves[0].duration", change: "changed", from: 2, to: 0 });
     expect(body.changes).toContainEqual({ path: "moves[0].goal[0]", change: "changed", from: 0.3, to: 1.2 });
@@ -116,7 +161,11 @@ describe("plan versions", () => {
 
 describe("exports", () => {
   it("exports JSON whose SHA-256 verifies, with the waypoints at the chosen rate and the stored verdict", async () => {
-    const res = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/1/export?format=json&rateHz=50`, params: { planId, version: "1" }, auth });
+    const res = await call(exportRoute.GET, {
+      path: `/api/v1/plans/${planId}/versions/1/export?format=json&rateHz=50`,
+      params: { planId, version: "1" },
+      auth,
+    });
     expect(res.status).toBe(200);
     expect((await verifyExport(res.text)).ok).toBe(true);
     const body = res.body as { export: { rateHz: number; waypoints: number[][]; report: { verdict: string } } };
@@ -132,7 +181,11 @@ describe("exports", () => {
   });
 
   it("exports CSV with a header per joint and a checksum line that detects any edit", async () => {
-    const res = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/2/export?format=csv`, params: { planId, version: "2" }, auth });
+    const res = await call(exportRoute.GET, {
+      path: `/api/v1/plans/${planId}/versions/2/export?format=csv`,
+      params: { planId, version: "2" },
+      auth,
+    });
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
     expect(res.headers.get("x-jointproof-verdict")).toBe("fault");
@@ -149,12 +202,24 @@ describe("exports", () => {
     expect(saved.status).toBe(201);
     const number = String((saved.body as { version: { number: number } }).version.number);
     // 100 s × 10 kHz × 8 columns = 8 million values, over the 5 million limit; 100 s × 100 Hz is fine.
-    const tooMany = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=10000`, params: { planId, version: number }, auth });
+    const tooMany = await call(exportRoute.GET, {
+      path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=10000`,
+      params: { planId, version: number },
+      auth,
+    });
     expect(tooMany.status).toBe(422);
     expect(errorOf(tooMany).issues[0].path).toBe("query.rateHz");
-    const fine = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?format=csv&rateHz=100`, params: { planId, version: number }, auth });
+    const fine = await call(exportRoute.GET, {
+      path: `/api/v1/plans/${planId}/versions/${number}/export?format=csv&rateHz=100`,
+      params: { planId, version: number },
+      auth,
+    });
     expect(fine.status).toBe(200);
-    const bad = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/1/export?rateHz=abc`, params: { planId, version: "1" }, auth });
+    const bad = await call(exportRoute.GET, {
+      path: `/api/v1/plans/${planId}/versions/1/export?rateHz=abc`,
+      params: { planId, version: "1" },
+      auth,
+    });
     expect(bad.status).toBe(400);
     expect(errorOf(bad).issues[0].path).toBe("query.rateHz");
   });
@@ -164,21 +229,31 @@ describe("export and the command-line checker", () => {
   it.each([
     ["1", "pass", 0],
     ["2", "fault", 1],
-  ])("bin/jointproof check reads export of version %s as a plan and finds the stored verdict (%s)", async (number, verdict, exitCode) => {
-    const res = await call(exportRoute.GET, { path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=20`, params: { planId, version: number }, auth });
-    expect((await verifyExport(res.text)).ok).toBe(true);
-    const dir = mkdtempSync(join(tmpdir(), "jp-export-"));
-    try {
-      const file = join(dir, "export.json");
-      writeFileSync(file, res.text);
-      const run = spawnSync(process.execPath, ["bin/jointproof", "check", "--json", file], { encoding: "utf8", timeout: 60_000 });
-      expect(run.status, run.stderr).toBe(exitCode);
-      expect((JSON.parse(run.stdout) as { verdict: string }).verdict).toBe(verdict);
-      expect((res.body as { export: { report: { verdict: string } } }).export.report.verdict).toBe(verdict);
-    } finally {
-      rmSync(dir, { recursive: true, force: true });
-    }
-  });
+  ])(
+    "bin/jointproof check reads export of version %s as a plan and finds the stored verdict (%s)",
+    async (number, verdict, exitCode) => {
+      const res = await call(exportRoute.GET, {
+        path: `/api/v1/plans/${planId}/versions/${number}/export?rateHz=20`,
+        params: { planId, version: number },
+        auth,
+      });
+      expect((await verifyExport(res.text)).ok).toBe(true);
+      const dir = mkdtempSync(join(tmpdir(), "jp-export-"));
+      try {
+        const file = join(dir, "export.json");
+        writeFileSync(file, res.text);
+        const run = spawnSync(process.execPath, ["bin/jointproof", "check", "--json", file], {
+          encoding: "utf8",
+          timeout: 60_000,
+        });
+        expect(run.status, run.stderr).toBe(exitCode);
+        expect((JSON.parse(run.stdout) as { verdict: string }).verdict).toBe(verdict);
+        expect((res.body as { export: { report: { verdict: string } } }).export.report.verdict).toBe(verdict);
+      } finally {
+        rmSync(dir, { recursive: true, force: true });
+      }
+    },
+  );
 });
 
 describe("stateless check", () => {
@@ -194,8 +269,12 @@ describe("stateless check", () => {
 describe("immutability in the database", () => {
   it("refuses to edit a saved plan version or arm revision, whoever asks", async () => {
     const { armRevisions } = await import("@/db/schema");
-    await expect(db.update(planVersions).set({ note: "edited" }).where(eq(planVersions.planId, planId))).rejects.toThrow();
-    await expect(db.update(armRevisions).set({ note: "edited" }).where(eq(armRevisions.armId, demoArm.id))).rejects.toThrow();
+    await expect(
+      db.update(planVersions).set({ note: "edited" }).where(eq(planVersions.planId, planId)),
+    ).rejects.toThrow();
+    await expect(
+      db.update(armRevisions).set({ note: "edited" }).where(eq(armRevisions.armId, demoArm.id)),
+    ).rejects.toThrow();
     const rows = await db.select().from(planVersions).where(eq(planVersions.planId, planId));
     expect(rows.some((r) => r.note === "edited")).toBe(false);
   });

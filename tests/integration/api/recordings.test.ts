@@ -38,14 +38,30 @@ async function objectKeys(prefix: string): Promise<string[]> {
   return (res.Contents ?? []).map((o) => o.Key ?? "");
 }
 
-function post(body: string | Uint8Array, query: string, headers: Record<string, string> = { "content-type": "text/csv" }) {
-  return call(upload.POST, { method: "POST", path: `/api/v1/projects/${projectId}/recordings?${query}`, params: { projectId }, auth, rawBody: body, headers });
+function post(
+  body: string | Uint8Array,
+  query: string,
+  headers: Record<string, string> = { "content-type": "text/csv" },
+) {
+  return call(upload.POST, {
+    method: "POST",
+    path: `/api/v1/projects/${projectId}/recordings?${query}`,
+    params: { projectId },
+    auth,
+    rawBody: body,
+    headers,
+  });
 }
 
 beforeAll(async () => {
   const u = await makeUser("researcher");
   auth = { bearer: await tokenFor(u.id) };
-  const p = await call(projectsRoute.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: "Demonstrations" } });
+  const p = await call(projectsRoute.POST, {
+    method: "POST",
+    path: "/api/v1/projects",
+    auth,
+    body: { name: "Demonstrations" },
+  });
   projectId = (p.body as { project: { id: string } }).project.id;
 });
 
@@ -54,12 +70,19 @@ describe("recording uploads (object storage through the S3 API)", () => {
     const csv = recordingCsv();
     const res = await post(csv, `name=Guided%20pick&armId=${demoArm.id}`);
     expect(res.status, res.text).toBe(201);
-    const body = res.body as { recording: { id: string; sampleCount: number; jointCount: number; sizeBytes: number; objectKey: string }; stream: { verdict: string; findings: { kind: string; sample: number }[] } };
+    const body = res.body as {
+      recording: { id: string; sampleCount: number; jointCount: number; sizeBytes: number; objectKey: string };
+      stream: { verdict: string; findings: { kind: string; sample: number }[] };
+    };
     expect(body.recording).toMatchObject({ sampleCount: 201, jointCount: 7, sizeBytes: Buffer.byteLength(csv) });
     expect(body.stream.verdict).toBe("fault");
     expect(body.stream.findings.filter((f) => f.kind === "jump").map((f) => f.sample)).toEqual([50, 120]);
     expect(await objectKeys(body.recording.objectKey)).toEqual([body.recording.objectKey]);
-    const back = await call(file.GET, { path: `/api/v1/recordings/${body.recording.id}/file`, params: { recordingId: body.recording.id }, auth });
+    const back = await call(file.GET, {
+      path: `/api/v1/recordings/${body.recording.id}/file`,
+      params: { recordingId: body.recording.id },
+      auth,
+    });
     expect(back.status).toBe(200);
     expect(back.text).toBe(csv);
   });
@@ -81,21 +104,26 @@ describe("recording uploads (object storage through the S3 API)", () => {
   it.each([
     ["with the arm", `armId=${demoArm.id}&`],
     ["without an arm", ""],
-  ])("refuses a recording whose time does not strictly increase with 422 naming the line (%s), and stores nothing", async (_what, armQuery) => {
-    const lines = recordingCsv().split("\n");
-    // data sample 10 is on line 12 (the header is line 1): give it the time of the line before
-    lines[11] = [lines[10].split(",")[0], ...lines[11].split(",").slice(1)].join(",");
-    const before = await db.$count(recordings, eq(recordings.projectId, projectId));
-    const objectsBefore = await objectKeys(`recordings/${projectId}/`);
-    const res = await post(lines.join("\n"), `${armQuery}name=Backwards`);
-    expect(res.status, res.text).toBe(422);
-    const error = errorOf(res);
-    expect(error.code).toBe("unprocessable:recording");
-    expect(error.message).toContain("line 12");
-    expect(error.issues).toEqual([{ path: "line 12.t", message: "time 0.09 s is not after the previous line's 0.09 s" }]);
-    expect(await db.$count(recordings, eq(recordings.projectId, projectId))).toBe(before);
-    expect(await objectKeys(`recordings/${projectId}/`)).toEqual(objectsBefore);
-  });
+  ])(
+    "refuses a recording whose time does not strictly increase with 422 naming the line (%s), and stores nothing",
+    async (_what, armQuery) => {
+      const lines = recordingCsv().split("\n");
+      // data sample 10 is on line 12 (the header is line 1): give it the time of the line before
+      lines[11] = [lines[10].split(",")[0], ...lines[11].split(",").slice(1)].join(",");
+      const before = await db.$count(recordings, eq(recordings.projectId, projectId));
+      const objectsBefore = await objectKeys(`recordings/${projectId}/`);
+      const res = await post(lines.join("\n"), `${armQuery}name=Backwards`);
+      expect(res.status, res.text).toBe(422);
+      const error = errorOf(res);
+      expect(error.code).toBe("unprocessable:recording");
+      expect(error.message).toContain("line 12");
+      expect(error.issues).toEqual([
+        { path: "line 12.t", message: "time 0.09 s is not after the previous line's 0.09 s" },
+      ]);
+      expect(await db.$count(recordings, eq(recordings.projectId, projectId))).toBe(before);
+      expect(await objectKeys(`recordings/${projectId}/`)).toEqual(objectsBefore);
+    },
+  );
 
   it("names the line of a value that is not a number (422)", async () => {
     const lines = recordingCsv().split("\n");
@@ -106,7 +134,10 @@ describe("recording uploads (object storage through the S3 API)", () => {
   });
 
   it("refuses a body over the upload limit from its declared length, before reading it (413)", async () => {
-    const res = await post("t,base\n0,0\n", "name=Huge", { "content-type": "text/csv", "content-length": String(env().UPLOAD_LIMIT_BYTES + 1) });
+    const res = await post("t,base\n0,0\n", "name=Huge", {
+      "content-type": "text/csv",
+      "content-length": String(env().UPLOAD_LIMIT_BYTES + 1),
+    });
     expect(res.status).toBe(413);
     expect(errorOf(res).code).toBe("payload_too_large");
   });

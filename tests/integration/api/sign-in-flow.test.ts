@@ -16,7 +16,10 @@ type Cookie = { name: string; value: string; options: { httpOnly?: boolean; same
 process.env.NEXTAUTH_URL ??= BASE;
 
 async function signIn(email: string, password: string) {
-  const csrf = await AuthHandler({ req: { action: "csrf", method: "GET", origin: BASE, cookies: {}, headers: { host: new URL(BASE).host } }, options: authOptions() });
+  const csrf = await AuthHandler({
+    req: { action: "csrf", method: "GET", origin: BASE, cookies: {}, headers: { host: new URL(BASE).host } },
+    options: authOptions(),
+  });
   const csrfToken = (csrf.body as { csrfToken: string }).csrfToken;
   const cookies = Object.fromEntries(((csrf.cookies ?? []) as Cookie[]).map((c) => [c.name, c.value]));
   const res = await AuthHandler({

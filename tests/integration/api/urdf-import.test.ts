@@ -14,13 +14,25 @@ let projectId: string;
 const urdf = readFileSync("kinematics/arm/presets/bench-arm-l.urdf", "utf8");
 
 function post(body: string, query = "", type = "application/xml") {
-  return call(importRoute.POST, { method: "POST", path: `/api/v1/projects/${projectId}/arms/import${query}`, params: { projectId }, auth, rawBody: body, headers: { "content-type": type } });
+  return call(importRoute.POST, {
+    method: "POST",
+    path: `/api/v1/projects/${projectId}/arms/import${query}`,
+    params: { projectId },
+    auth,
+    rawBody: body,
+    headers: { "content-type": type },
+  });
 }
 
 beforeAll(async () => {
   const u = await makeUser("researcher");
   auth = { bearer: await tokenFor(u.id) };
-  const p = await call(projectsRoute.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: "URDF lab" } });
+  const p = await call(projectsRoute.POST, {
+    method: "POST",
+    path: "/api/v1/projects",
+    auth,
+    body: { name: "URDF lab" },
+  });
   projectId = (p.body as { project: { id: string } }).project.id;
 });
 
@@ -28,7 +40,13 @@ describe("URDF import", () => {
   it("turns the demo arm's URDF into a custom arm with the six arm joints and limits of its JSON twin, keeping the file", async () => {
     const res = await post(urdf, "?name=Imported%20L");
     expect(res.status, res.text).toBe(201);
-    const body = res.body as { arm: { id: string }; revision: { description: { joints: { name: string; min: number; max: number; maxVelocity: number }[] }; urdfKey: string } };
+    const body = res.body as {
+      arm: { id: string };
+      revision: {
+        description: { joints: { name: string; min: number; max: number; maxVelocity: number }[] };
+        urdfKey: string;
+      };
+    };
     const joints = body.revision.description.joints.map((j) => [j.name, j.min, j.max, j.maxVelocity]);
     // The URDF describes the six arm joints (the gripper is not in it); they match the JSON description.
     expect(joints).toEqual(demoArm.description.joints.slice(0, 6).map((j) => [j.name, j.min, j.max, j.maxVelocity]));

@@ -27,11 +27,20 @@ export function baseMovePlan(durationS: number): Record<string, unknown> {
   const n = demoArm.description.joints.length;
   const goal = new Array(n).fill(0);
   goal[0] = 1;
-  return { format: "jointproof.plan", version: 1, arm: demoArm.description, start: new Array(n).fill(0), moves: [{ goal, duration: durationS, shape: "quintic" }] };
+  return {
+    format: "jointproof.plan",
+    version: 1,
+    arm: demoArm.description,
+    start: new Array(n).fill(0),
+    moves: [{ goal, duration: durationS, shape: "quintic" }],
+  };
 }
 
 /** A personal project and plan of the student's, with the given documents saved as versions 1, 2, … */
-export async function studentPlan(userId: string, documents: Record<string, unknown>[]): Promise<{ planId: string; projectId: string }> {
+export async function studentPlan(
+  userId: string,
+  documents: Record<string, unknown>[],
+): Promise<{ planId: string; projectId: string }> {
   const project = await createProject({ name: "My assignment work", kind: "personal", userId });
   const plan = await createPlan({ projectId: project.id, armId: demoArm.id, name: "Base sweep", userId });
   const revision = await demoArmRevision();
@@ -54,8 +63,17 @@ export async function studentPlan(userId: string, documents: Record<string, unkn
 }
 
 /** A course taught by `instructorId` with one assignment on the demo arm (70% speed), and `studentIds` enrolled. */
-export async function courseWithAssignment(instructorId: string, studentIds: string[], dueAt = new Date(Date.now() + 86_400_000)) {
-  const course = await createCourse({ userId: instructorId, title: "Robot Motion I", term: "Autumn", limits: { velocityScale: 0.7 } });
+export async function courseWithAssignment(
+  instructorId: string,
+  studentIds: string[],
+  dueAt = new Date(Date.now() + 86_400_000),
+) {
+  const course = await createCourse({
+    userId: instructorId,
+    title: "Robot Motion I",
+    term: "Autumn",
+    limits: { velocityScale: 0.7 },
+  });
   for (const id of studentIds) await enrolStudent({ courseId: course.id, userId: id });
   const revision = await demoArmRevision();
   const assignment = await createAssignment({

@@ -48,7 +48,10 @@ export async function startMailHarness(): Promise<MailHarness> {
       for (;;) {
         const found = (await messages()).find(match);
         if (found) return found;
-        if (Date.now() > until) throw new Error(`no matching e-mail within ${timeoutMs} ms; received: ${(await messages()).map((m) => `${m.to}: ${m.subject}`).join(" | ") || "none"}`);
+        if (Date.now() > until)
+          throw new Error(
+            `no matching e-mail within ${timeoutMs} ms; received: ${(await messages()).map((m) => `${m.to}: ${m.subject}`).join(" | ") || "none"}`,
+          );
         await new Promise((r) => setTimeout(r, 200));
       }
     },

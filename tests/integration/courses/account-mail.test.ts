@@ -41,7 +41,9 @@ describe("account e-mails", () => {
 
     expect(await resetPassword({ token, password: "a-new-password-42" })).toBe(true);
     expect(await resetPassword({ token, password: "another-password-43" })).toBe(false);
-    await expect(verifyCredentials({ email: user.email, password: "a-new-password-42" }, null)).resolves.toMatchObject({ id: user.id });
+    await expect(verifyCredentials({ email: user.email, password: "a-new-password-42" }, null)).resolves.toMatchObject({
+      id: user.id,
+    });
     await expect(verifyCredentials({ email: user.email, password: user.password }, null)).rejects.toThrow();
   });
 

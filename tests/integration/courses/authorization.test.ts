@@ -27,7 +27,15 @@ import * as decisionRoute from "@/app/api/v1/reviews/[submissionId]/decision/rou
 import { demoArmRevision } from "./_fixtures";
 
 type Caller = "anonymous" | "student" | "otherStudent" | "instructor" | "otherInstructor" | "admin" | "studentToken";
-const callers: Caller[] = ["anonymous", "student", "otherStudent", "otherInstructor", "admin", "studentToken", "instructor"];
+const callers: Caller[] = [
+  "anonymous",
+  "student",
+  "otherStudent",
+  "otherInstructor",
+  "admin",
+  "studentToken",
+  "instructor",
+];
 
 type Handler = Parameters<typeof call>[0];
 type Row = {
@@ -39,7 +47,15 @@ type Row = {
   body?: (ids: Ids) => unknown;
   expect: Record<Caller, number>;
 };
-type Ids = { courseId: string; joinCourseCode: string; assignmentId: string; submissionId: string; removableId: string; planId: string; revisionId: string };
+type Ids = {
+  courseId: string;
+  joinCourseCode: string;
+  assignmentId: string;
+  submissionId: string;
+  removableId: string;
+  planId: string;
+  revisionId: string;
+};
 
 /** Statuses for a resource of one course: not enrolled → 404, enrolled without the right → 403. */
 const courseScoped = (student: number, instructor: number): Record<Caller, number> => ({
@@ -63,7 +79,14 @@ const anyone = (ok: number, extra: Partial<Record<Caller, number>> = {}): Record
 });
 
 const rows: Row[] = [
-  { name: "GET /courses", handler: coursesRoute.GET, method: "GET", path: () => "/api/v1/courses", params: () => ({}), expect: anyone(200) },
+  {
+    name: "GET /courses",
+    handler: coursesRoute.GET,
+    method: "GET",
+    path: () => "/api/v1/courses",
+    params: () => ({}),
+    expect: anyone(200),
+  },
   {
     name: "POST /courses",
     handler: coursesRoute.POST,
@@ -82,8 +105,22 @@ const rows: Row[] = [
     body: (ids) => ({ code: ids.joinCourseCode }),
     expect: anyone(200),
   },
-  { name: "GET /courses/:courseId", handler: courseRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(200, 200) },
-  { name: "GET /courses/:courseId/roster", handler: rosterRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/roster`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(403, 200) },
+  {
+    name: "GET /courses/:courseId",
+    handler: courseRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/courses/${i.courseId}`,
+    params: (i) => ({ courseId: i.courseId }),
+    expect: courseScoped(200, 200),
+  },
+  {
+    name: "GET /courses/:courseId/roster",
+    handler: rosterRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/courses/${i.courseId}/roster`,
+    params: (i) => ({ courseId: i.courseId }),
+    expect: courseScoped(403, 200),
+  },
   {
     name: "DELETE /courses/:courseId/roster/:userId",
     handler: rosterMemberRoute.DELETE,
@@ -101,19 +138,51 @@ const rows: Row[] = [
     body: () => ({ emails: ["matrix-invitee@example.com"] }),
     expect: courseScoped(403, 202),
   },
-  { name: "GET /courses/:courseId/assignments", handler: assignmentsRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/assignments`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(200, 200) },
+  {
+    name: "GET /courses/:courseId/assignments",
+    handler: assignmentsRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/courses/${i.courseId}/assignments`,
+    params: (i) => ({ courseId: i.courseId }),
+    expect: courseScoped(200, 200),
+  },
   {
     name: "POST /courses/:courseId/assignments",
     handler: assignmentsRoute.POST,
     method: "POST",
     path: (i) => `/api/v1/courses/${i.courseId}/assignments`,
     params: (i) => ({ courseId: i.courseId }),
-    body: (i) => ({ title: "Matrix assignment", dueAt: new Date(Date.now() + 3_600_000).toISOString(), requiredArmRevisionId: i.revisionId }),
+    body: (i) => ({
+      title: "Matrix assignment",
+      dueAt: new Date(Date.now() + 3_600_000).toISOString(),
+      requiredArmRevisionId: i.revisionId,
+    }),
     expect: courseScoped(403, 201),
   },
-  { name: "GET /courses/:courseId/grades", handler: gradesRoute.GET, method: "GET", path: (i) => `/api/v1/courses/${i.courseId}/grades`, params: (i) => ({ courseId: i.courseId }), expect: courseScoped(403, 200) },
-  { name: "GET /assignments/:assignmentId", handler: assignmentRoute.GET, method: "GET", path: (i) => `/api/v1/assignments/${i.assignmentId}`, params: (i) => ({ assignmentId: i.assignmentId }), expect: courseScoped(200, 200) },
-  { name: "GET /assignments/:assignmentId/submissions", handler: submitRoute.GET, method: "GET", path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`, params: (i) => ({ assignmentId: i.assignmentId }), expect: courseScoped(200, 403) },
+  {
+    name: "GET /courses/:courseId/grades",
+    handler: gradesRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/courses/${i.courseId}/grades`,
+    params: (i) => ({ courseId: i.courseId }),
+    expect: courseScoped(403, 200),
+  },
+  {
+    name: "GET /assignments/:assignmentId",
+    handler: assignmentRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/assignments/${i.assignmentId}`,
+    params: (i) => ({ assignmentId: i.assignmentId }),
+    expect: courseScoped(200, 200),
+  },
+  {
+    name: "GET /assignments/:assignmentId/submissions",
+    handler: submitRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`,
+    params: (i) => ({ assignmentId: i.assignmentId }),
+    expect: courseScoped(200, 403),
+  },
   {
     name: "POST /assignments/:assignmentId/submissions",
     handler: submitRoute.POST,
@@ -124,10 +193,38 @@ const rows: Row[] = [
     // The student's earlier submission still waits for review: allowed, but a conflict.
     expect: courseScoped(409, 403),
   },
-  { name: "GET /submissions", handler: mySubmissionsRoute.GET, method: "GET", path: () => "/api/v1/submissions", params: () => ({}), expect: anyone(200) },
-  { name: "GET /submissions/:submissionId", handler: submissionRoute.GET, method: "GET", path: (i) => `/api/v1/submissions/${i.submissionId}`, params: (i) => ({ submissionId: i.submissionId }), expect: courseScoped(200, 200) },
-  { name: "GET /reviews", handler: queueRoute.GET, method: "GET", path: () => "/api/v1/reviews", params: () => ({}), expect: anyone(200) },
-  { name: "GET /reviews/:submissionId/comments", handler: commentsRoute.GET, method: "GET", path: (i) => `/api/v1/reviews/${i.submissionId}/comments`, params: (i) => ({ submissionId: i.submissionId }), expect: courseScoped(200, 200) },
+  {
+    name: "GET /submissions",
+    handler: mySubmissionsRoute.GET,
+    method: "GET",
+    path: () => "/api/v1/submissions",
+    params: () => ({}),
+    expect: anyone(200),
+  },
+  {
+    name: "GET /submissions/:submissionId",
+    handler: submissionRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/submissions/${i.submissionId}`,
+    params: (i) => ({ submissionId: i.submissionId }),
+    expect: courseScoped(200, 200),
+  },
+  {
+    name: "GET /reviews",
+    handler: queueRoute.GET,
+    method: "GET",
+    path: () => "/api/v1/reviews",
+    params: () => ({}),
+    expect: anyone(200),
+  },
+  {
+    name: "GET /reviews/:submissionId/comments",
+    handler: commentsRoute.GET,
+    method: "GET",
+    path: (i) => `/api/v1/reviews/${i.submissionId}/comments`,
+    params: (i) => ({ submissionId: i.submissionId }),
+    expect: courseScoped(200, 200),
+  },
   {
     name: "POST /reviews/:submissionId/comments",
     handler: commentsRoute.POST,
@@ -208,35 +305,122 @@ afterAll(async () => {
 
 describe("course routes: authorisation matrix", () => {
   const cases = rows.flatMap((row) => callers.map((caller) => ({ row, caller, expected: row.expect[caller] })));
-  it.each(cases.map((c) => [c.row.name, c.caller, c.expected, c] as const))("%s as %s → %i", async (_name, caller, expected, c) => {
-    const res = await call(c.row.handler, {
-      method: c.row.method,
-      path: c.row.path(ids),
-      params: c.row.params(ids),
-      auth: auth[caller] ?? null,
-      body: c.row.body?.(ids),
-    });
-    expect(res.status, JSON.stringify(res.body)).toBe(expected);
-    if (expected >= 400) expect((res.body as { error?: { code?: string } }).error?.code).toMatch(/^(unauthorized|forbidden|not_found|conflict)/);
-  });
+  it.each(cases.map((c) => [c.row.name, c.caller, c.expected, c] as const))(
+    "%s as %s → %i",
+    async (_name, caller, expected, c) => {
+      const res = await call(c.row.handler, {
+        method: c.row.method,
+        path: c.row.path(ids),
+        params: c.row.params(ids),
+        auth: auth[caller] ?? null,
+        body: c.row.body?.(ids),
+      });
+      expect(res.status, JSON.stringify(res.body)).toBe(expected);
+      if (expected >= 400)
+        expect((res.body as { error?: { code?: string } }).error?.code).toMatch(
+          /^(unauthorized|forbidden|not_found|conflict)/,
+        );
+    },
+  );
 });
 
 describe("course routes: bad input", () => {
-  const bad: { name: string; handler: Handler; path: (i: Ids) => string; params: (i: Ids) => Record<string, string>; body: unknown; field: string; status?: number }[] = [
-    { name: "course without a title", handler: coursesRoute.POST, path: () => "/api/v1/courses", params: () => ({}), body: { term: "Spring" }, field: "title" },
-    { name: "course limits that loosen", handler: coursesRoute.POST, path: () => "/api/v1/courses", params: () => ({}), body: { title: "x", term: "y", limits: { velocityScale: 1.5 } }, field: "limits.velocityScale" },
-    { name: "course on an arm revision that is neither built in nor readable", handler: coursesRoute.POST, path: () => "/api/v1/courses", params: () => ({}), body: { title: "x", term: "y", requiredArmRevisionId: "00000000-0000-4000-8000-000000000000" }, field: "requiredArmRevisionId", status: 422 },
-    { name: "join code of the wrong shape", handler: joinRoute.POST, path: () => "/api/v1/courses/join", params: () => ({}), body: { code: "abc" }, field: "code" },
-    { name: "invitation to a non-address", handler: invitationsRoute.POST, path: (i) => `/api/v1/courses/${i.courseId}/invitations`, params: (i) => ({ courseId: i.courseId }), body: { emails: ["not-an-address"] }, field: "emails[0]" },
-    { name: "assignment with a bad due date", handler: assignmentsRoute.POST, path: (i) => `/api/v1/courses/${i.courseId}/assignments`, params: (i) => ({ courseId: i.courseId }), body: { title: "t", dueAt: "tomorrow", requiredArmRevisionId: "00000000-0000-4000-8000-000000000000" }, field: "dueAt" },
-    { name: "submission with a string version", handler: submitRoute.POST, path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`, params: (i) => ({ assignmentId: i.assignmentId }), body: { planId: "00000000-0000-4000-8000-000000000000", versionNumber: "1" }, field: "versionNumber" },
-    { name: "comment with a negative time", handler: commentsRoute.POST, path: (i) => `/api/v1/reviews/${i.submissionId}/comments`, params: (i) => ({ submissionId: i.submissionId }), body: { body: "x", timeS: -1 }, field: "timeS" },
-    { name: "return without a summary", handler: decisionRoute.POST, path: (i) => `/api/v1/reviews/${i.submissionId}/decision`, params: (i) => ({ submissionId: i.submissionId }), body: { decision: "returned" }, field: "summary" },
+  const bad: {
+    name: string;
+    handler: Handler;
+    path: (i: Ids) => string;
+    params: (i: Ids) => Record<string, string>;
+    body: unknown;
+    field: string;
+    status?: number;
+  }[] = [
+    {
+      name: "course without a title",
+      handler: coursesRoute.POST,
+      path: () => "/api/v1/courses",
+      params: () => ({}),
+      body: { term: "Spring" },
+      field: "title",
+    },
+    {
+      name: "course limits that loosen",
+      handler: coursesRoute.POST,
+      path: () => "/api/v1/courses",
+      params: () => ({}),
+      body: { title: "x", term: "y", limits: { velocityScale: 1.5 } },
+      field: "limits.velocityScale",
+    },
+    {
+      name: "course on an arm revision that is neither built in nor readable",
+      handler: coursesRoute.POST,
+      path: () => "/api/v1/courses",
+      params: () => ({}),
+      body: { title: "x", term: "y", requiredArmRevisionId: "00000000-0000-4000-8000-000000000000" },
+      field: "requiredArmRevisionId",
+      status: 422,
+    },
+    {
+      name: "join code of the wrong shape",
+      handler: joinRoute.POST,
+      path: () => "/api/v1/courses/join",
+      params: () => ({}),
+      body: { code: "abc" },
+      field: "code",
+    },
+    {
+      name: "invitation to a non-address",
+      handler: invitationsRoute.POST,
+      path: (i) => `/api/v1/courses/${i.courseId}/invitations`,
+      params: (i) => ({ courseId: i.courseId }),
+      body: { emails: ["not-an-address"] },
+      field: "emails[0]",
+    },
+    {
+      name: "assignment with a bad due date",
+      handler: assignmentsRoute.POST,
+      path: (i) => `/api/v1/courses/${i.courseId}/assignments`,
+      params: (i) => ({ courseId: i.courseId }),
+      body: { title: "t", dueAt: "tomorrow", requiredArmRevisionId: "00000000-0000-4000-8000-000000000000" },
+      field: "dueAt",
+    },
+    {
+      name: "submission with a string version",
+      handler: submitRoute.POST,
+      path: (i) => `/api/v1/assignments/${i.assignmentId}/submissions`,
+      params: (i) => ({ assignmentId: i.assignmentId }),
+      body: { planId: "00000000-0000-4000-8000-000000000000", versionNumber: "1" },
+      field: "versionNumber",
+    },
+    {
+      name: "comment with a negative time",
+      handler: commentsRoute.POST,
+      path: (i) => `/api/v1/reviews/${i.submissionId}/comments`,
+      params: (i) => ({ submissionId: i.submissionId }),
+      body: { body: "x", timeS: -1 },
+      field: "timeS",
+    },
+    {
+      name: "return without a summary",
+      handler: decisionRoute.POST,
+      path: (i) => `/api/v1/reviews/${i.submissionId}/decision`,
+      params: (i) => ({ submissionId: i.submissionId }),
+      body: { decision: "returned" },
+      field: "summary",
+    },
   ];
-  it.each(bad.map((b) => [b.name, b.status ?? 400, b] as const))("%s is a %i naming the field", async (_name, status, b) => {
-    const res = await call(b.handler, { method: "POST", path: b.path(ids), params: b.params(ids), auth: auth.instructor ?? null, body: b.body });
-    expect(res.status).toBe(status);
-    const issues = (res.body as { error: { issues: { path: string }[] } }).error.issues;
-    expect(issues.map((i) => i.path)).toContain(b.field);
-  });
+  it.each(bad.map((b) => [b.name, b.status ?? 400, b] as const))(
+    "%s is a %i naming the field",
+    async (_name, status, b) => {
+      const res = await call(b.handler, {
+        method: "POST",
+        path: b.path(ids),
+        params: b.params(ids),
+        auth: auth.instructor ?? null,
+        body: b.body,
+      });
+      expect(res.status).toBe(status);
+      const issues = (res.body as { error: { issues: { path: string }[] } }).error.issues;
+      expect(issues.map((i) => i.path)).toContain(b.field);
+    },
+  );
 });

@@ -19,7 +19,14 @@ let student: TestUser;
 let asInstructor: Auth;
 let asStudent: Auth;
 
-type Body = { submission: { id: string; verdict: string; status: string; review: { decision: string; faultApprovalReason: string | null } | null } };
+type Body = {
+  submission: {
+    id: string;
+    verdict: string;
+    status: string;
+    review: { decision: string; faultApprovalReason: string | null } | null;
+  };
+};
 
 /** The student submits their own plan (one base move of `durationS`) to a fresh assignment (70% of maximum speed). */
 async function submitted(durationS: number): Promise<{ id: string; verdict: string }> {
@@ -37,13 +44,28 @@ async function submitted(durationS: number): Promise<{ id: string; verdict: stri
 }
 
 const decide = (submissionId: string, body: unknown) =>
-  call(decisionRoute.POST, { method: "POST", path: `/api/v1/reviews/${submissionId}/decision`, params: { submissionId }, auth: asInstructor, body });
+  call(decisionRoute.POST, {
+    method: "POST",
+    path: `/api/v1/reviews/${submissionId}/decision`,
+    params: { submissionId },
+    auth: asInstructor,
+    body,
+  });
 
 const seenByStudent = async (submissionId: string) =>
-  (await call(submissionRoute.GET, { path: `/api/v1/submissions/${submissionId}`, params: { submissionId }, auth: asStudent })).body as Body;
+  (
+    await call(submissionRoute.GET, {
+      path: `/api/v1/submissions/${submissionId}`,
+      params: { submissionId },
+      auth: asStudent,
+    })
+  ).body as Body;
 
 async function decisionMail(reviewId: string) {
-  const [row] = await db.select().from(mailOutbox).where(eq(mailOutbox.dedupeKey, `submission-decided:${reviewId}`));
+  const [row] = await db
+    .select()
+    .from(mailOutbox)
+    .where(eq(mailOutbox.dedupeKey, `submission-decided:${reviewId}`));
   if (!row) throw new Error("no decision e-mail queued");
   return row;
 }
@@ -84,9 +106,17 @@ describe("approving a submission whose check faults", () => {
   it.each([
     ["a confirmation without a reason", { decision: "approved", confirmFaults: true }, "reason"],
     ["a reason of blanks", { decision: "approved", confirmFaults: true, reason: "   " }, "reason"],
-    ["a reason over 1000 characters", { decision: "approved", confirmFaults: true, reason: "x".repeat(1001) }, "reason"],
+    [
+      "a reason over 1000 characters",
+      { decision: "approved", confirmFaults: true, reason: "x".repeat(1001) },
+      "reason",
+    ],
     ["a reason without the confirmation", { decision: "approved", reason: "Looks fine." }, "confirmFaults"],
-    ["a confirmation on a return", { decision: "returned", summary: "Slow down.", confirmFaults: true, reason: "n/a" }, "confirmFaults"],
+    [
+      "a confirmation on a return",
+      { decision: "returned", summary: "Slow down.", confirmFaults: true, reason: "n/a" },
+      "confirmFaults",
+    ],
   ])("is a 400 naming the field for %s", async (_what, body, field) => {
     const res = await decide(faulty.id, body);
     expect(res.status, res.text).toBe(400);
@@ -95,7 +125,12 @@ describe("approving a submission whose check faults", () => {
 
   it("with the confirmation and a reason: approved, the reason stored and shown to the student, the e-mail honest", async () => {
     const reason = "The speed fault is what this exercise is about; we discuss it in class.";
-    const res = await decide(faulty.id, { decision: "approved", summary: "", confirmFaults: true, reason: `  ${reason}  ` });
+    const res = await decide(faulty.id, {
+      decision: "approved",
+      summary: "",
+      confirmFaults: true,
+      reason: `  ${reason}  `,
+    });
     expect(res.status, res.text).toBe(201);
     const review = (res.body as { review: { id: string; faultApprovalReason: string | null } }).review;
     expect(review.faultApprovalReason).toBe(reason);

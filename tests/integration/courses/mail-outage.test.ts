@@ -81,7 +81,16 @@ describe("mail server outage", () => {
 
   it("sends a message once when several workers and jobs race for it", async () => {
     const to = `race-${Date.now()}@example.com`;
-    const [id] = await queueMail([{ kind: "test", dedupeKey: `race:${to}`, toAddress: to, subject: "Race", text: "One copy.", html: "<p>One copy.</p>" }]);
+    const [id] = await queueMail([
+      {
+        kind: "test",
+        dedupeKey: `race:${to}`,
+        toAddress: to,
+        subject: "Race",
+        text: "One copy.",
+        html: "<p>One copy.</p>",
+      },
+    ]);
     const { sendOutboxRow } = await import("@/lib/server/mail/worker");
     const { enqueueMail } = await import("@/lib/server/mail/queue");
     const outcomes = await Promise.all([
@@ -97,7 +106,14 @@ describe("mail server outage", () => {
   }, 30_000);
 
   it("does not queue the same event twice", async () => {
-    const row = { kind: "test", dedupeKey: `dedupe:${Date.now()}`, toAddress: "dedupe@example.com", subject: "Once", text: "x", html: "<p>x</p>" };
+    const row = {
+      kind: "test",
+      dedupeKey: `dedupe:${Date.now()}`,
+      toAddress: "dedupe@example.com",
+      subject: "Once",
+      text: "x",
+      html: "<p>x</p>",
+    };
     const first = await queueMail([row]);
     const second = await queueMail([row]);
     expect(first).toHaveLength(1);

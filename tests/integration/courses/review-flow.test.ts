@@ -76,12 +76,24 @@ describe("course review flow", () => {
 
     // The student joins with the code from the link in the e-mail.
     const code = new URL(/https?:\/\/\S+/.exec(invitation.text)![0]).searchParams.get("code");
-    const joined = await call(joinRoute.POST, { method: "POST", path: "/api/v1/courses/join", auth: asStudent, body: { code } });
+    const joined = await call(joinRoute.POST, {
+      method: "POST",
+      path: "/api/v1/courses/join",
+      auth: asStudent,
+      body: { code },
+    });
     expect(joined.status).toBe(200);
     expect((joined.body as Body).role).toBe("student");
-    const roster = await call(rosterRoute.GET, { path: `/api/v1/courses/${course.id}/roster`, params: { courseId: course.id }, auth: asInstructor });
+    const roster = await call(rosterRoute.GET, {
+      path: `/api/v1/courses/${course.id}/roster`,
+      params: { courseId: course.id },
+      auth: asInstructor,
+    });
     expect((roster.body as Body).roster.map((r: Body) => [r.userId, r.role])).toEqual(
-      expect.arrayContaining([[instructor.id, "instructor"], [student.id, "student"]]),
+      expect.arrayContaining([
+        [instructor.id, "instructor"],
+        [student.id, "student"],
+      ]),
     );
 
     // An assignment on the light demo arm: start at zero, reach base = 1 rad.
@@ -108,7 +120,11 @@ describe("course review flow", () => {
     // the arm itself) but above 70% of it (2.24 rad/s): the server's re-check must find a fault.
     // Version 2 takes 2 s (0.94 rad/s) and passes.
     const listStatus = async () => {
-      const res = await call(assignmentsRoute.GET, { path: `/api/v1/courses/${course.id}/assignments`, params: { courseId: course.id }, auth: asStudent });
+      const res = await call(assignmentsRoute.GET, {
+        path: `/api/v1/courses/${course.id}/assignments`,
+        params: { courseId: course.id },
+        auth: asStudent,
+      });
       return (res.body as Body).assignments.find((a: Body) => a.id === assignment.id)?.status;
     };
     expect(await listStatus()).toBe("not-started");
@@ -135,7 +151,10 @@ describe("course review flow", () => {
     expect(received.html).toContain(`/reviews/${firstSub.id}`);
 
     // The queue lists it for the instructor; the student teaches nothing and sees an empty queue.
-    const queue = await call(queueRoute.GET, { path: `/api/v1/reviews?courseId=${course.id}&status=submitted`, auth: asInstructor });
+    const queue = await call(queueRoute.GET, {
+      path: `/api/v1/reviews?courseId=${course.id}&status=submitted`,
+      auth: asInstructor,
+    });
     expect((queue.body as Body).queue.map((q: Body) => q.id)).toEqual([firstSub.id]);
     const studentQueue = await call(queueRoute.GET, { path: "/api/v1/reviews", auth: asStudent });
     expect((studentQueue.body as Body).queue).toEqual([]);
@@ -146,7 +165,12 @@ describe("course review flow", () => {
       path: `/api/v1/reviews/${firstSub.id}/comments`,
       params: { submissionId: firstSub.id },
       auth: asInstructor,
-      body: { body: "The base is over 70% of its speed here; lengthen the move.", moveIndex: 0, jointIndex: 0, timeS: 0.365 },
+      body: {
+        body: "The base is over 70% of its speed here; lengthen the move.",
+        moveIndex: 0,
+        jointIndex: 0,
+        timeS: 0.365,
+      },
     });
     expect(comment.status).toBe(201);
     const returned = await call(decisionRoute.POST, {
@@ -163,7 +187,11 @@ describe("course review flow", () => {
     expect(returnedMail.text).toContain(`/reviews/${firstSub.id}`);
 
     // The student sees the comment where it is pinned.
-    const seen = await call(submissionRoute.GET, { path: `/api/v1/submissions/${firstSub.id}`, params: { submissionId: firstSub.id }, auth: asStudent });
+    const seen = await call(submissionRoute.GET, {
+      path: `/api/v1/submissions/${firstSub.id}`,
+      params: { submissionId: firstSub.id },
+      auth: asStudent,
+    });
     expect(seen.status).toBe(200);
     expect((seen.body as Body).submission.status).toBe("returned");
     expect((seen.body as Body).comments).toMatchObject([{ moveIndex: 0, jointIndex: 0, timeS: 0.365 }]);
@@ -213,7 +241,11 @@ describe("course review flow", () => {
 
     expect(await listStatus()).toBe("approved");
 
-    const grades = await call(gradesRoute.GET, { path: `/api/v1/courses/${course.id}/grades`, params: { courseId: course.id }, auth: asInstructor });
+    const grades = await call(gradesRoute.GET, {
+      path: `/api/v1/courses/${course.id}/grades`,
+      params: { courseId: course.id },
+      auth: asInstructor,
+    });
     expect(grades.status).toBe(200);
     expect(grades.headers.get("content-type")).toContain("text/csv");
     const lines = grades.text.trim().split("\r\n");
@@ -223,19 +255,36 @@ describe("course review flow", () => {
     expect(lines[1]).toMatch(/,2,[^,]+,false,pass,approved,$/);
 
     // Who did what is in the audit log.
-    const audit = await db.select({ action: auditLog.action, actorId: auditLog.actorId }).from(auditLog).where(eq(auditLog.targetId, firstSub.id));
-    expect(audit).toEqual(expect.arrayContaining([{ action: "submission.create", actorId: student.id }, { action: "submission.return", actorId: instructor.id }]));
+    const audit = await db
+      .select({ action: auditLog.action, actorId: auditLog.actorId })
+      .from(auditLog)
+      .where(eq(auditLog.targetId, firstSub.id));
+    expect(audit).toEqual(
+      expect.arrayContaining([
+        { action: "submission.create", actorId: student.id },
+        { action: "submission.return", actorId: instructor.id },
+      ]),
+    );
 
     // Every queued message went out exactly once: five messages, five distinct outbox rows, all sent.
     await new Promise((r) => setTimeout(r, 1_500));
     const ours = (await mail.messages()).filter((m) => m.to === student.email || m.to === instructor.email);
     expect(ours.map((m) => m.kind).sort()).toEqual(
-      ["course-invitation", "submission-approved", "submission-received", "submission-received", "submission-returned"].sort(),
+      [
+        "course-invitation",
+        "submission-approved",
+        "submission-received",
+        "submission-received",
+        "submission-returned",
+      ].sort(),
     );
     expect(new Set(ours.map((m) => m.messageId)).size).toBe(ours.length);
     for (const m of ours) {
       const id = /^<([0-9a-f-]{36})@/.exec(m.messageId ?? "")?.[1];
-      const [row] = await db.select().from(mailOutbox).where(eq(mailOutbox.id, id ?? "00000000-0000-0000-0000-000000000000"));
+      const [row] = await db
+        .select()
+        .from(mailOutbox)
+        .where(eq(mailOutbox.id, id ?? "00000000-0000-0000-0000-000000000000"));
       expect(row?.status).toBe("sent");
     }
   });

@@ -29,7 +29,15 @@ describe("roster", () => {
     const { course, assignment } = await courseWithAssignment(instructor.id, [student.id]);
     const asStudent = { cookie: await sessionCookieFor(student.id) };
     const { planId } = await studentPlan(student.id, [baseMovePlan(2)]);
-    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { courseId: course.id }, auth: asStudent })).status).toBe(200);
+    expect(
+      (
+        await call(courseRoute.GET, {
+          path: `/api/v1/courses/${course.id}`,
+          params: { courseId: course.id },
+          auth: asStudent,
+        })
+      ).status,
+    ).toBe(200);
 
     const removed = await call(rosterMemberRoute.DELETE, {
       method: "DELETE",
@@ -38,7 +46,15 @@ describe("roster", () => {
       auth: { cookie: await sessionCookieFor(instructor.id) },
     });
     expect(removed.status).toBe(200);
-    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { courseId: course.id }, auth: asStudent })).status).toBe(404);
+    expect(
+      (
+        await call(courseRoute.GET, {
+          path: `/api/v1/courses/${course.id}`,
+          params: { courseId: course.id },
+          auth: asStudent,
+        })
+      ).status,
+    ).toBe(404);
     const submit = await call(submitRoute.POST, {
       method: "POST",
       path: `/api/v1/assignments/${assignment.id}/submissions`,
@@ -49,16 +65,32 @@ describe("roster", () => {
     expect(submit.status).toBe(404);
 
     const code = (await getCourseForUser({ courseId: course.id, userId: instructor.id }))!.joinCode;
-    const joined = await call(joinRoute.POST, { method: "POST", path: "/api/v1/courses/join", auth: asStudent, body: { code: code.toLowerCase() } });
+    const joined = await call(joinRoute.POST, {
+      method: "POST",
+      path: "/api/v1/courses/join",
+      auth: asStudent,
+      body: { code: code.toLowerCase() },
+    });
     expect(joined.status).toBe(200);
-    expect((await call(courseRoute.GET, { path: `/api/v1/courses/${course.id}`, params: { courseId: course.id }, auth: asStudent })).status).toBe(200);
+    expect(
+      (
+        await call(courseRoute.GET, {
+          path: `/api/v1/courses/${course.id}`,
+          params: { courseId: course.id },
+          auth: asStudent,
+        })
+      ).status,
+    ).toBe(200);
   });
 
   it("an unknown join code is a 404 and the instructor cannot be removed", async () => {
     const instructor = await makeUser("instructor");
     const { course } = await courseWithAssignment(instructor.id, []);
     const auth = { cookie: await sessionCookieFor(instructor.id) };
-    expect((await call(joinRoute.POST, { method: "POST", path: "/api/v1/courses/join", auth, body: { code: "ZZZZZZZZ" } })).status).toBe(404);
+    expect(
+      (await call(joinRoute.POST, { method: "POST", path: "/api/v1/courses/join", auth, body: { code: "ZZZZZZZZ" } }))
+        .status,
+    ).toBe(404);
     const self = await call(rosterMemberRoute.DELETE, {
       method: "DELETE",
       path: `/api/v1/courses/${course.id}/roster/${instructor.id}`,
@@ -89,14 +121,29 @@ describe("development mail API", () => {
     const worker = await startMailWorker({ pollingIntervalSeconds: 0.5, sweepIntervalMs: 1_000 });
     try {
       const to = `dev-page-${Date.now()}@example.com`;
-      const ids = await queueMail([{ kind: "test", dedupeKey: `dev-page:${to}`, toAddress: to, subject: "Shown on the dev page", text: "t", html: "<p>t</p>" }]);
+      const ids = await queueMail([
+        {
+          kind: "test",
+          dedupeKey: `dev-page:${to}`,
+          toAddress: to,
+          subject: "Shown on the dev page",
+          text: "t",
+          html: "<p>t</p>",
+        },
+      ]);
       const { enqueueMail } = await import("@/lib/server/mail/queue");
       await enqueueMail(ids);
       await mail.waitFor((m) => m.to === to);
       const admin = await makeUser("admin");
-      const res = await call(devMailRoute.GET, { path: "/api/dev/mail", auth: { cookie: await sessionCookieFor(admin.id) } });
+      const res = await call(devMailRoute.GET, {
+        path: "/api/dev/mail",
+        auth: { cookie: await sessionCookieFor(admin.id) },
+      });
       expect(res.status).toBe(200);
-      const body = res.body as { messages: { to: string; subject: string }[]; outbox: { toAddress: string; status: string }[] };
+      const body = res.body as {
+        messages: { to: string; subject: string }[];
+        outbox: { toAddress: string; status: string }[];
+      };
       expect(body.messages.find((m) => m.to === to)?.subject).toBe("Shown on the dev page");
       expect(body.outbox.find((r) => r.toAddress === to)?.status).toBe("sent");
     } finally {

@@ -35,10 +35,22 @@ describe("ruleProblems", () => {
   const zero = new Array(n).fill(0);
   const goal = [1, ...new Array(n - 1).fill(0)];
   it("accepts the required start and goal within the tolerance", () => {
-    expect(ruleProblems(plan(2), "rev", { requiredArmRevisionId: "rev", requiredStart: zero, requiredGoals: [goal.map((v) => v + 0.0005)], poseTolerance: 0.001 })).toEqual([]);
+    expect(
+      ruleProblems(plan(2), "rev", {
+        requiredArmRevisionId: "rev",
+        requiredStart: zero,
+        requiredGoals: [goal.map((v) => v + 0.0005)],
+        poseTolerance: 0.001,
+      }),
+    ).toEqual([]);
   });
   it("names a missed goal, a wrong start and a wrong arm revision", () => {
-    const problems = ruleProblems(plan(2), "other", { requiredArmRevisionId: "rev", requiredStart: goal, requiredGoals: [zero.map(() => 0.5)], poseTolerance: 0.001 });
+    const problems = ruleProblems(plan(2), "other", {
+      requiredArmRevisionId: "rev",
+      requiredStart: goal,
+      requiredGoals: [zero.map(() => 0.5)],
+      poseTolerance: 0.001,
+    });
     expect(problems.map((p) => p.rule)).toEqual(["arm-revision", "start-pose", "goal-pose"]);
   });
 });
@@ -50,7 +62,10 @@ describe("checkAgainstAssignment", () => {
     expect(checkAgainstAssignment(plan(0.73), arm, "rev", rules).report.verdict).not.toBe("fault");
     const strict = checkAgainstAssignment(plan(0.73), arm, "rev", { ...rules, courseLimits: { velocityScale: 0.7 } });
     expect(strict.report.verdict).toBe("fault");
-    expect(strict.report.findings.find((f) => f.kind === "speed-over")?.limit).toBeCloseTo(arm.joints[0].maxVelocity * 0.7, 9);
+    expect(strict.report.findings.find((f) => f.kind === "speed-over")?.limit).toBeCloseTo(
+      arm.joints[0].maxVelocity * 0.7,
+      9,
+    );
   });
 });
 

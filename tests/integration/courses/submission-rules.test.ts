@@ -6,7 +6,16 @@
  */
 import "../api/_env";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { call, demoArm, errorOf, makeUser, sessionCookieFor, type Auth, type CallResult, type TestUser } from "../api/_helpers";
+import {
+  call,
+  demoArm,
+  errorOf,
+  makeUser,
+  sessionCookieFor,
+  type Auth,
+  type CallResult,
+  type TestUser,
+} from "../api/_helpers";
 import { baseMovePlan, courseWithAssignment, demoArmRevision, studentPlan } from "./_fixtures";
 import { createArm } from "@/db/queries/arms";
 import { createPlan, createPlanVersion } from "@/db/queries/plans";
@@ -67,11 +76,14 @@ describe("submitting from a shared course project", () => {
   let sharedProjectId: string;
 
   beforeAll(async () => {
-    ({ assignment: { id: assignmentId } } = await courseWithAssignment(instructor.id, [student.id, classmate.id]));
+    ({
+      assignment: { id: assignmentId },
+    } = await courseWithAssignment(instructor.id, [student.id, classmate.id]));
     // The classmate owns a shared project and makes the student an editor of it.
     const shared = await createProject({ name: "Shared course work", kind: "course", userId: classmate.id });
     sharedProjectId = shared.id;
-    if (!(await upsertMember({ projectId: shared.id, ownerId: classmate.id, email: student.email, role: "editor" }))) throw new Error("member not added");
+    if (!(await upsertMember({ projectId: shared.id, ownerId: classmate.id, email: student.email, role: "editor" })))
+      throw new Error("member not added");
   });
 
   const submit = (planId: string, versionNumber: number) =>
@@ -84,7 +96,12 @@ describe("submitting from a shared course project", () => {
     });
 
   it("refuses a classmate's plan with 403 forbidden:submission saying whose plans can be submitted", async () => {
-    const plan = await createPlan({ projectId: sharedProjectId, armId: demoArm.id, name: "Classmate's sweep", userId: classmate.id });
+    const plan = await createPlan({
+      projectId: sharedProjectId,
+      armId: demoArm.id,
+      name: "Classmate's sweep",
+      userId: classmate.id,
+    });
     await saveVersion(plan.id, 0, classmate.id);
     const res = await submit(plan.id, 1);
     expect(res.status, res.text).toBe(403);
@@ -93,7 +110,12 @@ describe("submitting from a shared course project", () => {
   });
 
   it("refuses a classmate's plan even in a version the student saved as its editor", async () => {
-    const plan = await createPlan({ projectId: sharedProjectId, armId: demoArm.id, name: "Edited together", userId: classmate.id });
+    const plan = await createPlan({
+      projectId: sharedProjectId,
+      armId: demoArm.id,
+      name: "Edited together",
+      userId: classmate.id,
+    });
     await saveVersion(plan.id, 0, classmate.id);
     await saveVersion(plan.id, 1, student.id);
     const res = await submit(plan.id, 2);
@@ -102,7 +124,12 @@ describe("submitting from a shared course project", () => {
   });
 
   it("refuses the student's own plan in a version a classmate saved, naming the version", async () => {
-    const plan = await createPlan({ projectId: sharedProjectId, armId: demoArm.id, name: "Mine, edited by a classmate", userId: student.id });
+    const plan = await createPlan({
+      projectId: sharedProjectId,
+      armId: demoArm.id,
+      name: "Mine, edited by a classmate",
+      userId: student.id,
+    });
     await saveVersion(plan.id, 0, student.id);
     await saveVersion(plan.id, 1, classmate.id);
     const res = await submit(plan.id, 2);
@@ -118,7 +145,12 @@ describe("submitting from a shared course project", () => {
   });
 
   it("accepts the student's own plan in a version they saved, in the shared project", async () => {
-    const plan = await createPlan({ projectId: sharedProjectId, armId: demoArm.id, name: "All mine", userId: student.id });
+    const plan = await createPlan({
+      projectId: sharedProjectId,
+      armId: demoArm.id,
+      name: "All mine",
+      userId: student.id,
+    });
     await saveVersion(plan.id, 0, student.id);
     const res = await submit(plan.id, 1);
     expect(res.status, res.text).toBe(201);
@@ -133,16 +165,31 @@ describe("the arm revision a course or an assignment requires", () => {
   beforeAll(async () => {
     // An arm in a project the instructor is not a member of, and one in a project of their own.
     const other = await createProject({ name: "Private lab", kind: "research", userId: outsider.id });
-    const privateArm = await createArm({ projectId: other.id, name: "Secret arm", description: demoArm.description, userId: outsider.id });
+    const privateArm = await createArm({
+      projectId: other.id,
+      name: "Secret arm",
+      description: demoArm.description,
+      userId: outsider.id,
+    });
     const own = await createProject({ name: "My lab", kind: "research", userId: instructor.id });
-    const ownArm = await createArm({ projectId: own.id, name: "My arm", description: demoArm.description, userId: instructor.id });
+    const ownArm = await createArm({
+      projectId: own.id,
+      name: "My arm",
+      description: demoArm.description,
+      userId: instructor.id,
+    });
     if (!privateArm || !ownArm) throw new Error("arms not created");
     privateRevisionId = privateArm.revision.id;
     ownRevisionId = ownArm.revision.id;
   });
 
   const createCourse = (requiredArmRevisionId: string) =>
-    call(coursesRoute.POST, { method: "POST", path: "/api/v1/courses", auth: asInstructor, body: { title: "Arm check", term: "Spring", requiredArmRevisionId } });
+    call(coursesRoute.POST, {
+      method: "POST",
+      path: "/api/v1/courses",
+      auth: asInstructor,
+      body: { title: "Arm check", term: "Spring", requiredArmRevisionId },
+    });
 
   it("refuses a course naming another project's private revision with 422, exactly as for one that does not exist", async () => {
     const secret = await createCourse(privateRevisionId);

@@ -43,9 +43,25 @@ export async function auditedDataset(projectId: string): Promise<string> {
   const bytes = matrixParquet(arm);
   const key = `datasets/${projectId}/matrix-${Math.random().toString(36).slice(2)}`;
   await putObject(key, bytes, "application/octet-stream");
-  const dataset = await createDataset({ projectId, name: "Matrix dataset", objectKey: key, fileKind: "parquet", sizeBytes: bytes.byteLength, sha256: "0".repeat(64), armRevisionId: revision.id, mapping: {}, createdBy: owner.userId });
-  const started = await startDatasetAudit({ datasetId: dataset.id, userId: owner.userId, episodeCount: 2, batchSize: 25 });
+  const dataset = await createDataset({
+    projectId,
+    name: "Matrix dataset",
+    objectKey: key,
+    fileKind: "parquet",
+    sizeBytes: bytes.byteLength,
+    sha256: "0".repeat(64),
+    armRevisionId: revision.id,
+    mapping: {},
+    createdBy: owner.userId,
+  });
+  const started = await startDatasetAudit({
+    datasetId: dataset.id,
+    userId: owner.userId,
+    episodeCount: 2,
+    batchSize: 25,
+  });
   if (!started) throw new Error("fixture audit not started");
-  for (const batch of started.batches) await runDatasetBatch({ datasetId: dataset.id, generation: started.dataset.generation, batch });
+  for (const batch of started.batches)
+    await runDatasetBatch({ datasetId: dataset.id, generation: started.dataset.generation, batch });
   return dataset.id;
 }

@@ -35,10 +35,14 @@ Object.assign(process.env, workerEnv);
 const workers: ChildProcess[] = [];
 
 function startWorker(): Promise<ChildProcess> {
-  const child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"], {
-    env: { ...process.env, ...workerEnv },
-    stdio: ["ignore", "pipe", "pipe"],
-  });
+  const child = spawn(
+    process.execPath,
+    ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"],
+    {
+      env: { ...process.env, ...workerEnv },
+      stdio: ["ignore", "pipe", "pipe"],
+    },
+  );
   workers.push(child);
   let log = "";
   child.stderr?.on("data", (d: Buffer) => (log += d.toString()));
@@ -93,7 +97,13 @@ describe("dataset audit through the workers", () => {
   let datasetId: string;
 
   it("refuses an upload without its Content-Length, and one cut short, storing nothing", async () => {
-    const noLength = await call(uploadRoute.POST, { method: "POST", path: `/api/v1/projects/${projectId}/datasets?name=NoLength`, params: { projectId }, auth, rawBody: parquet });
+    const noLength = await call(uploadRoute.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/datasets?name=NoLength`,
+      params: { projectId },
+      auth,
+      rawBody: parquet,
+    });
     expect(noLength.status).toBe(400);
     const cut = await call(uploadRoute.POST, {
       method: "POST",
@@ -104,7 +114,11 @@ describe("dataset audit through the workers", () => {
       headers: { "content-length": String(parquet.byteLength) },
     });
     expect(cut.status).toBe(400);
-    const list = await call(uploadRoute.GET, { path: `/api/v1/projects/${projectId}/datasets`, params: { projectId }, auth });
+    const list = await call(uploadRoute.GET, {
+      path: `/api/v1/projects/${projectId}/datasets`,
+      params: { projectId },
+      auth,
+    });
     expect((list.body as { datasets: unknown[] }).datasets).toEqual([]);
   });
 
@@ -127,7 +141,8 @@ describe("dataset audit through the workers", () => {
       headers: { "content-length": String(parquet.byteLength) },
     });
     expect(res.status).toBe(201);
-    const dataset = (res.body as { dataset: { id: string; sizeBytes: number; fileKind: string; sha256: string } }).dataset;
+    const dataset = (res.body as { dataset: { id: string; sizeBytes: number; fileKind: string; sha256: string } })
+      .dataset;
     expect(dataset).toMatchObject({ sizeBytes: parquet.byteLength, fileKind: "parquet" });
     const { createHash } = await import("node:crypto");
     expect(dataset.sha256).toBe(createHash("sha256").update(parquet).digest("hex"));
@@ -135,9 +150,24 @@ describe("dataset audit through the workers", () => {
   });
 
   it("previews the mapping (columns and types, episodes, first rows) and refuses a mapping that cannot be read", async () => {
-    const preview = await call(previewRoute.POST, { method: "POST", path: `/api/v1/datasets/${datasetId}/preview`, params: { datasetId }, auth: viewerAuth, body: { armId, mapping: {} } });
+    const preview = await call(previewRoute.POST, {
+      method: "POST",
+      path: `/api/v1/datasets/${datasetId}/preview`,
+      params: { datasetId },
+      auth: viewerAuth,
+      body: { armId, mapping: {} },
+    });
     expect(preview.status).toBe(200);
-    const body = (preview.body as { preview: { episodes: number; problems: string[]; files: { columns: { name: string; type: string }[] }[]; firstEpisode: { rows: number[][] } } }).preview;
+    const body = (
+      preview.body as {
+        preview: {
+          episodes: number;
+          problems: string[];
+          files: { columns: { name: string; type: string }[] }[];
+          firstEpisode: { rows: number[][] };
+        };
+      }
+    ).preview;
     expect({ episodes: body.episodes, problems: body.problems }).toEqual({ episodes: EPISODES, problems: [] });
     expect(body.files[0].columns.slice(0, 3)).toEqual([
       { name: "episode", type: "STRING" },
@@ -145,31 +175,67 @@ describe("dataset audit through the workers", () => {
       { name: "t", type: "DOUBLE" },
     ]);
     expect(body.firstEpisode.rows[1].slice(1)).toEqual(Array.from(generated[0].recording.position.subarray(7, 14)));
-    const bad = await call(mappingRoute.POST, { method: "POST", path: `/api/v1/datasets/${datasetId}/mapping`, params: { datasetId }, auth, body: { armId, mapping: { jointsColumn: "state" } } });
+    const bad = await call(mappingRoute.POST, {
+      method: "POST",
+      path: `/api/v1/datasets/${datasetId}/mapping`,
+      params: { datasetId },
+      auth,
+      body: { armId, mapping: { jointsColumn: "state" } },
+    });
     expect(bad.status).toBe(422);
     expect(JSON.stringify(bad.body)).toContain("Its columns: episode (STRING), frame_index (INT32), t (DOUBLE)");
-    const ok = await call(mappingRoute.POST, { method: "POST", path: `/api/v1/datasets/${datasetId}/mapping`, params: { datasetId }, auth, body: { armId, mapping: {} } });
+    const ok = await call(mappingRoute.POST, {
+      method: "POST",
+      path: `/api/v1/datasets/${datasetId}/mapping`,
+      params: { datasetId },
+      auth,
+      body: { armId, mapping: {} },
+    });
     expect(ok.status).toBe(200);
   });
 
   it("audits 330 episodes with two workers killed mid-batch and a third taking over: every episode stored once, equal to the engine's audit", async () => {
     const first = await startWorker();
     const second = await startWorker();
-    const started = await call(auditRoute.POST, { method: "POST", path: `/api/v1/datasets/${datasetId}/audit`, params: { datasetId }, auth });
+    const started = await call(auditRoute.POST, {
+      method: "POST",
+      path: `/api/v1/datasets/${datasetId}/audit`,
+      params: { datasetId },
+      auth,
+    });
     expect(started.status).toBe(202);
     const generation = (started.body as { dataset: { generation: number } }).dataset.generation;
     const batchCount = await db.$count(datasetBatches, eq(datasetBatches.datasetId, datasetId));
     expect(batchCount).toBe(Math.ceil(EPISODES / 25));
     // kill both workers while a batch is claimed and not yet stored (its job is then lost mid-batch)
-    await waitFor("a batch in hand", async () => (await db.$count(datasetBatches, sql`${datasetBatches.datasetId} = ${datasetId} and ${datasetBatches.attempts} > 0 and not ${datasetBatches.done}`)) > 0, 60_000);
+    await waitFor(
+      "a batch in hand",
+      async () =>
+        (await db.$count(
+          datasetBatches,
+          sql`${datasetBatches.datasetId} = ${datasetId} and ${datasetBatches.attempts} > 0 and not ${datasetBatches.done}`,
+        )) > 0,
+      60_000,
+    );
     first.kill("SIGKILL");
     second.kill("SIGKILL");
-    const doneAtKill = await db.$count(datasetBatches, sql`${datasetBatches.datasetId} = ${datasetId} and ${datasetBatches.done}`);
+    const doneAtKill = await db.$count(
+      datasetBatches,
+      sql`${datasetBatches.datasetId} = ${datasetId} and ${datasetBatches.done}`,
+    );
     expect(doneAtKill).toBeLessThan(batchCount);
     await startWorker();
     const summary = await waitFor("the audit to finish", async () => {
-      const res = await call(datasetRoute.GET, { path: `/api/v1/datasets/${datasetId}`, params: { datasetId }, auth: viewerAuth });
-      const body = res.body as { dataset: { status: string }; summary: Record<string, unknown>; progress: { batchesDone: number; batches: number } };
+      const res = await call(datasetRoute.GET, {
+        path: `/api/v1/datasets/${datasetId}`,
+        params: { datasetId },
+        auth: viewerAuth,
+      });
+      const body = res.body as {
+        dataset: { status: string };
+        summary: Record<string, unknown>;
+        progress: { batchesDone: number; batches: number };
+      };
       return body.dataset.status === "audited" ? body : undefined;
     });
     expect(summary.progress).toMatchObject({ batchesDone: batchCount, batches: batchCount });
@@ -191,10 +257,21 @@ describe("dataset audit through the workers", () => {
     const byIndex = new Map(rows.map((r) => [r.index, r]));
     expected.forEach((audit, i) => {
       const row = byIndex.get(i)!;
-      expect({ episode: row.episode, verdict: row.verdict, findings: row.findingCount }).toEqual({ episode: audit.episode, verdict: audit.verdict, findings: audit.findings.length });
+      expect({ episode: row.episode, verdict: row.verdict, findings: row.findingCount }).toEqual({
+        episode: audit.episode,
+        verdict: audit.verdict,
+        findings: audit.findings.length,
+      });
     });
     const local = summarizeAudits(expected);
-    expect(summary.summary).toMatchObject({ episodes: EPISODES, pass: local.pass, caution: local.caution, fault: local.fault, invalid: local.invalid, byKind: local.byKind });
+    expect(summary.summary).toMatchObject({
+      episodes: EPISODES,
+      pass: local.pass,
+      caution: local.caution,
+      fault: local.fault,
+      invalid: local.invalid,
+      byKind: local.byKind,
+    });
     // the planted defects are found: every planted glitch episode has a glitch
     generated.forEach((e, i) => {
       if (plantedDefect(i) === "glitch") expect(expected[i].findings.some((f) => f.kind === "glitch")).toBe(true);
@@ -203,36 +280,87 @@ describe("dataset audit through the workers", () => {
   }, 180_000);
 
   it("lists episodes, opens one, repairs it (viewers may not), and the repaired episode audits clean", async () => {
-    const list = await call(episodesRoute.GET, { path: `/api/v1/datasets/${datasetId}/episodes`, params: { datasetId }, auth: viewerAuth });
-    const episodes = (list.body as { episodes: { index: number; verdict: string; worstKind: string | null }[] }).episodes;
+    const list = await call(episodesRoute.GET, {
+      path: `/api/v1/datasets/${datasetId}/episodes`,
+      params: { datasetId },
+      auth: viewerAuth,
+    });
+    const episodes = (list.body as { episodes: { index: number; verdict: string; worstKind: string | null }[] })
+      .episodes;
     expect(episodes).toHaveLength(EPISODES);
     const glitchy = episodes.find((e) => e.worstKind === "glitch")!;
-    const one = await call(episodeRoute.GET, { path: `/api/v1/datasets/${datasetId}/episodes/${glitchy.index}`, params: { datasetId, index: String(glitchy.index) }, auth: viewerAuth });
+    const one = await call(episodeRoute.GET, {
+      path: `/api/v1/datasets/${datasetId}/episodes/${glitchy.index}`,
+      params: { datasetId, index: String(glitchy.index) },
+      auth: viewerAuth,
+    });
     expect(one.status).toBe(200);
-    const body = one.body as { episode: { findings: { kind: string; sample: number }[] }; recorded: { count: number; timeS: number[] }; repaired: unknown };
+    const body = one.body as {
+      episode: { findings: { kind: string; sample: number }[] };
+      recorded: { count: number; timeS: number[] };
+      repaired: unknown;
+    };
     expect(body.episode.findings.some((f) => f.kind === "glitch")).toBe(true);
     expect(body.recorded.timeS).toHaveLength(body.recorded.count);
     expect(body.repaired).toBeNull();
-    const denied = await call(repairRoute.POST, { method: "POST", path: `/api/v1/datasets/${datasetId}/repair`, params: { datasetId }, auth: viewerAuth, body: { episodes: [glitchy.index] } });
+    const denied = await call(repairRoute.POST, {
+      method: "POST",
+      path: `/api/v1/datasets/${datasetId}/repair`,
+      params: { datasetId },
+      auth: viewerAuth,
+      body: { episodes: [glitchy.index] },
+    });
     expect(denied.status).toBe(403);
-    const repaired = await call(repairRoute.POST, { method: "POST", path: `/api/v1/datasets/${datasetId}/repair`, params: { datasetId }, auth, body: { episodes: [glitchy.index] } });
+    const repaired = await call(repairRoute.POST, {
+      method: "POST",
+      path: `/api/v1/datasets/${datasetId}/repair`,
+      params: { datasetId },
+      auth,
+      body: { episodes: [glitchy.index] },
+    });
     expect(repaired.status).toBe(200);
-    expect((repaired.body as { repaired: { after: string; glitchesReplaced: number }[] }).repaired[0]).toMatchObject({ after: "pass", glitchesReplaced: 1 });
+    expect((repaired.body as { repaired: { after: string; glitchesReplaced: number }[] }).repaired[0]).toMatchObject({
+      after: "pass",
+      glitchesReplaced: 1,
+    });
   });
 
   it("repairs all, then exports a zip whose manifest lists both files' SHA-256 and the excluded invalid episodes", async () => {
-    const all = await call(repairRoute.POST, { method: "POST", path: `/api/v1/datasets/${datasetId}/repair`, params: { datasetId }, auth, body: {} });
+    const all = await call(repairRoute.POST, {
+      method: "POST",
+      path: `/api/v1/datasets/${datasetId}/repair`,
+      params: { datasetId },
+      auth,
+      body: {},
+    });
     const results = (all.body as { repaired: { before: string; after: string | null }[] }).repaired;
     expect(results.filter((r) => r.before !== "invalid").every((r) => r.after === "pass")).toBe(true);
-    const res = await call(exportRoute.GET, { path: `/api/v1/datasets/${datasetId}/export`, params: { datasetId }, auth: viewerAuth });
+    const res = await call(exportRoute.GET, {
+      path: `/api/v1/datasets/${datasetId}/export`,
+      params: { datasetId },
+      auth: viewerAuth,
+    });
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toBe("application/zip");
-    const zipBytes = new Uint8Array(await (await exportRoute.GET(new Request(`http://127.0.0.1:3000/api/v1/datasets/${datasetId}/export`, { headers: { cookie: (viewerAuth as { cookie: string }).cookie } }), { params: Promise.resolve({ datasetId }) })).arrayBuffer());
+    const zipBytes = new Uint8Array(
+      await (
+        await exportRoute.GET(
+          new Request(`http://127.0.0.1:3000/api/v1/datasets/${datasetId}/export`, {
+            headers: { cookie: (viewerAuth as { cookie: string }).cookie },
+          }),
+          { params: Promise.resolve({ datasetId }) },
+        )
+      ).arrayBuffer(),
+    );
     const files = unzipSync(zipBytes);
     expect(Object.keys(files).sort()).toEqual(["dataset.parquet", "manifest.json", "report.json"]);
     const manifest = JSON.parse(new TextDecoder().decode(files["manifest.json"]));
     const { createHash } = await import("node:crypto");
-    expect(manifest.files[0]).toEqual({ name: "dataset.parquet", bytes: files["dataset.parquet"].byteLength, sha256: createHash("sha256").update(files["dataset.parquet"]).digest("hex") });
+    expect(manifest.files[0]).toEqual({
+      name: "dataset.parquet",
+      bytes: files["dataset.parquet"].byteLength,
+      sha256: createHash("sha256").update(files["dataset.parquet"]).digest("hex"),
+    });
     const invalidCount = generated.filter((_, i) => plantedDefect(i) === "invalid").length;
     expect(manifest.excluded).toHaveLength(invalidCount);
     expect(manifest.episodes).toBe(EPISODES - invalidCount);
@@ -244,9 +372,18 @@ describe("dataset audit through the workers", () => {
   }, 60_000);
 
   it("gives a replay plan from rest to the episode and back, checked, with the safety caution", async () => {
-    const res = await call(replayRoute.GET, { path: `/api/v1/datasets/${datasetId}/episodes/0/replay-plan`, params: { datasetId, index: "0" }, auth: viewerAuth });
+    const res = await call(replayRoute.GET, {
+      path: `/api/v1/datasets/${datasetId}/episodes/0/replay-plan`,
+      params: { datasetId, index: "0" },
+      auth: viewerAuth,
+    });
     expect(res.status).toBe(200);
-    const body = res.body as { plan: { moves: { duration: number }[] }; report: { verdict: string }; caution: string; easeInS: number };
+    const body = res.body as {
+      plan: { moves: { duration: number }[] };
+      report: { verdict: string };
+      caution: string;
+      easeInS: number;
+    };
     expect(body.plan.moves.length).toBe(generated[0].recording.count + 1);
     expect(body.easeInS).toBeGreaterThan(0);
     expect(["pass", "caution", "fault"]).toContain(body.report.verdict);

@@ -26,7 +26,10 @@ describe("development mail API", () => {
   it("is a 404 to a signed-in user who is not an admin", async () => {
     enable();
     const instructor = await makeUser("instructor");
-    const res = await call(devMailRoute.GET, { path: "/api/dev/mail", auth: { cookie: await sessionCookieFor(instructor.id) } });
+    const res = await call(devMailRoute.GET, {
+      path: "/api/dev/mail",
+      auth: { cookie: await sessionCookieFor(instructor.id) },
+    });
     expect(res.status).toBe(404);
   });
 
@@ -40,7 +43,10 @@ describe("development mail API", () => {
   it("answers a signed-in admin on a loopback-only server with JP_DEV_MAIL=1", async () => {
     enable();
     const admin = await makeUser("admin");
-    const res = await call(devMailRoute.GET, { path: "/api/dev/mail", auth: { cookie: await sessionCookieFor(admin.id) } });
+    const res = await call(devMailRoute.GET, {
+      path: "/api/dev/mail",
+      auth: { cookie: await sessionCookieFor(admin.id) },
+    });
     expect(res.status, res.text).toBe(200);
     expect(res.body).toHaveProperty("messages");
   });
@@ -49,7 +55,10 @@ describe("development mail API", () => {
     Object.assign(process.env, { NODE_ENV: "production" });
     delete process.env.JP_DEV_MAIL;
     const admin = await makeUser("admin");
-    const res = await call(devMailRoute.GET, { path: "/api/dev/mail", auth: { cookie: await sessionCookieFor(admin.id) } });
+    const res = await call(devMailRoute.GET, {
+      path: "/api/dev/mail",
+      auth: { cookie: await sessionCookieFor(admin.id) },
+    });
     expect(res.status).toBe(404);
   });
 
@@ -60,7 +69,10 @@ describe("development mail API", () => {
     try {
       expect(devMailEnabled()).toBe(false);
       const admin = await makeUser("admin");
-      const res = await call(devMailRoute.GET, { path: "/api/dev/mail", auth: { cookie: await sessionCookieFor(admin.id) } });
+      const res = await call(devMailRoute.GET, {
+        path: "/api/dev/mail",
+        auth: { cookie: await sessionCookieFor(admin.id) },
+      });
       expect(res.status).toBe(404);
     } finally {
       await new Promise((r) => server.close(r));

@@ -26,11 +26,21 @@ type Cookie = { name: string; value: string };
 
 async function signOut(session: Cookie): Promise<void> {
   const host = new URL(BASE).host;
-  const csrf = await AuthHandler({ req: { action: "csrf", method: "GET", origin: BASE, cookies: {}, headers: { host } }, options: authOptions() });
+  const csrf = await AuthHandler({
+    req: { action: "csrf", method: "GET", origin: BASE, cookies: {}, headers: { host } },
+    options: authOptions(),
+  });
   const csrfToken = (csrf.body as { csrfToken: string }).csrfToken;
   const cookies = Object.fromEntries(((csrf.cookies ?? []) as Cookie[]).map((c) => [c.name, c.value]));
   await AuthHandler({
-    req: { action: "signout", method: "POST", origin: BASE, cookies: { ...cookies, [session.name]: session.value }, headers: { host }, body: { csrfToken } },
+    req: {
+      action: "signout",
+      method: "POST",
+      origin: BASE,
+      cookies: { ...cookies, [session.name]: session.value },
+      headers: { host },
+      body: { csrfToken },
+    },
     options: authOptions(),
   });
 }
@@ -54,21 +64,32 @@ describe("API tokens cannot manage tokens", () => {
   it("refuses creating, listing and revoking tokens with a token (403), and the parent token survives", async () => {
     const u = await makeUser("researcher");
     const parent = await tokenFor(u.id);
-    const created = await call(tokens.POST, { method: "POST", path: "/api/v1/tokens", auth: { bearer: parent }, body: { name: "child" } });
+    const created = await call(tokens.POST, {
+      method: "POST",
+      path: "/api/v1/tokens",
+      auth: { bearer: parent },
+      body: { name: "child" },
+    });
     expect(created.status).toBe(403);
     expect(errorOf(created).code).toBe("forbidden:token");
     expect((await call(tokens.GET, { path: "/api/v1/tokens", auth: { bearer: parent } })).status).toBe(403);
     const list = await call(tokens.GET, { path: "/api/v1/tokens", auth: { cookie: await sessionCookieFor(u.id) } });
     const rows = (list.body as { tokens: { id: string; name: string }[] }).tokens;
     expect(rows.map((r) => r.name)).toEqual(["test token"]);
-    const revoke = await call(token.DELETE, { method: "DELETE", path: `/api/v1/tokens/${rows[0].id}`, params: { tokenId: rows[0].id }, auth: { bearer: parent } });
+    const revoke = await call(token.DELETE, {
+      method: "DELETE",
+      path: `/api/v1/tokens/${rows[0].id}`,
+      params: { tokenId: rows[0].id },
+      auth: { bearer: parent },
+    });
     expect(revoke.status).toBe(403);
     expect((await call(me.GET, { path: "/api/v1/me", auth: { bearer: parent } })).status).toBe(200);
   });
 });
 
 describe("sign-up", () => {
-  const signUp = (body: unknown, headers?: Record<string, string>) => call(accounts.POST, { method: "POST", path: "/api/v1/accounts", body, headers });
+  const signUp = (body: unknown, headers?: Record<string, string>) =>
+    call(accounts.POST, { method: "POST", path: "/api/v1/accounts", body, headers });
 
   it("answers an existing address exactly as a new one (202, same body) and e-mails the existing owner instead", async () => {
     const existing = await makeUser("student");
@@ -88,21 +109,32 @@ describe("sign-up", () => {
   });
 
   it("refuses unknown fields (400 naming the field)", async () => {
-    const res = await signUp({ email: `x-${Date.now()}@example.com`, name: "X", password: "long-enough-pass", isAdmin: true });
+    const res = await signUp({
+      email: `x-${Date.now()}@example.com`,
+      name: "X",
+      password: "long-enough-pass",
+      isAdmin: true,
+    });
     expect(res.status).toBe(400);
     expect(errorOf(res).issues.map((i) => i.path)).toContain("isAdmin");
   });
 
   it("refuses a 10,000-deep nested body with 400 before parsing it", async () => {
     const deep = "[".repeat(10_000) + "]".repeat(10_000);
-    const res = await call(accounts.POST, { method: "POST", path: "/api/v1/accounts", rawBody: `{"email":"d@example.com","name":"D","password":"long-enough-pass","x":${deep}}`, headers: { "content-type": "application/json" } });
+    const res = await call(accounts.POST, {
+      method: "POST",
+      path: "/api/v1/accounts",
+      rawBody: `{"email":"d@example.com","name":"D","password":"long-enough-pass","x":${deep}}`,
+      headers: { "content-type": "application/json" },
+    });
     expect(res.status).toBe(400);
     expect(errorOf(res).message).toContain("nested more than");
   });
 
   it("creates at most 3 accounts' worth of work per address in 15 minutes (the same 202 after that)", async () => {
     const email = `limit-${Date.now()}@example.com`;
-    for (let i = 0; i < 5; i++) expect((await signUp({ email, name: "Limit", password: "long-enough-pass" })).status).toBe(202);
+    for (let i = 0; i < 5; i++)
+      expect((await signUp({ email, name: "Limit", password: "long-enough-pass" })).status).toBe(202);
     const [user] = await db.select().from(users).where(eq(users.email, email));
     expect(user).toBeDefined();
     // one verification e-mail for the new account, one note for the 2nd and 3rd attempts (deduplicated per window), none beyond
@@ -112,8 +144,15 @@ describe("sign-up", () => {
 
   it("limits sign-ups per client address: the 11th in 15 minutes is a 429 with Retry-After", async () => {
     const peer = { "x-jp-peer-address": `198.51.100.${1 + Math.floor(Math.random() * 254)}` };
-    for (let i = 0; i < 10; i++) expect((await signUp({ email: `peer-${i}-${Date.now()}@example.com`, name: "P", password: "long-enough-pass" }, peer)).status).toBe(202);
-    const res = await signUp({ email: `peer-last-${Date.now()}@example.com`, name: "P", password: "long-enough-pass" }, peer);
+    for (let i = 0; i < 10; i++)
+      expect(
+        (await signUp({ email: `peer-${i}-${Date.now()}@example.com`, name: "P", password: "long-enough-pass" }, peer))
+          .status,
+      ).toBe(202);
+    const res = await signUp(
+      { email: `peer-last-${Date.now()}@example.com`, name: "P", password: "long-enough-pass" },
+      peer,
+    );
     expect(res.status).toBe(429);
     expect(Number(res.headers.get("retry-after"))).toBeGreaterThan(0);
   });

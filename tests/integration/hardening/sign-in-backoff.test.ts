@@ -2,7 +2,14 @@
 import "../api/_env";
 import { describe, expect, it } from "vitest";
 import { makeUser } from "../api/_helpers";
-import { backoffDelayS, clientIp, PEER_ADDRESS_HEADER, RATE_LIMITED_MESSAGE, SIGN_IN_BACKOFF, verifyCredentials } from "@/lib/server/auth";
+import {
+  backoffDelayS,
+  clientIp,
+  PEER_ADDRESS_HEADER,
+  RATE_LIMITED_MESSAGE,
+  SIGN_IN_BACKOFF,
+  verifyCredentials,
+} from "@/lib/server/auth";
 
 const octet = () => 1 + Math.floor(Math.random() * 254);
 
@@ -14,7 +21,10 @@ describe("client address", () => {
   });
 
   it("reads X-Forwarded-For from the right, skipping trusted proxies, when the peer is one", () => {
-    const h = new Headers({ [PEER_ADDRESS_HEADER]: "::ffff:10.0.0.2", "x-forwarded-for": "203.0.113.66, 198.51.100.20, 10.0.0.3" });
+    const h = new Headers({
+      [PEER_ADDRESS_HEADER]: "::ffff:10.0.0.2",
+      "x-forwarded-for": "203.0.113.66, 198.51.100.20, 10.0.0.3",
+    });
     // the left-most entry is whatever the client wrote; the first untrusted one from the right is the real client
     expect(clientIp(h, ["10.0.0.2", "10.0.0.3"])).toBe("198.51.100.20");
   });
@@ -35,10 +45,16 @@ describe("back-off", () => {
     const ip = `192.0.2.${octet()}`;
     const victim = await makeUser("student");
     for (let i = 0; i < SIGN_IN_BACKOFF.freePerIp + 1; i++) {
-      await expect(verifyCredentials({ email: `nobody-${i}-${victim.id}@example.com`, password: "guess" }, ip)).rejects.toThrow();
+      await expect(
+        verifyCredentials({ email: `nobody-${i}-${victim.id}@example.com`, password: "guess" }, ip),
+      ).rejects.toThrow();
     }
-    await expect(verifyCredentials({ email: victim.email, password: victim.password }, ip)).rejects.toThrow(RATE_LIMITED_MESSAGE);
+    await expect(verifyCredentials({ email: victim.email, password: victim.password }, ip)).rejects.toThrow(
+      RATE_LIMITED_MESSAGE,
+    );
     await new Promise((r) => setTimeout(r, 2_100));
-    await expect(verifyCredentials({ email: victim.email, password: victim.password }, ip)).resolves.toMatchObject({ id: victim.id });
+    await expect(verifyCredentials({ email: victim.email, password: victim.password }, ip)).resolves.toMatchObject({
+      id: victim.id,
+    });
   });
 });

@@ -18,15 +18,30 @@ let projectId: string;
 beforeAll(async () => {
   const u = await makeUser("researcher");
   auth = { bearer: await tokenFor(u.id) };
-  const p = await call(projectsRoute.POST, { method: "POST", path: "/api/v1/projects", auth, body: { name: "Text checks" } });
+  const p = await call(projectsRoute.POST, {
+    method: "POST",
+    path: "/api/v1/projects",
+    auth,
+    body: { name: "Text checks" },
+  });
   projectId = (p.body as { project: { id: string } }).project.id;
 });
 
 const rename = (raw: string) =>
-  call(projectRoute.PATCH, { method: "PATCH", path: `/api/v1/projects/${projectId}`, params: { projectId }, auth, rawBody: raw, headers: { "content-type": "application/json" } });
+  call(projectRoute.PATCH, {
+    method: "PATCH",
+    path: `/api/v1/projects/${projectId}`,
+    params: { projectId },
+    auth,
+    rawBody: raw,
+    headers: { "content-type": "application/json" },
+  });
 
 async function auditCount(): Promise<number> {
-  const [row] = await db.select({ n: count() }).from(auditLog).where(and(eq(auditLog.projectId, projectId), eq(auditLog.action, "project.update")));
+  const [row] = await db
+    .select({ n: count() })
+    .from(auditLog)
+    .where(and(eq(auditLog.projectId, projectId), eq(auditLog.action, "project.update")));
   return row.n;
 }
 
@@ -53,7 +68,13 @@ describe("text fields", () => {
   });
 
   it("refuse a bad string inside a nested object, naming its full path", async () => {
-    const res = await call(projectsRoute.POST, { method: "POST", path: "/api/v1/projects", auth, rawBody: '{"name":"ok","extra":{"list":["x","\\u0000"]}}', headers: { "content-type": "application/json" } });
+    const res = await call(projectsRoute.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth,
+      rawBody: '{"name":"ok","extra":{"list":["x","\\u0000"]}}',
+      headers: { "content-type": "application/json" },
+    });
     expect(res.status).toBe(400);
     expect(errorOf(res).issues[0].path).toBe("extra.list[1]");
   });
@@ -62,7 +83,14 @@ describe("text fields", () => {
 describe("JSON bodies", () => {
   it("refuse a byte-order mark (RFC 8259 §8.1) with 400 instead of silently dropping it", async () => {
     const bytes = new Uint8Array([0xef, 0xbb, 0xbf, ...new TextEncoder().encode('{"name":"BOM"}')]);
-    const res = await call(projectRoute.PATCH, { method: "PATCH", path: `/api/v1/projects/${projectId}`, params: { projectId }, auth, rawBody: bytes, headers: { "content-type": "application/json" } });
+    const res = await call(projectRoute.PATCH, {
+      method: "PATCH",
+      path: `/api/v1/projects/${projectId}`,
+      params: { projectId },
+      auth,
+      rawBody: bytes,
+      headers: { "content-type": "application/json" },
+    });
     expect(res.status).toBe(400);
     expect(errorOf(res).message).toContain("byte-order mark");
   });
@@ -84,15 +112,30 @@ describe("body reading", () => {
 
   it("refuses on the declared length before reading a byte", async () => {
     let pulled = 0;
-    const body = new ReadableStream<Uint8Array>({ pull(c) { pulled++; c.enqueue(new Uint8Array(10)); } });
-    const req = new Request("http://127.0.0.1/x", { method: "POST", body, headers: { "content-length": "1000" }, duplex: "half" } as RequestInit);
+    const body = new ReadableStream<Uint8Array>({
+      pull(c) {
+        pulled++;
+        c.enqueue(new Uint8Array(10));
+      },
+    });
+    const req = new Request("http://127.0.0.1/x", {
+      method: "POST",
+      body,
+      headers: { "content-length": "1000" },
+      duplex: "half",
+    } as RequestInit);
     await expect(readBodyLimited(req, 100)).rejects.toMatchObject({ code: "payload_too_large" });
     expect(pulled).toBeLessThanOrEqual(1);
   });
 
   it("stops a chunked body as soon as the count passes the limit", async () => {
     let sent = 0;
-    const body = new ReadableStream<Uint8Array>({ pull(c) { sent += 64; c.enqueue(new Uint8Array(64)); } });
+    const body = new ReadableStream<Uint8Array>({
+      pull(c) {
+        sent += 64;
+        c.enqueue(new Uint8Array(64));
+      },
+    });
     const req = new Request("http://127.0.0.1/x", { method: "POST", body, duplex: "half" } as RequestInit);
     await expect(readBodyLimited(req, 1000)).rejects.toMatchObject({ code: "payload_too_large" });
     expect(sent).toBeLessThan(1000 + 64 * 4);
@@ -101,15 +144,36 @@ describe("body reading", () => {
 
 describe("version numbers", () => {
   it("in a path: version 0x1 is no version (404) where version 1 is found", async () => {
-    const created = await call(projectPlans.POST, { method: "POST", path: `/api/v1/projects/${projectId}/plans`, params: { projectId }, auth, body: { name: "Versions", armId: demoArm.id } });
+    const created = await call(projectPlans.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/plans`,
+      params: { projectId },
+      auth,
+      body: { name: "Versions", armId: demoArm.id },
+    });
     expect(created.status, created.text).toBe(201);
     const planId = (created.body as { plan: { id: string } }).plan.id;
-    const saved = await call(versionsRoute.POST, { method: "POST", path: `/api/v1/plans/${planId}/versions`, params: { planId }, auth, body: { baseVersion: 0, document: gentlePlan() } });
+    const saved = await call(versionsRoute.POST, {
+      method: "POST",
+      path: `/api/v1/plans/${planId}/versions`,
+      params: { planId },
+      auth,
+      body: { baseVersion: 0, document: gentlePlan() },
+    });
     expect(saved.status, saved.text).toBe(201);
-    const get = (version: string) => call(versionRoute.GET, { path: `/api/v1/plans/${planId}/versions/${version}`, params: { planId, version }, auth });
+    const get = (version: string) =>
+      call(versionRoute.GET, {
+        path: `/api/v1/plans/${planId}/versions/${version}`,
+        params: { planId, version },
+        auth,
+      });
     expect((await get("1")).status).toBe(200);
     expect((await get("0x1")).status).toBe(404);
-    const diff = await call(diffRoute.GET, { path: `/api/v1/plans/${planId}/diff?from=0x1&to=1`, auth, params: { planId } });
+    const diff = await call(diffRoute.GET, {
+      path: `/api/v1/plans/${planId}/diff?from=0x1&to=1`,
+      auth,
+      params: { planId },
+    });
     expect(diff.status).toBe(400);
     expect(errorOf(diff).issues.map((i) => i.path)).toContain("query.from");
   });
@@ -117,14 +181,23 @@ describe("version numbers", () => {
   it("take plain decimal digits only: 0x1, 1e0, +1, 01 and ' 1' are refused", () => {
     expect(versionParam.safeParse("1").data).toBe(1);
     expect(versionParam.safeParse("1000000").data).toBe(1_000_000);
-    for (const bad of ["0x1", "1e0", "+1", "01", " 1", "1.0", "0", "1000001"]) expect(versionParam.safeParse(bad).success, bad).toBe(false);
+    for (const bad of ["0x1", "1e0", "+1", "01", " 1", "1.0", "0", "1000001"])
+      expect(versionParam.safeParse(bad).success, bad).toBe(false);
   });
 });
 
 describe("database errors", () => {
   it("tell an unreachable database (refused connection, shutdown, wrapped by Drizzle) from other errors", () => {
-    expect(isDatabaseUnavailable(Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:1"), { code: "ECONNREFUSED" }))).toBe(true);
-    expect(isDatabaseUnavailable(new Error("Failed query", { cause: Object.assign(new Error("terminating connection due to administrator command"), { code: "57P01" }) }))).toBe(true);
+    expect(
+      isDatabaseUnavailable(Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:1"), { code: "ECONNREFUSED" })),
+    ).toBe(true);
+    expect(
+      isDatabaseUnavailable(
+        new Error("Failed query", {
+          cause: Object.assign(new Error("terminating connection due to administrator command"), { code: "57P01" }),
+        }),
+      ),
+    ).toBe(true);
     expect(isDatabaseUnavailable(new Error("Connection terminated unexpectedly"))).toBe(true);
     expect(isDatabaseUnavailable(Object.assign(new Error("duplicate key"), { code: "23505" }))).toBe(false);
     expect(isDatabaseUnavailable(new TypeError("x is undefined"))).toBe(false);

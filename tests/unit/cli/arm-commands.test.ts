@@ -8,7 +8,8 @@ import { repoPath } from "../kinematics/arm/helpers";
 import { expectAllClose, expectClose } from "../kinematics/tolerance";
 
 async function run(...argv: string[]) {
-  let out = "", err = "";
+  let out = "",
+    err = "";
   const code = await main(argv, { out: (t) => void (out += t), err: (t) => void (err += t) });
   return { code, out, err };
 }
@@ -21,7 +22,9 @@ describe("jointproof arm import", () => {
     const d = JSON.parse(r.out);
     expect(d.joints.map((j: { name: string }) => j.name)).toEqual(["spin", "lift", "hinge"]);
     expect(d.joints[0]).toMatchObject({ type: "continuous", min: null, max: null, maxVelocity: 3, maxEffort: 20 });
-    expect(Object.keys(d.joints[1])).toEqual(expect.arrayContaining(["name", "type", "min", "max", "maxVelocity", "maxEffort", "origin", "axis"]));
+    expect(Object.keys(d.joints[1])).toEqual(
+      expect.arrayContaining(["name", "type", "min", "max", "maxVelocity", "maxEffort", "origin", "axis"]),
+    );
     expect(d.links).toHaveLength(4);
     expectAllClose(d.tool.xyz, [0.25, 0, 0], 1e-12);
   });
@@ -29,7 +32,10 @@ describe("jointproof arm import", () => {
   it("a bad file exits 2 with one line per problem naming the element", async () => {
     const dir = mkdtempSync(join(tmpdir(), "jp-urdf-"));
     const bad = join(dir, "bad.urdf");
-    writeFileSync(bad, '<robot name="x"><link name="a"/><joint name="j" type="revolute"><parent link="a"/><child link="b"/></joint></robot>');
+    writeFileSync(
+      bad,
+      '<robot name="x"><link name="a"/><joint name="j" type="revolute"><parent link="a"/><child link="b"/></joint></robot>',
+    );
     const r = await run("arm", "import", bad);
     expect(r.code).toBe(2);
     expect(r.out).toBe("");
@@ -86,7 +92,11 @@ describe("bin/jointproof check end to end (the real launcher)", () => {
     let stdout = "";
     let status = 0;
     try {
-      stdout = execFileSync(file("bin/jointproof"), ["check", "--json", file("tests/fixtures/arm-plans/bench-e2e.json")], { encoding: "utf8" });
+      stdout = execFileSync(
+        file("bin/jointproof"),
+        ["check", "--json", file("tests/fixtures/arm-plans/bench-e2e.json")],
+        { encoding: "utf8" },
+      );
     } catch (e) {
       const err = e as { status: number; stdout: string };
       status = err.status;

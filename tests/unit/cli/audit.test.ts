@@ -69,9 +69,25 @@ describe("jointproof audit", () => {
     const b = out.episodes[1];
     expect(Object.keys(b)).toEqual(["episode", "samples", "verdict", "findings", "problems"]);
     expect(b).toMatchObject({ episode: "b", samples: 5, verdict: "fault" });
-    expect(Object.keys(b.findings[0])).toEqual(["kind", "severity", "joint", "sample", "timeS", "value", "limit", "message"]);
+    expect(Object.keys(b.findings[0])).toEqual([
+      "kind",
+      "severity",
+      "joint",
+      "sample",
+      "timeS",
+      "value",
+      "limit",
+      "message",
+    ]);
     // 0.6 rad in 0.125 s = 4.8 rad/s against 1 rad/s, at frame 2 (0-based), t = 0.25 s
-    expect(b.findings[0]).toMatchObject({ kind: "glitch", severity: "fault", joint: 0, sample: 2, timeS: 0.25, limit: 1 });
+    expect(b.findings[0]).toMatchObject({
+      kind: "glitch",
+      severity: "fault",
+      joint: 0,
+      sample: 2,
+      timeS: 0.25,
+      limit: 1,
+    });
     expect(Math.abs(b.findings[0].value - 4.8)).toBeLessThan(1e-9);
   });
 
@@ -109,7 +125,17 @@ describe("jointproof audit", () => {
       );
     const path = join(scratch, "set.zip");
     writeFileSync(path, zipSync({ "ep_0.parquet": one([0, 0.01, 0.02]), "ep_1.parquet": one([0, 0.5, 0.5]) }));
-    const { code, stdout } = run(["audit", path, "--arm", armPath, "--rate", "8", "--joints-column", "state", "--json"]);
+    const { code, stdout } = run([
+      "audit",
+      path,
+      "--arm",
+      armPath,
+      "--rate",
+      "8",
+      "--joints-column",
+      "state",
+      "--json",
+    ]);
     expect(code).toBe(1);
     const out = JSON.parse(stdout);
     expect(out.episodes.map((e: { episode: string; verdict: string }) => [e.episode, e.verdict])).toEqual([
@@ -135,7 +161,9 @@ describe("jointproof audit", () => {
     const { code, stdout, stderr } = run(["audit", path, "--arm", armPath]);
     expect(code).toBe(2);
     expect(stdout).toBe("");
-    expect(stderr).toContain('unmapped.parquet: has no column named like the arm\'s joints "lift", "grip". Its columns: t (DOUBLE), q0 (FLOAT).');
+    expect(stderr).toContain(
+      'unmapped.parquet: has no column named like the arm\'s joints "lift", "grip". Its columns: t (DOUBLE), q0 (FLOAT).',
+    );
     expect(stderr).toContain("--joints-column NAME");
   });
 
@@ -154,7 +182,9 @@ describe("jointproof audit", () => {
   it("usage errors exit 2: both --time-column and --rate, a missing --arm, a bad rate", () => {
     const path = join(scratch, "two.parquet");
     writeFileSync(path, twoEpisodes());
-    expect(run(["audit", path, "--arm", armPath, "--time-column", "t", "--rate", "30"]).stderr).toBe("--time-column and --rate: set one or the other\n");
+    expect(run(["audit", path, "--arm", armPath, "--time-column", "t", "--rate", "30"]).stderr).toBe(
+      "--time-column and --rate: set one or the other\n",
+    );
     expect(run(["audit", path]).code).toBe(2);
     expect(run(["audit", path, "--arm", armPath, "--rate", "0"]).stderr).toMatch(/^--rate: must be a frame rate/);
   });
@@ -163,7 +193,10 @@ describe("jointproof audit", () => {
     const path = join(scratch, "two.parquet");
     writeFileSync(path, twoEpisodes());
     const planPath = join(scratch, "plan.json");
-    writeFileSync(planPath, JSON.stringify({ format: "jointproof.plan", version: 1, name: "p", arm, start: [0, 0.02], moves: [] }));
+    writeFileSync(
+      planPath,
+      JSON.stringify({ format: "jointproof.plan", version: 1, name: "p", arm, start: [0, 0.02], moves: [] }),
+    );
     const { code, stdout } = run(["audit", path, "--arm", planPath, "--json"]);
     expect(code).toBe(1);
     expect(JSON.parse(stdout).summary.fault).toBe(1);
@@ -173,4 +206,3 @@ describe("jointproof audit", () => {
     expect(run(["--help"]).stdout).toContain("jointproof audit DATASET --arm ARM");
   });
 });
-

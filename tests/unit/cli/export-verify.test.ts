@@ -8,7 +8,13 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { check, parsePlan, samplePlan, type Plan } from "@/kinematics";
-import { buildCsvExport, buildJsonExport, csvTextField, verifyExport, type ExportMeta } from "@/lib/shared/export-format";
+import {
+  buildCsvExport,
+  buildJsonExport,
+  csvTextField,
+  verifyExport,
+  type ExportMeta,
+} from "@/lib/shared/export-format";
 
 const root = join(__dirname, "..", "..", "..");
 const bin = join(root, "bin", "jointproof");
@@ -36,7 +42,11 @@ function loadPlan(name: string): Plan {
 async function exportsOfPlan(plan: Plan) {
   const report = check(plan);
   const samples = samplePlan(plan, { rateHz: 100 });
-  return { report, json: await buildJsonExport(plan, report, samples, meta), csv: await buildCsvExport(plan, report, samples, meta) };
+  return {
+    report,
+    json: await buildJsonExport(plan, report, samples, meta),
+    csv: await buildCsvExport(plan, report, samples, meta),
+  };
 }
 
 /** Both exports of a fixture plan. */
@@ -110,7 +120,9 @@ describe("jointproof check on a JSON export", () => {
     const { code, stdout, stderr } = run(["check", file("tampered.json", tampered)]);
     expect(code).toBe(2);
     expect(stdout).toBe("");
-    expect(stderr.trim()).toBe(`export.sha256: does not match the content (expected ${document.export.sha256}, got ${actual})`);
+    expect(stderr.trim()).toBe(
+      `export.sha256: does not match the content (expected ${document.export.sha256}, got ${actual})`,
+    );
   });
 
   it("a tampered plan (a longer move duration) also fails the checksum, before any check runs", async () => {
@@ -118,7 +130,9 @@ describe("jointproof check on a JSON export", () => {
     document.moves[0].duration = 2;
     const { code, stderr } = run(["check", file("tampered-plan.json", JSON.stringify(document))]);
     expect(code).toBe(2);
-    expect(stderr).toMatch(/^export\.sha256: does not match the content \(expected [0-9a-f]{64}, got [0-9a-f]{64}\)\n$/);
+    expect(stderr).toMatch(
+      /^export\.sha256: does not match the content \(expected [0-9a-f]{64}, got [0-9a-f]{64}\)\n$/,
+    );
   });
 
   it("a missing checksum is refused with exit 2", async () => {
@@ -155,10 +169,16 @@ describe("jointproof verify", () => {
     const csvRun = run(["verify", file("ok.csv", csv)]);
     expect(csvRun.code).toBe(0);
     const csvDigest = /# sha256: ([0-9a-f]{64})\n$/.exec(csv)![1];
-    expect(csvRun.stdout).toBe(`Export checksum verified (CSV): # sha256 (last line) ${csvDigest} matches the content.\n`);
+    expect(csvRun.stdout).toBe(
+      `Export checksum verified (CSV): # sha256 (last line) ${csvDigest} matches the content.\n`,
+    );
     const jsonRun = run(["verify", file("ok.json", json), "--json"]);
     expect(jsonRun.code).toBe(0);
-    expect(JSON.parse(jsonRun.stdout)).toEqual({ format: "json", verified: true, sha256: JSON.parse(json).export.sha256 });
+    expect(JSON.parse(jsonRun.stdout)).toEqual({
+      format: "json",
+      verified: true,
+      sha256: JSON.parse(json).export.sha256,
+    });
   });
 
   it("a CSV export with one digit changed in a waypoint row fails with both digests", async () => {
@@ -273,14 +293,23 @@ describe("CSV export text fields (RFC 4180 §2 quoting; formula prefixes neutral
   });
 
   it("puts a ' before a name a spreadsheet would run as a formula (=, +, -, @, tab, CR at the start)", () => {
-    expect(["=SUM(A1)", "+1", "-x", "@me", "\tx"].map(csvTextField)).toEqual(["'=SUM(A1)", "'+1", "'-x", "'@me", "'\tx"]);
-    expect(csvTextField("\rx")).toBe("\"'\rx\"");
+    expect(["=SUM(A1)", "+1", "-x", "@me", "\tx"].map(csvTextField)).toEqual([
+      "'=SUM(A1)",
+      "'+1",
+      "'-x",
+      "'@me",
+      "'\tx",
+    ]);
+    expect(csvTextField("\rx")).toBe('"\'\rx"');
     expect(csvTextField("wrist-pitch")).toBe("wrist-pitch"); // a '-' inside a name is harmless
   });
 
   it("keeps the header one record with one field per joint, and the command-line verifier still accepts the file", async () => {
     const plan = loadPlan("gentle-pass.json");
-    const renamed: Plan = { ...plan, arm: { ...plan.arm, joints: plan.arm.joints.map((j, i) => ({ ...j, name: awkward[i] })) } };
+    const renamed: Plan = {
+      ...plan,
+      arm: { ...plan.arm, joints: plan.arm.joints.map((j, i) => ({ ...j, name: awkward[i] })) },
+    };
     const { csv } = await exportsOfPlan(renamed);
     const header = parseCsvRecords(csv).find((r) => r[0] === "t");
     expect(header).toEqual(["t", "a,b", 'x"y', "two\nlines", "'=SUM(A1)", "'+1", "'-x", "'@me"]);

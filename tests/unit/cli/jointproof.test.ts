@@ -116,11 +116,25 @@ describe("jointproof scan", () => {
     expect(Object.keys(report).sort()).toEqual(["findings", "rateHz", "samples", "verdict"]);
     expect(report.samples).toBe(400);
     expect(Object.keys(report.findings[0]).sort()).toEqual(
-      ["endLine", "endSample", "joint", "kind", "limit", "line", "message", "sample", "severity", "time", "value"].sort(),
+      [
+        "endLine",
+        "endSample",
+        "joint",
+        "kind",
+        "limit",
+        "line",
+        "message",
+        "sample",
+        "severity",
+        "time",
+        "value",
+      ].sort(),
     );
     // the jump at row 120 lasts two steps (in and out of the glitch); rows 250–252 are shifted: in at 250, out at 253
     const jumps = report.findings.filter((f: { kind: string }) => f.kind === "jump");
-    expect(jumps.map((f: { joint: number; sample: number; endSample: number }) => [f.joint, f.sample, f.endSample])).toEqual([
+    expect(
+      jumps.map((f: { joint: number; sample: number; endSample: number }) => [f.joint, f.sample, f.endSample]),
+    ).toEqual([
       [2, 120, 121],
       [0, 250, 250],
       [0, 253, 253],

@@ -12,22 +12,58 @@ const arm: Arm = armSchema.parse(armH);
 
 describe("the arm form", () => {
   it("shows every parameter the check uses: travel, speed, acceleration, effort, friction, link masses, tool point, control rate, caution ratio", () => {
-    render(<ArmForm arm={arm} title="Gripper arm" canEdit saveLabel="Save as a custom arm" saving={false} saveError={null} saved={false} onSave={() => {}} />);
+    render(
+      <ArmForm
+        arm={arm}
+        title="Gripper arm"
+        canEdit
+        saveLabel="Save as a custom arm"
+        saving={false}
+        saveError={null}
+        saved={false}
+        onSave={() => {}}
+      />,
+    );
     const j = arm.joints[1];
-    for (const label of ["Travel min (°)", "Travel max (°)", "Max speed (°/s)", "Max acceleration (°/s²)", "Max effort (N·m)", "Coulomb friction (N·m)", "Viscous friction (N·m·s/rad)"]) {
+    for (const label of [
+      "Travel min (°)",
+      "Travel max (°)",
+      "Max speed (°/s)",
+      "Max acceleration (°/s²)",
+      "Max effort (N·m)",
+      "Coulomb friction (N·m)",
+      "Viscous friction (N·m·s/rad)",
+    ]) {
       expect(screen.getByLabelText(`${j.name} ${label}`)).toBeTruthy();
     }
-    expect((screen.getByLabelText(`${j.name} Max speed (°/s)`) as HTMLInputElement).value).toBe(((j.maxVelocity * 180) / Math.PI).toFixed(1));
-    expect((screen.getByLabelText(`${j.name} Coulomb friction (N·m)`) as HTMLInputElement).value).toBe((j.friction?.coulomb ?? 0).toFixed(3));
+    expect((screen.getByLabelText(`${j.name} Max speed (°/s)`) as HTMLInputElement).value).toBe(
+      ((j.maxVelocity * 180) / Math.PI).toFixed(1),
+    );
+    expect((screen.getByLabelText(`${j.name} Coulomb friction (N·m)`) as HTMLInputElement).value).toBe(
+      (j.friction?.coulomb ?? 0).toFixed(3),
+    );
     expect(screen.getByLabelText("Control rate (Hz)")).toBeTruthy();
     expect(screen.getByLabelText("Caution ratio")).toBeTruthy();
     expect(screen.getAllByLabelText(/mass \(kg\)$/).length).toBe(1 + (arm.chain?.joints.length ?? 0));
-    expect((screen.getByLabelText("Tool point z (mm)") as HTMLInputElement).value).toBe(((arm.chain?.tool.xyz[2] ?? 0) * 1000).toFixed(1));
+    expect((screen.getByLabelText("Tool point z (mm)") as HTMLInputElement).value).toBe(
+      ((arm.chain?.tool.xyz[2] ?? 0) * 1000).toFixed(1),
+    );
   });
 
   it("a limit error in the degree form speaks degrees, and nothing is saved", () => {
     let saved: Arm | null = null;
-    render(<ArmForm arm={arm} title="Gripper arm" canEdit saveLabel="Save as a custom arm" saving={false} saveError={null} saved={false} onSave={(a) => (saved = a)} />);
+    render(
+      <ArmForm
+        arm={arm}
+        title="Gripper arm"
+        canEdit
+        saveLabel="Save as a custom arm"
+        saving={false}
+        saveError={null}
+        saved={false}
+        onSave={(a) => (saved = a)}
+      />,
+    );
     const j = arm.joints[1];
     fireEvent.change(screen.getByLabelText(`${j.name} Travel min (°)`), { target: { value: "30" } });
     fireEvent.change(screen.getByLabelText(`${j.name} Travel max (°)`), { target: { value: "10" } });
@@ -38,7 +74,18 @@ describe("the arm form", () => {
 
   it("saves what was entered in degrees as radians, and friction as given", () => {
     let saved: Arm | null = null;
-    render(<ArmForm arm={arm} title="Gripper arm" canEdit saveLabel="Save as a custom arm" saving={false} saveError={null} saved={false} onSave={(a) => (saved = a)} />);
+    render(
+      <ArmForm
+        arm={arm}
+        title="Gripper arm"
+        canEdit
+        saveLabel="Save as a custom arm"
+        saving={false}
+        saveError={null}
+        saved={false}
+        onSave={(a) => (saved = a)}
+      />,
+    );
     const j = arm.joints[0];
     fireEvent.change(screen.getByLabelText(`${j.name} Max speed (°/s)`), { target: { value: "90" } });
     fireEvent.change(screen.getByLabelText(`${j.name} Viscous friction (N·m·s/rad)`), { target: { value: "0.25" } });
@@ -69,6 +116,8 @@ describe("arm fields", () => {
 
   it("names a custom copy clearly and never reuses a name", () => {
     expect(customArmName("Bench arm · gripper", [])).toBe("Bench arm · gripper (custom copy)");
-    expect(customArmName("Bench arm · gripper", ["Bench arm · gripper (custom copy)"])).toBe("Bench arm · gripper (custom copy 2)");
+    expect(customArmName("Bench arm · gripper", ["Bench arm · gripper (custom copy)"])).toBe(
+      "Bench arm · gripper (custom copy 2)",
+    );
   });
 });

@@ -1,7 +1,13 @@
 // @vitest-environment happy-dom
 import { cleanup, render, screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
-import { AssignmentRulesPanel, assignmentArm, limitLines, toleranceText, type BenchAssignment } from "@/components/editor/assignment-rules";
+import {
+  AssignmentRulesPanel,
+  assignmentArm,
+  limitLines,
+  toleranceText,
+  type BenchAssignment,
+} from "@/components/editor/assignment-rules";
 import { check } from "@/kinematics";
 import { demoPlan, pose } from "./helpers";
 
@@ -14,7 +20,13 @@ function assignment(overrides: Partial<BenchAssignment["rules"]> = {}): BenchAss
     title: "Pick and place",
     courseTitle: "Robot Motion I",
     armRevisionId: revision,
-    rules: { requiredArmRevisionId: revision, poseTolerance: 0.01, courseLimits: { velocityScale: 0.7 }, limits: null, ...overrides },
+    rules: {
+      requiredArmRevisionId: revision,
+      poseTolerance: 0.01,
+      courseLimits: { velocityScale: 0.7 },
+      limits: null,
+      ...overrides,
+    },
   };
 }
 
@@ -31,11 +43,20 @@ describe("the bench of an assignment's plan", () => {
 
   it("names each limit in words, in the form's unit", () => {
     const plan = demoPlan([]);
-    expect(limitLines("course", { velocityScale: 0.7 }, plan.arm.joints, "deg")).toEqual(["course limit: 70% of maximum speed"]);
-    const caps = limitLines("assignment", { accelerationScale: 0.5, joints: [{ joint: 1, max: Math.PI / 4 }] }, plan.arm.joints, "deg");
+    expect(limitLines("course", { velocityScale: 0.7 }, plan.arm.joints, "deg")).toEqual([
+      "course limit: 70% of maximum speed",
+    ]);
+    const caps = limitLines(
+      "assignment",
+      { accelerationScale: 0.5, joints: [{ joint: 1, max: Math.PI / 4 }] },
+      plan.arm.joints,
+      "deg",
+    );
     expect(caps[0]).toBe("assignment limit: 50% of maximum acceleration");
     expect(caps[1]).toBe(`assignment limit for ${plan.arm.joints[1].name}: travel its minimum to 45.0°`);
-    expect(toleranceText(0.01, plan.arm.joints)).toBe("±0.573° (0.01 rad) on revolute joints, ±10 mm on prismatic joints");
+    expect(toleranceText(0.01, plan.arm.joints)).toBe(
+      "±0.573° (0.01 rad) on revolute joints, ±10 mm on prismatic joints",
+    );
   });
 
   it("lists the required poses and which ones the plan meets, in order", () => {
@@ -47,13 +68,23 @@ describe("the bench of an assignment's plan", () => {
     render(<AssignmentRulesPanel assignment={assignment(rules)} plan={plan} unit="deg" />);
     const list = screen.getByRole("list", { name: "Required poses" });
     const items = within(list).getAllByRole("listitem");
-    expect(items.map((i) => i.textContent)).toEqual(["Start pose:met", "Goal pose 1 (in order):met", "Goal pose 2 (in order):not met yet"]);
+    expect(items.map((i) => i.textContent)).toEqual([
+      "Start pose:met",
+      "Goal pose 1 (in order):met",
+      "Goal pose 2 (in order):not met yet",
+    ]);
     expect(screen.getByText("course limit: 70% of maximum speed")).toBeTruthy();
   });
 
   it("says so when the plan is on another arm revision than the assignment requires", () => {
     const plan = demoPlan([{ goal: pose(0.5), duration: 2 }]);
-    render(<AssignmentRulesPanel assignment={{ ...assignment(), armRevisionId: "5b0c7a52-0000-4000-8000-00000000000b" }} plan={plan} unit="deg" />);
+    render(
+      <AssignmentRulesPanel
+        assignment={{ ...assignment(), armRevisionId: "5b0c7a52-0000-4000-8000-00000000000b" }}
+        plan={plan}
+        unit="deg"
+      />,
+    );
     expect(screen.getByRole("alert").textContent).toMatch(/another arm revision/);
   });
 });

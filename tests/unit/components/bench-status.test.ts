@@ -15,9 +15,15 @@ describe("what the bench says about a whole plan", () => {
 
   it("shows no Pass while the arm-model checks run, and a fault the joint checks already found", () => {
     const gentle = demoPlan([{ goal: pose(0.2), duration: 2 }]);
-    expect(benchStatus(1, runLiveCheck(gentle).report, { report: null, error: null })).toEqual({ kind: "checking", faultSoFar: false });
+    expect(benchStatus(1, runLiveCheck(gentle).report, { report: null, error: null })).toEqual({
+      kind: "checking",
+      faultSoFar: false,
+    });
     const fast = demoPlan([{ goal: pose(1.5), duration: 0.2 }]);
-    expect(benchStatus(1, runLiveCheck(fast).report, { report: null, error: null })).toEqual({ kind: "checking", faultSoFar: true });
+    expect(benchStatus(1, runLiveCheck(fast).report, { report: null, error: null })).toEqual({
+      kind: "checking",
+      faultSoFar: true,
+    });
   });
 
   it("shows no Pass when the arm-model checks failed to run", () => {
@@ -32,7 +38,10 @@ describe("what the bench says about a whole plan", () => {
   it("takes the full report's verdict once it is there", () => {
     const plan = fixtureLikeEffortPlan();
     const full = check(plan);
-    expect(benchStatus(plan.moves.length, runLiveCheck(plan).report, { report: full, error: null })).toEqual({ kind: "checked", verdict: full.verdict });
+    expect(benchStatus(plan.moves.length, runLiveCheck(plan).report, { report: full, error: null })).toEqual({
+      kind: "checked",
+      verdict: full.verdict,
+    });
   });
 
   it("plots of a plan of instant moves explain the instant move instead of saying there is no motion yet", () => {

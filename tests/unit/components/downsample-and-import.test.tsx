@@ -57,7 +57,13 @@ describe("import of a plan document", () => {
   const current = demoPlan([{ goal: pose(0.2), duration: 1 }]);
 
   it("names each problem by its field path", () => {
-    const doc = { format: "jointproof.plan", version: 1, arm: { ...current.arm, controlRateHz: -5 }, start: pose(0), moves: [{ goal: [1], duration: -1 }] };
+    const doc = {
+      format: "jointproof.plan",
+      version: 1,
+      arm: { ...current.arm, controlRateHz: -5 },
+      start: pose(0),
+      moves: [{ goal: [1], duration: -1 }],
+    };
     const r = importPlanText(JSON.stringify(doc), current);
     expect(r.ok).toBe(false);
     if (r.ok) return;
@@ -74,7 +80,11 @@ describe("import of a plan document", () => {
   });
 
   it("takes the start pose and moves onto the plan's own arm", () => {
-    const doc = { ...current, arm: { ...current.arm, name: "Other arm" }, moves: [{ goal: pose(0.5), duration: 2, shape: "cubic" }] };
+    const doc = {
+      ...current,
+      arm: { ...current.arm, name: "Other arm" },
+      moves: [{ goal: pose(0.5), duration: 2, shape: "cubic" }],
+    };
     const r = importPlanText(JSON.stringify(doc), current);
     expect(r.ok).toBe(true);
     if (!r.ok) return;
@@ -86,7 +96,10 @@ describe("import of a plan document", () => {
 
 describe("plan editing actions", () => {
   it("set-durations applies scale-to-pass durations and refuses a wrong count", () => {
-    const plan = demoPlan([{ goal: pose(1), duration: 0.1 }, { goal: pose(0), duration: 0.1 }]);
+    const plan = demoPlan([
+      { goal: pose(1), duration: 0.1 },
+      { goal: pose(0), duration: 0.1 },
+    ]);
     expect(planReducer(plan, { type: "set-durations", durations: [1] })).toBe(plan);
     const next = planReducer(plan, { type: "set-durations", durations: [2, 2] });
     expect(check(next).verdict).toBe("pass");
@@ -110,7 +123,10 @@ describe("effort series for the plots", () => {
     const series = effortSeries(plan, samples)!;
     expect(series.stride).toBe(6); // the gripper is outside the chain
     expect(series.values.length).toBe(samples.count * 6);
-    const chain = compileChain(plan.arm.chain!, plan.arm.joints.map((j) => j.type));
+    const chain = compileChain(
+      plan.arm.chain!,
+      plan.arm.joints.map((j) => j.type),
+    );
     const ws = createDynamicsWorkspace(chain);
     const last = samples.count - 1;
     const expected = gravityEffort(chain, ws, samples.position, new Float64Array(6), last * samples.jointCount, 0);

@@ -45,7 +45,10 @@ describe("local drafts of unsaved edits", () => {
   it("drops a draft that no longer parses as a plan instead of loading it", () => {
     const store = memoryStore();
     const loaded = demoPlan([]);
-    store.setItem(draftKey(planId, 2), JSON.stringify({ savedAt: "2026-12-02T07:00:00.000Z", plan: { format: "jointproof.plan", moves: "no" } }));
+    store.setItem(
+      draftKey(planId, 2),
+      JSON.stringify({ savedAt: "2026-12-02T07:00:00.000Z", plan: { format: "jointproof.plan", moves: "no" } }),
+    );
     expect(readDraft(store, planId, 2, loaded)).toBeNull();
     expect(store.map.has(draftKey(planId, 2))).toBe(false);
     store.setItem(draftKey(planId, 2), "{not json");

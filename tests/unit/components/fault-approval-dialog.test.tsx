@@ -10,9 +10,33 @@ afterEach(cleanup);
 const report = {
   verdict: "fault",
   findings: [
-    { kind: "speed-over", severity: "fault", move: 0, joint: 0, value: 2.57, limit: 2.1, message: "base reaches 2.57 rad/s, above its 2.10 rad/s limit." },
-    { kind: "accel-over", severity: "caution", move: 0, joint: 1, value: 1, limit: 1.1, message: "shoulder is near its acceleration limit." },
-    { kind: "jump", severity: "fault", move: 2, joint: null, value: 1, limit: 0.01, message: "the instant move steps too far in one control period." },
+    {
+      kind: "speed-over",
+      severity: "fault",
+      move: 0,
+      joint: 0,
+      value: 2.57,
+      limit: 2.1,
+      message: "base reaches 2.57 rad/s, above its 2.10 rad/s limit.",
+    },
+    {
+      kind: "accel-over",
+      severity: "caution",
+      move: 0,
+      joint: 1,
+      value: 1,
+      limit: 1.1,
+      message: "shoulder is near its acceleration limit.",
+    },
+    {
+      kind: "jump",
+      severity: "fault",
+      move: 2,
+      joint: null,
+      value: 1,
+      limit: 0.01,
+      message: "the instant move steps too far in one control period.",
+    },
   ],
 };
 
@@ -38,7 +62,9 @@ describe("approval dialog for a submission whose check faults", () => {
   it("lists only the faults (not cautions), moves counted from 1, with the joint's name", () => {
     render(<Harness faults={reportFaults(report)} approvals={[]} />);
     const list = screen.getByTestId("approval-faults");
-    const items = within(list).getAllByRole("listitem").map((li) => li.textContent);
+    const items = within(list)
+      .getAllByRole("listitem")
+      .map((li) => li.textContent);
     expect(items).toEqual([
       "Fault · move 1 · base: base reaches 2.57 rad/s, above its 2.10 rad/s limit.",
       "Fault · move 3: the instant move steps too far in one control period.",

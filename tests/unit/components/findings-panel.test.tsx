@@ -52,7 +52,9 @@ describe("findings panel", () => {
 
   it("never shows a verdict by colour alone: every item carries the word and an icon", () => {
     const plan = faultyPlan();
-    const { container } = render(<FindingsPanel verdict="fault" items={items(plan)} joints={plan.arm.joints} onJump={() => {}} />);
+    const { container } = render(
+      <FindingsPanel verdict="fault" items={items(plan)} joints={plan.arm.joints} onJump={() => {}} />,
+    );
     const chips = container.querySelectorAll("li [data-verdict]");
     expect(chips.length).toBe(items(plan).length);
     for (const chip of chips) {
@@ -64,7 +66,14 @@ describe("findings panel", () => {
   it("clicking a finding jumps to the moment it happens and its move", () => {
     const plan = faultyPlan();
     const jumps: [number, number | null][] = [];
-    render(<FindingsPanel verdict="fault" items={items(plan)} joints={plan.arm.joints} onJump={(t, m) => jumps.push([t, m])} />);
+    render(
+      <FindingsPanel
+        verdict="fault"
+        items={items(plan)}
+        joints={plan.arm.joints}
+        onJump={(t, m) => jumps.push([t, m])}
+      />,
+    );
     fireEvent.click(screen.getAllByRole("button", { name: /Jump too far/ })[0]);
     expect(jumps).toHaveLength(1);
     expect(jumps[0][1]).toBe(2);
@@ -95,7 +104,9 @@ describe("findings panel", () => {
 
   it("shows no verdict chip and the given summary when told there is no verdict (no moves yet)", () => {
     const plan = demoPlan([]);
-    const { container } = render(<FindingsPanel verdict={null} summary="No moves yet." items={[]} joints={plan.arm.joints} onJump={() => {}} />);
+    const { container } = render(
+      <FindingsPanel verdict={null} summary="No moves yet." items={[]} joints={plan.arm.joints} onJump={() => {}} />,
+    );
     expect(container.querySelector("[data-verdict]")).toBeNull();
     expect(screen.getByText("No moves yet.")).toBeTruthy();
     expect(screen.queryByText("Pass")).toBeNull();
@@ -113,7 +124,9 @@ describe("findings panel", () => {
     const accel = items(plan).find((i) => i.finding.kind === "accel-over")!;
     expect(accel.timeS).toBeCloseTo(0.62 + ((3 - Math.sqrt(3)) / 6) * 0.4, 6);
     // a timeS the engine sets is what the panel shows and jumps to, whatever the shape would suggest
-    const moved = items(plan).map((i) => (i.finding.kind === "accel-over" ? { ...i, timeS: findingTimeS({ ...i.finding, timeS: 0.777 }, timeline) } : i));
+    const moved = items(plan).map((i) =>
+      i.finding.kind === "accel-over" ? { ...i, timeS: findingTimeS({ ...i.finding, timeS: 0.777 }, timeline) } : i,
+    );
     const jumps: number[] = [];
     render(<FindingsPanel verdict="fault" items={moved} joints={plan.arm.joints} onJump={(t) => jumps.push(t)} />);
     fireEvent.click(screen.getByRole("button", { name: /Acceleration over limit/ }));

@@ -3,7 +3,9 @@ import { parsePlan } from "@/kinematics";
 import type { BenchPlan } from "@/components/editor/plan-state";
 
 /** A plan on the light demo arm (real arm file, parsed by the engine's schema). */
-export function demoPlan(moves: { goal: number[]; duration: number; shape?: "cubic" | "quintic" | "trapezoid" }[] = []): BenchPlan {
+export function demoPlan(
+  moves: { goal: number[]; duration: number; shape?: "cubic" | "quintic" | "trapezoid" }[] = [],
+): BenchPlan {
   const n = armL.joints.length;
   const parsed = parsePlan({
     format: "jointproof.plan",

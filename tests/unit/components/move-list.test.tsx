@@ -79,13 +79,38 @@ describe("move list", () => {
   it("offers no shortest-safe button until the fixes are verified", () => {
     const plan = demoPlan([{ goal: pose(1.5), duration: 0.2 }]);
     const report = check(plan);
-    render(<MoveList joints={plan.arm.joints} startPose={plan.start} moves={plan.moves} reports={report.moves} unit="deg" selected={0} onSelect={() => {}} dispatch={() => {}} startVerdict="pass" fixes={null} />);
+    render(
+      <MoveList
+        joints={plan.arm.joints}
+        startPose={plan.start}
+        moves={plan.moves}
+        reports={report.moves}
+        unit="deg"
+        selected={0}
+        onSelect={() => {}}
+        dispatch={() => {}}
+        startVerdict="pass"
+        fixes={null}
+      />,
+    );
     expect(screen.queryByRole("button", { name: /shortest safe duration/ })).toBeNull();
   });
 
   it("shows no start-pose chip when told there is no verdict (an empty plan)", () => {
     const plan = demoPlan([]);
-    const { container } = render(<MoveList joints={plan.arm.joints} startPose={plan.start} moves={[]} reports={[]} unit="deg" selected="start" onSelect={() => {}} dispatch={() => {}} startVerdict={null} />);
+    const { container } = render(
+      <MoveList
+        joints={plan.arm.joints}
+        startPose={plan.start}
+        moves={[]}
+        reports={[]}
+        unit="deg"
+        selected="start"
+        onSelect={() => {}}
+        dispatch={() => {}}
+        startVerdict={null}
+      />,
+    );
     expect(container.querySelector("[data-verdict]")).toBeNull();
     expect(screen.getByText(/No moves yet/)).toBeTruthy();
   });
@@ -133,13 +158,20 @@ describe("move list", () => {
   });
 
   it("the selected move shows the engine's peak effort (closest to its limit) and peak tool speed", () => {
-    const plan = demoPlan([{ goal: pose(0.5, 0.3), duration: 2 }, { goal: pose(0.5, 0.3, 0.6), duration: 2 }]);
+    const plan = demoPlan([
+      { goal: pose(0.5, 0.3), duration: 2 },
+      { goal: pose(0.5, 0.3, 0.6), duration: 2 },
+    ]);
     const report = check(plan).moves[0];
     const shoulder = report.peakEffort![1]!;
     render(<Harness initial={plan} />);
     const figures = screen.getByTestId("move-figures-0");
     // shoulder holds the arm against gravity: the largest share of its maxEffort (14 N·m) on the light arm
-    expect(within(figures).getByText(`shoulder ${shoulder.toFixed(2)} N·m (${Math.round((shoulder / 14) * 100)}% of 14.00 N·m)`)).toBeTruthy();
+    expect(
+      within(figures).getByText(
+        `shoulder ${shoulder.toFixed(2)} N·m (${Math.round((shoulder / 14) * 100)}% of 14.00 N·m)`,
+      ),
+    ).toBeTruthy();
     expect(within(figures).getByText(`${report.peakToolSpeed!.toFixed(3)} m/s`)).toBeTruthy();
     expect(screen.queryByTestId("move-figures-1")).toBeNull(); // only the selected move
   });
@@ -147,7 +179,19 @@ describe("move list", () => {
   it("shows no peak figures when the report comes from the joint checks alone", () => {
     const plan = threeMoves();
     const bare = check(plan).moves.map(({ peakEffort: _e, peakToolSpeed: _t, ...m }) => m);
-    render(<MoveList joints={plan.arm.joints} startPose={plan.start} moves={plan.moves} reports={bare} unit="deg" selected={0} onSelect={() => {}} dispatch={() => {}} startVerdict="pass" />);
+    render(
+      <MoveList
+        joints={plan.arm.joints}
+        startPose={plan.start}
+        moves={plan.moves}
+        reports={bare}
+        unit="deg"
+        selected={0}
+        onSelect={() => {}}
+        dispatch={() => {}}
+        startVerdict="pass"
+      />,
+    );
     expect(screen.getByTestId("move-row-0")).toBeTruthy();
     expect(screen.queryByTestId("move-figures-0")).toBeNull();
   });

@@ -18,13 +18,30 @@ afterEach(cleanup);
 
 const planId = "00000000-0000-4000-8000-0000000000aa";
 const sub = (over: Partial<SubmissionSummary>): SubmissionSummary => ({
-  id: "s1", planId, status: "returned", attempt: 1, assignmentTitle: "Reach without faults", submittedAt: "2025-03-01T10:00:00.000Z", ...over,
+  id: "s1",
+  planId,
+  status: "returned",
+  attempt: 1,
+  assignmentTitle: "Reach without faults",
+  submittedAt: "2025-03-01T10:00:00.000Z",
+  ...over,
 });
 
 const detail: ReviewDetail = {
-  submission: { id: "s2", status: "returned", review: { decision: "returned", summary: "Slow the reach down and submit again.", faultApprovalReason: null } },
+  submission: {
+    id: "s2",
+    status: "returned",
+    review: { decision: "returned", summary: "Slow the reach down and submit again.", faultApprovalReason: null },
+  },
   comments: [
-    { id: "c1", body: "The base runs above 70% of its speed here; lengthen this move.", authorName: "Instructor", moveIndex: 1, jointIndex: 0, timeS: 2.375 },
+    {
+      id: "c1",
+      body: "The base runs above 70% of its speed here; lengthen this move.",
+      authorName: "Instructor",
+      moveIndex: 1,
+      jointIndex: 0,
+      timeS: 2.375,
+    },
     { id: "c2", body: "Start lower.", authorName: "Instructor", moveIndex: null, jointIndex: null, timeS: null },
   ],
 };
@@ -42,7 +59,14 @@ describe("review comments in the bench", () => {
   });
 
   it("lists the instructor's summary and each comment with its move, joint and time", () => {
-    render(<ReviewCommentList returned={sub({ id: "s2", attempt: 2 })} detail={detail} joints={["base", "shoulder"]} onJump={() => {}} />);
+    render(
+      <ReviewCommentList
+        returned={sub({ id: "s2", attempt: 2 })}
+        detail={detail}
+        joints={["base", "shoulder"]}
+        onJump={() => {}}
+      />,
+    );
     const section = screen.getByRole("region", { name: "Review comments" });
     expect(within(section).getByText(/Reach without faults, attempt 2: returned\. Slow the reach down/)).toBeTruthy();
     // moveIndex 1 is the second move: screens count moves from 1 (PRODUCT.md, numbering)
@@ -53,7 +77,9 @@ describe("review comments in the bench", () => {
 
   it("clicking a comment hands its pin to the bench", () => {
     const pins: CommentPin[] = [];
-    render(<ReviewCommentList returned={sub({ id: "s2" })} detail={detail} joints={["base"]} onJump={(p) => pins.push(p)} />);
+    render(
+      <ReviewCommentList returned={sub({ id: "s2" })} detail={detail} joints={["base"]} onJump={(p) => pins.push(p)} />,
+    );
     fireEvent.click(screen.getByRole("button", { name: /lengthen this move/ }));
     fireEvent.click(screen.getByRole("button", { name: /Start lower/ }));
     expect(pins).toEqual([
@@ -63,27 +89,59 @@ describe("review comments in the bench", () => {
   });
 
   it("the bench seeks to the pinned time, else the pinned move's start, and drops moves that are gone", () => {
-    const plan = demoPlan([{ goal: pose(0.5), duration: 2 }, { goal: pose(0.5, 0.4), duration: 1.5 }]);
+    const plan = demoPlan([
+      { goal: pose(0.5), duration: 2 },
+      { goal: pose(0.5, 0.4), duration: 1.5 },
+    ]);
     const tl = timelineOf(plan);
     const n = plan.arm.joints.length;
-    expect(pinTarget({ moveIndex: 1, jointIndex: 0, timeS: 2.375 }, tl.startS, tl.moveCount, n)).toEqual({ timeS: 2.375, move: 1, joint: 0 });
-    expect(pinTarget({ moveIndex: 1, jointIndex: null, timeS: null }, tl.startS, tl.moveCount, n).timeS).toBeCloseTo(2, 12);
+    expect(pinTarget({ moveIndex: 1, jointIndex: 0, timeS: 2.375 }, tl.startS, tl.moveCount, n)).toEqual({
+      timeS: 2.375,
+      move: 1,
+      joint: 0,
+    });
+    expect(pinTarget({ moveIndex: 1, jointIndex: null, timeS: null }, tl.startS, tl.moveCount, n).timeS).toBeCloseTo(
+      2,
+      12,
+    );
     // the student deleted moves since: move 5 and joint 40 do not exist, the time still does
-    expect(pinTarget({ moveIndex: 5, jointIndex: 40, timeS: 1.2 }, tl.startS, tl.moveCount, n)).toEqual({ timeS: 1.2, move: null, joint: null });
-    expect(pinTarget({ moveIndex: null, jointIndex: null, timeS: null }, tl.startS, tl.moveCount, n)).toEqual({ timeS: 0, move: null, joint: null });
+    expect(pinTarget({ moveIndex: 5, jointIndex: 40, timeS: 1.2 }, tl.startS, tl.moveCount, n)).toEqual({
+      timeS: 1.2,
+      move: null,
+      joint: null,
+    });
+    expect(pinTarget({ moveIndex: null, jointIndex: null, timeS: null }, tl.startS, tl.moveCount, n)).toEqual({
+      timeS: 0,
+      move: null,
+      joint: null,
+    });
   });
 
   it("shows an approval given despite faults with the reviewer's reason, and nothing for a clean approval", () => {
     const approved = sub({ id: "s4", status: "approved", submittedAt: "2025-03-10T10:00:00.000Z" });
     expect(decidedSubmissionOf([sub({}), approved], planId)?.id).toBe("s4");
     expect(decidedSubmissionOf([sub({ status: "submitted" })], planId)).toBeUndefined();
-    const withReason: ReviewDetail = { submission: { id: "s4", status: "approved", review: { decision: "approved", summary: "", faultApprovalReason: "The jump is the point of the exercise." } }, comments: [] };
+    const withReason: ReviewDetail = {
+      submission: {
+        id: "s4",
+        status: "approved",
+        review: { decision: "approved", summary: "", faultApprovalReason: "The jump is the point of the exercise." },
+      },
+      comments: [],
+    };
     render(<FaultApprovalNotice detail={withReason} />);
     const section = screen.getByRole("region", { name: "Approved with faults" });
     expect(within(section).getByText(/Reason given: The jump is the point of the exercise\./)).toBeTruthy();
     expect(within(section).getByText(/faults are still in the plan/)).toBeTruthy();
     cleanup();
-    const clean: ReviewDetail = { submission: { id: "s5", status: "approved", review: { decision: "approved", summary: "", faultApprovalReason: null } }, comments: [] };
+    const clean: ReviewDetail = {
+      submission: {
+        id: "s5",
+        status: "approved",
+        review: { decision: "approved", summary: "", faultApprovalReason: null },
+      },
+      comments: [],
+    };
     render(<FaultApprovalNotice detail={clean} />);
     expect(screen.queryByRole("region", { name: "Approved with faults" })).toBeNull();
   });

@@ -9,7 +9,9 @@ import { demoPlan, pose } from "./helpers";
 // demo arm; the fixes are checked again by applying them to the plan and running the engine.
 
 function fixture(name: string): BenchPlan {
-  const parsed = parsePlan(JSON.parse(readFileSync(new URL(`../../fixtures/arm-plans/${name}.json`, import.meta.url), "utf8")));
+  const parsed = parsePlan(
+    JSON.parse(readFileSync(new URL(`../../fixtures/arm-plans/${name}.json`, import.meta.url), "utf8")),
+  );
   if (!parsed.ok) throw new Error(parsed.problems.map((p) => p.message).join("; "));
   return parsed.value as BenchPlan;
 }
@@ -20,7 +22,11 @@ const faultsOf = (report: Report, move?: number | null) =>
 /** Applies every offered fix to a copy and checks it: the fix's own claims must hold. */
 function expectEveryFixHolds(plan: BenchPlan, report: Report) {
   const fixes = quickFixes(plan, report);
-  const all = [...fixes.findings.flatMap((f) => f.fixes), ...fixes.moves.filter((f) => f !== null), ...(fixes.plan ? [fixes.plan] : [])];
+  const all = [
+    ...fixes.findings.flatMap((f) => f.fixes),
+    ...fixes.moves.filter((f) => f !== null),
+    ...(fixes.plan ? [fixes.plan] : []),
+  ];
   for (const fix of all) {
     const after = check(planReducer(plan, fix.action));
     expect(after.verdict).toBe(fix.verdictAfter);
@@ -52,7 +58,9 @@ describe("quick fixes", () => {
     expect(fixes.plan?.factor as number).toBeGreaterThan(1);
     const speed = report.findings.findIndex((f) => f.kind === "speed-over" && f.severity === "fault");
     expect(fixes.findings[speed].fixes.map((f) => f.scope)).toEqual(["move", "plan"]);
-    expect(fixLabel(fixes.findings[speed].fixes[0], plan, "deg")).toBe(`This move only: Move 0 to ${(safe as number).toFixed(3)} s`);
+    expect(fixLabel(fixes.findings[speed].fixes[0], plan, "deg")).toBe(
+      `This move only: Move 0 to ${(safe as number).toFixed(3)} s`,
+    );
   });
 
   it("an instant move across a large angle offers a duration, and its advice names the control period and a smaller step", () => {
@@ -91,7 +99,10 @@ describe("quick fixes", () => {
     // The shoulder's effort limit set below what holding the arm out against gravity takes: at any
     // duration the static torque alone is over it, so no duration can pass.
     const base = fixture("reach-out-heavy");
-    const weak: BenchPlan = { ...base, arm: { ...base.arm, joints: base.arm.joints.map((j, k) => (k === 1 ? { ...j, maxEffort: 0.5 } : j)) } };
+    const weak: BenchPlan = {
+      ...base,
+      arm: { ...base.arm, joints: base.arm.joints.map((j, k) => (k === 1 ? { ...j, maxEffort: 0.5 } : j)) },
+    };
     const report = check(weak);
     const effort = report.findings.findIndex((f) => f.kind === "effort-over" && f.severity === "fault" && f.move === 0);
     expect(effort).toBeGreaterThanOrEqual(0);
@@ -108,7 +119,8 @@ describe("quick fixes", () => {
     expect(faultsOf(report, 0).some((f) => f.kind === "effort-over")).toBe(true);
     const fixes = expectEveryFixHolds(plan, report);
     const moveFix = fixes.moves[0];
-    if (moveFix && moveFix.action.type === "set-duration") expect(moveFix.action.duration).toBeGreaterThan(plan.moves[0].duration);
+    if (moveFix && moveFix.action.type === "set-duration")
+      expect(moveFix.action.duration).toBeGreaterThan(plan.moves[0].duration);
     if (fixes.plan) expect(fixes.plan.factor as number).toBeGreaterThan(1);
   });
 
@@ -134,10 +146,18 @@ describe("quick fixes", () => {
     const range = report.findings.findIndex((f) => f.kind === "range" && f.severity === "fault");
     expect(range).toBeGreaterThanOrEqual(0);
     const fixes = expectEveryFixHolds(plan, report);
-    expect(fixes.findings[range].remedy).toMatch(/^No duration fixes this: bring shoulder in Move 0 back inside its travel/);
+    expect(fixes.findings[range].remedy).toMatch(
+      /^No duration fixes this: bring shoulder in Move 0 back inside its travel/,
+    );
     const offered = fixes.findings[range].fixes;
     expect(offered.length).toBeLessThanOrEqual(1);
-    if (offered[0]) expect(offered[0].action).toEqual({ type: "set-joint", target: 0, joint: 1, value: report.findings[range].limit });
+    if (offered[0])
+      expect(offered[0].action).toEqual({
+        type: "set-joint",
+        target: 0,
+        joint: 1,
+        value: report.findings[range].limit,
+      });
   });
 
   it("a plan that still faults after scaling (a timing fault beside a clearance fault) offers this move only, not the whole plan", () => {
@@ -146,7 +166,10 @@ describe("quick fixes", () => {
     const turned = (q: readonly number[]) => q.map((v, j) => (j === 0 ? v + 0.8 : v));
     const plan: BenchPlan = {
       ...clip,
-      moves: [{ goal: turned(clip.start), duration: 0.2, shape: "quintic" }, { ...clip.moves[0], goal: turned(clip.moves[0].goal) }],
+      moves: [
+        { goal: turned(clip.start), duration: 0.2, shape: "quintic" },
+        { ...clip.moves[0], goal: turned(clip.moves[0].goal) },
+      ],
     };
     const report = check(plan);
     expect(faultsOf(report, 0).length).toBeGreaterThan(0);

@@ -47,7 +47,10 @@ describe("recordings page session", () => {
   });
 
   it("clears the last file's problems and results when a new file is read", () => {
-    let state = sessionReducer(initialSession("arm-1"), { type: "refused", problems: ['line 4, column "t": time 0 s is not after the previous line\'s 0 s'] });
+    let state = sessionReducer(initialSession("arm-1"), {
+      type: "refused",
+      problems: ['line 4, column "t": time 0 s is not after the previous line\'s 0 s'],
+    });
     state = sessionReducer(state, { type: "read-start", file: new File(["t,base\n"], "next.csv") });
     expect(state).toMatchObject({ problems: [], loaded: null, progress: 0, uploadProgress: null });
     expect(state.file?.name).toBe("next.csv");

@@ -8,7 +8,13 @@ export function expectClose(actual: number, expected: number, abs = 1e-9, rel = 
 }
 
 /** Element-wise {@link expectClose}. */
-export function expectAllClose(actual: ArrayLike<number>, expected: ArrayLike<number>, abs = 1e-9, rel = 1e-9, what = ""): void {
+export function expectAllClose(
+  actual: ArrayLike<number>,
+  expected: ArrayLike<number>,
+  abs = 1e-9,
+  rel = 1e-9,
+  what = "",
+): void {
   expect(actual.length, `${what} length`).toBe(expected.length);
   for (let i = 0; i < expected.length; i++) expectClose(actual[i], expected[i], abs, rel, `${what}[${i}]`);
 }

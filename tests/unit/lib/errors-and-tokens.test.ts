@@ -28,9 +28,12 @@ describe("error shape", () => {
   it("writes field paths the way the command line does", () => {
     expect(formatPath(["document", "arm", "joints", 1, "maxVelocity"])).toBe("document.arm.joints[1].maxVelocity");
     expect(formatPath([], "(body)")).toBe("(body)");
-    const result = z.object({ moves: z.array(z.object({ duration: z.number() })) }).safeParse({ moves: [{ duration: 1 }, { duration: "x" }] });
+    const result = z
+      .object({ moves: z.array(z.object({ duration: z.number() })) })
+      .safeParse({ moves: [{ duration: 1 }, { duration: "x" }] });
     expect(result.success).toBe(false);
-    if (!result.success) expect(toIssues(result.error, ["document"]).map((i) => i.path)).toEqual(["document.moves[1].duration"]);
+    if (!result.success)
+      expect(toIssues(result.error, ["document"]).map((i) => i.path)).toEqual(["document.moves[1].duration"]);
   });
 });
 
@@ -57,7 +60,10 @@ describe("API tokens", () => {
 
 describe("version diff", () => {
   it("lists changed, added and removed fields with their paths", () => {
-    const changes = diffDocuments({ start: [0, 1], moves: [{ d: 1 }] }, { start: [0, 2], moves: [{ d: 1 }, { d: 3 }], extra: true });
+    const changes = diffDocuments(
+      { start: [0, 1], moves: [{ d: 1 }] },
+      { start: [0, 2], moves: [{ d: 1 }, { d: 3 }], extra: true },
+    );
     expect(changes).toEqual([
       { path: "start[1]", change: "changed", from: 1, to: 2 },
       { path: "moves[1]", change: "added", to: { d: 3 } },

@@ -42,15 +42,30 @@ describe("permission tables", () => {
   });
 
   it("keep user management to admins and course creation to instructors and admins", () => {
-    expect((["student", "researcher", "instructor", "admin"] as const).filter((r) => canSite(actor(r), "user:manage"))).toEqual(["admin"]);
-    expect((["student", "researcher", "instructor", "admin"] as const).filter((r) => canSite(actor(r), "project:create-course"))).toEqual(["instructor", "admin"]);
-    for (const role of Object.keys(sitePermissions) as Actor["siteRole"][]) expect(canSite(actor(role), "check:run")).toBe(true);
+    expect(
+      (["student", "researcher", "instructor", "admin"] as const).filter((r) => canSite(actor(r), "user:manage")),
+    ).toEqual(["admin"]);
+    expect(
+      (["student", "researcher", "instructor", "admin"] as const).filter((r) =>
+        canSite(actor(r), "project:create-course"),
+      ),
+    ).toEqual(["instructor", "admin"]);
+    for (const role of Object.keys(sitePermissions) as Actor["siteRole"][])
+      expect(canSite(actor(role), "check:run")).toBe(true);
   });
 });
 
 describe("course permission table", () => {
   it("keeps reviewing, grades and the roster to instructors and submitting to students", () => {
-    for (const action of ["review:decide", "review:comment", "grades:export", "roster:read", "roster:manage", "submission:read-all", "course:read-join-code"] as const) {
+    for (const action of [
+      "review:decide",
+      "review:comment",
+      "grades:export",
+      "roster:read",
+      "roster:manage",
+      "submission:read-all",
+      "course:read-join-code",
+    ] as const) {
       expect(canCourse("instructor", action), action).toBe(true);
       expect(canCourse("student", action), action).toBe(false);
     }
@@ -75,7 +90,9 @@ describe("capabilities", () => {
     for (const role of ["viewer", "editor", "owner"] as const) {
       for (const archived of [false, true]) {
         const can = capabilities(student, { kind: "project", role, archived });
-        expect(can.canEdit, `${role} ${archived}`).toBe(canProject({ role, archived }, "version:create") && canProject({ role, archived }, "plan:create"));
+        expect(can.canEdit, `${role} ${archived}`).toBe(
+          canProject({ role, archived }, "version:create") && canProject({ role, archived }, "plan:create"),
+        );
         expect(can.canManageMembers).toBe(canProject({ role, archived }, "member:manage"));
         expect(can.canReadAudit).toBe(canProject({ role, archived }, "audit:read"));
       }
@@ -85,19 +102,42 @@ describe("capabilities", () => {
   it("give instructors the course's review tools and students the submit button", () => {
     const teach = capabilities(student, { kind: "course", role: "instructor" });
     const learn = capabilities(student, { kind: "course", role: "student" });
-    expect([teach.canManage, teach.canReview, teach.canSeeJoinCode, teach.canExportGrades, teach.canSubmit]).toEqual([true, true, true, true, false]);
-    expect([learn.canManage, learn.canReview, learn.canSeeJoinCode, learn.canExportGrades, learn.canSubmit]).toEqual([false, false, false, false, true]);
+    expect([teach.canManage, teach.canReview, teach.canSeeJoinCode, teach.canExportGrades, teach.canSubmit]).toEqual([
+      true,
+      true,
+      true,
+      true,
+      false,
+    ]);
+    expect([learn.canManage, learn.canReview, learn.canSeeJoinCode, learn.canExportGrades, learn.canSubmit]).toEqual([
+      false,
+      false,
+      false,
+      false,
+      true,
+    ]);
   });
 
   it("close comments and decisions once a submission is decided, and never open them to its student", () => {
-    expect(capabilities(student, { kind: "submission", viewerRole: "instructor", status: "submitted" })).toEqual({ canComment: true, canDecide: true });
-    expect(capabilities(student, { kind: "submission", viewerRole: "instructor", status: "approved" })).toEqual({ canComment: false, canDecide: false });
-    expect(capabilities(student, { kind: "submission", viewerRole: "student", status: "submitted" })).toEqual({ canComment: false, canDecide: false });
+    expect(capabilities(student, { kind: "submission", viewerRole: "instructor", status: "submitted" })).toEqual({
+      canComment: true,
+      canDecide: true,
+    });
+    expect(capabilities(student, { kind: "submission", viewerRole: "instructor", status: "approved" })).toEqual({
+      canComment: false,
+      canDecide: false,
+    });
+    expect(capabilities(student, { kind: "submission", viewerRole: "student", status: "submitted" })).toEqual({
+      canComment: false,
+      canDecide: false,
+    });
   });
 
   it("let instructors and admins create courses at site level, as the site table says", () => {
     for (const role of ["student", "researcher", "instructor", "admin"] as const) {
-      expect(capabilities(actor(role), { kind: "site" }).canCreateCourse, role).toBe(canSite(actor(role), "project:create-course"));
+      expect(capabilities(actor(role), { kind: "site" }).canCreateCourse, role).toBe(
+        canSite(actor(role), "project:create-course"),
+      );
     }
     expect(capabilities(actor("admin"), { kind: "site" }).canManageUsers).toBe(true);
     expect(capabilities(actor("instructor"), { kind: "site" }).canManageUsers).toBe(false);
@@ -113,8 +153,12 @@ describe("join-code visibility", () => {
 
 describe("the last-owner rule", () => {
   it("refuses removing or demoting the only owner with unprocessable:last-owner", () => {
-    expect(() => assertKeepsAnOwner({ currentRole: "owner", nextRole: null, ownerCount: 1 })).toThrow(expect.objectContaining({ code: "unprocessable:last-owner" }));
-    expect(() => assertKeepsAnOwner({ currentRole: "owner", nextRole: "editor", ownerCount: 1 })).toThrow(/at least one owner/);
+    expect(() => assertKeepsAnOwner({ currentRole: "owner", nextRole: null, ownerCount: 1 })).toThrow(
+      expect.objectContaining({ code: "unprocessable:last-owner" }),
+    );
+    expect(() => assertKeepsAnOwner({ currentRole: "owner", nextRole: "editor", ownerCount: 1 })).toThrow(
+      /at least one owner/,
+    );
   });
 
   it("allows it when another owner remains, and any change that keeps the owner an owner", () => {

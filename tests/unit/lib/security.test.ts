@@ -3,7 +3,12 @@ import nextConfig from "@/next.config";
 import { contentSecurityPolicy } from "@/lib/server/security-headers";
 
 function directives(csp: string): Map<string, string[]> {
-  return new Map(csp.split(";").map((d) => d.trim().split(/\s+/)).map(([name, ...values]) => [name, values]));
+  return new Map(
+    csp
+      .split(";")
+      .map((d) => d.trim().split(/\s+/))
+      .map(([name, ...values]) => [name, values]),
+  );
 }
 
 describe("security headers", () => {

@@ -23,19 +23,28 @@ async function layerErrors(code: string, relativePath: string): Promise<string[]
 
 describe("import layers (eslint.config.mjs)", () => {
   it("fails the engine importing from the app", async () => {
-    const errors = await layerErrors('import { cn } from "@/components/ui/cn";\nexport const x = cn("a");\n', "kinematics/probe.ts");
+    const errors = await layerErrors(
+      'import { cn } from "@/components/ui/cn";\nexport const x = cn("a");\n',
+      "kinematics/probe.ts",
+    );
     expect(errors).toContain("import-x/no-restricted-paths");
   }, 60_000);
 
   it("fails lib/ importing a component", async () => {
-    const errors = await layerErrors('import { cn } from "../../components/ui/cn";\nexport const x = cn("a");\n', "lib/shared/probe.ts");
+    const errors = await layerErrors(
+      'import { cn } from "../../components/ui/cn";\nexport const x = cn("a");\n',
+      "lib/shared/probe.ts",
+    );
     expect(errors).toContain("import-x/no-restricted-paths");
   }, 60_000);
 
   it("fails a component importing a database query, and lets it import db types", async () => {
     const valueImport = 'import { getPlanForUser } from "@/db/queries/plans";\nexport const f = getPlanForUser;\n';
-    expect(await layerErrors(valueImport, "components/editor/probe.ts")).toContain("@typescript-eslint/no-restricted-imports");
-    const typeImport = 'import type { plans } from "@/db/schema/plans";\nexport type Row = typeof plans.$inferSelect;\n';
+    expect(await layerErrors(valueImport, "components/editor/probe.ts")).toContain(
+      "@typescript-eslint/no-restricted-imports",
+    );
+    const typeImport =
+      'import type { plans } from "@/db/schema/plans";\nexport type Row = typeof plans.$inferSelect;\n';
     expect(await layerErrors(typeImport, "components/editor/probe.ts")).toEqual([]);
   }, 60_000);
 

@@ -24,8 +24,17 @@ function TokenFields({ error }: { error: ApiError }) {
   return (
     <form>
       <TextField label="Name" error={fieldMessage("The name", form.formState.errors.name)} {...form.register("name")} />
-      <TextField label="Expires after (days)" error={fieldMessage("The expiry", form.formState.errors.expiresInDays)} {...form.register("expiresInDays")} />
-      <button type="button" onClick={() => setRest(formFailure(error, applyApiIssues(error.issues, form.setError, ["name", "expiresInDays"])))}>
+      <TextField
+        label="Expires after (days)"
+        error={fieldMessage("The expiry", form.formState.errors.expiresInDays)}
+        {...form.register("expiresInDays")}
+      />
+      <button
+        type="button"
+        onClick={() =>
+          setRest(formFailure(error, applyApiIssues(error.issues, form.setError, ["name", "expiresInDays"])))
+        }
+      >
         answer
       </button>
       {rest ? <p role="alert">{rest}</p> : null}
@@ -37,7 +46,9 @@ describe("API field errors in a react-hook-form form", () => {
   it("shows the API's own words under the field the problem names, linked to its input", async () => {
     const issues = apiProblems({ name: "x".repeat(81), expiresInDays: 400 });
     expect(issues.map((i) => i.path).sort()).toEqual(["expiresInDays", "name"]);
-    render(<TokenFields error={new ApiError(400, "bad_request:validation", "The request body is not valid.", issues)} />);
+    render(
+      <TokenFields error={new ApiError(400, "bad_request:validation", "The request body is not valid.", issues)} />,
+    );
     await act(async () => fireEvent.click(screen.getByRole("button", { name: "answer" })));
     const name = screen.getByLabelText("Name");
     expect(name.getAttribute("aria-invalid")).toBe("true");
@@ -48,7 +59,9 @@ describe("API field errors in a react-hook-form form", () => {
   });
 
   it("puts a problem on a field outside the form at the form's foot, with its path", async () => {
-    const error = new ApiError(422, "unprocessable:arm", "The arm is not one of this project's.", [{ path: "armId", message: "is not an arm of this project" }]);
+    const error = new ApiError(422, "unprocessable:arm", "The arm is not one of this project's.", [
+      { path: "armId", message: "is not an arm of this project" },
+    ]);
     render(<TokenFields error={error} />);
     await act(async () => fireEvent.click(screen.getByRole("button", { name: "answer" })));
     expect(screen.getByRole("alert").textContent).toBe("armId is not an arm of this project");
@@ -59,7 +72,10 @@ describe("API field errors in a react-hook-form form", () => {
     expect(toFormPath("moves[2].duration")).toBe("moves.2.duration");
     const set: string[] = [];
     const rest = applyApiIssues(
-      [{ path: "document.moves[2].duration", message: "must be 0 or greater" }, { path: "note", message: "must be at most 500 characters" }],
+      [
+        { path: "document.moves[2].duration", message: "must be 0 or greater" },
+        { path: "note", message: "must be at most 500 characters" },
+      ],
       (path) => set.push(String(path)),
       ["moves.2.duration"],
       { prefix: "document" },

@@ -7,7 +7,14 @@ import { HINTS, hintFor, shapeHint } from "@/lib/shared/glossary";
 // cubic 1.5·D/T, quintic 1.875·D/T.
 describe("glossary hints", () => {
   it("has a one-sentence hint for caution ratio, cubic, quintic, trapezoid, control period and duration sweep", () => {
-    expect(Object.keys(HINTS).sort()).toEqual(["cautionRatio", "controlPeriod", "cubic", "durationSweep", "quintic", "trapezoid"]);
+    expect(Object.keys(HINTS).sort()).toEqual([
+      "cautionRatio",
+      "controlPeriod",
+      "cubic",
+      "durationSweep",
+      "quintic",
+      "trapezoid",
+    ]);
     for (const { hint } of Object.values(HINTS)) {
       expect(hint.length).toBeGreaterThan(20);
       expect(hint.length).toBeLessThanOrEqual(160);

@@ -25,12 +25,22 @@ describe("renamed labels stay renamed", () => {
 
   it("landing page names every check and claims no proof", () => {
     const landing = read("app/(site)/page.tsx");
-    for (const check of ["Travel", "Speed", "Acceleration", "Instant-move jump", "Effort", "Clearance", "Tool speed", "Recordings"]) {
+    for (const check of [
+      "Travel",
+      "Speed",
+      "Acceleration",
+      "Instant-move jump",
+      "Effort",
+      "Clearance",
+      "Tool speed",
+      "Recordings",
+    ]) {
       expect(landing).toContain(`title: "${check}"`);
     }
     expect(landing).toContain('href="/sign-up"');
     expect(landing).toContain('href="/bench"');
-    for (const file of ["app/(site)/page.tsx", "app/layout.tsx"]) expect(read(file)).not.toMatch(/\bprove(n|s)?\b|\bproof\b/i);
+    for (const file of ["app/(site)/page.tsx", "app/layout.tsx"])
+      expect(read(file)).not.toMatch(/\bprove(n|s)?\b|\bproof\b/i);
   });
 
   it("shows API methods in plain monospace, without a colour per method", () => {
@@ -42,7 +52,9 @@ describe("renamed labels stay renamed", () => {
   });
 
   it("uses only the app's own palette in the e-mail templates", () => {
-    const palette = new Set([...read("app/globals.css").matchAll(/--color-[\w-]+:\s*(#[0-9a-f]{6})/gi)].map((m) => m[1].toLowerCase()));
+    const palette = new Set(
+      [...read("app/globals.css").matchAll(/--color-[\w-]+:\s*(#[0-9a-f]{6})/gi)].map((m) => m[1].toLowerCase()),
+    );
     expect(palette.size).toBeGreaterThan(10);
     const used = [...read("lib/server/mail/templates.ts").matchAll(/#[0-9a-f]{6}\b/gi)].map((m) => m[0].toLowerCase());
     expect(used.length).toBeGreaterThan(0);
@@ -64,7 +76,9 @@ describe("renamed labels stay renamed", () => {
       "DEVELOPERS.md",
     ];
     for (const file of files) {
-      const text = read(file).replace(/\| try-out bench, unsaved plan \| scratch bench, scratch plan \|/, "").replace(/\| 3D view, viewer \| stage \|/, "");
+      const text = read(file)
+        .replace(/\| try-out bench, unsaved plan \| scratch bench, scratch plan \|/, "")
+        .replace(/\| 3D view, viewer \| stage \|/, "");
       expect(text, file).not.toMatch(/scratch (bench|plan)|3D stage/i);
     }
   });

@@ -18,11 +18,16 @@ export default async function DevMailPage() {
   const view = await loadDevMail();
   return (
     <>
-      <div role="note" data-testid="dev-mail-notice" className="mx-auto mt-6 max-w-6xl rounded border border-amber-400 bg-amber-50 px-4 py-3 text-sm">
-        <strong>Development tool, local machine only.</strong> This page shows the e-mail the local mail fake captured, including
-        password-reset and verification links that sign in as their recipients. It is served only to an admin, only while the
-        server listens on a loopback address, and only when <code className="font-mono text-xs">JP_DEV_MAIL=1</code> is set
-        for a production build. No real e-mail is sent from here.
+      <div
+        role="note"
+        data-testid="dev-mail-notice"
+        className="mx-auto mt-6 max-w-6xl rounded border border-amber-400 bg-amber-50 px-4 py-3 text-sm"
+      >
+        <strong>Development tool, local machine only.</strong> This page shows the e-mail the local mail fake captured,
+        including password-reset and verification links that sign in as their recipients. It is served only to an admin,
+        only while the server listens on a loopback address, and only when{" "}
+        <code className="font-mono text-xs">JP_DEV_MAIL=1</code> is set for a production build. No real e-mail is sent
+        from here.
       </div>
       <DevMailbox view={view} />
     </>

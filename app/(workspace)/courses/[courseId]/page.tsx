@@ -38,15 +38,37 @@ export default async function CoursePage({ params }: { params: Promise<{ courseI
   if (teaches) {
     const list = await listArmsForUser({ userId: actor.userId });
     const revisions = await Promise.all(list.map((a) => getArmRevisionForUser({ armId: a.id, userId: actor.userId })));
-    arms = list.flatMap((a, i) => (revisions[i] ? [{ revisionId: revisions[i].id, label: `${a.name} · revision ${revisions[i].revision}` }] : []));
+    arms = list.flatMap((a, i) =>
+      revisions[i] ? [{ revisionId: revisions[i].id, label: `${a.name} · revision ${revisions[i].revision}` }] : [],
+    );
   }
 
   return (
     <CourseView
-      course={{ id: course.id, title: course.title, term: course.term, role: course.role, joinCode, inviteUrl: joinCode ? appLink(`/courses/join?code=${joinCode}`) : null }}
+      course={{
+        id: course.id,
+        title: course.title,
+        term: course.term,
+        role: course.role,
+        joinCode,
+        inviteUrl: joinCode ? appLink(`/courses/join?code=${joinCode}`) : null,
+      }}
       can={can}
-      assignments={assignments.map((a) => ({ id: a.id, title: a.title, instructions: a.instructions, dueAt: a.dueAt.toISOString(), status: a.status, latestSubmissionId: a.latestSubmissionId }))}
-      roster={roster.map((r) => ({ userId: r.userId, name: r.name, email: r.email, role: r.role, joinedAt: r.joinedAt.toISOString() }))}
+      assignments={assignments.map((a) => ({
+        id: a.id,
+        title: a.title,
+        instructions: a.instructions,
+        dueAt: a.dueAt.toISOString(),
+        status: a.status,
+        latestSubmissionId: a.latestSubmissionId,
+      }))}
+      roster={roster.map((r) => ({
+        userId: r.userId,
+        name: r.name,
+        email: r.email,
+        role: r.role,
+        joinedAt: r.joinedAt.toISOString(),
+      }))}
       arms={arms}
       plans={plans}
     />

@@ -13,5 +13,10 @@ export default async function JoinCoursePage({ searchParams }: { searchParams: P
   await requirePageActor(`/courses/join${code ? `?code=${encodeURIComponent(code)}` : ""}`);
   const parsed = joinCourseSchema.safeParse({ code: code ?? "" });
   const course = parsed.success ? await getCourseByJoinCode({ code: parsed.data.code }) : undefined;
-  return <JoinCourse code={parsed.success ? parsed.data.code : (code ?? "")} course={course && !course.archivedAt ? { title: course.title, term: course.term } : null} />;
+  return (
+    <JoinCourse
+      code={parsed.success ? parsed.data.code : (code ?? "")}
+      course={course && !course.archivedAt ? { title: course.title, term: course.term } : null}
+    />
+  );
 }

@@ -25,10 +25,26 @@ export default async function ProjectPage({ params }: { params: Promise<{ projec
   ]);
   return (
     <ProjectOverview
-      project={{ id: project.id, name: project.name, kind: project.kind, role: project.role, archived: project.archivedAt !== null }}
+      project={{
+        id: project.id,
+        name: project.name,
+        kind: project.kind,
+        role: project.role,
+        archived: project.archivedAt !== null,
+      }}
       can={{ rename: can.canRename, manageMembers: can.canManageMembers, readAudit: can.canReadAudit }}
-      members={{ items: members.items.map((m) => ({ ...m, createdAt: m.createdAt.toISOString() })), nextCursor: members.nextCursor }}
-      audit={audit ? { items: audit.items.map((e) => ({ ...e, createdAt: e.createdAt.toISOString() })), nextCursor: audit.nextCursor } : null}
+      members={{
+        items: members.items.map((m) => ({ ...m, createdAt: m.createdAt.toISOString() })),
+        nextCursor: members.nextCursor,
+      }}
+      audit={
+        audit
+          ? {
+              items: audit.items.map((e) => ({ ...e, createdAt: e.createdAt.toISOString() })),
+              nextCursor: audit.nextCursor,
+            }
+          : null
+      }
     />
   );
 }

@@ -28,8 +28,15 @@ export default async function ReviewPage({ params }: { params: Promise<{ submiss
   const parsed = parsePlan(submission.document);
   if (!parsed.ok) throw new Error(`submission ${submissionId} does not parse as a plan document`);
   const raw = submission.document as { arm?: { chain?: unknown }; keepOut?: unknown };
-  const limits = [limitsSchema.nullable().catch(null).parse(submission.courseLimits), limitsSchema.nullable().catch(null).parse(submission.assignment.limits)];
-  const plan = { ...parsed.value, arm: { ...tightenArm(parsed.value.arm, ...limits), chain: raw.arm?.chain }, keepOut: raw.keepOut } as BenchPlan;
+  const limits = [
+    limitsSchema.nullable().catch(null).parse(submission.courseLimits),
+    limitsSchema.nullable().catch(null).parse(submission.assignment.limits),
+  ];
+  const plan = {
+    ...parsed.value,
+    arm: { ...tightenArm(parsed.value.arm, ...limits), chain: raw.arm?.chain },
+    keepOut: raw.keepOut,
+  } as BenchPlan;
 
   return (
     <ReviewWorkspace
@@ -38,7 +45,10 @@ export default async function ReviewPage({ params }: { params: Promise<{ submiss
       ruleProblems={submission.ruleProblems as RuleProblem[]}
       faults={reportFaults(submission.report)}
       needsFaultConfirmation={hasFaults(submission)}
-      canReview={capabilities(actor, { kind: "submission", viewerRole: submission.viewerRole, status: submission.status }).canDecide}
+      canReview={
+        capabilities(actor, { kind: "submission", viewerRole: submission.viewerRole, status: submission.status })
+          .canDecide
+      }
       viewerRole={submission.viewerRole}
       meta={{
         id: submission.id,
@@ -52,9 +62,23 @@ export default async function ReviewPage({ params }: { params: Promise<{ submiss
         status: submission.status,
         planVersionNumber: submission.planVersionNumber,
         planId: submission.planId,
-        review: submission.review ? { decision: submission.review.decision, summary: submission.review.summary, faultApprovalReason: submission.review.faultApprovalReason } : null,
+        review: submission.review
+          ? {
+              decision: submission.review.decision,
+              summary: submission.review.summary,
+              faultApprovalReason: submission.review.faultApprovalReason,
+            }
+          : null,
       }}
-      comments={comments.map((c) => ({ id: c.id, body: c.body, authorName: c.authorName, moveIndex: c.moveIndex, jointIndex: c.jointIndex, timeS: c.timeS, createdAt: c.createdAt.toISOString() }))}
+      comments={comments.map((c) => ({
+        id: c.id,
+        body: c.body,
+        authorName: c.authorName,
+        moveIndex: c.moveIndex,
+        jointIndex: c.jointIndex,
+        timeS: c.timeS,
+        createdAt: c.createdAt.toISOString(),
+      }))}
     />
   );
 }

@@ -12,8 +12,9 @@ export default async function TokensPage() {
     <section className="mx-auto max-w-3xl px-6 py-12 text-ink">
       <h1 className="text-2xl font-semibold tracking-tight">API tokens</h1>
       <p className="mt-2 text-sm text-ink-soft">
-        A token lets scripts and CI use the API with your permissions (send it as <code className="font-mono">Authorization: Bearer …</code>). It is
-        shown once, when you create it; revoking it stops it at once.
+        A token lets scripts and CI use the API with your permissions (send it as{" "}
+        <code className="font-mono">Authorization: Bearer …</code>). It is shown once, when you create it; revoking it
+        stops it at once.
       </p>
       <TokenManager
         initial={tokens.map((t) => ({

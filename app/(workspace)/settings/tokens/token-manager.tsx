@@ -12,19 +12,33 @@ import { EmptyState, ErrorNote } from "@/components/ui/panel";
 import { request } from "@/lib/client/api-client";
 import { createTokenSchema } from "@/lib/shared/schemas/api";
 
-type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; expiresAt: string | null; revokedAt: string | null };
+type Token = {
+  id: string;
+  name: string;
+  prefix: string;
+  createdAt: string;
+  lastUsedAt: string | null;
+  expiresAt: string | null;
+  revokedAt: string | null;
+};
 
 const col = columnsFor<Token>();
 
 /** The token form: the API's schema, and the API's field errors under the fields. */
 export function TokenCreateForm({ onCreated }: { onCreated: (token: Token & { token: string }) => void }) {
   const [failure, setFailure] = useState<string | undefined>();
-  const form = useForm({ resolver: zodResolver(createTokenSchema), defaultValues: { name: "", expiresInDays: undefined } });
+  const form = useForm({
+    resolver: zodResolver(createTokenSchema),
+    defaultValues: { name: "", expiresInDays: undefined },
+  });
   const { errors, isSubmitting } = form.formState;
   const onSubmit = form.handleSubmit(async (body) => {
     setFailure(undefined);
     try {
-      const created = await request<Token & { token: string }>("/api/v1/tokens", { method: "POST", body: JSON.stringify(body) });
+      const created = await request<Token & { token: string }>("/api/v1/tokens", {
+        method: "POST",
+        body: JSON.stringify(body),
+      });
       onCreated(created);
       form.reset();
     } catch (error) {
@@ -34,7 +48,13 @@ export function TokenCreateForm({ onCreated }: { onCreated: (token: Token & { to
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label="New API token">
       <div className="flex flex-wrap items-start gap-3">
-        <TextField label="Name" placeholder="lab CI" fieldClassName="w-64" error={fieldMessage("The name", errors.name)} {...form.register("name")} />
+        <TextField
+          label="Name"
+          placeholder="lab CI"
+          fieldClassName="w-64"
+          error={fieldMessage("The name", errors.name)}
+          {...form.register("name")}
+        />
         <TextField
           label="Expires after (days)"
           type="number"
@@ -42,7 +62,9 @@ export function TokenCreateForm({ onCreated }: { onCreated: (token: Token & { to
           fieldClassName="w-44"
           hint="1 to 366; empty for no expiry."
           error={fieldMessage("The expiry", errors.expiresInDays)}
-          {...form.register("expiresInDays", { setValueAs: (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v)) })}
+          {...form.register("expiresInDays", {
+            setValueAs: (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v)),
+          })}
         />
         <Button type="submit" variant="primary" disabled={isSubmitting} className="mt-5">
           {isSubmitting ? "Creating…" : "Create token"}
@@ -66,24 +88,55 @@ export function TokenManager({ initial }: { initial: Token[] }) {
         setTokens((list) => list.map((t) => (t.id === id ? { ...t, revokedAt: new Date().toISOString() } : t)));
         setError(null);
       } catch (e) {
-        setError(`The token was not revoked: ${e instanceof Error ? e.message : "the server did not answer"}. It still works; try again.`);
+        setError(
+          `The token was not revoked: ${e instanceof Error ? e.message : "the server did not answer"}. It still works; try again.`,
+        );
       }
     }
     return col.columns([
       col.accessor("name", { header: "Name", sortFn: "text" }),
-      col.accessor("prefix", { header: "Starts with", enableSorting: false, cell: (c) => <span className="font-mono text-xs">{c.getValue()}…</span> }),
-      col.accessor("createdAt", { header: "Created", sortFn: "basic", enableGlobalFilter: false, cell: (c) => <DateTime value={c.getValue()} className="tabular" /> }),
-      col.accessor("lastUsedAt", { header: "Last used", sortFn: "basic", sortUndefined: "last", enableGlobalFilter: false, cell: (c) => <DateTime value={c.getValue()} className="tabular" /> }),
-      col.accessor("expiresAt", { header: "Expires", sortFn: "basic", enableGlobalFilter: false, cell: (c) => (c.getValue() ? <DateTime value={c.getValue()} day className="tabular" /> : <span className="text-ink-faint">never</span>) }),
+      col.accessor("prefix", {
+        header: "Starts with",
+        enableSorting: false,
+        cell: (c) => <span className="font-mono text-xs">{c.getValue()}…</span>,
+      }),
+      col.accessor("createdAt", {
+        header: "Created",
+        sortFn: "basic",
+        enableGlobalFilter: false,
+        cell: (c) => <DateTime value={c.getValue()} className="tabular" />,
+      }),
+      col.accessor("lastUsedAt", {
+        header: "Last used",
+        sortFn: "basic",
+        sortUndefined: "last",
+        enableGlobalFilter: false,
+        cell: (c) => <DateTime value={c.getValue()} className="tabular" />,
+      }),
+      col.accessor("expiresAt", {
+        header: "Expires",
+        sortFn: "basic",
+        enableGlobalFilter: false,
+        cell: (c) =>
+          c.getValue() ? (
+            <DateTime value={c.getValue()} day className="tabular" />
+          ) : (
+            <span className="text-ink-faint">never</span>
+          ),
+      }),
       col.display({
         id: "action",
         header: () => <span className="sr-only">Action</span>,
         cell: (c) => {
           const t = c.row.original;
           return t.revokedAt ? (
-            <span className="text-ink-faint">revoked <DateTime value={t.revokedAt} day /></span>
+            <span className="text-ink-faint">
+              revoked <DateTime value={t.revokedAt} day />
+            </span>
           ) : (
-            <Button size="sm" variant="danger" onClick={() => revoke(t.id)} aria-label={`Revoke ${t.name}`}>Revoke</Button>
+            <Button size="sm" variant="danger" onClick={() => revoke(t.id)} aria-label={`Revoke ${t.name}`}>
+              Revoke
+            </Button>
           );
         },
       }),
@@ -102,12 +155,19 @@ export function TokenManager({ initial }: { initial: Token[] }) {
       {fresh ? (
         <div role="status" className="rounded border border-pass/30 bg-pass-tint px-4 py-3 text-sm">
           <p className="font-medium">Copy your new token now; it will not be shown again.</p>
-          <code className="mt-2 block break-all font-mono text-xs">{fresh}</code>
+          <code className="mt-2 block font-mono text-xs break-all">{fresh}</code>
         </div>
       ) : null}
       <div className="space-y-2">
         {tokens.length > 0 ? (
-          <TextField label="Filter tokens" type="search" placeholder="Name or start" fieldClassName="w-64" value={filter} onChange={(e) => setFilter(e.target.value)} />
+          <TextField
+            label="Filter tokens"
+            type="search"
+            placeholder="Name or start"
+            fieldClassName="w-64"
+            value={filter}
+            onChange={(e) => setFilter(e.target.value)}
+          />
         ) : null}
         <DataTable
           label="Your API tokens"

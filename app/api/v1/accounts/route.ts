@@ -40,9 +40,13 @@ export const POST = route(async (request) => {
   const since = new Date(Date.now() - SIGN_UP_LIMIT.windowMinutes * 60_000);
   const counts = await countSignUpAttempts({ email: body.email, ip, since });
   if (ip && counts.byIp >= SIGN_UP_LIMIT.perIp) {
-    throw new AppError("rate_limited:sign-up", `Too many sign-ups from your address. Try again in ${SIGN_UP_LIMIT.windowMinutes} minutes.`, {
-      details: { retryAfterS: SIGN_UP_LIMIT.windowMinutes * 60 },
-    });
+    throw new AppError(
+      "rate_limited:sign-up",
+      `Too many sign-ups from your address. Try again in ${SIGN_UP_LIMIT.windowMinutes} minutes.`,
+      {
+        details: { retryAfterS: SIGN_UP_LIMIT.windowMinutes * 60 },
+      },
+    );
   }
   await recordSignUpAttempt({ email: body.email, ip });
   if (counts.byEmail < SIGN_UP_LIMIT.perEmail) {
@@ -50,7 +54,8 @@ export const POST = route(async (request) => {
     const passwordHash = await bcrypt.hash(body.password, 10);
     const user = await inTransaction(async () => {
       const created = await createUser({ email: body.email, name: body.name, siteRole: body.siteRole, passwordHash });
-      if (created) await recordAudit({ actorId: created.id, action: "user.sign-up", targetType: "user", targetId: created.id });
+      if (created)
+        await recordAudit({ actorId: created.id, action: "user.sign-up", targetType: "user", targetId: created.id });
       return created;
     });
     try {

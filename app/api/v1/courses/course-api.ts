@@ -4,7 +4,12 @@
  * the CSV writer. Route files stay thin: parse → authenticate → load → authorise → act.
  */
 import "server-only";
-import { getAssignmentForUser, getCourseForUser, type AssignmentForUser, type CourseForUser } from "@/db/queries/courses";
+import {
+  getAssignmentForUser,
+  getCourseForUser,
+  type AssignmentForUser,
+  type CourseForUser,
+} from "@/db/queries/courses";
 import type { OutboxInput } from "@/db/queries/mail";
 import { getSubmissionForUser, type SubmissionForUser } from "@/db/queries/reviews";
 import type { Actor } from "@/lib/server/permissions";
@@ -19,7 +24,8 @@ export async function loadCourse(actor: Actor, courseId: string): Promise<Course
 
 export async function loadAssignment(actor: Actor, assignmentId: string): Promise<AssignmentForUser> {
   const assignment = await getAssignmentForUser({ assignmentId, userId: actor.userId });
-  if (!assignment) throw new AppError("not_found:assignment", "No such assignment, or you are not enrolled in its course.");
+  if (!assignment)
+    throw new AppError("not_found:assignment", "No such assignment, or you are not enrolled in its course.");
   return assignment;
 }
 

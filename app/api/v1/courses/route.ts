@@ -22,16 +22,35 @@ export const POST = route(async (request) => {
   const body = await readJson(request, createCourseSchema);
   const actor = await requireActor(request);
   authorizeSite(actor, "project:create-course");
-  if (body.requiredArmRevisionId && !(await getReadableArmRevision({ id: body.requiredArmRevisionId, userId: actor.userId }))) {
-    throw new AppError("unprocessable:arm-revision", UNUSABLE_ARM_REVISION, { issues: [{ path: "requiredArmRevisionId", message: "must be a built-in arm revision or one of your projects' arm revisions" }] });
+  if (
+    body.requiredArmRevisionId &&
+    !(await getReadableArmRevision({ id: body.requiredArmRevisionId, userId: actor.userId }))
+  ) {
+    throw new AppError("unprocessable:arm-revision", UNUSABLE_ARM_REVISION, {
+      issues: [
+        {
+          path: "requiredArmRevisionId",
+          message: "must be a built-in arm revision or one of your projects' arm revisions",
+        },
+      ],
+    });
   }
   if (body.projectId) {
     const project = await getProjectForUser({ projectId: body.projectId, userId: actor.userId });
     if (!project || project.role !== "owner") {
-      throw new AppError("unprocessable:project", "Link a project you own.", { issues: [{ path: "projectId", message: "must be a project you own" }] });
+      throw new AppError("unprocessable:project", "Link a project you own.", {
+        issues: [{ path: "projectId", message: "must be a project you own" }],
+      });
     }
   }
   const course = await createCourse({ userId: actor.userId, ...body });
-  await recordAudit({ actorId: actor.userId, action: "course.create", targetType: "course", targetId: course.id, projectId: course.projectId, detail: { title: course.title } });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "course.create",
+    targetType: "course",
+    targetId: course.id,
+    projectId: course.projectId,
+    detail: { title: course.title },
+  });
   return json({ course: { ...course, inviteUrl: appLink(joinPath(course.joinCode)) } }, 201);
 });

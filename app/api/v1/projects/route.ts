@@ -13,7 +13,12 @@ import { authorizeSite } from "@/lib/server/permissions";
 export const GET = route(async (request) => {
   const query = readQuery(request, projectsPageQuery);
   const actor = await requireActor(request);
-  const page = await listProjectsPageForUser({ userId: actor.userId, includeArchived: query.archived === "include", limit: query.limit, after: query.cursor });
+  const page = await listProjectsPageForUser({
+    userId: actor.userId,
+    includeArchived: query.archived === "include",
+    limit: query.limit,
+    after: query.cursor,
+  });
   return json({ projects: page.items, nextCursor: page.nextCursor });
 });
 
@@ -23,6 +28,12 @@ export const POST = route(async (request) => {
   const actor = await requireActor(request);
   authorizeSite(actor, body.kind === "course" ? "project:create-course" : "project:create");
   const project = await createProject({ name: body.name, kind: body.kind, userId: actor.userId });
-  await recordAudit({ actorId: actor.userId, action: "project.create", targetType: "project", targetId: project.id, projectId: project.id });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "project.create",
+    targetType: "project",
+    targetId: project.id,
+    projectId: project.id,
+  });
   return json({ project }, 201);
 });

@@ -6,7 +6,14 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { compileChain, type ChainJointType, linkFrames } from "@/kinematics/arm/chain";
 import { check } from "@/kinematics";
-import { clearanceZones, compileCollision, createClearanceScanner, scanClearance, scanClearanceBounded, shapeIntrusions } from "@/kinematics/arm/clearance";
+import {
+  clearanceZones,
+  compileCollision,
+  createClearanceScanner,
+  scanClearance,
+  scanClearanceBounded,
+  shapeIntrusions,
+} from "@/kinematics/arm/clearance";
 import { compileReachBounds, linkSpeedBounds, toolAccelerationBound } from "@/kinematics/arm/motion-bounds";
 import { parsePlan, type Plan } from "@/kinematics";
 import { samplePlan } from "@/kinematics/motion/sample";
@@ -18,8 +25,17 @@ import { expectClose } from "../tolerance";
 const demoArm = readJson("kinematics/arm/presets/bench-arm-h.json") as { joints: { min: number; max: number }[] };
 
 const unit = fc.double({ min: 0, max: 1, noNaN: true });
-const goal = fc.array(unit, { minLength: 7, maxLength: 7 }).map((u) => u.map((x, j) => demoArm.joints[j].min + (0.1 + 0.8 * x) * (demoArm.joints[j].max - demoArm.joints[j].min)));
-const box = fc.record({ x: fc.double({ min: -0.45, max: 0.45, noNaN: true }), y: fc.double({ min: -0.45, max: 0.45, noNaN: true }), z: fc.double({ min: 0, max: 0.5, noNaN: true }), size: fc.double({ min: 0.04, max: 0.3, noNaN: true }) });
+const goal = fc
+  .array(unit, { minLength: 7, maxLength: 7 })
+  .map((u) =>
+    u.map((x, j) => demoArm.joints[j].min + (0.1 + 0.8 * x) * (demoArm.joints[j].max - demoArm.joints[j].min)),
+  );
+const box = fc.record({
+  x: fc.double({ min: -0.45, max: 0.45, noNaN: true }),
+  y: fc.double({ min: -0.45, max: 0.45, noNaN: true }),
+  z: fc.double({ min: 0, max: 0.5, noNaN: true }),
+  size: fc.double({ min: 0.04, max: 0.3, noNaN: true }),
+});
 const planArb = fc.record({
   start: goal,
   goal,
@@ -38,7 +54,11 @@ function planOf(d: Draw): Plan {
     arm: demoArm,
     start: d.start,
     surfaceMargin: d.margin,
-    keepOut: d.boxes.map((b, i) => ({ name: `box ${i}`, min: [b.x - b.size / 2, b.y - b.size / 2, b.z], max: [b.x + b.size / 2, b.y + b.size / 2, b.z + b.size] })),
+    keepOut: d.boxes.map((b, i) => ({
+      name: `box ${i}`,
+      min: [b.x - b.size / 2, b.y - b.size / 2, b.z],
+      max: [b.x + b.size / 2, b.y + b.size / 2, b.z + b.size],
+    })),
     moves: [{ goal: d.goal, duration: d.duration, shape: d.shape }],
   });
   if (!r.ok) throw new Error(r.problems.map((p) => `${p.path}: ${p.message}`).join("; "));
@@ -48,7 +68,11 @@ function planOf(d: Draw): Plan {
 /** The compiled model of a plan and its one move sampled at the control rate, with the move's reported peaks. */
 function setup(plan: Plan) {
   const arm = plan.arm;
-  const chain = compileChain(arm.chain!, arm.joints.map((j) => j.type as ChainJointType), plan.payload);
+  const chain = compileChain(
+    arm.chain!,
+    arm.joints.map((j) => j.type as ChainJointType),
+    plan.payload,
+  );
   const n = chain.jointCount;
   const collision = compileCollision(arm.chain!);
   const samples = samplePlan(plan);
@@ -56,7 +80,11 @@ function setup(plan: Plan) {
   const move = report.moves[0];
   const peakQd = move.peakVelocity.map((v) => v ?? 0);
   const peakQdd = move.peakAcceleration.map((v) => v ?? 0);
-  const reach = compileReachBounds(chain, collision, arm.joints.slice(0, n).map((j) => Math.max(Math.abs(j.min), Math.abs(j.max))));
+  const reach = compileReachBounds(
+    chain,
+    collision,
+    arm.joints.slice(0, n).map((j) => Math.max(Math.abs(j.min), Math.abs(j.max))),
+  );
   return { chain, n, collision, samples, report, peakQd, peakQdd, reach, stride: arm.joints.length };
 }
 
@@ -68,9 +96,22 @@ describe("sample-skipping clearance scan", () => {
         const plan = planOf(d);
         const { chain, n, collision, samples, peakQd, reach, stride } = setup(plan);
         const zones = clearanceZones(plan.surfaceMargin ?? 0, plan.keepOut ?? []);
-        const full = scanClearance(createClearanceScanner(chain, collision, zones), samples.position, stride, samples.timeS, samples.count);
+        const full = scanClearance(
+          createClearanceScanner(chain, collision, zones),
+          samples.position,
+          stride,
+          samples.timeS,
+          samples.count,
+        );
         const speeds = linkSpeedBounds(reach, chain, peakQd, new Float64Array(n + 1));
-        const fast = scanClearanceBounded(createClearanceScanner(chain, collision, zones), samples.position, stride, samples.timeS, samples.count, speeds);
+        const fast = scanClearanceBounded(
+          createClearanceScanner(chain, collision, zones),
+          samples.position,
+          stride,
+          samples.timeS,
+          samples.count,
+          speeds,
+        );
         expect(fast).toEqual(full);
         intrusions += full.length;
       }),
@@ -112,9 +153,24 @@ describe("sample-skipping tool-speed scan", () => {
       fc.property(planArb, (d) => {
         const plan = planOf(d);
         const { chain, samples, peakQd, peakQdd, reach, stride } = setup(plan);
-        const full = scanToolSpeed(createToolSpeedScanner(chain), samples.position, samples.velocity, stride, samples.timeS, samples.count);
+        const full = scanToolSpeed(
+          createToolSpeedScanner(chain),
+          samples.position,
+          samples.velocity,
+          stride,
+          samples.timeS,
+          samples.count,
+        );
         const accel = toolAccelerationBound(reach, chain, peakQd, peakQdd);
-        const fast = scanToolSpeedBounded(createToolSpeedScanner(chain), samples.position, samples.velocity, stride, samples.timeS, samples.count, accel);
+        const fast = scanToolSpeedBounded(
+          createToolSpeedScanner(chain),
+          samples.position,
+          samples.velocity,
+          stride,
+          samples.timeS,
+          samples.count,
+          accel,
+        );
         expect(fast).toEqual(full);
       }),
       { numRuns: 40, seed: 11 },
@@ -144,15 +200,37 @@ describe("sample-skipping tool-speed scan", () => {
       fc.property(planArb, (d) => {
         const plan = planOf(d);
         const { chain, collision, samples, report, stride } = setup(plan);
-        const full = scanToolSpeed(createToolSpeedScanner(chain), samples.position, samples.velocity, stride, samples.timeS, samples.count);
-        expectClose((report.moves[0] as { peakToolSpeed?: number }).peakToolSpeed ?? NaN, full.peakSpeed, 1e-9, 1e-9, "peak tool speed");
+        const full = scanToolSpeed(
+          createToolSpeedScanner(chain),
+          samples.position,
+          samples.velocity,
+          stride,
+          samples.timeS,
+          samples.count,
+        );
+        expectClose(
+          (report.moves[0] as { peakToolSpeed?: number }).peakToolSpeed ?? NaN,
+          full.peakSpeed,
+          1e-9,
+          1e-9,
+          "peak tool speed",
+        );
         const zones = clearanceZones(plan.surfaceMargin ?? 0, plan.keepOut ?? []);
-        const hits = scanClearance(createClearanceScanner(chain, collision, zones), samples.position, stride, samples.timeS, samples.count);
+        const hits = scanClearance(
+          createClearanceScanner(chain, collision, zones),
+          samples.position,
+          stride,
+          samples.timeS,
+          samples.count,
+        );
         const found = report.findings.filter((f) => f.kind === "clearance") as (Finding & { link: string })[];
         expect(found.map((f) => f.link).sort()).toEqual(hits.map((h) => h.linkName).sort());
         expect(found).toHaveLength(hits.length);
         for (const f of found) {
-          const h = hits.find((x) => x.linkName === f.link && (x.zone < 0 ? "work surface" : x.zoneName) === (f as { zone?: string }).zone)!;
+          const h = hits.find(
+            (x) =>
+              x.linkName === f.link && (x.zone < 0 ? "work surface" : x.zoneName) === (f as { zone?: string }).zone,
+          )!;
           expect(h, f.message).toBeDefined();
           expectClose(f.value, h.depthM, 1e-9, 1e-9, "depth");
           // the deepest time may differ where the depth is flat to rounding (at rest): both times lie in the intrusion

@@ -14,7 +14,8 @@ import {
 import * as mat4 from "@/kinematics/arm/mat4";
 import { expectClose } from "../tolerance";
 
-const unitMin = [-0.5, -0.5, -0.5], unitMax = [0.5, 0.5, 0.5];
+const unitMin = [-0.5, -0.5, -0.5],
+  unitMax = [0.5, 0.5, 0.5];
 
 describe("distance and intrusion primitives", () => {
   it("box signed distance: outside a corner region by (0.3, 0.4, 0) is 0.5 (3-4-5 triangle); inside it is minus the nearest face distance", () => {
@@ -24,13 +25,26 @@ describe("distance and intrusion primitives", () => {
   });
 
   it("segment-to-box distance equals the minimum over densely sampled points of the segment (within the sampling step)", () => {
-    const v = fc.tuple(fc.double({ min: -2, max: 2, noNaN: true }), fc.double({ min: -2, max: 2, noNaN: true }), fc.double({ min: -2, max: 2, noNaN: true }));
+    const v = fc.tuple(
+      fc.double({ min: -2, max: 2, noNaN: true }),
+      fc.double({ min: -2, max: 2, noNaN: true }),
+      fc.double({ min: -2, max: 2, noNaN: true }),
+    );
     fc.assert(
       fc.property(v, v, (a, b) => {
         let brute = Infinity;
         for (let k = 0; k <= 1000; k++) {
           const t = k / 1000;
-          brute = Math.min(brute, boxSignedDistance(a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1]), a[2] + t * (b[2] - a[2]), unitMin, unitMax));
+          brute = Math.min(
+            brute,
+            boxSignedDistance(
+              a[0] + t * (b[0] - a[0]),
+              a[1] + t * (b[1] - a[1]),
+              a[2] + t * (b[2] - a[2]),
+              unitMin,
+              unitMax,
+            ),
+          );
         }
         const d = segmentBoxSignedDistance(a, b, unitMin, unitMax);
         // The sampled minimum is an upper bound; the true one is at most (segment length / 1000) × slope 1 below it.
@@ -55,14 +69,21 @@ describe("scanning a move for clearance", () => {
   // One revolute joint about y at height 0.2 m carrying a capsule 0.5 m long along x, radius 0.02 m.
   const chain = armChainSchema.parse({
     base: { name: "post", collision: [{ kind: "capsule", from: [0, 0, 0], to: [0, 0, 0.2], radius: 0.05 }] },
-    joints: [{ origin: { xyz: [0, 0, 0.2] }, axis: [0, 1, 0], link: { name: "boom", collision: [{ kind: "capsule", from: [0, 0, 0], to: [0.5, 0, 0], radius: 0.02 }] } }],
+    joints: [
+      {
+        origin: { xyz: [0, 0, 0.2] },
+        axis: [0, 1, 0],
+        link: { name: "boom", collision: [{ kind: "capsule", from: [0, 0, 0], to: [0.5, 0, 0], radius: 0.02 }] },
+      },
+    ],
   });
   const compiled = compileChain(chain, ["revolute"]);
   const model = compileCollision(chain);
 
   function sweep(fromRad: number, toRad: number, zones = clearanceZones()) {
     const count = 101;
-    const q = new Float64Array(count), t = new Float64Array(count);
+    const q = new Float64Array(count),
+      t = new Float64Array(count);
     for (let k = 0; k < count; k++) {
       t[k] = k / 100;
       q[k] = fromRad + ((toRad - fromRad) * k) / 100;

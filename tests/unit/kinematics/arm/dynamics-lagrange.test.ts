@@ -30,7 +30,12 @@ const linkArb = fc.record({
 });
 
 function rpyMatrix([r, p, y]: number[]): number[][] {
-  const cr = Math.cos(r), sr = Math.sin(r), cp = Math.cos(p), sp = Math.sin(p), cy = Math.cos(y), sy = Math.sin(y);
+  const cr = Math.cos(r),
+    sr = Math.sin(r),
+    cp = Math.cos(p),
+    sp = Math.sin(p),
+    cy = Math.cos(y),
+    sy = Math.sin(y);
   return [
     [cy * cp, cy * sp * sr - sy * cr, cy * sp * cr + sy * sr],
     [sy * cp, sy * sp * sr + cy * cr, sy * sp * cr - cy * sr],
@@ -39,13 +44,20 @@ function rpyMatrix([r, p, y]: number[]): number[][] {
 }
 
 /** M(q) and the potential energy P(q) from FK frames and per-link com Jacobians. */
-function massAndPotential(chain: CompiledChain, links: { mass: number; com: number[] }[], inertias: number[][][], gravity: number[], q: number[]) {
+function massAndPotential(
+  chain: CompiledChain,
+  links: { mass: number; com: number[] }[],
+  inertias: number[][][],
+  gravity: number[],
+  q: number[],
+) {
   const n = q.length;
   const frames = new Float64Array(16 * (n + 1));
   linkFrames(chain, q, frames);
   const M = Array.from({ length: n }, () => new Array<number>(n).fill(0));
   let P = 0;
-  const z: number[][] = [], o: number[][] = [];
+  const z: number[][] = [],
+    o: number[][] = [];
   for (let j = 0; j < n; j++) {
     const f = 16 * (j + 1);
     const a = [chain.axis[3 * j], chain.axis[3 * j + 1], chain.axis[3 * j + 2]];
@@ -55,10 +67,17 @@ function massAndPotential(chain: CompiledChain, links: { mass: number; com: numb
   for (let i = 0; i < n; i++) {
     const f = 16 * (i + 1);
     const c = links[i].com;
-    const pc = [0, 1, 2].map((r) => frames[f + r] * c[0] + frames[f + 4 + r] * c[1] + frames[f + 8 + r] * c[2] + frames[f + 12 + r]);
+    const pc = [0, 1, 2].map(
+      (r) => frames[f + r] * c[0] + frames[f + 4 + r] * c[1] + frames[f + 8 + r] * c[2] + frames[f + 12 + r],
+    );
     const R = [0, 1, 2].map((r) => [0, 1, 2].map((k) => frames[f + 4 * k + r]));
-    const Iw = [0, 1, 2].map((r) => [0, 1, 2].map((k) => [0, 1, 2].reduce((s, a) => s + R[r][a] * [0, 1, 2].reduce((s2, b) => s2 + inertias[i][a][b] * R[k][b], 0), 0)));
-    const Jv: number[][] = [], Jw: number[][] = [];
+    const Iw = [0, 1, 2].map((r) =>
+      [0, 1, 2].map((k) =>
+        [0, 1, 2].reduce((s, a) => s + R[r][a] * [0, 1, 2].reduce((s2, b) => s2 + inertias[i][a][b] * R[k][b], 0), 0),
+      ),
+    );
+    const Jv: number[][] = [],
+      Jw: number[][] = [];
     for (let j = 0; j < n; j++) {
       if (j > i) {
         Jv.push([0, 0, 0]);
@@ -89,7 +108,12 @@ describe("recursive Newton–Euler against the Lagrangian equations on random sp
       fc.property(fc.array(linkArb, { minLength: 1, maxLength: 5 }), (links) => {
         const inertias = links.map((l) => {
           const R = rpyMatrix(l.turn);
-          return [0, 1, 2].map((r) => [0, 1, 2].map((c) => R[r][0] * l.moments[0] * R[c][0] + R[r][1] * l.moments[1] * R[c][1] + R[r][2] * l.moments[2] * R[c][2]));
+          return [0, 1, 2].map((r) =>
+            [0, 1, 2].map(
+              (c) =>
+                R[r][0] * l.moments[0] * R[c][0] + R[r][1] * l.moments[1] * R[c][1] + R[r][2] * l.moments[2] * R[c][2],
+            ),
+          );
         });
         const gravity = [0.3, -1.2, -9.81];
         const chain = compileChain(
@@ -101,7 +125,14 @@ describe("recursive Newton–Euler against the Lagrangian equations on random sp
                 inertial: {
                   mass: l.mass,
                   com: l.com,
-                  inertia: { ixx: inertias[i][0][0], ixy: inertias[i][0][1], ixz: inertias[i][0][2], iyy: inertias[i][1][1], iyz: inertias[i][1][2], izz: inertias[i][2][2] },
+                  inertia: {
+                    ixx: inertias[i][0][0],
+                    ixy: inertias[i][0][1],
+                    ixz: inertias[i][0][2],
+                    iyy: inertias[i][1][1],
+                    iyz: inertias[i][1][2],
+                    izz: inertias[i][2][2],
+                  },
                 },
               },
             })),
@@ -110,21 +141,26 @@ describe("recursive Newton–Euler against the Lagrangian equations on random sp
           links.map((l) => (l.prismatic ? "prismatic" : "revolute")),
         );
         const n = links.length;
-        const q = links.map((l) => l.q), qd = links.map((l) => l.qd), qdd = links.map((l) => l.qdd);
+        const q = links.map((l) => l.q),
+          qd = links.map((l) => l.qd),
+          qdd = links.map((l) => l.qdd);
         const at = (qq: number[]) => massAndPotential(chain, links, inertias, gravity, qq);
         const h = 1e-5;
         const shift = (v: number[], d: number[], s: number) => v.map((x, k) => x + s * d[k]);
         const { M } = at(q);
-        const Mp = at(shift(q, qd, h)).M, Mm = at(shift(q, qd, -h)).M; // Ṁ = (M(q + hq̇) − M(q − hq̇))/2h
-        const quad = (MM: number[][]) => qd.reduce((s, a, r) => s + a * MM[r].reduce((s2, m, c) => s2 + m * qd[c], 0), 0);
+        const Mp = at(shift(q, qd, h)).M,
+          Mm = at(shift(q, qd, -h)).M; // Ṁ = (M(q + hq̇) − M(q − hq̇))/2h
+        const quad = (MM: number[][]) =>
+          qd.reduce((s, a, r) => s + a * MM[r].reduce((s2, m, c) => s2 + m * qd[c], 0), 0);
         const tau = new Float64Array(n);
         inverseDynamics(chain, createDynamicsWorkspace(chain), q, qd, qdd, tau, 0, 0, true, false);
         for (let i = 0; i < n; i++) {
           const e = q.map((_, k) => (k === i ? 1 : 0));
-          const up = at(shift(q, e, h)), down = at(shift(q, e, -h));
+          const up = at(shift(q, e, h)),
+            down = at(shift(q, e, -h));
           let expected = 0;
           for (let j = 0; j < n; j++) expected += M[i][j] * qdd[j] + ((Mp[i][j] - Mm[i][j]) / (2 * h)) * qd[j];
-          expected += -0.5 * (quad(up.M) - quad(down.M)) / (2 * h) + (up.P - down.P) / (2 * h);
+          expected += (-0.5 * (quad(up.M) - quad(down.M))) / (2 * h) + (up.P - down.P) / (2 * h);
           expectClose(tau[i], expected, 1e-6, 1e-6, `τ${i}`);
         }
       }),

@@ -22,15 +22,31 @@ function twoLink(m1: number, m2: number, l1: number, l2: number, g = 9.81) {
  * Robotics (2017), §8.1; Craig, Introduction to Robotics, eq. 6.60 — memory; re-derived from the Lagrangian in
  * REFERENCES.md).
  */
-function closedForm(m1: number, m2: number, l1: number, l2: number, g: number, q: number[], qd: number[], qdd: number[]) {
-  const c1 = Math.cos(q[0]), c2 = Math.cos(q[1]), s2 = Math.sin(q[1]), c12 = Math.cos(q[0] + q[1]);
+function closedForm(
+  m1: number,
+  m2: number,
+  l1: number,
+  l2: number,
+  g: number,
+  q: number[],
+  qd: number[],
+  qdd: number[],
+) {
+  const c1 = Math.cos(q[0]),
+    c2 = Math.cos(q[1]),
+    s2 = Math.sin(q[1]),
+    c12 = Math.cos(q[0] + q[1]);
   const t1 =
     (m1 * l1 * l1 + m2 * (l1 * l1 + 2 * l1 * l2 * c2 + l2 * l2)) * qdd[0] +
     m2 * (l1 * l2 * c2 + l2 * l2) * qdd[1] -
     m2 * l1 * l2 * s2 * (2 * qd[0] * qd[1] + qd[1] * qd[1]) +
     (m1 + m2) * g * l1 * c1 +
     m2 * g * l2 * c12;
-  const t2 = m2 * (l1 * l2 * c2 + l2 * l2) * qdd[0] + m2 * l2 * l2 * qdd[1] + m2 * l1 * l2 * s2 * qd[0] * qd[0] + m2 * g * l2 * c12;
+  const t2 =
+    m2 * (l1 * l2 * c2 + l2 * l2) * qdd[0] +
+    m2 * l2 * l2 * qdd[1] +
+    m2 * l1 * l2 * s2 * qd[0] * qd[0] +
+    m2 * g * l2 * c12;
   return [t1, t2];
 }
 
@@ -46,7 +62,9 @@ describe("recursive Newton–Euler against the two-link planar arm", () => {
   it("m = (2, 1), L = (1, 0.5), θ = (π/6, π/3), θ̇ = (1, −0.5), θ̈ = (2, 1): τ = (33.8119, 1.6830) N·m (REFERENCES.md, derived)", () => {
     const c = twoLink(2, 1, 1, 0.5);
     const out = new Float64Array(2);
-    const q = [Math.PI / 6, Math.PI / 3], qd = [1, -0.5], qdd = [2, 1];
+    const q = [Math.PI / 6, Math.PI / 3],
+      qd = [1, -0.5],
+      qdd = [2, 1];
     inverseDynamics(c, createDynamicsWorkspace(c), q, qd, qdd, out);
     expectClose(out[0], 33.8119, 1e-4, 0, "τ1");
     expectClose(out[1], 1.683, 1e-4, 0, "τ2");
@@ -56,7 +74,8 @@ describe("recursive Newton–Euler against the two-link planar arm", () => {
   });
 
   it("matches the closed-form equations for random masses, lengths and states", () => {
-    const n = (lo: number, hi: number) => fc.integer({ min: 0, max: 1_000_000 }).map((k) => lo + ((hi - lo) * k) / 1_000_000); // uniform grid
+    const n = (lo: number, hi: number) =>
+      fc.integer({ min: 0, max: 1_000_000 }).map((k) => lo + ((hi - lo) * k) / 1_000_000); // uniform grid
     fc.assert(
       fc.property(
         fc.tuple(n(0.1, 5), n(0.1, 5), n(0.1, 2), n(0.1, 2)),
@@ -79,12 +98,30 @@ describe("gravity load of a straight horizontal arm by hand (τ = Σ m·g·r)", 
   // A spatial arm: base yaw about z, shoulder and elbow about y, links along x, gravity −z.
   // By hand: shoulder τ = g·(m1·r1 + m2·(L1 + r2) + payload·(L1 + L2)); sign: gravity pulls the tip down (−z),
   // a torque about +y that lifts the tip (x → −z is +y rotation), so the holding torque about +y is negative.
-  const m1 = 1.5, m2 = 0.8, r1 = 0.15, r2 = 0.12, L1 = 0.3, L2 = 0.25, mp = 0.5, g = 9.81;
+  const m1 = 1.5,
+    m2 = 0.8,
+    r1 = 0.15,
+    r2 = 0.12,
+    L1 = 0.3,
+    L2 = 0.25,
+    mp = 0.5,
+    g = 9.81;
   const chain = armChainSchema.parse({
     joints: [
-      { axis: [0, 0, 1], link: { inertial: { mass: 0.7, com: [0, 0, 0.05], inertia: { ixx: 1e-3, iyy: 1e-3, izz: 1e-3 } } } },
-      { origin: { xyz: [0, 0, 0.1] }, axis: [0, 1, 0], link: { inertial: { mass: m1, com: [r1, 0, 0], inertia: { ixx: 1e-3, iyy: 0.01, izz: 0.01 } } } },
-      { origin: { xyz: [L1, 0, 0] }, axis: [0, 1, 0], link: { inertial: { mass: m2, com: [r2, 0, 0], inertia: { ixx: 1e-3, iyy: 0.004, izz: 0.004 } } } },
+      {
+        axis: [0, 0, 1],
+        link: { inertial: { mass: 0.7, com: [0, 0, 0.05], inertia: { ixx: 1e-3, iyy: 1e-3, izz: 1e-3 } } },
+      },
+      {
+        origin: { xyz: [0, 0, 0.1] },
+        axis: [0, 1, 0],
+        link: { inertial: { mass: m1, com: [r1, 0, 0], inertia: { ixx: 1e-3, iyy: 0.01, izz: 0.01 } } },
+      },
+      {
+        origin: { xyz: [L1, 0, 0] },
+        axis: [0, 1, 0],
+        link: { inertial: { mass: m2, com: [r2, 0, 0], inertia: { ixx: 1e-3, iyy: 0.004, izz: 0.004 } } },
+      },
     ],
     tool: { xyz: [L2, 0, 0] },
   });
@@ -126,8 +163,12 @@ describe("joint friction", () => {
 
   it("is added to the rigid-body effort in inverseDynamics", () => {
     const c = twoLink(1, 1, 1, 1);
-    const ws = createDynamicsWorkspace(c, [{ coulomb: 0.5, viscous: 0.2 }, { coulomb: 0.3, viscous: 0.1 }]);
-    const plain = new Float64Array(2), withF = new Float64Array(2);
+    const ws = createDynamicsWorkspace(c, [
+      { coulomb: 0.5, viscous: 0.2 },
+      { coulomb: 0.3, viscous: 0.1 },
+    ]);
+    const plain = new Float64Array(2),
+      withF = new Float64Array(2);
     inverseDynamics(c, ws, [0.1, 0.2], [1, -1], [0, 0], plain, 0, 0, true, false);
     inverseDynamics(c, ws, [0.1, 0.2], [1, -1], [0, 0], withF);
     expectClose(withF[0] - plain[0], 0.2 + 0.5 * Math.tanh(100), 1e-12, 0, "joint 0");

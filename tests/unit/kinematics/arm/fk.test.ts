@@ -38,8 +38,21 @@ describe("forward kinematics against published examples", () => {
   it("puts the planar two-link tool point at (1.1248, 1.4659) for θ = (30°, 45°) with standard and modified DH", () => {
     // REFERENCES.md: planar two-link arm L1 = L2 = 1 (derived): x = cos30° + cos75°, y = sin30° + sin75°.
     const q = [Math.PI / 6, Math.PI / 4];
-    const std = compile(chainFromStandardDh([{ a: 1, alpha: 0, d: 0, theta: 0 }, { a: 1, alpha: 0, d: 0, theta: 0 }]));
-    const mod = compile(chainFromModifiedDh([{ a: 0, alpha: 0, d: 0, theta: 0 }, { a: 1, alpha: 0, d: 0, theta: 0 }], { xyz: [1, 0, 0], rpy: [0, 0, 0] }));
+    const std = compile(
+      chainFromStandardDh([
+        { a: 1, alpha: 0, d: 0, theta: 0 },
+        { a: 1, alpha: 0, d: 0, theta: 0 },
+      ]),
+    );
+    const mod = compile(
+      chainFromModifiedDh(
+        [
+          { a: 0, alpha: 0, d: 0, theta: 0 },
+          { a: 1, alpha: 0, d: 0, theta: 0 },
+        ],
+        { xyz: [1, 0, 0], rpy: [0, 0, 0] },
+      ),
+    );
     for (const c of [std, mod]) {
       const t = forwardKinematics(c, q, createChainBuffers(c));
       expectClose(t[12], 1.1248, 1e-4, 0, "x");
@@ -68,25 +81,37 @@ const jointArb = fc.record({ xyz: vec(0.5), rpy: vec(Math.PI), axis: axisArb, pr
 describe("frame composition cross-checked against three.js Matrix4", () => {
   it("every link frame and the tool pose match three.js for random chains and poses", () => {
     fc.assert(
-      fc.property(fc.array(jointArb, { minLength: 1, maxLength: 8 }), vec(0.3), vec(Math.PI), (joints, toolXyz, toolRpy) => {
-        const chain = compile(
-          { joints: joints.map((j) => ({ origin: { xyz: j.xyz, rpy: j.rpy }, axis: j.axis })), tool: { xyz: toolXyz, rpy: toolRpy } },
-          joints.map((j) => (j.prismatic ? "prismatic" : "revolute")),
-        );
-        const buf = createChainBuffers(chain);
-        const tool = forwardKinematics(chain, joints.map((j) => j.q), buf);
-        const ref = new Matrix4();
-        joints.forEach((j, i) => {
-          const axis = new Vector3(...j.axis).normalize();
-          const motion = j.prismatic
-            ? new Matrix4().makeTranslation(axis.x * j.q, axis.y * j.q, axis.z * j.q)
-            : new Matrix4().makeRotationAxis(axis, j.q);
-          ref.multiply(threeOrigin(j.xyz, j.rpy)).multiply(motion);
-          expectAllClose(buf.frames.subarray(16 * (i + 1), 16 * (i + 2)), ref.elements, 1e-9, 1e-9, `frame ${i + 1}`);
-        });
-        ref.multiply(threeOrigin(toolXyz, toolRpy));
-        expectAllClose(tool, ref.elements, 1e-9, 1e-9, "tool");
-      }),
+      fc.property(
+        fc.array(jointArb, { minLength: 1, maxLength: 8 }),
+        vec(0.3),
+        vec(Math.PI),
+        (joints, toolXyz, toolRpy) => {
+          const chain = compile(
+            {
+              joints: joints.map((j) => ({ origin: { xyz: j.xyz, rpy: j.rpy }, axis: j.axis })),
+              tool: { xyz: toolXyz, rpy: toolRpy },
+            },
+            joints.map((j) => (j.prismatic ? "prismatic" : "revolute")),
+          );
+          const buf = createChainBuffers(chain);
+          const tool = forwardKinematics(
+            chain,
+            joints.map((j) => j.q),
+            buf,
+          );
+          const ref = new Matrix4();
+          joints.forEach((j, i) => {
+            const axis = new Vector3(...j.axis).normalize();
+            const motion = j.prismatic
+              ? new Matrix4().makeTranslation(axis.x * j.q, axis.y * j.q, axis.z * j.q)
+              : new Matrix4().makeRotationAxis(axis, j.q);
+            ref.multiply(threeOrigin(j.xyz, j.rpy)).multiply(motion);
+            expectAllClose(buf.frames.subarray(16 * (i + 1), 16 * (i + 2)), ref.elements, 1e-9, 1e-9, `frame ${i + 1}`);
+          });
+          ref.multiply(threeOrigin(toolXyz, toolRpy));
+          expectAllClose(tool, ref.elements, 1e-9, 1e-9, "tool");
+        },
+      ),
       { numRuns: 200 },
     );
   });
@@ -113,15 +138,30 @@ describe("frame composition cross-checked against three.js Matrix4", () => {
 });
 
 describe("Denavit–Hartenberg conversion", () => {
-  const dhRow = fc.record({ a: num(0.5), alpha: num(Math.PI), d: num(0.5), theta: num(Math.PI), prismatic: fc.boolean() });
+  const dhRow = fc.record({
+    a: num(0.5),
+    alpha: num(Math.PI),
+    d: num(0.5),
+    theta: num(Math.PI),
+    prismatic: fc.boolean(),
+  });
 
   it("standard DH chain matches the direct product Rz(θ)·Tz(d)·Tx(a)·Rx(α) computed with three.js", () => {
     // Standard DH: Siciliano et al., Robotics: Modelling, Planning and Control (2009), §2.8.2, eq. 2.52.
     fc.assert(
       fc.property(fc.array(fc.tuple(dhRow, num(2)), { minLength: 1, maxLength: 7 }), (rows) => {
-        const dh: DhRow[] = rows.map(([r]) => ({ a: r.a, alpha: r.alpha, d: r.d, theta: r.theta, type: r.prismatic ? "prismatic" : "revolute" }));
+        const dh: DhRow[] = rows.map(([r]) => ({
+          a: r.a,
+          alpha: r.alpha,
+          d: r.d,
+          theta: r.theta,
+          type: r.prismatic ? "prismatic" : "revolute",
+        }));
         const q = rows.map(([, v]) => v);
-        const chain = compile(chainFromStandardDh(dh), dh.map((r) => r.type!));
+        const chain = compile(
+          chainFromStandardDh(dh),
+          dh.map((r) => r.type!),
+        );
         const t = forwardKinematics(chain, q, createChainBuffers(chain));
         const ref = new Matrix4();
         dh.forEach((r, i) => {
@@ -145,8 +185,18 @@ describe("Denavit–Hartenberg conversion", () => {
     // so modified row i = (a_{i−1}, α_{i−1}, di, θi) with a0 = α0 = 0 and the tool Tx(an)·Rx(αn).
     fc.assert(
       fc.property(fc.array(fc.tuple(dhRow, num(2)), { minLength: 1, maxLength: 7 }), (rows) => {
-        const std: DhRow[] = rows.map(([r]) => ({ a: r.a, alpha: r.alpha, d: r.d, theta: r.theta, type: r.prismatic ? "prismatic" : "revolute" }));
-        const mod: DhRow[] = std.map((r, i) => ({ ...r, a: i === 0 ? 0 : std[i - 1].a, alpha: i === 0 ? 0 : std[i - 1].alpha }));
+        const std: DhRow[] = rows.map(([r]) => ({
+          a: r.a,
+          alpha: r.alpha,
+          d: r.d,
+          theta: r.theta,
+          type: r.prismatic ? "prismatic" : "revolute",
+        }));
+        const mod: DhRow[] = std.map((r, i) => ({
+          ...r,
+          a: i === 0 ? 0 : std[i - 1].a,
+          alpha: i === 0 ? 0 : std[i - 1].alpha,
+        }));
         const last = std[std.length - 1];
         const q = rows.map(([, v]) => v);
         const types = std.map((r) => r.type!);

@@ -11,10 +11,14 @@ import { expectClose } from "../tolerance";
 const armL = parseArm(readJson("kinematics/arm/presets/bench-arm-l.json"));
 if (!armL.ok) throw new Error("demo arm L does not parse");
 const arm: Arm = armL.value;
-const chain = compileChain(arm.chain!, arm.joints.map((j) => j.type));
+const chain = compileChain(
+  arm.chain!,
+  arm.joints.map((j) => j.type),
+);
 const { lower, upper } = chainLimits(arm.joints, chain.jointCount);
 // uniform on a fine grid inside 90% of the travel (fc.double favours tiny and extreme values)
-const within = (lo: number, hi: number) => fc.integer({ min: 0, max: 1_000_000 }).map((k) => lo + ((hi - lo) * k) / 1_000_000);
+const within = (lo: number, hi: number) =>
+  fc.integer({ min: 0, max: 1_000_000 }).map((k) => lo + ((hi - lo) * k) / 1_000_000);
 const poseArb = fc.tuple(...Array.from({ length: 6 }, (_, i) => within(lower[i] * 0.9, upper[i] * 0.9)));
 
 /** A recorded failing draw (pose q, seed) in the shape of the property's arguments (q, seed − q). */
@@ -24,7 +28,11 @@ function regression(q: number[], seed: number[]): [number[], number[]] {
 
 function toolOf(q: ArrayLike<number>) {
   const t = forwardKinematics(chain, q, createChainBuffers(chain));
-  return { m: Float64Array.from(t), position: [t[12], t[13], t[14]] as [number, number, number], rpy: mat4.toRpy([0, 0, 0], t) as [number, number, number] };
+  return {
+    m: Float64Array.from(t),
+    position: [t[12], t[13], t[14]] as [number, number, number],
+    rpy: mat4.toRpy([0, 0, 0], t) as [number, number, number],
+  };
 }
 
 describe("inverse kinematics (damped least squares)", () => {
@@ -49,8 +57,14 @@ describe("inverse kinematics (damped least squares)", () => {
         //    and the solver stalled there, 0.2 mm and 2.3 mm away, with restarts only over the whole travel.
         examples: [
           regression(
-            [-0.9694815838756039, -1.2472875081840904, 2.161004309998825, -0.8280443429248407, 1.5834960706019778, -1.6859038975881413],
-            [-0.8905640678526833, -1.2184611226804556, 2.022514050817117, -0.9190587290329859, 1.7988434390584012, -1.4236069624638186],
+            [
+              -0.9694815838756039, -1.2472875081840904, 2.161004309998825, -0.8280443429248407, 1.5834960706019778,
+              -1.6859038975881413,
+            ],
+            [
+              -0.8905640678526833, -1.2184611226804556, 2.022514050817117, -0.9190587290329859, 1.7988434390584012,
+              -1.4236069624638186,
+            ],
           ),
           regression(
             [-0.429560233494267, 1.62, 0.19667980976169908, -1.71, 2.745, 2.61],
@@ -72,7 +86,13 @@ describe("inverse kinematics (damped least squares)", () => {
         const r = solveIk(chain, { position: target.position }, { lower, upper });
         expect(r.reachable).toBe(true);
         const back = toolOf(r.pose);
-        expect(Math.hypot(back.position[0] - target.position[0], back.position[1] - target.position[1], back.position[2] - target.position[2])).toBeLessThan(1e-4);
+        expect(
+          Math.hypot(
+            back.position[0] - target.position[0],
+            back.position[1] - target.position[1],
+            back.position[2] - target.position[2],
+          ),
+        ).toBeLessThan(1e-4);
       }),
       { numRuns: 40 },
     );
@@ -118,7 +138,12 @@ describe("inverse kinematics (damped least squares)", () => {
 });
 
 describe("Cartesian goals in a plan", () => {
-  const base = { format: "jointproof.plan", version: 1, arm: readJson("kinematics/arm/presets/bench-arm-l.json"), start: [0, 0.3, 0.6, 0.2, 0, 0, 0.01] };
+  const base = {
+    format: "jointproof.plan",
+    version: 1,
+    arm: readJson("kinematics/arm/presets/bench-arm-l.json"),
+    start: [0, 0.3, 0.6, 0.2, 0, 0, 0.01],
+  };
 
   it("a move with a target gets a joint goal that puts the tool point there; the gripper keeps its value", () => {
     const parsed = parsePlan({ ...base, moves: [{ target: { position: [0.35, 0.2, 0.25] }, duration: 2 }] });
@@ -132,7 +157,13 @@ describe("Cartesian goals in a plan", () => {
   });
 
   it("an unreachable target is an input problem on moves[i].target that gives the distance", () => {
-    const parsed = parsePlan({ ...base, moves: [{ goal: [0, 0, 0, 0, 0, 0, 0], duration: 1 }, { target: { position: [1.5, 0, 0.2] }, duration: 2 }] });
+    const parsed = parsePlan({
+      ...base,
+      moves: [
+        { goal: [0, 0, 0, 0, 0, 0, 0], duration: 1 },
+        { target: { position: [1.5, 0, 0.2] }, duration: 2 },
+      ],
+    });
     expect(parsed.ok).toBe(false);
     if (parsed.ok) return;
     expect(parsed.problems.map((p) => p.path)).toEqual([["moves", 1, "target"]]);
@@ -142,7 +173,9 @@ describe("Cartesian goals in a plan", () => {
   it("a target on an arm without a chain is refused, and a document without targets is left unchanged", () => {
     const noChain = { ...base, arm: { ...(base.arm as object), chain: undefined } };
     const r = resolveCartesianGoals({ ...noChain, moves: [{ target: { position: [0.3, 0, 0.3] }, duration: 1 }] });
-    expect(r.problems).toEqual([{ path: ["moves", 0, "target"], message: "needs the arm's chain (arm.chain) to be turned into a joint goal" }]);
+    expect(r.problems).toEqual([
+      { path: ["moves", 0, "target"], message: "needs the arm's chain (arm.chain) to be turned into a joint goal" },
+    ]);
     const plain = { ...base, moves: [{ goal: [0, 0, 0, 0, 0, 0, 0], duration: 1 }] };
     expect(resolveCartesianGoals(plain).document).toBe(plain);
   });

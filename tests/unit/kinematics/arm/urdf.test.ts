@@ -91,13 +91,24 @@ describe("the demo arms' URDF files describe the same arms as their JSON", () =>
       expect(fromUrdf.joints.map((j) => [j.name, j.min, j.max, j.maxVelocity, j.maxEffort])).toEqual(
         arm.joints.slice(0, 6).map((j) => [j.name, j.min, j.max, j.maxVelocity, j.maxEffort]),
       );
-      const a = compileChain(arm.chain!, arm.joints.map((j) => j.type));
-      const b = compileChain(fromUrdf.chain, fromUrdf.joints.map((j) => j.type));
+      const a = compileChain(
+        arm.chain!,
+        arm.joints.map((j) => j.type),
+      );
+      const b = compileChain(
+        fromUrdf.chain,
+        fromUrdf.joints.map((j) => j.type),
+      );
       expectAllClose(b.mass, a.mass, 1e-12);
       expectAllClose(b.com, a.com, 1e-12);
       fc.assert(
         fc.property(fc.array(fc.double({ min: -3, max: 3, noNaN: true }), { minLength: 6, maxLength: 6 }), (q) => {
-          expectAllClose(forwardKinematics(b, q, createChainBuffers(b)), forwardKinematics(a, q, createChainBuffers(a)), 1e-12, 1e-12);
+          expectAllClose(
+            forwardKinematics(b, q, createChainBuffers(b)),
+            forwardKinematics(a, q, createChainBuffers(a)),
+            1e-12,
+            1e-12,
+          );
         }),
       );
     });
@@ -134,28 +145,49 @@ describe("bad URDF files give problems naming the element, never a crash", () =>
       element: 'joint "spin" type',
       message: '"spinning" is not a URDF joint type (revolute, continuous, prismatic, fixed, floating, planar)',
     });
-    expect(problemsOf(edit('name="spin" type="continuous"', 'name="spin" type="floating"'))[0].message).toMatch(/not supported/);
+    expect(problemsOf(edit('name="spin" type="continuous"', 'name="spin" type="floating"'))[0].message).toMatch(
+      /not supported/,
+    );
   });
 
   it("non-numbers in an origin, a limit and a mass", () => {
-    expect(problemsOf(edit('xyz="0.3 0 0"', 'xyz="0.3 zero 0"'))).toEqual([{ element: 'joint "lift" <origin xyz>', message: '"0.3 zero 0" is not 3 numbers' }]);
-    expect(problemsOf(edit('effort="50"', 'effort="lots"'))).toEqual([{ element: 'joint "lift" <limit effort>', message: '"lots" is not a number' }]);
-    expect(problemsOf(edit('<mass value="2"/>', '<mass value="NaN"/>'))).toEqual([{ element: 'link "turntable" <inertial><mass value>', message: '"NaN" is not a number' }]);
-  });
-
-  it("a revolute joint without <limit>, and a limit without velocity", () => {
-    expect(problemsOf(edit('<limit upper="1.2" effort="5" velocity="2"/>', ""))).toEqual([{ element: 'joint "hinge" <limit>', message: "is required on a revolute joint" }]);
-    expect(problemsOf(edit('<limit upper="1.2" effort="5" velocity="2"/>', '<limit upper="1.2" effort="5"/>'))).toEqual([
-      { element: 'joint "hinge" <limit velocity>', message: "is required" },
+    expect(problemsOf(edit('xyz="0.3 0 0"', 'xyz="0.3 zero 0"'))).toEqual([
+      { element: 'joint "lift" <origin xyz>', message: '"0.3 zero 0" is not 3 numbers' },
+    ]);
+    expect(problemsOf(edit('effort="50"', 'effort="lots"'))).toEqual([
+      { element: 'joint "lift" <limit effort>', message: '"lots" is not a number' },
+    ]);
+    expect(problemsOf(edit('<mass value="2"/>', '<mass value="NaN"/>'))).toEqual([
+      { element: 'link "turntable" <inertial><mass value>', message: '"NaN" is not a number' },
     ]);
   });
 
+  it("a revolute joint without <limit>, and a limit without velocity", () => {
+    expect(problemsOf(edit('<limit upper="1.2" effort="5" velocity="2"/>', ""))).toEqual([
+      { element: 'joint "hinge" <limit>', message: "is required on a revolute joint" },
+    ]);
+    expect(problemsOf(edit('<limit upper="1.2" effort="5" velocity="2"/>', '<limit upper="1.2" effort="5"/>'))).toEqual(
+      [{ element: 'joint "hinge" <limit velocity>', message: "is required" }],
+    );
+  });
+
   it("two root links, a second moving branch, XML that does not parse, and no <robot>", () => {
-    expect(problemsOf(edit("</robot>", '<link name="stray"/></robot>'))[0]).toEqual({ element: "<robot>", message: 'must have one root link, has 2 ("base", "stray")' });
-    const branch = edit('<joint name="lamp-mount" type="fixed">', '<joint name="lamp-mount" type="revolute"><limit effort="1" velocity="1"/>');
-    expect(problemsOf(branch)[0]).toEqual({ element: 'joint "lamp-mount"', message: 'starts a second moving branch at link "slider"; only serial chains are supported' });
+    expect(problemsOf(edit("</robot>", '<link name="stray"/></robot>'))[0]).toEqual({
+      element: "<robot>",
+      message: 'must have one root link, has 2 ("base", "stray")',
+    });
+    const branch = edit(
+      '<joint name="lamp-mount" type="fixed">',
+      '<joint name="lamp-mount" type="revolute"><limit effort="1" velocity="1"/>',
+    );
+    expect(problemsOf(branch)[0]).toEqual({
+      element: 'joint "lamp-mount"',
+      message: 'starts a second moving branch at link "slider"; only serial chains are supported',
+    });
     expect(problemsOf(fixture.slice(0, 800))[0].element).toMatch(/^\(XML line \d+\)$/);
-    expect(problemsOf("<model/>")).toEqual([{ element: "<robot>", message: "missing: a URDF file has one <robot> element" }]);
+    expect(problemsOf("<model/>")).toEqual([
+      { element: "<robot>", message: "missing: a URDF file has one <robot> element" },
+    ]);
   });
 
   it("random cuts through the file give a result or problems, never an exception", () => {

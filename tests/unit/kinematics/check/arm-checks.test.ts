@@ -18,7 +18,10 @@ describe("a version-1 document without the arm model means exactly the same", ()
     const doc = fixture("reach-out-heavy");
     const { chain: _chain, ...armWithout } = doc.arm as Record<string, unknown>;
     const p = plan({ ...doc, arm: armWithout });
-    const joint = check(p, { planCheckers: [checkStartRange], moveCheckers: [checkGoalRange, checkSpeed, checkAcceleration] });
+    const joint = check(p, {
+      planCheckers: [checkStartRange],
+      moveCheckers: [checkGoalRange, checkSpeed, checkAcceleration],
+    });
     expect(check(p)).toEqual(joint);
     expect(Object.keys(check(p).moves[0])).not.toContain("peakEffort");
   });
@@ -59,7 +62,9 @@ describe("effort-over", () => {
     const fixS = Number(m![1]);
     const withDuration = (T: number) => {
       const moves = (doc.moves as Record<string, unknown>[]).map((mv, i) => (i === 0 ? { ...mv, duration: T } : mv));
-      return check(plan({ ...doc, moves })).findings.filter((f) => f.move === 0 && f.kind === "effort-over" && f.severity === "fault");
+      return check(plan({ ...doc, moves })).findings.filter(
+        (f) => f.move === 0 && f.kind === "effort-over" && f.severity === "fault",
+      );
     };
     expect(withDuration(fixS)).toEqual([]);
     expect(withDuration(fixS * 0.98)).toHaveLength(1);
@@ -85,7 +90,11 @@ describe("clearance", () => {
   it("a move that lowers the handle into the bench is a clearance fault naming the link, time and depth", () => {
     const r = check(plan(fixture("clip-surface")));
     expect(r.verdict).toBe("fault");
-    const f = r.findings.find((x) => x.kind === "clearance") as (typeof r.findings)[number] & { link: string; time: number; zone: string };
+    const f = r.findings.find((x) => x.kind === "clearance") as (typeof r.findings)[number] & {
+      link: string;
+      time: number;
+      zone: string;
+    };
     expect(f.link).toBe("handle");
     expect(f.zone).toBe("work surface");
     expect(f.value).toBeGreaterThan(0.1);
@@ -99,7 +108,8 @@ describe("clearance", () => {
       const moves = (doc.moves as Record<string, unknown>[]).map((mv) => ({ ...mv, duration: T }));
       return check(plan({ ...doc, moves })).findings.filter((f) => f.kind === "clearance");
     };
-    const a = at(2), b = at(8);
+    const a = at(2),
+      b = at(8);
     expect(b.map((f) => f.value)).toHaveLength(a.length);
     a.forEach((f, i) => expectClose(b[i].value, f.value, 1e-9, 1e-9));
   });
@@ -124,7 +134,9 @@ describe("end to end: Cartesian targets, a payload and a keep-out box (tests/fix
     const doc = fixture("bench-e2e");
     const fixS = Number(/at least ([\d.]+) s/.exec(f.message)![1]);
     const moves = (doc.moves as Record<string, unknown>[]).map((mv, i) => (i === 0 ? { ...mv, duration: fixS } : mv));
-    const again = check(plan({ ...doc, moves })).findings.filter((x) => x.kind === "tool-speed" && x.move === 0 && x.severity === "fault");
+    const again = check(plan({ ...doc, moves })).findings.filter(
+      (x) => x.kind === "tool-speed" && x.move === 0 && x.severity === "fault",
+    );
     expect(again).toEqual([]);
   });
 });

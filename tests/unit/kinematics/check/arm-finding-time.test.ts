@@ -20,7 +20,9 @@ const fixture = (name: string) => readJson(`tests/fixtures/arm-plans/${name}.jso
 function stateAt(p: Plan, move: number, tS: number) {
   const tl = timelineOf(p);
   const n = p.arm.joints.length;
-  const q = new Float64Array(n), qd = new Float64Array(n), qdd = new Float64Array(n);
+  const q = new Float64Array(n),
+    qd = new Float64Array(n),
+    qdd = new Float64Array(n);
   sampleMoveAt(tl, move, tS - tl.startS[move], q, qd, qdd, 0);
   return { q, qd, qdd, startS: tl.startS[move], durationS: tl.durationS[move] };
 }
@@ -28,8 +30,15 @@ function stateAt(p: Plan, move: number, tS: number) {
 describe("arm findings carry the time of their worst sample (seconds from the plan's start)", () => {
   it("effort-over: Newton–Euler at timeS gives the finding's value, and timeS lies in its move", () => {
     const p = plan(fixture("reach-out-heavy"));
-    const chain = compileChain(p.arm.chain!, p.arm.joints.map((j) => j.type), p.payload);
-    const ws = createDynamicsWorkspace(chain, p.arm.joints.slice(0, chain.jointCount).map((j) => j.friction));
+    const chain = compileChain(
+      p.arm.chain!,
+      p.arm.joints.map((j) => j.type),
+      p.payload,
+    );
+    const ws = createDynamicsWorkspace(
+      chain,
+      p.arm.joints.slice(0, chain.jointCount).map((j) => j.friction),
+    );
     const efforts = check(p).findings.filter((f) => f.kind === "effort-over" && f.move !== null);
     expect(efforts.map((f) => f.move)).toEqual([0, 1]);
     for (const f of efforts) {
@@ -42,7 +51,11 @@ describe("arm findings carry the time of their worst sample (seconds from the pl
 
   it("tool-speed: the tool speed at timeS is the finding's value", () => {
     const p = plan(fixture("bench-e2e"));
-    const chain = compileChain(p.arm.chain!, p.arm.joints.map((j) => j.type), p.payload);
+    const chain = compileChain(
+      p.arm.chain!,
+      p.arm.joints.map((j) => j.type),
+      p.payload,
+    );
     const scanner = createToolSpeedScanner(chain);
     const fs = check(p).findings.filter((f) => f.kind === "tool-speed");
     expect(fs.length).toBeGreaterThan(0);
@@ -55,7 +68,9 @@ describe("arm findings carry the time of their worst sample (seconds from the pl
   it("clearance: link and zone are on the finding, timeS is the move's start plus the deepest time within the move", () => {
     const doc = fixture("clip-surface");
     const lead = { goal: doc.start, duration: 1.5 }; // a move that stays put shifts the clip by 1.5 s
-    const shifted = check(plan({ ...doc, moves: [lead, ...(doc.moves as unknown[])] })).findings.filter((f) => f.kind === "clearance");
+    const shifted = check(plan({ ...doc, moves: [lead, ...(doc.moves as unknown[])] })).findings.filter(
+      (f) => f.kind === "clearance",
+    );
     const alone = check(plan(doc)).findings.filter((f) => f.kind === "clearance");
     expect(alone.length).toBeGreaterThan(0);
     expect(shifted.map((f) => [f.link, f.zone])).toEqual(alone.map((f) => [f.link, f.zone]));
@@ -72,7 +87,8 @@ describe("check option sampleRateHz", () => {
     const full = check(p, { sampling: "control-rate" });
     const coarse = check(p, { sampleRateHz: 50, sampling: "control-rate" });
     expect(coarse.moves.map((m) => m.peakVelocity)).toEqual(full.moves.map((m) => m.peakVelocity));
-    const fine = full.moves[0].peakEffort![1]!, rough = coarse.moves[0].peakEffort![1]!;
+    const fine = full.moves[0].peakEffort![1]!,
+      rough = coarse.moves[0].peakEffort![1]!;
     expect(rough).toBeLessThanOrEqual(fine * (1 + 1e-12));
     expect(rough).not.toBe(fine); // 50 Hz misses the control-rate peak of this move
     // every coarse effort finding's time is on the 50 Hz grid of its move

@@ -42,10 +42,14 @@ function planOf(
 describe("check: peaks", () => {
   it("peakVelocity is the largest |q̇| over the move (quintic 1.875·D/T, cubic 1.5·D/T)", () => {
     const report = check(
-      planOf([{ maxAcceleration: 20 }, {}], [0, 0], [
-        { goal: [1.2, -0.4], duration: 2, shape: "quintic" },
-        { goal: [0, 0.4], duration: 4, shape: "cubic" },
-      ]),
+      planOf(
+        [{ maxAcceleration: 20 }, {}],
+        [0, 0],
+        [
+          { goal: [1.2, -0.4], duration: 2, shape: "quintic" },
+          { goal: [0, 0.4], duration: 4, shape: "cubic" },
+        ],
+      ),
     );
     expectClose(report.moves[0].peakVelocity[0], (1.875 * 1.2) / 2);
     expectClose(report.moves[0].peakVelocity[1], (1.875 * 0.4) / 2);
@@ -61,7 +65,16 @@ describe("check: peaks", () => {
   });
 
   it("a zero-length move has zero peaks, zero shortest safe duration and passes", () => {
-    const report = check(planOf([{ maxAcceleration: 1 }], [0.5], [{ goal: [0.5], duration: 1 }, { goal: [0.5], duration: 0 }]));
+    const report = check(
+      planOf(
+        [{ maxAcceleration: 1 }],
+        [0.5],
+        [
+          { goal: [0.5], duration: 1 },
+          { goal: [0.5], duration: 0 },
+        ],
+      ),
+    );
     expect(report.moves[0].peakVelocity).toEqual([0]);
     expect(report.moves[0].peakAcceleration).toEqual([0]);
     expect(report.moves[0].minSafeDuration).toBe(0);
@@ -70,7 +83,16 @@ describe("check: peaks", () => {
   });
 
   it("each move starts where the previous one ended", () => {
-    const report = check(planOf([{}], [0], [{ goal: [1], duration: 2 }, { goal: [1.5], duration: 2 }]));
+    const report = check(
+      planOf(
+        [{}],
+        [0],
+        [
+          { goal: [1], duration: 2 },
+          { goal: [1.5], duration: 2 },
+        ],
+      ),
+    );
     expectClose(report.moves[1].peakVelocity[0], (1.875 * 0.5) / 2);
   });
 });
@@ -79,15 +101,28 @@ describe("check: findings", () => {
   it("a start value outside travel is a range fault with move null", () => {
     const report = check(planOf([{ min: -1, max: 1 }], [1.5], [{ goal: [0.5], duration: 5 }]));
     expect(report.findings).toHaveLength(1);
-    expect(report.findings[0]).toMatchObject({ kind: "range", severity: "fault", move: null, joint: 0, value: 1.5, limit: 1 });
+    expect(report.findings[0]).toMatchObject({
+      kind: "range",
+      severity: "fault",
+      move: null,
+      joint: 0,
+      value: 1.5,
+      limit: 1,
+    });
     expect(report.verdict).toBe("fault");
   });
 
   it("a goal outside travel is a range fault on that move", () => {
-    const report = check(planOf([{}, { min: 0, max: 0.04, type: "prismatic", maxVelocity: 0.1 }], [0, 0.02], [
-      { goal: [0, 0.02], duration: 1 },
-      { goal: [0, -0.01], duration: 2 },
-    ]));
+    const report = check(
+      planOf(
+        [{}, { min: 0, max: 0.04, type: "prismatic", maxVelocity: 0.1 }],
+        [0, 0.02],
+        [
+          { goal: [0, 0.02], duration: 1 },
+          { goal: [0, -0.01], duration: 2 },
+        ],
+      ),
+    );
     expect(report.findings.map((f) => [f.kind, f.move, f.joint, f.limit])).toEqual([["range", 1, 1, 0]]);
     expect(report.moves[1].findings).toHaveLength(1);
     expect(report.moves[0].findings).toHaveLength(0);
@@ -99,14 +134,18 @@ describe("check: findings", () => {
   });
 
   it("peak speed equal to the limit passes (cubic D = 2, T = 1, limit 3)", () => {
-    const report = check(planOf([{ maxVelocity: 3 }], [0], [{ goal: [2], duration: 1, shape: "cubic" }], { cautionRatio: 1 }));
+    const report = check(
+      planOf([{ maxVelocity: 3 }], [0], [{ goal: [2], duration: 1, shape: "cubic" }], { cautionRatio: 1 }),
+    );
     expectClose(report.moves[0].peakVelocity[0], 3);
     expect(report.findings).toEqual([]);
     expect(report.verdict).toBe("pass");
   });
 
   it("peak speed above the limit is a speed-over fault with the fix duration in the message", () => {
-    const report = check(planOf([{ name: "elbow", maxVelocity: 2.9 }], [0], [{ goal: [2], duration: 1, shape: "cubic" }]));
+    const report = check(
+      planOf([{ name: "elbow", maxVelocity: 2.9 }], [0], [{ goal: [2], duration: 1, shape: "cubic" }]),
+    );
     const finding = report.findings[0];
     expect(finding).toMatchObject({ kind: "speed-over", severity: "fault", move: 0, joint: 0, limit: 2.9 });
     expectClose(finding.value, 3);
@@ -147,14 +186,22 @@ describe("check: findings", () => {
   });
 
   it("peak acceleration above maxAcceleration is an accel-over fault; without maxAcceleration nothing is checked", () => {
-    const withLimit = check(planOf([{ maxVelocity: 100, maxAcceleration: 5 }], [0], [{ goal: [1], duration: 1, shape: "cubic" }]));
-    expect(withLimit.findings.map((f) => [f.kind, f.severity, f.value, f.limit])).toEqual([["accel-over", "fault", 6, 5]]);
+    const withLimit = check(
+      planOf([{ maxVelocity: 100, maxAcceleration: 5 }], [0], [{ goal: [1], duration: 1, shape: "cubic" }]),
+    );
+    expect(withLimit.findings.map((f) => [f.kind, f.severity, f.value, f.limit])).toEqual([
+      ["accel-over", "fault", 6, 5],
+    ]);
     const withoutLimit = check(planOf([{ maxVelocity: 100 }], [0], [{ goal: [1], duration: 1, shape: "cubic" }]));
     expect(withoutLimit.verdict).toBe("pass");
   });
 
   it("peak acceleration equal to maxAcceleration passes", () => {
-    const report = check(planOf([{ maxVelocity: 100, maxAcceleration: 6 }], [0], [{ goal: [1], duration: 1, shape: "cubic" }], { cautionRatio: 1 }));
+    const report = check(
+      planOf([{ maxVelocity: 100, maxAcceleration: 6 }], [0], [{ goal: [1], duration: 1, shape: "cubic" }], {
+        cautionRatio: 1,
+      }),
+    );
     expect(report.verdict).toBe("pass");
   });
 
@@ -164,10 +211,14 @@ describe("check: findings", () => {
   });
 
   it("the verdict is fault if any finding is a fault, else caution if any is a caution", () => {
-    const plan = planOf([{ maxVelocity: 3.2 }], [0], [
-      { goal: [2], duration: 1, shape: "cubic" },
-      { goal: [0], duration: 0 },
-    ]);
+    const plan = planOf(
+      [{ maxVelocity: 3.2 }],
+      [0],
+      [
+        { goal: [2], duration: 1, shape: "cubic" },
+        { goal: [0], duration: 0 },
+      ],
+    );
     const report = check(plan);
     expect(report.findings.map((f) => f.severity)).toEqual(["caution", "fault"]);
     expect(report.verdict).toBe("fault");
@@ -177,7 +228,13 @@ describe("check: findings", () => {
 describe("check: shortest safe duration", () => {
   it("is the larger of the speed and acceleration bounds over the joints", () => {
     // quintic D = 1.2: speed bound 1.875·1.2/3.1, acceleration bound √((10/√3)·1.2/20)
-    const report = check(planOf([{ maxAcceleration: 20 }, { maxVelocity: 1, maxAcceleration: 0.5 }], [0, 0], [{ goal: [1.2, 0.1], duration: 3 }]));
+    const report = check(
+      planOf(
+        [{ maxAcceleration: 20 }, { maxVelocity: 1, maxAcceleration: 0.5 }],
+        [0, 0],
+        [{ goal: [1.2, 0.1], duration: 3 }],
+      ),
+    );
     const speedBound = (1.875 * 1.2) / 3.1;
     const accelBound = Math.sqrt(((10 / Math.sqrt(3)) * 0.1) / 0.5);
     expectClose(report.moves[0].minSafeDuration, Math.max(speedBound, accelBound), 1e-12);
@@ -197,14 +254,24 @@ describe("check: report shape and extension", () => {
     expect(Object.keys(report.moves[0]).sort()).toEqual(
       ["duration", "findings", "index", "minSafeDuration", "peakAcceleration", "peakVelocity", "shape"].sort(),
     );
-    expect(Object.keys(report.findings[0]).sort()).toEqual(["joint", "kind", "limit", "message", "move", "severity", "timeS", "value"].sort());
+    expect(Object.keys(report.findings[0]).sort()).toEqual(
+      ["joint", "kind", "limit", "message", "move", "severity", "timeS", "value"].sort(),
+    );
     expect(JSON.parse(JSON.stringify(report))).toEqual(report);
   });
 
   it("runs extra move checkers and counts their findings in the verdict", () => {
     const effortChecker: MoveChecker = ({ index, peakVelocity }, out) => {
       if (peakVelocity[0] > 0.5) {
-        out.push({ kind: "effort-over", severity: "caution", move: index, joint: 0, value: peakVelocity[0], limit: 0.5, message: "test" });
+        out.push({
+          kind: "effort-over",
+          severity: "caution",
+          move: index,
+          joint: 0,
+          value: peakVelocity[0],
+          limit: 0.5,
+          message: "test",
+        });
       }
     };
     const plan = planOf([{}], [0], [{ goal: [1], duration: 2 }]);

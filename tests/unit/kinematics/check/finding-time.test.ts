@@ -27,7 +27,9 @@ function planOf(moves: { goal: number[]; duration: number; shape?: string }[], s
 /** |q̇| and |q̈| of joint j at plan time tS (seconds from the plan's start), from the sampler. */
 function motionAt(plan: Plan, move: number, tS: number, j: number) {
   const tl = timelineOf(plan);
-  const q = new Float64Array(2), qd = new Float64Array(2), qdd = new Float64Array(2);
+  const q = new Float64Array(2),
+    qd = new Float64Array(2),
+    qdd = new Float64Array(2);
   sampleMoveAt(tl, move, tS - tl.startS[move], q, qd, qdd, 0);
   return { v: Math.abs(qd[j]), a: Math.abs(qdd[j]) };
 }

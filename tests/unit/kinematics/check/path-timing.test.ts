@@ -16,7 +16,8 @@ const heavy = readJson("kinematics/arm/presets/bench-arm-h.json") as ArmDoc;
 const light = readJson("kinematics/arm/presets/bench-arm-l.json") as ArmDoc;
 
 const unit = fc.double({ min: 0, max: 1, noNaN: true });
-const poseOf = (arm: ArmDoc, u: number[]) => u.map((x, j) => arm.joints[j].min + (0.1 + 0.8 * x) * (arm.joints[j].max - arm.joints[j].min));
+const poseOf = (arm: ArmDoc, u: number[]) =>
+  u.map((x, j) => arm.joints[j].min + (0.1 + 0.8 * x) * (arm.joints[j].max - arm.joints[j].min));
 const box = fc.record({
   x: fc.double({ min: -0.45, max: 0.45, noNaN: true }),
   y: fc.double({ min: -0.45, max: 0.45, noNaN: true }),
@@ -53,13 +54,18 @@ function planOf(d: Draw): Plan {
     start: poseOf(arm, d.start),
     ...(d.payload !== undefined ? { payload: { mass: d.payload, com: [0, 0, 0.03] } } : {}),
     ...(d.maxToolSpeed !== undefined ? { maxToolSpeed: d.maxToolSpeed } : {}),
-    keepOut: d.boxes.map((b, i) => ({ name: `box ${i}`, min: [b.x - b.size / 2, b.y - b.size / 2, b.z], max: [b.x + b.size / 2, b.y + b.size / 2, b.z + b.size] })),
+    keepOut: d.boxes.map((b, i) => ({
+      name: `box ${i}`,
+      min: [b.x - b.size / 2, b.y - b.size / 2, b.z],
+      max: [b.x + b.size / 2, b.y + b.size / 2, b.z + b.size],
+    })),
     moves: d.moves.map((m) => ({ goal: poseOf(arm, m.goal), duration: m.duration, shape: m.shape })),
   });
 }
 
 const timingKinds = new Set<Finding["kind"]>(["speed-over", "accel-over", "effort-over", "tool-speed"]);
-const timingFaults = (report: Report, move: number) => report.findings.filter((f) => f.move === move && f.severity === "fault" && timingKinds.has(f.kind));
+const timingFaults = (report: Report, move: number) =>
+  report.findings.filter((f) => f.move === move && f.severity === "fault" && timingKinds.has(f.kind));
 const withDuration = (plan: Plan, move: number, durationS: number): Plan => ({
   ...plan,
   moves: plan.moves.map((m, i) => (i === move ? { ...m, duration: durationS } : m)),
@@ -70,13 +76,26 @@ describe("effort along a fixed path separates by its dependence on the duration"
   // 1/T², viscous friction with 1/T, gravity and Coulomb friction not at all (Hollerbach, "Dynamic scaling
   // of manipulator trajectories", ASME J. Dynamic Systems, Measurement and Control 106, 1984 — memory).
   it("the cached path terms give the Newton–Euler effort at every duration and path point", () => {
-    const plan = parse({ format: "jointproof.plan", version: 1, arm: heavy, start: poseOf(heavy, [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5]), payload: { mass: 0.4 }, moves: [] });
+    const plan = parse({
+      format: "jointproof.plan",
+      version: 1,
+      arm: heavy,
+      start: poseOf(heavy, [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5]),
+      payload: { mass: 0.4 },
+      moves: [],
+    });
     const s = stateOf(plan)!;
-    const from = plan.start, goal = poseOf(heavy, [0.8, 0.6, 0.2, 0.3, 0.7, 0.1, 0.5]);
+    const from = plan.start,
+      goal = poseOf(heavy, [0.8, 0.6, 0.2, 0.3, 0.7, 0.1, 0.5]);
     const delta = goal.map((g, j) => g - from[j]);
     const path = movePath(s, from, delta, shapeId("quintic"), 0);
-    const n = s.n, stride = 2 * n + 2;
-    const scale = new Float64Array(3), q = new Float64Array(n), qd = new Float64Array(n), qdd = new Float64Array(n), tau = new Float64Array(n);
+    const n = s.n,
+      stride = 2 * n + 2;
+    const scale = new Float64Array(3),
+      q = new Float64Array(n),
+      qd = new Float64Array(n),
+      qdd = new Float64Array(n),
+      tau = new Float64Array(n);
     for (const T of [0.4, 1.3, 7]) {
       for (let k = 0; k < path.tau.length; k += 7) {
         scalingAt(shapeId("quintic"), 0, path.tau[k], scale);
@@ -90,7 +109,10 @@ describe("effort along a fixed path separates by its dependence on the duration"
           const o = k * stride;
           const v = qd[j];
           const fromTerms =
-            path.grid[o + j] / (T * T) + s.dynamics.viscous[j] * v + path.grid[o + n + j] + s.dynamics.coulomb[j] * Math.tanh(v / s.dynamics.signEpsilon);
+            path.grid[o + j] / (T * T) +
+            s.dynamics.viscous[j] * v +
+            path.grid[o + n + j] +
+            s.dynamics.coulomb[j] * Math.tanh(v / s.dynamics.signEpsilon);
           expectClose(fromTerms, tau[j], 1e-9, 1e-9, `joint ${j} at τ=${path.tau[k]}, T=${T}`);
         }
         // tool speed on the path is exactly |J·D·s′|/T (Siciliano et al., 2009, §3.1: v = J_v·q̇)
@@ -100,7 +122,13 @@ describe("effort along a fixed path separates by its dependence on the duration"
   });
 
   it("the path-mode peaks at two durations follow the decomposition: gravity-only joints keep their peak, tool speed halves when T doubles", () => {
-    const plan = parse({ format: "jointproof.plan", version: 1, arm: heavy, start: poseOf(heavy, [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5]), moves: [] });
+    const plan = parse({
+      format: "jointproof.plan",
+      version: 1,
+      arm: heavy,
+      start: poseOf(heavy, [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5]),
+      moves: [],
+    });
     const s = stateOf(plan)!;
     const delta = poseOf(heavy, [0.8, 0.6, 0.2, 0.3, 0.7, 0.1, 0.5]).map((g, j) => g - plan.start[j]);
     const path = movePath(s, plan.start, delta, shapeId("cubic"), 0);
@@ -223,10 +251,16 @@ describe("incremental check", () => {
       arm: heavy,
       start: poseOf(heavy, [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5]),
       keepOut: [{ name: "tray", min: [0.2, -0.2, 0], max: [0.4, 0.2, 0.1] }],
-      moves: [0.8, 0.2, 0.6].map((u, i) => ({ goal: poseOf(heavy, [u, 0.5, 0.3 + 0.1 * i, 0.5, 0.5, 0.5, 0.5]), duration: 1, shape: "quintic" })),
+      moves: [0.8, 0.2, 0.6].map((u, i) => ({
+        goal: poseOf(heavy, [u, 0.5, 0.3 + 0.1 * i, 0.5, 0.5, 0.5, 0.5]),
+        duration: 1,
+        shape: "quintic",
+      })),
     });
     check(plan); // fills the move cache
     const edited = withDuration(plan, 0, 1.7);
-    expect(JSON.parse(JSON.stringify(check(edited)))).toEqual(JSON.parse(JSON.stringify(check(edited, { reuse: false }))));
+    expect(JSON.parse(JSON.stringify(check(edited)))).toEqual(
+      JSON.parse(JSON.stringify(check(edited, { reuse: false }))),
+    );
   });
 });

@@ -27,10 +27,16 @@ const planArb = fc
   .chain(({ joints, moveCount, cautionRatio }) =>
     fc
       .record({
-        start: fc.array(fc.double({ min: -3, max: 3, noNaN: true }), { minLength: joints.length, maxLength: joints.length }),
+        start: fc.array(fc.double({ min: -3, max: 3, noNaN: true }), {
+          minLength: joints.length,
+          maxLength: joints.length,
+        }),
         moves: fc.array(
           fc.record({
-            goal: fc.array(fc.double({ min: -3, max: 3, noNaN: true }), { minLength: joints.length, maxLength: joints.length }),
+            goal: fc.array(fc.double({ min: -3, max: 3, noNaN: true }), {
+              minLength: joints.length,
+              maxLength: joints.length,
+            }),
             duration: fc.double({ min: 0.05, max: 5, noNaN: true }),
             shape: shapeArb,
           }),
@@ -121,7 +127,9 @@ describe("engine invariants (fast-check)", () => {
         const pass = at(shortest.durationS);
         expect(pass.findings.filter((f) => f.severity === "fault")).toEqual([]);
         const short = at(shortest.durationS * 0.99);
-        const faults = short.findings.filter((f) => f.severity === "fault" && (f.kind === "speed-over" || f.kind === "accel-over"));
+        const faults = short.findings.filter(
+          (f) => f.severity === "fault" && (f.kind === "speed-over" || f.kind === "accel-over"),
+        );
         expect(faults.map((f) => f.joint)).toContain(shortest.joint);
       }),
       runs,
@@ -138,7 +146,10 @@ describe("engine invariants (fast-check)", () => {
         // and the factor is the least one: 1% less faults (when stretching was needed at all)
         if (result.factor! > 1.0001) {
           const less = scaleToPass(plan, { allowFaster: true });
-          const tighter = { ...plan, moves: plan.moves.map((m) => ({ ...m, duration: m.duration * less.factor! * 0.99 })) };
+          const tighter = {
+            ...plan,
+            moves: plan.moves.map((m) => ({ ...m, duration: m.duration * less.factor! * 0.99 })),
+          };
           expect(check(tighter).verdict).toBe("fault");
         }
       }),
@@ -147,24 +158,27 @@ describe("engine invariants (fast-check)", () => {
   });
 
   it("the repaired stream passes the stream check", () => {
-    const recordingArb = fc
-      .record({
-        joints: fc.array(jointArb, { minLength: 1, maxLength: 3 }),
-        steps: fc.array(
-          fc.record({
-            dt: fc.double({ min: 0.0002, max: 0.004, noNaN: true }),
-            moves: fc.array(fc.double({ min: -0.05, max: 0.05, noNaN: true }), { minLength: 3, maxLength: 3 }),
-          }),
-          { minLength: 2, maxLength: 200 },
-        ),
-        resample: fc.boolean(),
-      });
+    const recordingArb = fc.record({
+      joints: fc.array(jointArb, { minLength: 1, maxLength: 3 }),
+      steps: fc.array(
+        fc.record({
+          dt: fc.double({ min: 0.0002, max: 0.004, noNaN: true }),
+          moves: fc.array(fc.double({ min: -0.05, max: 0.05, noNaN: true }), { minLength: 3, maxLength: 3 }),
+        }),
+        { minLength: 2, maxLength: 200 },
+      ),
+      resample: fc.boolean(),
+    });
     fc.assert(
       fc.property(recordingArb, ({ joints, steps, resample }) => {
         const armResult = parsePlan({
           format: "jointproof.plan",
           version: 1,
-          arm: { name: "Stream arm", controlRateHz: 1000, joints: joints.map((j, i) => ({ name: `j${i}`, min: -1, max: 1, ...j })) },
+          arm: {
+            name: "Stream arm",
+            controlRateHz: 1000,
+            joints: joints.map((j, i) => ({ name: `j${i}`, min: -1, max: 1, ...j })),
+          },
           start: joints.map(() => 0),
           moves: [],
         });
@@ -178,7 +192,8 @@ describe("engine invariants (fast-check)", () => {
         steps.forEach((step, k) => {
           t += step.dt;
           timeS[k] = t;
-          for (let j = 0; j < n; j++) position[k * n + j] = (k > 0 ? position[(k - 1) * n + j] : 0) + step.moves[j] * 10;
+          for (let j = 0; j < n; j++)
+            position[k * n + j] = (k > 0 ? position[(k - 1) * n + j] : 0) + step.moves[j] * 10;
         });
         const recording: Recording = { names: arm.joints.map((j) => j.name), jointCount: n, count, timeS, position };
         const repaired = repairStream(arm, recording, resample ? { resampleHz: 1000 } : {});

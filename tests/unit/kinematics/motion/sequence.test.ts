@@ -2,7 +2,13 @@ import { describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
 import { parseArm, type Arm } from "@/kinematics";
 import { samplePlan } from "@/kinematics/motion/sample";
-import { planFromPoses, scalePlan, scaleToPass, shortestSafeDurations, withShortestDurations } from "@/kinematics/motion/sequence";
+import {
+  planFromPoses,
+  scalePlan,
+  scaleToPass,
+  shortestSafeDurations,
+  withShortestDurations,
+} from "@/kinematics/motion/sequence";
 
 function expectClose(actual: number | null, expected: number, rel = 1e-12, abs = 1e-12): void {
   expect(actual).not.toBeNull();
@@ -24,15 +30,36 @@ function armOf(): Arm {
 
 describe("sequences", () => {
   it("builds a plan from a pose sequence with per-move durations", () => {
-    const plan = planFromPoses(armOf(), [0, 0], [[1, 0.5], [0, 0]], [2, 3], "cubic");
-    expect(plan.moves.map((m) => [m.duration, m.shape])).toEqual([[2, "cubic"], [3, "cubic"]]);
+    const plan = planFromPoses(
+      armOf(),
+      [0, 0],
+      [
+        [1, 0.5],
+        [0, 0],
+      ],
+      [2, 3],
+      "cubic",
+    );
+    expect(plan.moves.map((m) => [m.duration, m.shape])).toEqual([
+      [2, "cubic"],
+      [3, "cubic"],
+    ]);
     expect(check(plan).verdict).toBe("pass");
   });
 
   // Time scaling (Biagiotti & Melchiorri, Trajectory Planning for Automatic Machines and Robots, 2008 — memory):
   // stretching by s divides velocities by s and accelerations by s²
   it("stretching a plan by s divides peak velocities by s and peak accelerations by s²", () => {
-    const plan = planFromPoses(armOf(), [0, 0], [[1, 0.5], [-0.5, 1.2]], [0.8, 1.1], "quintic");
+    const plan = planFromPoses(
+      armOf(),
+      [0, 0],
+      [
+        [1, 0.5],
+        [-0.5, 1.2],
+      ],
+      [0.8, 1.1],
+      "quintic",
+    );
     const s = 1.7;
     const before = check(plan);
     const after = check(scalePlan(plan, s));
@@ -43,7 +70,16 @@ describe("sequences", () => {
   });
 
   it("scale to pass returns the least factor: the largest shortest-safe / duration ratio", () => {
-    const plan = planFromPoses(armOf(), [0, 0], [[2, 0], [2, 1.5]], [0.5, 2], "cubic");
+    const plan = planFromPoses(
+      armOf(),
+      [0, 0],
+      [
+        [2, 0],
+        [2, 1.5],
+      ],
+      [0.5, 2],
+      "cubic",
+    );
     expect(check(plan).verdict).toBe("fault");
     // move 0: base D = 2 → speed bound 1.5·2/2 = 1.5 s, acceleration bound √(6·2/10) ≈ 1.095 s → ratio 3
     const result = scaleToPass(plan);
@@ -61,7 +97,15 @@ describe("sequences", () => {
   });
 
   it("scale to pass reports instant-move jumps as faults no factor can fix", () => {
-    const plan = planFromPoses(armOf(), [0, 0], [[1, 0], [1, 0.5]], [1, 0]);
+    const plan = planFromPoses(
+      armOf(),
+      [0, 0],
+      [
+        [1, 0],
+        [1, 0.5],
+      ],
+      [1, 0],
+    );
     const result = scaleToPass(plan);
     expect(result.unscalable.map((f) => [f.kind, f.move])).toEqual([["jump", 1]]);
   });
@@ -73,7 +117,17 @@ describe("sequences", () => {
   });
 
   it("per-move shortest safe durations match the report, and retiming to them passes", () => {
-    const plan = planFromPoses(armOf(), [0, 0], [[1, 0.5], [1, 0.5], [-1, -1]], [3, 2, 0.1], "trapezoid");
+    const plan = planFromPoses(
+      armOf(),
+      [0, 0],
+      [
+        [1, 0.5],
+        [1, 0.5],
+        [-1, -1],
+      ],
+      [3, 2, 0.1],
+      "trapezoid",
+    );
     const shortest = shortestSafeDurations(plan);
     expect(shortest).toEqual(check(plan).moves.map((m) => m.minSafeDuration));
     expect(shortest[1]).toBe(0);
@@ -98,12 +152,22 @@ describe("sampling", () => {
     const mid = 10 * 2; // t = 1 s
     expectClose(samples.position[mid], 0.5);
     expectClose(samples.position[mid + 1], -0.25);
-    expectClose(samples.velocity[mid], 1.5 * 1 / 2);
-    expectClose(samples.acceleration[0], 6 * 1 / 4);
+    expectClose(samples.velocity[mid], (1.5 * 1) / 2);
+    expectClose(samples.acceleration[0], (6 * 1) / 4);
   });
 
   it("shows an instant move as a step between two samples", () => {
-    const plan = planFromPoses(armOf(), [0, 0], [[0.1, 0], [0.2, 0], [0.2, 0.1]], [0.1, 0, 0.1], "quintic");
+    const plan = planFromPoses(
+      armOf(),
+      [0, 0],
+      [
+        [0.1, 0],
+        [0.2, 0],
+        [0.2, 0.1],
+      ],
+      [0.1, 0, 0.1],
+      "quintic",
+    );
     const samples = samplePlan(plan, { rateHz: 100 });
     // sample 10 (t = 0.1 s) is the start of the last move, already after the instant step
     expectClose(samples.position[9 * 2], 0.1 - 0.1 * (1 - (10 * 0.9 ** 3 - 15 * 0.9 ** 4 + 6 * 0.9 ** 5)), 1e-9);

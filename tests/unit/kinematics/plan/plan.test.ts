@@ -46,7 +46,14 @@ describe("plan document v1", () => {
 
   it("names the field path of a limit that is not greater than zero", () => {
     const document = clone(validDocument);
-    document.arm.joints.push({ name: "shoulder", type: "revolute", min: -1, max: 1, maxVelocity: -2, maxAcceleration: 5 });
+    document.arm.joints.push({
+      name: "shoulder",
+      type: "revolute",
+      min: -1,
+      max: 1,
+      maxVelocity: -2,
+      maxAcceleration: 5,
+    });
     document.start = [0, 0];
     document.moves[0].goal = [1.2, 0];
     expect(problemsOf(document)).toEqual(["arm.joints[1].maxVelocity: must be greater than 0"]);
@@ -120,7 +127,8 @@ describe("plan document v1", () => {
       ],
     });
     expect(result.ok).toBe(false);
-    if (!result.ok) expect(result.problems).toEqual([{ path: ["joints", 1, "name"], message: "repeats the name of joint 0" }]);
+    if (!result.ok)
+      expect(result.problems).toEqual([{ path: ["joints", 1, "name"], message: "repeats the name of joint 0" }]);
   });
 
   it("formats nested paths with list indexes in brackets", () => {

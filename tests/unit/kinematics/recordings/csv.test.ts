@@ -22,19 +22,26 @@ describe("recording CSV parser", () => {
 
   it("parses every double exactly as Number() does (round trip of the shortest decimal form)", () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ noNaN: true, noDefaultInfinity: true }), { minLength: 1, maxLength: 50 }), (values) => {
-        const text = "t,q\n" + values.map((v, k) => `${k},${String(v)}`).join("\n") + "\n";
-        const result = parseRecordingCsv(encode(text));
-        expect(result.problems).toEqual([]);
-        expect(Array.from(result.recording!.position)).toEqual(values.map((v) => Number(String(v))));
-      }),
+      fc.property(
+        fc.array(fc.double({ noNaN: true, noDefaultInfinity: true }), { minLength: 1, maxLength: 50 }),
+        (values) => {
+          const text = "t,q\n" + values.map((v, k) => `${k},${String(v)}`).join("\n") + "\n";
+          const result = parseRecordingCsv(encode(text));
+          expect(result.problems).toEqual([]);
+          expect(Array.from(result.recording!.position)).toEqual(values.map((v) => Number(String(v))));
+        },
+      ),
       { numRuns: 300 },
     );
   });
 
   it("parses full-precision joint values (16–17 digits) and mantissas around 2^53 exactly as Number() does", () => {
     // the fast path takes mantissas below 2^53; both sides of that edge, with any exponent it accepts or refuses
-    const aroundEdge = fc.tuple(fc.bigInt({ min: 2n ** 53n - 2000n, max: 2n ** 53n + 2000n }), fc.integer({ min: -30, max: 30 }), fc.boolean());
+    const aroundEdge = fc.tuple(
+      fc.bigInt({ min: 2n ** 53n - 2000n, max: 2n ** 53n + 2000n }),
+      fc.integer({ min: -30, max: 30 }),
+      fc.boolean(),
+    );
     const jointValue = fc.double({ min: -4, max: 4, noNaN: true });
     fc.assert(
       fc.property(aroundEdge, jointValue, ([m, e, neg], v) => {
@@ -69,7 +76,7 @@ describe("recording CSV parser", () => {
   it("refuses empty fields and a blank line inside the data", () => {
     const result = parseRecordingCsv(encode("t,a\n0,\n\n0.002,1\n"));
     expect(result.problems.map((p) => [p.line, p.message])).toEqual([
-      [2, 'not a number (empty)'],
+      [2, "not a number (empty)"],
       [3, "blank line inside the data (blank lines are allowed only at the end)"],
     ]);
   });

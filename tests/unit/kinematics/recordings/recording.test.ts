@@ -4,7 +4,14 @@ import { armOf, recordingOf, rowsOf } from "./helpers";
 
 describe("recording input problems", () => {
   it("reports non-increasing times with the file's line", () => {
-    const problems = validateRecording(armOf(), recordingOf([[0, 0, 0.02], [0.001, 0, 0.02], [0.001, 0, 0.02]]));
+    const problems = validateRecording(
+      armOf(),
+      recordingOf([
+        [0, 0, 0.02],
+        [0.001, 0, 0.02],
+        [0.001, 0, 0.02],
+      ]),
+    );
     expect(problems.map(describeRecordingProblem)).toEqual([
       'line 4, column "t": time 0.001 s is not after the previous line\'s 0.001 s',
     ]);
@@ -20,7 +27,13 @@ describe("recording input problems", () => {
   });
 
   it("reports NaN positions with the file's line and the column", () => {
-    const problems = validateRecording(armOf(), recordingOf([[0, 0, 0.02], [0.001, NaN, 0.02]]));
+    const problems = validateRecording(
+      armOf(),
+      recordingOf([
+        [0, 0, 0.02],
+        [0.001, NaN, 0.02],
+      ]),
+    );
     expect(problems).toEqual([{ line: 3, column: "base", message: "position is not a finite number (NaN)" }]);
   });
 

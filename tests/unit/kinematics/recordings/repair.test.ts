@@ -16,7 +16,12 @@ describe("repair", () => {
   });
 
   it("resamples an uneven log at a uniform rate before rate-limiting", () => {
-    const original = recordingOf([[0, 0, 0.02], [0.0015, 0.001, 0.02], [0.002, 0.0012, 0.02], [0.004, 0.002, 0.02]]);
+    const original = recordingOf([
+      [0, 0, 0.02],
+      [0.0015, 0.001, 0.02],
+      [0.002, 0.0012, 0.02],
+      [0.004, 0.002, 0.02],
+    ]);
     const resampled = resampleRecording(original, 1000);
     expect(Array.from(resampled.timeS)).toEqual([0, 0.001, 0.002, 0.003, 0.004]);
     expectClose(resampled.position[2], 0.001 / 1.5);

@@ -32,7 +32,9 @@ describe("recording scan (parse → align → validate → stream check)", () =>
     const scanned = scanRecording(armOf(), text);
     expect("report" in scanned).toBe(false);
     if (!("problems" in scanned)) return;
-    expect(scanned.problems.map(describeRecordingProblem)).toEqual(['line 4, column "t": time 0.0005 s is not after the previous line\'s 0.001 s']);
+    expect(scanned.problems.map(describeRecordingProblem)).toEqual([
+      'line 4, column "t": time 0.0005 s is not after the previous line\'s 0.001 s',
+    ]);
   });
 
   it("validates a recording kept without an arm the same way, and stream-checks nothing", () => {
@@ -58,7 +60,9 @@ describe("recording scan (parse → align → validate → stream check)", () =>
 
   it("refuses a value that is not a number before any check, naming line and column", () => {
     const scanned = scanRecording(armOf(), "t,base,grip\n0,0,0.02\n0.001,x,0.02\n");
-    expect("problems" in scanned && scanned.problems.map(describeRecordingProblem)).toEqual(['line 3, column "base": not a number ("x")']);
+    expect("problems" in scanned && scanned.problems.map(describeRecordingProblem)).toEqual([
+      'line 3, column "base": not a number ("x")',
+    ]);
   });
 
   it("keeps at most maxFindings findings while the verdict still counts every step", () => {

@@ -77,7 +77,13 @@ describe("dataset reading: Parquet", () => {
     const buffer = parquetWriteBuffer({
       columnData: [
         { name: "t", data: [0, 0.5] },
-        { name: "observation.state", data: [[0.25, 0.01], [0.5, 0.02]] },
+        {
+          name: "observation.state",
+          data: [
+            [0.25, 0.01],
+            [0.5, 0.02],
+          ],
+        },
       ],
       schema: [
         { name: "root", num_children: 2 },
@@ -102,7 +108,13 @@ describe("dataset reading: Parquet", () => {
     const buffer = parquetWriteBuffer({
       columnData: [
         { name: "t", data: [0, 0.5] },
-        { name: "q", data: [[0.25, 0.01, 3], [0.5, 0.02, 3]] },
+        {
+          name: "q",
+          data: [
+            [0.25, 0.01, 3],
+            [0.5, 0.02, 3],
+          ],
+        },
       ],
       schema: [
         { name: "root", num_children: 2 },
@@ -127,7 +139,9 @@ describe("dataset reading: Parquet", () => {
       ],
     });
     const refused = await readDataset(armOf(), [file("ep.parquet", buffer)], { jointColumns: ["b", "a"] });
-    expect(refused.problems[0]).toMatch(/^ep\.parquet: has no time column "t"\. Its columns: frame_index \(INT32\), a \(DOUBLE\), b \(DOUBLE\)\. Set --time-column/);
+    expect(refused.problems[0]).toMatch(
+      /^ep\.parquet: has no time column "t"\. Its columns: frame_index \(INT32\), a \(DOUBLE\), b \(DOUBLE\)\. Set --time-column/,
+    );
     const result = await readDataset(armOf(), [file("ep.parquet", buffer)], { jointColumns: ["b", "a"], rateHz: 30 });
     expect(result.problems).toEqual([]);
     const r = result.episodes[0].recording;
@@ -165,8 +179,26 @@ describe("dataset reading: Parquet", () => {
   it("Parquet written by the product reads back identically, float64 and float32", async () => {
     const arm = armOf();
     const episodes = [
-      { id: "take-1", recording: { names: ["lift", "grip"], jointCount: 2, count: 3, timeS: Float64Array.from([0, 0.1, 0.2]), position: Float64Array.from([0.1, 0.01, Math.PI / 7, 0.02, -0.3, 0.03]) } },
-      { id: "take-2", recording: { names: ["lift", "grip"], jointCount: 2, count: 2, timeS: Float64Array.from([0, 1 / 3]), position: Float64Array.from([1 / 3, 0, 2 / 3, 0.04]) } },
+      {
+        id: "take-1",
+        recording: {
+          names: ["lift", "grip"],
+          jointCount: 2,
+          count: 3,
+          timeS: Float64Array.from([0, 0.1, 0.2]),
+          position: Float64Array.from([0.1, 0.01, Math.PI / 7, 0.02, -0.3, 0.03]),
+        },
+      },
+      {
+        id: "take-2",
+        recording: {
+          names: ["lift", "grip"],
+          jointCount: 2,
+          count: 2,
+          timeS: Float64Array.from([0, 1 / 3]),
+          position: Float64Array.from([1 / 3, 0, 2 / 3, 0.04]),
+        },
+      },
     ];
     const back = await readDataset(arm, [file("out.parquet", writeEpisodesParquet(arm, episodes))]);
     expect(back.problems).toEqual([]);
@@ -175,8 +207,12 @@ describe("dataset reading: Parquet", () => {
       expect(Array.from(e.recording.timeS)).toEqual(Array.from(episodes[i].recording.timeS));
       expect(Array.from(e.recording.position)).toEqual(Array.from(episodes[i].recording.position));
     });
-    const single = await readDataset(arm, [file("out.parquet", writeEpisodesParquet(arm, episodes, { float32: true }))]);
-    expect(Array.from(single.episodes[0].recording.position)).toEqual(Array.from(episodes[0].recording.position).map(Math.fround));
+    const single = await readDataset(arm, [
+      file("out.parquet", writeEpisodesParquet(arm, episodes, { float32: true })),
+    ]);
+    expect(Array.from(single.episodes[0].recording.position)).toEqual(
+      Array.from(episodes[0].recording.position).map(Math.fround),
+    );
   });
 });
 
@@ -184,13 +220,42 @@ describe("dataset writing: the columns it was read from", () => {
   it("renamed episode and time columns and one list column read back identically with the same mapping", async () => {
     const arm = armOf();
     const episodes = [
-      { id: "a", recording: { names: ["lift", "grip"], jointCount: 2, count: 3, timeS: Float64Array.from([0, 0.1, 0.2]), position: Float64Array.from([0.1, 0.01, 0.2, 0.02, 0.3, 0.03]) } },
-      { id: "b", recording: { names: ["lift", "grip"], jointCount: 2, count: 2, timeS: Float64Array.from([0, 0.1]), position: Float64Array.from([-0.1, 0, -0.2, 0.01]) } },
+      {
+        id: "a",
+        recording: {
+          names: ["lift", "grip"],
+          jointCount: 2,
+          count: 3,
+          timeS: Float64Array.from([0, 0.1, 0.2]),
+          position: Float64Array.from([0.1, 0.01, 0.2, 0.02, 0.3, 0.03]),
+        },
+      },
+      {
+        id: "b",
+        recording: {
+          names: ["lift", "grip"],
+          jointCount: 2,
+          count: 2,
+          timeS: Float64Array.from([0, 0.1]),
+          position: Float64Array.from([-0.1, 0, -0.2, 0.01]),
+        },
+      },
     ];
-    const bytes = writeEpisodesParquet(arm, episodes, { columns: { episode: "take", time: "seconds", jointsList: "state" } });
-    const back = await readDataset(arm, [file("out.parquet", bytes)], { episodeColumn: "take", timeColumn: "seconds", jointsColumn: "state" });
+    const bytes = writeEpisodesParquet(arm, episodes, {
+      columns: { episode: "take", time: "seconds", jointsList: "state" },
+    });
+    const back = await readDataset(arm, [file("out.parquet", bytes)], {
+      episodeColumn: "take",
+      timeColumn: "seconds",
+      jointsColumn: "state",
+    });
     expect(back.problems).toEqual([]);
-    expect(back.files[0].columns.map((c) => `${c.name}:${c.type}`)).toEqual(["take:STRING", "frame_index:INT32", "seconds:DOUBLE", "state:list<DOUBLE>"]);
+    expect(back.files[0].columns.map((c) => `${c.name}:${c.type}`)).toEqual([
+      "take:STRING",
+      "frame_index:INT32",
+      "seconds:DOUBLE",
+      "state:list<DOUBLE>",
+    ]);
     back.episodes.forEach((e, i) => {
       expect(e.id).toBe(episodes[i].id);
       expect(Array.from(e.recording.timeS)).toEqual(Array.from(episodes[i].recording.timeS));
@@ -200,7 +265,18 @@ describe("dataset writing: the columns it was read from", () => {
 
   it("joint columns under other names, in the arm's order", async () => {
     const arm = armOf();
-    const episodes = [{ id: "a", recording: { names: ["lift", "grip"], jointCount: 2, count: 2, timeS: Float64Array.from([0, 0.1]), position: Float64Array.from([0.1, 0.01, 0.2, 0.02]) } }];
+    const episodes = [
+      {
+        id: "a",
+        recording: {
+          names: ["lift", "grip"],
+          jointCount: 2,
+          count: 2,
+          timeS: Float64Array.from([0, 0.1]),
+          position: Float64Array.from([0.1, 0.01, 0.2, 0.02]),
+        },
+      },
+    ];
     const bytes = writeEpisodesParquet(arm, episodes, { columns: { joints: ["q0", "q1"] } });
     const back = await readDataset(arm, [file("out.parquet", bytes)], { jointColumns: ["q0", "q1"] });
     expect(Array.from(back.episodes[0].recording.position)).toEqual([0.1, 0.01, 0.2, 0.02]);
@@ -218,7 +294,12 @@ describe("dataset reading: zip, CSV and many files", () => {
         ],
       }),
     );
-    const zip = zipSync({ "data/episode_002.parquet": one, "data/episode_001.parquet": one, "README.txt": strToU8("notes"), "__MACOSX/data/._x.parquet": strToU8("x") });
+    const zip = zipSync({
+      "data/episode_002.parquet": one,
+      "data/episode_001.parquet": one,
+      "README.txt": strToU8("notes"),
+      "__MACOSX/data/._x.parquet": strToU8("x"),
+    });
     const result = await readDataset(armOf(), [file("set.zip", zip)]);
     expect(result.problems).toEqual([]);
     expect(result.episodes.map((e) => e.id)).toEqual(["episode_001", "episode_002"]);

@@ -258,7 +258,16 @@ describe("timed replay: output shape", () => {
   it("the JSON form has exactly the documented fields in order", () => {
     const json = auditToJson(audit([0, 0, 0.6, 0, 0]));
     expect(Object.keys(json)).toEqual(["episode", "samples", "verdict", "findings", "problems"]);
-    expect(Object.keys(json.findings[0])).toEqual(["kind", "severity", "joint", "sample", "timeS", "value", "limit", "message"]);
+    expect(Object.keys(json.findings[0])).toEqual([
+      "kind",
+      "severity",
+      "joint",
+      "sample",
+      "timeS",
+      "value",
+      "limit",
+      "message",
+    ]);
     expect(json.episode).toBe("ep-1");
   });
 });
@@ -310,7 +319,9 @@ describe("timed replay: properties", () => {
         const times = [0];
         for (const s of steps) times.push(times[times.length - 1] + s);
         const t = Float64Array.from(times);
-        const sorted = Array.from(t.subarray(1)).map((x, i) => x - t[i]).sort((a, b) => a - b);
+        const sorted = Array.from(t.subarray(1))
+          .map((x, i) => x - t[i])
+          .sort((a, b) => a - b);
         const m = sorted.length;
         const expected = m % 2 === 1 ? sorted[(m - 1) / 2] : 0.5 * (sorted[m / 2 - 1] + sorted[m / 2]);
         expect(medianStepS(t, t.length)).toBe(expected);
@@ -328,16 +339,22 @@ describe("timed replay: properties", () => {
 
   it("a spike injected at an inner frame is found as a glitch at that frame, with no speed-over", () => {
     fc.assert(
-      fc.property(cleanEpisode, fc.nat(), fc.double({ min: 0.3, max: 0.9, noNaN: true }), fc.boolean(), (lift, at, size, up) => {
-        const k = 1 + (at % (lift.length - 2));
-        // neighbours within 0.8 × limit: the spike steps are above 0.3 − 0.1 = 0.2 rad = 1.6 rad/s each way
-        const spiked = [...lift];
-        spiked[k] = lift[k] + (up ? size : -size);
-        const result = audit(spiked);
-        const glitches = result.findings.filter((f) => f.kind === "glitch");
-        expect(glitches.map((f) => f.sample)).toEqual([k]);
-        expect(result.findings.filter((f) => f.kind === "speed-over")).toEqual([]);
-      }),
+      fc.property(
+        cleanEpisode,
+        fc.nat(),
+        fc.double({ min: 0.3, max: 0.9, noNaN: true }),
+        fc.boolean(),
+        (lift, at, size, up) => {
+          const k = 1 + (at % (lift.length - 2));
+          // neighbours within 0.8 × limit: the spike steps are above 0.3 − 0.1 = 0.2 rad = 1.6 rad/s each way
+          const spiked = [...lift];
+          spiked[k] = lift[k] + (up ? size : -size);
+          const result = audit(spiked);
+          const glitches = result.findings.filter((f) => f.kind === "glitch");
+          expect(glitches.map((f) => f.sample)).toEqual([k]);
+          expect(result.findings.filter((f) => f.kind === "speed-over")).toEqual([]);
+        },
+      ),
     );
   });
 
@@ -345,7 +362,9 @@ describe("timed replay: properties", () => {
     fc.assert(
       fc.property(
         cleanEpisode,
-        fc.array(fc.record({ at: fc.nat(), offset: fc.double({ min: -2, max: 2, noNaN: true }), hold: fc.boolean() }), { maxLength: 5 }),
+        fc.array(fc.record({ at: fc.nat(), offset: fc.double({ min: -2, max: 2, noNaN: true }), hold: fc.boolean() }), {
+          maxLength: 5,
+        }),
         fc.array(fc.nat(), { maxLength: 3 }),
         (lift, defects, gaps) => {
           const q = [...lift];

@@ -23,7 +23,15 @@ export default async function ArmsPage({ params }: { params: Promise<{ projectId
   for (const a of arms) {
     const rev = await getArmRevisionForUser({ armId: a.id, userId: actor.userId });
     const parsed = rev ? armSchema.safeParse(rev.description) : null;
-    if (rev && parsed?.success) entries.push({ id: a.id, name: a.name, builtIn: a.builtIn, revision: rev.revision, arm: parsed.data });
+    if (rev && parsed?.success)
+      entries.push({ id: a.id, name: a.name, builtIn: a.builtIn, revision: rev.revision, arm: parsed.data });
   }
-  return <ArmsWorkbench projectId={project.id} projectName={project.name} arms={entries} canEdit={capabilities(actor, { kind: "project", ...membershipOf(project) }).canEdit} />;
+  return (
+    <ArmsWorkbench
+      projectId={project.id}
+      projectName={project.name}
+      arms={entries}
+      canEdit={capabilities(actor, { kind: "project", ...membershipOf(project) }).canEdit}
+    />
+  );
 }

@@ -25,7 +25,15 @@ export default async function DatasetsPage({ params }: { params: Promise<{ proje
       projectName={project.name}
       canEdit={capabilities(actor, { kind: "project", ...membershipOf(project) }).canEdit}
       limitBytes={datasetEnv().DATASET_UPLOAD_LIMIT_BYTES}
-      datasets={datasets.map((d) => ({ id: d.id, name: d.name, fileKind: d.fileKind, sizeBytes: d.sizeBytes, status: d.status, episodeCount: d.episodeCount, createdAt: d.createdAt.toISOString() }))}
+      datasets={datasets.map((d) => ({
+        id: d.id,
+        name: d.name,
+        fileKind: d.fileKind,
+        sizeBytes: d.sizeBytes,
+        status: d.status,
+        episodeCount: d.episodeCount,
+        createdAt: d.createdAt.toISOString(),
+      }))}
     />
   );
 }

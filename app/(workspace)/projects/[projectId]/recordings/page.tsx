@@ -24,7 +24,8 @@ export default async function RecordingsPage({ params }: { params: Promise<{ pro
   for (const a of arms) {
     const rev = await getArmRevisionForUser({ armId: a.id, userId: actor.userId });
     const parsed = rev ? armSchema.safeParse(rev.description) : null;
-    if (rev && parsed?.success) withDescriptions.push({ id: a.id, name: a.name, revision: rev.revision, arm: parsed.data });
+    if (rev && parsed?.success)
+      withDescriptions.push({ id: a.id, name: a.name, revision: rev.revision, arm: parsed.data });
   }
   return (
     <RecordingsWorkbench

@@ -10,6 +10,9 @@ export const POST = route(async (request) => {
   const body = await readJson(request, verifyEmailSchema);
   if (request.headers.has("origin") || request.headers.has("sec-fetch-site")) assertSameOrigin(request);
   const ok = await verifyEmail({ token: body.token });
-  if (!ok) throw new AppError("bad_request:token", EXPIRED_LINK_MESSAGE, { issues: [{ path: "token", message: "has expired or was already used" }] });
+  if (!ok)
+    throw new AppError("bad_request:token", EXPIRED_LINK_MESSAGE, {
+      issues: [{ path: "token", message: "has expired or was already used" }],
+    });
   return json({ verified: true });
 });

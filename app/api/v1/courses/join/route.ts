@@ -16,6 +16,12 @@ export const POST = route(async (request) => {
   if (!course) throw new AppError("not_found:course", "No course has this join code; check it with your instructor.");
   if (course.archivedAt) throw new AppError("forbidden:course", "This course is archived and takes no new students.");
   const role = await enrolStudent({ courseId: course.id, userId: actor.userId });
-  await recordAudit({ actorId: actor.userId, action: "course.join", targetType: "course", targetId: course.id, detail: { role } });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "course.join",
+    targetType: "course",
+    targetId: course.id,
+    detail: { role },
+  });
   return json({ course: { id: course.id, title: course.title, term: course.term }, role });
 });

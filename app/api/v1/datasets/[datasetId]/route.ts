@@ -22,8 +22,18 @@ export const GET = route(async (request, context) => {
   for (const e of episodes) byVerdict[e.verdict] = (byVerdict[e.verdict] ?? 0) + 1;
   return json({
     dataset: found.dataset,
-    progress: { batchesDone: progress.done, batches: progress.total, episodesAudited: episodes.length, episodes: found.dataset.episodeCount },
-    summary: { episodes: episodes.length, ...byVerdict, byKind, repaired: episodes.filter((e) => e.repairedVerdict !== null).length },
+    progress: {
+      batchesDone: progress.done,
+      batches: progress.total,
+      episodesAudited: episodes.length,
+      episodes: found.dataset.episodeCount,
+    },
+    summary: {
+      episodes: episodes.length,
+      ...byVerdict,
+      byKind,
+      repaired: episodes.filter((e) => e.repairedVerdict !== null).length,
+    },
     check: "timed replay",
   });
 });

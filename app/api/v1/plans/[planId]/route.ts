@@ -25,6 +25,13 @@ export const DELETE = route(async (request, context) => {
   const plan = await loadPlan(actor, planId);
   authorizeProject(membershipOf(plan), "plan:delete");
   if (!(await deletePlan({ planId, userId: actor.userId }))) throw new AppError("not_found:plan", "No such plan.");
-  await recordAudit({ actorId: actor.userId, action: "plan.delete", targetType: "plan", targetId: planId, projectId: plan.projectId, detail: { name: plan.name } });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "plan.delete",
+    targetType: "plan",
+    targetId: planId,
+    projectId: plan.projectId,
+    detail: { name: plan.name },
+  });
   return json({ deleted: planId });
 });

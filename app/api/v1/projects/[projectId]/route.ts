@@ -29,12 +29,20 @@ export const PATCH = route(async (request, context) => {
   const membership = membershipOf(project);
   if (body.archived !== undefined) authorizeProject(membership, "project:archive");
   // Un-archiving and renaming in one request: the rename is judged on the project as it will be.
-  if (body.name !== undefined) authorizeProject({ ...membership, archived: body.archived ?? membership.archived }, "project:rename");
+  if (body.name !== undefined)
+    authorizeProject({ ...membership, archived: body.archived ?? membership.archived }, "project:rename");
   // The rename and its audit entry commit together, or neither does.
   const updated = await inTransaction(async () => {
     const row = await updateProject({ projectId, userId: actor.userId, name: body.name, archived: body.archived });
     if (!row) throw new AppError("not_found:project", "No such project.");
-    await recordAudit({ actorId: actor.userId, action: "project.update", targetType: "project", targetId: projectId, projectId, detail: body });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "project.update",
+      targetType: "project",
+      targetId: projectId,
+      projectId,
+      detail: body,
+    });
     return row;
   });
   return json({ project: { ...updated, role: project.role } });

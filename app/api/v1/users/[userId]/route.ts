@@ -21,6 +21,12 @@ export const PATCH = route(async (request, context) => {
     throw new AppError("unprocessable:self", "Admins cannot disable or demote themselves; ask another admin.");
   }
   const user = await updateUserByAdmin({ id: userId, siteRole: body.siteRole, disabled: body.disabled });
-  await recordAudit({ actorId: actor.userId, action: "user.update", targetType: "user", targetId: userId, detail: body });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "user.update",
+    targetType: "user",
+    targetId: userId,
+    detail: body,
+  });
   return json({ user });
 });

@@ -24,15 +24,27 @@ export default async function DatasetPage({ params }: { params: Promise<{ projec
   for (const a of arms) {
     const rev = await getArmRevisionForUser({ armId: a.id, userId: actor.userId });
     const parsed = rev ? armSchema.safeParse(rev.description) : null;
-    if (rev && parsed?.success) withDescriptions.push({ id: a.id, name: a.name, revision: rev.revision, revisionId: rev.id, arm: parsed.data });
+    if (rev && parsed?.success)
+      withDescriptions.push({ id: a.id, name: a.name, revision: rev.revision, revisionId: rev.id, arm: parsed.data });
   }
   const d = found.dataset;
   return (
     <DatasetWorkbench
       projectId={projectId}
-      dataset={{ id: d.id, name: d.name, fileKind: d.fileKind, sizeBytes: d.sizeBytes, status: d.status, armRevisionId: d.armRevisionId, mapping: d.mapping as Record<string, unknown> }}
+      dataset={{
+        id: d.id,
+        name: d.name,
+        fileKind: d.fileKind,
+        sizeBytes: d.sizeBytes,
+        status: d.status,
+        armRevisionId: d.armRevisionId,
+        mapping: d.mapping as Record<string, unknown>,
+      }}
       arms={withDescriptions}
-      canEdit={capabilities(actor, { kind: "project", ...membershipOf({ role: found.role, archivedAt: found.archivedAt }) }).canEdit}
+      canEdit={
+        capabilities(actor, { kind: "project", ...membershipOf({ role: found.role, archivedAt: found.archivedAt }) })
+          .canEdit
+      }
       caution={SAFETY_TEXT}
     />
   );

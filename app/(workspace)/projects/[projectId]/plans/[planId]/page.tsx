@@ -32,7 +32,13 @@ const storedRules = z.object({
  * The bench for one saved plan: the server loads the latest version (or, before the first save, a
  * plan holding the arm's home pose) and the arm revision it is checked against.
  */
-export default async function PlanPage({ params, searchParams }: { params: Promise<Params>; searchParams: Promise<Search> }) {
+export default async function PlanPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<Params>;
+  searchParams: Promise<Search>;
+}) {
   const { projectId, planId } = await params;
   const { assignment: assignmentParam } = await searchParams;
   const actor = await requirePageActor(`/projects/${projectId}/plans/${planId}`);
@@ -40,7 +46,10 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
   const plan = await getPlanForUser({ planId, userId: actor.userId });
   if (!plan || plan.projectId !== projectId) notFound();
 
-  const version = plan.latestVersion > 0 ? await getPlanVersion({ planId, number: plan.latestVersion, userId: actor.userId }) : undefined;
+  const version =
+    plan.latestVersion > 0
+      ? await getPlanVersion({ planId, number: plan.latestVersion, userId: actor.userId })
+      : undefined;
   const revision = version ? undefined : await getArmRevisionForUser({ armId: plan.armId, userId: actor.userId });
   const armDescription = version?.armDescription ?? revision?.description;
   if (!armDescription) notFound();
@@ -57,10 +66,12 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
     };
   }
   const parsed = planSchema.safeParse(raw);
-  if (!parsed.success) throw new Error(`plan ${planId} version ${plan.latestVersion} does not parse as a plan document`);
+  if (!parsed.success)
+    throw new Error(`plan ${planId} version ${plan.latestVersion} does not parse as a plan document`);
 
   // ?assignment=<id>: the bench checks against that assignment's limits (only for someone enrolled in its course)
-  const assignmentId = typeof assignmentParam === "string" && uuidPattern.test(assignmentParam) ? assignmentParam : null;
+  const assignmentId =
+    typeof assignmentParam === "string" && uuidPattern.test(assignmentParam) ? assignmentParam : null;
   const found = assignmentId ? await getAssignmentForUser({ assignmentId, userId: actor.userId }) : undefined;
   const armRevisionId = version?.armRevisionId ?? revision?.id;
   const stored = found

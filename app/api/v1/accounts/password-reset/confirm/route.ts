@@ -14,6 +14,9 @@ export const POST = route(async (request) => {
   const body = await readJson(request, passwordResetConfirmSchema);
   if (request.headers.has("origin") || request.headers.has("sec-fetch-site")) assertSameOrigin(request);
   const ok = await resetPassword({ token: body.token, password: body.password });
-  if (!ok) throw new AppError("bad_request:token", EXPIRED_LINK_MESSAGE, { issues: [{ path: "token", message: "has expired or was already used" }] });
+  if (!ok)
+    throw new AppError("bad_request:token", EXPIRED_LINK_MESSAGE, {
+      issues: [{ path: "token", message: "has expired or was already used" }],
+    });
   return json({ reset: true });
 });

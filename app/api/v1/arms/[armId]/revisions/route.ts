@@ -16,9 +16,22 @@ export const POST = route(async (request, context) => {
   const body = await readJson(request, createArmRevisionSchema);
   const actor = await requireActor(request);
   const arm = await loadArm(actor, armId);
-  if (arm.role === null) throw new AppError("forbidden:arm", "Built-in arms cannot be edited; create a custom arm in your project.");
+  if (arm.role === null)
+    throw new AppError("forbidden:arm", "Built-in arms cannot be edited; create a custom arm in your project.");
   authorizeProject({ role: arm.role, archived: arm.projectArchived }, "arm:write");
-  const revision = await createArmRevision({ armId, description: body.description, note: body.note, userId: actor.userId });
-  await recordAudit({ actorId: actor.userId, action: "arm.revise", targetType: "arm", targetId: armId, projectId: arm.projectId, detail: { revision: revision.revision } });
+  const revision = await createArmRevision({
+    armId,
+    description: body.description,
+    note: body.note,
+    userId: actor.userId,
+  });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "arm.revise",
+    targetType: "arm",
+    targetId: armId,
+    projectId: arm.projectId,
+    detail: { revision: revision.revision },
+  });
   return json({ revision }, 201);
 });

@@ -36,7 +36,11 @@ export const POST = route(async (request, context) => {
   const actor = await requireActor(request);
   const assignment = await loadAssignment(actor, assignmentId);
   authorizeCourse(assignment.role, "submission:create");
-  const version = await getVersionForSubmission({ planId: body.planId, number: body.versionNumber, userId: actor.userId });
+  const version = await getVersionForSubmission({
+    planId: body.planId,
+    number: body.versionNumber,
+    userId: actor.userId,
+  });
   if (!version) throw new AppError("not_found:plan-version", "No such plan version in your projects.");
   // A submission is the student's own work: a plan they created, in a version they saved (DEVELOPERS.md, Decisions).
   if (!version.planCreatedByUser || !version.versionSavedByUser) {
@@ -51,7 +55,8 @@ export const POST = route(async (request, context) => {
   // Read exactly as the version route and the command line read it (the engine's parsePlan).
   const plan = parsePlan(version.document);
   const revision = await getArmRevisionById({ id: assignment.requiredArmRevisionId });
-  if (!plan.ok || !revision) throw new AppError("unprocessable:plan", "The saved plan version cannot be read by this checker.");
+  if (!plan.ok || !revision)
+    throw new AppError("unprocessable:plan", "The saved plan version cannot be read by this checker.");
   const prepared = assignmentCheckInput(plan.value, armSchema.parse(revision.description), version.armRevisionId, {
     requiredArmRevisionId: assignment.requiredArmRevisionId,
     courseArmRevisionId: assignment.courseArmRevisionId,
@@ -100,7 +105,8 @@ export const POST = route(async (request, context) => {
         ),
       ),
   );
-  if ("notEnrolled" in result) throw new AppError("forbidden:submission", "You are no longer a student of this course.");
+  if ("notEnrolled" in result)
+    throw new AppError("forbidden:submission", "You are no longer a student of this course.");
   if ("conflict" in result) {
     throw new AppError(
       "conflict:submission",
@@ -109,7 +115,13 @@ export const POST = route(async (request, context) => {
         : "This assignment is already approved.",
     );
   }
-  await recordAudit({ actorId: actor.userId, action: "submission.create", targetType: "submission", targetId: result.submission.id, detail: { assignmentId, attempt: result.submission.attempt, verdict: report.verdict } });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "submission.create",
+    targetType: "submission",
+    targetId: result.submission.id,
+    detail: { assignmentId, attempt: result.submission.attempt, verdict: report.verdict },
+  });
   await enqueueMail(result.mailIds);
   return json({ submission: { ...result.submission, document: undefined }, report, ruleProblems: problems }, 201);
 });

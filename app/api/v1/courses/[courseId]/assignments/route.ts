@@ -26,17 +26,39 @@ export const POST = route(async (request, context) => {
   const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "assignment:create");
   const revision = await getReadableArmRevision({ id: body.requiredArmRevisionId, userId: actor.userId });
-  if (!revision) throw new AppError("unprocessable:arm-revision", UNUSABLE_ARM_REVISION, { issues: [{ path: "requiredArmRevisionId", message: "must be a built-in arm revision or one of your projects' arm revisions" }] });
+  if (!revision)
+    throw new AppError("unprocessable:arm-revision", UNUSABLE_ARM_REVISION, {
+      issues: [
+        {
+          path: "requiredArmRevisionId",
+          message: "must be a built-in arm revision or one of your projects' arm revisions",
+        },
+      ],
+    });
   const arm = armSchema.parse(revision.description);
   const n = arm.joints.length;
   const poseIssues = [
-    ...(body.requiredStart && body.requiredStart.length !== n ? [{ path: "requiredStart", message: `must have ${n} values, one per joint` }] : []),
-    ...(body.requiredGoals ?? []).flatMap((g, i) => (g.length !== n ? [{ path: `requiredGoals[${i}]`, message: `must have ${n} values, one per joint` }] : [])),
-    ...(body.limits?.joints ?? []).flatMap((j, i) => (j.joint >= n ? [{ path: `limits.joints[${i}].joint`, message: `must be below ${n}` }] : [])),
+    ...(body.requiredStart && body.requiredStart.length !== n
+      ? [{ path: "requiredStart", message: `must have ${n} values, one per joint` }]
+      : []),
+    ...(body.requiredGoals ?? []).flatMap((g, i) =>
+      g.length !== n ? [{ path: `requiredGoals[${i}]`, message: `must have ${n} values, one per joint` }] : [],
+    ),
+    ...(body.limits?.joints ?? []).flatMap((j, i) =>
+      j.joint >= n ? [{ path: `limits.joints[${i}].joint`, message: `must be below ${n}` }] : [],
+    ),
   ];
-  if (poseIssues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues: poseIssues });
+  if (poseIssues.length > 0)
+    throw new AppError("bad_request:validation", "The request body is not valid.", { issues: poseIssues });
   const assignment = await createAssignment({ courseId, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
   if (!assignment) throw new AppError("forbidden:assignment", "Only the course's instructors can set assignments.");
-  await recordAudit({ actorId: actor.userId, action: "assignment.create", targetType: "assignment", targetId: assignment.id, projectId: course.projectId, detail: { courseId } });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "assignment.create",
+    targetType: "assignment",
+    targetId: assignment.id,
+    projectId: course.projectId,
+    detail: { courseId },
+  });
   return json({ assignment }, 201);
 });

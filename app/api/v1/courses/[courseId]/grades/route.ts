@@ -14,12 +14,43 @@ export const GET = route(async (request, context) => {
   const rows = await listGrades({ courseId, userId: actor.userId });
   rows.sort((a, b) => a.studentName.localeCompare(b.studentName) || a.dueAt.getTime() - b.dueAt.getTime());
   const body = csv([
-    ["student", "email", "assignment", "due_at", "attempt", "submitted_at", "late", "verdict", "status", "review_summary"],
-    ...rows.map((r) => [r.studentName, r.studentEmail, r.assignmentTitle, r.dueAt.toISOString(), r.attempt, r.submittedAt.toISOString(), r.late, r.verdict, r.status, r.summary]),
+    [
+      "student",
+      "email",
+      "assignment",
+      "due_at",
+      "attempt",
+      "submitted_at",
+      "late",
+      "verdict",
+      "status",
+      "review_summary",
+    ],
+    ...rows.map((r) => [
+      r.studentName,
+      r.studentEmail,
+      r.assignmentTitle,
+      r.dueAt.toISOString(),
+      r.attempt,
+      r.submittedAt.toISOString(),
+      r.late,
+      r.verdict,
+      r.status,
+      r.summary,
+    ]),
   ]);
-  const name = `${course.title.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "").toLowerCase() || "course"}-grades.csv`;
+  const name = `${
+    course.title
+      .replace(/[^A-Za-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "")
+      .toLowerCase() || "course"
+  }-grades.csv`;
   return new Response(body, {
     status: 200,
-    headers: { "Content-Type": "text/csv; charset=utf-8", "Content-Disposition": `attachment; filename="${name}"`, "Cache-Control": "no-store" },
+    headers: {
+      "Content-Type": "text/csv; charset=utf-8",
+      "Content-Disposition": `attachment; filename="${name}"`,
+      "Cache-Control": "no-store",
+    },
   });
 });

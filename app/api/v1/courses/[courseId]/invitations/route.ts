@@ -25,7 +25,12 @@ export const POST = route(async (request, context) => {
         "course-invitation",
         `course-invitation:${course.id}:${email}:${batch}`,
         email,
-        courseInvitation({ courseTitle: course.title, term: course.term, instructorName: instructor?.name ?? "Your instructor", joinCode: course.joinCode }),
+        courseInvitation({
+          courseTitle: course.title,
+          term: course.term,
+          instructorName: instructor?.name ?? "Your instructor",
+          joinCode: course.joinCode,
+        }),
       ),
     ),
   );

@@ -19,6 +19,12 @@ export const POST = route(async (request, context) => {
   authorizeProject(datasetMembership(found), "dataset:audit");
   const revision = await loadDatasetArm(actor, found);
   const dataset = await startAudit(found, actor.userId, revision);
-  await recordAudit({ actorId: actor.userId, action: "dataset.audit", targetType: "dataset", targetId: datasetId, projectId: found.dataset.projectId });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "dataset.audit",
+    targetType: "dataset",
+    targetId: datasetId,
+    projectId: found.dataset.projectId,
+  });
   return json({ dataset }, 202);
 });

@@ -19,7 +19,8 @@ export const GET = route(async (request, context) => {
   const actor = await requireActor(request);
   const found = await loadDataset(actor, datasetId);
   authorizeProject(datasetMembership(found), "dataset:read");
-  if (found.dataset.status !== "audited") throw new AppError("conflict:dataset", "Audit the dataset first (and wait for the audit to finish).");
+  if (found.dataset.status !== "audited")
+    throw new AppError("conflict:dataset", "Audit the dataset first (and wait for the audit to finish).");
   const revision = await loadDatasetArm(actor, found);
   const zip = await exportDataset(found, actor.userId, revision);
   return new Response(zip as BodyInit, {

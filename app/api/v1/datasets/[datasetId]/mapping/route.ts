@@ -25,15 +25,33 @@ export const POST = route(async (request, context) => {
   const found = await loadDataset(actor, datasetId);
   authorizeProject(datasetMembership(found), "dataset:audit");
   const revision = await getArmRevisionForUser({ armId: body.armId, userId: actor.userId, revision: body.revision });
-  if (!revision) throw new AppError("unprocessable:arm", "No such arm.", { issues: [{ path: "armId", message: "is not an arm you can use" }] });
+  if (!revision)
+    throw new AppError("unprocessable:arm", "No such arm.", {
+      issues: [{ path: "armId", message: "is not an arm you can use" }],
+    });
   const preview = await previewDataset(found.dataset, armOfRevision(revision.description), revision.id, body.mapping);
   if (preview.problems.length > 0) {
-    throw new AppError("unprocessable:mapping", `The dataset cannot be read with this mapping: ${preview.problems[0]}`, {
-      issues: preview.problems.map((message) => ({ path: "mapping", message })),
-    });
+    throw new AppError(
+      "unprocessable:mapping",
+      `The dataset cannot be read with this mapping: ${preview.problems[0]}`,
+      {
+        issues: preview.problems.map((message) => ({ path: "mapping", message })),
+      },
+    );
   }
-  const row = await setDatasetMapping({ datasetId, userId: actor.userId, armRevisionId: revision.id, mapping: body.mapping });
+  const row = await setDatasetMapping({
+    datasetId,
+    userId: actor.userId,
+    armRevisionId: revision.id,
+    mapping: body.mapping,
+  });
   if (!row) throw new AppError("conflict:dataset", "An audit of this dataset is running; wait for it to finish.");
-  await recordAudit({ actorId: actor.userId, action: "dataset.map", targetType: "dataset", targetId: datasetId, projectId: found.dataset.projectId });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "dataset.map",
+    targetType: "dataset",
+    targetId: datasetId,
+    projectId: found.dataset.projectId,
+  });
   return json({ dataset: row, preview });
 });

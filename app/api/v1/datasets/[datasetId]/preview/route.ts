@@ -23,6 +23,12 @@ export const POST = route(async (request, context) => {
   const found = await loadDataset(actor, datasetId);
   authorizeProject(datasetMembership(found), "dataset:read");
   const revision = await getArmRevisionForUser({ armId: body.armId, userId: actor.userId, revision: body.revision });
-  if (!revision) throw new AppError("unprocessable:arm", "No such arm.", { issues: [{ path: "armId", message: "is not an arm you can use" }] });
-  return json({ preview: await previewDataset(found.dataset, armOfRevision(revision.description), revision.id, body.mapping), armRevisionId: revision.id });
+  if (!revision)
+    throw new AppError("unprocessable:arm", "No such arm.", {
+      issues: [{ path: "armId", message: "is not an arm you can use" }],
+    });
+  return json({
+    preview: await previewDataset(found.dataset, armOfRevision(revision.description), revision.id, body.mapping),
+    armRevisionId: revision.id,
+  });
 });

@@ -21,9 +21,16 @@ export const POST = route(async (request, context) => {
   const actor = await requireActor(request);
   const found = await loadDataset(actor, datasetId);
   authorizeProject(datasetMembership(found), "dataset:repair");
-  if (found.dataset.status !== "audited") throw new AppError("conflict:dataset", "Audit the dataset first (and wait for the audit to finish).");
+  if (found.dataset.status !== "audited")
+    throw new AppError("conflict:dataset", "Audit the dataset first (and wait for the audit to finish).");
   const revision = await loadDatasetArm(actor, found);
   const repaired = await repairDatasetEpisodes(found, actor.userId, revision, body.episodes);
-  await recordAudit({ actorId: actor.userId, action: "dataset.repair", targetType: "dataset", targetId: datasetId, projectId: found.dataset.projectId });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "dataset.repair",
+    targetType: "dataset",
+    targetId: datasetId,
+    projectId: found.dataset.projectId,
+  });
   return json({ repaired });
 });

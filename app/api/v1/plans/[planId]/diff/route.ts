@@ -21,7 +21,8 @@ export const GET = route(async (request, context) => {
     getPlanVersion({ planId, number: query.from, userId: actor.userId }),
     getPlanVersion({ planId, number: query.to, userId: actor.userId }),
   ]);
-  if (!from || !to) throw new AppError("not_found:version", `No version ${!from ? query.from : query.to} of this plan.`);
+  if (!from || !to)
+    throw new AppError("not_found:version", `No version ${!from ? query.from : query.to} of this plan.`);
   return json({
     from: { number: from.number, verdict: from.verdict, armRevision: from.armRevision },
     to: { number: to.number, verdict: to.verdict, armRevision: to.armRevision },

@@ -44,9 +44,18 @@ export const POST = route(async (request, context) => {
   // The check must run against the stored arm, so the document must describe exactly that arm.
   const storedArm = armSchema.parse(revision.description);
   if (!isDeepStrictEqual(storedArm, body.document.arm)) {
-    throw new AppError("unprocessable:arm-mismatch", `document.arm differs from revision ${revision.revision} of the plan's arm.`, {
-      issues: [{ path: "document.arm", message: `must equal revision ${revision.revision} of arm "${plan.armName}" (GET /api/v1/arms/${plan.armId})` }],
-    });
+    throw new AppError(
+      "unprocessable:arm-mismatch",
+      `document.arm differs from revision ${revision.revision} of the plan's arm.`,
+      {
+        issues: [
+          {
+            path: "document.arm",
+            message: `must equal revision ${revision.revision} of arm "${plan.armName}" (GET /api/v1/arms/${plan.armId})`,
+          },
+        ],
+      },
+    );
   }
   const { report, summary } = await checkPlan(body.document, "document");
   const result = await createPlanVersion({
@@ -60,9 +69,13 @@ export const POST = route(async (request, context) => {
     authorId: actor.userId,
   });
   if ("conflict" in result) {
-    throw new AppError("conflict:version", `Version ${result.conflict} was saved after version ${body.baseVersion}, which this edit started from. Load version ${result.conflict} and merge, or save as a new plan.`, {
-      details: { latestVersion: result.conflict, baseVersion: body.baseVersion },
-    });
+    throw new AppError(
+      "conflict:version",
+      `Version ${result.conflict} was saved after version ${body.baseVersion}, which this edit started from. Load version ${result.conflict} and merge, or save as a new plan.`,
+      {
+        details: { latestVersion: result.conflict, baseVersion: body.baseVersion },
+      },
+    );
   }
   await recordAudit({
     actorId: actor.userId,

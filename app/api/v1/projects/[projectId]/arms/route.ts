@@ -26,8 +26,23 @@ export const POST = route(async (request, context) => {
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "arm:write");
-  const created = await createArm({ projectId, name: body.name, description: body.description, note: body.note, userId: actor.userId });
-  if (!created) throw new AppError("conflict:arm-name", "This project already has an arm with that name.", { issues: [{ path: "name", message: "is taken" }] });
-  await recordAudit({ actorId: actor.userId, action: "arm.create", targetType: "arm", targetId: created.armId, projectId });
+  const created = await createArm({
+    projectId,
+    name: body.name,
+    description: body.description,
+    note: body.note,
+    userId: actor.userId,
+  });
+  if (!created)
+    throw new AppError("conflict:arm-name", "This project already has an arm with that name.", {
+      issues: [{ path: "name", message: "is taken" }],
+    });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "arm.create",
+    targetType: "arm",
+    targetId: created.armId,
+    projectId,
+  });
   return json({ arm: { id: created.armId, name: body.name, projectId }, revision: created.revision }, 201);
 });

@@ -19,7 +19,10 @@ export const GET = route(async (request, context) => {
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "dataset:read");
-  return json({ datasets: await listDatasets({ projectId, userId: actor.userId }), limitBytes: datasetEnv().DATASET_UPLOAD_LIMIT_BYTES });
+  return json({
+    datasets: await listDatasets({ projectId, userId: actor.userId }),
+    limitBytes: datasetEnv().DATASET_UPLOAD_LIMIT_BYTES,
+  });
 });
 
 /**
@@ -32,17 +35,36 @@ export const POST = route(async (request, context) => {
   const query = readQuery(request, uploadDatasetQuery);
   const limit = datasetEnv().DATASET_UPLOAD_LIMIT_BYTES;
   const declared = Number(request.headers.get("content-length") ?? "0");
-  if (declared > limit) throw new AppError("payload_too_large", `The dataset is larger than the limit of ${limit} bytes.`, { details: { limitBytes: limit } });
+  if (declared > limit)
+    throw new AppError("payload_too_large", `The dataset is larger than the limit of ${limit} bytes.`, {
+      details: { limitBytes: limit },
+    });
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "dataset:create");
   const stored = await storeUpload(request, projectId);
   try {
-    const row = await createDataset({ projectId, name: query.name, objectKey: stored.key, fileKind: stored.fileKind, sizeBytes: stored.sizeBytes, sha256: stored.sha256, createdBy: actor.userId });
-    await recordAudit({ actorId: actor.userId, action: "dataset.create", targetType: "dataset", targetId: row.id, projectId });
+    const row = await createDataset({
+      projectId,
+      name: query.name,
+      objectKey: stored.key,
+      fileKind: stored.fileKind,
+      sizeBytes: stored.sizeBytes,
+      sha256: stored.sha256,
+      createdBy: actor.userId,
+    });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "dataset.create",
+      targetType: "dataset",
+      targetId: row.id,
+      projectId,
+    });
     return json({ dataset: row }, 201);
   } catch (err) {
-    await deleteObject(stored.key).catch((e) => console.error("[datasets] could not remove orphaned object", stored.key, e));
+    await deleteObject(stored.key).catch((e) =>
+      console.error("[datasets] could not remove orphaned object", stored.key, e),
+    );
     throw err;
   }
 });

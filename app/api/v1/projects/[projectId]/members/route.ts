@@ -30,9 +30,24 @@ export const POST = route(async (request, context) => {
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "member:manage");
   const existing = (await listMembers({ projectId, userId: actor.userId })).find((m) => m.email === body.email);
-  if (existing?.role === "owner") assertKeepsAnOwner({ currentRole: existing.role, nextRole: body.role, ownerCount: await countOwners({ projectId }) });
+  if (existing?.role === "owner")
+    assertKeepsAnOwner({
+      currentRole: existing.role,
+      nextRole: body.role,
+      ownerCount: await countOwners({ projectId }),
+    });
   const member = await upsertMember({ projectId, ownerId: actor.userId, email: body.email, role: body.role });
-  if (!member) throw new AppError("unprocessable:unknown-user", "No active account has this e-mail.", { issues: [{ path: "email", message: "has no account" }] });
-  await recordAudit({ actorId: actor.userId, action: "member.set", targetType: "user", targetId: member.userId, projectId, detail: { role: body.role } });
+  if (!member)
+    throw new AppError("unprocessable:unknown-user", "No active account has this e-mail.", {
+      issues: [{ path: "email", message: "has no account" }],
+    });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "member.set",
+    targetType: "user",
+    targetId: member.userId,
+    projectId,
+    detail: { role: body.role },
+  });
   return json({ member }, existing ? 200 : 201);
 });

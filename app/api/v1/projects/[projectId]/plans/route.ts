@@ -19,7 +19,12 @@ export const GET = route(async (request, context) => {
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "plan:read");
-  const page = await listPlansPageForProject({ projectId, userId: actor.userId, limit: query.limit, after: query.cursor });
+  const page = await listPlansPageForProject({
+    projectId,
+    userId: actor.userId,
+    limit: query.limit,
+    after: query.cursor,
+  });
   return json({ plans: page.items, nextCursor: page.nextCursor });
 });
 

@@ -35,17 +35,23 @@ export const POST = route(async (request, context) => {
   const { projectId } = await readParams(context, params);
   const query = readQuery(request, uploadRecordingQuery);
   const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
-  if (type !== "text/csv") throw new AppError("unsupported_media_type", "Send the recording as CSV (Content-Type: text/csv).");
+  if (type !== "text/csv")
+    throw new AppError("unsupported_media_type", "Send the recording as CSV (Content-Type: text/csv).");
   const limit = env().UPLOAD_LIMIT_BYTES;
   const declared = Number(request.headers.get("content-length") ?? "0");
-  if (declared > limit) throw new AppError("payload_too_large", `The file is larger than ${limit} bytes.`, { details: { limitBytes: limit } });
+  if (declared > limit)
+    throw new AppError("payload_too_large", `The file is larger than ${limit} bytes.`, {
+      details: { limitBytes: limit },
+    });
 
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "recording:create");
   const revision = query.armId ? await getArmRevisionForUser({ armId: query.armId, userId: actor.userId }) : undefined;
   if (query.armId && !revision) {
-    throw new AppError("unprocessable:arm", "No such arm.", { issues: [{ path: "query.armId", message: "is not an arm you can use" }] });
+    throw new AppError("unprocessable:arm", "No such arm.", {
+      issues: [{ path: "query.armId", message: "is not an arm you can use" }],
+    });
   }
 
   const bytes = await readBodyLimited(request, limit);
@@ -53,9 +59,16 @@ export const POST = route(async (request, context) => {
   const arm = revision ? armSchema.parse(revision.description) : null;
   const scanned = arm ? scanRecording(arm, bytes, { maxFindings: 50 }) : scanRecording(null, bytes);
   if ("problems" in scanned) {
-    throw new AppError("unprocessable:recording", `The file is not a valid recording: ${describeRecordingProblem(scanned.problems[0])}.`, {
-      issues: scanned.problems.map((p) => ({ path: p.line === null ? "(file)" : `line ${p.line}${p.column ? `.${p.column}` : ""}`, message: p.message })),
-    });
+    throw new AppError(
+      "unprocessable:recording",
+      `The file is not a valid recording: ${describeRecordingProblem(scanned.problems[0])}.`,
+      {
+        issues: scanned.problems.map((p) => ({
+          path: p.line === null ? "(file)" : `line ${p.line}${p.column ? `.${p.column}` : ""}`,
+          message: p.message,
+        })),
+      },
+    );
   }
   const { recording, report: stream } = scanned;
 
@@ -75,7 +88,13 @@ export const POST = route(async (request, context) => {
       durationS: recording.count > 0 ? recording.timeS[recording.count - 1] - recording.timeS[0] : 0,
       createdBy: actor.userId,
     });
-    await recordAudit({ actorId: actor.userId, action: "recording.create", targetType: "recording", targetId: row.id, projectId });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "recording.create",
+      targetType: "recording",
+      targetId: row.id,
+      projectId,
+    });
     return json({ recording: row, stream }, 201);
   } catch (err) {
     await deleteObject(key).catch((e) => console.error("[recordings] could not remove orphaned object", key, e));

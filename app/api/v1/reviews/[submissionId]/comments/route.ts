@@ -25,8 +25,12 @@ export const POST = route(async (request, context) => {
   authorizeCourse(submission.viewerRole, "review:comment");
   const doc = submission.document as { moves?: unknown[]; arm?: { joints?: unknown[] } };
   const issues = [
-    ...(body.moveIndex !== undefined && body.moveIndex >= (doc.moves?.length ?? 0) ? [{ path: "moveIndex", message: `must be below ${doc.moves?.length ?? 0}` }] : []),
-    ...(body.jointIndex !== undefined && body.jointIndex >= (doc.arm?.joints?.length ?? 0) ? [{ path: "jointIndex", message: `must be below ${doc.arm?.joints?.length ?? 0}` }] : []),
+    ...(body.moveIndex !== undefined && body.moveIndex >= (doc.moves?.length ?? 0)
+      ? [{ path: "moveIndex", message: `must be below ${doc.moves?.length ?? 0}` }]
+      : []),
+    ...(body.jointIndex !== undefined && body.jointIndex >= (doc.arm?.joints?.length ?? 0)
+      ? [{ path: "jointIndex", message: `must be below ${doc.arm?.joints?.length ?? 0}` }]
+      : []),
   ];
   if (issues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues });
   const comment = await addComment({ submissionId, authorId: actor.userId, ...body });

@@ -30,32 +30,44 @@ export const POST = route(async (request, context) => {
     throw new AppError(
       "unprocessable:unconfirmed-faults",
       `${faults.length === 0 ? "The server's check of this submission ended in a fault." : `The server's check found ${faults.length === 1 ? "a fault" : `${faults.length} faults`} in this submission.`} To approve it anyway, confirm that you have seen the faults and give a reason; the student will see the reason.`,
-      { issues: [{ path: "confirmFaults", message: "is required to approve a submission whose check has faults" }], details: { faults } },
+      {
+        issues: [{ path: "confirmFaults", message: "is required to approve a submission whose check has faults" }],
+        details: { faults },
+      },
     );
   }
   const faultApprovalReason = body.decision === "approved" && faulted ? (body.reason ?? null) : null;
   const reviewer = await getActiveUserById({ id: actor.userId });
   const comments = await listComments({ submissionId, userId: actor.userId });
-  const result = await decideSubmission({ submissionId, reviewerId: actor.userId, decision: body.decision, summary: body.summary, faultApprovalReason }, (review) => [
-    outbox(
-      `submission-${review.decision}`,
-      `submission-decided:${review.id}`,
-      submission.studentEmail,
-      submissionDecided({
-        studentName: submission.studentName,
-        assignmentTitle: submission.assignment.title,
-        courseTitle: submission.courseTitle,
-        decision: review.decision,
-        reviewerName: reviewer?.name ?? "Your instructor",
-        summary: review.summary,
-        faultApprovalReason: review.faultApprovalReason,
-        commentCount: comments.length,
-        submissionId,
-      }),
-    ),
-  ]);
+  const result = await decideSubmission(
+    { submissionId, reviewerId: actor.userId, decision: body.decision, summary: body.summary, faultApprovalReason },
+    (review) => [
+      outbox(
+        `submission-${review.decision}`,
+        `submission-decided:${review.id}`,
+        submission.studentEmail,
+        submissionDecided({
+          studentName: submission.studentName,
+          assignmentTitle: submission.assignment.title,
+          courseTitle: submission.courseTitle,
+          decision: review.decision,
+          reviewerName: reviewer?.name ?? "Your instructor",
+          summary: review.summary,
+          faultApprovalReason: review.faultApprovalReason,
+          commentCount: comments.length,
+          submissionId,
+        }),
+      ),
+    ],
+  );
   if (!result) throw new AppError("conflict:submission", "This submission was already decided.");
-  await recordAudit({ actorId: actor.userId, action: `submission.${body.decision === "approved" ? "approve" : "return"}`, targetType: "submission", targetId: submissionId, detail: { reviewId: result.review.id, faultsConfirmed: faultApprovalReason !== null } });
+  await recordAudit({
+    actorId: actor.userId,
+    action: `submission.${body.decision === "approved" ? "approve" : "return"}`,
+    targetType: "submission",
+    targetId: submissionId,
+    detail: { reviewId: result.review.id, faultsConfirmed: faultApprovalReason !== null },
+  });
   await enqueueMail(result.mailIds);
   return json({ review: result.review }, 201);
 });

@@ -15,6 +15,13 @@ export const DELETE = route(async (request, context) => {
   authorizeCourse(course.role, "roster:manage");
   const removed = await removeStudent({ courseId, instructorId: actor.userId, userId });
   if (!removed) throw new AppError("not_found:student", "No such student in this course.");
-  await recordAudit({ actorId: actor.userId, action: "course.remove-student", targetType: "course", targetId: courseId, projectId: course.projectId, detail: { userId } });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "course.remove-student",
+    targetType: "course",
+    targetId: courseId,
+    projectId: course.projectId,
+    detail: { userId },
+  });
   return json({ removed: userId });
 });

@@ -24,5 +24,11 @@ export const GET = route(async (request, context) => {
   const revision = await loadDatasetArm(actor, found);
   const data = await episodeData(found, actor.userId, revision, index);
   const { repaired: _bytes, ...audit } = row;
-  return json({ episode: audit, arm: data.arm, recorded: data.recorded, repaired: data.repaired, check: "timed replay" });
+  return json({
+    episode: audit,
+    arm: data.arm,
+    recorded: data.recorded,
+    repaired: data.repaired,
+    check: "timed replay",
+  });
 });

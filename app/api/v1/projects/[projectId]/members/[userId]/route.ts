@@ -17,8 +17,15 @@ export const DELETE = route(async (request, context) => {
   authorizeProject(membershipOf(project), "member:manage");
   const target = (await listMembers({ projectId, userId: actor.userId })).find((m) => m.userId === userId);
   if (!target) throw new AppError("not_found:member", "That user is not a member of this project.");
-  if (target.role === "owner") assertKeepsAnOwner({ currentRole: target.role, nextRole: null, ownerCount: await countOwners({ projectId }) });
+  if (target.role === "owner")
+    assertKeepsAnOwner({ currentRole: target.role, nextRole: null, ownerCount: await countOwners({ projectId }) });
   await removeMember({ projectId, ownerId: actor.userId, userId });
-  await recordAudit({ actorId: actor.userId, action: "member.remove", targetType: "user", targetId: userId, projectId });
+  await recordAudit({
+    actorId: actor.userId,
+    action: "member.remove",
+    targetType: "user",
+    targetId: userId,
+    projectId,
+  });
   return json({ removed: userId });
 });

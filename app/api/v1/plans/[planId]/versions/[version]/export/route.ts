@@ -30,9 +30,18 @@ export const GET = route(async (request, context) => {
   const durationS = document.moves.reduce((s, m) => s + m.duration, 0);
   const values = (Math.floor(durationS * rateHz) + 2) * (document.arm.joints.length + 1);
   if (values > EXPORT_MAX_VALUES) {
-    throw new AppError("unprocessable:too-many-samples", `At ${rateHz} Hz this ${durationS} s plan has too many waypoints for one export; choose a lower rateHz.`, {
-      issues: [{ path: "query.rateHz", message: `must be at most ${Math.floor(EXPORT_MAX_VALUES / (document.arm.joints.length + 1) / Math.max(durationS, 1e-9))} for this plan` }],
-    });
+    throw new AppError(
+      "unprocessable:too-many-samples",
+      `At ${rateHz} Hz this ${durationS} s plan has too many waypoints for one export; choose a lower rateHz.`,
+      {
+        issues: [
+          {
+            path: "query.rateHz",
+            message: `must be at most ${Math.floor(EXPORT_MAX_VALUES / (document.arm.joints.length + 1) / Math.max(durationS, 1e-9))} for this plan`,
+          },
+        ],
+      },
+    );
   }
   const { report } = await checkPlan(document);
   const samples = samplePlan(document, { rateHz });
@@ -43,7 +52,10 @@ export const GET = route(async (request, context) => {
     armRevision: { armId: version.armId, name: plan.armName, revision: version.armRevision },
   };
   const base = `${plan.name.replace(/[^A-Za-z0-9._-]+/g, "-").slice(0, 60) || "plan"}-v${version.number}`;
-  const body = query.format === "csv" ? await buildCsvExport(document, report, samples, meta) : await buildJsonExport(document, report, samples, meta);
+  const body =
+    query.format === "csv"
+      ? await buildCsvExport(document, report, samples, meta)
+      : await buildJsonExport(document, report, samples, meta);
   return new Response(body, {
     status: 200,
     headers: {
