@@ -1,8 +1,9 @@
 import "server-only";
-import { and, desc, eq, sql } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { db } from "@/db";
 import { auditLog, projectMembers, users, type AuditEntry } from "@/db/schema";
 import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
+import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
 
 /** Appends one entry to the audit log. */
 export async function recordAudit(entry: AuditEntry): Promise<void> {
@@ -17,6 +18,14 @@ export type AuditListItem = {
   targetType: string;
   targetId: string;
   createdAt: Date;
+};
+
+const auditOrder: PageOrder = {
+  key: auditLog.createdAt,
+  id: auditLog.id,
+  direction: "newest first",
+  keyType: "timestamptz",
+  idType: "bigint",
 };
 
 /**
@@ -44,20 +53,13 @@ export async function listProjectAuditPage({
       targetType: auditLog.targetType,
       targetId: auditLog.targetId,
       createdAt: auditLog.createdAt,
-      pageKey: sql<string>`to_char(${auditLog.createdAt} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`,
+      pageKey: timestampPageKey(auditLog.createdAt),
     })
     .from(auditLog)
     .innerJoin(projectMembers, and(eq(projectMembers.projectId, auditLog.projectId), eq(projectMembers.userId, userId)))
     .leftJoin(users, eq(users.id, auditLog.actorId))
-    .where(
-      and(
-        eq(auditLog.projectId, projectId),
-        after
-          ? sql`(${auditLog.createdAt}, ${auditLog.id}) < (${after.key}::timestamptz, ${after.id}::bigint)`
-          : undefined,
-      ),
-    )
-    .orderBy(desc(auditLog.createdAt), desc(auditLog.id))
+    .where(and(eq(auditLog.projectId, projectId), pastCursor(auditOrder, after)))
+    .orderBy(...pageOrderBy(auditOrder))
     .limit(limit + 1);
   return toPage(
     rows,

@@ -15,6 +15,7 @@ import {
   type Verdict,
 } from "@/db/schema";
 import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
+import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
 
 /** Join condition: the user is a member of the plan's project. */
 const memberOfPlanProject = (userId: string) =>
@@ -45,6 +46,14 @@ export async function listPlansForProject({
   return rows.map((r) => ({ ...r.plan, armName: r.armName, latestVerdict: r.latestVerdict }));
 }
 
+const plansOrder: PageOrder = {
+  key: plans.updatedAt,
+  id: plans.id,
+  direction: "newest first",
+  keyType: "timestamptz",
+  idType: "uuid",
+};
+
 /**
  * One page of a project's plans, most recently changed first, ties broken by id (the order
  * `listPlansForProject` uses, made total); `after` is the last row of the previous page.
@@ -65,20 +74,14 @@ export async function listPlansPageForProject({
       plan: plans,
       armName: arms.name,
       latestVerdict: planVersions.verdict,
-      // Microseconds kept (a JS Date would round them), in UTC ISO form.
-      pageKey: sql<string>`to_char(${plans.updatedAt} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`,
+      pageKey: timestampPageKey(plans.updatedAt),
     })
     .from(plans)
     .innerJoin(projectMembers, memberOfPlanProject(userId))
     .innerJoin(arms, eq(arms.id, plans.armId))
     .leftJoin(planVersions, and(eq(planVersions.planId, plans.id), eq(planVersions.number, plans.latestVersion)))
-    .where(
-      and(
-        eq(plans.projectId, projectId),
-        after ? sql`(${plans.updatedAt}, ${plans.id}) < (${after.key}::timestamptz, ${after.id}::uuid)` : undefined,
-      ),
-    )
-    .orderBy(desc(plans.updatedAt), desc(plans.id))
+    .where(and(eq(plans.projectId, projectId), pastCursor(plansOrder, after)))
+    .orderBy(...pageOrderBy(plansOrder))
     .limit(limit + 1);
   return toPage(
     rows,

@@ -1,8 +1,9 @@
 import "server-only";
-import { and, asc, desc, eq, exists as eqExists, isNull, sql } from "drizzle-orm";
+import { and, asc, desc, eq, exists as eqExists, isNull } from "drizzle-orm";
 import { db } from "@/db";
 import { projectMembers, projects, users, type MemberRole, type Project, type ProjectKind } from "@/db/schema";
 import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
+import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
 
 /** A project as its member sees it: the project and the member's own role. */
 export type ProjectForUser = Project & { role: MemberRole };
@@ -195,9 +196,20 @@ export async function countOwners({ projectId }: { projectId: string }): Promise
   return db.$count(projectMembers, and(eq(projectMembers.projectId, projectId), eq(projectMembers.role, "owner")));
 }
 
-/** A timestamp as PostgreSQL holds it (microseconds), in UTC ISO form: a page key that a JS Date would round. */
-const utcKey = (column: typeof projects.updatedAt) =>
-  sql<string>`to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`;
+const projectsOrder: PageOrder = {
+  key: projects.updatedAt,
+  id: projects.id,
+  direction: "newest first",
+  keyType: "timestamptz",
+  idType: "uuid",
+};
+const membersOrder: PageOrder = {
+  key: users.email,
+  id: projectMembers.userId,
+  direction: "ascending",
+  keyType: "text",
+  idType: "uuid",
+};
 
 /**
  * One page of the user's projects, newest activity first, ties broken by id (the order
@@ -215,18 +227,11 @@ export async function listProjectsPageForUser({
   after?: PageAfter;
 }): Promise<Page<ProjectForUser>> {
   const rows = await db
-    .select({ ...projectWithRole, pageKey: utcKey(projects.updatedAt) })
+    .select({ ...projectWithRole, pageKey: timestampPageKey(projects.updatedAt) })
     .from(projects)
     .innerJoin(projectMembers, and(eq(projectMembers.projectId, projects.id), eq(projectMembers.userId, userId)))
-    .where(
-      and(
-        includeArchived ? undefined : isNull(projects.archivedAt),
-        after
-          ? sql`(${projects.updatedAt}, ${projects.id}) < (${after.key}::timestamptz, ${after.id}::uuid)`
-          : undefined,
-      ),
-    )
-    .orderBy(desc(projects.updatedAt), desc(projects.id))
+    .where(and(includeArchived ? undefined : isNull(projects.archivedAt), pastCursor(projectsOrder, after)))
+    .orderBy(...pageOrderBy(projectsOrder))
     .limit(limit + 1);
   return toPage(
     rows,
@@ -268,10 +273,10 @@ export async function listMembersPage({
             .from(projectMembers)
             .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId))),
         ),
-        after ? sql`(${users.email}, ${projectMembers.userId}) > (${after.key}, ${after.id}::uuid)` : undefined,
+        pastCursor(membersOrder, after),
       ),
     )
-    .orderBy(asc(users.email), asc(projectMembers.userId))
+    .orderBy(...pageOrderBy(membersOrder))
     .limit(limit + 1);
   return toPage(
     rows,
