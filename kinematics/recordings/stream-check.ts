@@ -185,22 +185,15 @@ function streamFinding(
       : `line ${line} (t = ${formatNumber(time)} s)`;
   const head = `${jointLabel(joint)[0].toUpperCase()}${jointLabel(joint).slice(1)}, ${span}`;
   const fix = "Repair the recording (rate-limit it) before streaming it, or slow its playback.";
+  const where = { severity, joint: j, sample, endSample, line, endLine, time, value };
   if (kind === RANGE) {
-    const limit = value > joint.max ? joint.max : joint.min;
     return {
+      ...where,
       kind: "range",
-      severity,
-      joint: j,
-      sample,
-      endSample,
-      line,
-      endLine,
-      time,
-      value,
-      limit,
+      limit: value > joint.max ? joint.max : joint.min,
       message:
         `${head}: position ${formatQuantity(value, joint, "position")} is outside its travel ` +
-        `${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}; the controller will refuse ` +
+        `${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}; the controller would refuse ` +
         `these targets. Repair clamps them into the travel.`,
     };
   }
@@ -208,18 +201,11 @@ function streamFinding(
     const limit = v / arm.controlRateHz;
     const outcome =
       severity === "fault"
-        ? "the controller will stop with a jump-too-far fault"
-        : "the controller will follow, close to its jump limit";
+        ? "the controller would stop with a jump-too-far fault"
+        : "the controller would follow, close to its jump limit";
     return {
+      ...where,
       kind: "jump",
-      severity,
-      joint: j,
-      sample,
-      endSample,
-      line,
-      endLine,
-      time,
-      value,
       limit,
       message:
         `${head}: steps of up to ${formatQuantity(value, joint, "step")} per sample, ` +
@@ -228,15 +214,8 @@ function streamFinding(
     };
   }
   return {
+    ...where,
     kind: "speed-over",
-    severity,
-    joint: j,
-    sample,
-    endSample,
-    line,
-    endLine,
-    time,
-    value,
     limit: v,
     message:
       `${head}: speed up to ${formatQuantity(value, joint, "velocity")} between samples, ` +
