@@ -193,24 +193,20 @@ export async function createArmRevision(input: {
   });
 }
 
+const revisionFields = {
+  id: armRevisions.id,
+  armId: armRevisions.armId,
+  revision: armRevisions.revision,
+  description: armRevisions.description,
+};
+type RevisionFields = { id: string; armId: string; revision: number; description: unknown };
+
 /**
  * An arm revision by id, not scoped to a user: only for the server's own re-check of a submission
  * against the revision its assignment requires (the student need not be able to read that arm).
  */
-export async function getArmRevisionById({
-  id,
-}: {
-  id: string;
-}): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
-  const [row] = await db
-    .select({
-      id: armRevisions.id,
-      armId: armRevisions.armId,
-      revision: armRevisions.revision,
-      description: armRevisions.description,
-    })
-    .from(armRevisions)
-    .where(eq(armRevisions.id, id));
+export async function getArmRevisionById({ id }: { id: string }): Promise<RevisionFields | undefined> {
+  const [row] = await db.select(revisionFields).from(armRevisions).where(eq(armRevisions.id, id));
   return row;
 }
 
@@ -221,14 +217,9 @@ export async function getReadableArmRevision({
 }: {
   id: string;
   userId: string;
-}): Promise<{ id: string; armId: string; revision: number; description: unknown } | undefined> {
+}): Promise<RevisionFields | undefined> {
   const [row] = await db
-    .select({
-      id: armRevisions.id,
-      armId: armRevisions.armId,
-      revision: armRevisions.revision,
-      description: armRevisions.description,
-    })
+    .select(revisionFields)
     .from(armRevisions)
     .innerJoin(arms, eq(arms.id, armRevisions.armId))
     .where(and(eq(armRevisions.id, id), armVisibleTo(userId)));
