@@ -106,6 +106,24 @@ function inMembership(projectId: string, userId: string, role: MemberRole) {
 
 export type MemberListItem = { userId: string; email: string; name: string; role: MemberRole; createdAt: Date };
 
+const memberFields = {
+  userId: projectMembers.userId,
+  email: users.email,
+  name: users.name,
+  role: projectMembers.role,
+  createdAt: projectMembers.createdAt,
+};
+
+/** The asking user is a member of the project (members are listed only to members). */
+function askerIsMember(projectId: string, userId: string) {
+  return eqExists(
+    db
+      .select({ one: projectMembers.userId })
+      .from(projectMembers)
+      .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId))),
+  );
+}
+
 /** Members of a project, listed only to someone who is a member of it. */
 export async function listMembers({
   projectId,
@@ -115,26 +133,10 @@ export async function listMembers({
   userId: string;
 }): Promise<MemberListItem[]> {
   return db
-    .select({
-      userId: projectMembers.userId,
-      email: users.email,
-      name: users.name,
-      role: projectMembers.role,
-      createdAt: projectMembers.createdAt,
-    })
+    .select(memberFields)
     .from(projectMembers)
     .innerJoin(users, eq(users.id, projectMembers.userId))
-    .where(
-      and(
-        eq(projectMembers.projectId, projectId),
-        eqExists(
-          db
-            .select({ one: projectMembers.userId })
-            .from(projectMembers)
-            .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId))),
-        ),
-      ),
-    )
+    .where(and(eq(projectMembers.projectId, projectId), askerIsMember(projectId, userId)))
     .orderBy(asc(users.email));
 }
 
@@ -254,27 +256,11 @@ export async function listMembersPage({
   after?: PageAfter;
 }): Promise<Page<MemberListItem>> {
   const rows = await db
-    .select({
-      userId: projectMembers.userId,
-      email: users.email,
-      name: users.name,
-      role: projectMembers.role,
-      createdAt: projectMembers.createdAt,
-      pageKey: users.email,
-    })
+    .select({ ...memberFields, pageKey: users.email })
     .from(projectMembers)
     .innerJoin(users, eq(users.id, projectMembers.userId))
     .where(
-      and(
-        eq(projectMembers.projectId, projectId),
-        eqExists(
-          db
-            .select({ one: projectMembers.userId })
-            .from(projectMembers)
-            .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId))),
-        ),
-        pastCursor(membersOrder, after),
-      ),
+      and(eq(projectMembers.projectId, projectId), askerIsMember(projectId, userId), pastCursor(membersOrder, after)),
     )
     .orderBy(...pageOrderBy(membersOrder))
     .limit(limit + 1);
