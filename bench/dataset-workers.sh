@@ -3,10 +3,7 @@
 # (ports JP_BENCH_PG_PORT, JP_BENCH_S3_PORT, JP_BENCH_SMTP_PORT), then stops them.
 source "$(dirname "$0")/../scripts/lib.sh"
 ensure_deps
-PIDS=()
-cleanup() { trap - EXIT INT TERM; stop_pids; pg_stop_cluster; }
-trap cleanup EXIT
-trap 'exit 130' INT TERM
+stop_all_on_exit
 PG_PORT="${JP_BENCH_PG_PORT:-54349}"
 pg_start_cluster "${JP_BENCH_CLUSTER:-postgres-bench}" "$PG_PORT"
 pg_recreate_db jointproof_bench

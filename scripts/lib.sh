@@ -187,14 +187,20 @@ start_fakes() {
   : >"$logf"
   node --import tsx scripts/fakes/start.ts >"$logf" 2>&1 &
   PIDS+=($!)
-  local i
+  wait_ready "$logf" "fakes ready" "local service fakes (S3 on 127.0.0.1:$S3_PORT, SMTP on 127.0.0.1:${SMTP_PORT:-none})"
+}
+
+# Waits up to 30 s for READY-TEXT in LOGFILE from the newest process in PIDS; dies with the log
+# when it exits first or never says it. wait_ready LOGFILE READY-TEXT NAME
+wait_ready() {
+  local logf="$1" ready="$2" name="$3" i
   for ((i = 0; i < 120; i++)); do
-    grep -q "fakes ready" "$logf" && { log "local service fakes ready (S3 on 127.0.0.1:$S3_PORT, SMTP on 127.0.0.1:${SMTP_PORT:-none})"; return 0; }
+    grep -q "$ready" "$logf" && { log "$name ready"; return 0; }
     kill -0 "${PIDS[-1]}" 2>/dev/null || break
     sleep 0.25
   done
   cat "$logf" >&2
-  die "the local service fakes did not start"
+  die "the $name did not start"
 }
 
 # The mail worker (lib/server/mail/run-worker.ts) in the background: it sends queued messages with
@@ -208,14 +214,22 @@ start_worker() {
   : >"$logf"
   node --conditions=react-server --import tsx "$entry" >"$logf" 2>&1 &
   PIDS+=($!)
-  local i
-  for ((i = 0; i < 120; i++)); do
-    grep -q "$ready" "$logf" && { log "$name ready"; return 0; }
-    kill -0 "${PIDS[-1]}" 2>/dev/null || break
-    sleep 0.25
-  done
-  cat "$logf" >&2
-  die "the $name did not start"
+  wait_ready "$logf" "$ready" "$name"
+}
+
+# On exit, Ctrl-C or TERM: stop the background processes in PIDS and the cluster, then log
+# MESSAGE if one is given. Starts PIDS empty. stop_all_on_exit [MESSAGE]
+stop_all_on_exit() {
+  PIDS=()
+  EXIT_MESSAGE="${1:-}"
+  trap stop_all EXIT
+  trap 'exit 130' INT TERM
+}
+stop_all() {
+  trap - EXIT INT TERM
+  stop_pids
+  pg_stop_cluster
+  if [ -n "$EXIT_MESSAGE" ]; then log "$EXIT_MESSAGE"; fi
 }
 
 # Stop the background processes in PIDS: SIGTERM, up to 5 s to exit, then SIGKILL.

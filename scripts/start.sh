@@ -9,15 +9,7 @@ mkdir -p .data
 ensure_deps
 load_secrets
 
-PIDS=()
-cleanup() {
-  trap - EXIT INT TERM
-  stop_pids
-  pg_stop_cluster
-  log "stopped"
-}
-trap cleanup EXIT
-trap 'exit 130' INT TERM
+stop_all_on_exit "stopped"
 
 if [ -z "${DATABASE_URL:-}" ]; then
   pg_start_cluster postgres 54329

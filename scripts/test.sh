@@ -8,14 +8,7 @@ mkdir -p .data/test && rm -f .data/test/*.json
 ensure_deps
 load_secrets
 
-PIDS=()
-cleanup() {
-  trap - EXIT INT TERM
-  stop_pids
-  pg_stop_cluster
-}
-trap cleanup EXIT
-trap 'exit 130' INT TERM
+stop_all_on_exit
 
 if [ -n "${TEST_DATABASE_URL:-}" ]; then
   export DATABASE_URL="$TEST_DATABASE_URL"
