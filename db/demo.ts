@@ -261,7 +261,7 @@ export const demoCourse = {
   armRevision: 1,
   instructorId: instructor.id,
   studentIds: [student2.id],
-  limits: { velocityScale: 0.7 },
+  limits: { speedPercent: 70 },
   assignments: [
     {
       id: "00000000-0000-4000-8000-000000000511",

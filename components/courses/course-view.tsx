@@ -300,7 +300,8 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
         instructions,
         dueAt: dueAt ? new Date(`${dueAt}Z`).toISOString() : "",
         requiredArmRevisionId: arm,
-        ...(speed.trim() && pct > 0 && pct < 100 ? { limits: { velocityScale: pct / 100 } } : {}),
+        // sent as typed: the API refuses a value outside 0–100 under this field rather than dropping it
+        ...(speed.trim() ? { limits: { speedPercent: pct } } : {}),
         ...(posesFrom && poses.data ? { requiredStart: poses.data.start, requiredGoals: poses.data.goals } : {}),
       });
     },

@@ -49,7 +49,8 @@ export function CoursesHome({
         title,
         term,
         ...(arm ? { requiredArmRevisionId: arm } : {}),
-        ...(speedPercent.trim() && pct > 0 && pct < 100 ? { limits: { velocityScale: pct / 100 } } : {}),
+        // sent as typed: the API refuses a value outside 0–100 under this field rather than dropping it
+        ...(speedPercent.trim() ? { limits: { speedPercent: pct } } : {}),
       });
     },
     onSuccess: (c) => router.push(`/courses/${c.id}`),
@@ -151,7 +152,7 @@ export function CoursesHome({
                   value={speedPercent}
                   onChange={(e) => setSpeedPercent(e.target.value)}
                   hint="Every submission is checked against this stricter limit. Leave empty for the arm's own limits."
-                  error={issue(create.error, "limits.velocityScale")}
+                  error={issue(create.error, "limits.speedPercent")}
                 />
                 <SelectField
                   label="Required arm (optional)"

@@ -31,10 +31,10 @@ export function limitLines(
 ): string[] {
   if (!limits) return [];
   const out: string[] = [];
-  const percent = (r: number) => `${Number((r * 100).toPrecision(4))}%`;
-  if (limits.velocityScale !== undefined) out.push(`${owner} limit: ${percent(limits.velocityScale)} of maximum speed`);
-  if (limits.accelerationScale !== undefined)
-    out.push(`${owner} limit: ${percent(limits.accelerationScale)} of maximum acceleration`);
+  const percent = (p: number) => `${Number(p.toPrecision(4))}%`;
+  if (limits.speedPercent !== undefined) out.push(`${owner} limit: ${percent(limits.speedPercent)} of maximum speed`);
+  if (limits.accelPercent !== undefined)
+    out.push(`${owner} limit: ${percent(limits.accelPercent)} of maximum acceleration`);
   for (const cap of limits.joints ?? []) {
     const joint = joints[cap.joint];
     if (!joint) continue;

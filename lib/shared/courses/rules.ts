@@ -16,9 +16,9 @@ export function tightenArm(arm: Arm, ...limits: (Limits | null | undefined)[]): 
   for (const l of limits) {
     if (!l) continue;
     for (const joint of joints) {
-      if (l.velocityScale !== undefined) joint.maxVelocity = joint.maxVelocity * l.velocityScale;
-      if (l.accelerationScale !== undefined && joint.maxAcceleration !== undefined) {
-        joint.maxAcceleration = joint.maxAcceleration * l.accelerationScale;
+      if (l.speedPercent !== undefined) joint.maxVelocity = (joint.maxVelocity * l.speedPercent) / 100;
+      if (l.accelPercent !== undefined && joint.maxAcceleration !== undefined) {
+        joint.maxAcceleration = (joint.maxAcceleration * l.accelPercent) / 100;
       }
     }
     for (const cap of l.joints ?? []) {

@@ -5,15 +5,18 @@
 import { z } from "zod";
 
 const finite = () => z.number({ error: "must be a number" });
-const ratio = () =>
-  finite().gt(0, { error: "must be greater than 0" }).max(1, { error: "must be at most 1 (limits only get stricter)" });
+const percent = () =>
+  finite()
+    .gt(0, { error: "must be greater than 0" })
+    .max(100, { error: "must be at most 100 (a course limit only gets stricter)" });
 
-/** Limits stricter than the arm's own. Scales multiply the arm's limits; per-joint caps replace them where lower. */
+/** Limits stricter than the arm's own. Percentages scale the arm's limits; per-joint caps replace them where lower. */
 export const limitsSchema = z
   .object({
-    /** e.g. 0.7 = 70% of each joint's maximum speed. */
-    velocityScale: ratio().optional(),
-    accelerationScale: ratio().optional(),
+    /** e.g. 70 = 70% of each joint's maximum speed. */
+    speedPercent: percent().optional(),
+    /** e.g. 50 = 50% of each joint's maximum acceleration. */
+    accelPercent: percent().optional(),
     joints: z
       .array(
         z

@@ -72,7 +72,7 @@ export async function courseWithAssignment(
     userId: instructorId,
     title: "Robot Motion I",
     term: "Autumn",
-    limits: { velocityScale: 0.7 },
+    limits: { speedPercent: 70 },
   });
   for (const id of studentIds) await enrolStudent({ courseId: course.id, userId: id });
   const revision = await demoArmRevision();

@@ -347,8 +347,8 @@ describe("course routes: bad input", () => {
       handler: coursesRoute.POST,
       path: () => "/api/v1/courses",
       params: () => ({}),
-      body: { title: "x", term: "y", limits: { velocityScale: 1.5 } },
-      field: "limits.velocityScale",
+      body: { title: "x", term: "y", limits: { speedPercent: 150 } },
+      field: "limits.speedPercent",
     },
     {
       name: "course on an arm revision that is neither built in nor readable",

@@ -53,7 +53,7 @@ describe("course review flow", () => {
       method: "POST",
       path: "/api/v1/courses",
       auth: asInstructor,
-      body: { title: "Robot Motion I", term: "Autumn", limits: { velocityScale: 0.7 } },
+      body: { title: "Robot Motion I", term: "Autumn", limits: { speedPercent: 70 } },
     });
     expect(created.status).toBe(201);
     const course = (created.body as Body).course;

@@ -10,7 +10,7 @@ const arm: Arm = plan(1).arm;
 
 describe("tightenArm", () => {
   it("scales speed and acceleration and takes the strictest of several limits", () => {
-    const t = tightenArm(arm, { velocityScale: 0.7 }, { velocityScale: 0.5, joints: [{ joint: 0, maxVelocity: 1 }] });
+    const t = tightenArm(arm, { speedPercent: 70 }, { speedPercent: 50, joints: [{ joint: 0, maxVelocity: 1 }] });
     expect(t.joints[0].maxVelocity).toBeCloseTo(Math.min(arm.joints[0].maxVelocity * 0.7 * 0.5, 1), 12);
     expect(t.joints[1].maxVelocity).toBeCloseTo(arm.joints[1].maxVelocity * 0.35, 12);
     expect(t.joints[0].maxAcceleration).toBe(arm.joints[0].maxAcceleration);
@@ -25,7 +25,7 @@ describe("tightenArm", () => {
 
   it("leaves the input arm unchanged", () => {
     const before = JSON.stringify(arm);
-    tightenArm(arm, { velocityScale: 0.1 });
+    tightenArm(arm, { speedPercent: 10 });
     expect(JSON.stringify(arm)).toBe(before);
   });
 });
@@ -60,7 +60,7 @@ describe("checkAgainstAssignment", () => {
   it("passes on the arm's own limits but faults at 70% of them", () => {
     const rules = { requiredArmRevisionId: "rev", poseTolerance: 0.001 };
     expect(checkAgainstAssignment(plan(0.73), arm, "rev", rules).report.verdict).not.toBe("fault");
-    const strict = checkAgainstAssignment(plan(0.73), arm, "rev", { ...rules, courseLimits: { velocityScale: 0.7 } });
+    const strict = checkAgainstAssignment(plan(0.73), arm, "rev", { ...rules, courseLimits: { speedPercent: 70 } });
     expect(strict.report.verdict).toBe("fault");
     expect(strict.report.findings.find((f) => f.kind === "speed-over")?.limit).toBeCloseTo(
       arm.joints[0].maxVelocity * 0.7,

@@ -23,7 +23,7 @@ function assignment(overrides: Partial<BenchAssignment["rules"]> = {}): BenchAss
     rules: {
       requiredArmRevisionId: revision,
       poseTolerance: 0.01,
-      courseLimits: { velocityScale: 0.7 },
+      courseLimits: { speedPercent: 70 },
       limits: null,
       ...overrides,
     },
@@ -43,12 +43,12 @@ describe("the bench of an assignment's plan", () => {
 
   it("names each limit in words, in the form's unit", () => {
     const plan = demoPlan([]);
-    expect(limitLines("course", { velocityScale: 0.7 }, plan.arm.joints, "deg")).toEqual([
+    expect(limitLines("course", { speedPercent: 70 }, plan.arm.joints, "deg")).toEqual([
       "course limit: 70% of maximum speed",
     ]);
     const caps = limitLines(
       "assignment",
-      { accelerationScale: 0.5, joints: [{ joint: 1, max: Math.PI / 4 }] },
+      { accelPercent: 50, joints: [{ joint: 1, max: Math.PI / 4 }] },
       plan.arm.joints,
       "deg",
     );
