@@ -45,6 +45,7 @@ export * from "./check/effort";
 export * from "./check/clearance";
 export * from "./check/tool-speed";
 export * from "./check/safe-duration";
+export * from "./check/timing-sweep";
 export * from "./check/work";
 export * from "./arm/dynamics";
 export * from "./arm/clearance";

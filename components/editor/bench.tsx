@@ -14,7 +14,7 @@ import type { Arm, Report } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
 import { CartesianGoal } from "./cartesian-goal";
 import { MoveList } from "./move-list";
-import { homePose, poseBefore, poseOf, type BenchPlan } from "./plan-state";
+import { homePose, poseOf, type BenchPlan } from "./plan-state";
 import { PlayheadContext, usePlayhead } from "./playhead";
 import { PoseEditor } from "./pose-editor";
 import { Transport } from "./transport";
@@ -189,9 +189,8 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
               {selectedMove && selectedReport && selectedMove.duration > 0 ? (
                 <div className="mt-3">
                   <SweepChart
-                    shape={selectedMove.shape}
-                    delta={selectedMove.goal.map((g, j) => g - poseBefore(plan, selected as number)[j])}
-                    joints={checked.arm.joints}
+                    plan={checked}
+                    index={selected as number}
                     cautionRatio={plan.arm.cautionRatio}
                     minSafeS={selectedSafe}
                     currentS={selectedMove.duration}

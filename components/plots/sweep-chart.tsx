@@ -2,62 +2,36 @@
 import { useMemo } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
-import { type Joint, type ShapeName, timedPeaks, moveBlend, shapeId } from "@/kinematics";
+import { moveTimingSweep, type Plan } from "@/kinematics";
 
-export interface SweepPoint {
-  durationS: number;
-  /** Largest peak-to-limit ratio over the joints (speed and acceleration). */
-  ratio: number;
-}
-
-/**
- * The duration sweep of one move: for durations around its shortest safe duration, the worst joint's
- * peak-to-limit ratio (speed or acceleration, whichever is closer to its limit). Ratio 1 is the limit.
- */
-export function durationSweep(
-  shape: ShapeName,
-  delta: ArrayLike<number>,
-  joints: readonly Joint[],
-  fromS: number,
-  toS: number,
-  steps = 80,
-): SweepPoint[] {
-  const id = shapeId(shape);
-  const v = new Float64Array(joints.length);
-  const a = new Float64Array(joints.length);
-  const out: SweepPoint[] = [];
-  for (let k = 0; k <= steps; k++) {
-    const d = fromS + ((toS - fromS) * k) / steps;
-    if (!(d > 0)) continue;
-    timedPeaks(id, moveBlend(id, delta, d, joints), delta, d, v, a);
-    let ratio = 0;
-    joints.forEach((joint, j) => {
-      ratio = Math.max(ratio, v[j] / joint.maxVelocity);
-      if (joint.maxAcceleration !== undefined) ratio = Math.max(ratio, a[j] / joint.maxAcceleration);
-    });
-    out.push({ durationS: d, ratio });
-  }
-  return out;
-}
+/** Durations the chart evaluates (each one a peak evaluation of the move's path). */
+const sweepSteps = 48;
 
 export interface SweepChartProps {
-  shape: ShapeName;
-  delta: ArrayLike<number>;
-  joints: readonly Joint[];
+  /** The plan as it is checked (an assignment's tightened arm included). */
+  plan: Plan;
+  /** The move to sweep (0-based). */
+  index: number;
   cautionRatio: number;
   /** The report's shortest passing duration (every timing check); `null` when no duration passes. */
   minSafeS: number | null;
   currentS: number;
 }
 
-/** The sweep as a chart: ratio against duration, the limit and caution lines, the shortest safe and current durations marked. */
-export function SweepChart({ shape, delta, joints, cautionRatio, minSafeS, currentS }: SweepChartProps) {
+/**
+ * The duration sweep of one move as a chart: the engine's worst peak-to-limit ratio over every
+ * timing-dependent check (speed, acceleration, effort, tool speed) against duration, the limit and
+ * caution lines, the shortest safe and current durations marked. Ratio 1 is the limit.
+ */
+export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: SweepChartProps) {
   const data = useMemo(() => {
     const safe = minSafeS ?? currentS;
     const hi = Math.max(safe * 3, currentS * 1.2, 0.2);
     const lo = Math.max(safe * 0.5, 0.01);
-    return durationSweep(shape, delta, joints, lo, hi).map((p) => ({ d: p.durationS, r: Math.min(p.ratio, 2.5) }));
-  }, [shape, delta, joints, minSafeS, currentS]);
+    const durations = Array.from({ length: sweepSteps + 1 }, (_, k) => lo + ((hi - lo) * k) / sweepSteps);
+    return moveTimingSweep(plan, index, durations).map((p) => ({ d: p.durationS, r: Math.min(p.ratio, 2.5) }));
+  }, [plan, index, minSafeS, currentS]);
+  const checks = plan.arm.chain ? "speed, acceleration, effort, tool speed" : "speed and acceleration: no geometry";
   if (minSafeS === null) {
     return (
       <p className="text-xs text-fault" data-testid="sweep-no-duration">
@@ -69,10 +43,10 @@ export function SweepChart({ shape, delta, joints, cautionRatio, minSafeS, curre
     return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
   return (
     <figure
-      aria-label={`Duration sweep: worst joint's peak-to-limit ratio against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}
+      aria-label={`Duration sweep: worst peak-to-limit ratio of ${checks} against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}
     >
       <figcaption className="mb-1 flex justify-between text-[11px] text-ink-soft">
-        <span>Duration sweep (speed and acceleration, worst joint, peak ÷ limit)</span>
+        <span>Duration sweep (worst of {checks}; peak ÷ limit)</span>
         <span className="tabular font-mono">safe ≥ {minSafeS.toFixed(3)} s</span>
       </figcaption>
       <div className="h-32 w-full">

@@ -3,8 +3,7 @@ import { describe, expect, it } from "vitest";
 import { importPlanText } from "@/components/editor/import-dialog";
 import { planReducer } from "@/components/editor/plan-state";
 import { minMaxIndices, plotRateHz } from "@/components/plots/downsample";
-import { durationSweep } from "@/components/plots/sweep-chart";
-import { check, formatPath } from "@/kinematics";
+import { check, formatPath, moveTimingSweep } from "@/kinematics";
 import { demoPlan, pose } from "./helpers";
 
 describe("min–max downsampling for the plots", () => {
@@ -45,7 +44,8 @@ describe("duration sweep", () => {
     const plan = { ...withChain, arm: { ...withChain.arm, chain: undefined } };
     const safe = check(plan).moves[0].minSafeDuration as number;
     expect(safe).toBeGreaterThan(0);
-    const sweep = durationSweep("quintic", plan.moves[0].goal, plan.arm.joints, safe * 0.5, safe * 2, 300);
+    const durations = Array.from({ length: 301 }, (_, k) => safe * (0.5 + (1.5 * k) / 300));
+    const sweep = moveTimingSweep(plan, 0, durations);
     const below = sweep.filter((p) => p.durationS < safe * 0.999);
     const above = sweep.filter((p) => p.durationS > safe * 1.001);
     expect(below.every((p) => p.ratio > 1)).toBe(true);
