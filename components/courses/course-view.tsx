@@ -1,20 +1,28 @@
 "use client";
+import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useMemo, useState } from "react";
+import { useForm, useWatch } from "react-hook-form";
 import { useMutation, useQuery } from "@tanstack/react-query";
+import { z } from "zod";
 import { Button } from "@/components/ui/button";
+import { columnsFor, DataTable } from "@/components/ui/data-table";
+import { DateTime } from "@/components/ui/date-time";
 import { SelectField, TextAreaField, TextField } from "@/components/ui/field";
+import { applyApiIssues, apiIssues, fieldMessage, formFailure, numberOrEmpty } from "@/components/ui/form";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { api, ApiError } from "@/lib/client/api-client";
+import { api } from "@/lib/client/api-client";
 import type { CourseCapabilities } from "@/lib/server/permissions";
 import { queryKeys } from "@/lib/client/query-keys";
+import { createAssignmentSchema, inviteSchema, submitSchema } from "@/lib/shared/schemas/courses";
 
 export type ArmChoice = { revisionId: string; label: string };
 export type PlanChoice = {
   planId: string;
+  projectId: string;
   version: number;
   label: string;
   verdict: "pass" | "caution" | "fault" | null;
@@ -53,22 +61,12 @@ export interface CourseViewProps {
   plans: PlanChoice[];
 }
 
-function due(iso: string): string {
-  return (
-    new Date(iso).toLocaleString("en-GB", {
-      day: "numeric",
-      month: "short",
-      year: "numeric",
-      hour: "2-digit",
-      minute: "2-digit",
-      timeZone: "UTC",
-    }) + " UTC"
-  );
+/** The bench for a plan, checked against an assignment's rules. */
+export function benchHref(plan: Pick<PlanChoice, "projectId" | "planId">, assignmentId: string): string {
+  return `/projects/${plan.projectId}/plans/${plan.planId}?assignment=${encodeURIComponent(assignmentId)}`;
 }
 
-function fieldError(error: unknown, path: string): string | undefined {
-  return error instanceof ApiError ? error.issues.find((i) => i.path === path)?.message : undefined;
-}
+const choiceKey = (p: Pick<PlanChoice, "planId" | "version">) => `${p.planId}:${p.version}`;
 
 export function CourseView({ course, can, assignments, roster, arms, plans }: CourseViewProps) {
   const teaches = can.canReadAllSubmissions;
@@ -99,7 +97,7 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
                 <Th>Assignment</Th>
                 <Th>Due</Th>
                 {teaches ? null : <Th>Status</Th>}
-                {teaches ? <Th>Review</Th> : <Th>Submit a saved plan version</Th>}
+                {teaches ? <Th>Review</Th> : <Th>Preview and submit a saved plan version</Th>}
               </tr>
             </thead>
             <tbody>
@@ -108,8 +106,11 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
                   <Td>
                     <p className="font-medium">{a.title}</p>
                     {a.instructions ? <p className="max-w-md text-xs text-ink-soft">{a.instructions}</p> : null}
+                    {teaches ? <InstructorBenchLink assignmentId={a.id} plans={plans} /> : null}
                   </Td>
-                  <Td className="tabular text-xs whitespace-nowrap">{due(a.dueAt)}</Td>
+                  <Td className="text-xs whitespace-nowrap">
+                    <DateTime value={a.dueAt} className="tabular" />
+                  </Td>
                   {teaches ? (
                     <Td>
                       <Link className="text-brand-700 hover:underline" href={`/reviews?assignmentId=${a.id}`}>
@@ -151,11 +152,50 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
   );
 }
 
+/** An instructor tries an assignment's rules on one of their own plans. */
+function InstructorBenchLink({ assignmentId, plans }: { assignmentId: string; plans: PlanChoice[] }) {
+  const first = plans[0];
+  if (!first) return null;
+  return (
+    <p className="mt-1 text-xs">
+      <Link className="text-brand-700 hover:underline" href={benchHref(first, assignmentId)}>
+        Open the bench for this assignment
+      </Link>{" "}
+      <span className="text-ink-faint">with {first.label}</span>
+    </p>
+  );
+}
+
+/** The form's text box, read into the API's list of addresses. */
+function splitAddresses(value: unknown): string[] {
+  if (Array.isArray(value)) return value.map(String);
+  return String(value ?? "")
+    .split(/[\s,;]+/)
+    .filter(Boolean);
+}
+
 function InstructorTools({ course, can }: { course: CourseViewProps["course"]; can: CourseCapabilities }) {
-  const [emails, setEmails] = useState("");
-  const invite = useMutation({
-    mutationFn: () => api.inviteToCourse(course.id, { emails: emails.split(/[\s,;]+/).filter(Boolean) }),
+  const [failure, setFailure] = useState<string | undefined>();
+  const [queued, setQueued] = useState<number | null>(null);
+  const form = useForm({ resolver: zodResolver(inviteSchema), defaultValues: { emails: [] as string[] } });
+  const { errors, isSubmitting } = form.formState;
+  const onSubmit = form.handleSubmit(async (body) => {
+    setFailure(undefined);
+    setQueued(null);
+    try {
+      const r = await api.inviteToCourse(course.id, body);
+      setQueued(r.invited.length);
+      form.reset({ emails: [] });
+    } catch (error) {
+      setFailure(formFailure(error, applyApiIssues(apiIssues(error), form.setError, ["emails"])));
+    }
   });
+  const typed = splitAddresses(useWatch({ control: form.control, name: "emails" }));
+  const badIndex = Array.isArray(errors.emails) ? errors.emails.findIndex((e) => e?.message) : -1;
+  const addressError =
+    badIndex >= 0 && Array.isArray(errors.emails)
+      ? `Address ${badIndex + 1}${typed[badIndex] ? ` (${typed[badIndex]})` : ""} ${errors.emails[badIndex]?.message}.`
+      : fieldMessage("The address list", errors.emails as Parameters<typeof fieldMessage>[1]);
   return (
     <div className="mt-5 grid gap-4 md:grid-cols-2">
       <Panel className="p-4">
@@ -175,41 +215,38 @@ function InstructorTools({ course, can }: { course: CourseViewProps["course"]; c
         ) : null}
       </Panel>
       <Panel className="p-4">
-        <form
-          onSubmit={(e) => {
-            e.preventDefault();
-            invite.mutate();
-          }}
-          className="flex flex-col gap-3"
-        >
+        <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3" aria-label="Invite by e-mail">
           <h2 className="font-semibold">Invite by e-mail</h2>
           <TextAreaField
             label="Addresses"
             rows={3}
-            value={emails}
-            onChange={(e) => setEmails(e.target.value)}
             hint="One or more, separated by spaces, commas or new lines."
+            error={addressError}
+            {...form.register("emails", { setValueAs: splitAddresses })}
           />
-          <Button type="submit" variant="primary" disabled={invite.isPending || !emails.trim()}>
-            Send invitations
+          <Button type="submit" variant="primary" disabled={isSubmitting}>
+            {isSubmitting ? "Sending…" : "Send invitations"}
           </Button>
-          {invite.isSuccess ? (
+          {queued !== null ? (
             <p role="status" className="text-sm text-pass">
-              Queued {invite.data.invited.length} invitation{invite.data.invited.length === 1 ? "" : "s"}.
+              Queued {queued} invitation{queued === 1 ? "" : "s"}.
             </p>
           ) : null}
-          {invite.error ? (
-            <ErrorNote>
-              {invite.error instanceof ApiError && invite.error.issues[0]
-                ? `${invite.error.issues[0].path}: ${invite.error.issues[0].message}`
-                : invite.error.message}
-            </ErrorNote>
-          ) : null}
+          {failure ? <ErrorNote title="No invitations were sent">{failure}</ErrorNote> : null}
         </form>
       </Panel>
     </div>
   );
 }
+
+/** The chosen plan version as the select holds it, read into the API's body. */
+const submitFormSchema = z
+  .object({ choice: z.string().min(1, { error: "is required" }) })
+  .transform(({ choice }) => {
+    const [planId, version] = choice.split(":");
+    return { planId, versionNumber: Number(version) };
+  })
+  .pipe(submitSchema);
 
 function SubmitForm({
   assignmentId,
@@ -221,13 +258,24 @@ function SubmitForm({
   disabled: boolean;
 }) {
   const router = useRouter();
-  const [choice, setChoice] = useState(plans[0] ? `${plans[0].planId}:${plans[0].version}` : "");
+  const [failure, setFailure] = useState<string | undefined>();
   const submit = useMutation({
-    mutationFn: () => {
-      const [planId, version] = choice.split(":");
-      return api.submit(assignmentId, { planId, versionNumber: Number(version) });
-    },
+    mutationFn: (body: z.output<typeof submitFormSchema>) => api.submit(assignmentId, body),
     onSuccess: () => router.refresh(),
+  });
+  const form = useForm({
+    resolver: zodResolver(submitFormSchema),
+    defaultValues: { choice: plans[0] ? choiceKey(plans[0]) : "" },
+  });
+  const choice = useWatch({ control: form.control, name: "choice" });
+  const chosen = useMemo(() => plans.find((p) => choiceKey(p) === choice), [plans, choice]);
+  const onSubmit = form.handleSubmit(async (body) => {
+    setFailure(undefined);
+    try {
+      await submit.mutateAsync(body);
+    } catch (error) {
+      setFailure(formFailure(error, applyApiIssues(apiIssues(error), form.setError, [])));
+    }
   });
   if (plans.length === 0)
     return (
@@ -236,30 +284,41 @@ function SubmitForm({
       </p>
     );
   return (
-    <form
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit.mutate();
-      }}
-      className="flex flex-wrap items-end gap-2"
-    >
-      <SelectField
-        label="Plan version"
-        hideLabel
-        value={choice}
-        onChange={(e) => setChoice(e.target.value)}
-        fieldClassName="w-72"
-        disabled={disabled}
-      >
-        {plans.map((p) => (
-          <option key={`${p.planId}:${p.version}`} value={`${p.planId}:${p.version}`}>
-            {p.label}
-          </option>
-        ))}
-      </SelectField>
-      <Button type="submit" variant="primary" size="sm" disabled={disabled || submit.isPending}>
-        Submit
-      </Button>
+    <form onSubmit={onSubmit} noValidate className="flex max-w-xl flex-col gap-2">
+      <div className="flex flex-wrap items-end gap-2">
+        <SelectField
+          label="Plan version"
+          hideLabel
+          fieldClassName="w-72"
+          disabled={disabled}
+          error={fieldMessage("The plan version", form.formState.errors.choice)}
+          {...form.register("choice")}
+        >
+          {plans.map((p) => (
+            <option key={choiceKey(p)} value={choiceKey(p)}>
+              {p.label}
+            </option>
+          ))}
+        </SelectField>
+        <Button type="submit" variant="primary" size="sm" disabled={disabled || submit.isPending}>
+          Submit
+        </Button>
+      </div>
+      {chosen ? (
+        <p className="flex flex-wrap items-center gap-1.5 text-xs text-ink-soft" data-testid="submit-preview">
+          {chosen.verdict ? (
+            <>
+              Saved check on the arm&apos;s own limits: <VerdictChip size="sm" verdict={chosen.verdict} />
+            </>
+          ) : (
+            <>This version has no saved check.</>
+          )}
+          <span>The assignment&apos;s limits may be stricter:</span>
+          <Link className="text-brand-700 hover:underline" href={benchHref(chosen, assignmentId)}>
+            preview it on the bench with this assignment&apos;s rules
+          </Link>
+        </p>
+      ) : null}
       {submit.data ? (
         <span role="status" className="flex items-center gap-1 text-xs">
           <VerdictChip size="sm" verdict={submit.data.submission.verdict} /> attempt {submit.data.submission.attempt}
@@ -268,18 +327,32 @@ function SubmitForm({
             : ""}
         </span>
       ) : null}
-      {submit.error ? <ErrorNote>{submit.error.message}</ErrorNote> : null}
+      {failure ? <ErrorNote title="Not submitted">{failure}</ErrorNote> : null}
     </form>
   );
 }
 
+/** `datetime-local` text, read as UTC (the field says so), into the API's ISO 8601 form. */
+function utcIso(value: unknown): string {
+  const text = String(value ?? "").trim();
+  if (!text) return "";
+  const date = new Date(`${text}Z`);
+  return Number.isNaN(date.getTime()) ? text : date.toISOString();
+}
+
+const assignmentFields = [
+  "title",
+  "dueAt",
+  "requiredArmRevisionId",
+  "limits.speedPercent",
+  "instructions",
+  "requiredStart",
+  "requiredGoals",
+] as const;
+
 function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmChoice[]; plans: PlanChoice[] }) {
   const router = useRouter();
-  const [title, setTitle] = useState("");
-  const [instructions, setInstructions] = useState("");
-  const [dueAt, setDueAt] = useState("");
-  const [arm, setArm] = useState(arms[0]?.revisionId ?? "");
-  const [speed, setSpeed] = useState("");
+  const [failure, setFailure] = useState<string | undefined>();
   const [posesFrom, setPosesFrom] = useState("");
   // The required start and goal poses, copied from one of the instructor's saved plan versions.
   const [posesPlanId, posesVersion] = posesFrom.split(":");
@@ -292,50 +365,43 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
       return { start: doc.start, goals: doc.moves.map((m) => m.goal), armRevisionId: v.armRevisionId };
     },
   });
-  const create = useMutation({
-    mutationFn: () => {
-      const pct = Number(speed);
-      return api.createAssignment(courseId, {
-        title,
-        instructions,
-        dueAt: dueAt ? new Date(`${dueAt}Z`).toISOString() : "",
-        requiredArmRevisionId: arm,
-        // sent as typed: the API refuses a value outside 0–100 under this field rather than dropping it
-        ...(speed.trim() ? { limits: { speedPercent: pct } } : {}),
+  const form = useForm({
+    resolver: zodResolver(createAssignmentSchema),
+    defaultValues: { title: "", instructions: "", dueAt: "", requiredArmRevisionId: arms[0]?.revisionId ?? "" },
+  });
+  const { errors, isSubmitting } = form.formState;
+  const arm = useWatch({ control: form.control, name: "requiredArmRevisionId" });
+  const onSubmit = form.handleSubmit(async (body) => {
+    setFailure(undefined);
+    try {
+      await api.createAssignment(courseId, {
+        ...body,
         ...(posesFrom && poses.data ? { requiredStart: poses.data.start, requiredGoals: poses.data.goals } : {}),
       });
-    },
-    onSuccess: () => {
-      setTitle("");
-      setInstructions("");
+      form.reset();
       setPosesFrom("");
       router.refresh();
-    },
+    } catch (error) {
+      setFailure(formFailure(error, applyApiIssues(apiIssues(error), form.setError, assignmentFields)));
+    }
   });
+  const poseError = errors.requiredStart ?? errors.requiredGoals;
   return (
     <Panel className="mt-4 p-4">
-      <form
-        onSubmit={(e) => {
-          e.preventDefault();
-          create.mutate();
-        }}
-        className="grid gap-3 md:grid-cols-2"
-      >
+      <form onSubmit={onSubmit} noValidate className="grid gap-3 md:grid-cols-2" aria-label="New assignment">
         <h2 className="font-semibold md:col-span-2">New assignment</h2>
-        <TextField
-          label="Title"
-          value={title}
-          onChange={(e) => setTitle(e.target.value)}
-          error={fieldError(create.error, "title")}
-        />
+        <TextField label="Title" error={fieldMessage("The title", errors.title)} {...form.register("title")} />
         <TextField
           label="Due (UTC)"
           type="datetime-local"
-          value={dueAt}
-          onChange={(e) => setDueAt(e.target.value)}
-          error={fieldError(create.error, "dueAt")}
+          error={fieldMessage("The due date", errors.dueAt)}
+          {...form.register("dueAt", { setValueAs: utcIso })}
         />
-        <SelectField label="Required arm" value={arm} onChange={(e) => setArm(e.target.value)}>
+        <SelectField
+          label="Required arm"
+          error={fieldMessage("The required arm", errors.requiredArmRevisionId)}
+          {...form.register("requiredArmRevisionId")}
+        >
           {arms.map((a) => (
             <option key={a.revisionId} value={a.revisionId}>
               {a.label}
@@ -344,10 +410,10 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
         </SelectField>
         <TextField
           label="Speed limit (% of maximum, optional)"
-          inputMode="numeric"
-          value={speed}
-          onChange={(e) => setSpeed(e.target.value)}
+          inputMode="decimal"
           hint="Applies on top of the course's limit; the stricter wins."
+          error={fieldMessage("The speed limit", errors.limits?.speedPercent)}
+          {...form.register("limits.speedPercent", { setValueAs: numberOrEmpty })}
         />
         <SelectField
           label="Required start and goal poses (optional)"
@@ -359,11 +425,15 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
               ? `Students must start at this plan's start pose and reach its ${poses.data.goals.length} goal pose${poses.data.goals.length === 1 ? "" : "s"} in order.${arms.some((a) => a.revisionId === poses.data.armRevisionId) && poses.data.armRevisionId !== arm ? " That plan was saved for another arm revision than the one selected." : ""}`
               : "Copy them from one of your saved plan versions; leave empty to accept any poses."
           }
-          error={poses.error ? poses.error.message : undefined}
+          error={
+            poses.error
+              ? `The poses could not be read: ${poses.error.message}`
+              : fieldMessage("The required poses", poseError as Parameters<typeof fieldMessage>[1])
+          }
         >
           <option value="">Any poses</option>
           {plans.map((p) => (
-            <option key={`${p.planId}:${p.version}`} value={`${p.planId}:${p.version}`}>
+            <option key={choiceKey(p)} value={choiceKey(p)}>
               {p.label}
             </option>
           ))}
@@ -371,17 +441,17 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
         <TextAreaField
           label="Instructions"
           rows={3}
-          value={instructions}
-          onChange={(e) => setInstructions(e.target.value)}
           fieldClassName="md:col-span-2"
+          error={fieldMessage("The instructions", errors.instructions)}
+          {...form.register("instructions")}
         />
         <div className="md:col-span-2">
-          <Button type="submit" variant="primary" disabled={create.isPending || (posesFrom !== "" && !poses.data)}>
-            Set assignment
+          <Button type="submit" variant="primary" disabled={isSubmitting || (posesFrom !== "" && !poses.data)}>
+            {isSubmitting ? "Setting…" : "Set assignment"}
           </Button>
-          {create.error && !fieldError(create.error, "title") && !fieldError(create.error, "dueAt") ? (
+          {failure ? (
             <div className="mt-2">
-              <ErrorNote>{create.error.message}</ErrorNote>
+              <ErrorNote title="The assignment was not set">{failure}</ErrorNote>
             </div>
           ) : null}
         </div>
@@ -390,66 +460,79 @@ function NewAssignment({ courseId, arms, plans }: { courseId: string; arms: ArmC
   );
 }
 
-function Roster({
-  courseId,
-  roster,
-  canManage,
-}: {
-  courseId: string;
-  roster: CourseViewProps["roster"];
-  canManage: boolean;
-}) {
+type RosterRow = CourseViewProps["roster"][number];
+const rosterCol = columnsFor<RosterRow>();
+
+function Roster({ courseId, roster, canManage }: { courseId: string; roster: RosterRow[]; canManage: boolean }) {
   const router = useRouter();
+  const [filter, setFilter] = useState("");
   const remove = useMutation({
     mutationFn: (userId: string) => api.removeStudent(courseId, userId),
     onSuccess: () => router.refresh(),
   });
+  const columns = useMemo(
+    () =>
+      rosterCol.columns([
+        rosterCol.accessor("name", { header: "Name", sortFn: "text" }),
+        rosterCol.accessor("email", { header: "E-mail", sortFn: "text", meta: { cellClassName: "text-xs" } }),
+        rosterCol.accessor("role", { header: "Role", sortFn: "text" }),
+        rosterCol.accessor("joinedAt", {
+          header: "Joined",
+          sortFn: "basic",
+          enableGlobalFilter: false,
+          meta: { cellClassName: "tabular text-xs text-ink-soft whitespace-nowrap" },
+          cell: (c) => <DateTime value={c.getValue()} />,
+        }),
+        rosterCol.display({
+          id: "actions",
+          header: () => <span className="sr-only">Actions</span>,
+          cell: (c) => {
+            const r = c.row.original;
+            return canManage && r.role === "student" ? (
+              <Button
+                size="sm"
+                variant="danger"
+                disabled={remove.isPending}
+                onClick={() => {
+                  if (window.confirm(`Remove ${r.name} from the course? Their submissions stay on record.`))
+                    remove.mutate(r.userId);
+                }}
+              >
+                Remove
+              </Button>
+            ) : null;
+          },
+        }),
+      ]),
+    [canManage, remove],
+  );
   return (
     <>
       <h2 className="mt-8 text-lg font-semibold">Roster</h2>
       <Panel className="mt-2 overflow-x-auto">
-        <Table aria-label="Roster">
-          <thead>
-            <tr>
-              <Th>Name</Th>
-              <Th>E-mail</Th>
-              <Th>Role</Th>
-              <Th>Joined</Th>
-              <Th>
-                <span className="sr-only">Actions</span>
-              </Th>
-            </tr>
-          </thead>
-          <tbody>
-            {roster.map((r) => (
-              <tr key={r.userId}>
-                <Td>{r.name}</Td>
-                <Td className="text-xs">{r.email}</Td>
-                <Td>{r.role}</Td>
-                <Td className="tabular text-xs">{due(r.joinedAt)}</Td>
-                <Td>
-                  {canManage && r.role === "student" ? (
-                    <Button
-                      size="sm"
-                      variant="danger"
-                      disabled={remove.isPending}
-                      onClick={() => {
-                        if (window.confirm(`Remove ${r.name} from the course? Their submissions stay on record.`))
-                          remove.mutate(r.userId);
-                      }}
-                    >
-                      Remove
-                    </Button>
-                  ) : null}
-                </Td>
-              </tr>
-            ))}
-          </tbody>
-        </Table>
+        <div className="px-3 pt-3 pb-2">
+          <TextField
+            label="Filter the roster"
+            type="search"
+            placeholder="Name, e-mail or role"
+            fieldClassName="w-64"
+            value={filter}
+            onChange={(e) => setFilter(e.target.value)}
+          />
+        </div>
+        <DataTable
+          label="Roster"
+          data={roster}
+          columns={columns}
+          getRowId={(r) => r.userId}
+          filter={filter}
+          initialSorting={[{ id: "name", desc: false }]}
+          testId="roster-table"
+        />
       </Panel>
       {remove.error ? (
         <div className="mt-2">
-          <ErrorNote>{remove.error.message}</ErrorNote>
+          <ErrorNote title="Not removed">{remove.error.message}</ErrorNote>
         </div>
       ) : null}
     </>

@@ -84,3 +84,19 @@ export function formFailure(error: unknown, rest: readonly FieldIssue[]): string
     return "The request failed before the server answered. Check your connection and try again.";
   return undefined;
 }
+
+/**
+ * `setValueAs` for a number typed into a text field: empty means "not given" (undefined), anything
+ * else is read as typed, so the schema refuses "abc" or 150 under the field instead of dropping it.
+ */
+export function numberOrEmpty(value: unknown): number | undefined {
+  if (value === null || value === undefined) return undefined;
+  if (typeof value === "number") return value;
+  const text = String(value).trim();
+  return text === "" ? undefined : Number(text);
+}
+
+/** `setValueAs` for an optional choice: the empty option means "not given". */
+export function textOrEmpty(value: unknown): string | undefined {
+  return value === null || value === undefined || value === "" ? undefined : String(value);
+}

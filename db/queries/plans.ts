@@ -308,6 +308,7 @@ export async function getVersionForSubmission({
 
 export type SubmittablePlan = {
   planId: string;
+  projectId: string;
   planName: string;
   projectName: string;
   version: number;
@@ -322,6 +323,7 @@ export async function listSubmittablePlans({ userId }: { userId: string }): Prom
   return db
     .select({
       planId: plans.id,
+      projectId: plans.projectId,
       planName: plans.name,
       projectName: projects.name,
       version: planVersions.number,

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { WRONG_CREDENTIALS } from "./messages";
 import { SignInForm } from "./sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
@@ -18,7 +19,7 @@ export default async function SignInPage({
       <p className="mt-2 text-sm text-ink-soft">Use the e-mail and password of your Jointproof account.</p>
       <SignInForm
         next={next}
-        initialError={error && error !== "CredentialsSignin" ? error : error ? "E-mail or password is wrong." : null}
+        initialError={error && error !== "CredentialsSignin" ? error : error ? WRONG_CREDENTIALS : null}
       />
       <p className="mt-4 text-sm">
         <Link

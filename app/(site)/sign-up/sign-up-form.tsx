@@ -1,140 +1,99 @@
 "use client";
 
+import { zodResolver } from "@hookform/resolvers/zod";
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { Button } from "@/components/ui/button";
+import { TextField } from "@/components/ui/field";
+import { applyApiIssues, apiIssues, fieldMessage, formFailure } from "@/components/ui/form";
+import { ErrorNote } from "@/components/ui/panel";
+import { request } from "@/lib/client/api-client";
 import { signUpSchema } from "@/lib/shared/schemas/auth";
 
-type FieldErrors = Partial<Record<"email" | "name" | "password" | "siteRole" | "form", string>>;
-
-const inputClass =
-  "mt-1 block w-full rounded border border-line bg-panel px-3 py-2 text-ink focus:border-brand-500 focus:outline-none focus:ring-2 focus:ring-brand-100";
+const fields = ["email", "name", "password", "siteRole"] as const;
 
 export function SignUpForm() {
   const router = useRouter();
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const [pending, setPending] = useState(false);
+  const [failure, setFailure] = useState<string | undefined>();
   const [notice, setNotice] = useState<string | null>(null);
+  const form = useForm({
+    resolver: zodResolver(signUpSchema),
+    defaultValues: { email: "", name: "", password: "", siteRole: "student" as const },
+  });
+  const { errors, isSubmitting } = form.formState;
 
-  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    const input = {
-      email: form.get("email"),
-      name: form.get("name"),
-      password: form.get("password"),
-      siteRole: form.get("siteRole"),
-    };
-    const parsed = signUpSchema.safeParse(input);
-    if (!parsed.success) {
-      const next: FieldErrors = {};
-      for (const issue of parsed.error.issues)
-        next[(issue.path[0] as keyof FieldErrors) ?? "form"] ??= `${String(issue.path[0])} ${issue.message}`;
-      setErrors(next);
-      return;
-    }
-    setPending(true);
-    setErrors({});
-    const res = await fetch("/api/v1/accounts", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify(parsed.data),
-    });
-    if (!res.ok) {
-      const body = (await res.json().catch(() => null)) as {
-        error?: { message?: string; issues?: { path: string; message: string }[] };
-      } | null;
-      const next: FieldErrors = { form: body?.error?.message ?? "The account could not be created." };
-      for (const issue of body?.error?.issues ?? [])
-        next[issue.path as keyof FieldErrors] = `${issue.path} ${issue.message}`;
-      setErrors(next);
-      setPending(false);
+  const onSubmit = form.handleSubmit(async (body) => {
+    setFailure(undefined);
+    setNotice(null);
+    try {
+      await request("/api/v1/accounts", { method: "POST", body: JSON.stringify(body) });
+    } catch (error) {
+      setFailure(formFailure(error, applyApiIssues(apiIssues(error), form.setError, fields)));
       return;
     }
     // The answer is the same for a new and an existing address; signing in tells the owner of a new account apart.
-    const signedIn = await signIn("credentials", {
-      email: parsed.data.email,
-      password: parsed.data.password,
-      redirect: false,
-    });
+    const signedIn = await signIn("credentials", { email: body.email, password: body.password, redirect: false });
     if (signedIn?.ok && !signedIn.error) {
       router.push("/projects");
       router.refresh();
       return;
     }
     setNotice(
-      `We sent a message to ${parsed.data.email}. If this address already has an account, sign in or reset its password instead.`,
+      `We sent a message to ${body.email}. If this address already has an account, sign in or reset its password instead.`,
     );
-    setPending(false);
-  }
-
-  const fieldError = (key: keyof FieldErrors) =>
-    errors[key] ? (
-      <span className="mt-1 block text-xs font-normal text-fault" id={`${key}-error`}>
-        {errors[key]}
-      </span>
-    ) : null;
+  });
 
   return (
-    <form onSubmit={onSubmit} className="mt-8 space-y-4" noValidate>
-      <label className="block text-sm font-medium text-ink">
-        Name
-        <input name="name" autoComplete="name" required className={inputClass} aria-describedby="name-error" />
-        {fieldError("name")}
-      </label>
-      <label className="block text-sm font-medium text-ink">
-        E-mail
-        <input
-          name="email"
-          type="email"
-          autoComplete="email"
-          required
-          className={inputClass}
-          aria-describedby="email-error"
-        />
-        {fieldError("email")}
-      </label>
-      <label className="block text-sm font-medium text-ink">
-        Password <span className="font-normal text-ink-faint">(at least 10 characters)</span>
-        <input
-          name="password"
-          type="password"
-          autoComplete="new-password"
-          required
-          minLength={10}
-          className={inputClass}
-          aria-describedby="password-error"
-        />
-        {fieldError("password")}
-      </label>
+    <form onSubmit={onSubmit} className="mt-8 space-y-4" noValidate aria-label="Create an account">
+      <TextField
+        label="Name"
+        autoComplete="name"
+        required
+        error={fieldMessage("Name", errors.name)}
+        {...form.register("name")}
+      />
+      <TextField
+        label="E-mail"
+        type="email"
+        autoComplete="email"
+        required
+        error={fieldMessage("E-mail", errors.email)}
+        {...form.register("email")}
+      />
+      <TextField
+        label="Password"
+        type="password"
+        autoComplete="new-password"
+        required
+        hint="At least 10 characters."
+        error={fieldMessage("The password", errors.password)}
+        {...form.register("password")}
+      />
       <fieldset className="text-sm text-ink">
-        <legend className="font-medium">I am a</legend>
+        <legend className="text-xs font-medium text-ink-soft">I am a</legend>
         <div className="mt-1 flex gap-5">
           <label className="flex items-center gap-2">
-            <input type="radio" name="siteRole" value="student" defaultChecked /> student
+            <input type="radio" value="student" {...form.register("siteRole")} /> student
           </label>
           <label className="flex items-center gap-2">
-            <input type="radio" name="siteRole" value="researcher" /> researcher
+            <input type="radio" value="researcher" {...form.register("siteRole")} /> researcher
           </label>
         </div>
+        {errors.siteRole ? (
+          <p className="mt-1 text-xs text-fault">{fieldMessage("The role", errors.siteRole)}</p>
+        ) : null}
       </fieldset>
       {notice ? (
-        <p role="status" className="rounded border border-line bg-panel px-3 py-2 text-sm text-ink">
+        <p role="status" className="rounded-md border border-line bg-panel px-3 py-2 text-sm text-ink">
           {notice}
         </p>
       ) : null}
-      {errors.form ? (
-        <p role="alert" className="rounded border border-fault/30 bg-fault-tint px-3 py-2 text-sm text-fault">
-          {errors.form}
-        </p>
-      ) : null}
-      <button
-        type="submit"
-        disabled={pending}
-        className="w-full rounded bg-brand-600 px-4 py-2 text-sm font-medium text-white hover:bg-brand-700 disabled:opacity-60"
-      >
-        {pending ? "Creating…" : "Create account"}
-      </button>
+      {failure ? <ErrorNote title="The account was not created">{failure}</ErrorNote> : null}
+      <Button type="submit" variant="primary" disabled={isSubmitting} className="w-full">
+        {isSubmitting ? "Creating…" : "Create account"}
+      </Button>
     </form>
   );
 }

@@ -30,6 +30,7 @@ export default async function CoursePage({ params }: { params: Promise<{ courseI
   // instructors may copy an assignment's poses from one of their own.
   const plans: PlanChoice[] = (await listSubmittablePlans({ userId: actor.userId })).map((p) => ({
     planId: p.planId,
+    projectId: p.projectId,
     version: p.version,
     label: `${p.projectName} / ${p.planName} · version ${p.version}`,
     verdict: p.verdict,
