@@ -1,22 +1,28 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
-import { useState } from "react";
+import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
+import { columnsFor, DataTable } from "@/components/ui/data-table";
+import { DateTime } from "@/components/ui/date-time";
 import { Dialog } from "@/components/ui/dialog";
+import { TextField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
 import { LoadingBlock } from "@/components/ui/skeleton";
-import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
-import { api } from "@/lib/client/api-client";
+import { api, type VersionDto } from "@/lib/client/api-client";
 import type { Change } from "@/lib/shared/plan-diff";
 import { queryKeys } from "@/lib/client/query-keys";
 
-/** "moves[2].duration" → "move 2 duration"; values shortened for reading. */
-function describeChange(c: Change): string {
+/**
+ * `moves[2].duration` → "Move 3 duration": people count moves from 1, and a joint is named by its
+ * name when the caller knows the arm's joints ("goal shoulder"), else counted from 1 too.
+ */
+export function describeChange(c: Change, jointNames: readonly string[] = []): string {
+  const joint = (i: string) => jointNames[Number(i)] ?? `joint ${Number(i) + 1}`;
   const where = c.path
-    .replace(/^moves\[(\d+)\]\.?/, "move $1 ")
-    .replace(/^start\[(\d+)\]/, "start pose joint $1")
-    .replace(/\.goal\[(\d+)\]|goal\[(\d+)\]/, "goal joint $1$2")
+    .replace(/^moves\[(\d+)\]\.?/, (_, i: string) => `Move ${Number(i) + 1} `)
+    .replace(/^start\[(\d+)\]/, (_, i: string) => `start pose ${joint(i)}`)
+    .replace(/\.?goal\[(\d+)\]/, (_, i: string) => `goal ${joint(i)}`)
     .trim();
   const fmt = (v: unknown) =>
     typeof v === "number" ? String(Number(v.toPrecision(5))) : JSON.stringify(v)?.slice(0, 40);
@@ -25,15 +31,20 @@ function describeChange(c: Change): string {
   return `${where}: ${fmt(c.from)} → ${fmt(c.to)}`;
 }
 
+const col = columnsFor<VersionDto>();
+
 /** The plan's versions with verdict and author; pick two to compare, or load one into the bench. */
 export function VersionsDialog({
   planId,
   onClose,
   onLoad,
+  jointNames,
 }: {
   planId: string;
   onClose: () => void;
   onLoad: (n: number) => void;
+  /** The arm's joint names, so a change reads "goal shoulder" rather than a number. */
+  jointNames?: readonly string[];
 }) {
   const versions = useQuery({ queryKey: queryKeys.versions(planId), queryFn: () => api.listVersions(planId) });
   const [picked, setPicked] = useState<number[]>([]);
@@ -43,6 +54,60 @@ export function VersionsDialog({
     queryFn: () => api.diff(planId, a, b),
     enabled: picked.length === 2,
   });
+  const [filter, setFilter] = useState("");
+  const columns = useMemo(
+    () =>
+      col.columns([
+        col.display({
+          id: "compare",
+          header: () => <span className="sr-only">Compare</span>,
+          meta: { headerClassName: "w-8" },
+          cell: (c) => {
+            const n = c.row.original.number;
+            return (
+              <input
+                type="checkbox"
+                aria-label={`Compare version ${n}`}
+                className="accent-brand-600"
+                checked={picked.includes(n)}
+                onChange={(e) => setPicked((p) => (e.target.checked ? [...p, n].slice(-2) : p.filter((x) => x !== n)))}
+              />
+            );
+          },
+        }),
+        col.accessor("number", { header: "Version", sortFn: "basic", meta: { numeric: true } }),
+        col.accessor("verdict", {
+          header: "Verdict",
+          sortFn: "text",
+          cell: (c) => <VerdictChip verdict={c.getValue()} size="sm" />,
+        }),
+        col.accessor("authorName", { header: "Author", sortFn: "text", meta: { cellClassName: "text-xs" } }),
+        col.accessor((v) => v.note ?? "", {
+          id: "note",
+          header: "Note",
+          enableSorting: false,
+          meta: { cellClassName: "max-w-56 truncate text-xs text-ink-soft" },
+          cell: (c) => <span title={c.getValue()}>{c.getValue() || "—"}</span>,
+        }),
+        col.accessor("createdAt", {
+          header: "Saved",
+          sortFn: "basic",
+          enableGlobalFilter: false,
+          meta: { cellClassName: "tabular text-xs text-ink-soft whitespace-nowrap" },
+          cell: (c) => <DateTime value={c.getValue()} />,
+        }),
+        col.display({
+          id: "actions",
+          header: () => <span className="sr-only">Actions</span>,
+          cell: (c) => (
+            <Button size="sm" variant="ghost" onClick={() => onLoad(c.row.original.number)}>
+              Load
+            </Button>
+          ),
+        }),
+      ]),
+    [picked, onLoad],
+  );
   return (
     <Dialog
       open
@@ -56,58 +121,26 @@ export function VersionsDialog({
       {versions.data ? (
         <>
           <p className="mb-2 text-xs text-ink-soft">Tick two versions to compare them.</p>
-          <Table aria-label="Saved versions">
-            <thead>
-              <tr>
-                <Th className="w-8">
-                  <span className="sr-only">Compare</span>
-                </Th>
-                <Th numeric>Version</Th>
-                <Th>Verdict</Th>
-                <Th>Author</Th>
-                <Th>Note</Th>
-                <Th>Saved</Th>
-                <Th>
-                  <span className="sr-only">Actions</span>
-                </Th>
-              </tr>
-            </thead>
-            <tbody>
-              {versions.data.map((v) => (
-                <tr key={v.id}>
-                  <Td>
-                    <input
-                      type="checkbox"
-                      aria-label={`Compare version ${v.number}`}
-                      className="accent-brand-600"
-                      checked={picked.includes(v.number)}
-                      onChange={(e) =>
-                        setPicked((p) =>
-                          e.target.checked ? [...p, v.number].slice(-2) : p.filter((x) => x !== v.number),
-                        )
-                      }
-                    />
-                  </Td>
-                  <Td numeric>{v.number}</Td>
-                  <Td>
-                    <VerdictChip verdict={v.verdict} size="sm" />
-                  </Td>
-                  <Td className="text-xs">{v.authorName}</Td>
-                  <Td className="max-w-56 truncate text-xs text-ink-soft" title={v.note ?? ""}>
-                    {v.note ?? "—"}
-                  </Td>
-                  <Td className="tabular text-xs text-ink-soft">
-                    {new Date(v.createdAt).toISOString().slice(0, 16).replace("T", " ")} UTC
-                  </Td>
-                  <Td>
-                    <Button size="sm" variant="ghost" onClick={() => onLoad(v.number)}>
-                      Load
-                    </Button>
-                  </Td>
-                </tr>
-              ))}
-            </tbody>
-          </Table>
+          <div className="mb-2 flex flex-wrap items-end gap-3">
+            <TextField
+              label="Filter versions"
+              type="search"
+              placeholder="Author, note or verdict"
+              fieldClassName="w-64"
+              value={filter}
+              onChange={(e) => setFilter(e.target.value)}
+            />
+          </div>
+          <DataTable
+            label="Saved versions"
+            data={versions.data}
+            columns={columns}
+            getRowId={(v) => v.id}
+            filter={filter}
+            initialSorting={[{ id: "number", desc: true }]}
+            maxHeightPx={420}
+            testId="versions-table"
+          />
         </>
       ) : null}
       {picked.length === 2 ? (
@@ -131,7 +164,7 @@ export function VersionsDialog({
               ) : (
                 <ul className="tabular mt-2 max-h-48 overflow-auto font-mono text-xs">
                   {diff.data.changes.map((c, i) => (
-                    <li key={i}>{describeChange(c)}</li>
+                    <li key={i}>{describeChange(c, jointNames)}</li>
                   ))}
                 </ul>
               )}

@@ -1,6 +1,6 @@
 "use client";
 /**
- * A recording on the bench's terms: read a CSV log (with a progress bar), scan it against the chosen
+ * A recording on the bench's terms: read a recording CSV (with a progress bar), scan it against the chosen
  * arm in the browser (the engine's recording scan, as the API and the command line run it), repair it
  * by rate-limiting, compare both traces, and keep the result as a plan (waypoints with durations
  * lengthened where needed) or as a CSV file. State lives in one reducer (use-recording-session.ts).
@@ -43,8 +43,8 @@ export function RecordingsWorkbench({
     <div className="mx-auto max-w-7xl px-6 py-6">
       <h1 className="text-2xl font-semibold tracking-tight">Recordings</h1>
       <p className="text-sm text-ink-soft">
-        {projectName}: check a recorded joint log as if streamed to the controller sample by sample, repair it, and keep
-        it as a plan.
+        {projectName}: check a recording as if streamed to the controller frame by frame, repair it, and keep it as a
+        plan.
       </p>
 
       <div className="mt-5 grid gap-5 lg:grid-cols-[360px_1fr]">

@@ -1,15 +1,57 @@
 "use client";
 /** Choosing the arm and the file (or a stored recording), the reading progress and why a file was refused. */
+import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { SelectField } from "@/components/ui/field";
+import { columnsFor, DataTable } from "@/components/ui/data-table";
+import { DateTime } from "@/components/ui/date-time";
+import { SelectField, TextField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
+import type { RecordingDto } from "@/lib/client/api-client";
 import type { RecordingSessionApi } from "./use-recording-session";
 import type { RecordingArm } from "./recording-session";
+
+const col = columnsFor<RecordingDto>();
 
 export function SourcePanel({ session, arms }: { session: RecordingSessionApi; arms: RecordingArm[] }) {
   const { state, dispatch, chosen, storedList, read, openStored } = session;
   const joints = chosen?.arm.joints ?? [];
   const { progress, problems } = state;
+  const [filter, setFilter] = useState("");
+  const columns = useMemo(
+    () =>
+      col.columns([
+        col.accessor("name", {
+          header: "Recording",
+          sortFn: "text",
+          meta: { cellClassName: "max-w-36 truncate text-xs" },
+          cell: (c) => <span title={c.getValue()}>{c.getValue()}</span>,
+        }),
+        col.accessor("sampleCount", {
+          header: "Frames",
+          sortFn: "basic",
+          enableGlobalFilter: false,
+          meta: { numeric: true, cellClassName: "text-xs" },
+          cell: (c) => c.getValue().toLocaleString(),
+        }),
+        col.accessor("createdAt", {
+          header: "Stored",
+          sortFn: "basic",
+          enableGlobalFilter: false,
+          meta: { cellClassName: "tabular text-[11px] text-ink-soft whitespace-nowrap" },
+          cell: (c) => <DateTime value={c.getValue()} day />,
+        }),
+        col.display({
+          id: "open",
+          header: () => <span className="sr-only">Open</span>,
+          cell: (c) => (
+            <Button size="sm" variant="ghost" onClick={() => void openStored(c.row.original)} disabled={!chosen}>
+              Open
+            </Button>
+          ),
+        }),
+      ]),
+    [openStored, chosen],
+  );
   return (
     <>
       <SelectField
@@ -38,21 +80,28 @@ export function SourcePanel({ session, arms }: { session: RecordingSessionApi; a
         />
       </label>
       {storedList.length > 0 ? (
-        <section aria-label="Stored recordings" className="flex flex-col gap-1">
+        <section aria-label="Stored recordings" className="flex flex-col gap-2">
           <h2 className="text-xs font-medium text-ink-soft">Stored in this project</h2>
-          <ul className="flex max-h-40 flex-col gap-1 overflow-auto">
-            {storedList.map((r) => (
-              <li key={r.id} className="flex items-center gap-2 text-xs">
-                <span className="min-w-0 flex-1 truncate" title={r.name}>
-                  {r.name}
-                </span>
-                <span className="tabular text-ink-faint">{r.sampleCount.toLocaleString("en")} samples</span>
-                <Button size="sm" variant="ghost" onClick={() => void openStored(r)} disabled={!chosen}>
-                  Open
-                </Button>
-              </li>
-            ))}
-          </ul>
+          {storedList.length > 5 ? (
+            <TextField
+              label="Filter stored recordings"
+              type="search"
+              placeholder="File name"
+              value={filter}
+              onChange={(e) => setFilter(e.target.value)}
+            />
+          ) : null}
+          <DataTable
+            label="Stored recordings"
+            data={storedList}
+            columns={columns}
+            getRowId={(r) => r.id}
+            filter={filter}
+            initialSorting={[{ id: "createdAt", desc: true }]}
+            maxHeightPx={320}
+            className="-mx-1 max-h-80 overflow-y-auto"
+            testId="stored-recordings"
+          />
         </section>
       ) : null}
       {progress !== null ? (
