@@ -2,13 +2,19 @@
  * Benchmarks (not tests): the stream check of a 10-minute, 1 kHz, 7-joint recording (600,000 samples),
  * the CSV parse of that recording, and the check + 1 kHz sampling of a 50-move sequence; then the whole
  * `bin/jointproof scan` command on the CSV file (start-up and parsing included), and the numpy reference
- * script when python3 with numpy is available. Prints the figures and writes bench/results.json.
+ * script when python3 with numpy is available. Then the engine targets of the full check (10 and 50
+ * moves on the heavy demo arm with a keep-out box, one duration changed) in Node and in Chromium,
+ * each beside a fixed calibration loop; the bench page's edit figures, `/api/v1/check` under load
+ * and `/api/health` during a flood (bench/server.sh: a private cluster, the fakes and `next start`);
+ * the dataset audit benches. Prints the figures and writes bench/results.json, every group with the
+ * load average (`os.loadavg()`: 1, 5, 15 minutes) before and after it and the date.
  *
- * Run with `npm run bench`. The recording is generated into bench/tmp/ (git-ignored).
+ * Run with `npm run bench` (hold the build lock: it may build and it runs Chromium). The recording
+ * is generated into bench/tmp/ (git-ignored). `JP_BENCH_SKIP_SERVER=1` leaves out the server part.
  */
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
-import { cpus } from "node:os";
+import { cpus, loadavg } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import {
@@ -26,6 +32,8 @@ import {
   streamCheck,
   type Recording,
 } from "../kinematics";
+import { chromiumEngineFigures } from "./chromium";
+import { measureEngine } from "./engine-figures";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, "..");
@@ -93,7 +101,7 @@ function round(value: number, digits = 1): number {
   return Number(value.toFixed(digits));
 }
 
-function main(): void {
+async function main(): Promise<void> {
   mkdirSync(tmp, { recursive: true });
   const arm = armOf();
   const recording = makeRecording(arm);
@@ -146,7 +154,9 @@ function main(): void {
   // its chain (effort, clearance, tool speed), a fresh plan object per run as after an edit, at
   // the control rate and at the sampleRateHz option's 250 Hz; plus one effort fault whose fix
   // needs a much longer duration (the duration search).
-  const demoArm = JSON.parse(readFileSync(join(root, "kinematics", "arms", "bench-arm-h.json"), "utf8")) as unknown;
+  const demoArm = JSON.parse(
+    readFileSync(join(root, "kinematics", "arm", "presets", "bench-arm-h.json"), "utf8"),
+  ) as unknown;
   const liveGoals = [
     [0.4, 0.6, 0.8, 0.3, 0.2, 0.1, 0.01],
     [-0.3, 0.9, 0.5, -0.2, 0.5, -0.3, 0.02],
@@ -203,7 +213,24 @@ function main(): void {
     });
   }
 
+  // 7. the engine targets, in Node and in Chromium, each beside the calibration loop
+  const load = () => loadavg().map((v) => Number(v.toFixed(2)));
+  const nodeLoad = load();
+  const nodeEngine = { ...measureEngine(), loadAverage: [nodeLoad, load()] };
+  const chromiumLoad = load();
+  const chromiumEngine = { ...(await chromiumEngineFigures(here)), loadAverage: [chromiumLoad, load()] };
+
+  // 8. the server part: bench page, check API under load, health during a flood
+  let server: unknown = null;
+  if (process.env.JP_BENCH_SKIP_SERVER !== "1") {
+    const run = spawnSync("bash", [join(here, "server.sh")], { stdio: "inherit" });
+    if (run.status !== 0) throw new Error(`bench/server.sh failed (exit ${run.status})`);
+    server = JSON.parse(readFileSync(join(tmp, "server-bench.json"), "utf8"));
+  }
+
   const results = {
+    measuredAt: new Date().toISOString(),
+    loadAverageAtEnd: load(),
     machine: { cpus: cpus().length, cpu: cpus()[0]?.model ?? "unknown", node: process.version },
     recording: {
       samples,
@@ -242,6 +269,14 @@ function main(): void {
       effortFixMedianMs: round(effortFixTime.medianMs, 1),
       targetMs: 50,
     },
+    engineTargets: {
+      plans:
+        "10 and 50 moves of 2 s on the heavy demo arm (bench-arm-h) with one keep-out box; cold check (nothing cached); duration change: one move of the 10 changed on a checked plan",
+      targets: { check10Ms: 16, check50Ms: 100, durationChangeMs: 2, in: "Chromium" },
+      node: nodeEngine,
+      chromium: chromiumEngine,
+    },
+    server,
     scanCommand: { bestMs: round(scanTime.bestMs), medianMs: round(scanTime.medianMs), targetMs: 700 },
     numpyReference: numpyTime ? { bestMs: round(numpyTime.bestMs), medianMs: round(numpyTime.medianMs) } : null,
   };
@@ -263,8 +298,16 @@ function main(): void {
     `jointproof scan (whole command, ${results.recording.csvMegabytes} MB CSV): ${results.scanCommand.medianMs} ms median, ${results.scanCommand.bestMs} ms best (target < 700 ms)`,
   );
   if (results.numpyReference) console.log(`numpy reference script: ${results.numpyReference.medianMs} ms median`);
+  for (const [where, f] of [
+    ["Node", nodeEngine],
+    ["Chromium", chromiumEngine],
+  ] as const)
+    console.log(
+      `engine (${where}) 10 moves ${f.check10.medianMs} ms median (target 16), 50 moves ${f.check50.medianMs} ms (target 100), ` +
+        `one duration changed ${f.durationChange10.medianMs} ms (target 2); calibration loop ${f.calibrationMs} ms`,
+    );
   writeFileSync(join(here, "results.json"), JSON.stringify(results, null, 2) + "\n");
 }
 
-main();
+await main();
 await import("./dataset-audit"); // the dataset audit bench adds `datasetAudit` to results.json
