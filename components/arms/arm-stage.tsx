@@ -12,7 +12,7 @@ const Stage = dynamic(() => import("@/components/viewer/stage"), {
   loading: () => <Skeleton className="h-full w-full rounded-none" />,
 });
 
-/** An arm at rest on the stage (its home pose), for the arms page. */
+/** An arm at rest in the 3D view (its home pose), for the arms page. */
 export function ArmStage({ arm }: { arm: Arm }) {
   const playhead = useMemo(() => new Playhead(), []);
   const home = useMemo(() => homePose(arm), [arm]);

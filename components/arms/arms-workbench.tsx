@@ -20,7 +20,7 @@ export interface ArmEntry {
 }
 
 /**
- * Arms: pick one to see it on the stage and edit every parameter the check uses (arm-form.tsx). A
+ * Arms: pick one to see it in the 3D view and edit every parameter the check uses (arm-form.tsx). A
  * custom arm's edit is a new revision; a built-in arm's edit becomes a clearly named custom copy in
  * this project, which opens, and the built-in arm stays unchanged. A URDF file becomes a custom arm.
  */

@@ -222,6 +222,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
                     ghosts={state.ghosts}
                     linkSeverity={state.linkSeverity}
                     keepOut={plan.keepOut}
+                    findings={report.findings}
                   />
                 </StageErrorBoundary>
               ) : (

@@ -9,6 +9,7 @@ import { usePlayhead, usePlayheadStore } from "@/components/editor/playhead";
 import { minMaxIndices } from "./downsample";
 import type { EffortSeries } from "./effort";
 import { jointColor } from "./joint-colors";
+import { LIMIT_LINE_OPACITY, LIMIT_LINE_WIDTH, PLOT_HEIGHT_PX, TRACE_WIDTH } from "./plot-style";
 
 /** A vertical marker on the plots at the moment of a finding. */
 export interface PlotMarker {
@@ -51,10 +52,18 @@ const RIGHT_MARGIN = 12;
 
 const quantityWords: Record<Quantity, string> = {
   position: "Position",
-  velocity: "Velocity",
+  velocity: "Speed",
   acceleration: "Acceleration",
   effort: "Effort",
 };
+
+/** A chart's title: effort reads "Torque" for revolute joints and "Force" for prismatic ones. */
+export function quantityTitle(quantity: Quantity, types: readonly Joint["type"][]): string {
+  if (quantity !== "effort") return quantityWords[quantity];
+  const kinds = new Set(types);
+  if (kinds.size === 1) return kinds.has("prismatic") ? "Force" : "Torque";
+  return "Torque and force";
+}
 
 function limitsOf(joint: Joint, q: Quantity): { lo: number; hi: number } | null {
   if (q === "position") return { lo: joint.min, hi: joint.max };
@@ -66,7 +75,7 @@ function limitsOf(joint: Joint, q: Quantity): { lo: number; hi: number } | null 
 }
 
 /**
- * Position, velocity and acceleration of the selected joints against time, one chart per quantity on a
+ * Position, speed and acceleration of the selected joints against time, one chart per quantity on a
  * shared time axis, with each joint's limit (solid) and caution (dashed) lines, markers at the findings,
  * and the playhead as a cursor line. Click or drag on a chart to move the playhead.
  */
@@ -153,10 +162,10 @@ export function JointPlots(props: JointPlotsProps) {
         })}
         <span className="ml-auto flex items-center gap-3 text-[10px] text-ink-faint" aria-hidden="true">
           <span className="inline-flex items-center gap-1">
-            <span className="inline-block h-0 w-4 border-t-2 border-fault" /> limit
+            <span className="inline-block h-0 w-4 border-t-2 border-fault/45" /> limit
           </span>
           <span className="inline-flex items-center gap-1">
-            <span className="inline-block h-0 w-4 border-t-2 border-dashed border-caution" /> caution{" "}
+            <span className="inline-block h-0 w-4 border-t-2 border-dashed border-caution/45" /> caution{" "}
             {Math.round(cautionRatio * 100)}%
           </span>
         </span>
@@ -208,11 +217,14 @@ function QuantityChart({
   markers: readonly PlotMarker[];
 }) {
   const units = [...new Set(selectedJoints.map((j) => unitLabel(joints[j].type, unit, quantity)))].join(", ");
-  const label = `${quantityWords[quantity]} (${units})`;
+  const label = `${quantityTitle(
+    quantity,
+    selectedJoints.map((j) => joints[j].type),
+  )} (${units})`;
   return (
     <figure className="relative" aria-label={`${label} against time`}>
       <figcaption className="absolute top-0 left-14 z-10 text-[10px] font-medium text-ink-soft">{label}</figcaption>
-      <div className="h-[72px] w-full">
+      <div className="w-full" style={{ height: PLOT_HEIGHT_PX }} data-testid="plot-box">
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={rows} margin={{ top: 12, right: RIGHT_MARGIN, bottom: 0, left: 0 }}>
             <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" vertical={false} />
@@ -260,7 +272,8 @@ function QuantityChart({
                   y={l.y}
                   stroke={l.color}
                   strokeDasharray={l.dash}
-                  strokeWidth={1}
+                  strokeWidth={LIMIT_LINE_WIDTH}
+                  strokeOpacity={LIMIT_LINE_OPACITY}
                   ifOverflow="extendDomain"
                 />
               ));
@@ -281,7 +294,7 @@ function QuantityChart({
                 key={j}
                 dataKey={`j${j}`}
                 stroke={jointColor(j)}
-                strokeWidth={1.5}
+                strokeWidth={TRACE_WIDTH}
                 dot={false}
                 isAnimationActive={false}
                 type="linear"

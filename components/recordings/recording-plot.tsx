@@ -15,6 +15,7 @@ import { verdictLook } from "@/components/ui/verdict-chip";
 import type { Joint, Recording, StreamFinding } from "@/kinematics";
 import { displayFactor, unitLabel, type AngleUnit } from "@/lib/shared/units";
 import { minMaxIndices } from "@/components/plots/downsample";
+import { LIMIT_LINE_OPACITY } from "@/components/plots/plot-style";
 
 /** Floor of the speed chart's log axis, in display units per second. */
 const SPEED_FLOOR = 0.01;
@@ -98,8 +99,18 @@ export function RecordingPlot({ original, repaired, joint, jointInfo, findings, 
               tickFormatter={(v: number) => `${Number(v.toFixed(1))}`}
               domain={["auto", "auto"]}
             />
-            <ReferenceLine y={jointInfo.min * f} stroke={verdictLook.fault.stroke} ifOverflow="discard" />
-            <ReferenceLine y={jointInfo.max * f} stroke={verdictLook.fault.stroke} ifOverflow="discard" />
+            <ReferenceLine
+              y={jointInfo.min * f}
+              stroke={verdictLook.fault.stroke}
+              strokeOpacity={LIMIT_LINE_OPACITY}
+              ifOverflow="discard"
+            />
+            <ReferenceLine
+              y={jointInfo.max * f}
+              stroke={verdictLook.fault.stroke}
+              strokeOpacity={LIMIT_LINE_OPACITY}
+              ifOverflow="discard"
+            />
             {mine.map((x, i) => (
               <ReferenceArea
                 key={i}
@@ -158,6 +169,7 @@ export function RecordingPlot({ original, repaired, joint, jointInfo, findings, 
             <ReferenceLine
               y={jointInfo.maxVelocity * f}
               stroke={verdictLook.fault.stroke}
+              strokeOpacity={LIMIT_LINE_OPACITY}
               label={{ value: "limit", position: "insideTopRight", fontSize: 10, fill: verdictLook.fault.stroke }}
             />
             <Line

@@ -31,7 +31,7 @@ export function SourcePanel({ session, arms }: { session: RecordingSessionApi; a
           sortFn: "basic",
           enableGlobalFilter: false,
           meta: { numeric: true, cellClassName: "text-xs" },
-          cell: (c) => c.getValue().toLocaleString(),
+          cell: (c) => c.getValue().toLocaleString("en"),
         }),
         col.accessor("createdAt", {
           header: "Stored",

@@ -258,6 +258,7 @@ export function ReviewWorkspace({
                     ghosts={ghosts}
                     linkSeverity={linkSeverity}
                     keepOut={plan.keepOut}
+                    findings={report.findings}
                   />
                 </StageErrorBoundary>
               ) : (

@@ -6,8 +6,8 @@ interface State {
 }
 
 /**
- * Keeps a failed 3D stage (no WebGL, a lost context, a bad shape) from taking the page down: the
- * plots, the findings and the editor stay usable and the stage says what happened.
+ * Keeps a failed 3D view (no WebGL, a lost context, a bad shape) from taking the page down: the
+ * plots, the findings and the editor stay usable and the 3D view says what happened.
  */
 export class StageErrorBoundary extends Component<{ children: ReactNode; onError?: (e: Error) => void }, State> {
   state: State = { error: null };
@@ -27,7 +27,7 @@ export class StageErrorBoundary extends Component<{ children: ReactNode; onError
           role="alert"
           className="flex h-full flex-col items-center justify-center gap-2 bg-paper p-6 text-center text-sm text-ink-soft"
         >
-          <p className="font-medium text-ink">The 3D stage could not start.</p>
+          <p className="font-medium text-ink">The 3D view could not start.</p>
           <p>
             The browser refused a WebGL context ({this.state.error.message}). The moves, findings and plots still work;
             try another browser or enable hardware acceleration to see the arm.

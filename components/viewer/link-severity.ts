@@ -1,5 +1,5 @@
 /**
- * Which links of the stage's arm to tint, move by move: a joint's finding tints the link that joint
+ * Which links of the 3D view's arm to tint, move by move: a joint's finding tints the link that joint
  * drives; a clearance finding tints the link the engine names (`Finding.link`).
  */
 import type { ArmChain, MoveReport } from "@/kinematics";

@@ -1,5 +1,5 @@
 /**
- * The pose on a plan's timeline at any time, without allocating (the stage calls it every frame).
+ * The pose on a plan's timeline at any time, without allocating (the 3D view calls it every frame).
  * A time on the boundary between two moves belongs to the later one, as in the engine's sampler.
  */
 import { sampleMoveAt, type Timeline } from "@/kinematics";

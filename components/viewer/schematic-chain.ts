@@ -1,7 +1,7 @@
 /**
  * A stand-in chain for arms whose description has no geometry (`arm.chain`): a plain upright
- * schematic with alternating vertical and horizontal axes, so the stage can still show how the joints
- * move. The stage labels it as a schematic; it is never used for clearance or effort.
+ * schematic with alternating vertical and horizontal axes, so the 3D view can still show how the joints
+ * move. The 3D view labels it as a schematic; it is never used for clearance or effort.
  */
 import type { ArmChain, Joint } from "@/kinematics";
 

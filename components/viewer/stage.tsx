@@ -5,6 +5,7 @@ import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
 import {
   type ArmChain,
+  type Finding,
   type KeepOutBox,
   compileChain,
   createChainBuffers,
@@ -15,9 +16,10 @@ import {
   sampleTimeline,
   type Timeline,
 } from "@/kinematics";
-import { verdictLook } from "@/components/ui/verdict-chip";
 import { usePlayheadStore, type Playhead } from "@/components/editor/playhead";
 import { linkShapes, ShapeMesh } from "./arm-mesh";
+import { ghostColors, keepOutColors, severityColors, toolPathColor } from "./colors";
+import { touchedKeepOut } from "./keep-out";
 import { createPoseScratch, poseAt } from "./pose-at";
 
 export interface StageProps {
@@ -29,11 +31,16 @@ export interface StageProps {
   /** Per move, per link (0 = base): the worst severity of the findings of the joint that drives it. */
   linkSeverity: readonly (readonly ("caution" | "fault" | null)[])[];
   keepOut?: readonly KeepOutBox[];
+  /** The plan's findings: a keep-out box a clearance finding names is drawn in the fault colour, the rest neutral. */
+  findings?: readonly Finding[];
 }
 
 const LINK_COLOR = new THREE.Color("#d6d2c8");
 const BASE_COLOR = new THREE.Color("#5b6472");
-const SEVERITY_COLOR = { fault: new THREE.Color(verdictLook.fault.stroke), caution: new THREE.Color("#d08a1a") };
+const SEVERITY_COLOR = {
+  fault: new THREE.Color(severityColors.fault),
+  caution: new THREE.Color(severityColors.caution),
+};
 
 function useCompiled(chain: ArmChain, joints: readonly Joint[]): CompiledChain {
   return useMemo(
@@ -133,7 +140,7 @@ function AnimatedArm({
       ))}
       <mesh ref={tip}>
         <sphereGeometry args={[0.012, 16, 12]} />
-        <meshBasicMaterial color="#b8612a" />
+        <meshBasicMaterial color={toolPathColor} />
       </mesh>
     </group>
   );
@@ -200,10 +207,11 @@ function ToolPath({ compiled, timeline }: { compiled: CompiledChain; timeline: T
     return out;
   }, [compiled, timeline]);
   if (points.length < 2) return null;
-  return <Line points={points} color="#b8612a" lineWidth={2} />;
+  return <Line points={points} color={toolPathColor} lineWidth={2} />;
 }
 
-function KeepOut({ box }: { box: KeepOutBox }) {
+function KeepOut({ box, touched }: { box: KeepOutBox; touched: boolean }) {
+  const look = touched ? keepOutColors.touched : keepOutColors.neutral;
   const size: [number, number, number] = [box.max[0] - box.min[0], box.max[1] - box.min[1], box.max[2] - box.min[2]];
   const center: [number, number, number] = [
     (box.max[0] + box.min[0]) / 2,
@@ -213,8 +221,8 @@ function KeepOut({ box }: { box: KeepOutBox }) {
   return (
     <mesh position={center}>
       <boxGeometry args={size} />
-      <meshBasicMaterial color={verdictLook.fault.stroke} transparent opacity={0.12} depthWrite={false} />
-      <Edges color={verdictLook.fault.stroke} />
+      <meshBasicMaterial color={look.fill} transparent opacity={look.opacity} depthWrite={false} />
+      <Edges color={look.edge} />
     </mesh>
   );
 }
@@ -242,16 +250,17 @@ function WorkSurface() {
   );
 }
 
-/** The 3D stage: arm, ghosts, tool path, work surface and keep-out zones, with orbit controls. */
 /** How far the arm can reach from its base (m): the chain's link offsets and the tool point, added up. */
 function reachOf(chain: ArmChain): number {
   const len = (v: readonly number[]) => Math.hypot(v[0], v[1], v[2]);
   return Math.max(0.3, chain.joints.reduce((s, j) => s + len(j.origin.xyz), 0) + len(chain.tool.xyz));
 }
 
-export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut }: StageProps) {
+/** The 3D view: arm, ghosts, tool path, work surface and keep-out zones, with orbit controls. */
+export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut, findings }: StageProps) {
   const playhead = usePlayheadStore();
   const compiled = useCompiled(chain, joints);
+  const touched = useMemo(() => touchedKeepOut(keepOut ?? [], findings ?? []), [keepOut, findings]);
   const view = useMemo(() => {
     const reach = reachOf(chain);
     const target: [number, number, number] = [0, 0, reach * 0.42];
@@ -268,7 +277,7 @@ export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, k
       dpr={[1, 1.5]}
       camera={{ position: view.position, up: [0, 0, 1], fov: 36, near: 0.01, far: 30 }}
       gl={{ antialias: true, preserveDrawingBuffer: true }}
-      aria-label="3D stage: the arm at the playhead"
+      aria-label="3D view: the arm at the playhead"
       role="img"
     >
       <color attach="background" args={["#f3f1ea"]} />
@@ -278,16 +287,10 @@ export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, k
       <Invalidator playhead={playhead} />
       <WorkSurface />
       {keepOut?.map((b, i) => (
-        <KeepOut key={i} box={b} />
+        <KeepOut key={i} box={b} touched={touched[i] ?? false} />
       ))}
       {ghosts.map((g) => (
-        <GhostArm
-          key={g.label}
-          chain={chain}
-          compiled={compiled}
-          pose={g.pose}
-          color={g.label === "start" ? "#1f6f86" : "#6d4bc3"}
-        />
+        <GhostArm key={g.label} chain={chain} compiled={compiled} pose={g.pose} color={ghostColors[g.label]} />
       ))}
       <ToolPath compiled={compiled} timeline={timeline} />
       <AnimatedArm

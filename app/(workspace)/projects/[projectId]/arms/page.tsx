@@ -11,7 +11,7 @@ import { capabilities } from "@/lib/server/permissions";
 export const metadata: Metadata = { title: "Arms" };
 export const dynamic = "force-dynamic";
 
-/** The demo arms and the project's custom arms: limits, URDF import, the arm on the stage. */
+/** The demo arms and the project's custom arms: limits, URDF import, the arm in the 3D view. */
 export default async function ArmsPage({ params }: { params: Promise<{ projectId: string }> }) {
   const { projectId } = await params;
   const actor = await requirePageActor(`/projects/${projectId}/arms`);
