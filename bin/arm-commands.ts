@@ -3,15 +3,13 @@
  *   jointproof arm import FILE.urdf            the arm description as JSON
  *   jointproof fk ARM --pose q1,q2,…           tool pose in the base frame
  *   jointproof ik ARM --position x,y,z [--rpy r,p,y] [--seed q1,…]
- * ARM is a URDF file, a plan document, an `arm` object with a `chain`, or an arm description.
- * Node file I/O here; everything else in kinematics/.
+ * ARM is a URDF file, a plan document, an `arm` object with a `chain`, or an arm description
+ * (bin/arm-file.ts). `--help` after a command prints its usage. Node file I/O here; everything else
+ * in kinematics/.
  *
  * Exit codes: 0 success (ik: reachable), 1 ik unreachable, 2 bad input or usage (one line per problem).
  */
-import { readFileSync } from "node:fs";
 import {
-  armDescriptionSchema,
-  armFromDescription,
   chainLimits,
   compileChain,
   createChainBuffers,
@@ -19,12 +17,9 @@ import {
   type CompiledChain,
   solveIk,
   rotationRows,
-  describeIssues,
-  formatProblem,
-  parseArm,
-  type Arm,
   parseUrdf,
 } from "../kinematics";
+import { ArmFileError, readArmFile, readArmText } from "./arm-file";
 
 /** Where the commands write (the same shape as the dispatcher's). */
 export interface ArmIo {
@@ -32,12 +27,22 @@ export interface ArmIo {
   err: (text: string) => void;
 }
 
-/** Usage lines for the arm-model commands (appended to the dispatcher's help). */
-export const armUsage = `  jointproof arm import FILE.urdf              print the arm description (joints in chain order, links, tool point) as JSON
-  jointproof fk ARM --pose q1,q2,…             tool pose { position, rotation } in the base frame
-  jointproof ik ARM --position x,y,z [--rpy r,p,y] [--seed q1,…]
-                                               joint pose for a tool-point goal { pose, error, reachable };
-                                               exit 1 when unreachable. ARM: URDF, plan document or arm JSON.
+/** Usage lines of each arm-model command. */
+const commandUsage = {
+  arm: `  jointproof arm import FILE.urdf              print the arm description (joints in chain order, links, tool point) as JSON
+`,
+  fk: `  jointproof fk ARM --pose q1,q2,…             tool pose { position, rotation } in the base frame (metres);
+                                               angles in radians, the gripper in metres, as in the plan document
+`,
+  ik: `  jointproof ik ARM --position x,y,z [--rpy r,p,y] [--seed q1,…]
+                                               joint pose for a tool-point goal (metres, base frame):
+                                               { pose, positionErrorM, reachable }, with --rpy also
+                                               orientationErrorRad; exit 1 when unreachable
+`,
+};
+
+/** Usage lines for the arm-model commands (the dispatcher's help lists them with the others). */
+export const armUsage = `${commandUsage.arm}${commandUsage.fk}${commandUsage.ik}                                               ARM: a URDF, a plan document or an arm JSON
 `;
 
 class ArmInputError extends Error {
@@ -49,16 +54,6 @@ class ArmInputError extends Error {
 /** True for the commands this module handles. */
 export function isArmCommand(command: string | undefined): boolean {
   return command === "arm" || command === "fk" || command === "ik";
-}
-
-function readText(path: string): string {
-  try {
-    return readFileSync(path === "-" ? 0 : path, "utf8");
-  } catch (error) {
-    const reason =
-      error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
-    throw new ArmInputError([`${path}: ${reason}`]);
-  }
 }
 
 function urdfDescription(path: string, text: string) {
@@ -74,45 +69,9 @@ interface LoadedArm {
   jointCount: number;
 }
 
-/** Loads ARM (URDF or JSON) and compiles its chain. */
+/** Loads ARM (URDF or JSON, see bin/arm-file.ts) and compiles its chain. */
 function loadArm(path: string): LoadedArm {
-  const text = readText(path);
-  let arm: Pick<Arm, "joints" | "chain">;
-  if (/\.urdf$/i.test(path) || text.trimStart().startsWith("<")) {
-    arm = armFromDescription(urdfDescription(path, text));
-  } else {
-    let raw: unknown;
-    try {
-      raw = JSON.parse(text);
-    } catch (error) {
-      throw new ArmInputError([`${path}: not valid JSON (${error instanceof Error ? error.message : String(error)})`]);
-    }
-    const obj = (typeof raw === "object" && raw !== null ? raw : {}) as Record<string, unknown>;
-    const candidate = obj.format === "jointproof.plan" ? obj.arm : raw;
-    const prefix = obj.format === "jointproof.plan" ? ["arm"] : [];
-    const c = (typeof candidate === "object" && candidate !== null ? candidate : {}) as Record<string, unknown>;
-    const isDescription =
-      Array.isArray(c.joints) &&
-      c.joints.some((j) => typeof j === "object" && j !== null && "origin" in j) &&
-      !("chain" in c);
-    if (isDescription) {
-      const d = armDescriptionSchema.safeParse(candidate);
-      if (!d.success)
-        throw new ArmInputError(
-          describeIssues(d.error.issues).map(
-            (p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`,
-          ),
-        );
-      arm = armFromDescription(d.data);
-    } else {
-      const parsed = parseArm(candidate);
-      if (!parsed.ok)
-        throw new ArmInputError(
-          parsed.problems.map((p) => `${path}: ${formatProblem({ ...p, path: [...prefix, ...p.path] })}`),
-        );
-      arm = parsed.value;
-    }
-  }
+  const { arm } = readArmFile(path);
   if (!arm.chain) throw new ArmInputError([`${path}: arm.chain: is required for fk and ik (the arm's geometry)`]);
   if (arm.chain.joints.length > arm.joints.length) {
     throw new ArmInputError([
@@ -166,7 +125,7 @@ function poseFor(loaded: LoadedArm, option: string, text: string | undefined): n
 function runImport(argv: string[], io: ArmIo): number {
   const { positional } = options(argv, []);
   if (positional.length !== 1) throw new ArmInputError(["arm import: needs exactly one URDF file"]);
-  const d = urdfDescription(positional[0], readText(positional[0]));
+  const d = urdfDescription(positional[0], readArmText(positional[0]));
   io.out(JSON.stringify(d, null, 2) + "\n");
   return 0;
 }
@@ -194,8 +153,8 @@ function runIk(argv: string[], io: ArmIo): number {
     { position: [p[0], p[1], p[2]], ...(rpy ? { rpy: [rpy[0], rpy[1], rpy[2]] as [number, number, number] } : {}) },
     { seed, lower: loaded.lower, upper: loaded.upper },
   );
-  const result: Record<string, unknown> = { pose: r.pose, error: r.positionErrorM, reachable: r.reachable };
-  if (rpy) result.orientationError = r.orientationErrorRad;
+  const result: Record<string, unknown> = { pose: r.pose, positionErrorM: r.positionErrorM, reachable: r.reachable };
+  if (rpy) result.orientationErrorRad = r.orientationErrorRad;
   io.out(JSON.stringify(result, null, 2) + "\n");
   return r.reachable ? 0 : 1;
 }
@@ -204,6 +163,10 @@ function runIk(argv: string[], io: ArmIo): number {
 export function runArmCommand(argv: string[], io: ArmIo): number {
   try {
     const [command, ...rest] = argv;
+    if (rest.includes("--help") || rest.includes("-h")) {
+      io.out(`Usage:\n${command === "arm" ? commandUsage.arm : command === "fk" ? commandUsage.fk : commandUsage.ik}`);
+      return 0;
+    }
     if (command === "arm") {
       const [sub, ...more] = rest;
       if (sub !== "import")
@@ -215,7 +178,7 @@ export function runArmCommand(argv: string[], io: ArmIo): number {
     if (command === "fk") return runFk(rest, io);
     return runIk(rest, io);
   } catch (error) {
-    if (error instanceof ArmInputError) {
+    if (error instanceof ArmInputError || error instanceof ArmFileError) {
       io.err(error.lines.map((l) => l + "\n").join(""));
       return 2;
     }

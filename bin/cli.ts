@@ -1,6 +1,8 @@
 /**
- * The command-line checker: `jointproof check PLAN.json` and `jointproof scan LOG.csv --arm ARM.json`.
- * A thin wrapper over kinematics/: Node file I/O here, everything else in the engine.
+ * The command-line checker: `jointproof check PLAN.json`, `jointproof scan LOG.csv --arm ARM` and
+ * `jointproof verify EXPORT`, with the arm-model commands (arm-commands.ts) and the dataset audit
+ * (audit-command.ts). A thin wrapper over kinematics/: Node file I/O here, everything else in the engine.
+ * Readable output counts moves from 1 (the engine's `moveLabel`); JSON output keeps 0-based indexes.
  *
  * Exit codes: 0 pass or caution, 1 fault, 2 input that is not a valid document (one `path: message`
  * line per problem on stderr) or a usage error.
@@ -11,7 +13,6 @@ import {
   describeRecordingProblem,
   formatProblem,
   formatRecordingCsv,
-  parseArm,
   parsePlan,
   type Arm,
   type InputProblem,
@@ -24,10 +25,13 @@ import {
   type StreamReport,
   formatNumber,
   formatQuantity,
+  moveNumber,
 } from "../kinematics";
+import { ArmFileError, readArmFile } from "./arm-file";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands";
 import { auditUsage, isAuditCommand, runAuditCommand } from "./audit-command";
 import { hasExportBlock, recordedVerdict, verifyExport, verifyJsonChecksum } from "../lib/shared/export-format";
+import { formatTable } from "./table";
 
 /** Where the command writes; replaced in tests only by the real process streams. */
 interface Io {
@@ -40,17 +44,30 @@ const processIo: Io = {
   err: (text) => process.stderr.write(text),
 };
 
-const usage = `Usage:
-  jointproof check PLAN.json [--json]          check a plan document ("-" reads stdin)
-  jointproof scan LOG.csv --arm ARM.json [--json] [--repair OUT.csv] [--resample HZ]
+const commandsUsage = `  jointproof check PLAN.json [--json]          check a plan document ("-" reads stdin)
+  jointproof scan LOG.csv --arm ARM [--control-rate HZ] [--json] [--repair OUT.csv] [--resample HZ]
                                                stream check of a recording (header t,<joint names>);
-                                               --repair writes a rate-limited log that passes
-  jointproof verify EXPORT.json|EXPORT.csv     checks an export's SHA-256 only (no engine check)
-Exit codes: 0 pass or caution, 1 fault, 2 invalid input or usage.
+                                               --repair writes a rate-limited log that passes;
+                                               ARM: a plan document or an arm JSON, or a URDF or an arm
+                                               description with --control-rate (they carry no rate)
+  jointproof verify EXPORT.json|EXPORT.csv [--json]
+                                               checks an export's SHA-256 only (no engine check)
+`;
+
+const closingUsage = `
+Moves are counted from 1 ("Move 1" is the first move) and recordings are named by the file's line
+(the header is line 1); JSON output keeps 0-based indexes and paths (move: 0, moves[0]).
+Angles are in radians, the gripper in metres in files and in millimetres in messages.
+
+Exit codes: 0 pass or caution (ik: reachable), 1 fault (ik: unreachable; check: an export whose
+recorded verdict differs), 2 invalid input or usage (audit: also an episode that could not be checked).
 
 A passing check predicts no controller fault from the arm model; it does not make a motion safe.
 Clamp the arm, clear the workspace, keep the emergency stop at hand and run new plans slowly first.
 `;
+
+/** The whole help: every command, then numbering and units, then the exit codes and the caution. */
+const usage = `Usage:\n${commandsUsage}${armUsage}${auditUsage}${closingUsage}`;
 
 /** Thrown for problems with the input; turned into stderr lines and exit code 2. */
 class InputError extends Error {
@@ -67,6 +84,7 @@ interface Args {
   arm?: string;
   repair?: string;
   resampleHz?: number;
+  controlRateHz?: number;
 }
 
 function parseArgs(argv: string[]): Args {
@@ -87,6 +105,12 @@ function parseArgs(argv: string[]): Args {
       if (!(hz > 0) || !Number.isFinite(hz))
         throw new InputError([`--resample: must be a rate in Hz greater than 0 (got "${text}")`]);
       args.resampleHz = hz;
+    } else if (arg === "--control-rate") {
+      const text = value();
+      const hz = Number(text);
+      if (!(hz > 0) || !Number.isFinite(hz))
+        throw new InputError([`--control-rate: must be a rate in Hz greater than 0 (got "${text}")`]);
+      args.controlRateHz = hz;
     } else if (arg === "-h" || arg === "--help") args.command = "help";
     else if (arg.startsWith("--")) throw new InputError([`${arg}: unknown option`]);
     else if (args.command === undefined) args.command = arg;
@@ -132,19 +156,11 @@ function exitCodeOf(verdict: Verdict): number {
   return verdict === "fault" ? 1 : 0;
 }
 
-function pad(text: string, width: number): string {
-  return text.length >= width ? text : text + " ".repeat(width - text.length);
-}
-
-function padStart(text: string, width: number): string {
-  return text.length >= width ? text : " ".repeat(width - text.length) + text;
-}
-
 function verdictWord(verdict: Verdict | "caution" | "fault"): string {
   return verdict.toUpperCase();
 }
 
-/** The readable table for `check`. */
+/** The readable table for `check`: moves counted from 1, joints by name. */
 function formatReport(report: Report, arm: Arm): string {
   const faults = report.findings.filter((f) => f.severity === "fault").length;
   const cautions = report.findings.length - faults;
@@ -152,9 +168,8 @@ function formatReport(report: Report, arm: Arm): string {
     `Plan check for arm "${arm.name}" (${arm.joints.length} joints, control rate ${formatNumber(arm.controlRateHz)} Hz)`,
     `Verdict: ${verdictWord(report.verdict)}  (${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"})`,
     "",
-    `${padStart("move", 5)}  ${pad("shape", 10)}${padStart("duration", 10)}  ${padStart("shortest safe", 13)}  result`,
   ];
-  for (const move of report.moves) {
+  const moveRows = report.moves.map((move) => {
     const result = move.findings.some((f) => f.severity === "fault")
       ? "fault"
       : move.findings.length > 0
@@ -163,19 +178,27 @@ function formatReport(report: Report, arm: Arm): string {
     const duration = move.duration === 0 ? "instant" : `${move.duration.toFixed(3)} s`;
     // null: a fault that no duration fixes (travel, clearance, gravity alone above an effort limit)
     const shortest = move.minSafeDuration === null ? "none" : `${move.minSafeDuration.toFixed(3)} s`;
-    lines.push(
-      `${padStart(String(move.index), 5)}  ${pad(move.shape, 10)}${padStart(duration, 10)}  ${padStart(shortest, 13)}  ${result}`,
-    );
-  }
+    return [String(moveNumber(move.index)), move.shape, duration, shortest, result];
+  });
+  lines.push(
+    ...formatTable(
+      [["move", "shape", "duration", "shortest safe", "result"], ...moveRows],
+      ["right", "left", "right", "right", "left"],
+      "  ",
+    ),
+  );
   lines.push("");
   if (report.findings.length === 0) lines.push("No findings.");
   else {
     lines.push("Findings:");
-    for (const f of report.findings) {
-      lines.push(
-        `  ${pad(f.severity, 8)}${pad(f.kind, 11)}${pad(f.move === null ? "start" : `move ${f.move}`, 9)}${f.message}`,
-      );
-    }
+    const rows = report.findings.map((f) => [
+      f.severity,
+      f.kind,
+      f.move === null ? "start" : String(moveNumber(f.move)),
+      f.joint === null ? "-" : (arm.joints[f.joint]?.name ?? "-"),
+      f.message,
+    ]);
+    lines.push(...formatTable([["severity", "kind", "move", "joint", "message"], ...rows], [], "  "));
   }
   return lines.join("\n") + "\n";
 }
@@ -235,13 +258,26 @@ async function runVerify(args: Args, io: Io): Promise<number> {
   return 0;
 }
 
-/** Reads the arm for `scan`: an arm object, or a whole plan document whose `arm` is used. */
-function readArm(path: string): Arm {
-  const raw = readJson(path);
-  const isPlan = typeof raw === "object" && raw !== null && (raw as { format?: unknown }).format === "jointproof.plan";
-  const parsed = parseArm(isPlan ? (raw as { arm?: unknown }).arm : raw);
-  if (!parsed.ok) throw new InputError(problemLines(parsed.problems, ["arm"]));
-  return parsed.value;
+/**
+ * Reads the arm for `scan`. A stream check compares each step with what a joint can travel in one
+ * control period, so a URDF or an arm description (which carry no control rate) needs --control-rate.
+ */
+function readScanArm(path: string, controlRateHz: number | undefined): Arm {
+  const { arm, source } = readArmFile(path, { controlRateHz, forCheck: true });
+  if ((source === "urdf" || source === "description") && controlRateHz === undefined)
+    throw new InputError([
+      `--control-rate: is required with ${source === "urdf" ? "a URDF" : "an arm description"} (${path} carries no control rate; the stream check needs the controller's rate in Hz)`,
+    ]);
+  if (
+    controlRateHz !== undefined &&
+    source !== "urdf" &&
+    source !== "description" &&
+    controlRateHz !== arm.controlRateHz
+  )
+    throw new InputError([
+      `--control-rate: ${formatNumber(controlRateHz)} Hz differs from the arm's own ${formatNumber(arm.controlRateHz)} Hz in ${path}; leave the option out or make the two agree`,
+    ]);
+  return arm;
 }
 
 /** The readable summary for `scan`. */
@@ -254,8 +290,16 @@ function formatStreamReport(report: StreamReport, arm: Arm, limit = 50): string 
   ];
   if (report.findings.length > 0) {
     lines.push("", "Findings:");
-    for (const f of report.findings.slice(0, limit))
-      lines.push(`  ${pad(f.severity, 8)}${pad(f.kind, 11)}${f.message}`);
+    const rows = report.findings
+      .slice(0, limit)
+      .map((f) => [
+        f.severity,
+        f.kind,
+        arm.joints[f.joint]?.name ?? "-",
+        f.line === f.endLine ? String(f.line) : `${f.line}–${f.endLine}`,
+        f.message,
+      ]);
+    lines.push(...formatTable([["severity", "kind", "joint", "lines", "message"], ...rows], [], "  "));
     if (report.findings.length > limit)
       lines.push(`  … and ${report.findings.length - limit} more (use --json for all)`);
   }
@@ -265,8 +309,8 @@ function formatStreamReport(report: StreamReport, arm: Arm, limit = 50): string 
 function runScan(args: Args, io: Io): number {
   const [file, ...rest] = args.positional;
   if (!file || rest.length > 0) throw new InputError(["scan: needs exactly one recording file (CSV)"]);
-  if (!args.arm) throw new InputError(["--arm: is required (a JSON file with the arm object of a plan document)"]);
-  const arm = readArm(args.arm);
+  if (!args.arm) throw new InputError(["--arm: is required (a plan document, an arm JSON or a URDF)"]);
+  const arm = readScanArm(args.arm, args.controlRateHz);
   const scanned = scanRecording(arm, readInput(file));
   if ("problems" in scanned) throw new InputError(scanned.problems.map(describeRecordingProblem));
   const { recording, report } = scanned;
@@ -317,7 +361,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     if (isAuditCommand(argv[0])) return runAuditCommand(argv.slice(1), io); // dataset audit: own options
     const args = parseArgs(argv);
     if (args.command === "help") {
-      io.out(usage + armUsage + auditUsage);
+      io.out(usage);
       return 0;
     }
     if (args.command === "check") return await runCheck(args, io);
@@ -326,7 +370,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
     io.err(args.command === undefined ? usage : `${args.command}: unknown command\n${usage}`);
     return 2;
   } catch (error) {
-    if (error instanceof InputError) {
+    if (error instanceof InputError || error instanceof ArmFileError) {
       io.err(error.lines.map((line) => line + "\n").join(""));
       return 2;
     }

@@ -155,7 +155,12 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
 /** An instructor tries an assignment's rules on one of their own plans. */
 function InstructorBenchLink({ assignmentId, plans }: { assignmentId: string; plans: PlanChoice[] }) {
   const first = plans[0];
-  if (!first) return null;
+  if (!first)
+    return (
+      <p className="mt-1 text-xs text-ink-faint">
+        Save a plan of your own to try this assignment&apos;s rules on the bench.
+      </p>
+    );
   return (
     <p className="mt-1 text-xs">
       <Link className="text-brand-700 hover:underline" href={benchHref(first, assignmentId)}>

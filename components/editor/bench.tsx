@@ -10,7 +10,7 @@ import { RailHeading } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
 import { PendingChip, VerdictChip } from "@/components/ui/verdict-chip";
 import { StageErrorBoundary } from "@/components/viewer/error-boundary";
-import type { Arm, Report } from "@/kinematics";
+import { moveLabel, type Arm, type Report } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
 import { CartesianGoal } from "./cartesian-goal";
 import { MoveList } from "./move-list";
@@ -90,7 +90,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
   const selectedMove = selected === "start" ? null : plan.moves[selected];
   const selectedReport = selected === "start" ? null : report.moves[selected];
   const selectedSafe = selectedReport?.minSafeDuration ?? null;
-  const poseTitle = selected === "start" ? "Start pose" : `Move ${selected} goal`;
+  const poseTitle = selected === "start" ? "Start pose" : `${moveLabel(selected)} goal`;
   const planFix = fixes?.plan ?? null;
   const actionState: BenchActionState = { plan, report, replace, unit };
 
@@ -289,10 +289,10 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
               className="tabular border-t border-line px-3 py-1.5 text-[10px] text-ink-faint"
             >
               {full.error
-                ? `Arm-model checks failed: ${full.error}`
+                ? `Effort, clearance and tool speed were not checked (${full.error}); reload the page to check them again.`
                 : full.report
                   ? `Full check in a worker: ${full.elapsedMs?.toFixed(0)} ms${fixes ? "" : "; checking the fixes…"}`
-                  : "Joint checks done; arm-model checks running…"}
+                  : "Joint checks done; effort, clearance and tool speed are being checked…"}
               {` · joint checks and sampling ${live.elapsedMs.toFixed(1)} ms · ${live.samples.count.toLocaleString("en")} samples at ${Math.round(live.samples.rateHz)} Hz`}
             </p>
           </aside>
@@ -322,7 +322,7 @@ function findingsSummary(status: BenchStatus, schematic: boolean): string | unde
   if (status.kind === "checking" && !status.faultSoFar)
     return "Joint checks found no fault; effort, clearance and tool speed are still being checked.";
   if (status.kind === "unchecked")
-    return `The arm-model checks did not run (${status.error}), so this plan is not fully checked.`;
+    return `Effort, clearance and tool speed were not checked (${status.error}), so this plan is not fully checked and shows no Pass. Reload the page to check them again.`;
   if (status.kind === "checked" && status.verdict === "pass" && schematic) {
     return "No findings in the joint checks. This arm has no geometry, so effort, clearance and tool speed are not checked.";
   }

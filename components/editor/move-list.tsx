@@ -6,6 +6,8 @@ import { CopyIcon, DownIcon, PlusIcon, TrashIcon, UpIcon } from "@/components/ui
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import {
+  moveLabel,
+  moveNumber,
   shapeNames,
   type Joint,
   type Move,
@@ -87,7 +89,7 @@ export function MoveList({
     if (to < 0 || to >= moves.length) return;
     dispatch({ type: "move-move", index, by });
     if (selected === index) onSelect(to);
-    setAnnouncement(`Move ${index} is now move ${to} of ${moves.length}.`);
+    setAnnouncement(`${moveLabel(index)} is now move ${moveNumber(to)} of ${moves.length}.`);
     // keep keyboard focus on the row that moved
     requestAnimationFrame(() => rows.current[to]?.focus());
   };
@@ -106,7 +108,7 @@ export function MoveList({
     } else if (e.key === "Delete") {
       e.preventDefault();
       dispatch({ type: "delete-move", index });
-      setAnnouncement(`Move ${index} deleted.`);
+      setAnnouncement(`${moveLabel(index)} deleted.`);
     }
   };
 
@@ -153,7 +155,7 @@ export function MoveList({
                   }}
                   tabIndex={0}
                   aria-selected={isSelected}
-                  aria-label={`Move ${i}: ${verdict}`}
+                  aria-label={`${moveLabel(i)}: ${verdict}`}
                   data-testid={`move-row-${i}`}
                   onClick={() => onSelect(i)}
                   onKeyDown={(e) => onRowKey(e, i)}
@@ -163,9 +165,7 @@ export function MoveList({
                   )}
                 >
                   <Td className="max-w-0">
-                    <span className="block text-xs font-semibold">
-                      {move.duration === 0 ? `Instant move ${i}` : `Move ${i}`}
-                    </span>
+                    <span className="block text-xs font-semibold">{moveLabel(i, move.duration === 0)}</span>
                     <span className="block truncate text-[11px] text-ink-soft" title={summary}>
                       {summary}
                     </span>
@@ -174,14 +174,14 @@ export function MoveList({
                     <NumberInput
                       value={move.duration}
                       digits={3}
-                      aria-label={`Move ${i} duration (s)`}
+                      aria-label={`${moveLabel(i)} duration (s)`}
                       onValue={(d) => d >= 0 && dispatch({ type: "set-duration", index: i, duration: d })}
                       className="h-7 w-[4.75rem]"
                     />
                   </Td>
                   <Td onClick={(e) => e.stopPropagation()}>
                     <select
-                      aria-label={`Move ${i} shape`}
+                      aria-label={`${moveLabel(i)} shape`}
                       value={move.shape}
                       onChange={(e) => dispatch({ type: "set-shape", index: i, shape: e.target.value as ShapeName })}
                       className="h-7 w-full rounded border border-line bg-panel px-1 text-xs"
@@ -205,7 +205,7 @@ export function MoveList({
                           <Button
                             size="sm"
                             variant={verdict === "fault" ? "primary" : "secondary"}
-                            aria-label={`Set move ${i} to its shortest safe duration, ${safe.toFixed(3)} s`}
+                            aria-label={`Set move ${moveNumber(i)} to its shortest safe duration, ${safe.toFixed(3)} s`}
                             onClick={() => dispatch(fix.action)}
                           >
                             Shortest safe: <span className="tabular font-mono">{safe.toFixed(3)} s</span>
@@ -219,7 +219,7 @@ export function MoveList({
                         <Button
                           size="sm"
                           variant="ghost"
-                          aria-label={`Move ${i} up`}
+                          aria-label={`${moveLabel(i)} up`}
                           disabled={i === 0}
                           onClick={() => reorder(i, -1)}
                         >
@@ -228,7 +228,7 @@ export function MoveList({
                         <Button
                           size="sm"
                           variant="ghost"
-                          aria-label={`Move ${i} down`}
+                          aria-label={`${moveLabel(i)} down`}
                           disabled={i === moves.length - 1}
                           onClick={() => reorder(i, 1)}
                         >
@@ -237,10 +237,10 @@ export function MoveList({
                         <Button
                           size="sm"
                           variant="ghost"
-                          aria-label={`Duplicate move ${i}`}
+                          aria-label={`Duplicate move ${moveNumber(i)}`}
                           onClick={() => {
                             dispatch({ type: "duplicate-move", index: i });
-                            setAnnouncement(`Move ${i} duplicated as move ${i + 1}.`);
+                            setAnnouncement(`${moveLabel(i)} duplicated as move ${moveNumber(i + 1)}.`);
                           }}
                         >
                           <CopyIcon size={13} />
@@ -248,11 +248,11 @@ export function MoveList({
                         <Button
                           size="sm"
                           variant="ghost"
-                          aria-label={`Delete move ${i}`}
+                          aria-label={`Delete move ${moveNumber(i)}`}
                           onClick={() => {
                             dispatch({ type: "delete-move", index: i });
                             onSelect(i > 0 ? i - 1 : "start");
-                            setAnnouncement(`Move ${i} deleted.`);
+                            setAnnouncement(`${moveLabel(i)} deleted.`);
                           }}
                         >
                           <TrashIcon size={13} />
@@ -278,7 +278,7 @@ export function MoveList({
           onClick={() => {
             dispatch({ type: "add-move" });
             onSelect(moves.length);
-            setAnnouncement(`Move ${moves.length} added.`);
+            setAnnouncement(`${moveLabel(moves.length)} added.`);
           }}
         >
           <PlusIcon size={13} /> Add move
@@ -309,7 +309,7 @@ function MoveFiguresLine({
   return (
     <dl
       className="tabular mt-1 flex flex-wrap gap-x-3 px-0.5 font-mono text-[11px] text-ink-soft"
-      aria-label={`Move ${index} peaks`}
+      aria-label={`${moveLabel(index)} peaks`}
       data-testid={`move-figures-${index}`}
     >
       {effort ? (

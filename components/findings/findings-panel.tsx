@@ -2,7 +2,7 @@
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { verdictLook, VerdictChip } from "@/components/ui/verdict-chip";
-import type { Joint, Finding, Verdict } from "@/kinematics";
+import { moveNumber, type Joint, type Finding, type Verdict } from "@/kinematics";
 import { kindWords } from "./finding-time";
 
 /** A one-click fix the bench checked before offering it. */
@@ -72,7 +72,7 @@ export function FindingsPanel({ verdict, summary, items, joints, onJump, classNa
                 type="button"
                 onClick={() => onJump(timeS, finding.move)}
                 className="w-full rounded-t-md px-2.5 pt-2 pb-1.5 text-left hover:bg-paper"
-                aria-label={`${look.word}: ${kindWords[finding.kind]}${joint ? `, ${joint.name}` : ""}${finding.link ? `, link ${finding.link}` : ""}${finding.move !== null ? `, move ${finding.move}` : ", start pose"}. Show at ${timeS.toFixed(3)} s`}
+                aria-label={`${look.word}: ${kindWords[finding.kind]}${joint ? `, ${joint.name}` : ""}${finding.link ? `, link ${finding.link}` : ""}${finding.move !== null ? `, move ${moveNumber(finding.move)}` : ", start pose"}. Show at ${timeS.toFixed(3)} s`}
               >
                 <div className="flex flex-wrap items-center gap-1.5">
                   <VerdictChip verdict={finding.severity} size="sm" />
@@ -95,7 +95,7 @@ export function FindingsPanel({ verdict, summary, items, joints, onJump, classNa
                     </>
                   ) : null}
                   <dt className="sr-only">Move</dt>
-                  <dd>{finding.move === null ? "start pose" : `move ${finding.move}`}</dd>
+                  <dd>{finding.move === null ? "start pose" : `move ${moveNumber(finding.move)}`}</dd>
                   {finding.link ? (
                     <>
                       <dt className="sr-only">Link</dt>

@@ -3,6 +3,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { TextAreaField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
+import { moveNumber } from "@/kinematics";
 import type { SubmissionFault } from "@/lib/shared/courses/faults";
 import { FAULT_APPROVAL_REASON_MAX } from "@/lib/shared/schemas/reviews";
 
@@ -63,7 +64,7 @@ export function FaultApprovalDialog({
           {faults.map((f, i) => (
             <li key={i} className="rounded-md border border-fault/40 bg-fault-tint/40 px-2 py-1 text-xs">
               <span className="font-semibold text-fault">Fault</span>
-              {f.move !== null ? ` · move ${f.move + 1}` : ""}
+              {f.move !== null ? ` · move ${moveNumber(f.move)}` : ""}
               {f.joint !== null ? ` · ${joints[f.joint] ?? `joint ${f.joint + 1}`}` : ""}: {f.message}
             </li>
           ))}

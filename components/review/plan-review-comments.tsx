@@ -8,6 +8,7 @@
 import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
 import { RailHeading } from "@/components/ui/panel";
+import { moveLabel } from "@/kinematics";
 import {
   api,
   type CommentDto,
@@ -157,7 +158,7 @@ export function ReviewCommentList({ returned, detail, joints, onJump }: ReviewCo
         <ol className="mt-2 flex flex-col gap-1.5">
           {comments.map((c) => {
             const where = [
-              c.moveIndex !== null ? `Move ${c.moveIndex + 1}` : "Whole plan",
+              c.moveIndex !== null ? moveLabel(c.moveIndex) : "Whole plan",
               c.jointIndex !== null ? (joints[c.jointIndex] ?? `joint ${c.jointIndex}`) : null,
               c.timeS !== null ? `t = ${c.timeS.toFixed(3)} s` : null,
             ]

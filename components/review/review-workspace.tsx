@@ -23,7 +23,7 @@ import type { RuleProblem } from "@/lib/shared/courses/rules";
 import { api } from "@/lib/client/api-client";
 import type { SubmissionFault } from "@/lib/shared/courses/faults";
 import { FaultApprovalDialog } from "./fault-approval-dialog";
-import { type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
+import { moveLabel, moveNumber, type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
 
 const Stage = dynamic(() => import("@/components/viewer/stage"), {
@@ -217,7 +217,7 @@ export function ReviewWorkspace({
                     }}
                   >
                     <span className="tabular block text-[11px] text-ink-faint">
-                      {c.moveIndex !== null ? `Move ${c.moveIndex + 1}` : "Whole plan"}
+                      {c.moveIndex !== null ? moveLabel(c.moveIndex) : "Whole plan"}
                       {c.jointIndex !== null
                         ? ` · ${plan.arm.joints[c.jointIndex]?.name ?? `joint ${c.jointIndex}`}`
                         : ""}
@@ -354,8 +354,8 @@ function ReviewActions({
         <TextAreaField label="Comment" rows={3} value={body} onChange={(e) => setBody(e.target.value)} />
         <label className="flex items-center gap-2 text-xs text-ink-soft">
           <input type="checkbox" checked={pinTime} onChange={(e) => setPinTime(e.target.checked)} />
-          Pin to {move !== null ? `move ${move + 1} at t = ${timeS.toFixed(3)} s` : "the current moment"} (move the
-          playhead to choose)
+          Pin to {move !== null ? `move ${moveNumber(move)} at t = ${timeS.toFixed(3)} s` : "the current moment"} (move
+          the playhead to choose)
         </label>
         <SelectField label="Joint" value={joint} onChange={(e) => setJoint(e.target.value)}>
           <option value="">No particular joint</option>

@@ -345,7 +345,7 @@ function readLink(l: XmlNode, name: string, problems: UrdfProblem[]): RawLink {
     const mass = numbers(massNode?.value as string | undefined, 1, `${el} <inertial><mass value>`, problems, [NaN])[0];
     if (massNode === undefined || massNode.value === undefined)
       problems.push({ element: `${el} <inertial><mass>`, message: "is required" });
-    else if (mass < 0) problems.push({ element: `${el} <inertial><mass value>`, message: "must be at least 0" });
+    else if (mass < 0) problems.push({ element: `${el} <inertial><mass value>`, message: "must be 0 or greater" });
     const it = first(inr.inertia);
     const keys = ["ixx", "ixy", "ixz", "iyy", "iyz", "izz"] as const;
     const vals: Record<string, number> = {};
@@ -462,7 +462,7 @@ function readJoint(j: XmlNode, problems: UrdfProblem[]): RawJoint | null {
     if (lim.velocity !== undefined && Number.isFinite(maxVelocity) && !(maxVelocity > 0))
       problems.push({ element: `${el} <limit velocity>`, message: "must be greater than 0" });
     if (lim.effort !== undefined && Number.isFinite(maxEffort) && !(maxEffort >= 0))
-      problems.push({ element: `${el} <limit effort>`, message: "must be at least 0" });
+      problems.push({ element: `${el} <limit effort>`, message: "must be 0 or greater" });
     if (!Number.isFinite(maxVelocity)) maxVelocity = null;
     if (!Number.isFinite(maxEffort)) maxEffort = null;
   }

@@ -59,7 +59,7 @@ export const checkClearance: MoveChecker = (context, out) => {
       zone: h.zone < 0 ? "work surface" : h.zoneName,
       time: h.timeS,
       message:
-        `${moveLabel(context.index, context.instant)}: link "${h.linkName}" goes ${into} ${span}; on the hardware the arm will hit it. ` +
+        `${moveLabel(context.index, context.instant)}: link "${h.linkName}" goes ${into} ${span}; on the hardware the arm would hit it. ` +
         `The path does not depend on the duration, so a longer move does not help: change the goal or add a waypoint that keeps the link clear.`,
       timeS: context.startS + h.timeS,
     };

@@ -122,7 +122,7 @@ export const checkEffort: MoveChecker = (context, out) => {
       fix = effortFix(context, severity);
     }
     const outcome =
-      severity === "fault" ? "; the motor cannot deliver it and the controller will stop the arm. " : ". ";
+      severity === "fault" ? "; the motor could not deliver it and the controller would stop the arm. " : ". ";
     out.push({
       kind: "effort-over",
       severity,

@@ -32,7 +32,7 @@ function rangeFinding(
     limit,
     message:
       `${where} puts ${jointLabel(joint)} at ${formatQuantity(value, joint, "position")}, beyond its travel ${side} of ` +
-      `${formatQuantity(limit, joint, "position")}; the controller will refuse the target. ` +
+      `${formatQuantity(limit, joint, "position")}; the controller would refuse the target. ` +
       `Choose a value from ${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}.`,
 
     timeS,
@@ -81,7 +81,7 @@ function durationFix(severity: Severity, context: MoveContext): string {
     if (minSafe.durationS === null) return noTimingFix(arm, minSafe);
     return `Lengthen it to at least ${formatDurationUp(minSafe.durationS)} (the shortest safe duration for its ${move.shape} shape)${calm ? `; ${calm}` : ""}.`;
   }
-  return calm ? `It will run, with little margin; ${calm}.` : `It will run, with little margin.`;
+  return calm ? `It would run, with little margin; ${calm}.` : `It would run, with little margin.`;
 }
 
 /**
@@ -107,8 +107,8 @@ export const checkSpeed: MoveChecker = (context, out) => {
       const stepLimit = joint.maxVelocity / arm.controlRateHz;
       const outcome =
         severity === "fault"
-          ? "the controller will stop with a jump-too-far fault"
-          : "the controller will accept it, close to its jump limit";
+          ? "the controller would stop with a jump-too-far fault"
+          : "the controller would accept it, close to its jump limit";
       message =
         `${label}: a step of ${formatQuantity(Math.abs(delta[j]), joint, "step")} in one ${formatNumberMs(periodMs)} control period needs ` +
         `${formatQuantity(value, joint, "velocity")}, ${level}, which allows at most ${formatQuantity(stepLimit, joint, "step")} per period; ` +
@@ -124,7 +124,7 @@ export const checkSpeed: MoveChecker = (context, out) => {
             ? `A duration of ${formatDurationUp(minCalm.durationS)} with its ${move.shape} shape keeps it below ${formatPercent(arm.cautionRatio)} of every limit.`
             : `Make the step smaller for more margin.`);
     } else {
-      const outcome = severity === "fault" ? "; the controller will refuse the move. " : ". ";
+      const outcome = severity === "fault" ? "; the controller would refuse the move. " : ". ";
       message = `${label}: peak speed ${formatQuantity(value, joint, "velocity")} is ${level}${outcome}${durationFix(severity, context)}`;
     }
     out.push({
@@ -157,7 +157,7 @@ export const checkAcceleration: MoveChecker = (context, out) => {
     if (!severity) return;
     const limitText = formatQuantity(joint.maxAcceleration, joint, "acceleration");
     const level = limitLevel(severity, arm.cautionRatio, limitText);
-    const outcome = severity === "fault" ? "; the controller will refuse the move. " : ". ";
+    const outcome = severity === "fault" ? "; the controller would refuse the move. " : ". ";
     const message =
       `${moveLabel(index, move.duration === 0)}, ${jointLabel(joint)}: peak acceleration ${formatQuantity(value, joint, "acceleration")} ` +
       `is ${level}${outcome}${durationFix(severity, context)}`;

@@ -62,8 +62,8 @@ export const checkToolSpeed: MoveChecker = (context, out) => {
     ? `Give it a duration: covering ${formatNumber(stepM * 1000)} mm at ${formatNumber(limit)} m/s takes at least ${formatDurationUp(stepM / limit)}, and a rest-to-rest shape needs longer; check again.`
     : severity === "caution"
       ? context.minCalm.durationS !== null
-        ? `It will run, with little margin; ${formatDurationUp(context.minCalm.durationS)} keeps it below ${formatPercent(context.arm.cautionRatio)} of every limit.`
-        : `It will run, with little margin.`
+        ? `It would run, with little margin; ${formatDurationUp(context.minCalm.durationS)} keeps it below ${formatPercent(context.arm.cautionRatio)} of every limit.`
+        : `It would run, with little margin.`
       : context.minSafe.durationS !== null
         ? `Lengthen it to at least ${formatDurationUp(context.minSafe.durationS)} (tool speed falls in proportion to the duration; that is the shortest safe duration for its ${context.move.shape} shape).`
         : noTimingFix(context.arm, context.minSafe);

@@ -1,6 +1,7 @@
 /**
  * Number and unit wording for findings' messages: plain language, radians with degrees beside them
- * for revolute joints, metres for prismatic joints.
+ * for revolute joints, millimetres for prismatic joints (the gripper; the plan document stores metres),
+ * moves counted from 1 as people count them (the report's `move` stays the 0-based index).
  *
  * @module
  */
@@ -15,7 +16,12 @@ const revoluteUnits: Record<Quantity, string> = {
   acceleration: "rad/s²",
   step: "rad",
 };
-const prismaticUnits: Record<Quantity, string> = { position: "m", velocity: "m/s", acceleration: "m/s²", step: "m" };
+const prismaticUnits: Record<Quantity, string> = {
+  position: "mm",
+  velocity: "mm/s",
+  acceleration: "mm/s²",
+  step: "mm",
+};
 const degreeUnits: Record<Quantity, string> = { position: "°", velocity: "°/s", acceleration: "°/s²", step: "°" };
 
 /** A number with four significant digits, without trailing zeros (`4.1`, `0.0031`, `235.2`). */
@@ -25,9 +31,12 @@ export function formatNumber(value: number): string {
   return String(Number(value.toPrecision(4)));
 }
 
-/** A value with its unit for the joint's type; revolute values also in degrees: `4.1 rad/s (234.9°/s)`. */
+/**
+ * A value with its unit for the joint's type: revolute values in radians with degrees beside them,
+ * `4.1 rad/s (234.9°/s)`; prismatic values (given in metres) in millimetres, `40 mm`.
+ */
 export function formatQuantity(value: number, joint: Pick<Joint, "type">, quantity: Quantity): string {
-  if (joint.type === "prismatic") return `${formatNumber(value)} ${prismaticUnits[quantity]}`;
+  if (joint.type === "prismatic") return `${formatNumber(value * 1000)} ${prismaticUnits[quantity]}`; // metres to millimetres
   const degrees = (value * 180) / Math.PI; // radians to degrees
   return `${formatNumber(value)} ${revoluteUnits[quantity]} (${formatNumber(degrees)}${degreeUnits[quantity]})`;
 }
@@ -48,9 +57,18 @@ export function formatPercent(ratio: number): string {
   return `${formatNumber(ratio * 100)}%`;
 }
 
-/** How a move is named in messages: "Move 2", or "Instant move 2" for a move of duration 0. */
-export function moveLabel(index: number, instant: boolean): string {
-  return instant ? `Instant move ${index}` : `Move ${index}`;
+/** The number people read for the move at 0-based `index`: the first move is move 1. */
+export function moveNumber(index: number): number {
+  return index + 1;
+}
+
+/**
+ * How a move is named on screens, in CLI lines and in messages, counted from 1: the move at 0-based
+ * `index` 0 is "Move 1", or "Instant move 1" when its duration is 0. JSON fields and paths keep the
+ * 0-based index (`move: 0`, `moves[0]`).
+ */
+export function moveLabel(index: number, instant = false): string {
+  return instant ? `Instant move ${moveNumber(index)}` : `Move ${moveNumber(index)}`;
 }
 
 /**

@@ -13,7 +13,7 @@
 import { z } from "zod";
 
 const finite = z.number().refine(Number.isFinite, { message: "must be a finite number" });
-const nonNegative = finite.refine((v) => v >= 0, { message: "must be at least 0" });
+const nonNegative = finite.refine((v) => v >= 0, { message: "must be 0 or greater" });
 const positive = finite.refine((v) => v > 0, { message: "must be greater than 0" });
 
 /** A 3-vector of finite numbers. */

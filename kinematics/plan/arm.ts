@@ -88,7 +88,7 @@ export function addJointIssues(joints: unknown[], ctx: z.RefinementCtx, base: (s
       ctx.addIssue({
         code: "custom",
         path: [...base, "joints", j, "name"],
-        message: `repeats the name of joint ${earlier}`,
+        message: `repeats the name "${joint.name}" of an earlier joint (joints[${earlier}]); give each joint its own name`,
       });
     } else {
       seen.set(joint.name, j);

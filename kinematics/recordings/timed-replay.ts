@@ -341,7 +341,7 @@ function rangeFinding(
     limit,
     message:
       `${where(arm, j, sample, endSample, timeS)}: position ${formatQuantity(value, joint, "position")} is outside its travel ` +
-      `${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}; the controller will refuse ` +
+      `${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}; the controller would refuse ` +
       `these targets. Repair clamps them into the travel.`,
   };
 }
@@ -361,8 +361,8 @@ function speedFinding(
     severity === "fault" ? "above its limit of" : `above ${formatPercent(arm.cautionRatio)} of its limit of`;
   const outcome =
     severity === "fault"
-      ? "replayed frame by frame the arm cannot follow and will lag or fault"
-      : "the arm will follow, close to its limit";
+      ? "replayed frame by frame the arm could not follow and would lag or fault"
+      : "the arm would follow, close to its limit";
   return {
     kind: "speed-over",
     severity,
@@ -402,7 +402,7 @@ function glitchFinding(
     message:
       `${where(arm, j, k, k, timeS)}: a single-frame spike of ${formatQuantity(spike, joint, "step")} that comes back at the next frame ` +
       `(up to ${formatQuantity(value, joint, "velocity")}, above its limit of ${formatQuantity(joint.maxVelocity, joint, "velocity")}); ` +
-      `replayed, the arm will twitch or fault. Repair replaces the frame with the mean of its neighbours.`,
+      `replayed, the arm would twitch or fault. Repair replaces the frame with the mean of its neighbours.`,
   };
 }
 
@@ -421,7 +421,7 @@ function gapFinding(k: number, timeS: Float64Array, dt: number, median: number, 
     message:
       `Frame ${k + 1} (t = ${formatNumber(timeS[k])} s) comes ${formatNumber(dt)} s after the previous one, more than ` +
       `${formatNumber(gapFactor)} × the median step of ${formatNumber(median)} s: about ${missingFrames} frame${missingFrames === 1 ? "" : "s"} ` +
-      `missing. The arm will be driven across the gap in one step. Repair fills it by interpolation (marked as filled).`,
+      `missing. The arm would be driven across the gap in one step. Repair fills it by interpolation (marked as filled).`,
   };
 }
 

@@ -4,17 +4,36 @@
 // sort on a header click, and a server field error shown under its field.
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { demoPeople } from "@/db/demo";
+import { demoCourse, demoPeople, demoPlans, demoProjects } from "@/db/demo";
 import { baseUrl as baseURL, openBrowser, screenshotDir, type BrowserSession } from "./browser";
 
+const instructor = demoPeople[0];
 const researcher = demoPeople[3];
 const aiko = demoPeople[2];
+const researchProject = demoProjects[1];
+const researchPlan = demoPlans.find((p) => p.projectId === researchProject.id)!;
+
+/** The error text an input points at with aria-describedby (its last id is the error). */
+async function errorUnder(page: Page, label: string): Promise<string | null> {
+  const ids = (await page.getByLabel(label, { exact: true }).getAttribute("aria-describedby")) ?? "";
+  const last = ids.split(" ").filter(Boolean).at(-1);
+  return last ? page.locator(`[id="${last}"]`).textContent() : null;
+}
+
+/** Blank space under the footer: how far the page's scrollable height runs past the footer's bottom. */
+async function spaceUnderFooter(page: Page): Promise<number> {
+  return page.evaluate(() => {
+    const footer = document.querySelector("body > footer")!.getBoundingClientRect();
+    return document.documentElement.scrollHeight - (footer.bottom + window.scrollY);
+  });
+}
 
 async function shot(page: Page, name: string) {
   await page.screenshot({ path: `${screenshotDir}/pages-${name}.png`, fullPage: true });
 }
 
 async function signIn(page: Page, email: string, password: string) {
+  await page.context().clearCookies();
   await page.goto("/sign-in?callbackUrl=%2Fprojects");
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(password);
@@ -129,6 +148,37 @@ describe("pages at 1440×900", () => {
     await shot(page, "safety");
   });
 
+  it("sign-in and sign-up: field errors in the API schema's words under their fields", async () => {
+    const { page } = s;
+    expect((await page.goto("/sign-in"))?.status()).toBe(200);
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+    await page.waitForFunction(
+      () => document.querySelector('input[type="email"]')?.getAttribute("aria-invalid") === "true",
+    );
+    await expect(errorUnder(page, "E-mail")).resolves.toBe("E-mail must be an e-mail address.");
+    await expect(errorUnder(page, "Password")).resolves.toBe("Password is required.");
+    await shot(page, "sign-in");
+    await page.getByLabel("E-mail").fill(researcher.email);
+    await page.getByLabel("Password").fill("not-the-password");
+    await page.getByRole("button", { name: "Sign in", exact: true }).click();
+    await expect(page.locator("main").getByRole("alert").textContent()).resolves.toContain(
+      "E-mail or password is wrong",
+    );
+    await shot(page, "sign-in-refused");
+
+    expect((await page.goto("/sign-up"))?.status()).toBe(200);
+    await page.getByLabel("Name").fill("Pages Test");
+    await page.getByLabel("E-mail").fill("pages-test-at-example");
+    await page.getByLabel("Password").fill("short");
+    await page.getByRole("button", { name: "Create account" }).click();
+    await page.waitForFunction(
+      () => document.querySelector('input[type="email"]')?.getAttribute("aria-invalid") === "true",
+    );
+    await expect(errorUnder(page, "E-mail")).resolves.toBe("E-mail must be an e-mail address.");
+    await expect(errorUnder(page, "Password")).resolves.toBe("The password must be at least 10 characters.");
+    await shot(page, "sign-up");
+  });
+
   it("projects: the demo project is hand-guided, plan tables sort on a header click", async () => {
     const { page } = s;
     await signIn(page, researcher.email, researcher.password);
@@ -187,6 +237,98 @@ describe("pages at 1440×900", () => {
     const rows = page.getByRole("table", { name: "Your API tokens" }).locator("tbody tr");
     expect(await rows.count()).toBeGreaterThan(0);
     await shot(page, "tokens");
+    expect(s.errors.filter((e) => !/404|401|400|422/.test(e))).toEqual([]);
+  });
+
+  it("bench at 1440×900: every plot at least 120 px tall, saying Speed; the viewer is the 3D view", async () => {
+    const { page } = s;
+    await signIn(page, researcher.email, researcher.password);
+    await page.goto(`/projects/${researchProject.id}/plans/${researchPlan.id}`);
+    await page.getByTestId("plot-box").first().waitFor();
+    const figures = await page
+      .locator("figure[aria-label$='against time']")
+      .evaluateAll((els) => els.map((e) => e.getAttribute("aria-label") ?? ""));
+    expect(figures.some((f) => f.startsWith("Speed ("))).toBe(true);
+    expect(figures.join(" ")).not.toMatch(/velocity/i);
+    const heights = await page
+      .getByTestId("plot-box")
+      .evaluateAll((els) => els.map((e) => e.getBoundingClientRect().height));
+    expect(heights.length).toBeGreaterThanOrEqual(3);
+    for (const h of heights) expect(h).toBeGreaterThanOrEqual(120);
+    expect(await page.locator("body").innerText()).not.toMatch(/3D stage/i);
+    await page.waitForTimeout(1000);
+    await shot(page, "bench-1440");
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await page.waitForTimeout(800);
+    await shot(page, "bench-1024");
+    await page.setViewportSize({ width: 1440, height: 900 });
+  });
+
+  it("recordings, arms and datasets pages: no blank space under the footer", async () => {
+    const { page } = s;
+    for (const [path, name] of [
+      [`/projects/${researchProject.id}/recordings`, "recordings"],
+      [`/projects/${researchProject.id}/arms`, "arms"],
+      [`/projects/${researchProject.id}/datasets`, "datasets"],
+    ] as const) {
+      expect((await page.goto(path))?.status(), path).toBe(200);
+      await page.waitForTimeout(600);
+      expect(await spaceUnderFooter(page), path).toBeLessThanOrEqual(1);
+      await shot(page, name);
+    }
+    await expect(
+      page
+        .goto(`/projects/${researchProject.id}/recordings`)
+        .then(() => page.getByRole("table", { name: "Stored recordings" }).locator("tbody tr").count()),
+    ).resolves.toBeGreaterThan(0);
+  });
+
+  it("course page for a student: each assignment links to its bench, with a preview before submitting", async () => {
+    const { page } = s;
+    await signIn(page, aiko.email, aiko.password);
+    await page.goto("/courses");
+    await page.getByRole("table", { name: "Your courses" }).waitFor();
+    await shot(page, "courses-student");
+    await page.goto(`/courses/${demoCourse.id}`);
+    const row = page.getByTestId("assignment-row").filter({ hasText: demoCourse.assignments[0].title });
+    const preview = row.getByRole("link", { name: /preview it on the bench/ });
+    const href = (await preview.getAttribute("href"))!;
+    expect(href).toMatch(
+      new RegExp(`^/projects/[0-9a-f-]{36}/plans/[0-9a-f-]{36}\\?assignment=${demoCourse.assignments[0].id}$`),
+    );
+    await expect(row.getByTestId("submit-preview").textContent()).resolves.toContain(
+      "The assignment's limits may be stricter",
+    );
+    // Dates in the one format.
+    expect(await row.locator("time").first().textContent()).toMatch(/^\d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2}$/);
+    await shot(page, "course-student");
+    await preview.click();
+    await page.getByTestId("assignment-rules").waitFor();
+    await page.waitForTimeout(800);
+    await shot(page, "bench-assignment");
+    expect((await page.goto(`/courses/join?code=${demoCourse.joinCode}`))?.status()).toBe(200);
+    await shot(page, "course-join");
+  });
+
+  it("course, roster and reviews for the instructor: sortable roster, invitation errors under the field", async () => {
+    const { page } = s;
+    await signIn(page, instructor.email, instructor.password);
+    await page.goto("/courses");
+    await shot(page, "courses-instructor");
+    await page.goto(`/courses/${demoCourse.id}`);
+    const roster = page.getByRole("table", { name: "Roster" });
+    await expect(roster.innerText()).resolves.toContain(aiko.email);
+    await roster.getByRole("button", { name: /E-mail/ }).click();
+    await expect(roster.getByRole("columnheader", { name: /E-mail/ }).getAttribute("aria-sort")).resolves.toBe(
+      "ascending",
+    );
+    await page.getByLabel("Addresses").fill(`${aiko.email} not-an-address`);
+    await page.getByRole("button", { name: "Send invitations" }).click();
+    await page.waitForFunction(() => document.querySelector("textarea")?.getAttribute("aria-invalid") === "true");
+    await expect(errorUnder(page, "Addresses")).resolves.toBe("Address 2 (not-an-address) must be an e-mail address.");
+    await shot(page, "course-instructor");
+    expect((await page.goto("/reviews"))?.status()).toBe(200);
+    await shot(page, "reviews");
     expect(s.errors.filter((e) => !/404|401|400|422/.test(e))).toEqual([]);
   });
 });

@@ -21,7 +21,7 @@ const stamp = Date.now().toString(36);
 const n = armL.joints.length;
 const pose = (...v: number[]) => Array.from({ length: n }, (_, j) => v[j] ?? 0);
 
-/** The plan the test pastes into the bench: move 1 swings the base 1.2 rad in 2 s. */
+/** The plan the test pastes into the bench: Move 2 (`moves[1]`) swings the base 1.2 rad in 2 s. */
 const moves = [
   { goal: pose(0, -0.2, 1.0, 0.6), duration: 1.5, shape: "quintic" },
   { goal: pose(1.2, -0.2, 1.0, 0.6), duration: 2, shape: "quintic" },
@@ -42,7 +42,7 @@ async function signIn(page: Page, email: string, password: string) {
 }
 
 async function speedFaults(page: Page): Promise<number> {
-  return page.getByRole("button", { name: /^Fault: Speed over limit, base, move 1\./ }).count();
+  return page.getByRole("button", { name: /^Fault: Speed over limit, base, move 2\./ }).count();
 }
 
 describe("workspace", () => {
@@ -113,7 +113,7 @@ describe("workspace", () => {
     await page.waitForTimeout(500);
     const rail = (await page.getByRole("complementary", { name: "Plan outline" }).boundingBox())!;
     expect(rail.width).toBeGreaterThanOrEqual(399);
-    const duration = (await page.getByLabel("Move 3 duration (s)").boundingBox())!;
+    const duration = (await page.getByLabel("Move 4 duration (s)").boundingBox())!;
     expect(duration.x + duration.width).toBeLessThanOrEqual(rail.x + rail.width);
     const stageBox = (await page.getByTestId("stage").boundingBox())!;
     expect(stageBox.x).toBeGreaterThanOrEqual(rail.x + rail.width - 1);
@@ -134,9 +134,9 @@ describe("workspace", () => {
     expect(Number((await page.getByTestId("playhead-time").textContent())!.split(" / ")[0])).toBe(shown);
   });
 
-  it("shortening move 1 raises a speed-over fault; the shortest safe duration clears it", async () => {
+  it("shortening Move 2 raises a speed-over fault; the shortest safe duration clears it", async () => {
     const { page } = s;
-    const duration = page.getByLabel("Move 1 duration (s)");
+    const duration = page.getByLabel("Move 2 duration (s)");
     let d = 2;
     while ((await speedFaults(page)) === 0 && d > 0.1) {
       d = Math.round((d - 0.1) * 1000) / 1000;
@@ -159,26 +159,26 @@ describe("workspace", () => {
     expect(at(d + 0.1).findings.some((f) => f.kind === "speed-over" && f.severity === "fault" && f.move === 1)).toBe(
       false,
     );
-    await expect(page.getByTestId("move-row-1").getAttribute("aria-label")).resolves.toBe("Move 1: fault");
-    // a click on the finding moves the playhead to its moment: mid-move 1 (moves 0 and 1 run back to back)
-    await page.getByRole("button", { name: /^Fault: Speed over limit, base, move 1\./ }).click();
+    await expect(page.getByTestId("move-row-1").getAttribute("aria-label")).resolves.toBe("Move 2: fault");
+    // a click on the finding moves the playhead to its moment: mid-Move 2 (Moves 1 and 2 run back to back)
+    await page.getByRole("button", { name: /^Fault: Speed over limit, base, move 2\./ }).click();
     await expect(page.getByTestId("playhead-time").textContent()).resolves.toMatch(
       new RegExp(`^${(1.5 + d / 2).toFixed(3)} / `),
     );
     await page.screenshot({ path: `${screenshotDir}/workspace-speed-fault.png` });
 
     await page.getByTestId("move-row-1").click({ position: { x: 20, y: 10 } });
-    await page.getByRole("button", { name: /Set move 1 to its shortest safe duration/ }).click();
+    await page.getByRole("button", { name: /Set move 2 to its shortest safe duration/ }).click();
     const safe = Math.ceil(at(d).moves[1].minSafeDuration! * 1000 - 1e-9) / 1000;
     await expect(duration.inputValue()).resolves.toBe(safe.toFixed(3));
     expect(await speedFaults(page)).toBe(0);
-    await expect(page.getByTestId("move-row-1").getAttribute("aria-label")).resolves.not.toBe("Move 1: fault");
+    await expect(page.getByTestId("move-row-1").getAttribute("aria-label")).resolves.not.toBe("Move 2: fault");
   });
 
   it("saves a version with a note, exports the JSON behind the safety caution, and the command-line checker agrees", async () => {
     const { page } = s;
     await page.getByRole("button", { name: "Save version" }).click();
-    await page.getByLabel("Note (what changed and why)").fill("Move 1 at its shortest safe duration");
+    await page.getByLabel("Note (what changed and why)").fill("Move 2 at its shortest safe duration");
     await page.getByRole("button", { name: "Save", exact: true }).click();
     await page
       .getByTestId("save-state")
@@ -217,9 +217,9 @@ describe("workspace", () => {
   it("a save that races another one gets a clear choice, and two versions compare move by move", async () => {
     const { page } = s;
     const planId = planUrl.split("/").pop()!;
-    await page.getByLabel("Move 2 duration (s)").fill("1.5");
+    await page.getByLabel("Move 3 duration (s)").fill("1.5");
     await page.getByRole("button", { name: "Save version" }).click();
-    await page.getByLabel("Note (what changed and why)").fill("Move 2 slower");
+    await page.getByLabel("Note (what changed and why)").fill("Move 3 slower");
     await page.getByRole("button", { name: "Save", exact: true }).click();
     await page
       .getByTestId("save-state")
@@ -236,7 +236,7 @@ describe("workspace", () => {
     });
     expect(other.status()).toBe(201);
 
-    await page.getByLabel("Move 3 duration (s)").fill("2.5");
+    await page.getByLabel("Move 4 duration (s)").fill("2.5");
     await page.getByRole("button", { name: "Save version" }).click();
     await page.getByRole("button", { name: "Save", exact: true }).click();
     const conflict = page.getByRole("dialog", { name: "Someone saved this plan in the meantime" });
@@ -256,8 +256,8 @@ describe("workspace", () => {
     await versions.getByRole("checkbox", { name: "Compare version 1" }).check();
     await versions.getByRole("checkbox", { name: "Compare version 4" }).check();
     const comparison = versions.getByRole("region", { name: "Comparison" });
-    await comparison.getByText("move 2 duration: 1.2 → 1.5").waitFor();
-    await comparison.getByText("move 3 duration: 2 → 2.5").waitFor();
+    await comparison.getByText("Move 3 duration: 1.2 → 1.5").waitFor();
+    await comparison.getByText("Move 4 duration: 2 → 2.5").waitFor();
     await page.screenshot({ path: `${screenshotDir}/workspace-versions.png` });
     await page.keyboard.press("Escape");
   });

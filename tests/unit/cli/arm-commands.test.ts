@@ -72,7 +72,7 @@ describe("jointproof ik", () => {
     expect(r.code).toBe(0);
     const ik = JSON.parse(r.out);
     expect(ik.reachable).toBe(true);
-    expect(ik.error).toBeLessThan(1e-4);
+    expect(ik.positionErrorM).toBeLessThan(1e-4);
     expect(ik.pose).toHaveLength(7);
     const fk = JSON.parse((await run("fk", arm, "--pose", ik.pose.join(","))).out);
     [0.35, -0.2, 0.25].forEach((v, k) => expectClose(fk.position[k], v, 1e-4, 0));
@@ -83,7 +83,7 @@ describe("jointproof ik", () => {
     expect(r.code).toBe(1);
     const ik = JSON.parse(r.out);
     expect(ik.reachable).toBe(false);
-    expect(ik.error).toBeGreaterThan(1);
+    expect(ik.positionErrorM).toBeGreaterThan(1);
   });
 });
 

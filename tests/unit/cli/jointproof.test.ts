@@ -47,12 +47,12 @@ describe("jointproof check", () => {
     const { code, stdout } = run(["check", join(plans, "instant-jump.json")]);
     expect(code).toBe(1);
     expect(stdout).toContain("Verdict: FAULT");
-    expect(stdout).toMatch(/jump\s+move 0\s+Instant move 0, joint "elbow"/);
+    expect(stdout).toMatch(/jump\s+1\s+elbow\s+Instant move 1, joint "elbow"/);
   });
 
-  it("the table's move numbers, the finding lines and the messages agree (0-based, as in the JSON report)", () => {
+  it("the table's move numbers, the finding lines and the messages agree, counted from 1 (JSON stays 0-based)", () => {
     const doc = JSON.parse(readFileSync(join(plans, "instant-jump.json"), "utf8"));
-    // a passing move first, then the same jump one place later: everything must say move 1
+    // a passing move first, then the same jump one place later: the second move, moves[1], is Move 2
     const shifted = { ...doc, moves: [{ goal: doc.start, duration: 1 }, ...doc.moves] };
     const { code, stdout } = run(["check", "-"], JSON.stringify(shifted));
     expect(code).toBe(1);
@@ -60,13 +60,15 @@ describe("jointproof check", () => {
     const findingLines = lines.filter((l) => /^\s+(fault|caution)\s/.test(l));
     expect(findingLines.length).toBeGreaterThan(0);
     for (const l of findingLines) {
-      const listed = /\smove (\d+)\s/.exec(l)![1];
+      const listed = /^\s+\S+\s+\S+\s+(\d+)\s/.exec(l)![1];
       const said = /(?:Instant move|Move) (\d+)/.exec(l)![1];
       expect(said, l).toBe(listed);
-      expect(listed).toBe("1");
+      expect(listed).toBe("2");
     }
-    expect(lines.some((l) => /^\s+1\s.*fault/i.test(l))).toBe(true);
-    expect(lines.some((l) => /^\s+0\s.*fault/i.test(l))).toBe(false);
+    expect(lines.some((l) => /^\s+2\s.*fault/i.test(l))).toBe(true);
+    expect(lines.some((l) => /^\s+1\s.*fault/i.test(l))).toBe(false);
+    const json = run(["check", "-", "--json"], JSON.stringify(shifted));
+    expect(JSON.parse(json.stdout).findings[0].move).toBe(1);
   });
 
   it("reads the plan from stdin with -", () => {
@@ -183,7 +185,7 @@ describe("jointproof scan", () => {
     writeFileSync(badArm, JSON.stringify(raw));
     const { code, stderr } = run(["scan", log, "--arm", badArm]);
     expect(code).toBe(2);
-    expect(stderr).toBe("arm.joints[1].maxVelocity: must be greater than 0\n");
+    expect(stderr).toBe(`${badArm}: joints[1].maxVelocity: must be greater than 0\n`);
   });
 
   it("exits 2 when --arm is missing", () => {

@@ -51,23 +51,23 @@ function rowVerdict(i: number): string | null {
 describe("move list", () => {
   it("lists each move with its duration, shape and verdict from the engine", () => {
     render(<Harness initial={threeMoves()} />);
-    expect((screen.getByLabelText("Move 1 duration (s)") as HTMLInputElement).value).toBe("1.500");
-    expect((screen.getByLabelText("Move 2 shape") as HTMLSelectElement).value).toBe("cubic");
+    expect((screen.getByLabelText("Move 2 duration (s)") as HTMLInputElement).value).toBe("1.500");
+    expect((screen.getByLabelText("Move 3 shape") as HTMLSelectElement).value).toBe("cubic");
     expect([rowVerdict(0), rowVerdict(1), rowVerdict(2)]).toEqual(["pass", "pass", "pass"]);
   });
 
   it("a duration too short for the base's speed limit turns the move's verdict to fault", () => {
     render(<Harness initial={threeMoves()} />);
     // 0.5 rad quintic: peak 1.875·0.5/T; base limit 3.2 rad/s → faults below ≈ 0.293 s
-    fireEvent.change(screen.getByLabelText("Move 0 duration (s)"), { target: { value: "0.2" } });
+    fireEvent.change(screen.getByLabelText("Move 1 duration (s)"), { target: { value: "0.2" } });
     expect(rowVerdict(0)).toBe("fault");
     expect(within(screen.getByTestId("move-row-0")).getByText("Fault")).toBeTruthy();
   });
 
   it("the shortest-safe action sets the duration that passes without fault", () => {
     render(<Harness initial={threeMoves()} />);
-    fireEvent.change(screen.getByLabelText("Move 0 duration (s)"), { target: { value: "0.2" } });
-    fireEvent.click(screen.getByRole("button", { name: /Set move 0 to its shortest safe duration/ }));
+    fireEvent.change(screen.getByLabelText("Move 1 duration (s)"), { target: { value: "0.2" } });
+    fireEvent.click(screen.getByRole("button", { name: /Set move 1 to its shortest safe duration/ }));
     const d = current.moves[0].duration;
     expect(d).toBeGreaterThan(0.2);
     expect(check(current).moves[0].findings.filter((f) => f.severity === "fault")).toEqual([]);
@@ -120,7 +120,7 @@ describe("move list", () => {
     fireEvent.click(screen.getByRole("button", { name: /Add move/ }));
     expect(current.moves).toHaveLength(4);
     expect(current.moves[3].goal).toEqual(current.moves[2].goal);
-    fireEvent.click(screen.getByRole("button", { name: "Duplicate move 3" }));
+    fireEvent.click(screen.getByRole("button", { name: "Duplicate move 4" }));
     expect(current.moves).toHaveLength(5);
   });
 
@@ -133,19 +133,19 @@ describe("move list", () => {
     });
     expect(current.moves[0].goal).toEqual(pose(0.5, 0.4));
     expect(current.moves[1].goal).toEqual(pose(0.5));
-    expect(screen.getByText("Move 1 is now move 0 of 3.")).toBeTruthy();
+    expect(screen.getByText("Move 2 is now move 1 of 3.")).toBeTruthy();
   });
 
   it("reorders with the down button, and cannot move the last row further", () => {
     render(<Harness initial={threeMoves()} select={2} />);
-    expect((screen.getByRole("button", { name: "Move 2 down" }) as HTMLButtonElement).disabled).toBe(true);
-    fireEvent.click(screen.getByRole("button", { name: "Move 2 up" }));
+    expect((screen.getByRole("button", { name: "Move 3 down" }) as HTMLButtonElement).disabled).toBe(true);
+    fireEvent.click(screen.getByRole("button", { name: "Move 3 up" }));
     expect(current.moves[1].shape).toBe("cubic");
   });
 
   it("deletes the selected move with its button and with the Delete key", () => {
     render(<Harness initial={threeMoves()} select={0} />);
-    fireEvent.click(screen.getByRole("button", { name: "Delete move 0" }));
+    fireEvent.click(screen.getByRole("button", { name: "Delete move 1" }));
     expect(current.moves).toHaveLength(2);
     fireEvent.keyDown(screen.getByTestId("move-row-1"), { key: "Delete" });
     expect(current.moves).toHaveLength(1);
@@ -153,7 +153,7 @@ describe("move list", () => {
 
   it("changes the shape of a move", () => {
     render(<Harness initial={threeMoves()} />);
-    fireEvent.change(screen.getByLabelText("Move 0 shape"), { target: { value: "trapezoid" } });
+    fireEvent.change(screen.getByLabelText("Move 1 shape"), { target: { value: "trapezoid" } });
     expect(current.moves[0].shape).toBe("trapezoid");
   });
 

@@ -59,7 +59,7 @@ describe("quick fixes", () => {
     const speed = report.findings.findIndex((f) => f.kind === "speed-over" && f.severity === "fault");
     expect(fixes.findings[speed].fixes.map((f) => f.scope)).toEqual(["move", "plan"]);
     expect(fixLabel(fixes.findings[speed].fixes[0], plan, "deg")).toBe(
-      `This move only: Move 0 to ${(safe as number).toFixed(3)} s`,
+      `This move only: Move 1 to ${(safe as number).toFixed(3)} s`,
     );
   });
 
@@ -75,7 +75,7 @@ describe("quick fixes", () => {
     expect(fixes.findings[jump].remedy).toContain("one control period (1 ms at 1000 Hz)");
     expect(fixes.findings[jump].remedy).toContain(`shortest passing: ${safe.toFixed(3)} s`);
     expect(fixes.findings[jump].remedy).toContain("smaller step");
-    expect(fixLabel(fixes.findings[jump].fixes[0], plan, "deg")).toContain("Instant move 0");
+    expect(fixLabel(fixes.findings[jump].fixes[0], plan, "deg")).toContain("Instant move 1");
     // a plan of instant moves only has no timed move to scale
     expect(fixes.plan).toBeNull();
   });
@@ -147,7 +147,7 @@ describe("quick fixes", () => {
     expect(range).toBeGreaterThanOrEqual(0);
     const fixes = expectEveryFixHolds(plan, report);
     expect(fixes.findings[range].remedy).toMatch(
-      /^No duration fixes this: bring shoulder in Move 0 back inside its travel/,
+      /^No duration fixes this: bring shoulder in Move 1 back inside its travel/,
     );
     const offered = fixes.findings[range].fixes;
     expect(offered.length).toBeLessThanOrEqual(1);

@@ -128,7 +128,12 @@ describe("plan document v1", () => {
     });
     expect(result.ok).toBe(false);
     if (!result.ok)
-      expect(result.problems).toEqual([{ path: ["joints", 1, "name"], message: "repeats the name of joint 0" }]);
+      expect(result.problems).toEqual([
+        {
+          path: ["joints", 1, "name"],
+          message: 'repeats the name "a" of an earlier joint (joints[0]); give each joint its own name',
+        },
+      ]);
   });
 
   it("formats nested paths with list indexes in brackets", () => {
