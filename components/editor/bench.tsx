@@ -9,6 +9,7 @@ import { Button } from "@/components/ui/button";
 import { RailHeading } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
 import { PendingChip, VerdictChip } from "@/components/ui/verdict-chip";
+import { ghostColors } from "@/components/viewer/colors";
 import { StageErrorBoundary } from "@/components/viewer/error-boundary";
 import { moveLabel, type Arm, type Report } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
@@ -230,11 +231,17 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
               )}
               <div className="pointer-events-none absolute top-2 left-2 flex flex-col gap-1 text-[11px] text-ink-soft">
                 <span className="rounded bg-panel/85 px-1.5 py-0.5">
-                  <span className="mr-1 inline-block h-2 w-2 rounded-full bg-brand-500/40 align-middle" />
+                  <span
+                    className="mr-1 inline-block h-2 w-2 rounded-full align-middle"
+                    style={{ background: ghostColors.start }}
+                  />
                   start ghost
                   {selected !== "start" ? (
                     <>
-                      <span className="mr-1 ml-2 inline-block h-2 w-2 rounded-full bg-[#6d4bc3]/40 align-middle" />
+                      <span
+                        className="mr-1 ml-2 inline-block h-2 w-2 rounded-full align-middle"
+                        style={{ background: ghostColors.goal }}
+                      />
                       goal ghost
                     </>
                   ) : null}
