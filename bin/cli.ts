@@ -30,7 +30,13 @@ import {
 import { ArmFileError, readArmFile } from "./arm-file";
 import { armUsage, isArmCommand, runArmCommand } from "./arm-commands";
 import { auditUsage, isAuditCommand, runAuditCommand } from "./audit-command";
-import { hasExportBlock, recordedVerdict, verifyExport, verifyJsonChecksum } from "../lib/shared/export-format";
+import {
+  hasExportBlock,
+  planOfExport,
+  recordedVerdict,
+  verifyExport,
+  verifyJsonChecksum,
+} from "../lib/shared/export-format";
 import { formatTable } from "./table";
 
 /** Where the command writes; replaced in tests only by the real process streams. */
@@ -215,7 +221,7 @@ async function runCheck(args: Args, io: Io): Promise<number> {
     if (!checksum.ok) throw new InputError([checksum.problem]);
     verifiedLine = `Export checksum verified: export.sha256 ${checksum.digest} matches the content.\n`;
   }
-  const parsed = parsePlan(document);
+  const parsed = parsePlan(exported ? planOfExport(exported) : document);
   if (!parsed.ok) throw new InputError(problemLines(parsed.problems));
   const report = check(parsed.value);
   const recorded = exported ? recordedVerdict(exported) : null;

@@ -8,6 +8,7 @@
 export * from "./plan/arm";
 export * from "./plan/document";
 export * from "./plan/problems";
+export * from "./plan/unknown-fields";
 export * from "./plan/targets";
 export * from "./plan/parse";
 export * from "./motion/shapes";

@@ -5,6 +5,7 @@ import { Dialog } from "@/components/ui/dialog";
 import { TextAreaField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
 import { formatPath, parsePlan, type InputProblem } from "@/kinematics";
+import { hasExportBlock, planOfExport } from "@/lib/shared/export-format";
 import type { BenchPlan } from "./plan-state";
 
 export type ImportResult = { ok: true; plan: BenchPlan; note?: string } | { ok: false; problems: InputProblem[] };
@@ -24,9 +25,8 @@ export function importPlanText(text: string, current: BenchPlan): ImportResult {
       problems: [{ path: [], message: `is not JSON (${err instanceof Error ? err.message : "parse error"})` }],
     };
   }
-  // An export wraps the document; accept it too.
-  const doc = raw && typeof raw === "object" && "document" in raw ? (raw as { document: unknown }).document : raw;
-  const parsed = parsePlan(doc);
+  // An export is the plan document with an `export` block; the plan is read without the block.
+  const parsed = parsePlan(hasExportBlock(raw) ? planOfExport(raw) : raw);
   if (!parsed.ok) return { ok: false, problems: parsed.problems };
   const value = parsed.value;
   const n = current.arm.joints.length;

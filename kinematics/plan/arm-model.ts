@@ -4,6 +4,8 @@
  * work-surface margin, a tool-speed limit and Cartesian goals. Every field is optional on
  * the plan document, so a version-1 document without them means exactly what it meant.
  *
+ * Every object refuses keys it does not know (`unknown-fields.ts`).
+ *
  * Frames follow the URDF joint model: joint i's `origin` places its joint frame in link
  * (i−1)'s frame (link 0 is the base), the joint turns or slides about `axis` given in that
  * joint frame, and link i's frame is the joint frame after that motion.
@@ -11,6 +13,7 @@
  * @module
  */
 import { z } from "zod";
+import { strictObject } from "./unknown-fields";
 
 const finite = z.number().refine(Number.isFinite, { message: "must be a finite number" });
 const nonNegative = finite.refine((v) => v >= 0, { message: "must be 0 or greater" });
@@ -20,13 +23,13 @@ const positive = finite.refine((v) => v > 0, { message: "must be greater than 0"
 export const vec3Schema = z.tuple([finite, finite, finite]);
 
 /** A rigid transform: `xyz` in metres, fixed-axis `rpy` in radians, R = Rz(yaw)·Ry(pitch)·Rx(roll). */
-export const originSchema = z.object({
+export const originSchema = strictObject({
   xyz: vec3Schema.default([0, 0, 0]),
   rpy: vec3Schema.default([0, 0, 0]),
 });
 
 /** Rotational inertia about the centre of mass, in the link frame's axes (kg·m²). */
-export const inertiaSchema = z.object({
+export const inertiaSchema = strictObject({
   ixx: nonNegative,
   ixy: finite.default(0),
   ixz: finite.default(0),
@@ -36,7 +39,7 @@ export const inertiaSchema = z.object({
 });
 
 /** Mass properties of one link: `mass` in kg, `com` (m) in the link frame, `inertia` about the com. */
-export const inertialSchema = z.object({
+export const inertialSchema = strictObject({
   mass: nonNegative,
   com: vec3Schema.default([0, 0, 0]),
   inertia: inertiaSchema.default({ ixx: 0, ixy: 0, ixz: 0, iyy: 0, iyz: 0, izz: 0 }),
@@ -44,9 +47,9 @@ export const inertialSchema = z.object({
 
 /** A simple collision shape in its link's frame (metres), used for clearance and for drawing. */
 export const collisionShapeSchema = z.discriminatedUnion("kind", [
-  z.object({ kind: z.literal("sphere"), center: vec3Schema, radius: positive }),
-  z.object({ kind: z.literal("capsule"), from: vec3Schema, to: vec3Schema, radius: positive }),
-  z.object({
+  strictObject({ kind: z.literal("sphere"), center: vec3Schema, radius: positive }),
+  strictObject({ kind: z.literal("capsule"), from: vec3Schema, to: vec3Schema, radius: positive }),
+  strictObject({
     kind: z.literal("box"),
     center: vec3Schema,
     /** Full edge lengths along the box's own axes (m). */
@@ -56,14 +59,14 @@ export const collisionShapeSchema = z.discriminatedUnion("kind", [
 ]);
 
 /** One link: its name, optional mass properties and collision shapes. */
-export const linkSchema = z.object({
+export const linkSchema = strictObject({
   name: z.string().min(1).optional(),
   inertial: inertialSchema.optional(),
   collision: z.array(collisionShapeSchema).default([]),
 });
 
 /** One joint of the chain: where its frame sits in the parent link and the axis it moves about. */
-export const chainJointSchema = z.object({
+export const chainJointSchema = strictObject({
   origin: originSchema.default({ xyz: [0, 0, 0], rpy: [0, 0, 0] }),
   /** Unit direction in the joint frame (normalised on compile; must not be zero). */
   axis: vec3Schema.refine((a) => Math.hypot(a[0], a[1], a[2]) > 1e-9, { message: "must not be the zero vector" }),
@@ -75,7 +78,7 @@ export const chainJointSchema = z.object({
  * joints after the last chain joint (for example a gripper's finger travel) are outside the
  * chain and their mass belongs in the last link.
  */
-export const armChainSchema = z.object({
+export const armChainSchema = strictObject({
   base: linkSchema.default({ collision: [] }),
   joints: z.array(chainJointSchema).min(1),
   /** The tool point in the last link's frame. */
@@ -85,7 +88,7 @@ export const armChainSchema = z.object({
 });
 
 /** Coulomb and viscous friction of one joint: τ_f = viscous·q̇ + coulomb·sgn(q̇). */
-export const jointFrictionSchema = z.object({
+export const jointFrictionSchema = strictObject({
   /** Coulomb friction (N·m, or N for a prismatic joint). */
   coulomb: nonNegative.default(0),
   /** Viscous friction (N·m·s/rad, or N·s/m). */
@@ -93,31 +96,29 @@ export const jointFrictionSchema = z.object({
 });
 
 /** A carried mass fixed to the tool: `mass` in kg, `com` (m) in the tool-point frame. */
-export const payloadSchema = z.object({
+export const payloadSchema = strictObject({
   mass: nonNegative,
   com: vec3Schema.default([0, 0, 0]),
   inertia: inertiaSchema.optional(),
 });
 
 /** An axis-aligned keep-out box in the base frame (m); the arm's collision shapes must stay outside. */
-export const keepOutBoxSchema = z
-  .object({
-    name: z.string().min(1).optional(),
-    min: vec3Schema,
-    max: vec3Schema,
-  })
-  .refine((b) => b.min[0] < b.max[0] && b.min[1] < b.max[1] && b.min[2] < b.max[2], {
-    message: "min must be below max on every axis",
-  });
+export const keepOutBoxSchema = strictObject({
+  name: z.string().min(1).optional(),
+  min: vec3Schema,
+  max: vec3Schema,
+}).refine((b) => b.min[0] < b.max[0] && b.min[1] < b.max[1] && b.min[2] < b.max[2], {
+  message: "min must be below max on every axis",
+});
 
 /** A Cartesian goal for the tool point in the base frame: position (m), optional orientation rpy (rad). */
-export const cartesianGoalSchema = z.object({
+export const cartesianGoalSchema = strictObject({
   position: vec3Schema,
   rpy: vec3Schema.optional(),
 });
 
 /** Optional plan-level fields of the arm model (merged into the plan schema). */
-export const armPlanFieldsSchema = z.object({
+export const armPlanFieldsSchema = strictObject({
   payload: payloadSchema.optional(),
   keepOut: z.array(keepOutBoxSchema).optional(),
   /** Clearance the collision shapes keep above the work surface z = 0 (m). */
@@ -127,7 +128,7 @@ export const armPlanFieldsSchema = z.object({
 });
 
 /** The arm-model description printed by `arm import` and accepted by `fk`/`ik`. */
-export const armDescriptionJointSchema = z.object({
+export const armDescriptionJointSchema = strictObject({
   name: z.string().min(1),
   type: z.enum(["revolute", "continuous", "prismatic"]),
   min: finite.nullable(),
@@ -141,7 +142,7 @@ export const armDescriptionJointSchema = z.object({
 });
 
 /** A whole arm description (URDF import result). `links[0]` is the base; `links[i]` follows joint i. */
-export const armDescriptionSchema = z.object({
+export const armDescriptionSchema = strictObject({
   name: z.string().min(1),
   joints: z.array(armDescriptionJointSchema).min(1),
   links: z.array(linkSchema),

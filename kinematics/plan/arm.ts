@@ -11,6 +11,7 @@
 import { z } from "zod";
 import { armChainSchema, jointFrictionSchema } from "./arm-model";
 import { finite, isObjectPayload, listOf, nonNegative, positive, typeError } from "./fields";
+import { strictObject } from "./unknown-fields";
 
 /** How a joint moves: `revolute` (radians) or `prismatic` (metres). */
 export const jointTypeSchema = z.enum(["revolute", "prismatic"], {
@@ -25,7 +26,7 @@ export type JointType = z.infer<typeof jointTypeSchema>;
  * `maxAcceleration` (optional) in rad/s² or m/s², `maxEffort` (optional) in N·m (N for a prismatic
  * joint), `friction` (optional) Coulomb and viscous; `type` defaults to `revolute`.
  */
-export const jointSchema = z.object(
+export const jointSchema = strictObject(
   {
     name: z.string({ error: typeError("a text") }).min(1, { error: "must not be empty" }),
     type: jointTypeSchema.default("revolute"),
@@ -36,7 +37,7 @@ export const jointSchema = z.object(
     maxEffort: nonNegative().optional(),
     friction: jointFrictionSchema.optional(),
   },
-  { error: typeError("an object (a joint)") },
+  "an object (a joint)",
 );
 
 /** A joint after parsing (defaults applied). */
@@ -47,7 +48,7 @@ export type Joint = z.infer<typeof jointSchema>;
  * above `cautionRatio` × limit, and not above the limit, is a caution; default 0.9) and optionally
  * the geometry, masses and collision shapes of its first `chain.joints.length` joints.
  */
-export const armSchema = z.object(
+export const armSchema = strictObject(
   {
     name: z.string({ error: typeError("a text") }).min(1, { error: "must not be empty" }),
     controlRateHz: positive(),
@@ -60,7 +61,7 @@ export const armSchema = z.object(
       .min(1, { error: "must list at least one joint" }),
     chain: armChainSchema.optional(),
   },
-  { error: typeError("an object (an arm)") },
+  "an object (an arm)",
 );
 
 /** An arm after parsing (defaults applied). */

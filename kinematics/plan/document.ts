@@ -15,6 +15,7 @@ import { z } from "zod";
 import { addJointIssues, armSchema } from "./arm";
 import { cartesianGoalSchema, keepOutBoxSchema, payloadSchema } from "./arm-model";
 import { finite, isObjectPayload, listOf, nonNegative, positive, typeError } from "./fields";
+import { strictObject } from "./unknown-fields";
 
 /** Names of the interpolation shapes the engine knows; see `motion/shapes.ts` for their definitions. */
 export const shapeNames = ["cubic", "quintic", "trapezoid"] as const;
@@ -39,14 +40,14 @@ export type Pose = z.infer<typeof poseSchema>;
  * give a Cartesian tool-point `target` instead of `goal`; parsing fills `goal` from it by inverse
  * kinematics (`targets.ts`).
  */
-export const moveSchema = z.object(
+export const moveSchema = strictObject(
   {
     goal: poseSchema,
     duration: nonNegative(),
     shape: shapeSchema.default("quintic"),
     target: cartesianGoalSchema.optional(),
   },
-  { error: typeError("an object (a move)") },
+  "an object (a move)",
 );
 
 /** A move after parsing (defaults applied). */
@@ -65,49 +66,48 @@ type MoveLike = z.ZodType<{ goal: number[] }>;
 /**
  * Builds the plan document schema over the given arm and move schemas, with the cross-field rules:
  * every pose has one value per joint, each joint's `min` is not above its `max`, joint names are
- * unique. Used for {@link planSchema}; extensions pass their extended arm and move schemas.
+ * unique, and no object holds a key it does not know (`unknown-fields.ts`). Used for
+ * {@link planSchema}; extensions pass their extended arm and move schemas.
  * Plan-level arm-model fields: `payload` (carried mass at the tool), `keepOut` boxes,
  * `surfaceMargin` (m) and `maxToolSpeed` (m/s).
  */
 export function makePlanSchema<A extends ArmLike, M extends MoveLike>(arm: A, move: M) {
-  return z
-    .object(
-      {
-        format: z.literal(planFormat, { error: `must be "${planFormat}"` }),
-        version: z.literal(planVersion, { error: `must be ${planVersion} (the only version this checker reads)` }),
-        arm,
-        start: poseSchema,
-        moves: z.array(move, { error: typeError("a list of moves") }),
-        payload: payloadSchema.optional(),
-        keepOut: z.array(keepOutBoxSchema).optional(),
-        surfaceMargin: nonNegative().optional(),
-        maxToolSpeed: positive().optional(),
-      },
-      { error: typeError("an object (a plan document)") },
-    )
-    .superRefine(
-      (plan, ctx) => {
-        // Runs even when other fields failed (`when` below), so the value may be partial: read defensively.
-        const joints = listOf((plan as { arm?: { joints?: unknown } }).arm?.joints);
-        if (joints) addJointIssues(joints, ctx, ["arm"]);
-        if (!joints) return;
-        const jointCount = joints.length;
-        const poseIssue = (pose: unknown, path: (string | number)[]) => {
-          if (Array.isArray(pose) && pose.length !== jointCount) {
-            ctx.addIssue({
-              code: "custom",
-              path,
-              message: `must have ${jointCount} value${jointCount === 1 ? "" : "s"}, one per joint (has ${pose.length})`,
-            });
-          }
-        };
-        poseIssue((plan as { start?: unknown }).start, ["start"]);
-        listOf((plan as { moves?: unknown }).moves)?.forEach((m, i) =>
-          poseIssue((m as { goal?: unknown } | null)?.goal, ["moves", i, "goal"]),
-        );
-      },
-      { when: isObjectPayload },
-    );
+  return strictObject(
+    {
+      format: z.literal(planFormat, { error: `must be "${planFormat}"` }),
+      version: z.literal(planVersion, { error: `must be ${planVersion} (the only version this checker reads)` }),
+      arm,
+      start: poseSchema,
+      moves: z.array(move, { error: typeError("a list of moves") }),
+      payload: payloadSchema.optional(),
+      keepOut: z.array(keepOutBoxSchema).optional(),
+      surfaceMargin: nonNegative().optional(),
+      maxToolSpeed: positive().optional(),
+    },
+    "an object (a plan document)",
+  ).superRefine(
+    (plan, ctx) => {
+      // Runs even when other fields failed (`when` below), so the value may be partial: read defensively.
+      const joints = listOf((plan as { arm?: { joints?: unknown } }).arm?.joints);
+      if (joints) addJointIssues(joints, ctx, ["arm"]);
+      if (!joints) return;
+      const jointCount = joints.length;
+      const poseIssue = (pose: unknown, path: (string | number)[]) => {
+        if (Array.isArray(pose) && pose.length !== jointCount) {
+          ctx.addIssue({
+            code: "custom",
+            path,
+            message: `must have ${jointCount} value${jointCount === 1 ? "" : "s"}, one per joint (has ${pose.length})`,
+          });
+        }
+      };
+      poseIssue((plan as { start?: unknown }).start, ["start"]);
+      listOf((plan as { moves?: unknown }).moves)?.forEach((m, i) =>
+        poseIssue((m as { goal?: unknown } | null)?.goal, ["moves", i, "goal"]),
+      );
+    },
+    { when: isObjectPayload },
+  );
 }
 
 /** The plan document, version 1. */

@@ -6,6 +6,7 @@
  * @module
  */
 import type { z } from "zod";
+import { unknownFieldProblems } from "./unknown-fields";
 
 /** One segment of a field path: an object key or a 0-based list index. */
 export type PathSegment = string | number;
@@ -36,10 +37,14 @@ export function formatProblem(problem: InputProblem, whole = "(document)"): stri
   return `${formatPath(problem.path, whole)}: ${problem.message}`;
 }
 
-/** Turns zod issues into problems, one per issue, in document order. */
+/**
+ * Turns zod issues into problems in document order: one per issue, except that each unknown key is
+ * its own problem at its own path (`arm.joints[2].maxAccelaration`).
+ */
 export function describeIssues(issues: readonly z.core.$ZodIssue[]): InputProblem[] {
-  return issues.map((issue) => ({
-    path: issue.path.map((key) => (typeof key === "number" ? key : String(key))),
-    message: issue.message,
-  }));
+  return issues.flatMap((issue) =>
+    issue.code === "unrecognized_keys"
+      ? unknownFieldProblems(issue)
+      : [{ path: issue.path.map((key) => (typeof key === "number" ? key : String(key))), message: issue.message }],
+  );
 }

@@ -135,6 +135,16 @@ export function hasExportBlock(document: unknown): document is { export: Record<
 }
 
 /**
+ * The plan document inside a JSON export: a copy without the `export` block, which the checksum
+ * vouches for and the plan schema does not know. Every other field is left for the plan schema,
+ * which refuses any it does not know; this is the one place an export's extra block is removed.
+ */
+export function planOfExport(document: { export: Record<string, unknown> }): Record<string, unknown> {
+  const { export: _block, ...plan } = document;
+  return plan;
+}
+
+/**
  * Verifies the checksum of a parsed JSON export. The document is not changed: the digest is taken
  * over a shallow copy whose `export` block lacks `sha256` (spreading keeps the keys in file order).
  */
