@@ -33,8 +33,9 @@ export function JoinCourse({ code, course }: { code: string; course: { title: st
           </>
         ) : (
           <ErrorNote title="No course for this link">
-            The join code {code ? <span className="font-mono">{code}</span> : null} opens no open course. Check the code
-            with your instructor.
+            No course that is taking students has the join code{" "}
+            {code ? <span className="font-mono">{code}</span> : null}: the code may be mistyped, or the course may be
+            closed. Ask your instructor for the current code or link.
           </ErrorNote>
         )}
       </Panel>

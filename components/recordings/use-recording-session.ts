@@ -68,7 +68,16 @@ export function useRecordingSession({
   const openStored = async (r: RecordingDto) => {
     const res = await fetch(api.recordingFileUrl(r.id));
     if (!res.ok) {
-      dispatch({ type: "refused", problems: [`The stored file could not be fetched (HTTP ${res.status}).`] });
+      dispatch({
+        type: "refused",
+        problems: [
+          res.status === 404
+            ? "The stored file is no longer there (it may have been deleted); reload the page to see the current recordings."
+            : res.status === 401 || res.status === 403
+              ? "You no longer have access to this recording; sign in again, or ask the project's owner for access."
+              : `The stored file could not be loaded (the server answered ${res.status}); try again in a moment.`,
+        ],
+      });
       return;
     }
     const blob = await res.blob();

@@ -53,6 +53,16 @@ export interface FieldIssue {
   message: string;
 }
 
+/** What to do next when an error response carries no message of its own (a proxy's page, say). */
+function answerWithoutMessage(status: number): string {
+  if (status === 401) return "You are signed out; sign in again and retry.";
+  if (status === 403) return "You do not have access to this; ask the owner of the project or course for access.";
+  if (status === 404) return "Nothing is here any more (it may have been deleted); reload the page.";
+  if (status === 413) return "The upload is too large for the server; send a smaller file.";
+  if (status >= 500) return `The server could not answer (status ${status}); try again in a minute.`;
+  return `The request was refused (status ${status}); reload the page and try again.`;
+}
+
 /** An error answered by the API (or a network failure, status 0). */
 export class ApiError extends Error {
   constructor(
@@ -84,7 +94,7 @@ export async function request<T>(path: string, init?: RequestInit): Promise<T> {
     throw new ApiError(
       0,
       "network",
-      `The server could not be reached (${err instanceof Error ? err.message : "network error"}).`,
+      `The server could not be reached (${err instanceof Error ? err.message : "network error"}); check your connection and try again.`,
     );
   }
   const text = await res.text();
@@ -102,7 +112,7 @@ export async function request<T>(path: string, init?: RequestInit): Promise<T> {
     throw new ApiError(
       res.status,
       code ?? `http_${res.status}`,
-      message ?? `The server answered ${res.status}.`,
+      message ?? answerWithoutMessage(res.status),
       issues ?? [],
       details,
     );
@@ -237,7 +247,7 @@ export function uploadWithProgress(
         new ApiError(
           xhr.status,
           code ?? `http_${xhr.status}`,
-          message ?? `The server answered ${xhr.status}.`,
+          message ?? answerWithoutMessage(xhr.status),
           issues ?? [],
           details,
         ),

@@ -36,18 +36,24 @@ const statusByKind: Record<ErrorKind, number> = {
   unavailable: 503,
 };
 
+/** What each kind of error means and what to do next, when the thrower gives no message of its own. */
 const defaultMessage: Record<ErrorKind, string> = {
-  bad_request: "The request is not valid.",
-  unauthorized: "Sign in or send an API token (Authorization: Bearer …).",
-  forbidden: "Your role does not allow this.",
-  not_found: "Not found.",
-  conflict: "The resource changed since you loaded it.",
-  payload_too_large: "The request body is too large.",
-  unsupported_media_type: "The request body has the wrong content type.",
-  unprocessable: "The request is well-formed but cannot be processed.",
-  rate_limited: "Too many requests; wait and try again.",
-  internal: "Something went wrong on the server; it has been logged.",
-  unavailable: "The service is briefly unavailable; try again shortly.",
+  bad_request: "The request is not valid; fix the problems listed in issues and send it again.",
+  unauthorized:
+    "Sign in, or send an API token (Authorization: Bearer …) made on the API tokens page (/settings/tokens).",
+  forbidden: "You do not have access to this; ask the owner of the project or course to give it to you.",
+  not_found:
+    "Nothing is here: it may have been deleted, or you may not have access to it. Check the link, or ask its owner to share it.",
+  conflict: "This changed since you loaded it; reload to see the latest version, then make your change again.",
+  payload_too_large: "The request is too large for this server; send a smaller file or split it into parts.",
+  unsupported_media_type:
+    "The request body has the wrong content type; send the type the API documentation lists for this endpoint (usually application/json).",
+  unprocessable:
+    "The request is well-formed but cannot be carried out as sent; change what issues names and try again.",
+  rate_limited: "Too many requests; wait a minute and try again.",
+  internal:
+    "Something went wrong on the server and it has been logged; try again, and if it keeps happening tell the site's administrator the request id (X-Request-Id).",
+  unavailable: "The service is briefly unavailable; try again in a minute.",
 };
 
 export class AppError extends Error {

@@ -695,7 +695,7 @@ const operations: Op[] = [
 const statusText: Record<number, string> = {
   400: "Invalid input; `issues` names each field path",
   401: "No valid session or token",
-  403: "Your role does not allow this (or a cross-site request with a session cookie)",
+  403: "Your role does not allow this; the message says who can grant access (or a cross-site request with a session cookie)",
   404: "Not found (or not visible to you)",
   409: "Conflict (e.g. a newer version was saved)",
   413: "Body too large",
@@ -748,7 +748,9 @@ export function openApiDocument(serverUrl: string): Json {
         "Plans, versions, checks and exports for small robot arms. Authenticate with a personal API token as " +
         "`Authorization: Bearer <token>` (RFC 6750) or with a browser session. A passing check is a prediction " +
         "from a model of the arm, not a guarantee that a motion is safe: clamp the arm, clear the workspace, keep " +
-        "the emergency stop in reach, run new plans slowly first and follow your lab's rules and the applicable standards.",
+        "the emergency stop in reach, run new plans slowly first and follow your lab's rules and the applicable standards. " +
+        "Numbering: JSON fields and field paths are 0-based (the first move is `move: 0`, `moves[0]`); messages count " +
+        'as people do, from 1 ("Move 1" is the first move; recordings name the file\'s line, the header being line 1).',
     },
     servers: [{ url: `${serverUrl.replace(/\/$/, "")}/api/v1` }],
     security: [{ bearer: [] }, { session: [] }],

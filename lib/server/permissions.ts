@@ -89,22 +89,80 @@ export function canProject(membership: { role: MemberRole; archived: boolean }, 
   return projectPermissions[membership.role].has(action);
 }
 
+/** What each site action lets someone do, for refusals ("cannot create courses"). */
+const siteActionWords: Record<SiteAction, string> = {
+  "project:create": "create projects",
+  "project:create-course": "create courses",
+  "token:manage": "manage API tokens",
+  "check:run": "run checks",
+  "arm:read-builtin": "read the built-in arms",
+  "user:list": "list the site's users",
+  "user:manage": "manage the site's users",
+};
+
+/** What each project action lets someone do, for refusals ("cannot save a new version of a plan"). */
+const projectActionWords: Record<ProjectAction, string> = {
+  "project:read": "open this project",
+  "project:rename": "rename this project",
+  "project:archive": "archive or un-archive this project",
+  "member:list": "see this project's members",
+  "member:manage": "change this project's members",
+  "arm:read": "see this project's arms",
+  "arm:write": "change this project's arms",
+  "plan:read": "open this project's plans",
+  "plan:create": "create plans in this project",
+  "plan:delete": "delete plans in this project",
+  "version:create": "save a new version of a plan in this project",
+  "recording:read": "open this project's recordings",
+  "recording:create": "upload recordings to this project",
+  "dataset:read": "open this project's datasets",
+  "dataset:create": "upload datasets to this project",
+  "dataset:audit": "audit this project's datasets",
+  "dataset:repair": "repair this project's datasets",
+  "audit:read": "read this project's audit log",
+};
+
+/**
+ * A refusal of a site action: what was refused and who can grant it. Site roles are set by the
+ * site's administrator, so that is who to ask.
+ */
+export function siteRefusal(role: SiteRole, action: SiteAction): string {
+  const roles = (Object.keys(sitePermissions) as SiteRole[]).filter((r) => sitePermissions[r].has(action));
+  const who = roles.includes("instructor") ? "an instructor or administrator account" : "an administrator account";
+  return `Your ${role} account cannot ${siteActionWords[action]}: that needs ${who}. Ask the site's administrator to change your account's role.`;
+}
+
+/**
+ * A refusal of a project action: what was refused, the least role that allows it, and who grants it
+ * (the project's owner, who manages its members).
+ */
+export function projectRefusal(role: MemberRole, action: ProjectAction): string {
+  const least = (["viewer", "editor", "owner"] as const).find((r) => projectPermissions[r].has(action)) ?? "owner";
+  return `As ${article(role)} ${role} of this project you cannot ${projectActionWords[action]}. Ask the project's owner to make you ${article(least)} ${least}.`;
+}
+
+function article(word: string): string {
+  return /^[aeiou]/.test(word) ? "an" : "a";
+}
+
 /** Throws `forbidden:<subject>` unless the actor's site role allows the action. */
 export function authorizeSite(actor: Actor, action: SiteAction): void {
   if (!canSite(actor, action))
-    throw new AppError(`forbidden:${action.split(":")[0]}`, `Your role (${actor.siteRole}) does not allow ${action}.`);
+    throw new AppError(`forbidden:${action.split(":")[0]}`, siteRefusal(actor.siteRole, action));
 }
 
 /** Throws `forbidden:<subject>` unless the membership allows the action. */
 export function authorizeProject(membership: { role: MemberRole; archived: boolean }, action: ProjectAction): void {
   if (canProject(membership, action)) return;
   if (membership.archived && projectPermissions[membership.role].has(action)) {
-    throw new AppError("forbidden:archived", "The project is archived; un-archive it to make changes.");
+    throw new AppError(
+      "forbidden:archived",
+      membership.role === "owner"
+        ? "The project is archived, so nothing in it can change; un-archive it first."
+        : "The project is archived, so nothing in it can change; ask the project's owner to un-archive it.",
+    );
   }
-  throw new AppError(
-    `forbidden:${action.split(":")[0]}`,
-    `Your project role (${membership.role}) does not allow ${action}.`,
-  );
+  throw new AppError(`forbidden:${action.split(":")[0]}`, projectRefusal(membership.role, action));
 }
 
 /** Actions inside one course; the actor's course role decides (independent of their site role). */
@@ -144,10 +202,39 @@ export function canCourse(role: CourseRole, action: CourseAction): boolean {
   return coursePermissions[role].has(action);
 }
 
+/** What each course action lets someone do, for refusals ("cannot approve or return submissions"). */
+const courseActionWords: Record<CourseAction, string> = {
+  "course:read": "open this course",
+  "course:manage": "change this course",
+  "course:read-join-code": "see this course's join code",
+  "roster:read": "see this course's roster",
+  "roster:manage": "change this course's roster",
+  "assignment:read": "read this course's assignments",
+  "assignment:create": "create assignments in this course",
+  "submission:create": "submit work in this course",
+  "submission:read-own": "read your own submissions in this course",
+  "submission:read-all": "read every submission in this course",
+  "review:comment": "comment on submissions",
+  "review:decide": "approve or return submissions",
+  "grades:export": "export this course's grades",
+};
+
+/**
+ * A refusal of a course action: what was refused and who can help. Instructors manage the course and
+ * its roster; students submit their own work.
+ */
+export function courseRefusal(role: CourseRole, action: CourseAction): string {
+  const byInstructor = coursePermissions.instructor.has(action);
+  const next = byInstructor
+    ? "Only the course's instructors can; ask one of them to do it or to add you as an instructor."
+    : "Only the course's students can; join the course as a student with its join code, using a student account.";
+  return `As ${article(role)} ${role} of this course you cannot ${courseActionWords[action]}. ${next}`;
+}
+
 /** Throws `forbidden:<subject>` unless the course role allows the action. */
 export function authorizeCourse(role: CourseRole, action: CourseAction): void {
   if (!canCourse(role, action)) {
-    throw new AppError(`forbidden:${action.split(":")[0]}`, `Your course role (${role}) does not allow ${action}.`);
+    throw new AppError(`forbidden:${action.split(":")[0]}`, courseRefusal(role, action));
   }
 }
 

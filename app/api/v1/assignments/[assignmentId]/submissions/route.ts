@@ -4,7 +4,7 @@ import { createSubmission, listCourseInstructors, listOwnSubmissions } from "@/d
 import { getVersionForSubmission } from "@/db/queries/plans";
 import { getActiveUserById } from "@/db/queries/users";
 import { json, readJson, readParams, route } from "@/lib/server/route";
-import { armSchema, parsePlan } from "@/kinematics";
+import { armSchema, formatProblem, parsePlan } from "@/kinematics";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/permissions";
 import { AppError } from "@/lib/server/errors";
@@ -55,8 +55,16 @@ export const POST = route(async (request, context) => {
   // Read exactly as the version route and the command line read it (the engine's parsePlan).
   const plan = parsePlan(version.document);
   const revision = await getArmRevisionById({ id: assignment.requiredArmRevisionId });
-  if (!plan.ok || !revision)
-    throw new AppError("unprocessable:plan", "The saved plan version cannot be read by this checker.");
+  if (!plan.ok)
+    throw new AppError(
+      "unprocessable:plan",
+      `Version ${version.number} of "${version.planName}" is not a plan document the checker can read (${formatProblem(plan.problems[0] ?? { path: [], message: "no details" })}); open it in the bench, fix what this names, save a new version and submit that.`,
+    );
+  if (!revision)
+    throw new AppError(
+      "unprocessable:plan",
+      "The arm this assignment requires is no longer stored, so the plan cannot be checked against it; ask the course's instructor to choose the assignment's arm again.",
+    );
   const prepared = assignmentCheckInput(plan.value, armSchema.parse(revision.description), version.armRevisionId, {
     requiredArmRevisionId: assignment.requiredArmRevisionId,
     courseArmRevisionId: assignment.courseArmRevisionId,
