@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
+import { FileDrop } from "@/components/ui/file-drop";
 import { ErrorNote, Panel } from "@/components/ui/panel";
 import { armFromDescription, armDocumentSchema, type Arm, parseUrdf } from "@/kinematics";
 import { api } from "@/lib/client/api-client";
@@ -114,14 +115,11 @@ export function ArmsWorkbench({
           {canEdit ? (
             <Panel className="flex flex-col gap-2 p-3">
               <h2 className="text-sm font-semibold">Import a URDF file</h2>
-              <input
-                type="file"
+              <FileDrop
+                label="URDF file"
+                what="a URDF file"
                 accept=".urdf,.xml"
-                aria-label="URDF file"
-                className="text-sm"
-                onChange={async (e) => {
-                  const f = e.target.files?.[0];
-                  if (!f) return;
+                onFile={async (f) => {
                   const r = parseUrdf(await f.text());
                   if (!r.ok) {
                     setUrdfProblems(r.problems.map((p) => `${p.element}: ${p.message}`));

@@ -4,6 +4,7 @@ import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { columnsFor, DataTable } from "@/components/ui/data-table";
 import { DateTime } from "@/components/ui/date-time";
+import { FileDrop } from "@/components/ui/file-drop";
 import { SelectField, TextField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
 import type { RecordingDto } from "@/lib/client/api-client";
@@ -65,20 +66,22 @@ export function SourcePanel({ session, arms }: { session: RecordingSessionApi; a
           </option>
         ))}
       </SelectField>
-      <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
-        Recording CSV: header <code className="font-mono">t,{joints.map((j) => j.name).join(",")}</code>, t in seconds
-        <input
-          type="file"
+      <div className="flex flex-col gap-1">
+        <p className="text-xs font-medium text-ink-soft">Recording CSV</p>
+        <FileDrop
+          label="Recording CSV file"
+          what="a recording CSV"
           accept=".csv,text/csv"
           disabled={!chosen}
-          className="text-sm text-ink"
-          aria-label="Recording CSV file"
-          onChange={(e) => {
-            const f = e.target.files?.[0];
-            if (f) void read(f);
-          }}
+          onFile={(f) => void read(f)}
+          hint={
+            <>
+              Header <code className="font-mono break-all">t,{joints.map((j) => j.name).join(",")}</code>; t in seconds,
+              one frame per line.
+            </>
+          }
         />
-      </label>
+      </div>
       {storedList.length > 0 ? (
         <section aria-label="Stored recordings" className="flex flex-col gap-2">
           <h2 className="text-xs font-medium text-ink-soft">Stored in this project</h2>

@@ -12,7 +12,7 @@ export function TracePanel({ session, unit }: { session: RecordingSessionApi; un
   if (!loaded)
     return (
       <EmptyState title="No recording loaded">
-        Choose the arm and a CSV log; the traces and the stream check appear here.
+        Choose the arm and a recording CSV; the traces and the stream check appear here.
       </EmptyState>
     );
   return (

@@ -276,11 +276,14 @@ describe("pages at 1440×900", () => {
       expect(await spaceUnderFooter(page), path).toBeLessThanOrEqual(1);
       await shot(page, name);
     }
-    await expect(
-      page
-        .goto(`/projects/${researchProject.id}/recordings`)
-        .then(() => page.getByRole("table", { name: "Stored recordings" }).locator("tbody tr").count()),
-    ).resolves.toBeGreaterThan(0);
+    // With a stored recording open, the traces, the stream check and the timed replay fill the page.
+    await page.goto(`/projects/${researchProject.id}/recordings`);
+    const stored = page.getByRole("table", { name: "Stored recordings" });
+    await stored.getByRole("button", { name: "Open" }).first().click();
+    await page.getByTestId("recording-plot").waitFor();
+    await page.waitForTimeout(800);
+    expect(await spaceUnderFooter(page)).toBeLessThanOrEqual(1);
+    await shot(page, "recordings-loaded");
   });
 
   it("course page for a student: each assignment links to its bench, with a preview before submitting", async () => {
