@@ -8,7 +8,7 @@ import { randomUUID } from "node:crypto";
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { env } from "./env";
-import { formatPath } from "@/kinematics";
+import { formatPath, unknownFieldProblems } from "@/kinematics";
 import { AppError, errorBody, type Issue } from "./errors";
 import { logger, requestContext, withRequestContext, type RequestContext } from "./log";
 
@@ -139,12 +139,9 @@ export function json(data: unknown, status = 200, headers?: Record<string, strin
 /** zod issues as `{ path, message }`, the path prefixed (e.g. `query.rateHz`, `document.start`). */
 export function toIssues(error: z.ZodError, prefix: PropertyKey[] = []): Issue[] {
   return error.issues.flatMap((i) =>
-    // An unknown key is named by its own path, so the caller sees which field was not expected.
+    // An unknown key is named by its own path (and the field it was probably meant to be), as the CLI names it.
     i.code === "unrecognized_keys"
-      ? i.keys.map((key) => ({
-          path: formatPath([...prefix, ...i.path, key], "(body)"),
-          message: "is not a known field",
-        }))
+      ? unknownFieldProblems(i).map((p) => ({ path: formatPath([...prefix, ...p.path], "(body)"), message: p.message }))
       : [{ path: formatPath([...prefix, ...i.path], "(body)"), message: i.message }],
   );
 }

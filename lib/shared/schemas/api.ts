@@ -3,7 +3,7 @@
  * forms and the OpenAPI document (lib/server/openapi.ts).
  */
 import { z } from "zod";
-import { armDocumentSchema, parsePlan, planSchema, type Plan } from "@/kinematics";
+import { armDocumentSchema, parsePlan, planSchema, strictObject, type Plan } from "@/kinematics";
 
 /**
  * A plan document read exactly as the command line reads it (the engine's `parsePlan`: the
@@ -46,12 +46,13 @@ export const addMemberSchema = z.strictObject({
   role: z.enum(["owner", "editor", "viewer"], { error: 'must be "owner", "editor" or "viewer"' }),
 });
 
-export const createArmSchema = z.strictObject({ name: name(), description: armDocumentSchema, note });
-export const createArmRevisionSchema = z.strictObject({ description: armDocumentSchema, note });
+/** Plan and arm bodies name an unknown key with the field it was probably meant to be, as documents do. */
+export const createArmSchema = strictObject({ name: name(), description: armDocumentSchema, note });
+export const createArmRevisionSchema = strictObject({ description: armDocumentSchema, note });
 
-export const createPlanSchema = z.strictObject({ name: name(), armId: id });
+export const createPlanSchema = strictObject({ name: name(), armId: id });
 
-export const createVersionSchema = z.strictObject({
+export const createVersionSchema = strictObject({
   /** The version the edit started from (0 for a plan's first save); a newer one in between is a 409. */
   baseVersion: z
     .number({ error: "must be a whole number" })

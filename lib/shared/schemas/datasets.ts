@@ -3,6 +3,7 @@
  * page's forms and the OpenAPI document.
  */
 import { z } from "zod";
+import { strictObject } from "@/kinematics";
 
 const columnName = z
   .string({ error: "must be a column name" })
@@ -10,23 +11,26 @@ const columnName = z
   .min(1, { error: "must not be empty" })
   .max(200, { error: "must be at most 200 characters" });
 
-/** Where a dataset's data is (kinematics ColumnMapping); every field optional, defaults in the engine. */
-export const columnMappingSchema = z
-  .strictObject({
-    episodeColumn: columnName.optional(),
-    timeColumn: columnName.optional(),
-    rateHz: z
-      .number({ error: "must be a number" })
-      .positive({ error: "must be greater than 0" })
-      .max(100_000, { error: "must be at most 100000" })
-      .optional(),
-    jointColumns: z
-      .array(columnName, { error: "must be a list of column names" })
-      .min(1, { error: "must name at least one column" })
-      .max(64)
-      .optional(),
-    jointsColumn: columnName.optional(),
-  })
+/**
+ * Where a dataset's data is (kinematics ColumnMapping); every field optional, defaults in the engine.
+ * An unknown key is refused with the field it was probably meant to be (a misspelt `timeColumn`
+ * would otherwise audit with the default time column).
+ */
+export const columnMappingSchema = strictObject({
+  episodeColumn: columnName.optional(),
+  timeColumn: columnName.optional(),
+  rateHz: z
+    .number({ error: "must be a number" })
+    .positive({ error: "must be greater than 0" })
+    .max(100_000, { error: "must be at most 100000" })
+    .optional(),
+  jointColumns: z
+    .array(columnName, { error: "must be a list of column names" })
+    .min(1, { error: "must name at least one column" })
+    .max(64)
+    .optional(),
+  jointsColumn: columnName.optional(),
+})
   .refine((m) => !(m.timeColumn !== undefined && m.rateHz !== undefined), {
     error: "give timeColumn or rateHz, not both",
     path: ["rateHz"],
@@ -48,7 +52,7 @@ export const uploadDatasetQuery = z.strictObject({
 });
 
 /** The arm and column mapping to audit a dataset with (also the preview's input). */
-export const datasetMappingSchema = z.strictObject({
+export const datasetMappingSchema = strictObject({
   armId: z.string({ error: "is required" }).uuid({ error: "must be an id" }),
   /** The arm revision (default: the newest). */
   revision: z.number({ error: "must be a number" }).int().positive().optional(),
