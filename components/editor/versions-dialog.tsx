@@ -9,6 +9,7 @@ import { TextField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
 import { LoadingBlock } from "@/components/ui/skeleton";
 import { VerdictChip } from "@/components/ui/verdict-chip";
+import { moveLabel } from "@/kinematics";
 import { api, type VersionDto } from "@/lib/client/api-client";
 import type { Change } from "@/lib/shared/plan-diff";
 import { queryKeys } from "@/lib/client/query-keys";
@@ -20,7 +21,7 @@ import { queryKeys } from "@/lib/client/query-keys";
 export function describeChange(c: Change, jointNames: readonly string[] = []): string {
   const joint = (i: string) => jointNames[Number(i)] ?? `joint ${Number(i) + 1}`;
   const where = c.path
-    .replace(/^moves\[(\d+)\]\.?/, (_, i: string) => `Move ${Number(i) + 1} `)
+    .replace(/^moves\[(\d+)\]\.?/, (_, i: string) => `${moveLabel(Number(i))} `)
     .replace(/^start\[(\d+)\]/, (_, i: string) => `start pose ${joint(i)}`)
     .replace(/\.?goal\[(\d+)\]/, (_, i: string) => `goal ${joint(i)}`)
     .trim();
