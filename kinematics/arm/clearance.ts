@@ -474,3 +474,63 @@ export function scanClearanceBounded(
   }
   return [...found.values()].sort((p, q) => q.depthM - p.depthM);
 }
+
+/** Most depth evaluations {@link certifyClearPath} spends on one path before it gives up. */
+const maxCertifyPoints = 1024;
+
+/**
+ * True when the whole path τ ∈ [0, 1] is provably clear of every zone, so that no sample of it, at
+ * any duration, intrudes: `positionAt(τ, q)` writes the chain pose at τ, and `linkSpeedPerTau[m]`
+ * bounds how far (m) any collision point of link m moves per unit τ. The path is evaluated at
+ * `initial` + 1 even points and each interval is accepted by the cone test of
+ * {@link scanClearanceBounded} (d₀ + d₁ + V·Δτ < 0 for every shape and zone) or halved; it is not
+ * certified (false) when a point is not strictly apart from a zone, or after `maxCertifyPoints`
+ * evaluations. False says nothing about an intrusion: the caller then scans the samples.
+ */
+export function certifyClearPath(
+  scanner: ClearanceScanner,
+  positionAt: (tau: number, q: Float64Array) => void,
+  linkSpeedPerTau: ArrayLike<number>,
+  initial = 16,
+): boolean {
+  const { model, zones } = scanner;
+  const pairs = scanner.depths.length;
+  const zonesPer = 1 + zones.boxMin.length / 3;
+  const q = new Float64Array(scanner.chain.jointCount);
+  let evaluations = 0;
+  // depths at τ into a fresh array; null when some shape is not strictly apart from a zone
+  const depthsOf = (tau: number): Float64Array | null => {
+    evaluations++;
+    positionAt(tau, q);
+    const d = Float64Array.from(depthsAt(scanner, q, 0));
+    for (let p = 0; p < pairs; p++) if (!(d[p] < 0)) return null;
+    return d;
+  };
+  const intervalClear = (d0: Float64Array, d1: Float64Array, dTau: number): boolean => {
+    for (let s = 0; s < model.count; s++) {
+      const reach = linkSpeedPerTau[model.link[s]] * dTau;
+      for (let z = 0; z < zonesPer; z++) {
+        const p = s * zonesPer + z;
+        // −Infinity (the base on the surface) stays clear; anything else must be provably apart.
+        if (!(d0[p] + d1[p] + reach < 0)) return false;
+      }
+    }
+    return true;
+  };
+  const certify = (a: number, da: Float64Array, b: number, db: Float64Array): boolean => {
+    if (intervalClear(da, db, b - a)) return true;
+    if (evaluations >= maxCertifyPoints) return false;
+    const m = (a + b) / 2;
+    const dm = depthsOf(m);
+    return dm !== null && certify(a, da, m, dm) && certify(m, dm, b, db);
+  };
+  let prev = depthsOf(0);
+  if (!prev) return false;
+  for (let k = 1; k <= initial; k++) {
+    const b = k / initial;
+    const next = depthsOf(b);
+    if (!next || !certify((k - 1) / initial, prev, b, next)) return false;
+    prev = next;
+  }
+  return true;
+}

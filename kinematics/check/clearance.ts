@@ -5,10 +5,11 @@
  * @module
  */
 import { linkSpeedBounds } from "../arm/motion-bounds";
-import { scanClearanceBounded } from "../arm/clearance";
+import { certifyClearPath, scanClearanceBounded } from "../arm/clearance";
+import { scalingAt, velocityFactor } from "../motion/shapes";
 import type { Finding } from "./report";
-import { sampleGoal, sampleMove, sampleRateOf, stateOf } from "./arm-state";
-import type { MoveChecker } from "./types";
+import { sampleGoal, sampleMove, sampleRateOf, stateOf, type ArmState } from "./arm-state";
+import type { MoveChecker, MoveContext } from "./types";
 import { formatNumber, moveLabel } from "./wording";
 
 /**
@@ -16,6 +17,46 @@ import { formatNumber, moveLabel } from "./wording";
  * from the move's start (`time`, s) and from the plan's start (`timeS`).
  */
 export type ClearanceFinding = Finding & { link: string; zone: string; time: number; timeS: number };
+
+/** Whether each path (by shape, blend, start and displacement) is certified clear, per compiled arm. */
+const clearPaths = new WeakMap<ArmState, Map<string, boolean>>();
+const maxClearPaths = 512;
+
+/**
+ * Whether the timed move's path is provably clear along its whole length (see `certifyClearPath`):
+ * the path, and so the answer, does not depend on the duration, so it is computed once per path
+ * and a change of duration needs no clearance scan. Links move at most linkSpeed m per unit τ,
+ * from the peak joint speeds at T = 1 (q = q₀ + s(τ)·D, dq/dτ = D·s′(τ)).
+ */
+function pathCertifiedClear(s: ArmState, context: MoveContext): boolean {
+  const shape = context.timeline.shape[context.index];
+  const blend = context.timeline.blend[context.index];
+  const { from, delta } = context;
+  let key = `${shape}|${blend}`;
+  for (let i = 0; i < s.n; i++) key += `|${from[i]}|${delta[i]}`;
+  let paths = clearPaths.get(s);
+  if (!paths) clearPaths.set(s, (paths = new Map()));
+  const known = paths.get(key);
+  if (known !== undefined) return known;
+  // peak |dq/dτ| = |Dⱼ|·max s′ (the shape's velocity factor), with a margin for rounding
+  const perTau = Float64Array.from(
+    { length: s.n },
+    (_, i) => Math.abs(delta[i]) * velocityFactor(shape, blend) * (1 + 1e-6),
+  );
+  const speeds = linkSpeedBounds(s.reach, s.chain, perTau, new Float64Array(s.n + 1));
+  const scale = new Float64Array(3);
+  const clear = certifyClearPath(
+    s.clearance,
+    (tau, q) => {
+      scalingAt(shape, blend, tau, scale);
+      for (let i = 0; i < s.n; i++) q[i] = from[i] + scale[0] * delta[i];
+    },
+    speeds,
+  );
+  paths.set(key, clear);
+  if (paths.size > maxClearPaths) paths.delete(paths.keys().next().value as string);
+  return clear;
+}
 
 /**
  * Move checker `clearance`: every link's collision shapes against the work surface (plus the
@@ -26,6 +67,8 @@ export type ClearanceFinding = Finding & { link: string; zone: string; time: num
 export const checkClearance: MoveChecker = (context, out) => {
   const s = stateOf(context.plan);
   if (!s) return;
+  // a path certified clear has no intrusion at any sample (the control-rate mode scans regardless)
+  if (!context.instant && context.sampling === "path" && pathCertifiedClear(s, context)) return;
   const count = context.instant
     ? sampleGoal(s, context)
     : sampleMove(s, context, context.move.duration, sampleRateOf(s, context));

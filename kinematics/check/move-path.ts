@@ -46,8 +46,10 @@ export interface MovePath {
   readonly tau: Float64Array;
   /** Terms at the grid points, stride `2n + 2`. */
   readonly grid: Float64Array;
-  /** Terms at refinement points, by τ. */
-  readonly extra: Map<number, Float64Array>;
+  /** Slot of each memoised refinement point, by τ (its terms at slot × stride in `extraTerms`). */
+  readonly extraSlot: Map<number, number>;
+  /** Terms at the memoised refinement points, stride `2n + 2` (one pool, grown by doubling). */
+  extraTerms: Float64Array;
   /** Displacement of the chain joints (rad or m). */
   readonly delta: Float64Array;
   /** Start pose of the chain joints. */
@@ -117,7 +119,8 @@ export function movePath(
     n,
     tau,
     grid: new Float64Array(tau.length * stride),
-    extra: new Map(),
+    extraSlot: new Map(),
+    extraTerms: new Float64Array(64 * stride),
     delta: Float64Array.from({ length: n }, (_, i) => delta[i]),
     from: Float64Array.from({ length: n }, (_, i) => from[i]),
     shape,
@@ -129,15 +132,23 @@ export function movePath(
   return path;
 }
 
-/** The path terms at a refinement point τ (memoised). */
-function termsAt(s: ArmState, path: MovePath, tau: number): Float64Array {
-  let terms = path.extra.get(tau);
-  if (!terms) {
-    terms = new Float64Array(2 * path.n + 2);
-    evaluatePoint(s, path, tau, terms, 0);
-    path.extra.set(tau, terms);
+/**
+ * The offset in `path.extraTerms` of the path terms at a refinement point τ (memoised in one pool,
+ * so a point costs no allocation; read `path.extraTerms` after the call, the pool may have grown).
+ */
+function termsAt(s: ArmState, path: MovePath, tau: number): number {
+  const stride = 2 * path.n + 2;
+  const slot = path.extraSlot.get(tau);
+  if (slot !== undefined) return slot * stride;
+  const next = path.extraSlot.size;
+  if ((next + 1) * stride > path.extraTerms.length) {
+    const grown = new Float64Array(path.extraTerms.length * 2);
+    grown.set(path.extraTerms);
+    path.extraTerms = grown;
   }
-  return terms;
+  evaluatePoint(s, path, tau, path.extraTerms, next * stride);
+  path.extraSlot.set(tau, next);
+  return next * stride;
 }
 
 /**
@@ -187,12 +198,112 @@ const maxExtraPoints = 8192;
 /** Control samples an interval may hold before it is evaluated sample by sample rather than split. */
 const samplesPerLeaf = 4;
 
+/** The peak of one channel and where it is (τ). */
+interface ChannelPeak {
+  peak: number;
+  tau: number;
+}
+
+/**
+ * Peak of channel `c` (see {@link channelOf}) along the path at duration `durationS` (> 0), at the
+ * control samples t = k/rateHz (and the end) that the control-rate check evaluates. The grid values
+ * only bound: an interval between two grid points is skipped when its curvature bound lies below
+ * the peak found so far, else it is split until it holds a few samples, which are evaluated.
+ * Deterministic for a given path, duration and rate (the memo only saves work). With `stopAbove`,
+ * the scan ends as soon as the peak found exceeds it (the peak only grows, so "exceeds" is then
+ * final); the traversal up to that point is the same as without it. `visited`, when given,
+ * receives the τ of every evaluated sample.
+ */
+function channelPeak(
+  s: ArmState,
+  path: MovePath,
+  durationS: number,
+  rateHz: number,
+  c: number,
+  best: ChannelPeak,
+  stopAbove = Infinity,
+  visited?: number[],
+): ChannelPeak {
+  const n = path.n;
+  const stride = 2 * n + 2;
+  const { tau, grid } = path;
+  const count = tau.length;
+  const perTau = rateHz * durationS; // control samples per unit τ
+  const last = Math.floor(perTau + 1e-9) + 1; // the sample index of the end (t = T), as in sampleMove
+  const sampleTau = (k: number) => (k >= last ? 1 : Math.min(k / perTau, 1));
+  const values = s.pathValues.length >= count ? s.pathValues : (s.pathValues = new Float64Array(count));
+  let gridMax = 0;
+  for (let k = 0; k < count; k++) {
+    const v = channelOf(s, path, grid, k * stride, c, durationS);
+    values[k] = v;
+    if (v > values[gridMax]) gridMax = k;
+  }
+  best.peak = -1;
+  best.tau = 0;
+  let splits = 0;
+  let stopped = false;
+  const evaluate = (k: number) => {
+    const t = sampleTau(k);
+    visited?.push(t);
+    const o = termsAt(s, path, t);
+    const v = channelOf(s, path, path.extraTerms, o, c, durationS);
+    if (v > best.peak || (v === best.peak && t < best.tau)) {
+      best.peak = v;
+      best.tau = t;
+      if (v > stopAbove) stopped = true;
+    }
+  };
+  // seed with the ends and the samples around the largest grid value
+  evaluate(0);
+  evaluate(last);
+  const around = Math.floor(tau[gridMax] * perTau);
+  for (let k = Math.max(0, around - 1); k <= Math.min(last, around + 2); k++) evaluate(k);
+  // Curvature estimate at each grid point from divided differences (0 at the ends).
+  const curvature = (k: number) => {
+    if (k <= 0 || k >= count - 1) return 0;
+    const h0 = tau[k] - tau[k - 1],
+      h1 = tau[k + 1] - tau[k];
+    return Math.abs((2 * ((values[k + 1] - values[k]) / h1 - (values[k] - values[k - 1]) / h0)) / (h0 + h1));
+  };
+  const visit = (a: number, va: number, b: number, vb: number, K: number, depth: number) => {
+    if (stopped) return;
+    const h = b - a;
+    const bound = Math.max(va, vb) + (curvatureSafety * K * h * h) / 8;
+    if (bound <= best.peak * (1 + 1e-12) + 1e-300) return;
+    const k0 = Math.ceil(a * perTau - 1e-9),
+      k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
+    if (k1 < k0) return;
+    if (k1 - k0 < samplesPerLeaf) {
+      for (let k = k0; k <= k1; k++) evaluate(k);
+      return;
+    }
+    if (depth >= maxRefineDepth || ++splits > maxSplitsPerChannel) {
+      // out of refinement: take the bound itself, never less (no false pass)
+      if (bound > best.peak) {
+        best.peak = bound;
+        best.tau = (a + b) / 2;
+        if (bound > stopAbove) stopped = true;
+      }
+      return;
+    }
+    const m = (a + b) / 2;
+    const om = termsAt(s, path, m);
+    const vm = channelOf(s, path, path.extraTerms, om, c, durationS);
+    // second divided difference over the two halves, the parent's estimate shrunk with h² as a floor
+    const Km = Math.max(Math.abs((va - 2 * vm + vb) / ((h / 2) * (h / 2))), K / 4);
+    visit(a, va, m, vm, Km, depth + 1);
+    visit(m, vm, b, vb, Km, depth + 1);
+  };
+  for (let k = 0; k + 1 < count && !stopped; k++) {
+    const K = Math.max(curvature(k - 1), curvature(k), curvature(k + 1), curvature(k + 2));
+    visit(tau[k], values[k], tau[k + 1], values[k + 1], K, 0);
+  }
+  return best;
+}
+
 /**
  * Peak |effort| of every chain joint and peak tool speed along the path at duration `durationS`
- * (> 0), at the control samples t = k/rateHz (and the end) that the control-rate check evaluates.
- * The grid values only bound: an interval between two grid points is skipped when its curvature
- * bound lies below the peak found so far, else it is split until it holds a few samples, which
- * are evaluated. Deterministic for a given path, duration and rate (the memo only saves work).
+ * (> 0), at the control samples the control-rate check evaluates (see {@link channelPeak}).
  * `visited`, when given, receives the τ of every evaluated sample.
  */
 export function pathPeaks(
@@ -204,74 +315,10 @@ export function pathPeaks(
   visited?: number[],
 ): PathPeaks {
   const n = path.n;
-  const stride = 2 * n + 2;
-  const { tau, grid } = path;
-  const count = tau.length;
-  if (path.extra.size > maxExtraPoints) path.extra.clear();
-  const perTau = rateHz * durationS; // control samples per unit τ
-  const last = Math.floor(perTau + 1e-9) + 1; // the sample index of the end (t = T), as in sampleMove
-  const sampleTau = (k: number) => (k >= last ? 1 : Math.min(k / perTau, 1));
-  const values = s.pathValues.length >= count ? s.pathValues : (s.pathValues = new Float64Array(count));
+  if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
+  const best: ChannelPeak = { peak: -1, tau: 0 };
   for (let c = 0; c <= n; c++) {
-    let gridMax = 0;
-    for (let k = 0; k < count; k++) {
-      const v = channelOf(s, path, grid, k * stride, c, durationS);
-      values[k] = v;
-      if (v > values[gridMax]) gridMax = k;
-    }
-    const best = { peak: -1, tau: 0 };
-    let splits = 0;
-    const evaluate = (k: number) => {
-      const t = sampleTau(k);
-      visited?.push(t);
-      const v = channelOf(s, path, termsAt(s, path, t), 0, c, durationS);
-      if (v > best.peak || (v === best.peak && t < best.tau)) {
-        best.peak = v;
-        best.tau = t;
-      }
-    };
-    // seed with the ends and the samples around the largest grid value
-    evaluate(0);
-    evaluate(last);
-    const around = Math.floor(tau[gridMax] * perTau);
-    for (let k = Math.max(0, around - 1); k <= Math.min(last, around + 2); k++) evaluate(k);
-    // Curvature estimate at each grid point from divided differences (0 at the ends).
-    const curvature = (k: number) => {
-      if (k <= 0 || k >= count - 1) return 0;
-      const h0 = tau[k] - tau[k - 1],
-        h1 = tau[k + 1] - tau[k];
-      return Math.abs((2 * ((values[k + 1] - values[k]) / h1 - (values[k] - values[k - 1]) / h0)) / (h0 + h1));
-    };
-    const visit = (a: number, va: number, b: number, vb: number, K: number, depth: number) => {
-      const h = b - a;
-      const bound = Math.max(va, vb) + (curvatureSafety * K * h * h) / 8;
-      if (bound <= best.peak * (1 + 1e-12) + 1e-300) return;
-      const k0 = Math.ceil(a * perTau - 1e-9),
-        k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
-      if (k1 < k0) return;
-      if (k1 - k0 < samplesPerLeaf) {
-        for (let k = k0; k <= k1; k++) evaluate(k);
-        return;
-      }
-      if (depth >= maxRefineDepth || ++splits > maxSplitsPerChannel) {
-        // out of refinement: take the bound itself, never less (no false pass)
-        if (bound > best.peak) {
-          best.peak = bound;
-          best.tau = (a + b) / 2;
-        }
-        return;
-      }
-      const m = (a + b) / 2;
-      const vm = channelOf(s, path, termsAt(s, path, m), 0, c, durationS);
-      // second divided difference over the two halves, the parent's estimate shrunk with h² as a floor
-      const Km = Math.max(Math.abs((va - 2 * vm + vb) / ((h / 2) * (h / 2))), K / 4);
-      visit(a, va, m, vm, Km, depth + 1);
-      visit(m, vm, b, vb, Km, depth + 1);
-    };
-    for (let k = 0; k + 1 < count; k++) {
-      const K = Math.max(curvature(k - 1), curvature(k), curvature(k + 1), curvature(k + 2));
-      visit(tau[k], values[k], tau[k + 1], values[k + 1], K, 0);
-    }
+    channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited);
     if (c < n) {
       out.effort[c] = best.peak;
       out.effortTau[c] = best.tau;
@@ -281,6 +328,29 @@ export function pathPeaks(
     }
   }
   return out;
+}
+
+/**
+ * The first channel (in the order of `order`: c < n the effort of chain joint c, c = n the tool
+ * speed) whose peak along the path at `durationS` exceeds `above[c]`, or −1 when none does: the
+ * same answer as comparing the peaks of {@link pathPeaks} with `above`, but each channel's scan
+ * stops at the first sample over its limit, and a channel whose limit is Infinity is not scanned.
+ */
+export function pathExceeds(
+  s: ArmState,
+  path: MovePath,
+  durationS: number,
+  rateHz: number,
+  above: Float64Array,
+  order: readonly number[],
+): number {
+  if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
+  const best: ChannelPeak = { peak: -1, tau: 0 };
+  for (const c of order) {
+    if (above[c] === Infinity) continue;
+    if (channelPeak(s, path, durationS, rateHz, c, best, above[c]).peak > above[c]) return c;
+  }
+  return -1;
 }
 
 /** The largest |gⱼ| (gravity alone, N·m or N) over the grid points of the path, and where (τ). */
@@ -308,7 +378,10 @@ function forEachPoint(
 ): void {
   const stride = 2 * path.n + 2;
   for (let k = 0; k < path.tau.length; k++) visit(path.grid, k * stride);
-  for (const t of extra) visit(termsAt(s, path, t), 0);
+  for (const t of extra) {
+    const o = termsAt(s, path, t);
+    visit(path.extraTerms, o);
+  }
 }
 
 /**

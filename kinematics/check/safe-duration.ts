@@ -19,6 +19,7 @@ import {
   createPathPeaks,
   movePath,
   pathGravityPeak,
+  pathExceeds,
   pathPeaks,
   shortestEffortDuration,
   shortestToolDuration,
@@ -113,6 +114,28 @@ export function moveSafeDuration(
       return { check: "tool-speed", joint: -1 };
     return null;
   };
+  // The same limits per path channel (effort of each chain joint, then tool speed) for pathExceeds.
+  const above = new Float64Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const limit = effortLimit(j);
+    above[j] = limit === undefined ? Infinity : limit * (1 + limitTolerance);
+  }
+  above[n] = toolLimit === undefined ? Infinity : toolLimit * (1 + limitTolerance);
+  const order = Array.from({ length: n + 1 }, (_, c) => c);
+  /**
+   * Whether anything faults at T: the answer of `failing(T) !== null`, with each channel's scan
+   * stopped at its first sample over the limit (the refinement points are not needed here). The
+   * channel that faulted last is scanned first, which changes the work, not the answer.
+   */
+  const faults = (T: number): boolean => {
+    if (!withinLimits(shape, delta, T, joints, limitScale, v, a)) return true;
+    const c = pathExceeds(state, pathAt(T), T, rateHz, above, order);
+    if (c >= 0 && order[0] !== c) {
+      order.splice(order.indexOf(c), 1);
+      order.unshift(c);
+    }
+    return c >= 0;
+  };
 
   /**
    * The closed form bounds over the path grid, which lies between the control samples the check
@@ -122,7 +145,7 @@ export function moveSafeDuration(
     let hi = passing;
     let lo = Math.max(jointOnly.durationS, hi * (1 - 1 / 16));
     // step down while shorter still passes (a trapezoid's blend changes the path with T)
-    while (lo < hi && !failing(lo)) {
+    while (lo < hi && !faults(lo)) {
       hi = lo;
       if (lo <= jointOnly.durationS) return hi;
       lo = Math.max(jointOnly.durationS, lo * (1 - 1 / 16));
@@ -130,7 +153,7 @@ export function moveSafeDuration(
     if (!(lo < hi)) return hi;
     for (let it = 0; it < 14; it++) {
       const mid = (lo + hi) / 2;
-      if (failing(mid)) lo = mid;
+      if (faults(mid)) lo = mid;
       else hi = mid;
     }
     return hi;
@@ -171,6 +194,6 @@ export function moveSafeDuration(
   }
   // No convergence (a trapezoid whose blend keeps moving the path): double until it passes.
   for (let k = 0; k < 64 && T <= longestTimingFixS; k++, T *= 2)
-    if (!failing(T)) return { durationS: T, joint: setBy.joint, check: setBy.check };
+    if (!faults(T)) return { durationS: T, joint: setBy.joint, check: setBy.check };
   return { durationS: null, joint: setBy.joint, check: setBy.check };
 }
