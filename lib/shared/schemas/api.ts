@@ -57,8 +57,8 @@ export const createVersionSchema = strictObject({
   baseVersion: z
     .number({ error: "must be a whole number" })
     .int({ error: "must be a whole number" })
-    .min(0)
-    .max(1_000_000),
+    .min(0, { error: "must be 0 or greater" })
+    .max(1_000_000, { error: "must be at most 1000000" }),
   /** The arm revision to check against (default: the arm's latest); `document.arm` must equal it. */
   armRevision: z.number().int().positive().max(1_000_000).optional(),
   document: planDocumentInput,

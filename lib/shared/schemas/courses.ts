@@ -21,7 +21,11 @@ export const limitsSchema = z
       .array(
         z
           .object({
-            joint: z.number().int().min(0).max(63),
+            joint: z
+              .number({ error: "must be a joint index (0 for the first joint)" })
+              .int({ error: "must be a whole number" })
+              .min(0, { error: "must be 0 or greater" })
+              .max(63, { error: "must be at most 63" }),
             min: finite().optional(),
             max: finite().optional(),
             maxVelocity: finite().positive().optional(),

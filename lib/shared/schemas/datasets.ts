@@ -63,11 +63,19 @@ export type DatasetMappingInput = z.infer<typeof datasetMappingSchema>;
 
 /** Which episodes a repair applies to: the listed indices (0-based), or every episode with findings. */
 export const repairDatasetSchema = z.strictObject({
-  episodes: z.array(z.number().int().min(0)).max(100_000).optional(),
+  episodes: z
+    .array(
+      z
+        .number({ error: "must be an episode index (0 for the first episode)" })
+        .int({ error: "must be a whole number" })
+        .min(0, { error: "must be 0 or greater" }),
+    )
+    .max(100_000, { error: "must list at most 100000 episodes" })
+    .optional(),
 });
 
 /** An episode's place in its dataset, from the path (0-based). */
 export const episodeIndexParam = z.coerce
   .number({ error: "must be an episode index" })
   .int({ error: "must be a whole number" })
-  .min(0, { error: "must be 0 or more" });
+  .min(0, { error: "must be 0 or greater" });

@@ -10,9 +10,17 @@ const uuid = z.uuid({ error: "must be an id" });
 export const commentSchema = z
   .object({
     body: z.string({ error: "is required" }).trim().min(1, { error: "is required" }).max(5000),
-    moveIndex: z.number().int().min(0).optional(),
-    jointIndex: z.number().int().min(0).optional(),
-    timeS: finite().min(0).optional(),
+    moveIndex: z
+      .number({ error: "must be a move index (0 for the first move)" })
+      .int({ error: "must be a whole number" })
+      .min(0, { error: "must be 0 or greater" })
+      .optional(),
+    jointIndex: z
+      .number({ error: "must be a joint index (0 for the first joint)" })
+      .int({ error: "must be a whole number" })
+      .min(0, { error: "must be 0 or greater" })
+      .optional(),
+    timeS: finite().min(0, { error: "must be 0 or greater" }).optional(),
   })
   .strict();
 export type CommentInput = z.infer<typeof commentSchema>;

@@ -14,6 +14,9 @@ import {
   type SiteAction,
 } from "@/lib/server/permissions";
 import { repoPath } from "../kinematics/arm/helpers";
+import { createVersionSchema } from "@/lib/shared/schemas/api";
+import { repairDatasetSchema } from "@/lib/shared/schemas/datasets";
+import { commentSchema } from "@/lib/shared/schemas/reviews";
 
 // Messages in one voice (DEVELOPERS.md, Glossary): predictions say "would", the gripper is given in
 // millimetres, field messages read "must be 0 or greater", joints are named by name, refusals say
@@ -112,6 +115,24 @@ describe("engine messages", () => {
     expect(byPath.get("moves.0.duration")).toBe("must be 0 or greater");
     expect(byPath.get("payload.mass")).toBe("must be 0 or greater");
     for (const p of parsed.problems) expect(p.message).not.toMatch(/non-negative|>=|at least 0\b/);
+  });
+});
+
+describe("API field messages", () => {
+  it("read 'must be 0 or greater' for a negative index or time, not zod's '>=0'", () => {
+    const results = [
+      commentSchema.safeParse({ body: "x", moveIndex: -1, jointIndex: -2, timeS: -0.5 }),
+      repairDatasetSchema.safeParse({ episodes: [-1] }),
+      createVersionSchema.safeParse({ baseVersion: -1, document: {} }),
+    ];
+    for (const r of results) {
+      expect(r.success).toBe(false);
+      if (r.success) continue;
+      const negative = r.error.issues.filter((i) => i.code === "too_small");
+      expect(negative.length).toBeGreaterThan(0);
+      for (const issue of negative) expect(issue.message).toBe("must be 0 or greater");
+      for (const issue of r.error.issues) expect(issue.message).not.toMatch(/>=|Too small/);
+    }
   });
 });
 
