@@ -1,8 +1,19 @@
 "use client";
 import { useState } from "react";
+import {
+  get,
+  set,
+  useForm,
+  useWatch,
+  type FieldErrors,
+  type FieldValues,
+  type Resolver,
+  type UseFormSetError,
+} from "react-hook-form";
 import { NumberInput } from "@/components/editor/number-input";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
+import { applyApiIssues, apiIssues, fieldMessage, formFailure, toFormPath } from "@/components/ui/form";
 import { ErrorNote } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import type { Arm, Joint } from "@/kinematics";
@@ -16,10 +27,50 @@ export interface ArmFormProps {
   canEdit: boolean;
   /** The save button's words: "Save as a custom arm" or "Save as revision 3". */
   saveLabel: string;
-  saving: boolean;
-  saveError: string | null;
   saved: boolean;
-  onSave: (arm: Arm, note: string) => void;
+  /** Saves the checked arm; a rejected promise carries the API's error, whose problems land under their fields. */
+  onSave: (arm: Arm, note: string) => Promise<unknown> | void;
+}
+
+export type ArmFormValues = { arm: Arm; note: string };
+
+/**
+ * The form's resolver: the engine's arm schema, the one the API validates with, with each problem
+ * under the field it names (`joints[1].max` → `arm.joints.1.max`) and spoken in the form's unit.
+ */
+export const armResolver: Resolver<ArmFormValues, { unit: AngleUnit }> = async (values, context) => {
+  const result = armProblems(values.arm, context?.unit ?? "deg");
+  if (!result.problems) return { values: { ...values, arm: result.arm }, errors: {} };
+  const errors: FieldErrors<ArmFormValues> = {};
+  for (const [path, message] of Object.entries(result.problems))
+    set(errors, `arm.${toFormPath(path)}`, { type: "schema", message });
+  return { values: {}, errors };
+};
+
+/** The form paths of every field this form shows, in the API's path syntax below `arm`. */
+function shownPaths(arm: Arm): string[] {
+  const paths = ["controlRateHz", "cautionRatio"];
+  arm.joints.forEach((_, j) => {
+    for (const f of jointFields)
+      paths.push(f.key === "coulomb" || f.key === "viscous" ? `joints.${j}.friction.${f.key}` : `joints.${j}.${f.key}`);
+  });
+  if (arm.chain) {
+    paths.push("chain.base.inertial.mass", "chain.tool.xyz.0", "chain.tool.xyz.1", "chain.tool.xyz.2");
+    arm.chain.joints.forEach((_, i) => paths.push(`chain.joints.${i}.link.inertial.mass`));
+  }
+  return paths;
+}
+
+/** Every error message under `arm`, by its form path, for the fields that show them and the foot's list. */
+function flatErrors(errors: unknown, prefix = ""): Record<string, string> {
+  const out: Record<string, string> = {};
+  if (!errors || typeof errors !== "object") return out;
+  const node = errors as { message?: unknown };
+  if (typeof node.message === "string" && prefix) out[prefix] = node.message;
+  for (const [key, value] of Object.entries(errors))
+    if (key !== "message" && key !== "type" && key !== "ref" && value && typeof value === "object")
+      Object.assign(out, flatErrors(value, prefix ? `${prefix}.${key}` : key));
+  return out;
 }
 
 /** Display value of a stored joint value: angles and lengths in the form's unit, efforts and friction as stored. */
@@ -38,12 +89,20 @@ function stored(joint: Joint, field: JointField, value: number, unit: AngleUnit)
  * link masses and the tool point. Validation is the engine's arm schema, as in the API; problems are
  * shown beside their fields in the form's unit.
  */
-export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, saved, onSave }: ArmFormProps) {
-  const [draft, setDraft] = useState<Arm>(arm);
+export function ArmForm({ arm, title, canEdit, saveLabel, saved, onSave }: ArmFormProps) {
   const [unit, setUnit] = useState<AngleUnit>("deg");
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const [note, setNote] = useState("");
+  const [failure, setFailure] = useState<string | undefined>();
+  const form = useForm<ArmFormValues, { unit: AngleUnit }>({
+    resolver: armResolver,
+    context: { unit },
+    defaultValues: { arm, note: "" },
+  });
+  const draft = useWatch({ control: form.control, name: "arm" });
+  const { isSubmitting } = form.formState;
+  const errors = flatErrors(get(form.formState.errors, "arm"));
+  const noteError = fieldMessage("The note", form.formState.errors.note);
   const chain = draft.chain;
+  const setDraft = (next: Arm) => form.setValue("arm", next, { shouldDirty: true });
 
   const setJoint = (j: number, field: JointField, value: number | undefined) =>
     setDraft({
@@ -72,15 +131,22 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
     setDraft({ ...draft, chain: { ...chain, tool: { ...chain.tool, xyz } } });
   };
 
-  const submit = () => {
-    const result = armProblems(draft, unit);
-    if (result.problems) {
-      setErrors(result.problems);
-      return;
+  const submit = form.handleSubmit(async ({ arm: checked, note }) => {
+    setFailure(undefined);
+    try {
+      await onSave(checked, note);
+    } catch (error) {
+      const known = shownPaths(checked);
+      const setArmError: UseFormSetError<FieldValues> = (path, err, options) =>
+        form.setError(`arm.${path}` as "arm", err, options);
+      const rest = applyApiIssues(apiIssues(error), setArmError, known, { prefix: "description" });
+      setFailure(formFailure(error, applyApiIssues(rest, form.setError, ["note"])));
     }
-    setErrors({});
-    onSave(result.arm, note);
-  };
+  });
+  const placed = new Set(shownPaths(draft));
+  const massPath = (link: number) =>
+    link === 0 ? "chain.base.inertial.mass" : `chain.joints.${link - 1}.link.inertial.mass`;
+  const unplaced = Object.entries(errors).filter(([path]) => !placed.has(path));
 
   const links = chain
     ? [
@@ -90,14 +156,7 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
     : [];
 
   return (
-    <form
-      aria-label={`Parameters of ${title}`}
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit();
-      }}
-      className="flex flex-col gap-3"
-    >
+    <form aria-label={`Parameters of ${title}`} onSubmit={submit} noValidate className="flex flex-col gap-3">
       <div className="flex flex-wrap items-end gap-3">
         <h2 className="mr-auto text-sm font-semibold">{title}</h2>
         <label className="flex flex-col text-xs text-ink-soft">
@@ -164,8 +223,8 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
                 {jointFields.map((field) => {
                   const path =
                     field.key === "coulomb" || field.key === "viscous"
-                      ? `joints[${j}].friction.${field.key}`
-                      : `joints[${j}].${field.key}`;
+                      ? `joints.${j}.friction.${field.key}`
+                      : `joints.${j}.${field.key}`;
                   const unitText = fieldUnit(joint, field, unit);
                   const digits =
                     field.quantity === null || field.quantity === "effort" ? 3 : displayDigits(joint.type, unit);
@@ -180,9 +239,11 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
                           aria-label={`${joint.name} ${field.label} (${unitText})`}
                           aria-invalid={Boolean(errors[path])}
                           onValue={(x) => setJoint(j, field, stored(joint, field, x, unit))}
-                          className="w-20"
+                          className="w-24"
                         />
-                        <span className="w-14 text-left text-[10px] text-ink-faint">{unitText}</span>
+                        <span className="min-w-8 text-left text-[10px] whitespace-nowrap text-ink-faint">
+                          {unitText}
+                        </span>
                       </span>
                       {errors[path] ? (
                         <span role="alert" className="block text-left text-[11px] text-fault">
@@ -221,9 +282,13 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
                       value={l.mass ?? NaN}
                       digits={3}
                       aria-label={`${l.name} mass (kg)`}
+                      aria-invalid={Boolean(errors[massPath(k)])}
                       onValue={(v) => setMass(k, v)}
                       className="w-24"
                     />
+                    {errors[massPath(k)] ? (
+                      <span className="block text-left text-[11px] text-fault">Mass {errors[massPath(k)]}</span>
+                    ) : null}
                   </Td>
                 </tr>
               ))}
@@ -239,6 +304,7 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
                     value={chain.tool.xyz[k] * 1000}
                     digits={1}
                     aria-label={`Tool point ${axis} (mm)`}
+                    aria-invalid={Boolean(errors[`chain.tool.xyz.${k}`])}
                     onValue={(v) => setTool(k as 0 | 1 | 2, v)}
                     className="w-20"
                   />
@@ -262,22 +328,31 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saving, saveError, sav
         <div className="flex flex-wrap items-end gap-2">
           <TextField
             label="Note for this revision"
-            value={note}
-            onChange={(e) => setNote(e.target.value)}
             maxLength={500}
             fieldClassName="flex-1"
+            error={noteError}
+            {...form.register("note")}
           />
-          <Button type="submit" variant="primary" disabled={saving}>
-            {saveLabel}
+          <Button type="submit" variant="primary" disabled={isSubmitting}>
+            {isSubmitting ? "Saving…" : saveLabel}
           </Button>
         </div>
       ) : null}
       {Object.keys(errors).length > 0 ? (
-        <p role="alert" className="text-xs text-fault">
-          Fix the marked fields; nothing was saved.
-        </p>
+        <div role="alert" className="text-xs text-fault">
+          <p>Fix the marked fields; nothing was saved.</p>
+          {unplaced.length > 0 ? (
+            <ul className="mt-1 list-disc pl-4" data-testid="arm-problems">
+              {unplaced.map(([path, message]) => (
+                <li key={path}>
+                  <code className="font-mono">{path}</code> {message}
+                </li>
+              ))}
+            </ul>
+          ) : null}
+        </div>
       ) : null}
-      {saveError ? <ErrorNote title="Not saved">{saveError}</ErrorNote> : null}
+      {failure ? <ErrorNote title="Not saved">{failure}</ErrorNote> : null}
       {saved ? (
         <p role="status" className="text-xs text-pass">
           Saved.

@@ -178,10 +178,8 @@ export function ArmsWorkbench({
               title={`${selected.name} · revision ${selected.revision}${selected.builtIn ? " · built-in" : ""}`}
               canEdit={canEdit}
               saveLabel={selected.builtIn ? "Save as a custom arm" : `Save as revision ${selected.revision + 1}`}
-              saving={save.isPending}
-              saveError={save.error ? save.error.message : null}
               saved={save.isSuccess && save.variables?.from === selected.id}
-              onSave={(arm, note) => save.mutate({ arm, note, from: selected.id })}
+              onSave={(arm, note) => save.mutateAsync({ arm, note, from: selected.id })}
             />
             {selected.builtIn && canEdit ? (
               <p className="text-[11px] text-ink-faint">

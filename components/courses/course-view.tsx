@@ -294,7 +294,7 @@ function SubmitForm({
         <SelectField
           label="Plan version"
           hideLabel
-          fieldClassName="w-72"
+          fieldClassName="w-96 max-w-full"
           disabled={disabled}
           error={fieldMessage("The plan version", form.formState.errors.choice)}
           {...form.register("choice")}

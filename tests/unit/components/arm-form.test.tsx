@@ -1,10 +1,12 @@
 // @vitest-environment happy-dom
-import { cleanup, fireEvent, render, screen } from "@testing-library/react";
+import { act, cleanup, fireEvent, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
 import armH from "@/kinematics/arm/presets/bench-arm-h.json";
 import { ArmForm } from "@/components/arms/arm-form";
 import { armProblems, customArmName, jointValue, withJointValue } from "@/components/arms/arm-fields";
-import { armSchema, type Arm } from "@/kinematics";
+import { armSchema, formatPath, type Arm } from "@/kinematics";
+import { ApiError, type FieldIssue } from "@/lib/client/api-client";
+import { createArmRevisionSchema } from "@/lib/shared/schemas/api";
 
 afterEach(cleanup);
 
@@ -18,8 +20,6 @@ describe("the arm form", () => {
         title="Gripper arm"
         canEdit
         saveLabel="Save as a custom arm"
-        saving={false}
-        saveError={null}
         saved={false}
         onSave={() => {}}
       />,
@@ -50,7 +50,7 @@ describe("the arm form", () => {
     );
   });
 
-  it("a limit error in the degree form speaks degrees, and nothing is saved", () => {
+  it("a limit error in the degree form speaks degrees, and nothing is saved", async () => {
     let saved: Arm | null = null;
     render(
       <ArmForm
@@ -58,21 +58,21 @@ describe("the arm form", () => {
         title="Gripper arm"
         canEdit
         saveLabel="Save as a custom arm"
-        saving={false}
-        saveError={null}
         saved={false}
-        onSave={(a) => (saved = a)}
+        onSave={(a) => {
+          saved = a;
+        }}
       />,
     );
     const j = arm.joints[1];
     fireEvent.change(screen.getByLabelText(`${j.name} Travel min (°)`), { target: { value: "30" } });
     fireEvent.change(screen.getByLabelText(`${j.name} Travel max (°)`), { target: { value: "10" } });
-    fireEvent.click(screen.getByRole("button", { name: "Save as a custom arm" }));
+    await act(async () => fireEvent.click(screen.getByRole("button", { name: "Save as a custom arm" })));
     expect(saved).toBeNull();
     expect(screen.getByText("Travel max must not be below min (30.0°)")).toBeTruthy();
   });
 
-  it("saves what was entered in degrees as radians, and friction as given", () => {
+  it("saves what was entered in degrees as radians, and friction as given", async () => {
     let saved: Arm | null = null;
     render(
       <ArmForm
@@ -80,21 +80,59 @@ describe("the arm form", () => {
         title="Gripper arm"
         canEdit
         saveLabel="Save as a custom arm"
-        saving={false}
-        saveError={null}
         saved={false}
-        onSave={(a) => (saved = a)}
+        onSave={(a) => {
+          saved = a;
+        }}
       />,
     );
     const j = arm.joints[0];
     fireEvent.change(screen.getByLabelText(`${j.name} Max speed (°/s)`), { target: { value: "90" } });
     fireEvent.change(screen.getByLabelText(`${j.name} Viscous friction (N·m·s/rad)`), { target: { value: "0.25" } });
-    fireEvent.click(screen.getByRole("button", { name: "Save as a custom arm" }));
+    await act(async () => fireEvent.click(screen.getByRole("button", { name: "Save as a custom arm" })));
     expect(saved).not.toBeNull();
     const out = saved as unknown as Arm;
     expect(out.joints[0].maxVelocity).toBeCloseTo(Math.PI / 2, 12);
     expect(out.joints[0].friction?.viscous).toBe(0.25);
     expect(out.joints[1]).toEqual(arm.joints[1]);
+  });
+});
+
+describe("the arm form and the API's answer", () => {
+  /** The API's problem list for a refused body, built the way lib/server/route.ts builds it. */
+  function apiProblems(body: unknown): FieldIssue[] {
+    const parsed = createArmRevisionSchema.safeParse(body);
+    if (parsed.success) throw new Error("expected the body to be refused");
+    return parsed.error.issues.map((i) => ({ path: formatPath(i.path, "(body)"), message: i.message }));
+  }
+
+  it("puts an arm problem the API answers under the field it names, and a note problem under the note", async () => {
+    const bad = { ...arm, joints: arm.joints.map((joint, k) => (k === 2 ? { ...joint, maxVelocity: -1 } : joint)) };
+    const issues = [
+      ...apiProblems({ description: bad }).filter((i) => i.path === "description.joints[2].maxVelocity"),
+      ...apiProblems({ description: arm, note: "x".repeat(501) }),
+    ];
+    expect(issues.map((i) => i.path)).toEqual(["description.joints[2].maxVelocity", "note"]);
+    render(
+      <ArmForm
+        arm={arm}
+        title="Gripper arm"
+        canEdit
+        saveLabel="Save as revision 2"
+        saved={false}
+        onSave={() =>
+          Promise.reject(new ApiError(400, "bad_request:validation", "The request body is not valid.", issues))
+        }
+      />,
+    );
+    await act(async () => fireEvent.click(screen.getByRole("button", { name: "Save as revision 2" })));
+    const j = arm.joints[2];
+    expect(screen.getByLabelText(`${j.name} Max speed (°/s)`).getAttribute("aria-invalid")).toBe("true");
+    expect(screen.getByText(`Max speed ${issues[0].message}`)).toBeTruthy();
+    const note = screen.getByLabelText("Note for this revision");
+    expect(note.getAttribute("aria-invalid")).toBe("true");
+    const errorId = note.getAttribute("aria-describedby")!.split(" ").at(-1)!;
+    expect(document.getElementById(errorId)?.textContent).toBe(`The note ${issues[1].message}.`);
   });
 });
 
