@@ -11,6 +11,7 @@ import {
   armRevisions,
   arms,
   auditLog,
+  datasets,
   planVersions,
   plans,
   projectMembers,
@@ -18,6 +19,7 @@ import {
   users,
 } from "@/db/schema";
 import { createArm } from "@/db/queries/arms";
+import { createDataset } from "@/db/queries/datasets";
 import { createPlan } from "@/db/queries/plans";
 import { createProject } from "@/db/queries/projects";
 import * as accounts from "@/app/api/v1/accounts/route";
@@ -34,6 +36,10 @@ import * as armRevisionsRoute from "@/app/api/v1/arms/[armId]/revisions/route";
 import * as projectPlans from "@/app/api/v1/projects/[projectId]/plans/route";
 import * as versions from "@/app/api/v1/plans/[planId]/versions/route";
 import * as check from "@/app/api/v1/check/route";
+import * as datasetMapping from "@/app/api/v1/datasets/[datasetId]/mapping/route";
+import { armSchema } from "@/kinematics";
+import { putObject } from "@/lib/server/storage";
+import { matrixParquet } from "../datasets/_fixture";
 import { call, demoArm, errorOf, gentlePlan, makeUser, tokenFor, type Auth, sessionCookieFor } from "./_helpers";
 
 type Handler = Parameters<typeof call>[0];
@@ -48,13 +54,22 @@ type Target = {
   needsMailToken?: boolean;
   valid: () => unknown;
 };
-type BadCase = { what: string; body?: unknown; raw?: string; type?: string; status: number; path?: string };
+type BadCase = {
+  what: string;
+  body?: unknown;
+  raw?: string;
+  type?: string;
+  status: number;
+  path?: string;
+  /** The message the issue at `path` must carry. */
+  message?: string;
+};
 
 let auth: Auth;
 let adminAuth: Auth;
 /** The owner signed in (token management refuses API tokens). */
 let sessionAuth: Auth;
-let ids: { projectId: string; armId: string; planId: string; userId: string; memberEmail: string };
+let ids: { projectId: string; armId: string; planId: string; userId: string; memberEmail: string; datasetId: string };
 
 beforeAll(async () => {
   const owner = await makeUser("researcher", "bad-input-owner");
@@ -66,7 +81,28 @@ beforeAll(async () => {
   const p = await createProject({ name: "Bad input", kind: "research", userId: owner.id });
   const a = await createArm({ projectId: p.id, name: "Arm", description: demoArm.description, userId: owner.id });
   const pl = await createPlan({ projectId: p.id, armId: a!.armId, name: "Plan", userId: owner.id });
-  ids = { projectId: p.id, armId: a!.armId, planId: pl.id, userId: colleague.id, memberEmail: colleague.email };
+  const parquet = matrixParquet(armSchema.parse(demoArm.description));
+  const key = `datasets/${p.id}/bad-input.parquet`;
+  await putObject(key, parquet, "application/octet-stream");
+  const dataset = await createDataset({
+    projectId: p.id,
+    name: "Bad input dataset",
+    objectKey: key,
+    fileKind: "parquet",
+    sizeBytes: parquet.byteLength,
+    sha256: "0".repeat(64),
+    armRevisionId: null,
+    mapping: {},
+    createdBy: owner.id,
+  });
+  ids = {
+    projectId: p.id,
+    armId: a!.armId,
+    planId: pl.id,
+    userId: colleague.id,
+    memberEmail: colleague.email,
+    datasetId: dataset.id,
+  };
 });
 
 const doc = () =>
@@ -85,8 +121,31 @@ const withJoint = (j: number, patch: Record<string, unknown>) => {
   return d;
 };
 
+/** The document with joint j's `from` field renamed to `to` (a misspelt key keeps its value). */
+const withJointKeyRenamed = (j: number, from: string, to: string) => {
+  const d = doc();
+  d.arm = {
+    ...d.arm,
+    joints: d.arm.joints.map((joint, i) => {
+      if (i !== j) return joint;
+      const { [from]: value, ...rest } = joint;
+      return { ...rest, [to]: value ?? 1 };
+    }),
+  };
+  return d;
+};
+
+/** An unknown key is refused at its own path, with the known key it was probably meant to be. */
+const didYouMean = (name: string) => `is not a known field; did you mean "${name}"?`;
+
 /** Bad plan documents, with the field path each must be refused at (relative to the document). */
-const badDocuments: { what: string; document?: unknown; raw?: (prefix: string) => string; path: string }[] = [
+const badDocuments: {
+  what: string;
+  document?: unknown;
+  raw?: (prefix: string) => string;
+  path: string;
+  message?: string;
+}[] = [
   { what: "a start pose with one value too few", document: { ...doc(), start: [0, 0, 0, 0, 0, 0] }, path: "start" },
   {
     what: "a goal pose with one value too many",
@@ -100,6 +159,18 @@ const badDocuments: { what: string; document?: unknown; raw?: (prefix: string) =
   { what: "a zero velocity limit", document: withJoint(1, { maxVelocity: 0 }), path: "arm.joints[1].maxVelocity" },
   { what: "min above max", document: withJoint(2, { min: 1, max: -1 }), path: "arm.joints[2].max" },
   { what: "a missing format", document: { ...doc(), format: undefined }, path: "format" },
+  {
+    what: "a misspelt acceleration limit (maxAccelaration), which would otherwise leave the joint unlimited",
+    document: withJointKeyRenamed(2, "maxAcceleration", "maxAccelaration"),
+    path: "arm.joints[2].maxAccelaration",
+    message: didYouMean("maxAcceleration"),
+  },
+  {
+    what: "a misspelt keep-out list (keepOutt), which would otherwise be ignored",
+    document: { ...doc(), keepOutt: [{ min: [0.2, -0.1, 0], max: [0.4, 0.1, 0.3] }] },
+    path: "keepOutt",
+    message: didYouMean("keepOut"),
+  },
   {
     what: "a number too large for a double (1e400 parses as Infinity)",
     raw: (prefix) =>
@@ -226,6 +297,14 @@ const targets: Target[] = [
     params: () => ({}),
     valid: () => doc(),
   },
+  {
+    name: "POST /datasets/:id/mapping",
+    handler: datasetMapping.POST,
+    method: "POST",
+    path: () => `/api/v1/datasets/${ids.datasetId}/mapping`,
+    params: () => ({ datasetId: ids.datasetId }),
+    valid: () => ({ armId: ids.armId, mapping: {} }),
+  },
 ];
 
 /** Cases every write route must refuse, whatever its body looks like. */
@@ -342,6 +421,13 @@ const specificCases: Record<string, BadCase[]> = {
       status: 400,
       path: "description.controlRateHz",
     },
+    {
+      what: "a misspelt acceleration limit",
+      body: { name: "A", description: withJointKeyRenamed(2, "maxAcceleration", "maxAccelaration").arm },
+      status: 400,
+      path: "description.joints[2].maxAccelaration",
+      message: didYouMean("maxAcceleration"),
+    },
   ],
   "POST /arms/:id/revisions": [
     {
@@ -356,10 +442,31 @@ const specificCases: Record<string, BadCase[]> = {
       status: 400,
       path: "description.joints[3].maxVelocity",
     },
+    {
+      what: "a misspelt acceleration limit",
+      body: { description: withJointKeyRenamed(2, "maxAcceleration", "maxAccelaration").arm },
+      status: 400,
+      path: "description.joints[2].maxAccelaration",
+      message: didYouMean("maxAcceleration"),
+    },
+    {
+      what: "a speed limit in the wrong letter case",
+      body: { description: withJointKeyRenamed(0, "maxVelocity", "MaxVelocity").arm },
+      status: 400,
+      path: "description.joints[0].MaxVelocity",
+      message: didYouMean("maxVelocity"),
+    },
   ],
   "POST /projects/:id/plans": [
     { what: "no arm", body: { name: "P" }, status: 400, path: "armId" },
     { what: "an arm id that is not an id", body: { name: "P", armId: "arm-1" }, status: 400, path: "armId" },
+    {
+      what: "a misspelt arm id field",
+      body: { name: "P", armid: "00000000-0000-4000-8000-000000000201" },
+      status: 400,
+      path: "armid",
+      message: didYouMean("armId"),
+    },
   ],
   "POST /plans/:id/versions": [
     { what: "no base version", body: { document: doc() }, status: 400, path: "baseVersion" },
@@ -380,14 +487,20 @@ const specificCases: Record<string, BadCase[]> = {
     ...badDocuments.map((d) =>
       d.raw
         ? { what: d.what, raw: d.raw("document"), status: 400, path: `document.${d.path}` }
-        : { what: d.what, body: { baseVersion: 0, document: d.document }, status: 400, path: `document.${d.path}` },
+        : {
+            what: d.what,
+            body: { baseVersion: 0, document: d.document },
+            status: 400,
+            path: `document.${d.path}`,
+            message: d.message,
+          },
     ),
   ],
   "POST /check": [
     ...badDocuments.map((d) =>
       d.raw
         ? { what: d.what, raw: d.raw(""), status: 400, path: d.path }
-        : { what: d.what, body: d.document, status: 400, path: d.path },
+        : { what: d.what, body: d.document, status: 400, path: d.path, message: d.message },
     ),
     {
       what: "a plan lasting ten million seconds (too long to check in one request)",
@@ -396,10 +509,38 @@ const specificCases: Record<string, BadCase[]> = {
       path: "moves",
     },
   ],
+  "POST /datasets/:id/mapping": [
+    { what: "no arm", body: { mapping: {} }, status: 400, path: "armId" },
+    {
+      what: "a misspelt time column field, which would otherwise audit with the default time column",
+      body: { armId: "00000000-0000-4000-8000-000000000201", mapping: { timeColum: "t" } },
+      status: 400,
+      path: "mapping.timeColum",
+      message: didYouMean("timeColumn"),
+    },
+    {
+      what: "a misspelt revision field",
+      body: { armId: "00000000-0000-4000-8000-000000000201", revison: 1 },
+      status: 400,
+      path: "revison",
+      message: didYouMean("revision"),
+    },
+  ],
 };
 
 async function counts() {
-  const tables = { users, projects, projectMembers, arms, armRevisions, plans, planVersions, apiTokens, auditLog };
+  const tables = {
+    users,
+    projects,
+    projectMembers,
+    arms,
+    armRevisions,
+    plans,
+    planVersions,
+    apiTokens,
+    auditLog,
+    datasets,
+  };
   const out: Record<string, number> = {};
   for (const [name, table] of Object.entries(tables)) out[name] = await db.$count(table);
   return out;
@@ -443,6 +584,7 @@ describe("bad input on every write route", () => {
     expect(typeof error.code).toBe("string");
     expect(typeof error.message).toBe("string");
     if (c.path) expect(error.issues.map((i) => i.path)).toContain(c.path);
+    if (c.message) expect(error.issues.find((i) => i.path === c.path)?.message).toBe(c.message);
     expect(await counts()).toEqual(before);
   });
 });
