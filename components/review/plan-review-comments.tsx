@@ -159,7 +159,9 @@ export function ReviewCommentList({ returned, detail, joints, onJump }: ReviewCo
           {comments.map((c) => {
             const where = [
               c.moveIndex !== null ? moveLabel(c.moveIndex) : "Whole plan",
-              c.jointIndex !== null ? (joints[c.jointIndex] ?? `joint ${c.jointIndex}`) : null,
+              c.jointIndex !== null
+                ? (joints[c.jointIndex] ?? `joint ${c.jointIndex + 1} (no longer in the arm)`)
+                : null,
               c.timeS !== null ? `t = ${c.timeS.toFixed(3)} s` : null,
             ]
               .filter(Boolean)

@@ -219,7 +219,7 @@ export function ReviewWorkspace({
                     <span className="tabular block text-[11px] text-ink-faint">
                       {c.moveIndex !== null ? moveLabel(c.moveIndex) : "Whole plan"}
                       {c.jointIndex !== null
-                        ? ` · ${plan.arm.joints[c.jointIndex]?.name ?? `joint ${c.jointIndex}`}`
+                        ? ` · ${plan.arm.joints[c.jointIndex]?.name ?? `joint ${c.jointIndex + 1} (no longer in the arm)`}`
                         : ""}
                       {c.timeS !== null ? ` · t = ${c.timeS.toFixed(3)} s` : ""}
                     </span>
