@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { getReadableArmRevision } from "@/db/queries/arms";
 import { createCourse, listCoursesForUser } from "@/db/queries/courses";
@@ -43,14 +44,17 @@ export const POST = route(async (request) => {
       });
     }
   }
-  const course = await createCourse({ userId: actor.userId, ...body });
-  await recordAudit({
-    actorId: actor.userId,
-    action: "course.create",
-    targetType: "course",
-    targetId: course.id,
-    projectId: course.projectId,
-    detail: { title: course.title },
+  const course = await inTransaction(async () => {
+    const course = await createCourse({ userId: actor.userId, ...body });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "course.create",
+      targetType: "course",
+      targetId: course.id,
+      projectId: course.projectId,
+      detail: { title: course.title },
+    });
+    return course;
   });
   return json({ course: { ...course, inviteUrl: appLink(joinPath(course.joinCode)) } }, 201);
 });

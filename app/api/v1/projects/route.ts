@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { createProject, listProjectsPageForUser } from "@/db/queries/projects";
 import { json, readJson, readQuery, route } from "@/lib/server/route";
@@ -27,13 +28,16 @@ export const POST = route(async (request) => {
   const body = await readJson(request, createProjectSchema);
   const actor = await requireActor(request);
   authorizeSite(actor, body.kind === "course" ? "project:create-course" : "project:create");
-  const project = await createProject({ name: body.name, kind: body.kind, userId: actor.userId });
-  await recordAudit({
-    actorId: actor.userId,
-    action: "project.create",
-    targetType: "project",
-    targetId: project.id,
-    projectId: project.id,
+  const project = await inTransaction(async () => {
+    const project = await createProject({ name: body.name, kind: body.kind, userId: actor.userId });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "project.create",
+      targetType: "project",
+      targetId: project.id,
+      projectId: project.id,
+    });
+    return project;
   });
   return json({ project }, 201);
 });

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { deletePlan } from "@/db/queries/plans";
@@ -24,14 +25,16 @@ export const DELETE = route(async (request, context) => {
   const actor = await requireActor(request);
   const plan = await loadPlan(actor, planId);
   authorizeProject(membershipOf(plan), "plan:delete");
-  if (!(await deletePlan({ planId, userId: actor.userId }))) throw new AppError("not_found:plan", "No such plan.");
-  await recordAudit({
-    actorId: actor.userId,
-    action: "plan.delete",
-    targetType: "plan",
-    targetId: planId,
-    projectId: plan.projectId,
-    detail: { name: plan.name },
+  await inTransaction(async () => {
+    if (!(await deletePlan({ planId, userId: actor.userId }))) throw new AppError("not_found:plan", "No such plan.");
+    await recordAudit({
+      actorId: actor.userId,
+      action: "plan.delete",
+      targetType: "plan",
+      targetId: planId,
+      projectId: plan.projectId,
+      detail: { name: plan.name },
+    });
   });
   return json({ deleted: planId });
 });

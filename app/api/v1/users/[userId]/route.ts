@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { getUserById, updateUserByAdmin } from "@/db/queries/users";
@@ -20,13 +21,16 @@ export const PATCH = route(async (request, context) => {
   if (userId === actor.userId && (body.disabled === true || (body.siteRole && body.siteRole !== "admin"))) {
     throw new AppError("unprocessable:self", "Admins cannot disable or demote themselves; ask another admin.");
   }
-  const user = await updateUserByAdmin({ id: userId, siteRole: body.siteRole, disabled: body.disabled });
-  await recordAudit({
-    actorId: actor.userId,
-    action: "user.update",
-    targetType: "user",
-    targetId: userId,
-    detail: body,
+  const user = await inTransaction(async () => {
+    const user = await updateUserByAdmin({ id: userId, siteRole: body.siteRole, disabled: body.disabled });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "user.update",
+      targetType: "user",
+      targetId: userId,
+      detail: body,
+    });
+    return user;
   });
   return json({ user });
 });

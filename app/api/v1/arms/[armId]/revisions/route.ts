@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { z } from "zod";
 import { createArmRevision } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
@@ -19,19 +20,22 @@ export const POST = route(async (request, context) => {
   if (arm.role === null)
     throw new AppError("forbidden:arm", "Built-in arms cannot be edited; create a custom arm in your project.");
   authorizeProject({ role: arm.role, archived: arm.projectArchived }, "arm:write");
-  const revision = await createArmRevision({
-    armId,
-    description: body.description,
-    note: body.note,
-    userId: actor.userId,
-  });
-  await recordAudit({
-    actorId: actor.userId,
-    action: "arm.revise",
-    targetType: "arm",
-    targetId: armId,
-    projectId: arm.projectId,
-    detail: { revision: revision.revision },
+  const revision = await inTransaction(async () => {
+    const revision = await createArmRevision({
+      armId,
+      description: body.description,
+      note: body.note,
+      userId: actor.userId,
+    });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "arm.revise",
+      targetType: "arm",
+      targetId: armId,
+      projectId: arm.projectId,
+      detail: { revision: revision.revision },
+    });
+    return revision;
   });
   return json({ revision }, 201);
 });

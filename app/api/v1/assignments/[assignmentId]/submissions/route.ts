@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { getArmRevisionById } from "@/db/queries/arms";
 import { createSubmission, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
@@ -79,56 +80,59 @@ export const POST = route(async (request, context) => {
 
   const student = await getActiveUserById({ id: actor.userId });
   const instructors = await listCourseInstructors({ courseId: assignment.courseId });
-  const result = await createSubmission(
-    {
-      assignmentId,
-      studentId: actor.userId,
-      planId: version.planId,
-      planVersionId: version.id,
-      planVersionNumber: version.number,
-      document: version.document,
-      armRevisionId: version.armRevisionId,
-      report,
-      verdict: report.verdict,
-      ruleProblems: problems,
-      late: Date.now() > assignment.dueAt.getTime(),
-    },
-    (submission) =>
-      instructors.map((instructor) =>
-        outbox(
-          "submission-received",
-          `submission-received:${submission.id}:${instructor.id}`,
-          instructor.email,
-          submissionReceived({
-            instructorName: instructor.name,
-            studentName: student?.name ?? "A student",
-            assignmentTitle: assignment.title,
-            courseTitle: assignment.courseTitle,
-            attempt: submission.attempt,
-            verdict: report.verdict,
-            late: submission.late,
-            ruleProblemCount: problems.length,
-            submissionId: submission.id,
-          }),
+  const result = await inTransaction(async () => {
+    const result = await createSubmission(
+      {
+        assignmentId,
+        studentId: actor.userId,
+        planId: version.planId,
+        planVersionId: version.id,
+        planVersionNumber: version.number,
+        document: version.document,
+        armRevisionId: version.armRevisionId,
+        report,
+        verdict: report.verdict,
+        ruleProblems: problems,
+        late: Date.now() > assignment.dueAt.getTime(),
+      },
+      (submission) =>
+        instructors.map((instructor) =>
+          outbox(
+            "submission-received",
+            `submission-received:${submission.id}:${instructor.id}`,
+            instructor.email,
+            submissionReceived({
+              instructorName: instructor.name,
+              studentName: student?.name ?? "A student",
+              assignmentTitle: assignment.title,
+              courseTitle: assignment.courseTitle,
+              attempt: submission.attempt,
+              verdict: report.verdict,
+              late: submission.late,
+              ruleProblemCount: problems.length,
+              submissionId: submission.id,
+            }),
+          ),
         ),
-      ),
-  );
-  if ("notEnrolled" in result)
-    throw new AppError("forbidden:submission", "You are no longer a student of this course.");
-  if ("conflict" in result) {
-    throw new AppError(
-      "conflict:submission",
-      result.conflict === "open"
-        ? "Your earlier submission is still waiting for review; you can submit again once it is returned."
-        : "This assignment is already approved.",
     );
-  }
-  await recordAudit({
-    actorId: actor.userId,
-    action: "submission.create",
-    targetType: "submission",
-    targetId: result.submission.id,
-    detail: { assignmentId, attempt: result.submission.attempt, verdict: report.verdict },
+    if ("notEnrolled" in result)
+      throw new AppError("forbidden:submission", "You are no longer a student of this course.");
+    if ("conflict" in result) {
+      throw new AppError(
+        "conflict:submission",
+        result.conflict === "open"
+          ? "Your earlier submission is still waiting for review; you can submit again once it is returned."
+          : "This assignment is already approved.",
+      );
+    }
+    await recordAudit({
+      actorId: actor.userId,
+      action: "submission.create",
+      targetType: "submission",
+      targetId: result.submission.id,
+      detail: { assignmentId, attempt: result.submission.attempt, verdict: report.verdict },
+    });
+    return result;
   });
   await enqueueMail(result.mailIds);
   return json({ submission: { ...result.submission, document: undefined }, report, ruleProblems: problems }, 201);

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { getReadableArmRevision } from "@/db/queries/arms";
 import { createAssignment, listAssignmentsForUser } from "@/db/queries/courses";
@@ -50,15 +51,18 @@ export const POST = route(async (request, context) => {
   ];
   if (poseIssues.length > 0)
     throw new AppError("bad_request:validation", "The request body is not valid.", { issues: poseIssues });
-  const assignment = await createAssignment({ courseId, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
-  if (!assignment) throw new AppError("forbidden:assignment", "Only the course's instructors can set assignments.");
-  await recordAudit({
-    actorId: actor.userId,
-    action: "assignment.create",
-    targetType: "assignment",
-    targetId: assignment.id,
-    projectId: course.projectId,
-    detail: { courseId },
+  const assignment = await inTransaction(async () => {
+    const assignment = await createAssignment({ courseId, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
+    if (!assignment) throw new AppError("forbidden:assignment", "Only the course's instructors can set assignments.");
+    await recordAudit({
+      actorId: actor.userId,
+      action: "assignment.create",
+      targetType: "assignment",
+      targetId: assignment.id,
+      projectId: course.projectId,
+      detail: { courseId },
+    });
+    return assignment;
   });
   return json({ assignment }, 201);
 });

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { isDeepStrictEqual } from "node:util";
 import { z } from "zod";
 import { getArmRevisionForUser } from "@/db/queries/arms";
@@ -58,32 +59,35 @@ export const POST = route(async (request, context) => {
     );
   }
   const { report, summary } = await checkPlan(body.document, "document");
-  const result = await createPlanVersion({
-    planId,
-    baseVersion: body.baseVersion,
-    document: body.document,
-    armRevisionId: revision.id,
-    verdict: report.verdict,
-    summary,
-    note: body.note ?? null,
-    authorId: actor.userId,
-  });
-  if ("conflict" in result) {
-    throw new AppError(
-      "conflict:version",
-      `Version ${result.conflict} was saved after version ${body.baseVersion}, which this edit started from. Load version ${result.conflict} and merge, or save as a new plan.`,
-      {
-        details: { latestVersion: result.conflict, baseVersion: body.baseVersion },
-      },
-    );
-  }
-  await recordAudit({
-    actorId: actor.userId,
-    action: "version.create",
-    targetType: "plan",
-    targetId: planId,
-    projectId: plan.projectId,
-    detail: { number: result.version.number, verdict: report.verdict },
+  const result = await inTransaction(async () => {
+    const result = await createPlanVersion({
+      planId,
+      baseVersion: body.baseVersion,
+      document: body.document,
+      armRevisionId: revision.id,
+      verdict: report.verdict,
+      summary,
+      note: body.note ?? null,
+      authorId: actor.userId,
+    });
+    if ("conflict" in result) {
+      throw new AppError(
+        "conflict:version",
+        `Version ${result.conflict} was saved after version ${body.baseVersion}, which this edit started from. Load version ${result.conflict} and merge, or save as a new plan.`,
+        {
+          details: { latestVersion: result.conflict, baseVersion: body.baseVersion },
+        },
+      );
+    }
+    await recordAudit({
+      actorId: actor.userId,
+      action: "version.create",
+      targetType: "plan",
+      targetId: planId,
+      projectId: plan.projectId,
+      detail: { number: result.version.number, verdict: report.verdict },
+    });
+    return result;
   });
   return json({ version: { ...result.version, armRevision: revision.revision }, report }, 201);
 });

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { z } from "zod";
 import { createArm, listArmsForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
@@ -26,23 +27,26 @@ export const POST = route(async (request, context) => {
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "arm:write");
-  const created = await createArm({
-    projectId,
-    name: body.name,
-    description: body.description,
-    note: body.note,
-    userId: actor.userId,
-  });
-  if (!created)
-    throw new AppError("conflict:arm-name", "This project already has an arm with that name.", {
-      issues: [{ path: "name", message: "is taken" }],
+  const created = await inTransaction(async () => {
+    const created = await createArm({
+      projectId,
+      name: body.name,
+      description: body.description,
+      note: body.note,
+      userId: actor.userId,
     });
-  await recordAudit({
-    actorId: actor.userId,
-    action: "arm.create",
-    targetType: "arm",
-    targetId: created.armId,
-    projectId,
+    if (!created)
+      throw new AppError("conflict:arm-name", "This project already has an arm with that name.", {
+        issues: [{ path: "name", message: "is taken" }],
+      });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "arm.create",
+      targetType: "arm",
+      targetId: created.armId,
+      projectId,
+    });
+    return created;
   });
   return json({ arm: { id: created.armId, name: body.name, projectId }, revision: created.revision }, 201);
 });

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { countOwners, listMembers, listMembersPage, upsertMember } from "@/db/queries/projects";
@@ -36,18 +37,21 @@ export const POST = route(async (request, context) => {
       nextRole: body.role,
       ownerCount: await countOwners({ projectId }),
     });
-  const member = await upsertMember({ projectId, ownerId: actor.userId, email: body.email, role: body.role });
-  if (!member)
-    throw new AppError("unprocessable:unknown-user", "No active account has this e-mail.", {
-      issues: [{ path: "email", message: "has no account" }],
+  const member = await inTransaction(async () => {
+    const member = await upsertMember({ projectId, ownerId: actor.userId, email: body.email, role: body.role });
+    if (!member)
+      throw new AppError("unprocessable:unknown-user", "No active account has this e-mail.", {
+        issues: [{ path: "email", message: "has no account" }],
+      });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "member.set",
+      targetType: "user",
+      targetId: member.userId,
+      projectId,
+      detail: { role: body.role },
     });
-  await recordAudit({
-    actorId: actor.userId,
-    action: "member.set",
-    targetType: "user",
-    targetId: member.userId,
-    projectId,
-    detail: { role: body.role },
+    return member;
   });
   return json({ member }, existing ? 200 : 201);
 });

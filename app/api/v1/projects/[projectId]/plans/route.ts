@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { createPlan, listPlansPageForProject } from "@/db/queries/plans";
@@ -41,7 +42,16 @@ export const POST = route(async (request, context) => {
       issues: [{ path: "armId", message: "is not an arm of this project" }],
     });
   }
-  const plan = await createPlan({ projectId, armId: body.armId, name: body.name, userId: actor.userId });
-  await recordAudit({ actorId: actor.userId, action: "plan.create", targetType: "plan", targetId: plan.id, projectId });
+  const plan = await inTransaction(async () => {
+    const plan = await createPlan({ projectId, armId: body.armId, name: body.name, userId: actor.userId });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "plan.create",
+      targetType: "plan",
+      targetId: plan.id,
+      projectId,
+    });
+    return plan;
+  });
   return json({ plan }, 201);
 });

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { createHash, randomUUID } from "node:crypto";
 import { z } from "zod";
 import { getArmRevisionForUser } from "@/db/queries/arms";
@@ -75,25 +76,28 @@ export const POST = route(async (request, context) => {
   const key = `recordings/${projectId}/${randomUUID()}.csv`;
   await putObject(key, bytes, "text/csv");
   try {
-    const row = await createRecording({
-      projectId,
-      armId: query.armId ?? null,
-      name: query.name,
-      objectKey: key,
-      contentType: "text/csv",
-      sizeBytes: bytes.byteLength,
-      sha256: createHash("sha256").update(bytes).digest("hex"),
-      sampleCount: recording.count,
-      jointCount: recording.jointCount,
-      durationS: recording.count > 0 ? recording.timeS[recording.count - 1] - recording.timeS[0] : 0,
-      createdBy: actor.userId,
-    });
-    await recordAudit({
-      actorId: actor.userId,
-      action: "recording.create",
-      targetType: "recording",
-      targetId: row.id,
-      projectId,
+    const row = await inTransaction(async () => {
+      const row = await createRecording({
+        projectId,
+        armId: query.armId ?? null,
+        name: query.name,
+        objectKey: key,
+        contentType: "text/csv",
+        sizeBytes: bytes.byteLength,
+        sha256: createHash("sha256").update(bytes).digest("hex"),
+        sampleCount: recording.count,
+        jointCount: recording.jointCount,
+        durationS: recording.count > 0 ? recording.timeS[recording.count - 1] - recording.timeS[0] : 0,
+        createdBy: actor.userId,
+      });
+      await recordAudit({
+        actorId: actor.userId,
+        action: "recording.create",
+        targetType: "recording",
+        targetId: row.id,
+        projectId,
+      });
+      return row;
     });
     return json({ recording: row, stream }, 201);
   } catch (err) {

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { decideSubmission, listComments } from "@/db/queries/reviews";
 import { getActiveUserById } from "@/db/queries/users";
@@ -39,34 +40,37 @@ export const POST = route(async (request, context) => {
   const faultApprovalReason = body.decision === "approved" && faulted ? (body.reason ?? null) : null;
   const reviewer = await getActiveUserById({ id: actor.userId });
   const comments = await listComments({ submissionId, userId: actor.userId });
-  const result = await decideSubmission(
-    { submissionId, reviewerId: actor.userId, decision: body.decision, summary: body.summary, faultApprovalReason },
-    (review) => [
-      outbox(
-        `submission-${review.decision}`,
-        `submission-decided:${review.id}`,
-        submission.studentEmail,
-        submissionDecided({
-          studentName: submission.studentName,
-          assignmentTitle: submission.assignment.title,
-          courseTitle: submission.courseTitle,
-          decision: review.decision,
-          reviewerName: reviewer?.name ?? "Your instructor",
-          summary: review.summary,
-          faultApprovalReason: review.faultApprovalReason,
-          commentCount: comments.length,
-          submissionId,
-        }),
-      ),
-    ],
-  );
-  if (!result) throw new AppError("conflict:submission", "This submission was already decided.");
-  await recordAudit({
-    actorId: actor.userId,
-    action: `submission.${body.decision === "approved" ? "approve" : "return"}`,
-    targetType: "submission",
-    targetId: submissionId,
-    detail: { reviewId: result.review.id, faultsConfirmed: faultApprovalReason !== null },
+  const result = await inTransaction(async () => {
+    const result = await decideSubmission(
+      { submissionId, reviewerId: actor.userId, decision: body.decision, summary: body.summary, faultApprovalReason },
+      (review) => [
+        outbox(
+          `submission-${review.decision}`,
+          `submission-decided:${review.id}`,
+          submission.studentEmail,
+          submissionDecided({
+            studentName: submission.studentName,
+            assignmentTitle: submission.assignment.title,
+            courseTitle: submission.courseTitle,
+            decision: review.decision,
+            reviewerName: reviewer?.name ?? "Your instructor",
+            summary: review.summary,
+            faultApprovalReason: review.faultApprovalReason,
+            commentCount: comments.length,
+            submissionId,
+          }),
+        ),
+      ],
+    );
+    if (!result) throw new AppError("conflict:submission", "This submission was already decided.");
+    await recordAudit({
+      actorId: actor.userId,
+      action: `submission.${body.decision === "approved" ? "approve" : "return"}`,
+      targetType: "submission",
+      targetId: submissionId,
+      detail: { reviewId: result.review.id, faultsConfirmed: faultApprovalReason !== null },
+    });
+    return result;
   });
   await enqueueMail(result.mailIds);
   return json({ review: result.review }, 201);

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { removeStudent } from "@/db/queries/courses";
 import { json, readParams, route } from "@/lib/server/route";
@@ -13,15 +14,17 @@ export const DELETE = route(async (request, context) => {
   const actor = await requireActor(request);
   const course = await loadCourse(actor, courseId);
   authorizeCourse(course.role, "roster:manage");
-  const removed = await removeStudent({ courseId, instructorId: actor.userId, userId });
-  if (!removed) throw new AppError("not_found:student", "No such student in this course.");
-  await recordAudit({
-    actorId: actor.userId,
-    action: "course.remove-student",
-    targetType: "course",
-    targetId: courseId,
-    projectId: course.projectId,
-    detail: { userId },
+  await inTransaction(async () => {
+    const removed = await removeStudent({ courseId, instructorId: actor.userId, userId });
+    if (!removed) throw new AppError("not_found:student", "No such student in this course.");
+    await recordAudit({
+      actorId: actor.userId,
+      action: "course.remove-student",
+      targetType: "course",
+      targetId: courseId,
+      projectId: course.projectId,
+      detail: { userId },
+    });
   });
   return json({ removed: userId });
 });

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { createArm } from "@/db/queries/arms";
@@ -64,26 +65,29 @@ export const POST = route(async (request, context) => {
   const key = `urdf/${projectId}/${randomUUID()}.urdf`;
   await putObject(key, bytes, "application/xml");
   try {
-    const created = await createArm({
-      projectId,
-      name: arm.data.name,
-      description: arm.data,
-      urdfKey: key,
-      note: "Imported from URDF",
-      userId: actor.userId,
-    });
-    if (!created)
-      throw new AppError(
-        "conflict:arm-name",
-        "This project already has an arm with that name; pass ?name=… to choose another.",
-        { issues: [{ path: "query.name", message: "is taken" }] },
-      );
-    await recordAudit({
-      actorId: actor.userId,
-      action: "arm.import",
-      targetType: "arm",
-      targetId: created.armId,
-      projectId,
+    const created = await inTransaction(async () => {
+      const created = await createArm({
+        projectId,
+        name: arm.data.name,
+        description: arm.data,
+        urdfKey: key,
+        note: "Imported from URDF",
+        userId: actor.userId,
+      });
+      if (!created)
+        throw new AppError(
+          "conflict:arm-name",
+          "This project already has an arm with that name; pass ?name=… to choose another.",
+          { issues: [{ path: "query.name", message: "is taken" }] },
+        );
+      await recordAudit({
+        actorId: actor.userId,
+        action: "arm.import",
+        targetType: "arm",
+        targetId: created.armId,
+        projectId,
+      });
+      return created;
     });
     return json({ arm: { id: created.armId, name: arm.data.name, projectId }, revision: created.revision }, 201);
   } catch (err) {

@@ -1,3 +1,4 @@
+import { inTransaction } from "@/lib/server/transaction";
 import { z } from "zod";
 import { recordAudit } from "@/db/queries/audit";
 import { countOwners, listMembers, removeMember } from "@/db/queries/projects";
@@ -19,13 +20,15 @@ export const DELETE = route(async (request, context) => {
   if (!target) throw new AppError("not_found:member", "That user is not a member of this project.");
   if (target.role === "owner")
     assertKeepsAnOwner({ currentRole: target.role, nextRole: null, ownerCount: await countOwners({ projectId }) });
-  await removeMember({ projectId, ownerId: actor.userId, userId });
-  await recordAudit({
-    actorId: actor.userId,
-    action: "member.remove",
-    targetType: "user",
-    targetId: userId,
-    projectId,
+  await inTransaction(async () => {
+    await removeMember({ projectId, ownerId: actor.userId, userId });
+    await recordAudit({
+      actorId: actor.userId,
+      action: "member.remove",
+      targetType: "user",
+      targetId: userId,
+      projectId,
+    });
   });
   return json({ removed: userId });
 });

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { getPlanVersion } from "@/db/queries/plans";
-import { readParams, readQuery, route, uuidParam } from "@/lib/server/route";
+import { readParams, readQuery, route, uuidParam, versionParam } from "@/lib/server/route";
 import { checkPlan } from "@/lib/server/check";
 import { planSchema, samplePlan } from "@/kinematics";
 import { buildCsvExport, buildJsonExport } from "@/lib/shared/export-format";
@@ -10,7 +10,7 @@ import { requireActor } from "@/lib/server/auth-request";
 import { AppError } from "@/lib/server/errors";
 import { authorizeProject } from "@/lib/server/permissions";
 
-const params = z.object({ planId: uuidParam, version: z.coerce.number().int().positive().max(1_000_000) });
+const params = z.object({ planId: uuidParam, version: versionParam });
 
 /**
  * GET /api/v1/plans/:planId/versions/:version/export?format=json|csv&rateHz=…
