@@ -1,4 +1,5 @@
 "use client";
+import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useMutation } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
@@ -6,7 +7,14 @@ import { ErrorNote, Panel } from "@/components/ui/panel";
 import { api } from "@/lib/client/api-client";
 
 /** Confirms joining the course an invitation link opens. */
-export function JoinCourse({ code, course }: { code: string; course: { title: string; term: string } | null }) {
+export function JoinCourse({
+  code,
+  course,
+}: {
+  code: string;
+  /** The open course the code names, with the viewer's role in it when they are already enrolled. */
+  course: { id: string; title: string; term: string; role: "instructor" | "student" | null } | null;
+}) {
   const router = useRouter();
   const join = useMutation({
     mutationFn: () => api.joinCourse(code),
@@ -15,7 +23,21 @@ export function JoinCourse({ code, course }: { code: string; course: { title: st
   return (
     <div className="mx-auto max-w-lg px-6 py-12">
       <Panel className="p-6">
-        {course ? (
+        {course?.role ? (
+          <>
+            <h1 className="text-xl font-semibold">{course.title}</h1>
+            <p className="mt-1 text-sm text-ink-soft">
+              {course.term} · you are already in this course as{" "}
+              {course.role === "student" ? "a student" : "an instructor"}; there is nothing to join.
+            </p>
+            <Link
+              href={`/courses/${course.id}`}
+              className="mt-5 inline-flex h-9 items-center rounded-md bg-brand-600 px-3.5 text-sm font-medium text-white hover:bg-brand-700"
+            >
+              Open the course
+            </Link>
+          </>
+        ) : course ? (
           <>
             <h1 className="text-xl font-semibold">Join {course.title}</h1>
             <p className="mt-1 text-sm text-ink-soft">
@@ -27,7 +49,7 @@ export function JoinCourse({ code, course }: { code: string; course: { title: st
             </Button>
             {join.error ? (
               <div className="mt-4">
-                <ErrorNote>{join.error.message}</ErrorNote>
+                <ErrorNote title="Not joined">{join.error.message}</ErrorNote>
               </div>
             ) : null}
           </>
