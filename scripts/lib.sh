@@ -138,7 +138,7 @@ pg_recreate_db() {
 # Build with `next build` when any source is newer than the last build.
 build_if_stale() {
   local stamp=".next/BUILD_ID"
-  if [ -f "$stamp" ] && [ -z "$(find app components lib kinematics db public next.config.ts postcss.config.mjs package-lock.json tsconfig.json proxy.ts instrumentation.ts \
+  if [ -f "$stamp" ] && [ -z "$(find app components lib kinematics db public next.config.ts postcss.config.mjs package-lock.json tsconfig.json instrumentation.ts \
         -newer "$stamp" -type f -print -quit 2>/dev/null)" ]; then
     log "build is up to date"
     return 0
