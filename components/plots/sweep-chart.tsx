@@ -3,6 +3,7 @@ import { useMemo } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
 import { moveTimingSweep, type Plan } from "@/kinematics";
+import { LIMIT_LINE_OPACITY, TRACE_WIDTH } from "./plot-style";
 
 /** Durations the chart evaluates (each one a peak evaluation of the move's path). */
 const sweepSteps = 48;
@@ -67,8 +68,13 @@ export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: Sw
               ticks={[0, 0.5, 1, 1.5, 2, 2.5]}
               tick={{ fontSize: 10, fill: "#6b7280" }}
             />
-            <ReferenceLine y={1} stroke={verdictLook.fault.stroke} />
-            <ReferenceLine y={cautionRatio} stroke={verdictLook.caution.stroke} strokeDasharray="4 3" />
+            <ReferenceLine y={1} stroke={verdictLook.fault.stroke} strokeOpacity={LIMIT_LINE_OPACITY} />
+            <ReferenceLine
+              y={cautionRatio}
+              stroke={verdictLook.caution.stroke}
+              strokeOpacity={LIMIT_LINE_OPACITY}
+              strokeDasharray="4 3"
+            />
             <ReferenceLine
               x={minSafeS}
               stroke={verdictLook.pass.stroke}
@@ -85,7 +91,7 @@ export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: Sw
               stroke="#b8612a"
               label={{ value: "now", position: "insideTopLeft", fontSize: 10, fill: "#9a4f21" }}
             />
-            <Line dataKey="r" stroke="#1f6f86" strokeWidth={1.5} dot={false} isAnimationActive={false} />
+            <Line dataKey="r" stroke="#1f6f86" strokeWidth={TRACE_WIDTH} dot={false} isAnimationActive={false} />
           </LineChart>
         </ResponsiveContainer>
       </div>
