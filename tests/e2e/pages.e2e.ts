@@ -305,6 +305,11 @@ describe("pages at 1440×900", () => {
     // Dates in the one format.
     expect(await row.locator("time").first().textContent()).toMatch(/^\d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2}$/);
     await shot(page, "course-student");
+    // A submission, so that the instructor's review queue and review page have one to show.
+    const second = page.getByTestId("assignment-row").filter({ hasText: demoCourse.assignments[1].title });
+    await second.getByLabel("Plan version").selectOption({ label: "Robot Motion I / Instant swing · version 1" });
+    await second.getByRole("button", { name: "Submit" }).click();
+    await expect(second.getByRole("status").textContent()).resolves.toContain("attempt 1");
     await preview.click();
     await page.getByTestId("assignment-rules").waitFor();
     await page.waitForTimeout(800);
@@ -332,6 +337,16 @@ describe("pages at 1440×900", () => {
     await shot(page, "course-instructor");
     expect((await page.goto("/reviews"))?.status()).toBe(200);
     await shot(page, "reviews");
+    await page
+      .getByTestId("queue-row")
+      .filter({ hasText: demoCourse.assignments[1].title })
+      .getByRole("link", { name: aiko.name })
+      .first()
+      .click();
+    await page.waitForURL(/\/reviews\/[0-9a-f-]{36}$/);
+    await page.getByTestId("review-status").waitFor();
+    await page.waitForTimeout(1000);
+    await shot(page, "review");
     expect(s.errors.filter((e) => !/404|401|400|422/.test(e))).toEqual([]);
   });
 });
