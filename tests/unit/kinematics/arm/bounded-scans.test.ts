@@ -4,16 +4,24 @@
 // wherever a result could come from, so the worst values and their times must be identical.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { compileChain, type ChainJointType, linkFrames } from "@/kinematics/arm/chain";
+import {
+  compileChain,
+  createChainBuffers,
+  forwardKinematics,
+  type ChainJointType,
+  linkFrames,
+} from "@/kinematics/arm/chain";
 import { check } from "@/kinematics";
 import {
   clearanceZones,
   compileCollision,
   createClearanceScanner,
   scanClearance,
+  certifyClearPath,
   scanClearanceBounded,
   shapeIntrusions,
 } from "@/kinematics/arm/clearance";
+import { moveBlend, scalingAt, shapeId, velocityFactor } from "@/kinematics/motion/shapes";
 import { compileReachBounds, linkSpeedBounds, toolAccelerationBound } from "@/kinematics/arm/motion-bounds";
 import { parsePlan, type Plan } from "@/kinematics";
 import { samplePlan } from "@/kinematics/motion/sample";
@@ -240,5 +248,115 @@ describe("sample-skipping tool-speed scan", () => {
       }),
       { numRuns: 20, seed: 3 },
     );
+  });
+});
+
+/** Poses of the demo arm held near upright (shoulder, elbow and wrist pitch within 45–55% of travel). */
+const upright = fc.array(unit, { minLength: 7, maxLength: 7 }).map((u) =>
+  u.map((x, j) => {
+    const f = j === 1 || j === 2 || j === 3 ? 0.45 + 0.1 * x : 0.1 + 0.8 * x;
+    return demoArm.joints[j].min + f * (demoArm.joints[j].max - demoArm.joints[j].min);
+  }),
+);
+const uprightPlanArb = fc.record({
+  start: upright,
+  goal: upright,
+  duration: fc.double({ min: 0.2, max: 3, noNaN: true }),
+  shape: fc.constantFrom("cubic", "quintic", "trapezoid"),
+  margin: fc.double({ min: 0, max: 0.12, noNaN: true }),
+  boxes: fc.array(box, { maxLength: 3 }),
+});
+
+describe("clear-path certificate", () => {
+  // The cone test of scanClearanceBounded applied to the path in τ (derived: a depth that changes
+  // by at most V per unit τ cannot reach 0 between two points where d₀ + d₁ + V·Δτ < 0).
+  it("a path certified clear has no intrusion at any control sample at three durations, and paths that intrude are never certified", () => {
+    let certified = 0,
+      intruding = 0;
+    fc.assert(
+      fc.property(uprightPlanArb, (d) => {
+        const plan = planOf(d);
+        const { chain, n, collision, reach } = setup(plan);
+        const scanner = createClearanceScanner(chain, collision, clearanceZones(d.margin, plan.keepOut ?? []));
+        const shape = shapeId(d.shape as "cubic" | "quintic" | "trapezoid");
+        const from = plan.start.slice(0, n);
+        const delta = d.goal.slice(0, n).map((g, i) => g - from[i]);
+        const scale = new Float64Array(3);
+        for (const T of [d.duration, 0.1 + 0.37 * d.duration, 2.9]) {
+          const blend = moveBlend(
+            shape,
+            plan.moves[0].goal.map((g, i) => g - plan.start[i]),
+            T,
+            plan.arm.joints,
+          );
+          const perTau = delta.map((x) => Math.abs(x) * velocityFactor(shape, blend) * (1 + 1e-6));
+          const speeds = linkSpeedBounds(reach, chain, perTau, new Float64Array(n + 1));
+          const clear = certifyClearPath(
+            scanner,
+            (tau, q) => {
+              scalingAt(shape, blend, tau, scale);
+              for (let i = 0; i < n; i++) q[i] = from[i] + scale[0] * delta[i];
+            },
+            speeds,
+          );
+          // every control sample of the move at T (1 kHz, and the end), scanned in full
+          const count = Math.floor(T * 1000 + 1e-9) + 2;
+          const positions = new Float64Array(count * n),
+            times = new Float64Array(count);
+          for (let k = 0; k < count; k++) {
+            times[k] = Math.min(k / 1000, T);
+            scalingAt(shape, blend, times[k] / T, scale);
+            for (let i = 0; i < n; i++) positions[k * n + i] = from[i] + scale[0] * delta[i];
+          }
+          const hits = scanClearance(scanner, positions, n, times, count);
+          if (clear) {
+            certified++;
+            expect(hits, `certified clear, yet ${hits.length} intrusion(s) at T = ${T} s`).toEqual([]);
+          }
+          if (hits.length > 0) {
+            intruding++;
+            expect(clear).toBe(false);
+          }
+        }
+      }),
+      { numRuns: 30, seed: 21 },
+    );
+    // both kinds occurred, so the test can fail either way
+    expect(certified).toBeGreaterThan(5);
+    expect(intruding).toBeGreaterThan(2);
+  });
+
+  it("a thin box that the tool crosses only between the certificate's first points is found: not certified, and the full scan hits it", () => {
+    const mid = (j: number) => (demoArm.joints[j].min + demoArm.joints[j].max) / 2;
+    const start = [-3, mid(1), mid(2), mid(3), 0, 0, 0.02];
+    const goal = [3, mid(1), mid(2), mid(3), 0, 0, 0.02];
+    const plan0 = planOf({ start, goal, duration: 2.9, shape: "quintic", margin: 0, boxes: [] });
+    const { chain, n, collision, reach } = setup(plan0);
+    const shape = shapeId("quintic");
+    const scale = new Float64Array(3);
+    const poseAt = (tau: number, q: Float64Array) => {
+      scalingAt(shape, 0, tau, scale);
+      for (let i = 0; i < n; i++) q[i] = start[i] + scale[0] * (goal[i] - start[i]);
+    };
+    // the tool point at τ = 15/32, between the even points 7/16 and 8/16, inside a 4 mm slab (6 cm wide)
+    const q = new Float64Array(n);
+    poseAt(15 / 32, q);
+    const t = forwardKinematics(chain, q, createChainBuffers(chain));
+    const [x, y, z] = [t[12], t[13], t[14]];
+    const slab = { name: "slab", min: [x - 0.03, y - 0.002, z - 0.03], max: [x + 0.03, y + 0.002, z + 0.03] };
+    const scanner = createClearanceScanner(chain, collision, clearanceZones(0, [slab]));
+    const perTau = start.slice(0, n).map((a, i) => Math.abs(goal[i] - a) * velocityFactor(shape, 0) * (1 + 1e-6));
+    const speeds = linkSpeedBounds(reach, chain, perTau, new Float64Array(n + 1));
+    expect(certifyClearPath(scanner, poseAt, speeds)).toBe(false);
+    const T = 2.9,
+      count = Math.floor(T * 1000 + 1e-9) + 2;
+    const positions = new Float64Array(count * n),
+      times = new Float64Array(count);
+    for (let k = 0; k < count; k++) {
+      times[k] = Math.min(k / 1000, T);
+      poseAt(times[k] / T, q);
+      positions.set(q, k * n);
+    }
+    expect(scanClearance(scanner, positions, n, times, count).some((h) => h.zoneName === "slab")).toBe(true);
   });
 });
