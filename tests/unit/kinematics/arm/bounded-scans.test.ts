@@ -343,7 +343,11 @@ describe("clear-path certificate", () => {
     poseAt(15 / 32, q);
     const t = forwardKinematics(chain, q, createChainBuffers(chain));
     const [x, y, z] = [t[12], t[13], t[14]];
-    const slab = { name: "slab", min: [x - 0.03, y - 0.002, z - 0.03], max: [x + 0.03, y + 0.002, z + 0.03] };
+    const slab = {
+      name: "slab",
+      min: [x - 0.03, y - 0.002, z - 0.03] as [number, number, number],
+      max: [x + 0.03, y + 0.002, z + 0.03] as [number, number, number],
+    };
     const scanner = createClearanceScanner(chain, collision, clearanceZones(0, [slab]));
     const perTau = start.slice(0, n).map((a, i) => Math.abs(goal[i] - a) * velocityFactor(shape, 0) * (1 + 1e-6));
     const speeds = linkSpeedBounds(reach, chain, perTau, new Float64Array(n + 1));
