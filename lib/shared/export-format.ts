@@ -16,7 +16,7 @@
  *
  * SHA-256 comes from Web Crypto (`crypto.subtle`), which Node and browsers both have.
  */
-import type { Plan, Report, Samples } from "@/kinematics";
+import { moveNumber, type Plan, type Report, type Samples } from "@/kinematics";
 
 /** Where an export comes from: the plan, its version and the arm revision it was checked against. */
 export type ExportMeta = {
@@ -111,7 +111,7 @@ export async function buildCsvExport(
     `# verdict: ${report.verdict} (${faults} fault${faults === 1 ? "" : "s"}, ${cautions} caution${cautions === 1 ? "" : "s"})`,
     ...report.findings.map(
       (f) =>
-        `# finding: ${f.severity} ${f.kind} move ${f.move ?? "start"} joint ${f.joint ?? "-"}: ${oneLine(f.message)}`,
+        `# finding: ${f.severity} ${f.kind} move ${f.move === null ? "start" : moveNumber(f.move)} joint ${f.joint === null ? "-" : oneLine(document.arm.joints[f.joint]?.name ?? "-")}: ${oneLine(f.message)}`,
     ),
     `# rate_hz: ${samples.rateHz}`,
     `# units: t in s; revolute joints in rad, prismatic joints in m`,

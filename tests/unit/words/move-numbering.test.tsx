@@ -5,7 +5,8 @@ import { cleanup, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it } from "vitest";
 import { MoveList } from "@/components/editor/move-list";
 import { FindingsPanel } from "@/components/findings/findings-panel";
-import { check, moveLabel, moveNumber } from "@/kinematics";
+import { check, moveLabel, moveNumber, samplePlan } from "@/kinematics";
+import { buildCsvExport } from "@/lib/shared/export-format";
 import { demoPlan, pose } from "../components/helpers";
 
 // Numbering people expect (DEVELOPERS.md, Glossary: "Move 1, line 12 — not move 0"): the project's
@@ -81,6 +82,20 @@ describe("moves are counted from 1 for people, 0-based in JSON", () => {
     const buttons = screen.getAllByRole("button", { name: /^Fault: .*, base, move 1\./ });
     expect(buttons.length).toBeGreaterThan(0);
     expect(screen.queryAllByRole("button", { name: /move 0\./ })).toEqual([]);
+  });
+
+  it("the CSV export's finding comment lines count moves from 1 and name the joint", async () => {
+    const plan = firstMoveFaults();
+    const report = check(plan);
+    const csv = await buildCsvExport(plan, report, samplePlan(plan, { rateHz: 100 }), {
+      plan: { id: "6a4b1c2d-0000-4000-8000-000000000001", name: "Too fast" },
+      planVersion: 1,
+      savedAt: "2026-12-02T14:05:00.000Z",
+      armRevision: { armId: "6a4b1c2d-0000-4000-8000-000000000002", name: "Bench arm · guide handle", revision: 1 },
+    });
+    const findingLines = csv.split("\n").filter((l) => l.startsWith("# finding: "));
+    expect(findingLines).toHaveLength(report.findings.length);
+    for (const l of findingLines) expect(l).toMatch(/^# finding: fault \S+ move 1 joint base: Move 1, joint "base"/);
   });
 
   it("the command line's table and finding lines say move 1 for the first move, its --json says move: 0", () => {
