@@ -159,7 +159,7 @@ function parseOrThrow<S extends z.ZodType>(schema: S, value: unknown, prefix: Pr
 /** Route params (`[projectId]` …), validated; a malformed id is a 404, since no such resource can exist. */
 export async function readParams<S extends z.ZodType>(context: RouteContext, schema: S): Promise<z.infer<S>> {
   const result = schema.safeParse(await context.params);
-  if (!result.success) throw new AppError("not_found", "Not found.", { issues: toIssues(result.error, ["params"]) });
+  if (!result.success) throw new AppError("not_found", undefined, { issues: toIssues(result.error, ["params"]) });
   return result.data;
 }
 

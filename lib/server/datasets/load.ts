@@ -7,7 +7,11 @@ import type { Actor } from "@/lib/server/permissions";
 
 export async function loadDataset(actor: Actor, datasetId: string): Promise<DatasetForUser> {
   const found = await getDatasetForUser({ datasetId, userId: actor.userId });
-  if (!found) throw new AppError("not_found:dataset", "No such dataset.");
+  if (!found)
+    throw new AppError(
+      "not_found:dataset",
+      "No dataset here in a project you are a member of; it may have been deleted. Check the link, or ask the project's owner to add you.",
+    );
   return found;
 }
 
