@@ -32,7 +32,9 @@ export function readArmText(path: string): string {
     return readFileSync(path === "-" ? 0 : path, "utf8");
   } catch (error) {
     const reason =
-      error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
+      error instanceof Error && "code" in error && error.code === "ENOENT"
+        ? "no such file (check the path)"
+        : "cannot be read (check that it is a file you may read)";
     throw new ArmFileError([`${path === "-" ? "(stdin)" : path}: ${reason}`]);
   }
 }

@@ -131,7 +131,9 @@ function readInput(path: string): Buffer {
     return readFileSync(path === "-" ? 0 : path);
   } catch (error) {
     const reason =
-      error instanceof Error && "code" in error && error.code === "ENOENT" ? "no such file" : "cannot be read";
+      error instanceof Error && "code" in error && error.code === "ENOENT"
+        ? "no such file (check the path)"
+        : "cannot be read (check that it is a file you may read)";
     throw new InputError([`${path === "-" ? "(stdin)" : path}: ${reason}`]);
   }
 }
@@ -360,6 +362,22 @@ function runScan(args: Args, io: Io): number {
   return exitCodeOf(report.verdict);
 }
 
+/** `check` and `verify` take no scan options: refused rather than ignored, so none seems to apply. */
+function refuseScanOptions(args: Args): void {
+  const given = [
+    args.arm !== undefined && "--arm",
+    args.repair !== undefined && "--repair",
+    args.resampleHz !== undefined && "--resample",
+    args.controlRateHz !== undefined && "--control-rate",
+  ].filter((o): o is string => o !== false);
+  if (given.length > 0)
+    throw new InputError(
+      given.map(
+        (o) => `${o}: is an option of scan, not of ${args.command} (${args.command} reads everything from its file)`,
+      ),
+    );
+}
+
 /** Runs the command line; returns the exit code. */
 export async function main(argv: string[], io: Io = processIo): Promise<number> {
   try {
@@ -370,6 +388,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
       io.out(usage);
       return 0;
     }
+    if (args.command === "check" || args.command === "verify") refuseScanOptions(args);
     if (args.command === "check") return await runCheck(args, io);
     if (args.command === "scan") return runScan(args, io);
     if (args.command === "verify") return await runVerify(args, io);

@@ -66,6 +66,20 @@ describe("jointproof --help", () => {
   });
 });
 
+describe("options a command does not take", () => {
+  it("check and verify refuse scan's options instead of ignoring them", async () => {
+    const plan = repoPath("tests/fixtures/plans/gentle-pass.json");
+    const r = await run("check", plan, "--control-rate", "500", "--arm", plan);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe("");
+    expect(r.err.trim().split("\n")).toEqual([
+      "--arm: is an option of scan, not of check (check reads everything from its file)",
+      "--control-rate: is an option of scan, not of check (check reads everything from its file)",
+    ]);
+    expect((await run("verify", plan, "--repair", "out.csv")).code).toBe(2);
+  });
+});
+
 describe("jointproof ik", () => {
   it("names its error fields with their units: positionErrorM, and orientationErrorRad with --rpy", async () => {
     const arm = repoPath("kinematics/arm/presets/bench-arm-h.json");
