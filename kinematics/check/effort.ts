@@ -130,7 +130,7 @@ export const checkEffort: MoveChecker = (context, out) => {
       joint: j,
       value: peak[j],
       limit: joint.maxEffort,
-      message: `${label}: peak effort ${formatNumber(peak[j])} ${unit} at ${formatNumber(at[j])} s is ${level}${outcome}${fix}`,
+      message: `${label}: peak ${joint.type === "prismatic" ? "force" : "torque"} ${formatNumber(peak[j])} ${unit} at ${formatNumber(at[j])} s is ${level}${outcome}${fix}`,
       timeS: startS + at[j],
     });
   }

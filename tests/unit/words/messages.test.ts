@@ -76,6 +76,20 @@ describe("engine messages", () => {
       }
   });
 
+  it("call a revolute joint's effort 'torque' in N·m, never a bare 'effort'", () => {
+    const efforts = samples.flatMap(({ plan, report }) =>
+      report.findings
+        .filter((f) => f.kind === "effort-over" && f.move !== null && f.joint !== null)
+        .map((f) => ({ f, joint: plan.arm.joints[f.joint as number] })),
+    );
+    expect(efforts.length).toBeGreaterThan(0);
+    for (const { f, joint } of efforts) {
+      expect(joint.type).toBe("revolute");
+      expect(f.message).toMatch(/: peak torque [\d.]+ N·m at /);
+      expect(f.message).not.toMatch(/peak effort/);
+    }
+  });
+
   it("give the gripper's travel in millimetres (the plan stores metres)", () => {
     const { plan, report } = samples[0];
     const gripper = plan.arm.joints.findIndex((j) => j.name === "gripper");
