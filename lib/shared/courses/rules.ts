@@ -4,7 +4,7 @@
  * engine does not know (required arm revision, start pose, goal poses). Pure: the server runs it at
  * submission time, the student's editor can run the same to preview.
  */
-import { check, type Arm, type Plan, type Report } from "@/kinematics";
+import { check, formatNumber, type Arm, type Plan, type Report } from "@/kinematics";
 import type { Limits } from "@/lib/shared/schemas/courses";
 
 /** One assignment rule the plan does not meet. */
@@ -105,7 +105,7 @@ export function ruleProblems(plan: Plan, armRevisionId: string, rules: Assignmen
   if (rules.requiredStart && !near(plan.start, rules.requiredStart, rules.poseTolerance)) {
     out.push({
       rule: "start-pose",
-      message: `The plan does not start at the required start pose (within ${rules.poseTolerance} per joint).`,
+      message: `The plan does not start at the required start pose (within ${toleranceText(rules.poseTolerance)} per joint); set the start pose to the assignment's.`,
     });
   }
   // The required goals must be reached in order by some of the plan's moves (other moves may come between).
@@ -114,10 +114,15 @@ export function ruleProblems(plan: Plan, armRevisionId: string, rules: Assignmen
   if (next < total) {
     out.push({
       rule: "goal-pose",
-      message: `Required goal pose ${next + 1} of ${total} is not reached (in order, within ${rules.poseTolerance} per joint).`,
+      message: `Required goal pose ${next + 1} of ${total} is not reached (in order, within ${toleranceText(rules.poseTolerance)} per joint); add a move whose goal is that pose.`,
     });
   }
   return out;
+}
+
+/** A pose tolerance with its units: radians for revolute joints, millimetres for prismatic ones. */
+function toleranceText(tolerance: number): string {
+  return `${formatNumber(tolerance)} rad, or ${formatNumber(tolerance * 1000)} mm for the gripper,`;
 }
 
 /** The server-side re-check: the plan on the required arm with tightened limits, and the rule problems. */

@@ -17,6 +17,7 @@ import { repoPath } from "../kinematics/arm/helpers";
 import { createVersionSchema } from "@/lib/shared/schemas/api";
 import { repairDatasetSchema } from "@/lib/shared/schemas/datasets";
 import { commentSchema } from "@/lib/shared/schemas/reviews";
+import { ruleProblems } from "@/lib/shared/courses/rules";
 
 // Messages in one voice (DEVELOPERS.md, Glossary): predictions say "would", the gripper is given in
 // millimetres, field messages read "must be 0 or greater", joints are named by name, refusals say
@@ -147,6 +148,24 @@ describe("API field messages", () => {
       for (const issue of negative) expect(issue.message).toBe("must be 0 or greater");
       for (const issue of r.error.issues) expect(issue.message).not.toMatch(/>=|Too small/);
     }
+  });
+});
+
+describe("assignment rule messages", () => {
+  it("give the pose tolerance with its units and say what to change", () => {
+    const plan = planOf(readJson("tests/fixtures/plans/gentle-pass.json"));
+    const far = plan.start.map((v) => v + 0.5);
+    const problems = ruleProblems(plan, "rev", {
+      requiredArmRevisionId: "rev",
+      requiredStart: far,
+      requiredGoals: [far],
+      poseTolerance: 0.001,
+    });
+    const texts = problems.map((p) => p.message);
+    expect(texts).toEqual([
+      "The plan does not start at the required start pose (within 0.001 rad, or 1 mm for the gripper, per joint); set the start pose to the assignment's.",
+      "Required goal pose 1 of 1 is not reached (in order, within 0.001 rad, or 1 mm for the gripper, per joint); add a move whose goal is that pose.",
+    ]);
   });
 });
 
