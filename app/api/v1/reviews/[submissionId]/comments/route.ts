@@ -26,13 +26,28 @@ export const POST = route(async (request, context) => {
   const doc = submission.document as { moves?: unknown[]; arm?: { joints?: unknown[] } };
   const issues = [
     ...(body.moveIndex !== undefined && body.moveIndex >= (doc.moves?.length ?? 0)
-      ? [{ path: "moveIndex", message: `must be below ${doc.moves?.length ?? 0}` }]
+      ? [
+          {
+            path: "moveIndex",
+            message: `must be below ${doc.moves?.length ?? 0}, the plan's number of moves (0 is the first move)`,
+          },
+        ]
       : []),
     ...(body.jointIndex !== undefined && body.jointIndex >= (doc.arm?.joints?.length ?? 0)
-      ? [{ path: "jointIndex", message: `must be below ${doc.arm?.joints?.length ?? 0}` }]
+      ? [
+          {
+            path: "jointIndex",
+            message: `must be below ${doc.arm?.joints?.length ?? 0}, the arm's number of joints (0 is the first joint)`,
+          },
+        ]
       : []),
   ];
-  if (issues.length > 0) throw new AppError("bad_request:validation", "The request body is not valid.", { issues });
+  if (issues.length > 0)
+    throw new AppError(
+      "bad_request:validation",
+      "The comment is pinned to a move or joint the submitted plan does not have; pin it to one of the plan's own.",
+      { issues },
+    );
   const comment = await addComment({ submissionId, authorId: actor.userId, ...body });
   if (!comment) throw new AppError("conflict:submission", "This submission is already decided; comments are closed.");
   return json({ comment }, 201);
