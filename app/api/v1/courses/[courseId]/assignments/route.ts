@@ -49,8 +49,7 @@ export const POST = route(async (request, context) => {
       j.joint >= n ? [{ path: `limits.joints[${i}].joint`, message: `must be below ${n}` }] : [],
     ),
   ];
-  if (poseIssues.length > 0)
-    throw new AppError("bad_request:validation", "The request body is not valid.", { issues: poseIssues });
+  if (poseIssues.length > 0) throw new AppError("bad_request:validation", undefined, { issues: poseIssues });
   const assignment = await inTransaction(async () => {
     const assignment = await createAssignment({ courseId, userId: actor.userId, ...body, dueAt: new Date(body.dueAt) });
     if (!assignment) throw new AppError("forbidden:assignment", "Only the course's instructors can set assignments.");
