@@ -263,7 +263,7 @@ export async function readJson<S extends z.ZodType>(
   try {
     text = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true }).decode(bytes);
   } catch {
-    throw new AppError("bad_request:json", "The body is not UTF-8 text.", {
+    throw new AppError("bad_request:json", "The body is not UTF-8 text; send the JSON encoded as UTF-8.", {
       issues: [{ path: "(body)", message: "must be UTF-8 text" }],
     });
   }
@@ -272,9 +272,13 @@ export async function readJson<S extends z.ZodType>(
   try {
     value = JSON.parse(text);
   } catch {
-    throw new AppError("bad_request:json", "The body is not valid JSON.", {
-      issues: [{ path: "(body)", message: "must be valid JSON" }],
-    });
+    throw new AppError(
+      "bad_request:json",
+      "The body is not valid JSON; check it with a JSON parser and send it again.",
+      {
+        issues: [{ path: "(body)", message: "must be valid JSON" }],
+      },
+    );
   }
   assertCleanText(value, []);
   return parseOrThrow(schema, value, [], "request body");
