@@ -3,7 +3,7 @@
 import { request, uploadWithProgress, type Jsonified } from "@/lib/client/api-client";
 import type { Dataset } from "@/db/schema/datasets";
 import type { ColumnMappingInput } from "@/lib/shared/schemas/datasets";
-import type { Arm, Plan, Report, ReplayFinding } from "@/kinematics";
+import type { Arm, PassThroughFinding, Plan, ReplayFinding, ReplayVerdict, Report, Verdict } from "@/kinematics";
 
 export type DatasetDto = Jsonified<Dataset>;
 
@@ -71,10 +71,17 @@ export interface RepairResultDto {
 }
 
 export interface ReplayPlanDto {
-  plan: Plan;
-  report: Report;
+  /** `fault` if any part faults, `incomplete` if a part could not be checked fully, else caution or pass. */
+  verdict: ReplayVerdict;
   easeInS: number;
   easeOutS: number;
+  easeIn: { plan: Plan; report: Report };
+  easeOut: { plan: Plan; report: Report };
+  passThrough: { shape: string; verdict: Verdict; findings: PassThroughFinding[]; notChecked: string[] };
+  /** Poses for the 3D view only (not the checked motion). */
+  view: Plan;
+  /** The replay document offered for download (with the caution). */
+  document: Record<string, unknown>;
   repaired: boolean;
   caution: string;
 }

@@ -57,7 +57,7 @@ function plotFindings(episode: EpisodeDto["episode"], jointCount: number): Strea
 
 function ReplayStage({ replay, arm }: { replay: ReplayPlanDto; arm: EpisodeDto["arm"] }) {
   const playhead = useMemo(() => new Playhead(), []);
-  const timeline = useMemo(() => timelineOf(replay.plan), [replay]);
+  const timeline = useMemo(() => timelineOf(replay.view), [replay]);
   useSyncTotal(playhead, timeline.totalS);
   const chain = useMemo(() => arm.chain ?? schematicChain(arm.joints), [arm]);
   return (
@@ -74,6 +74,62 @@ function ReplayStage({ replay, arm }: { replay: ReplayPlanDto; arm: EpisodeDto["
       </div>
       <PlayControls playhead={playhead} />
     </PlayheadContext.Provider>
+  );
+}
+
+/** The replay's three parts, their verdicts, and what was not checked (the replay is then no pass). */
+export function ReplaySummary({ replay }: { replay: ReplayPlanDto }) {
+  const { passThrough } = replay;
+  return (
+    <div className="flex flex-col gap-1 text-xs" data-testid="replay-summary">
+      <p className="flex flex-wrap items-center gap-1 text-ink-soft">
+        Replay{replay.repaired ? " (repaired episode)" : ""}:{" "}
+        {replay.verdict === "incomplete" ? (
+          <span className="font-medium text-ink" data-testid="replay-verdict">
+            ⊘ Not checked fully
+          </span>
+        ) : (
+          <span data-testid="replay-verdict">
+            <VerdictChip verdict={replay.verdict} size="sm" />
+          </span>
+        )}
+      </p>
+      <ol className="flex flex-col gap-0.5 text-ink-soft">
+        <li className="flex items-center gap-1">
+          1. Ease in from rest over {replay.easeInS} s <VerdictChip verdict={replay.easeIn.report.verdict} size="sm" />
+        </li>
+        <li className="flex items-center gap-1">
+          2. Every frame passed through without stopping ({passThrough.shape}){" "}
+          <VerdictChip verdict={passThrough.verdict} size="sm" />
+        </li>
+        <li className="flex items-center gap-1">
+          3. Ease out to rest over {replay.easeOutS} s <VerdictChip verdict={replay.easeOut.report.verdict} size="sm" />
+        </li>
+      </ol>
+      {passThrough.findings.length > 0 ? (
+        <ul className="flex flex-col gap-0.5" aria-label="Replay findings">
+          {passThrough.findings.map((f, i) => (
+            <li key={i} className="flex gap-2">
+              <VerdictChip verdict={f.severity} size="sm" />
+              <span>{f.message}</span>
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      {passThrough.notChecked.length > 0 ? (
+        <ul className="flex flex-col gap-0.5 text-caution" aria-label="Not checked" data-testid="replay-not-checked">
+          {passThrough.notChecked.map((line, i) => (
+            <li key={i}>{line}</li>
+          ))}
+        </ul>
+      ) : null}
+      {[...replay.easeIn.report.findings, ...replay.easeOut.report.findings].map((f, i) => (
+        <p key={`ease-${i}`} className="flex gap-2">
+          <VerdictChip verdict={f.severity} size="sm" />
+          <span>{f.message}</span>
+        </p>
+      ))}
+    </div>
   );
 }
 
@@ -172,12 +228,10 @@ export function EpisodeView({
 
   const downloadPlan = () => {
     if (!replay.data) return;
-    const blob = new Blob([JSON.stringify({ ...replay.data.plan, caution: replay.data.caution }, null, 2) + "\n"], {
-      type: "application/json",
-    });
+    const blob = new Blob([JSON.stringify(replay.data.document, null, 2) + "\n"], { type: "application/json" });
     const a = document.createElement("a");
     a.href = URL.createObjectURL(blob);
-    a.download = `episode-${index + 1}-replay-plan.json`;
+    a.download = `episode-${index + 1}-replay.json`;
     a.click();
     URL.revokeObjectURL(a.href);
   };
@@ -213,7 +267,7 @@ export function EpisodeView({
           </Button>
         ) : null}
         <Button size="sm" disabled={!replay.data} onClick={downloadPlan}>
-          Download replay plan
+          Download replay
         </Button>
       </header>
       {error ? <ErrorNote>{error}</ErrorNote> : null}
@@ -282,11 +336,7 @@ export function EpisodeView({
       ) : null}
       {replay.data ? (
         <div className="flex flex-col gap-2">
-          <p className="text-xs text-ink-soft">
-            Replay plan{replay.data.repaired ? " (repaired episode)" : ""}: ease in from rest over {replay.data.easeInS}{" "}
-            s, the episode, ease out over {replay.data.easeOutS} s; plan check{" "}
-            <VerdictChip verdict={replay.data.report.verdict} size="sm" />.
-          </p>
+          <ReplaySummary replay={replay.data} />
           <ReplayStage replay={replay.data} arm={arm} />
           <p className="text-[11px] text-ink-faint" data-testid="replay-caution">
             {caution}

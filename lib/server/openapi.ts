@@ -662,7 +662,7 @@ const operations: Op[] = [
     method: "get",
     path: "/datasets/{datasetId}/episodes/{index}/replay-plan",
     summary:
-      "A checked plan: rest pose to the episode's first frame, the episode, back to rest; with the safety caution",
+      "The episode's replay: ease in from rest, every frame passed through without stopping, ease out; each part checked, what is not checked listed; with the safety caution",
     tag: "Datasets",
     params: [p("datasetId"), { name: "index", in: "path", required: true, schema: { type: "integer", minimum: 0 } }],
     ok: 200,

@@ -10,7 +10,8 @@ import {
   auditEpisode,
   auditToJson,
   repairEpisode,
-  replayPlanOf,
+  replayOf,
+  replayViewPlan,
   summarizeAudits,
   writeEpisodesParquet,
   type Arm,
@@ -349,7 +350,12 @@ export async function exportDataset(
   });
 }
 
-/** The replay plan of one episode (repaired when there is a repair), checked, with the caution. */
+/**
+ * The replay of one episode (repaired when there is a repair): ease in from rest (a checked plan), the
+ * frames passed through without stopping (checked for travel, speed and acceleration; what is not
+ * checked is listed), ease out to rest (a checked plan); a replay document to download, the poses for
+ * the 3D view, and the caution.
+ */
 export async function episodeReplayPlan(
   found: DatasetForUser,
   userId: string,
@@ -370,12 +376,42 @@ export async function episodeReplayPlan(
   const audit = auditEpisode(arm, { id: original.id, recording });
   if (audit.verdict === "invalid")
     throw new AppError("unprocessable:episode", `Episode ${index + 1} cannot be replayed: ${audit.problems[0]}`);
-  const replay = replayPlanOf(arm, recording);
+  const replay = replayOf(arm, recording);
+  const { count, jointCount: n, timeS, position } = recording;
+  const rows = (values: Float64Array) =>
+    Array.from({ length: count }, (_, k) => Array.from(values.subarray(k * n, k * n + n)));
+  const passThrough = {
+    shape: "monotone cubic through every frame, at rest at the first and last frame",
+    verdict: replay.passThrough.verdict,
+    findings: replay.passThrough.findings,
+    notChecked: replay.passThrough.notChecked,
+  };
+  const document = {
+    format: "jointproof.replay",
+    version: 1,
+    caution: SAFETY_TEXT,
+    episode: original.id,
+    repaired: stored !== undefined,
+    verdict: replay.verdict,
+    rest: replay.rest,
+    easeIn: replay.easeIn,
+    passThrough: {
+      ...passThrough,
+      timeS: Array.from(timeS, (t) => t - timeS[0]),
+      poses: rows(position),
+      speeds: rows(replay.passThrough.speeds),
+    },
+    easeOut: replay.easeOut,
+  };
   return {
-    plan: replay.plan,
-    report: replay.report,
+    verdict: replay.verdict,
     easeInS: replay.easeInS,
     easeOutS: replay.easeOutS,
+    easeIn: { plan: replay.easeIn, report: replay.easeInReport },
+    easeOut: { plan: replay.easeOut, report: replay.easeOutReport },
+    passThrough,
+    view: replayViewPlan(arm, replay, recording),
+    document,
     repaired: stored !== undefined,
     caution: SAFETY_TEXT,
   };

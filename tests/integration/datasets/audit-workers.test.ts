@@ -371,7 +371,7 @@ describe("dataset audit through the workers", () => {
     expect(back.episodes.every((e) => auditEpisode(datasetArm(), e).verdict === "pass")).toBe(true);
   }, 60_000);
 
-  it("gives a replay plan from rest to the episode and back, checked, with the safety caution", async () => {
+  it("gives a replay that eases in, passes through every frame without stopping and eases out, never a pass while a part is unchecked, with the safety caution", async () => {
     const res = await call(replayRoute.GET, {
       path: `/api/v1/datasets/${datasetId}/episodes/0/replay-plan`,
       params: { datasetId, index: "0" },
@@ -379,14 +379,22 @@ describe("dataset audit through the workers", () => {
     });
     expect(res.status).toBe(200);
     const body = res.body as {
-      plan: { moves: { duration: number }[] };
-      report: { verdict: string };
+      verdict: string;
+      easeIn: { plan: { moves: { duration: number }[] }; report: { verdict: string } };
+      passThrough: { verdict: string; notChecked: string[] };
+      document: { format: string; caution: string; passThrough: { poses: number[][]; speeds: number[][] } };
       caution: string;
       easeInS: number;
     };
-    expect(body.plan.moves.length).toBe(generated[0].recording.count + 1);
+    expect(body.easeIn.plan.moves).toHaveLength(1);
     expect(body.easeInS).toBeGreaterThan(0);
-    expect(["pass", "caution", "fault"]).toContain(body.report.verdict);
+    expect(body.document.passThrough.poses).toHaveLength(generated[0].recording.count);
+    // at rest where the pass-through joins the ease moves
+    expect(body.document.passThrough.speeds[0].every((v) => v === 0)).toBe(true);
+    expect(body.document.passThrough.speeds.at(-1)!.every((v) => v === 0)).toBe(true);
+    expect(["pass", "caution", "fault"]).toContain(body.passThrough.verdict);
+    if (body.passThrough.notChecked.length > 0) expect(body.verdict).not.toBe("pass");
     expect(body.caution).toMatch(/emergency stop/i);
+    expect(body.document.caution).toMatch(/emergency stop/i);
   });
 });

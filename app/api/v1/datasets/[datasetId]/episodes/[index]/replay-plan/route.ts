@@ -9,9 +9,10 @@ import { episodeIndexParam } from "@/lib/shared/schemas/datasets";
 const params = z.object({ datasetId: uuidParam, index: episodeIndexParam });
 
 /**
- * GET /api/v1/datasets/:datasetId/episodes/:index/replay-plan — a plan document from the arm's rest
- * pose to the episode's first frame (shortest passing duration), the episode (repaired when it was),
- * and back to rest, with its check report and the safety caution.
+ * GET /api/v1/datasets/:datasetId/episodes/:index/replay-plan — the episode's replay (repaired when it
+ * was): ease in from the arm's rest pose (shortest passing duration), every frame passed through
+ * without stopping, ease out to rest; each part checked, what was not checked listed (the replay is
+ * then never a pass), a replay document to download, and the safety caution.
  */
 export const GET = route(async (request, context) => {
   const { datasetId, index } = await readParams(context, params);
