@@ -5,6 +5,8 @@
  * files, or a `.zip` of either. ARM is an arm JSON, a plan document or a URDF. Node file I/O here;
  * reading, mapping and the audit are in kinematics/recordings/.
  *
+ * `--json` prints `{ episodes, summary, caution }`; the text output ends with the same caution.
+ *
  * Exit codes: 0 when no episode faults and every episode could be audited, 1 when any episode faults,
  * 2 for unusable input (a file that cannot be read or mapped, a usage error) and when, without a fault,
  * some episode is invalid (it was not checked, so the dataset does not pass).
@@ -30,6 +32,7 @@ import {
   type DatasetFile,
   type EpisodeAudit,
 } from "../kinematics";
+import { SAFETY_POINTS, SAFETY_TEXT } from "../lib/shared/safety";
 
 /** Where the command writes (the same shape as the dispatcher's). */
 export interface AuditIo {
@@ -231,6 +234,8 @@ function formatAudit(arm: Arm, audits: EpisodeAudit[], durations: Map<string, nu
     "",
     "A passing audit predicts that the arm model can follow each episode frame by frame; it does not make a replay safe.",
     "Clamp the arm, clear the workspace, keep the emergency stop at hand and replay new episodes slowly first.",
+    "Before replaying on hardware:",
+    ...SAFETY_POINTS.map((point) => `  - ${point}`),
   );
   return lines.join("\n") + "\n";
 }
@@ -247,7 +252,8 @@ export async function runAuditCommand(argv: string[], io: AuditIo): Promise<numb
     const audits = auditEpisodes(arm, read.episodes);
     const summary = summarizeAudits(audits);
     if (args.json) {
-      io.out(JSON.stringify({ episodes: audits.map(auditToJson), summary }) + "\n");
+      // the documented shape, then the safety caution: the output leaves the tool like an export
+      io.out(JSON.stringify({ episodes: audits.map(auditToJson), summary, caution: SAFETY_TEXT }) + "\n");
     } else {
       const durations = new Map(
         read.episodes.map((e) => [

@@ -63,7 +63,10 @@ describe("jointproof audit", () => {
     expect(stderr).toBe("");
     expect(code).toBe(1);
     const out = JSON.parse(stdout);
-    expect(Object.keys(out)).toEqual(["episodes", "summary"]);
+    expect(Object.keys(out)).toEqual(["episodes", "summary", "caution"]);
+    // the safety caution travels with the output (PRODUCT.md: wherever a result leaves the tool)
+    expect(out.caution).toMatch(/emergency stop/i);
+    expect(out.caution).toMatch(/ISO 10218/);
     expect(out.summary).toEqual({ episodes: 2, pass: 1, caution: 0, fault: 1, invalid: 0, byKind: { glitch: 1 } });
     expect(out.episodes[0]).toEqual({ episode: "a", samples: 4, verdict: "pass", findings: [], problems: [] });
     const b = out.episodes[1];
@@ -104,6 +107,7 @@ describe("jointproof audit", () => {
     expect(stdout).toMatch(/CAUTION\s+1\n/);
     expect(stdout).toMatch(/take-2\s+CAUTION\s+3/);
     expect(stdout).toContain("does not make a replay safe");
+    expect(stdout).toMatch(/ISO 10218/);
   });
 
   it("reads a zip of Parquet files, one episode per file, with a list column and a frame rate", () => {
