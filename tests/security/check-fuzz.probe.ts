@@ -18,11 +18,11 @@ const n = arm.joints.length;
 let auth: Auth;
 
 const number = fc.oneof(
-  { weight: 8, arbitrary: fc.double({ min: -3.5, max: 3.5, noNaN: true }) },
+  { weight: 40, arbitrary: fc.double({ min: -3.5, max: 3.5, noNaN: true }) },
   { weight: 1, arbitrary: fc.constantFrom(0, -0, 1e-12, 1e6, -1e6, 1e308) },
 );
 const pose = fc.oneof(
-  { weight: 9, arbitrary: fc.array(number, { minLength: n, maxLength: n }) },
+  { weight: 40, arbitrary: fc.array(number, { minLength: n, maxLength: n }) },
   { weight: 1, arbitrary: fc.array(number, { minLength: 0, maxLength: n + 2 }) },
 );
 const duration = fc.oneof(
@@ -30,22 +30,42 @@ const duration = fc.oneof(
   { weight: 1, arbitrary: fc.double({ min: 1e-4, max: 0.01, noNaN: true }) },
   { weight: 6, arbitrary: fc.double({ min: 0.01, max: 2, noNaN: true }) },
   { weight: 1, arbitrary: fc.constantFrom(-1, 1e9, 0.001) },
+  { weight: 1, arbitrary: fc.constantFrom(5, 30) },
 );
 const shape = fc.oneof(
-  { weight: 9, arbitrary: fc.constantFrom("cubic", "quintic", "trapezoid") },
+  { weight: 40, arbitrary: fc.constantFrom("cubic", "quintic", "trapezoid") },
   { weight: 1, arbitrary: fc.constantFrom("bogus", "", "CUBIC") },
 );
 const move = fc.record(
-  { goal: pose, duration, shape, extra: fc.constantFrom("none", "none", "none", "durationS", "speed", "note") },
+  {
+    goal: pose,
+    duration,
+    shape,
+    extra: fc.oneof(
+      { weight: 40, arbitrary: fc.constant("none") },
+      { weight: 1, arbitrary: fc.constantFrom("durationS", "speed", "note") },
+    ),
+  },
   { requiredKeys: ["goal", "duration", "extra"] },
 );
 const document = fc
   .record({
     moves: fc.array(move, { minLength: 0, maxLength: 4 }),
     start: pose,
-    controlRateHz: fc.constantFrom(100, 500, 1000, 0, -5),
+    controlRateHz: fc.oneof(
+      { weight: 40, arbitrary: fc.constantFrom(100, 500, 1000) },
+      { weight: 1, arbitrary: fc.constantFrom(0, -5) },
+    ),
     velocityScale: fc.constantFrom(1, 0.5, 0.05),
-    unknownTop: fc.option(fc.constantFrom("arms", "startPose", "cautionRatio"), { nil: undefined }),
+    unknownTop: fc.option(fc.constantFrom("arms", "startPose", "cautionRatio"), { nil: undefined, freq: 2 }),
+    nearLimit: fc.option(
+      fc.record({
+        joint: fc.nat({ max: 5 }),
+        ratio: fc.double({ min: 0.85, max: 1.05, noNaN: true }),
+        travel: fc.double({ min: 0.2, max: 1, noNaN: true }),
+      }),
+      { nil: undefined, freq: 3 },
+    ),
   })
   .map((g) => {
     const doc: Record<string, unknown> = {
@@ -62,6 +82,17 @@ const document = fc
       ),
     };
     if (g.unknownTop) doc[g.unknownTop] = 1;
+    if (g.nearLimit) {
+      // one quintic move whose peak speed is `ratio` × the joint's (scaled) limit: peak = 1.875·D/T
+      // (Lynch & Park, Modern Robotics, 2017, §9.2.1 — memory; REFERENCES.md), so T = 1.875·D / (ratio·v)
+      const { joint, ratio, travel } = g.nearLimit;
+      const limit = arm.joints[joint].maxVelocity * g.velocityScale;
+      const start = arm.joints.map((j) => (j.min + j.max) / 2);
+      const goal = start.slice();
+      goal[joint] = Math.min(arm.joints[joint].max, start[joint] + travel);
+      doc.start = start;
+      doc.moves = [{ goal, duration: (1.875 * (goal[joint] - start[joint])) / (ratio * limit), shape: "quintic" }];
+    }
     return doc;
   });
 
@@ -78,6 +109,7 @@ describe("fuzzed check documents", () => {
     const verdicts = new Map<string, number>();
     let slowestMs = 0;
     let disagreements = 0;
+    const pastTimeLimit: string[] = [];
     const started = performance.now();
     for (const [i, doc] of docs.entries()) {
       const res = await http("/api/v1/check", { auth, json: doc });
@@ -85,6 +117,7 @@ describe("fuzzed check documents", () => {
       statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
       if (res.status >= 500 && res.status !== 503) failures.push(`#${i}: ${res.status} ${res.text.slice(0, 160)}`);
       if (res.status === 503 && !res.headers.get("retry-after")) failures.push(`#${i}: 503 without Retry-After`);
+      if (res.status === 503) pastTimeLimit.push(`#${i} ${JSON.stringify(doc).slice(0, 400)}`);
       if (res.status >= 200 && res.status < 300) {
         const verdict = (res.body as { report: { verdict: string } }).report.verdict;
         verdicts.set(verdict, (verdicts.get(verdict) ?? 0) + 1);
@@ -106,6 +139,7 @@ describe("fuzzed check documents", () => {
         `slowest answer ${slowestMs.toFixed(0)} ms; statuses ${JSON.stringify(Object.fromEntries(statuses))}; ` +
         `verdicts ${JSON.stringify(Object.fromEntries(verdicts))}; ${disagreements} verdicts differ from the in-process engine`,
     );
+    if (pastTimeLimit.length) console.log(`[fuzz] stopped at the check time limit (503):\n${pastTimeLimit.join("\n")}`);
     expect(failures).toEqual([]);
     // the generator must reach the engine, and every verdict, or the run proves little
     expect([...verdicts.keys()].sort()).toEqual(["caution", "fault", "pass"]);
