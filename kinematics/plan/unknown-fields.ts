@@ -52,6 +52,8 @@ export function closestName(key: string, known: readonly string[]): string | und
 
 /** The message for one unknown key, read after its field path. */
 export function unknownFieldMessage(key: string, known: readonly string[]): string {
+  if (key === "export" && known.includes("moves"))
+    return "is not a known field of a plan: it is the block of an export file; check an export with `jointproof check FILE` (it verifies the block), or remove the block to send the plan";
   const close = closestName(key, known);
   return close === undefined
     ? `is not a known field (known here: ${known.join(", ")})`

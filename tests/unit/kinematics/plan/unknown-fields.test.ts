@@ -221,7 +221,7 @@ describe("documents the product writes still parse", () => {
     });
     const exported = JSON.parse(json);
     expect(problemLines(exported)).toEqual([
-      "export: is not a known field (known here: format, version, arm, start, moves, payload, keepOut, surfaceMargin, maxToolSpeed)",
+      "export: is not a known field of a plan: it is the block of an export file; check an export with `jointproof check FILE` (it verifies the block), or remove the block to send the plan",
     ]);
     const back = parsePlan(planOfExport(exported));
     expect(back.ok ? back.value : back.problems).toEqual(plan);
