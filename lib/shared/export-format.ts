@@ -3,11 +3,11 @@
  * route) and the verifier (used by `bin/jointproof check` and `verify`), so the rule is stated once.
  *
  * JSON: a plan document (format "jointproof.plan", version 1 — so the checker reads it as a plan)
- * with one extra field `export` (the waypoints, the report, the arm revision, …). `export.sha256` is
+ * with one extra field `export` (the waypoints, the report, the arm revision, the safety caution, …). `export.sha256` is
  * the hex SHA-256 (FIPS 180-4) of the UTF-8 bytes of `JSON.stringify` of the whole object without
  * `export.sha256`, keys in file order.
  *
- * CSV: `#` comment lines (plan, arm revision, verdict, findings, rate, units), a header
+ * CSV: `#` comment lines (plan, arm revision, verdict, findings, the safety caution, rateHz, units), a header
  * `t,<joint names…>`, one row per waypoint, and a last line `# sha256: <hex>`: the SHA-256 of every
  * byte before that line. Text fields (the joint names) are quoted per RFC 4180 §2 when they hold a
  * comma, a quote, CR or LF (quotes doubled), and a name starting with `=`, `+`, `-`, `@`, a tab or
@@ -17,6 +17,7 @@
  * SHA-256 comes from Web Crypto (`crypto.subtle`), which Node and browsers both have.
  */
 import { moveNumber, type Plan, type Report, type Samples } from "@/kinematics";
+import { SAFETY_TEXT } from "@/lib/shared/safety";
 
 /** Where an export comes from: the plan, its version and the arm revision it was checked against. */
 export type ExportMeta = {
@@ -71,6 +72,7 @@ export async function buildJsonExport(
     export: {
       ...meta,
       rateHz: samples.rateHz,
+      safety: SAFETY_TEXT,
       joints: document.arm.joints.map((j) => j.name),
       columns: ["t", ...document.arm.joints.map((j) => j.name)],
       waypoints: waypointRows(samples),
@@ -113,7 +115,8 @@ export async function buildCsvExport(
       (f) =>
         `# finding: ${f.severity} ${f.kind} move ${f.move === null ? "start" : moveNumber(f.move)} joint ${f.joint === null ? "-" : oneLine(document.arm.joints[f.joint]?.name ?? "-")}: ${oneLine(f.message)}`,
     ),
-    `# rate_hz: ${samples.rateHz}`,
+    `# safety: ${oneLine(SAFETY_TEXT)}`,
+    `# rateHz: ${samples.rateHz}`,
     `# units: t in s; revolute joints in rad, prismatic joints in m`,
     ["t", ...document.arm.joints.map((j) => csvTextField(j.name))].join(","),
     ...waypointRows(samples).map((row) => row.join(",")),

@@ -16,6 +16,7 @@ import {
   verifyExport,
   type ExportMeta,
 } from "@/lib/shared/export-format";
+import { SAFETY_TEXT } from "@/lib/shared/safety";
 
 const root = join(__dirname, "..", "..", "..");
 const bin = join(root, "bin", "jointproof");
@@ -253,6 +254,19 @@ function parseCsvRecords(text: string): string[][] {
 }
 
 describe("export format round trip", () => {
+  it("both files carry the safety caution and name the waypoint rate rateHz, inside what the checksum covers", async () => {
+    const { json, csv } = await exportsOf("gentle-pass.json");
+    const document = JSON.parse(json) as { export: { safety: string; rateHz: number } };
+    expect(document.export.safety).toBe(SAFETY_TEXT);
+    expect(document.export.rateHz).toBe(100);
+    const lines = csv.split("\n");
+    expect(lines).toContain(`# safety: ${SAFETY_TEXT}`);
+    expect(lines).toContain("# rateHz: 100");
+    expect(lines.some((l) => l.startsWith("# rate_hz"))).toBe(false);
+    // the caution is sealed: removing it breaks the checksum
+    expect((await verifyExport(csv.replace(/^# safety: .*\n/m, ""))).ok).toBe(false);
+  });
+
   it("a JSON export reads back as the same plan and the same report, and its checksum verifies", async () => {
     const plan = loadPlan("just-long-enough.json");
     const { json, report } = await exportsOfPlan(plan);
