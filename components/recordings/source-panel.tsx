@@ -102,7 +102,7 @@ export function SourcePanel({ session, arms }: { session: RecordingSessionApi; a
             filter={filter}
             initialSorting={[{ id: "createdAt", desc: true }]}
             maxHeightPx={320}
-            className="-mx-1 max-h-80 overflow-y-auto"
+            className="relative -mx-1 max-h-80 overflow-y-auto"
             testId="stored-recordings"
           />
         </section>

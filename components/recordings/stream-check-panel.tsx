@@ -30,7 +30,7 @@ export function StreamCheckPanel({
         {(recording.timeS[recording.count - 1] - recording.timeS[0]).toFixed(3)} s at {report.rateHz.toFixed(0)} Hz;
         checked in {loaded.checkMs.toFixed(0)} ms.
       </p>
-      <ol className="flex max-h-64 flex-col gap-1.5 overflow-auto" data-testid="stream-findings">
+      <ol className="relative flex max-h-64 flex-col gap-1.5 overflow-auto" data-testid="stream-findings">
         {report.findings.map((f, i) => (
           <li key={i}>
             <button

@@ -129,7 +129,7 @@ export function DataTable<T extends object>({
   return (
     <div
       ref={scrollRef}
-      className={cn(virtual && "overflow-y-auto", className)}
+      className={cn(virtual && "relative overflow-y-auto", className)}
       style={virtual ? { maxHeight: maxHeightPx } : undefined}
       data-testid={testId}
       data-virtual={virtual ? "true" : undefined}

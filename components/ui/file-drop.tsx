@@ -47,7 +47,7 @@ export function FileDrop({ label, what, accept, hint, disabled, onFile, classNam
       }}
       data-testid="file-drop"
       className={cn(
-        "rounded-md border border-dashed px-3 py-3 text-xs transition-colors focus-within:border-brand-500 focus-within:ring-2 focus-within:ring-brand-100",
+        "relative rounded-md border border-dashed px-3 py-3 text-xs transition-colors focus-within:border-brand-500 focus-within:ring-2 focus-within:ring-brand-100",
         over ? "border-brand-500 bg-brand-50" : "border-line bg-paper",
         disabled && "opacity-60",
         className,

@@ -51,7 +51,9 @@ export function VerdictChip({ verdict, size = "md", detail, className }: Verdict
     <span
       data-verdict={verdict}
       className={cn(
-        "inline-flex items-center gap-1 rounded-full border font-medium whitespace-nowrap",
+        // relative: the chip holds its own screen-reader text, which would otherwise be placed against the
+        // page and, inside a scrolling list, stretch the page below the footer.
+        "relative inline-flex items-center gap-1 rounded-full border font-medium whitespace-nowrap",
         size === "sm" ? "px-1.5 py-px text-[11px]" : "px-2 py-0.5 text-xs",
         look.text,
         look.tint,

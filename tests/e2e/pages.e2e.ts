@@ -28,6 +28,21 @@ async function spaceUnderFooter(page: Page): Promise<number> {
   });
 }
 
+/** The elements that reach below the footer (what makes the blank space), for the failure message. */
+async function belowFooter(page: Page): Promise<string> {
+  return page.evaluate(() => {
+    const bottom = document.querySelector("body > footer")!.getBoundingClientRect().bottom + 1;
+    return [...document.querySelectorAll("body *")]
+      .filter((e) => e.getBoundingClientRect().bottom > bottom && !e.closest("footer"))
+      .slice(0, 6)
+      .map(
+        (e) =>
+          `${e.tagName.toLowerCase()}.${String(e.getAttribute("class") ?? "").slice(0, 60)} (${Math.round(e.getBoundingClientRect().bottom - bottom)} px)`,
+      )
+      .join("; ");
+  });
+}
+
 async function shot(page: Page, name: string) {
   await page.screenshot({ path: `${screenshotDir}/pages-${name}.png`, fullPage: true });
 }
@@ -273,7 +288,7 @@ describe("pages at 1440×900", () => {
     ] as const) {
       expect((await page.goto(path))?.status(), path).toBe(200);
       await page.waitForTimeout(600);
-      expect(await spaceUnderFooter(page), path).toBeLessThanOrEqual(1);
+      expect(await spaceUnderFooter(page), `${path}: ${await belowFooter(page)}`).toBeLessThanOrEqual(1);
       await shot(page, name);
     }
     // With a stored recording open, the traces, the stream check and the timed replay fill the page.
@@ -282,8 +297,8 @@ describe("pages at 1440×900", () => {
     await stored.getByRole("button", { name: "Open" }).first().click();
     await page.getByTestId("recording-plot").waitFor();
     await page.waitForTimeout(800);
-    expect(await spaceUnderFooter(page)).toBeLessThanOrEqual(1);
     await shot(page, "recordings-loaded");
+    expect(await spaceUnderFooter(page), await belowFooter(page)).toBeLessThanOrEqual(1);
   });
 
   it("course page for a student: each assignment links to its bench, with a preview before submitting", async () => {
