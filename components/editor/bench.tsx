@@ -1,7 +1,7 @@
 "use client";
 import dynamic from "next/dynamic";
 import { useCallback, type ReactNode } from "react";
-import { FindingsPanel } from "@/components/findings/findings-panel";
+import { FindingsPanel, verdictCount } from "@/components/findings/findings-panel";
 import { JointPlots } from "@/components/plots/joint-plots";
 import { SweepChart } from "@/components/plots/sweep-chart";
 import { PlanReviewComments } from "@/components/review/plan-review-comments";
@@ -18,6 +18,7 @@ import { MoveList } from "./move-list";
 import { homePose, poseOf, type BenchPlan } from "./plan-state";
 import { PlayheadContext, usePlayhead } from "./playhead";
 import { PoseEditor } from "./pose-editor";
+import { ReconnectingNotice } from "./reconnecting-notice";
 import { Transport } from "./transport";
 import { useBenchState, type BenchStatus } from "./use-bench-state";
 
@@ -95,7 +96,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
   const planFix = fixes?.plan ?? null;
   const actionState: BenchActionState = { plan, report, replace, unit };
 
-  const headerChip = statusChip(status, report.findings.length);
+  const headerChip = statusChip(status, report.findings);
   const summary = findingsSummary(status, state.schematic);
 
   return (
@@ -116,6 +117,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
           <span data-testid="plan-verdict">{headerChip}</span>
           <div className="ml-auto flex flex-wrap items-center gap-2">{actions?.(actionState)}</div>
         </header>
+        <ReconnectingNotice />
         {banner ? banner(actionState) : null}
 
         {/* 1280 px and up: three rails side by side; a tablet (1024 px): a 400 px outline left, stage, plots and findings stacked right */}
@@ -310,7 +312,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
 }
 
 /** The header's verdict: none without moves, no Pass before the arm-model checks have answered. */
-function statusChip(status: BenchStatus, findings: number): ReactNode {
+function statusChip(status: BenchStatus, findings: Report["findings"]): ReactNode {
   switch (status.kind) {
     case "empty":
       return <span className="text-xs text-ink-soft">No moves yet</span>;
@@ -319,7 +321,7 @@ function statusChip(status: BenchStatus, findings: number): ReactNode {
     case "unchecked":
       return status.faultSoFar ? <VerdictChip verdict="fault" /> : <PendingChip>Not fully checked</PendingChip>;
     case "checked":
-      return <VerdictChip verdict={status.verdict} detail={findings ? String(findings) : undefined} />;
+      return <VerdictChip verdict={status.verdict} detail={verdictCount(findings, status.verdict)} />;
   }
 }
 

@@ -23,6 +23,7 @@ import {
   type Report,
   type Verdict,
 } from "@/kinematics";
+import { kindWords } from "@/components/findings/finding-time";
 import { ceilToMs, formatJointValue, type AngleUnit } from "@/lib/shared/units";
 import { planReducer, type BenchPlan, type PlanAction } from "./plan-state";
 
@@ -166,6 +167,17 @@ export function quickFixes(plan: BenchPlan, report: Report, checkPlan: PlanCheck
     }
   }
 
+  // A move that no duration makes pass is checked once more at a long duration: a timing fault that
+  // is gone there is cleared by time and held back only by the move's other faults; one that is still
+  // there (gravity alone over an effort limit, say) no duration fixes.
+  const stretched = new Map<number, Report>();
+  plan.moves.forEach((move, m) => {
+    if (shortestPassing(report, m) !== null) return;
+    if (!report.findings.some((f) => f.move === m && f.severity === "fault" && timingKinds.has(f.kind))) return;
+    const tried = tryCopy({ type: "set-duration", index: m, duration: Math.max(probeDurationS, 4 * move.duration) });
+    if (tried) stretched.set(m, tried.after);
+  });
+
   let untimed = 0;
   const findings: FindingFixes[] = report.findings.map((finding) => {
     if (finding.severity !== "fault") return { fixes: [], remedy: null };
@@ -194,16 +206,56 @@ export function quickFixes(plan: BenchPlan, report: Report, checkPlan: PlanCheck
         fixes.push(asFix("pose", m, action, tried.after));
       }
     }
-    const noDuration = !timingKinds.has(finding.kind) || m === null || shortestPassing(report, m) === null;
+    const atLength = m === null ? undefined : stretched.get(m);
+    const noDuration =
+      !timingKinds.has(finding.kind) ||
+      m === null ||
+      (shortestPassing(report, m) === null && (atLength === undefined || persists(finding, atLength)));
     if (noDuration) untimed++;
-    return { fixes, remedy: remedyFor(finding, plan, report, fixes.length > 0) };
+    return { fixes, remedy: remedyFor(finding, plan, report, fixes.length > 0, atLength) };
   });
 
   return { findings, moves, plan: planFix, untimed };
 }
 
-/** What would fix a fault, in one or two sentences; `null` when the offered fix says it all. */
-export function remedyFor(finding: Finding, plan: BenchPlan, report: Report, hasFix: boolean): string | null {
+/** The duration a move is stretched to when probing which of its timing faults time clears, s. */
+export const probeDurationS = 20;
+
+/** True when `after` still has a fault of the finding's kind on its move and joint (or link). */
+function persists(finding: Finding, after: Report): boolean {
+  return after.findings.some(
+    (f) =>
+      f.severity === "fault" &&
+      f.kind === finding.kind &&
+      f.move === finding.move &&
+      f.joint === finding.joint &&
+      f.link === finding.link,
+  );
+}
+
+/** The joints (or links) of a move whose faults stay at a long duration, by name. */
+function heldBack(m: number, plan: BenchPlan, atLength: Report): string {
+  const names = new Set<string>();
+  for (const f of atLength.findings) {
+    if (f.severity !== "fault" || f.move !== m) continue;
+    const joint = f.joint === null ? undefined : plan.arm.joints[f.joint];
+    names.add(`${joint ? joint.name : f.link ? `link ${f.link}` : "the arm"} (${kindWords[f.kind].toLowerCase()})`);
+  }
+  return [...names].join(", ") || "another fault";
+}
+
+/**
+ * What would fix a fault, in one or two sentences; `null` when the offered fix says it all.
+ * `atLength` is the check of the plan with this move stretched to a long duration, when no duration
+ * passes: it tells a fault that time clears from one it does not.
+ */
+export function remedyFor(
+  finding: Finding,
+  plan: BenchPlan,
+  report: Report,
+  hasFix: boolean,
+  atLength?: Report,
+): string | null {
   const m = finding.move;
   const joint = finding.joint === null ? undefined : plan.arm.joints[finding.joint];
   const jointName = joint ? joint.name : "the joint";
@@ -221,13 +273,19 @@ export function remedyFor(finding: Finding, plan: BenchPlan, report: Report, has
   }
   const move = plan.moves[m];
   const safe = shortestPassing(report, m);
+  const clearedByTime = safe === null && atLength !== undefined && !persists(finding, atLength);
   if (finding.kind === "jump") {
     const step = `An instant move faults because its step is larger than the joint can travel in one control period (${formatPeriod(plan.arm.controlRateHz)})`;
+    if (clearedByTime)
+      return `${step}. A duration clears the jump, but ${where} still faults at every duration: ${heldBack(m, plan, atLength)}. Take a smaller step, or fix those first.`;
     if (safe === null) return `${step}. Take a smaller step; no duration of this move passes every check.`;
     return `${step}. Give it a duration (shortest passing: ${safe.toFixed(3)} s${hasFix ? "" : ", once its other faults are fixed"}) or take a smaller step.`;
   }
+  if (clearedByTime) {
+    return `A longer duration clears this, but ${where} still faults at every duration: ${heldBack(m, plan, atLength)}. Fix those first: a different pose or path, a lighter payload or the other tool.`;
+  }
   if (safe === null) {
-    if (finding.kind === "effort-over") {
+    if (finding.kind === "effort-over" && atLength !== undefined) {
       return `No duration fixes this: gravity alone holds ${jointName} above its effort limit in ${where}. Choose a different pose or path, a lighter payload or the other tool.`;
     }
     return `No duration of ${where} passes every check: choose a different pose or path.`;

@@ -38,6 +38,17 @@ export interface FindingsPanelProps {
 }
 
 /**
+ * The count beside a verdict chip: the findings of the verdict's own severity (faults beside Fault,
+ * cautions beside Caution), the same number the panel's "2 faults, 1 caution" line starts with for
+ * that severity; none beside Pass.
+ */
+export function verdictCount(findings: readonly Pick<Finding, "severity">[], verdict: Verdict): string | undefined {
+  if (verdict === "pass") return undefined;
+  const n = findings.filter((f) => f.severity === verdict).length;
+  return n > 0 ? `${n} ${verdict}${n === 1 ? "" : "s"}` : undefined;
+}
+
+/**
  * The findings, worst first, each in plain language: what, which joint, which move, when, by how much,
  * and the fix. Clicking a finding moves the stage and the plots to the moment it happens.
  */

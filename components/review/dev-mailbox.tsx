@@ -1,22 +1,10 @@
 "use client";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
+import { DateTime } from "@/components/ui/date-time";
 import { EmptyState, Panel } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import type { DevMailView } from "@/lib/server/mail/dev-mail";
-
-function when(iso: string): string {
-  return (
-    new Date(iso).toLocaleString("en-GB", {
-      day: "numeric",
-      month: "short",
-      hour: "2-digit",
-      minute: "2-digit",
-      second: "2-digit",
-      timeZone: "UTC",
-    }) + " UTC"
-  );
-}
 
 /** The development mailbox: one row per received message; open one to read its text and HTML parts. */
 export function DevMailbox({ view }: { view: DevMailView }) {
@@ -56,7 +44,9 @@ export function DevMailbox({ view }: { view: DevMailView }) {
               <tbody>
                 {view.messages.map((m) => (
                   <tr key={m.id} className={m.id === open ? "bg-brand-50" : undefined} data-testid="mail-row">
-                    <Td className="tabular text-xs whitespace-nowrap">{when(m.receivedAt)}</Td>
+                    <Td className="tabular text-xs whitespace-nowrap">
+                      <DateTime value={m.receivedAt} />
+                    </Td>
                     <Td className="text-xs">{m.to}</Td>
                     <Td>
                       <button
@@ -125,7 +115,9 @@ export function DevMailbox({ view }: { view: DevMailView }) {
           <tbody>
             {view.outbox.map((r) => (
               <tr key={r.id}>
-                <Td className="tabular text-xs whitespace-nowrap">{when(r.createdAt)}</Td>
+                <Td className="tabular text-xs whitespace-nowrap">
+                  <DateTime value={r.createdAt} />
+                </Td>
                 <Td className="text-xs">{r.kind}</Td>
                 <Td className="text-xs">{r.toAddress}</Td>
                 <Td className="text-xs font-medium">{r.status}</Td>

@@ -15,6 +15,8 @@ export interface FaultApprovalDialogProps {
   joints: readonly string[];
   reason: string;
   onReasonChange: (reason: string) => void;
+  /** The reason's error under its field (the API's schema's words). */
+  reasonError?: string;
   pending: boolean;
   error: string | null;
   onCancel: () => void;
@@ -31,6 +33,7 @@ export function FaultApprovalDialog({
   joints,
   reason,
   onReasonChange,
+  reasonError,
   pending,
   error,
   onCancel,
@@ -77,6 +80,7 @@ export function FaultApprovalDialog({
           maxLength={FAULT_APPROVAL_REASON_MAX}
           value={reason}
           onChange={(e) => onReasonChange(e.target.value)}
+          error={reasonError}
           hint={`Required, at most ${FAULT_APPROVAL_REASON_MAX} characters. Approval does not clear the plan to run; the lab's safety rules decide that.`}
         />
       </div>

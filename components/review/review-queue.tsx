@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { EmptyState, Panel } from "@/components/ui/panel";
+import { DateTime } from "@/components/ui/date-time";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import type { QueueQuery } from "@/lib/shared/schemas/reviews";
@@ -27,16 +28,20 @@ const statusWords: Record<Status, string> = {
   approved: "Approved",
 };
 
-function when(iso: string): string {
-  return (
-    new Date(iso).toLocaleString("en-GB", {
-      day: "numeric",
-      month: "short",
-      hour: "2-digit",
-      minute: "2-digit",
-      timeZone: "UTC",
-    }) + " UTC"
-  );
+/**
+ * The queue's order when none is chosen: waiting submissions first, each group oldest first (the
+ * longest wait on top); an id breaks ties so the order is stable.
+ */
+export function waitingFirst<T extends Pick<QueueRow, "id" | "status" | "submittedAt">>(rows: readonly T[]): T[] {
+  const rank = (s: Status) => (s === "submitted" ? 0 : 1);
+  return rows
+    .slice()
+    .sort(
+      (a, b) =>
+        rank(a.status) - rank(b.status) ||
+        Date.parse(a.submittedAt) - Date.parse(b.submittedAt) ||
+        a.id.localeCompare(b.id),
+    );
 }
 
 /** A link to the same queue with some filter or sort changed (the URL is the queue's state, so it can be shared). */
@@ -51,12 +56,15 @@ function SortHeader({
   filter,
   column,
   children,
+  defaultOrder,
 }: {
   filter: QueueQuery;
   column: QueueQuery["sort"];
   children: string;
+  /** The queue is in its default order (waiting first, oldest first), not sorted by a column. */
+  defaultOrder: boolean;
 }) {
-  const active = filter.sort === column;
+  const active = !defaultOrder && filter.sort === column;
   const order = active && filter.order === "asc" ? "desc" : "asc";
   return (
     <Th aria-sort={active ? (filter.order === "asc" ? "ascending" : "descending") : "none"}>
@@ -75,8 +83,11 @@ export function ReviewQueue({
   courses,
   queue,
   mine,
+  defaultOrder,
 }: {
   filter: QueueQuery;
+  /** No column was chosen: the rows come waiting first, oldest first ({@link waitingFirst}). */
+  defaultOrder: boolean;
   teaches: boolean;
   courses: { id: string; title: string }[];
   queue: QueueRow[];
@@ -149,7 +160,14 @@ export function ReviewQueue({
               Clear
             </Link>
           </form>
-          <Panel className="mt-4 overflow-x-auto">
+          {queue.length > 0 ? (
+            <p className="mt-4 text-xs text-ink-soft" data-testid="queue-order">
+              {defaultOrder
+                ? "Waiting for review first, the longest wait on top; click a column to sort by it."
+                : "Sorted by the column marked ▲ or ▼; Clear returns to waiting first, oldest first."}
+            </p>
+          ) : null}
+          <Panel className="mt-2 overflow-x-auto">
             {queue.length === 0 ? (
               <div className="p-4">
                 <EmptyState title="Nothing here">No submissions match these filters.</EmptyState>
@@ -158,19 +176,19 @@ export function ReviewQueue({
               <Table aria-label="Review queue" data-testid="review-queue">
                 <thead>
                   <tr>
-                    <SortHeader filter={filter} column="student">
+                    <SortHeader filter={filter} column="student" defaultOrder={defaultOrder}>
                       Student
                     </SortHeader>
-                    <SortHeader filter={filter} column="assignment">
+                    <SortHeader filter={filter} column="assignment" defaultOrder={defaultOrder}>
                       Assignment
                     </SortHeader>
-                    <SortHeader filter={filter} column="submittedAt">
+                    <SortHeader filter={filter} column="submittedAt" defaultOrder={defaultOrder}>
                       Submitted
                     </SortHeader>
-                    <SortHeader filter={filter} column="verdict">
+                    <SortHeader filter={filter} column="verdict" defaultOrder={defaultOrder}>
                       Verdict
                     </SortHeader>
-                    <SortHeader filter={filter} column="status">
+                    <SortHeader filter={filter} column="status" defaultOrder={defaultOrder}>
                       Status
                     </SortHeader>
                   </tr>
@@ -192,7 +210,7 @@ export function ReviewQueue({
                         </p>
                       </Td>
                       <Td className="tabular text-xs whitespace-nowrap">
-                        {when(q.submittedAt)}
+                        <DateTime value={q.submittedAt} />
                         {q.late ? <span className="ml-1 rounded bg-caution-tint px-1 text-caution">late</span> : null}
                       </Td>
                       <Td>
@@ -239,7 +257,7 @@ export function ReviewQueue({
                         </p>
                       </Td>
                       <Td className="tabular text-xs">
-                        {when(m.submittedAt)}
+                        <DateTime value={m.submittedAt} />
                         {m.late ? " · late" : ""}
                       </Td>
                       <Td>

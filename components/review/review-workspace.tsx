@@ -2,14 +2,18 @@
 import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useMemo, useState, useSyncExternalStore } from "react";
-import { useMutation } from "@tanstack/react-query";
-import { FindingsPanel, type PanelFinding } from "@/components/findings/findings-panel";
+import { useMemo, useState, useSyncExternalStore, type FormEvent } from "react";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useForm, useWatch } from "react-hook-form";
+import type { z } from "zod";
+import { FindingsPanel, verdictCount, type PanelFinding } from "@/components/findings/findings-panel";
 import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import { JointPlots, type PlotMarker } from "@/components/plots/joint-plots";
 import { plotRateHz } from "@/components/plots/downsample";
 import { Button } from "@/components/ui/button";
 import { SelectField, TextAreaField } from "@/components/ui/field";
+import { applyApiIssues, apiIssues, fieldMessage, formFailure, numberOrEmpty } from "@/components/ui/form";
+import { DateTime } from "@/components/ui/date-time";
 import { ErrorNote, RailHeading } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
 import { VerdictChip } from "@/components/ui/verdict-chip";
@@ -22,8 +26,9 @@ import { Transport } from "@/components/editor/transport";
 import type { RuleProblem } from "@/lib/shared/courses/rules";
 import { api } from "@/lib/client/api-client";
 import type { SubmissionFault } from "@/lib/shared/courses/faults";
+import { commentSchema, decisionSchema, type CommentInput, type DecisionInput } from "@/lib/shared/schemas/reviews";
 import { FaultApprovalDialog } from "./fault-approval-dialog";
-import { moveLabel, moveNumber, type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
+import { moveLabel, type Report, sampleTimeline, timelineOf, type Timeline } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
 
 const Stage = dynamic(() => import("@/components/viewer/stage"), {
@@ -149,14 +154,12 @@ export function ReviewWorkspace({
                   )
                 </>
               ) : null}
-              {` · submitted ${new Date(meta.submittedAt).toLocaleString("en-GB", { timeZone: "UTC" })} UTC`}
+              {" · submitted "}
+              <DateTime value={meta.submittedAt} />
               {meta.late ? " · late" : ""}
             </p>
           </div>
-          <VerdictChip
-            verdict={report.verdict}
-            detail={report.findings.length ? String(report.findings.length) : undefined}
-          />
+          <VerdictChip verdict={report.verdict} detail={verdictCount(report.findings, report.verdict)} />
           <span className="rounded-full border border-line px-2 py-0.5 text-xs" data-testid="review-status">
             {statusWords[meta.status]}
           </span>
@@ -224,7 +227,9 @@ export function ReviewWorkspace({
                       {c.timeS !== null ? ` · t = ${c.timeS.toFixed(3)} s` : ""}
                     </span>
                     {c.body}
-                    <span className="block text-[11px] text-ink-faint">{c.authorName}</span>
+                    <span className="block text-[11px] text-ink-faint">
+                      {c.authorName} · <DateTime value={c.createdAt} />
+                    </span>
                   </button>
                 </li>
               ))}
@@ -247,7 +252,7 @@ export function ReviewWorkspace({
                   role="alert"
                   className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft"
                 >
-                  This browser offers no WebGL, so the 3D stage is off. The findings, comments and plots still work.
+                  This browser offers no WebGL, so the 3D view is off. The findings, comments and plots still work.
                 </div>
               ) : canRender3d ? (
                 <StageErrorBoundary>
@@ -310,54 +315,80 @@ function ReviewActions({
 }) {
   const router = useRouter();
   const { timeS } = usePlayhead();
-  const [body, setBody] = useState("");
-  const [joint, setJoint] = useState("");
   const [pinTime, setPinTime] = useState(true);
-  const [summary, setSummary] = useState("");
   const move = moveAt(timeline, timeS);
-  const comment = useMutation({
-    mutationFn: () =>
-      api.addComment(submissionId, {
-        body,
-        ...(pinTime && move !== null ? { moveIndex: move, timeS: Math.round(timeS * 1000) / 1000 } : {}),
-        ...(joint !== "" ? { jointIndex: Number(joint) } : {}),
-      }),
-    onSuccess: () => {
-      setBody("");
+
+  // the comment: the API's own schema (commentSchema); the pin comes from the playhead when sent
+  const commentForm = useForm<CommentValues, unknown, CommentInput>({
+    resolver: zodResolver(commentSchema),
+    defaultValues: { body: "" },
+  });
+  const [commentFailure, setCommentFailure] = useState<string | undefined>();
+  const body = useWatch({ control: commentForm.control, name: "body" });
+  const sendComment = commentForm.handleSubmit(async (input) => {
+    setCommentFailure(undefined);
+    try {
+      await api.addComment(submissionId, input);
+      commentForm.reset({ body: "", jointIndex: input.jointIndex });
       router.refresh();
-    },
+    } catch (error) {
+      setCommentFailure(formFailure(error, applyApiIssues(apiIssues(error), commentForm.setError, commentFields)));
+    }
+  });
+  const onComment = (e: FormEvent<HTMLFormElement>) => {
+    const pinned = pinTime && move !== null;
+    commentForm.setValue("moveIndex", pinned ? move : undefined);
+    commentForm.setValue("timeS", pinned ? Math.round(timeS * 1000) / 1000 : undefined);
+    return sendComment(e);
+  };
+
+  // the decision: the API's own schema (decisionSchema), the reason typed in the fault dialog
+  const decisionForm = useForm<DecisionValues, unknown, DecisionInput>({
+    resolver: zodResolver(decisionSchema),
+    defaultValues: { decision: "returned", summary: "" },
   });
   const [confirming, setConfirming] = useState(false);
-  const [reason, setReason] = useState("");
-  const decide = useMutation({
-    mutationFn: (decision: "returned" | "approved") =>
-      api.decide(
-        submissionId,
-        decision === "approved" && needsFaultConfirmation
-          ? { decision, summary, confirmFaults: true, reason }
-          : { decision, summary },
-      ),
-    onSuccess: () => {
+  const [decideFailure, setDecideFailure] = useState<string | undefined>();
+  const reason = useWatch({ control: decisionForm.control, name: "reason" }) ?? "";
+  const errors = decisionForm.formState.errors;
+  const sendDecision = decisionForm.handleSubmit(async (input) => {
+    setDecideFailure(undefined);
+    try {
+      await api.decide(submissionId, input);
       setConfirming(false);
       router.refresh();
-    },
+    } catch (error) {
+      setDecideFailure(formFailure(error, applyApiIssues(apiIssues(error), decisionForm.setError, decisionFields)));
+    }
   });
+  const decide = (decision: "returned" | "approved") => {
+    const confirmFaults = decision === "approved" && needsFaultConfirmation;
+    decisionForm.setValue("decision", decision);
+    decisionForm.setValue("confirmFaults", confirmFaults ? true : undefined);
+    if (!confirmFaults) decisionForm.setValue("reason", undefined);
+    void sendDecision();
+  };
+  const pending = decisionForm.formState.isSubmitting;
+
   return (
     <div className="mt-auto border-t border-line px-3 py-3">
-      <form
-        onSubmit={(e) => {
-          e.preventDefault();
-          comment.mutate();
-        }}
-        className="flex flex-col gap-2"
-      >
-        <TextAreaField label="Comment" rows={3} value={body} onChange={(e) => setBody(e.target.value)} />
+      <form onSubmit={onComment} className="flex flex-col gap-2" noValidate>
+        <TextAreaField
+          label="Comment"
+          rows={3}
+          error={fieldMessage("The comment", commentForm.formState.errors.body)}
+          {...commentForm.register("body")}
+        />
         <label className="flex items-center gap-2 text-xs text-ink-soft">
           <input type="checkbox" checked={pinTime} onChange={(e) => setPinTime(e.target.checked)} />
-          Pin to {move !== null ? `move ${moveNumber(move)} at t = ${timeS.toFixed(3)} s` : "the current moment"} (move
-          the playhead to choose)
+          Pin to {move !== null ? `${moveLabel(move)} at t = ${timeS.toFixed(3)} s` : "the current moment"} (move the
+          playhead to choose)
         </label>
-        <SelectField label="Joint" value={joint} onChange={(e) => setJoint(e.target.value)}>
+        <SelectField
+          label="Joint"
+          error={fieldMessage("The joint", commentForm.formState.errors.jointIndex)}
+          {...commentForm.register("jointIndex", { setValueAs: numberOrEmpty })}
+        >
           <option value="">No particular joint</option>
           {joints.map((name, j) => (
             <option key={name} value={j}>
@@ -365,50 +396,54 @@ function ReviewActions({
             </option>
           ))}
         </SelectField>
-        <Button type="submit" size="sm" disabled={comment.isPending || !body.trim()}>
+        <Button type="submit" size="sm" disabled={commentForm.formState.isSubmitting || !body?.trim()}>
           Add comment
         </Button>
-        {comment.error ? <ErrorNote>{comment.error.message}</ErrorNote> : null}
+        {commentFailure ? <ErrorNote>{commentFailure}</ErrorNote> : null}
       </form>
       <div className="mt-4 flex flex-col gap-2 border-t border-line pt-3">
         <TextAreaField
           label="Summary for the student"
           rows={2}
-          value={summary}
-          onChange={(e) => setSummary(e.target.value)}
+          error={fieldMessage("The summary", errors.summary)}
           hint="Required when returning."
+          {...decisionForm.register("summary")}
         />
         <div className="flex gap-2">
-          <Button
-            variant="danger"
-            size="sm"
-            disabled={decide.isPending || !summary.trim()}
-            onClick={() => decide.mutate("returned")}
-          >
+          <Button variant="danger" size="sm" disabled={pending} onClick={() => decide("returned")}>
             Return with comments
           </Button>
           <Button
             variant="primary"
             size="sm"
-            disabled={decide.isPending}
-            onClick={() => (needsFaultConfirmation ? setConfirming(true) : decide.mutate("approved"))}
+            disabled={pending}
+            onClick={() => (needsFaultConfirmation ? setConfirming(true) : decide("approved"))}
           >
             {needsFaultConfirmation ? "Approve despite faults…" : "Approve"}
           </Button>
         </div>
-        {decide.error && !confirming ? <ErrorNote>{decide.error.message}</ErrorNote> : null}
+        {decideFailure && !confirming ? <ErrorNote>{decideFailure}</ErrorNote> : null}
       </div>
       <FaultApprovalDialog
         open={confirming}
         faults={faults}
         joints={joints}
         reason={reason}
-        onReasonChange={setReason}
-        pending={decide.isPending}
-        error={decide.error?.message ?? null}
+        onReasonChange={(text) =>
+          decisionForm.setValue("reason", text, { shouldValidate: errors.reason !== undefined })
+        }
+        reasonError={fieldMessage("The reason", errors.reason)}
+        pending={pending}
+        error={decideFailure ?? null}
         onCancel={() => setConfirming(false)}
-        onApprove={() => decide.mutate("approved")}
+        onApprove={() => decide("approved")}
       />
     </div>
   );
 }
+
+/** The fields of the review's two forms as react-hook-form names them, for the API's problem list. */
+const commentFields = ["body", "jointIndex", "moveIndex", "timeS"] as const;
+const decisionFields = ["summary", "reason"] as const;
+type CommentValues = z.input<typeof commentSchema>;
+type DecisionValues = z.input<typeof decisionSchema>;

@@ -3,6 +3,7 @@
  * failure becomes an {@link ApiError} carrying the API's one error shape (code, message, field issues).
  */
 import type { z } from "zod";
+import { meansUnreachable, reportReachable, reportUnavailable } from "./connection";
 import type { ArmListItem } from "@/db/queries/arms";
 import type { AssignmentListItem, CourseForUser, MySubmission, RosterEntry } from "@/db/queries/courses";
 import type { CommentItem, SubmissionForUser } from "@/db/queries/reviews";
@@ -109,6 +110,7 @@ export async function request<T>(path: string, init?: RequestInit): Promise<T> {
       body as { error?: { code?: string; message?: string; issues?: FieldIssue[] } & Record<string, unknown> } | null
     )?.error;
     const { code, message, issues, ...details } = e ?? {};
+    if (meansUnreachable(res.status, code)) reportUnavailable(Number(res.headers.get("Retry-After")));
     throw new ApiError(
       res.status,
       code ?? `http_${res.status}`,
@@ -117,6 +119,7 @@ export async function request<T>(path: string, init?: RequestInit): Promise<T> {
       details,
     );
   }
+  reportReachable();
   return body as T;
 }
 

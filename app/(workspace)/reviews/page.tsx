@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { listOwnSubmissions, listCoursesForUser } from "@/db/queries/courses";
 import { listReviewQueue } from "@/db/queries/reviews";
-import { ReviewQueue } from "@/components/review/review-queue";
+import { ReviewQueue, waitingFirst } from "@/components/review/review-queue";
 import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
 import { requirePageActor } from "@/lib/server/page-actor";
 import { capabilities } from "@/lib/server/permissions";
@@ -25,13 +25,17 @@ export default async function ReviewsPage({ searchParams }: { searchParams: Prom
     listOwnSubmissions({ userId: actor.userId }),
     listCoursesForUser({ userId: actor.userId }),
   ]);
+  // no column chosen in the URL: waiting first, oldest first
+  const defaultOrder = !parsed.success || flat.sort === undefined;
+  const rows = queue.map((q) => ({ ...q, submittedAt: q.submittedAt.toISOString(), dueAt: q.dueAt.toISOString() }));
   const taught = courses.filter((c) => capabilities(actor, { kind: "course", role: c.role }).canReview);
   return (
     <ReviewQueue
       filter={filter}
       teaches={taught.length > 0}
       courses={taught.map((c) => ({ id: c.id, title: c.title }))}
-      queue={queue.map((q) => ({ ...q, submittedAt: q.submittedAt.toISOString(), dueAt: q.dueAt.toISOString() }))}
+      queue={defaultOrder ? waitingFirst(rows) : rows}
+      defaultOrder={defaultOrder}
       mine={mine.map((m) => ({
         id: m.id,
         assignmentTitle: m.assignmentTitle,
