@@ -25,7 +25,11 @@ function toList(values: Float64Array): number[] {
   return Array.from(values);
 }
 
-/** What the checkers computed for one move, with finding times from the move's start. */
+/**
+ * What the checkers computed for one move, with finding times from the move's start: the checkers
+ * run with `startS` 0, so these are exactly the times they compute from the move's own start, and a
+ * reused move's findings get the same `startS + t` a check from scratch computes.
+ */
 interface CachedMove {
   findings: Finding[];
   minSafe: MoveContext["minSafe"];
@@ -104,7 +108,7 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       from: timeline.from.subarray(base, base + n),
       goal: timeline.goal.subarray(base, base + n),
       delta,
-      startS: timeline.startS[index],
+      startS: 0, // the move's own clock (see CachedMove); shifted by its start below
       sampleRateHz: options.sampleRateHz,
       peakVelocity,
       peakAcceleration: instant ? null : peakAcceleration,
@@ -113,6 +117,7 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       minCalm: { durationS: 0, joint: -1, check: null },
       figures: {},
     };
+    const startS = timeline.startS[index];
     const key = `${contextKey}|${index}|${move.duration}|${move.shape}|${Array.from(context.from).join(",")}|${move.goal.join(",")}`;
     const cached = reuse ? moveCache.get(key) : undefined;
     let result: CachedMove;
@@ -128,14 +133,14 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       for (const checker of moveCheckers) checker(context, moveFindings);
       // kept with times from the move's start, so a move that only starts later is reused
       result = {
-        findings: moveFindings.map((f) => ({ ...f, timeS: (f.timeS ?? context.startS) - context.startS })),
+        findings: moveFindings.map((f) => ({ ...f, timeS: f.timeS ?? 0 })),
         minSafe: context.minSafe,
         figures: context.figures ?? {},
       };
     }
     moveCache.set(key, result);
     if (moveCache.size > maxCachedMoves) moveCache.delete(moveCache.keys().next().value as string);
-    const moveFindings = result.findings.map((f) => ({ ...f, timeS: (f.timeS ?? 0) + context.startS }));
+    const moveFindings = result.findings.map((f) => ({ ...f, timeS: startS + (f.timeS ?? 0) }));
     findings.push(...moveFindings);
     return {
       index,

@@ -42,7 +42,12 @@ export interface MoveContext extends PlanContext {
   minSafe: SafeDuration;
   /** The same within the caution ratio of every limit (no timing-dependent caution either). */
   minCalm: SafeDuration;
-  /** Start time of the move, seconds from the plan's start. */
+  /**
+   * Start time of the move (s) that finding times are counted from: `check()` passes 0 and adds the
+   * move's start from the plan's start to each finding's `timeS` afterwards, so a move's findings do
+   * not depend on when it starts (and are reused when only an earlier move changed). A checker
+   * writes `timeS` as `startS + t` and keeps absolute times out of its messages.
+   */
   startS: number;
   /** Rate (Hz) the sampled arm checks use; undefined means the arm's control rate. */
   sampleRateHz?: number;
