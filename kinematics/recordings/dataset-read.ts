@@ -15,7 +15,14 @@
  *
  * @module
  */
-import { parquetMetadata, parquetRead, parquetSchema } from "hyparquet";
+import {
+  parquetMetadata,
+  parquetMetadataAsync,
+  parquetRead,
+  parquetSchema,
+  type AsyncBuffer,
+  type FileMetaData,
+} from "hyparquet";
 import { unzipSync } from "fflate";
 import type { Arm } from "../plan/arm";
 import { describeRecordingProblem, parseRecordingCsv } from "./csv";
@@ -144,8 +151,10 @@ function arrayBufferOf(bytes: Uint8Array): ArrayBuffer {
 
 /** The columns of a Parquet file, with its row count. Throws when the bytes are not a Parquet file. */
 export function parquetColumns(bytes: Uint8Array): { rows: number; columns: ColumnInfo[] } {
-  const buffer = arrayBufferOf(bytes);
-  const metadata = parquetMetadata(buffer);
+  return columnsOfMetadata(parquetMetadata(arrayBufferOf(bytes)));
+}
+
+function columnsOfMetadata(metadata: FileMetaData): { rows: number; columns: ColumnInfo[] } {
   const tree = parquetSchema(metadata) as unknown as SchemaNode;
   return {
     rows: Number(metadata.num_rows),
@@ -270,11 +279,13 @@ function planColumns(
  * Float64Array each (nulls become NaN; float32 widens exactly), others into arrays.
  */
 async function readParquetColumns(
-  bytes: Uint8Array,
+  bytes: Uint8Array | AsyncBuffer,
   columns: ColumnInfo[],
   rows: number,
+  range: { rowStart: number; metadata?: FileMetaData } = { rowStart: 0 },
 ): Promise<Map<string, Float64Array | unknown[]>> {
-  const buffer = arrayBufferOf(bytes);
+  const buffer = bytes instanceof Uint8Array ? arrayBufferOf(bytes) : bytes;
+  const offset = range.rowStart; // out[i] holds the file's row offset + i
   const out = new Map<string, Float64Array | unknown[]>();
   for (const c of columns)
     out.set(
@@ -285,25 +296,32 @@ async function readParquetColumns(
   const { compressors } = await import("hyparquet-compressors");
   await parquetRead({
     file: buffer,
+    metadata: range.metadata,
     columns: columns.map((c) => c.name),
+    rowStart: offset,
+    rowEnd: offset + rows,
     // every Parquet codec (gzip, zstd, brotli, lz4, snappy), not only hyparquet's built-in snappy
     compressors,
-    onChunk: ({ columnName, columnData, rowStart }) => {
+    onChunk: ({ columnName, columnData, rowStart: chunkStart }) => {
       const column = out.get(columnName);
       if (!column) return;
-      const length = Math.min(columnData.length, rows - rowStart);
+      // a chunk may start before the range and run past it (whole pages): keep the rows inside
+      const skip = Math.max(0, offset - chunkStart);
+      const at = chunkStart + skip - offset;
+      const length = Math.min(columnData.length - skip, rows - at);
+      if (length <= 0) return;
       if (column instanceof Float64Array) {
         if (
           columnData instanceof Float64Array ||
           columnData instanceof Float32Array ||
           columnData instanceof Int32Array
         ) {
-          column.set(length === columnData.length ? columnData : columnData.subarray(0, length), rowStart);
+          column.set(columnData.subarray(skip, skip + length), at);
         } else {
-          for (let i = 0; i < length; i++) column[rowStart + i] = toDouble(columnData[i]);
+          for (let i = 0; i < length; i++) column[at + i] = toDouble(columnData[skip + i]);
         }
       } else {
-        for (let i = 0; i < length; i++) column[rowStart + i] = columnData[i];
+        for (let i = 0; i < length; i++) column[at + i] = columnData[skip + i];
       }
     },
   });
@@ -351,6 +369,15 @@ function groupRows(values: ArrayLike<unknown> | null, rows: number): RowGroup[] 
   return groups;
 }
 
+/** The columns a mapping takes from one file. */
+interface ColumnPlan {
+  episode: string | null;
+  time: string | null;
+  frame: string | null;
+  joints: string[] | null;
+  list: string | null;
+}
+
 /** Builds the episodes of one table: numeric columns as Float64Arrays, others as arrays of the file's rows. */
 function episodesOf(
   arm: Arm,
@@ -358,26 +385,34 @@ function episodesOf(
   multiFile: boolean,
   rows: number,
   data: Map<string, Float64Array | unknown[]>,
-  plan: {
-    episode: string | null;
-    time: string | null;
-    frame: string | null;
-    joints: string[] | null;
-    list: string | null;
-  },
+  plan: ColumnPlan,
+  rateHz: number | undefined,
+): Episode[] {
+  const groups = groupRows(plan.episode ? data.get(plan.episode)! : null, rows);
+  return episodesOfGroups(arm, fileName, multiFile, groups, 0, data, plan, rateHz);
+}
+
+/** Builds the episodes of the given row groups from column data holding the file's rows `offset`…. */
+function episodesOfGroups(
+  arm: Arm,
+  fileName: string,
+  multiFile: boolean,
+  groups: RowGroup[],
+  offset: number,
+  data: Map<string, Float64Array | unknown[]>,
+  plan: ColumnPlan,
   rateHz: number | undefined,
 ): Episode[] {
   const n = arm.joints.length;
   const names = arm.joints.map((j) => j.name);
-  const groups = groupRows(plan.episode ? data.get(plan.episode)! : null, rows);
   const time = plan.time ? (data.get(plan.time) as Float64Array) : null;
   const frame = plan.frame ? (data.get(plan.frame) as Float64Array) : null;
   const list = plan.list ? (data.get(plan.list) as unknown[]) : null;
   const jointData = plan.joints ? plan.joints.map((name) => data.get(name) as Float64Array) : null;
   return groups.map((group) => {
     const count = group.rows ? group.rows.length : group.end - group.start;
-    const rowAt = group.rows;
-    const first = group.start;
+    const rowAt = group.rows ? group.rows.map((r) => r - offset) : null;
+    const first = group.start - offset;
     const timeS = new Float64Array(count);
     const position = new Float64Array(count * n);
     let jointCount = n;
@@ -540,4 +575,111 @@ export async function readDataset(
   }
   if (problems.length > 0) return { episodes: [], files, problems };
   return { episodes, files, problems };
+}
+
+/**
+ * Where the episodes of one Parquet file are, for reading a few of them without the rest: the
+ * file's metadata, the columns the mapping takes, and each episode's rows (from the episode column
+ * alone). `problems` as {@link readDataset} gives them for this file; with any, nothing else is set.
+ */
+export interface ParquetEpisodeIndex {
+  name: string;
+  metadata: FileMetaData | null;
+  plan: ColumnPlan | null;
+  columns: ColumnInfo[];
+  rows: number;
+  /** Each episode's id and rows, in dataset order (the episode index is the place in this list). */
+  episodes: RowGroup[];
+  problems: string[];
+}
+
+/**
+ * Indexes the episodes of one Parquet file read through `file` (an object with `byteLength` and
+ * `slice(start, end)`, e.g. ranged reads from object storage): fetches the footer and the episode
+ * column only. Ids are as {@link readDataset} gives them for a dataset of this one file.
+ */
+export async function indexParquetEpisodes(
+  arm: Arm,
+  name: string,
+  file: AsyncBuffer,
+  mapping: ColumnMapping = {},
+): Promise<ParquetEpisodeIndex> {
+  const empty = { name, metadata: null, plan: null, columns: [], rows: 0, episodes: [] };
+  let metadata: FileMetaData;
+  try {
+    metadata = await parquetMetadataAsync(file);
+  } catch (error) {
+    return {
+      ...empty,
+      problems: [`${name}: not a readable Parquet file (${error instanceof Error ? error.message : String(error)})`],
+    };
+  }
+  const info = columnsOfMetadata(metadata);
+  const plan = planColumns(arm, name, info.columns, mapping, false);
+  if (plan.problems.length > 0) return { ...empty, columns: info.columns, rows: info.rows, problems: plan.problems };
+  const columnPlan: ColumnPlan = {
+    episode: plan.episode,
+    time: plan.time,
+    frame: plan.frame,
+    joints: plan.joints,
+    list: plan.list,
+  };
+  let ids: ArrayLike<unknown> | null = null;
+  if (columnPlan.episode) {
+    const episodeColumn = info.columns.filter((c) => c.name === columnPlan.episode);
+    const data = await readParquetColumns(file, episodeColumn, info.rows, { rowStart: 0, metadata });
+    ids = data.get(columnPlan.episode)!;
+  }
+  const groups = groupRows(ids, info.rows).map((g) => (columnPlan.episode ? g : { ...g, id: stem(name) }));
+  return { name, metadata, plan: columnPlan, columns: info.columns, rows: info.rows, episodes: groups, problems: [] };
+}
+
+/**
+ * Reads episodes `first` … `first + count − 1` of an indexed Parquet file: only the rows from the
+ * first one's first row to the last one's last row, of the mapped columns (hyparquet fetches the
+ * column chunks of the row groups those rows are in). The episodes equal what {@link readDataset}
+ * returns for them.
+ */
+export async function readParquetEpisodes(
+  arm: Arm,
+  file: AsyncBuffer,
+  index: ParquetEpisodeIndex,
+  first: number,
+  count: number,
+  mapping: ColumnMapping = {},
+): Promise<Episode[]> {
+  const { plan, metadata } = index;
+  if (!plan || !metadata) throw new Error(index.problems[0] ?? `${index.name}: not indexed`);
+  const wanted = index.episodes.slice(first, first + count);
+  if (wanted.length === 0) return [];
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const g of wanted) {
+    if (g.rows) {
+      for (const r of g.rows) {
+        if (r < lo) lo = r;
+        if (r + 1 > hi) hi = r + 1;
+      }
+    } else {
+      lo = Math.min(lo, g.start);
+      hi = Math.max(hi, g.end);
+    }
+  }
+  if (!(hi > lo)) {
+    lo = 0;
+    hi = 0;
+  }
+  const needed = new Set(
+    [plan.time, plan.frame, plan.list, ...(plan.joints ?? [])].filter((c): c is string => c !== null),
+  );
+  const data = await readParquetColumns(
+    file,
+    index.columns.filter((c) => needed.has(c.name)),
+    hi - lo,
+    { rowStart: lo, metadata },
+  );
+  // the ids come from the index, so the episode column is not read again
+  return episodesOfGroups(arm, index.name, false, wanted, lo, data, { ...plan, episode: null }, mapping.rateHz).map(
+    (episode, i) => ({ ...episode, id: wanted[i].id }),
+  );
 }

@@ -67,6 +67,18 @@ export async function getObject(key: string): Promise<Uint8Array> {
   return res.Body.transformToByteArray();
 }
 
+/** Bytes `start` … `end` − 1 of an object, by an HTTP range read (RFC 9110 §14.1.2), for reading part of a large file. */
+export async function getObjectRange(key: string, start: number, end: number): Promise<Uint8Array> {
+  const res = await storageClient().send(
+    new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Range: `bytes=${start}-${end - 1}` }),
+  );
+  if (!res.Body) throw new Error(`object ${key} has no body`);
+  const bytes = await res.Body.transformToByteArray();
+  if (bytes.byteLength !== end - start)
+    throw new Error(`object ${key}: asked for ${end - start} bytes at ${start}, got ${bytes.byteLength}`);
+  return bytes;
+}
+
 export async function deleteObject(key: string): Promise<void> {
   await storageClient().send(new DeleteObjectCommand({ Bucket: env().S3_BUCKET, Key: key }));
 }

@@ -1,7 +1,7 @@
 /**
  * One audit job: batch B of generation G of a dataset. The batch is claimed (counted) only while it
- * is not done and still of the dataset's current generation; its episodes are read from the stored
- * file, audited by the engine, and stored with the batch's "done" mark in one transaction. A job
+ * is not done and still of the dataset's current generation; its episodes (only these) are read from
+ * the stored file, audited by the engine, and stored with the batch's "done" mark in one transaction. A job
  * that dies before that commit leaves nothing: pg-boss retries it and the results are written then.
  */
 import "server-only";
@@ -12,7 +12,7 @@ import {
   storeDatasetBatchResults,
   type EpisodeResult,
 } from "@/db/queries/datasets";
-import { armOfRevision, readStoredDataset } from "./dataset-file";
+import { armOfRevision, readStoredEpisodes } from "./dataset-file";
 import type { DatasetJob } from "./queue";
 
 /** The stored row of one audited episode. */
@@ -48,14 +48,21 @@ export async function runDatasetBatch(
   const revision = await getDatasetArmForWorker({ datasetId: job.datasetId });
   if (!revision) throw new Error(`dataset ${job.datasetId} has no arm revision`);
   const arm = armOfRevision(revision.description);
-  const read = await readStoredDataset(claimed.dataset, arm, revision.id, claimed.dataset.mapping);
-  if (read.problems.length > 0) throw new Error(`dataset ${job.datasetId} can no longer be read: ${read.problems[0]}`);
   const { firstEpisode, episodeCount } = claimed.batch;
-  const results: EpisodeResult[] = [];
-  for (let i = firstEpisode; i < firstEpisode + episodeCount && i < read.episodes.length; i++) {
-    const episode = read.episodes[i];
-    results.push(episodeResult(i, episode, auditEpisode(arm, episode)));
-  }
+  // only this batch's episodes (a Parquet file by ranges: the row groups that hold them)
+  const episodes = await readStoredEpisodes(
+    claimed.dataset,
+    arm,
+    revision.id,
+    claimed.dataset.mapping,
+    firstEpisode,
+    episodeCount,
+  ).catch((err: unknown) => {
+    throw new Error(`dataset ${job.datasetId}: ${err instanceof Error ? err.message : String(err)}`);
+  });
+  const results: EpisodeResult[] = episodes.map((episode, k) =>
+    episodeResult(firstEpisode + k, episode, auditEpisode(arm, episode)),
+  );
   await options.beforeStore?.();
   const stored = await storeDatasetBatchResults({ ...job, episodes: results });
   return stored ? "stored" : "skipped";
