@@ -17,6 +17,7 @@ import { applyApiIssues, apiIssues, fieldMessage, formFailure, toFormPath } from
 import { ErrorNote } from "@/components/ui/panel";
 import { Table, Td, Th } from "@/components/ui/table";
 import type { Arm, Joint } from "@/kinematics";
+import { hintFor } from "@/lib/shared/glossary";
 import { displayDigits, fromDisplay, toDisplay, type AngleUnit } from "@/lib/shared/units";
 import { armProblems, fieldUnit, jointFields, jointValue, withJointValue, type JointField } from "./arm-fields";
 
@@ -194,6 +195,9 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saved, onSave }: ArmFo
           />
         </label>
       </div>
+      <p className="text-[11px] text-ink-faint">
+        Caution ratio: {hintFor("cautionRatio")} Control rate: {hintFor("controlPeriod")}
+      </p>
       {errors.controlRateHz || errors.cautionRatio ? (
         <p className="text-xs text-fault">
           {errors.controlRateHz ? `Control rate ${errors.controlRateHz}. ` : ""}

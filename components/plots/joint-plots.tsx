@@ -4,6 +4,7 @@ import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAx
 import { cn } from "@/components/ui/cn";
 import { verdictLook } from "@/components/ui/verdict-chip";
 import type { Joint, Samples } from "@/kinematics";
+import { hintFor } from "@/lib/shared/glossary";
 import { displayFactor, unitLabel, type AngleUnit, type Quantity } from "@/lib/shared/units";
 import { usePlayhead, usePlayheadStore } from "@/components/editor/playhead";
 import { minMaxIndices } from "./downsample";
@@ -160,7 +161,7 @@ export function JointPlots(props: JointPlotsProps) {
             </button>
           );
         })}
-        <span className="ml-auto flex items-center gap-3 text-[10px] text-ink-faint" aria-hidden="true">
+        <span className="ml-auto flex items-center gap-3 text-[10px] text-ink-faint" title={hintFor("cautionRatio")}>
           <span className="inline-flex items-center gap-1">
             <span className="inline-block h-0 w-4 border-t-2 border-fault/45" /> limit
           </span>

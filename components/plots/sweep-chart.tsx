@@ -3,6 +3,7 @@ import { useMemo } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
 import { moveTimingSweep, type Plan } from "@/kinematics";
+import { hintFor } from "@/lib/shared/glossary";
 import { LIMIT_LINE_OPACITY, TRACE_WIDTH } from "./plot-style";
 
 /** Durations the chart evaluates (each one a peak evaluation of the move's path). */
@@ -47,7 +48,7 @@ export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: Sw
       aria-label={`Duration sweep: worst peak-to-limit ratio of ${checks} against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}
     >
       <figcaption className="mb-1 flex justify-between text-[11px] text-ink-soft">
-        <span>Duration sweep (worst of {checks}; peak ÷ limit)</span>
+        <span title={hintFor("durationSweep")}>Duration sweep (worst of {checks}; peak ÷ limit)</span>
         <span className="tabular font-mono">safe ≥ {minSafeS.toFixed(3)} s</span>
       </figcaption>
       <div className="h-32 w-full">
