@@ -5,9 +5,10 @@
  * (bench/dataset_audit_reference.py; skipped where python3 lacks pyarrow). Checks that both agree on
  * the summary, prints the figures and adds them to bench/results.json under `datasetAudit`.
  *
- * Run with `npx tsx bench/dataset-audit.ts` (also the last step of `npm run bench`). Worker figures
- * (episodes per second through one and two dataset workers) come from `bench/dataset-workers.ts`
- * when it has run, which needs PostgreSQL and the object store.
+ * Run with `npx tsx bench/dataset-audit.ts` (also the last step of `npm run bench`). It then runs
+ * `bash bench/dataset-workers.sh` (episodes per second through one and two dataset workers, on a
+ * private PostgreSQL cluster and the object-store fake; ports JP_BENCH_*; JP_BENCH_SKIP_WORKERS=1
+ * leaves it out) and adds its figures.
  */
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
@@ -84,6 +85,14 @@ function main() {
     ? (JSON.parse(readFileSync(resultsPath, "utf8")) as Record<string, unknown>)
     : {};
   const workersPath = join(tmp, "dataset-workers.json");
+  if (process.env.JP_BENCH_SKIP_WORKERS !== "1") {
+    // one and two audit workers on a private cluster and the object-store fake (bench/dataset-workers.sh)
+    const run = spawnSync("bash", [join(here, "dataset-workers.sh")], {
+      cwd: root,
+      stdio: ["ignore", "inherit", "pipe"],
+    });
+    if (run.status !== 0) console.log(`dataset workers: not measured (bench/dataset-workers.sh exited ${run.status})`);
+  }
   const workers = existsSync(workersPath) ? JSON.parse(readFileSync(workersPath, "utf8")) : null;
   results.datasetAudit = {
     episodes,

@@ -54,9 +54,31 @@ export interface ColumnInfo {
   type: string;
 }
 
+/**
+ * The columns of an episode's file that the mapping does not take (kept for the export): their
+ * names and types, and per column the value of each frame (`null` where a file lacks the column).
+ * Numbers keep their stored type (INT64 as bigint), text stays text.
+ */
+export interface OtherColumns {
+  columns: ColumnInfo[];
+  /** values[c][k]: column c at frame k. */
+  values: unknown[][];
+}
+
+/** An episode as read from a dataset, with its unmapped columns when they were asked for. */
+export interface DatasetEpisode extends Episode {
+  other?: OtherColumns;
+}
+
+/** Options for {@link readDataset}. */
+export interface ReadOptions {
+  /** Also read every column the mapping does not take, into each episode's `other`. */
+  keepColumns?: boolean;
+}
+
 /** What {@link readDataset} returns: the episodes, or refusal lines when any file cannot be mapped. */
 export interface DatasetReadResult {
-  episodes: Episode[];
+  episodes: DatasetEpisode[];
   /** Refusal lines (empty when every file was mapped); with any, `episodes` is empty. */
   problems: string[];
   /** The files read, in order, with their columns. */
@@ -282,7 +304,7 @@ async function readParquetColumns(
   bytes: Uint8Array | AsyncBuffer,
   columns: ColumnInfo[],
   rows: number,
-  range: { rowStart: number; metadata?: FileMetaData } = { rowStart: 0 },
+  range: { rowStart: number; metadata?: FileMetaData; raw?: ReadonlySet<string> } = { rowStart: 0 },
 ): Promise<Map<string, Float64Array | unknown[]>> {
   const buffer = bytes instanceof Uint8Array ? arrayBufferOf(bytes) : bytes;
   const offset = range.rowStart; // out[i] holds the file's row offset + i
@@ -290,7 +312,9 @@ async function readParquetColumns(
   for (const c of columns)
     out.set(
       c.name,
-      numericTypes.has(c.type) ? new Float64Array(rows).fill(Number.NaN) : new Array<unknown>(rows).fill(null),
+      numericTypes.has(c.type) && !range.raw?.has(c.name)
+        ? new Float64Array(rows).fill(Number.NaN)
+        : new Array<unknown>(rows).fill(null),
     );
   // The codecs load on first use, so pages that never read Parquet never instantiate their WebAssembly.
   const { compressors } = await import("hyparquet-compressors");
@@ -387,9 +411,10 @@ function episodesOf(
   data: Map<string, Float64Array | unknown[]>,
   plan: ColumnPlan,
   rateHz: number | undefined,
-): Episode[] {
+  others: ColumnInfo[] = [],
+): DatasetEpisode[] {
   const groups = groupRows(plan.episode ? data.get(plan.episode)! : null, rows);
-  return episodesOfGroups(arm, fileName, multiFile, groups, 0, data, plan, rateHz);
+  return episodesOfGroups(arm, fileName, multiFile, groups, 0, data, plan, rateHz, others);
 }
 
 /** Builds the episodes of the given row groups from column data holding the file's rows `offset`…. */
@@ -402,7 +427,8 @@ function episodesOfGroups(
   data: Map<string, Float64Array | unknown[]>,
   plan: ColumnPlan,
   rateHz: number | undefined,
-): Episode[] {
+  others: ColumnInfo[] = [],
+): DatasetEpisode[] {
   const n = arm.joints.length;
   const names = arm.joints.map((j) => j.name);
   const time = plan.time ? (data.get(plan.time) as Float64Array) : null;
@@ -434,10 +460,20 @@ function episodesOfGroups(
       }
     }
     const id = plan.episode ? (multiFile ? `${stem(fileName)}/${group.id}` : group.id) : stem(fileName);
-    return {
+    const episode: DatasetEpisode = {
       id,
       recording: { names, jointCount, count, timeS, position: jointCount === n ? position : new Float64Array(0) },
     };
+    if (others.length > 0) {
+      const values = others.map((c) => {
+        const column = data.get(c.name)!;
+        const out = new Array<unknown>(count);
+        for (let i = 0; i < count; i++) out[i] = column[rowAt ? rowAt[i] : first + i];
+        return out;
+      });
+      episode.other = { columns: others, values };
+    }
+    return episode;
   });
 }
 
@@ -447,7 +483,8 @@ function csvEpisodes(
   file: DatasetFile,
   multiFile: boolean,
   mapping: ColumnMapping,
-): { episodes: Episode[]; columns: ColumnInfo[]; rows: number; problems: string[] } {
+  keepColumns = false,
+): { episodes: DatasetEpisode[]; columns: ColumnInfo[]; rows: number; problems: string[] } {
   const parsed = parseRecordingCsv(file.bytes);
   if (!parsed.recording) {
     const lines = parsed.problems.map((p) => `${file.name}: ${describeRecordingProblem(p)}`);
@@ -475,8 +512,10 @@ function csvEpisodes(
     false,
   );
   if (plan.problems.length > 0) return { episodes: [], columns, rows: r.count, problems: plan.problems };
+  const taken = new Set(["t", ...(plan.joints ?? [])]);
+  const others = keepColumns ? columns.filter((c) => !taken.has(c.name)) : [];
   return {
-    episodes: episodesOf(arm, file.name, multiFile, r.count, data, plan, undefined),
+    episodes: episodesOf(arm, file.name, multiFile, r.count, data, plan, undefined, others),
     columns,
     rows: r.count,
     problems: [],
@@ -494,10 +533,11 @@ export async function readDataset(
   arm: Arm,
   input: DatasetFile[],
   mapping: ColumnMapping = {},
+  options: ReadOptions = {},
 ): Promise<DatasetReadResult> {
   const problems: string[] = [];
   const files: DatasetReadResult["files"] = [];
-  const episodes: Episode[] = [];
+  const episodes: DatasetEpisode[] = [];
   if (mapping.rateHz !== undefined && !(mapping.rateHz > 0 && Number.isFinite(mapping.rateHz))) {
     return { episodes, files, problems: [`${optionNames.rateHz}: must be a frame rate in Hz greater than 0`] };
   }
@@ -529,9 +569,9 @@ export async function readDataset(
   const multiFile = expanded.length > 1;
   const seen = new Set<string>();
   for (const file of expanded) {
-    let fileEpisodes: Episode[] = [];
+    let fileEpisodes: DatasetEpisode[] = [];
     if (/\.csv$/i.test(file.name)) {
-      const read = csvEpisodes(arm, file, multiFile, mapping);
+      const read = csvEpisodes(arm, file, multiFile, mapping, options.keepColumns);
       files.push({ name: file.name, rows: read.rows, columns: read.columns });
       problems.push(...read.problems);
       fileEpisodes = read.episodes;
@@ -554,18 +594,21 @@ export async function readDataset(
       const needed = new Set(
         [plan.episode, plan.time, plan.frame, plan.list, ...(plan.joints ?? [])].filter((c): c is string => c !== null),
       );
+      // unmapped columns, read as stored (no widening to double), when they are to be kept
+      const others = options.keepColumns ? info.columns.filter((c) => !needed.has(c.name)) : [];
       let data: Map<string, Float64Array | unknown[]>;
       try {
         data = await readParquetColumns(
           file.bytes,
-          info.columns.filter((c) => needed.has(c.name)),
+          info.columns.filter((c) => needed.has(c.name) || others.includes(c)),
           info.rows,
+          { rowStart: 0, raw: new Set(others.map((c) => c.name)) },
         );
       } catch (error) {
         problems.push(`${file.name}: cannot be read (${error instanceof Error ? error.message : String(error)})`);
         continue;
       }
-      fileEpisodes = episodesOf(arm, file.name, multiFile, info.rows, data, plan, mapping.rateHz);
+      fileEpisodes = episodesOf(arm, file.name, multiFile, info.rows, data, plan, mapping.rateHz, others);
     }
     for (const episode of fileEpisodes) {
       if (seen.has(episode.id)) problems.push(`${file.name}: episode id "${episode.id}" appears in more than one file`);

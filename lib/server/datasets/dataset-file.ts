@@ -16,6 +16,7 @@ import {
   type DatasetReadResult,
   type Episode,
   type ParquetEpisodeIndex,
+  type ReadOptions,
 } from "@/kinematics";
 import { columnMappingSchema } from "@/lib/shared/schemas/datasets";
 import { getObject, getObjectRange } from "@/lib/server/storage";
@@ -55,14 +56,15 @@ export function readStoredDataset(
   arm: Arm,
   armKey: string,
   mapping: unknown,
+  options: ReadOptions = {},
 ): Promise<DatasetReadResult> {
   const parsed: ColumnMapping = columnMappingSchema.parse(mapping ?? {});
-  const key = `${dataset.objectKey}|${armKey}|${JSON.stringify(parsed)}`;
+  const key = `${dataset.objectKey}|${armKey}|${JSON.stringify(parsed)}|${options.keepColumns ? "all" : "mapped"}`;
   let pending = cache.get(key);
   if (!pending) {
     pending = (async () => {
       const bytes = await getObject(dataset.objectKey);
-      return readDataset(arm, [{ name: innerName(dataset.name, dataset.fileKind), bytes }], parsed);
+      return readDataset(arm, [{ name: innerName(dataset.name, dataset.fileKind), bytes }], parsed, options);
     })();
     pending.catch(() => cache.delete(key));
     cache.set(key, pending);

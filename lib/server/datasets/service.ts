@@ -13,6 +13,8 @@ import {
   replayOf,
   replayViewPlan,
   summarizeAudits,
+  exportColumnsOf,
+  otherValuesOf,
   writeEpisodesParquet,
   type Arm,
   type Episode,
@@ -159,8 +161,14 @@ export async function startAudit(
 }
 
 /** The episodes of a dataset with the repaired ones in place of their originals. */
-async function currentEpisodes(found: DatasetForUser, userId: string, arm: Arm, revisionId: string) {
-  const read = await readStoredDataset(found.dataset, arm, revisionId, found.dataset.mapping);
+async function currentEpisodes(
+  found: DatasetForUser,
+  userId: string,
+  arm: Arm,
+  revisionId: string,
+  options: { keepColumns?: boolean } = {},
+) {
+  const read = await readStoredDataset(found.dataset, arm, revisionId, found.dataset.mapping, options);
   if (read.problems.length > 0)
     throw new AppError("unprocessable:dataset", `The dataset cannot be read with its mapping: ${read.problems[0]}`);
   const repairs = await listDatasetRepairs({ datasetId: found.dataset.id, userId });
@@ -269,8 +277,10 @@ export const exportFiles = { data: "dataset.parquet", report: "report.json", man
 /**
  * The cleaned dataset as a zip: `dataset.parquet` (every checked episode, repaired ones in place of
  * their originals, under the episode, time and joint column names of the dataset's mapping, plus
- * `frame_index` and a `filled` column marking interpolated frames; other input columns are not carried), `report.json` (per-episode audit
- * of what was exported, and the excluded episodes with their reasons) and `manifest.json` (the
+ * `frame_index` (0… within each episode, filled frames counted; it replaces an input column of that
+ * name) and a `filled` column marking interpolated frames, then every other column of the input as
+ * it was stored, empty on filled frames), `report.json` (per-episode audit of what was exported, the
+ * columns kept and replaced, and the excluded episodes with their reasons) and `manifest.json` (the
  * SHA-256 of both, with its own `export.sha256` so `jointproof verify manifest.json` accepts it).
  * Invalid episodes are excluded and listed, never silently dropped.
  */
@@ -280,8 +290,28 @@ export async function exportDataset(
   revision: { id: string; description: unknown },
 ): Promise<Uint8Array> {
   const arm = armOfRevision(revision.description);
-  const { read, repairs } = await currentEpisodes(found, userId, arm, revision.id);
+  const { read, repairs } = await currentEpisodes(found, userId, arm, revision.id, { keepColumns: true });
   const names = arm.joints.map((j) => j.name);
+  // the columns the dataset was read from (episode, time, joints or one joints list), so it reads back with the same mapping
+  const mapping = columnMappingSchema.parse(found.dataset.mapping ?? {});
+  const columns = {
+    episode: mapping.episodeColumn,
+    time: mapping.timeColumn,
+    joints: mapping.jointColumns,
+    jointsList: mapping.jointsColumn,
+  };
+  const others = exportColumnsOf(read.episodes, [
+    columns.episode ?? "episode",
+    columns.time ?? "t",
+    ...(columns.jointsList ? [columns.jointsList] : (columns.joints ?? names)),
+    "filled",
+  ]);
+  if (others.problems.length > 0)
+    throw new AppError(
+      "unprocessable:export",
+      `The export keeps every column of the input and cannot here: ${others.problems.join("; ")}. Nothing was exported.`,
+      { issues: others.problems.map((message) => ({ path: "(file)", message })) },
+    );
   const kept: EpisodeToWrite[] = [];
   const excluded: { index: number; episode: string; reason: string }[] = [];
   const audits = [];
@@ -289,9 +319,10 @@ export async function exportDataset(
     const original = read.episodes[i];
     const stored = repairs.get(i);
     const decoded = stored ? decodeEpisode(stored, names) : null;
+    const other = otherValuesOf(original, others.kept, decoded?.filled);
     const episode: EpisodeToWrite = decoded
-      ? { id: original.id, recording: decoded.recording, filled: decoded.filled }
-      : original;
+      ? { id: original.id, recording: decoded.recording, filled: decoded.filled, other }
+      : { id: original.id, recording: original.recording, other };
     const audit = auditEpisode(arm, episode);
     if (audit.verdict === "invalid") {
       excluded.push({ index: i, episode: original.id, reason: audit.problems[0] ?? "invalid" });
@@ -300,16 +331,7 @@ export async function exportDataset(
     kept.push(episode);
     audits.push({ index: i, repaired: decoded !== null, ...auditToJson(audit) });
   }
-  // the columns the dataset was read from (episode, time, joints or one joints list), so it reads back with the same mapping
-  const mapping = columnMappingSchema.parse(found.dataset.mapping ?? {});
-  const parquet = writeEpisodesParquet(arm, kept, {
-    columns: {
-      episode: mapping.episodeColumn,
-      time: mapping.timeColumn,
-      joints: mapping.jointColumns,
-      jointsList: mapping.jointsColumn,
-    },
-  });
+  const parquet = writeEpisodesParquet(arm, kept, { columns, otherColumns: others.kept });
   const report = strToU8(
     JSON.stringify(
       {
@@ -317,6 +339,7 @@ export async function exportDataset(
         dataset: found.dataset.name,
         arm: arm.name,
         check: "timed replay",
+        columns: { kept: others.kept, replaced: others.replaced },
         summary: summarizeAudits(audits),
         episodes: audits,
         excluded,
