@@ -677,11 +677,14 @@ export async function indexParquetEpisodes(
   return { name, metadata, plan: columnPlan, columns: info.columns, rows: info.rows, episodes: groups, problems: [] };
 }
 
+/** Decoded mapped columns of row groups, by row-group number, kept by the caller between reads. */
+export type RowGroupCache = Map<number, Promise<Map<string, Float64Array | unknown[]>>>;
+
 /**
- * Reads episodes `first` … `first + count − 1` of an indexed Parquet file: only the rows from the
- * first one's first row to the last one's last row, of the mapped columns (hyparquet fetches the
- * column chunks of the row groups those rows are in). The episodes equal what {@link readDataset}
- * returns for them.
+ * Reads episodes `first` … `first + count − 1` of an indexed Parquet file: the mapped columns of the
+ * row groups that hold their rows only (hyparquet fetches those column chunks), each row group
+ * decoded once while it stays in `cache` (the caller bounds it; a worker's next batch usually lies
+ * in the same row group). The episodes equal what {@link readDataset} returns for them.
  */
 export async function readParquetEpisodes(
   arm: Arm,
@@ -690,6 +693,7 @@ export async function readParquetEpisodes(
   first: number,
   count: number,
   mapping: ColumnMapping = {},
+  cache: RowGroupCache = new Map(),
 ): Promise<Episode[]> {
   const { plan, metadata } = index;
   if (!plan || !metadata) throw new Error(index.problems[0] ?? `${index.name}: not indexed`);
@@ -708,21 +712,50 @@ export async function readParquetEpisodes(
       hi = Math.max(hi, g.end);
     }
   }
-  if (!(hi > lo)) {
-    lo = 0;
-    hi = 0;
-  }
   const needed = new Set(
     [plan.time, plan.frame, plan.list, ...(plan.joints ?? [])].filter((c): c is string => c !== null),
   );
-  const data = await readParquetColumns(
-    file,
-    index.columns.filter((c) => needed.has(c.name)),
-    hi - lo,
-    { rowStart: lo, metadata },
-  );
+  const columns = index.columns.filter((c) => needed.has(c.name));
+  // the row groups overlapping [lo, hi), each decoded whole (hyparquet decodes whole groups anyway)
+  const parts: { start: number; data: Map<string, Float64Array | unknown[]> }[] = [];
+  let groupStart = 0;
+  for (let g = 0; g < metadata.row_groups.length; g++) {
+    const rows = Number(metadata.row_groups[g].num_rows);
+    const groupEnd = groupStart + rows;
+    if (groupEnd > lo && groupStart < hi) {
+      let pending = cache.get(g);
+      if (!pending) {
+        pending = readParquetColumns(file, columns, rows, { rowStart: groupStart, metadata });
+        pending.catch(() => cache.delete(g));
+        cache.set(g, pending);
+      }
+      parts.push({ start: groupStart, data: await pending });
+    }
+    groupStart = groupEnd;
+  }
+  let data: Map<string, Float64Array | unknown[]>;
+  let offset: number;
+  if (parts.length === 1) {
+    data = parts[0].data;
+    offset = parts[0].start;
+  } else {
+    // rows lo … hi − 1 copied from the groups that hold them
+    offset = lo;
+    data = new Map();
+    for (const c of columns) {
+      const numeric = parts[0]?.data.get(c.name) instanceof Float64Array;
+      const out = numeric ? new Float64Array(hi - lo) : new Array<unknown>(hi - lo).fill(null);
+      for (const part of parts) {
+        const from = part.data.get(c.name)!;
+        const a = Math.max(lo, part.start);
+        const b = Math.min(hi, part.start + from.length);
+        for (let r = a; r < b; r++) out[r - lo] = from[r - part.start];
+      }
+      data.set(c.name, out);
+    }
+  }
   // the ids come from the index, so the episode column is not read again
-  return episodesOfGroups(arm, index.name, false, wanted, lo, data, { ...plan, episode: null }, mapping.rateHz).map(
+  return episodesOfGroups(arm, index.name, false, wanted, offset, data, { ...plan, episode: null }, mapping.rateHz).map(
     (episode, i) => ({ ...episode, id: wanted[i].id }),
   );
 }

@@ -17,6 +17,7 @@ import {
   type Episode,
   type ParquetEpisodeIndex,
   type ReadOptions,
+  type RowGroupCache,
 } from "@/kinematics";
 import { columnMappingSchema } from "@/lib/shared/schemas/datasets";
 import { getObject, getObjectRange } from "@/lib/server/storage";
@@ -89,14 +90,19 @@ function rangedObject(key: string, byteLength: number) {
         pending.catch(() => fetched.delete(id));
         fetched.set(id, pending);
         // keep the footer and the last few column chunks, not the whole file
-        while (fetched.size > 64) fetched.delete(fetched.keys().next().value as string);
+        while (fetched.size > 16) fetched.delete(fetched.keys().next().value as string);
       }
       return pending;
     },
   };
 }
 
-const indexes = new Map<string, Promise<{ index: ParquetEpisodeIndex; file: ReturnType<typeof rangedObject> }>>();
+const indexes = new Map<
+  string,
+  Promise<{ index: ParquetEpisodeIndex; file: ReturnType<typeof rangedObject>; groups: RowGroupCache }>
+>();
+/** Decoded row groups kept per indexed file (a batch and the next usually share one). */
+const GROUPS_KEPT = 2;
 
 /**
  * Episodes `first` … `first + count − 1` of a stored dataset, equal to those {@link readStoredDataset}
@@ -123,13 +129,15 @@ export async function readStoredEpisodes(
     pending = (async () => {
       const file = rangedObject(dataset.objectKey, dataset.sizeBytes);
       const index = await indexParquetEpisodes(arm, innerName(dataset.name, "parquet"), file, parsed);
-      return { index, file };
+      return { index, file, groups: new Map() as RowGroupCache };
     })();
     pending.catch(() => indexes.delete(key));
     indexes.set(key, pending);
     while (indexes.size > CACHE_ENTRIES) indexes.delete(indexes.keys().next().value as string);
   }
-  const { index, file } = await pending;
+  const { index, file, groups } = await pending;
   if (index.problems.length > 0) throw new Error(`the dataset can no longer be read: ${index.problems[0]}`);
-  return readParquetEpisodes(arm, file, index, first, count, parsed);
+  const episodes = await readParquetEpisodes(arm, file, index, first, count, parsed, groups);
+  while (groups.size > GROUPS_KEPT) groups.delete(groups.keys().next().value as number);
+  return episodes;
 }
