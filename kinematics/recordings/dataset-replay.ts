@@ -2,7 +2,7 @@
  * The replay of an episode on the arm, in three parts that join at rest:
  *
  * 1. ease in: one quintic move from a rest pose to the episode's first frame, over the shortest duration
- *    at which it passes the check's timing limits (a plan, checked by {@link check});
+ *    at which it passes the check (within the caution ratio of every timing limit; a plan, checked);
  * 2. pass through: the frames joined by one continuous curve that reaches every frame at its recorded
  *    time without stopping between them — a monotone piecewise cubic (Hermite) through the frames,
  *    at rest at the first and the last frame;
@@ -21,6 +21,7 @@ import type { Arm, Joint } from "../plan/arm";
 import { homePose } from "../plan/arm";
 import { planFormat, planVersion, type Move, type Plan } from "../plan/document";
 import { check } from "../check/check";
+import { shortestSafeDurations } from "../motion/sequence";
 import { severityOf, verdictOf, type Report, type Severity, type Verdict } from "../check/report";
 import { formatNumber, formatQuantity, jointLabel } from "../check/wording";
 import type { Recording } from "./recording";
@@ -87,10 +88,14 @@ function onePlan(arm: Arm, from: number[], to: number[], durationS: number): Pla
   return { format: planFormat, version: planVersion, arm, start: [...from], moves } as Plan;
 }
 
-/** The shortest passing duration of one quintic move from `from` to `to` (at least 0.1 s). */
+/**
+ * The shortest passing duration of one quintic move from `from` to `to`: every timing check within
+ * cautionRatio × its limit, so the move is a pass rather than a caution (at least 0.1 s; 1 s when no
+ * duration fixes it, and the check then says why).
+ */
 function easeDuration(arm: Arm, from: number[], to: number[]): number {
-  const minSafe = check(onePlan(arm, from, to, 1)).moves[0]?.minSafeDuration ?? 1;
-  return Math.max(0.1, upToMs(minSafe !== null && Number.isFinite(minSafe) ? minSafe : 1));
+  const shortest = shortestSafeDurations(onePlan(arm, from, to, 1), { limitScale: arm.cautionRatio })[0];
+  return Math.max(0.1, upToMs(shortest !== null && Number.isFinite(shortest) ? shortest : 1));
 }
 
 /**
