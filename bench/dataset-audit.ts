@@ -11,7 +11,7 @@
  * leaves it out) and adds its figures.
  */
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { writeEpisodesParquet } from "../kinematics";
@@ -86,6 +86,7 @@ function main() {
     : {};
   const workersPath = join(tmp, "dataset-workers.json");
   if (process.env.JP_BENCH_SKIP_WORKERS !== "1") {
+    rmSync(workersPath, { force: true }); // figures from this run only, never an older run's
     // one and two audit workers on a private cluster and the object-store fake (bench/dataset-workers.sh)
     const run = spawnSync("bash", [join(here, "dataset-workers.sh")], {
       cwd: root,
