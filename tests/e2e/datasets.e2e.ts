@@ -127,6 +127,11 @@ describe("datasets", () => {
     await page.getByTestId("episode-plot").waitFor();
     await page.getByTestId("episode-stage").waitFor();
     await page.getByTestId("replay-caution").waitFor();
+    // the replay passes through the frames; effort and clearance along them are not checked on this
+    // arm (it has a chain), so the replay is never shown as a pass
+    await page.getByTestId("replay-summary").waitFor();
+    expect(await page.getByTestId("replay-verdict").textContent()).toMatch(/Not checked fully|Fault/);
+    expect(await page.getByTestId("replay-not-checked").textContent()).toMatch(/Effort/);
     await page.screenshot({ path: join(screenshotDir, "datasets-3-episode.png"), fullPage: true });
 
     // repair it: the repaired verdict is shown as a pass
@@ -147,6 +152,8 @@ describe("datasets", () => {
     const verified = execFileSync(process.execPath, ["bin/jointproof", "verify", manifestPath], { encoding: "utf8" });
     expect(verified).toContain("Export checksum verified");
     const report = JSON.parse(new TextDecoder().decode(files["report.json"]));
+    // the input's frame_index is numbered afresh by the export, and said so
+    expect(report.columns.replaced).toEqual(["frame_index"]);
     expect(report.episodes.find((e: { episode: string }) => e.episode === "take-02")).toMatchObject({
       repaired: true,
       verdict: "pass",
