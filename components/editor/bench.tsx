@@ -164,7 +164,12 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
                 <p className="mt-1 px-1 text-[11px] text-fault" data-testid="no-scale">
                   {fixes.untimed > 0
                     ? `${fixes.untimed} fault${fixes.untimed === 1 ? "" : "s"} no duration fixes (travel, clearance, or effort held against gravity): they need a different pose or path, a lighter payload or the other tool. The findings say which.`
-                    : "No single timing factor makes the whole plan pass; use the fixes of each move in the findings."}
+                    : plan.moves.every(
+                          (m, k) =>
+                            m.duration > 0 || !report.findings.some((f) => f.move === k && f.severity === "fault"),
+                        )
+                      ? "No single timing factor makes the whole plan pass; use the fixes of each move in the findings."
+                      : "An instant move has no duration to scale, so one factor cannot fix it: give it a duration (its fix in the findings) or take a smaller step."}
                 </p>
               ) : null}
             </div>

@@ -146,7 +146,7 @@ afterAll(async () => {
 
 describe("the bench tells the truth", () => {
   // 0.9 s for the reach: within the arm's own speed limits, over the course's 70% of maximum speed.
-  const reachPlan = planOf(armL, home, [{ goal: reach, duration: 0.9 }]);
+  const reachPlan = planOf(armL, home, [{ goal: reach, duration: 0.9, shape: "quintic" }]);
   let reachId = "";
 
   it("a plan for an assignment is checked against the course's limits and lists the required poses (item 3)", async () => {
@@ -294,6 +294,9 @@ describe("the bench tells the truth", () => {
     const plots = (await page.getByTestId("plots").textContent()) ?? "";
     expect(plots).not.toContain("No motion yet");
     expect(plots).toContain("instant move");
+    await expect(page.getByTestId("no-scale").textContent()).resolves.toMatch(
+      /^An instant move has no duration to scale/,
+    );
     await shot(page, "7-instant");
     await fix.click();
     await page.getByTestId("check-status").filter({ hasText: "Full check in a worker" }).waitFor();
