@@ -196,7 +196,8 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saved, onSave }: ArmFo
         </label>
       </div>
       <p className="text-[11px] text-ink-faint">
-        Caution ratio: {hintFor("cautionRatio")} Control rate: {hintFor("controlPeriod")}
+        <span className="font-medium">Caution ratio</span> — {hintFor("cautionRatio")}{" "}
+        <span className="font-medium">Control period</span> — {hintFor("controlPeriod")}
       </p>
       {errors.controlRateHz || errors.cautionRatio ? (
         <p className="text-xs text-fault">
@@ -206,7 +207,8 @@ export function ArmForm({ arm, title, canEdit, saveLabel, saved, onSave }: ArmFo
       ) : null}
 
       <div className="overflow-x-auto">
-        <Table aria-label="Joint limits and friction">
+        {/* Wide enough that every value shows whole (−174.8°, 1375.1°/s², N·m·s/rad); narrower screens scroll. */}
+        <Table aria-label="Joint limits and friction" className="min-w-[1180px]">
           <thead>
             <tr>
               <Th>Joint</Th>
