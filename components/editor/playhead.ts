@@ -1,7 +1,7 @@
 "use client";
 /**
  * The playhead shared by the stage, the plots and the scrubber: the current time on the plan's
- * timeline and whether it is playing. Kept outside React state so the 3D stage can read it every
+ * timeline and whether it is playing. Kept outside React state so the 3D view can read it every
  * frame without re-rendering the page; React parts subscribe with {@link usePlayhead}.
  */
 import { createContext, useContext, useEffect, useSyncExternalStore } from "react";

@@ -95,7 +95,7 @@ export function clearanceZones(surfaceMarginM = 0, keepOut: readonly KeepOutBox[
     boxMin.set(b.min, 3 * i);
     boxMax.set(b.max, 3 * i);
   });
-  return { surfaceMarginM, boxMin, boxMax, boxNames: keepOut.map((b, i) => b.name ?? `keep-out box ${i}`) };
+  return { surfaceMarginM, boxMin, boxMax, boxNames: keepOut.map((b, i) => b.name ?? `keep-out box ${i + 1}`) };
 }
 
 /**
