@@ -297,3 +297,86 @@ export function gravityEffort(
   for (let i = 0; i < n; i++) ws.pose[i] = q[offset + i];
   return inverseDynamics(chain, ws, ws.pose, ws.zero, ws.zero, out, 0, outOffset, true, false);
 }
+
+/**
+ * The gravity-only efforts of {@link gravityEffort} at the pose of the last {@link inverseDynamics}
+ * call on `ws` (whose link rotations and offsets it reuses instead of recomputing them): with
+ * q̇ = q̈ = 0 every ω and ω̇ vanishes, so the forward pass only rotates v̇ = −g into each frame and
+ * F = m·v̇, N = 0 (Craig eqs. 6.47–6.52 with those terms zero), and the backward pass is the same
+ * (eq. 6.53). The same arithmetic on the non-zero terms, so the values equal gravityEffort's.
+ * Writes n efforts (N·m or N) into `out` at `outOffset`.
+ */
+export function gravityEffortAtLastPose(
+  chain: CompiledChain,
+  ws: DynamicsWorkspace,
+  out: Float64Array,
+  outOffset = 0,
+): Float64Array {
+  const n = chain.jointCount;
+  const { rot, pos, force, moment } = ws;
+  const ax = chain.axis;
+  let gx = -chain.gravity[0],
+    gy = -chain.gravity[1],
+    gz = -chain.gravity[2];
+  for (let i = 0; i < n; i++) {
+    const r = 9 * i,
+      p = 3 * i;
+    const dvx = rot[r] * gx + rot[r + 1] * gy + rot[r + 2] * gz;
+    const dvy = rot[r + 3] * gx + rot[r + 4] * gy + rot[r + 5] * gz;
+    const dvz = rot[r + 6] * gx + rot[r + 7] * gy + rot[r + 8] * gz;
+    const m = chain.mass[i];
+    force[p] = m * dvx;
+    force[p + 1] = m * dvy;
+    force[p + 2] = m * dvz;
+    moment[p] = 0;
+    moment[p + 1] = 0;
+    moment[p + 2] = 0;
+    gx = dvx;
+    gy = dvy;
+    gz = dvz;
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    const p = 3 * i;
+    const cx = chain.com[p],
+      cy = chain.com[p + 1],
+      cz = chain.com[p + 2];
+    const Fx = force[p],
+      Fy = force[p + 1],
+      Fz = force[p + 2];
+    if (i < n - 1) {
+      const r = 9 * (i + 1),
+        c = 3 * (i + 1);
+      const fx = force[c],
+        fy = force[c + 1],
+        fz = force[c + 2];
+      const nx = moment[c],
+        ny = moment[c + 1],
+        nz = moment[c + 2];
+      const rfx = rot[r] * fx + rot[r + 3] * fy + rot[r + 6] * fz;
+      const rfy = rot[r + 1] * fx + rot[r + 4] * fy + rot[r + 7] * fz;
+      const rfz = rot[r + 2] * fx + rot[r + 5] * fy + rot[r + 8] * fz;
+      const rnx = rot[r] * nx + rot[r + 3] * ny + rot[r + 6] * nz;
+      const rny = rot[r + 1] * nx + rot[r + 4] * ny + rot[r + 7] * nz;
+      const rnz = rot[r + 2] * nx + rot[r + 5] * ny + rot[r + 8] * nz;
+      const qx = pos[c],
+        qy = pos[c + 1],
+        qz = pos[c + 2];
+      moment[p] += rnx + (cy * Fz - cz * Fy) + (qy * rfz - qz * rfy);
+      moment[p + 1] += rny + (cz * Fx - cx * Fz) + (qz * rfx - qx * rfz);
+      moment[p + 2] += rnz + (cx * Fy - cy * Fx) + (qx * rfy - qy * rfx);
+      force[p] = Fx + rfx;
+      force[p + 1] = Fy + rfy;
+      force[p + 2] = Fz + rfz;
+    } else {
+      moment[p] += cy * Fz - cz * Fy;
+      moment[p + 1] += cz * Fx - cx * Fz;
+      moment[p + 2] += cx * Fy - cy * Fx;
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    const p = 3 * i;
+    const src = chain.prismatic[i] ? force : moment;
+    out[outOffset + i] = src[p] * ax[p] + src[p + 1] * ax[p + 1] + src[p + 2] * ax[p + 2];
+  }
+  return out;
+}

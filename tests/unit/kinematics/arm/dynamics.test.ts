@@ -2,7 +2,14 @@ import fc from "fast-check";
 import { describe, it } from "vitest";
 import { compileChain } from "@/kinematics/arm/chain";
 import { armChainSchema } from "@/kinematics/plan/arm-model";
-import { createDynamicsWorkspace, frictionEffort, gravityEffort, inverseDynamics } from "@/kinematics/arm/dynamics";
+import {
+  createDynamicsWorkspace,
+  frictionEffort,
+  gravityEffort,
+  gravityEffortAtLastPose,
+  inverseDynamics,
+} from "@/kinematics/arm/dynamics";
+import { readJson } from "./helpers";
 import { expectClose } from "../tolerance";
 
 /** Planar two-link arm in the x–y plane, joints about z, point masses at the link ends, gravity along −y. */
@@ -173,5 +180,33 @@ describe("joint friction", () => {
     inverseDynamics(c, ws, [0.1, 0.2], [1, -1], [0, 0], withF);
     expectClose(withF[0] - plain[0], 0.2 + 0.5 * Math.tanh(100), 1e-12, 0, "joint 0");
     expectClose(withF[1] - plain[1], -0.1 - 0.3 * Math.tanh(100), 1e-12, 0, "joint 1");
+  });
+});
+
+describe("gravity at the last pose", () => {
+  it("equals gravityEffort at the pose of the preceding inverse-dynamics call, on the heavy demo arm with any velocity and acceleration", () => {
+    const arm = readJson("kinematics/arm/presets/bench-arm-h.json") as {
+      chain: unknown;
+      joints: { type?: "revolute" | "prismatic" }[];
+    };
+    const chain = compileChain(
+      armChainSchema.parse(arm.chain),
+      arm.joints.map((j) => j.type ?? "revolute"),
+    );
+    const n = chain.jointCount;
+    const ws = createDynamicsWorkspace(chain);
+    const vec = fc.array(fc.double({ min: -3, max: 3, noNaN: true }), { minLength: n, maxLength: n });
+    fc.assert(
+      fc.property(vec, vec, vec, (q, qd, qdd) => {
+        const fromFrames = new Float64Array(n),
+          direct = new Float64Array(n);
+        inverseDynamics(chain, ws, q, qd, qdd, new Float64Array(n), 0, 0, false, false);
+        gravityEffortAtLastPose(chain, ws, fromFrames);
+        gravityEffort(chain, createDynamicsWorkspace(chain), q, direct);
+        // the same arithmetic on the same rotations: equal to the last bit (tolerance 0)
+        for (let j = 0; j < n; j++) expectClose(fromFrames[j], direct[j], 0, 0, `joint ${j}`);
+      }),
+      { numRuns: 100, seed: 5 },
+    );
   });
 });
