@@ -10,6 +10,8 @@ import { projects, users } from "@/db/schema";
 import { demoPeople } from "@/db/demo";
 import {
   BASE,
+  demoArm,
+  gentlePlan,
   http,
   makeUser,
   rows,
@@ -177,6 +179,25 @@ describe("11. minor ones", () => {
       headers: { "content-type": "application/json" },
     });
     expect(bom.status).toBe(400);
+  });
+
+  it("the export route refuses 0x1, 1e0 and +1 as version numbers (404, as the version route) and exports version 1", async () => {
+    const plan = await http(`/api/v1/projects/${projectId}/plans`, {
+      auth: ownerToken,
+      json: { name: "Export numbering", armId: demoArm.id },
+    });
+    const planId = (plan.body as { plan: { id: string } }).plan.id;
+    const saved = await http(`/api/v1/plans/${planId}/versions`, {
+      auth: ownerToken,
+      json: { baseVersion: 0, document: gentlePlan() },
+    });
+    expect(saved.status).toBe(201);
+    for (const bad of ["0x1", "1e0", "%2B1", "01"]) {
+      const res = await http(`/api/v1/plans/${planId}/versions/${bad}/export?format=json`, { auth: ownerToken });
+      expect(res.status, bad).toBe(404);
+    }
+    const ok = await http(`/api/v1/plans/${planId}/versions/1/export?format=json`, { auth: ownerToken });
+    expect(ok.status).toBe(200);
   });
 
   it("static files, pages, API answers and 404s all carry the security headers", async () => {
