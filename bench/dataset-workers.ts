@@ -24,6 +24,7 @@ import { datasetArm, datasetArmDocument, generateDataset } from "./dataset-gener
 const here = dirname(fileURLToPath(import.meta.url));
 const EPISODES = 600;
 
+/** Starts `count` worker processes and waits for each to say "ready"; fails if one exits first or takes over 30 s. */
 function startWorkers(count: number): Promise<ChildProcess[]> {
   return Promise.all(
     Array.from({ length: count }, () => {
@@ -32,9 +33,22 @@ function startWorkers(count: number): Promise<ChildProcess[]> {
         ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"],
         { env: process.env, stdio: ["ignore", "pipe", "inherit"] },
       );
-      return new Promise<ChildProcess>((resolve) =>
-        child.stdout?.on("data", (d: Buffer) => d.toString().includes("ready") && resolve(child)),
-      );
+      return new Promise<ChildProcess>((resolve, reject) => {
+        const timer = setTimeout(() => {
+          child.kill("SIGTERM");
+          reject(new Error("a dataset worker did not get ready within 30 s"));
+        }, 30_000);
+        child.once("exit", (code) => {
+          clearTimeout(timer);
+          reject(new Error(`a dataset worker exited (${code}) before it was ready`));
+        });
+        child.stdout?.on("data", (d: Buffer) => {
+          if (!d.toString().includes("ready")) return;
+          clearTimeout(timer);
+          child.removeAllListeners("exit");
+          resolve(child);
+        });
+      });
     }),
   );
 }
@@ -84,9 +98,12 @@ async function main() {
     await enqueueDatasetBatches(
       started!.batches.map((batch) => ({ datasetId: dataset.id, generation: started!.dataset.generation, batch })),
     );
+    // an audit that does not finish is a finding, not a figure: stop with what is known
+    const deadline = performance.now() + 120_000;
     for (;;) {
       const [row] = await db.select({ status: datasets.status }).from(datasets).where(eq(datasets.id, dataset.id));
       if (row.status === "audited") break;
+      if (performance.now() > deadline) throw new Error(`the audit with ${count} worker(s) did not finish in 120 s`);
       await new Promise((r) => setTimeout(r, 50));
     }
     const s = (performance.now() - start) / 1000;
