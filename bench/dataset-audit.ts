@@ -92,7 +92,12 @@ function main() {
       cwd: root,
       stdio: ["ignore", "inherit", "pipe"],
     });
-    if (run.status !== 0) console.log(`dataset workers: not measured (bench/dataset-workers.sh exited ${run.status})`);
+    if (run.status !== 0) {
+      const why = (run.stderr?.toString() ?? "").split("\n").filter((l) => /error|did not|exited/i.test(l));
+      console.log(
+        `dataset workers: not measured (bench/dataset-workers.sh exited ${run.status}) ${why.slice(-3).join(" | ")}`,
+      );
+    }
   }
   const workers = existsSync(workersPath) ? JSON.parse(readFileSync(workersPath, "utf8")) : null;
   results.datasetAudit = {
