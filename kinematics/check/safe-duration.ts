@@ -38,6 +38,8 @@ export interface SafeDuration {
   check: TimingCheck | null;
   /** When `durationS` is null: the smallest gravity-only effort (N·m or N) on the path that exceeds the limit. */
   gravityEffort?: number;
+  /** When `durationS` is null: the move spans more than `joint`'s whole travel, so it leaves the travel at any duration. */
+  beyondTravel?: true;
 }
 
 /** Confirmation rounds before giving up on a closed-form candidate (each raises it). */
@@ -62,6 +64,13 @@ export function moveSafeDuration(
   rateHz: number,
 ): SafeDuration {
   const joints = plan.arm.joints;
+  // A move longer than a joint's whole travel starts or ends outside it, at every duration (travel
+  // does not depend on timing): no duration fixes it. Its path would also wind round many times,
+  // which the path-term search below would evaluate at great cost for nothing.
+  for (let j = 0; j < joints.length; j++) {
+    if (Math.abs(delta[j]) > (joints[j].max - joints[j].min) * (1 + 1e-9))
+      return { durationS: null, joint: j, check: null, beyondTravel: true };
+  }
   const jointOnly = safeDuration(shape, delta, joints, limitScale);
   const limiting = (T: number): TimingCheck | null => {
     if (jointOnly.joint < 0 || !(T > 0)) return null;

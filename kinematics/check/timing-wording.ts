@@ -6,11 +6,18 @@
  */
 import type { Arm } from "../plan/arm";
 import { longestTimingFixS, type SafeDuration } from "./safe-duration";
-import { formatNumber, jointLabel } from "./wording";
+import { formatNumber, formatQuantity, jointLabel } from "./wording";
 
 /** Why no duration fixes a move, and what would: a different pose or path, a lighter payload, the other tool. */
 export function noTimingFix(arm: Arm, safe: SafeDuration): string {
   const joint = safe.joint >= 0 ? arm.joints[safe.joint] : undefined;
+  if (safe.beyondTravel && joint) {
+    return (
+      `No duration fixes this move: it moves ${jointLabel(joint)} farther than its whole travel ` +
+      `(${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}), so it starts or ends outside it. ` +
+      `Change its goal or the pose before it.`
+    );
+  }
   if (safe.check === "effort" && joint && safe.gravityEffort !== undefined) {
     const unit = joint.type === "prismatic" ? "N" : "N·m";
     return (

@@ -104,3 +104,40 @@ describe("the duration sweep of a move", () => {
     expect(faulting).toBeGreaterThan(10);
   });
 });
+
+describe("a move longer than a joint's whole travel", () => {
+  // Found by the server's fuzz probe: an instant move to −10⁶ rad and back made the shortest-safe
+  // search wind the path round thousands of times (minutes of work). Travel does not depend on
+  // timing, so such a move has no timing fix, and the check says so at once.
+  it("has no shortest safe duration, says that no duration fixes it and why, and is checked quickly", () => {
+    const plan = parse({
+      format: "jointproof.plan",
+      version: 1,
+      arm: light,
+      start: [0, 0, 0, 0, 0, 0, 0],
+      moves: [
+        { goal: [-1e6, 0, 0, 0, 0, 0, 0], duration: 0, shape: "trapezoid" },
+        { goal: [0, 0, 0, 0, 0, 0, 0], duration: 0.033, shape: "quintic" },
+      ],
+    });
+    const report = check(plan);
+    expect(report.verdict).toBe("fault");
+    expect(report.moves.map((m) => m.minSafeDuration)).toEqual([null, null]);
+    expect(report.findings.some((f) => f.kind === "range" && f.joint === 0)).toBe(true);
+    const advice = report.findings.filter((f) => f.move === 1 && f.kind !== "range").map((f) => f.message);
+    expect(advice.length).toBeGreaterThan(0);
+    for (const message of advice)
+      expect(message).toMatch(/No duration fixes this move: it moves joint "base" farther than its whole travel/);
+  });
+
+  it("a move within the travel still gets its shortest safe duration", () => {
+    const plan = parse({
+      format: "jointproof.plan",
+      version: 1,
+      arm: light,
+      start: [-3, 0, 0, 0, 0, 0, 0],
+      moves: [{ goal: [3, 0, 0, 0, 0, 0, 0], duration: 0.5, shape: "quintic" }],
+    });
+    expect(check(plan).moves[0].minSafeDuration).toBeGreaterThan(0.5);
+  });
+});
