@@ -359,7 +359,8 @@ describe("the bench tells the truth", () => {
       body: JSON.stringify({
         error: {
           code: "unavailable:database",
-          message: "The database cannot be reached right now; nothing was saved. Try again in 1 seconds.",
+          message:
+            "The database cannot be reached right now, so this request may not have been completed. Try again in 1 second; if you were saving, reload first to see whether the save arrived.",
           issues: [],
           retryAfterS: 1,
         },
