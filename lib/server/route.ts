@@ -117,7 +117,7 @@ export function errorResponse(err: unknown): Response {
     );
     const unavailable = new AppError(
       "unavailable:database",
-      `The database cannot be reached right now, so this request may not have been completed. Try again in ${DATABASE_RETRY_AFTER_S} second${DATABASE_RETRY_AFTER_S === 1 ? "" : "s"}; if you were saving, reload first to see whether the save arrived.`,
+      `The database cannot be reached right now, so this request may not have been completed. Try again in ${DATABASE_RETRY_AFTER_S} seconds; if you were saving, reload first to see whether the save arrived.`,
       {
         details: { retryAfterS: DATABASE_RETRY_AFTER_S },
       },

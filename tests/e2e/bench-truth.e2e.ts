@@ -360,7 +360,7 @@ describe("the bench tells the truth", () => {
         error: {
           code: "unavailable:database",
           message:
-            "The database cannot be reached right now, so this request may not have been completed. Try again in 1 second; if you were saving, reload first to see whether the save arrived.",
+            "The database cannot be reached right now, so this request may not have been completed. Try again in 5 seconds; if you were saving, reload first to see whether the save arrived.",
           issues: [],
           retryAfterS: 1,
         },
