@@ -8,7 +8,7 @@ import { assertSameOrigin } from "@/lib/server/security";
 /**
  * POST /api/v1/accounts/password-reset/confirm — sets a new password with the token from the
  * reset e-mail. The token works once; using it voids the account's other reset links and ends the
- * account's existing sessions (lib/server/auth-request.ts); the reset is written to the audit log.
+ * account's existing sessions (lib/server/auth-request.ts). Resets are not yet written to the audit log (which is kept per project).
  */
 export const POST = route(async (request) => {
   const body = await readJson(request, passwordResetConfirmSchema);
