@@ -3,33 +3,13 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { SelectField } from "@/components/ui/field";
-import { CautionIcon } from "@/components/ui/icons";
+import { CautionAcknowledgement, SafetyCaution } from "@/components/ui/safety-caution";
 import { api } from "@/lib/client/api-client";
-import { SAFETY_POINTS, SAFETY_SHORT } from "@/lib/shared/safety";
 
 /** The file name the export route gives a download (kept in step with its Content-Disposition). */
 export function exportFileName(planName: string, version: number, format: "json" | "csv"): string {
   const base = planName.replace(/[^A-Za-z0-9._-]+/g, "-").slice(0, 60) || "plan";
   return `${base}-v${version}.${format}`;
-}
-
-/** The safety caution, shown before anything leaves Jointproof. */
-export function SafetyCaution() {
-  return (
-    <section
-      aria-label="Safety caution"
-      className="rounded-md border border-caution/40 bg-caution-tint p-3 text-caution"
-    >
-      <p className="flex items-start gap-2 font-semibold">
-        <CautionIcon size={16} className="mt-0.5 shrink-0" /> {SAFETY_SHORT}
-      </p>
-      <ul className="mt-2 list-disc space-y-0.5 pl-6 text-xs leading-relaxed text-ink">
-        {SAFETY_POINTS.map((p) => (
-          <li key={p}>{p}</li>
-        ))}
-      </ul>
-    </section>
-  );
 }
 
 /**
@@ -68,15 +48,7 @@ export function ExportDialog({
     >
       <div className="flex flex-col gap-3">
         <SafetyCaution />
-        <label className="flex items-start gap-2 text-sm">
-          <input
-            type="checkbox"
-            checked={ack}
-            onChange={(e) => setAck(e.target.checked)}
-            className="mt-1 accent-brand-600"
-          />
-          <span>I have read the caution; this export is a prediction to verify on the arm at reduced speed.</span>
-        </label>
+        <CautionAcknowledgement checked={ack} onChange={setAck} what="this export" />
         {dirty ? (
           <p className="rounded-md bg-brand-50 px-3 py-2 text-xs text-brand-700">
             You have unsaved edits. The export is version {version} as saved; save a new version to export your edits.

@@ -1,6 +1,6 @@
 "use client";
 import { useMemo, useState } from "react";
-import { SafetyCaution } from "@/components/editor/export-dialog";
+import { CautionAcknowledgement, SafetyCaution } from "@/components/ui/safety-caution";
 import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { formatRecordingCsv, type Recording } from "@/kinematics";
@@ -29,15 +29,7 @@ export function ExportDialogShell({
     >
       <div className="flex flex-col gap-3">
         <SafetyCaution />
-        <label className="flex items-start gap-2 text-sm">
-          <input
-            type="checkbox"
-            checked={ack}
-            onChange={(e) => setAck(e.target.checked)}
-            className="mt-1 accent-brand-600"
-          />
-          <span>I have read the caution; the repaired log is a prediction to verify on the arm at reduced speed.</span>
-        </label>
+        <CautionAcknowledgement checked={ack} onChange={setAck} what="the repaired recording" />
         {href ? (
           <a
             href={href}

@@ -123,25 +123,7 @@ export function RecordingPlot({ original, repaired, joint, jointInfo, findings, 
                 ifOverflow="extendDomain"
               />
             ))}
-            <Line
-              dataKey="original"
-              name="original"
-              stroke="#1f6f86"
-              strokeWidth={1.5}
-              dot={false}
-              isAnimationActive={false}
-            />
-            {repaired ? (
-              <Line
-                dataKey="repaired"
-                name="repaired"
-                stroke="#b8612a"
-                strokeWidth={1.5}
-                strokeDasharray="5 3"
-                dot={false}
-                isAnimationActive={false}
-              />
-            ) : null}
+            {traceLines(Boolean(repaired), 1.5)}
             <Legend verticalAlign="top" height={18} iconSize={10} wrapperStyle={{ fontSize: 11 }} />
           </LineChart>
         </ResponsiveContainer>
@@ -172,28 +154,37 @@ export function RecordingPlot({ original, repaired, joint, jointInfo, findings, 
               strokeOpacity={LIMIT_LINE_OPACITY}
               label={{ value: "limit", position: "insideTopRight", fontSize: 10, fill: verdictLook.fault.stroke }}
             />
-            <Line
-              dataKey="original"
-              name="original"
-              stroke="#1f6f86"
-              strokeWidth={1.25}
-              dot={false}
-              isAnimationActive={false}
-            />
-            {repaired ? (
-              <Line
-                dataKey="repaired"
-                name="repaired"
-                stroke="#b8612a"
-                strokeWidth={1.25}
-                strokeDasharray="5 3"
-                dot={false}
-                isAnimationActive={false}
-              />
-            ) : null}
+            {traceLines(Boolean(repaired), 1.25)}
           </LineChart>
         </ResponsiveContainer>
       </figure>
     </div>
   );
+}
+
+/** The recording's original trace and, once repaired, the repaired one dashed over it (called, not rendered: recharts reads its children). */
+function traceLines(repaired: boolean, width: number) {
+  return [
+    <Line
+      key="original"
+      dataKey="original"
+      name="original"
+      stroke="#1f6f86"
+      strokeWidth={width}
+      dot={false}
+      isAnimationActive={false}
+    />,
+    repaired ? (
+      <Line
+        key="repaired"
+        dataKey="repaired"
+        name="repaired"
+        stroke="#b8612a"
+        strokeWidth={width}
+        strokeDasharray="5 3"
+        dot={false}
+        isAnimationActive={false}
+      />
+    ) : null,
+  ];
 }

@@ -335,6 +335,8 @@ export function gravityEffortAtLastPose(
     gy = dvy;
     gz = dvz;
   }
+  // The backward pass of inverseDynamics repeated on purpose (a performance specialisation: sharing it
+  // would cost a call per link in the engine's hottest loop); a test pins both to the last bit.
   for (let i = n - 1; i >= 0; i--) {
     const p = 3 * i;
     const cx = chain.com[p],
