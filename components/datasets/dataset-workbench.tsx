@@ -3,6 +3,7 @@
  * The dataset page: the arm and column mapping (with a preview), the audit's live progress, the
  * summary and chart, the episode table and the open episode; repair all and export.
  */
+import { ProgressBar } from "@/components/ui/progress-bar";
 import Link from "next/link";
 import { QueryClient, QueryClientProvider, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useState } from "react";
@@ -162,21 +163,7 @@ function Workbench({ projectId, dataset, arms, canEdit, caution }: Props) {
       </Panel>
       {status === "auditing" && progress ? (
         <Panel className="p-4" aria-label="Audit progress">
-          <div
-            role="progressbar"
-            aria-label="Audit progress"
-            aria-valuemin={0}
-            aria-valuemax={progress.batches}
-            aria-valuenow={progress.batchesDone}
-            className="h-2 overflow-hidden rounded-full bg-line/60"
-          >
-            <div
-              className="h-full bg-brand-500 transition-[width]"
-              style={{
-                width: `${progress.batches ? Math.round((100 * progress.batchesDone) / progress.batches) : 0}%`,
-              }}
-            />
-          </div>
+          <ProgressBar label="Audit progress" value={progress.batchesDone} max={progress.batches} />
           <p className="tabular mt-1 text-xs text-ink-soft" data-testid="audit-progress">
             Auditing in the background: {progress.episodesAudited} of {progress.episodes} episodes (
             {progress.batchesDone} of {progress.batches} batches).

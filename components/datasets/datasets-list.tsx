@@ -1,5 +1,6 @@
 "use client";
 /** A project's datasets: the upload (with progress, whole or refused) and the list, each row opening its dataset page. */
+import { ProgressBar } from "@/components/ui/progress-bar";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
@@ -109,19 +110,7 @@ export function DatasetsList({
           </div>
           {progress !== null ? (
             <div>
-              <div
-                role="progressbar"
-                aria-label="Uploading"
-                aria-valuemin={0}
-                aria-valuemax={100}
-                aria-valuenow={Math.round(progress * 100)}
-                className="h-2 overflow-hidden rounded-full bg-line/60"
-              >
-                <div
-                  className="h-full bg-brand-500 transition-[width]"
-                  style={{ width: `${Math.round(progress * 100)}%` }}
-                />
-              </div>
+              <ProgressBar label="Uploading" value={progress} />
               <p className="tabular mt-1 text-[11px] text-ink-faint">
                 {progress < 1 ? `Uploading… ${Math.round(progress * 100)}%` : "Stored; opening…"}
               </p>

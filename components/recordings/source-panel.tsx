@@ -1,5 +1,6 @@
 "use client";
 /** Choosing the arm and the file (or a stored recording), the reading progress and why a file was refused. */
+import { ProgressBar } from "@/components/ui/progress-bar";
 import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { columnsFor, DataTable } from "@/components/ui/data-table";
@@ -109,19 +110,7 @@ export function SourcePanel({ session, arms }: { session: RecordingSessionApi; a
       ) : null}
       {progress !== null ? (
         <div>
-          <div
-            role="progressbar"
-            aria-label="Reading the file"
-            aria-valuemin={0}
-            aria-valuemax={100}
-            aria-valuenow={Math.round(progress * 100)}
-            className="h-2 overflow-hidden rounded-full bg-line/60"
-          >
-            <div
-              className="h-full bg-brand-500 transition-[width]"
-              style={{ width: `${Math.round(progress * 100)}%` }}
-            />
-          </div>
+          <ProgressBar label="Reading the file" value={progress} />
           <p className="tabular mt-1 text-[11px] text-ink-faint">
             {progress < 1 ? `Reading… ${Math.round(progress * 100)}%` : "Read"}
           </p>

@@ -1,5 +1,6 @@
 "use client";
 /** The stream check of the loaded recording: verdict, findings, keeping the original, and Repair. */
+import { ProgressBar } from "@/components/ui/progress-bar";
 import { kindWords } from "@/components/findings/finding-time";
 import { Button } from "@/components/ui/button";
 import { ErrorNote } from "@/components/ui/panel";
@@ -60,19 +61,7 @@ export function StreamCheckPanel({
                 : "Keep the original in the project"}
           </Button>
           {state.uploadProgress !== null ? (
-            <div
-              role="progressbar"
-              aria-label="Uploading the recording"
-              aria-valuemin={0}
-              aria-valuemax={100}
-              aria-valuenow={Math.round(state.uploadProgress * 100)}
-              className="h-1.5 overflow-hidden rounded-full bg-line/60"
-            >
-              <div
-                className="h-full bg-copper-500 transition-[width]"
-                style={{ width: `${Math.round(state.uploadProgress * 100)}%` }}
-              />
-            </div>
+            <ProgressBar label="Uploading the recording" value={state.uploadProgress} tone="copper" thin />
           ) : null}
           {upload.error ? <ErrorNote title="The recording was not stored">{upload.error.message}</ErrorNote> : null}
         </div>
