@@ -4,6 +4,7 @@
  * the repaired trace dashed), the episode replayed on the arm in 3D through its replay plan, and the
  * repair and replay-plan actions.
  */
+import { JointPicker } from "@/components/plots/joint-picker";
 import dynamic from "next/dynamic";
 import { useQuery } from "@tanstack/react-query";
 import { useMemo, useState } from "react";
@@ -301,27 +302,12 @@ export function EpisodeView({
       ) : null}
       {original && audit.verdict !== "invalid" ? (
         <>
-          <div role="group" aria-label="Joint to plot" className="flex flex-wrap gap-1">
-            {arm.joints.map((j, i) => {
-              const count = audit.findings.filter((f) => f.joint === i).length;
-              return (
-                <button
-                  key={j.name}
-                  type="button"
-                  aria-pressed={joint === i}
-                  onClick={() => setJoint(i)}
-                  className={
-                    joint === i
-                      ? "rounded-full bg-brand-600 px-2 py-0.5 text-xs text-white"
-                      : "rounded-full border border-line px-2 py-0.5 text-xs text-ink-soft hover:text-ink"
-                  }
-                >
-                  {j.name}
-                  {count ? ` · ${count}` : ""}
-                </button>
-              );
-            })}
-          </div>
+          <JointPicker
+            joints={arm.joints}
+            selected={joint}
+            onSelect={setJoint}
+            findingsOf={(i) => audit.findings.filter((f) => f.joint === i).length}
+          />
           <div data-testid="episode-plot">
             <RecordingPlot
               original={original}

@@ -1,5 +1,6 @@
 "use client";
 /** The traces of the loaded (and repaired) recording for one joint, with a joint picker counting its findings. */
+import { JointPicker } from "@/components/plots/joint-picker";
 import { EmptyState } from "@/components/ui/panel";
 import type { AngleUnit } from "@/lib/shared/units";
 import { RecordingPlot } from "./recording-plot";
@@ -17,27 +18,13 @@ export function TracePanel({ session, unit }: { session: RecordingSessionApi; un
     );
   return (
     <>
-      <div role="group" aria-label="Joint to plot" className="mb-3 flex flex-wrap gap-1">
-        {joints.map((j, i) => {
-          const count = loaded.report.findings.filter((f) => f.joint === i).length;
-          return (
-            <button
-              key={j.name}
-              type="button"
-              aria-pressed={joint === i}
-              onClick={() => dispatch({ type: "show-joint", joint: i })}
-              className={
-                joint === i
-                  ? "rounded-full bg-brand-600 px-2 py-0.5 text-xs text-white"
-                  : "rounded-full border border-line px-2 py-0.5 text-xs text-ink-soft hover:text-ink"
-              }
-            >
-              {j.name}
-              {count ? ` · ${count}` : ""}
-            </button>
-          );
-        })}
-      </div>
+      <JointPicker
+        joints={joints}
+        selected={joint}
+        onSelect={(i) => dispatch({ type: "show-joint", joint: i })}
+        findingsOf={(i) => loaded.report.findings.filter((f) => f.joint === i).length}
+        className="mb-3"
+      />
       <div data-testid="recording-plot">
         <RecordingPlot
           original={loaded.recording}
