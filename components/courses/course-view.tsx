@@ -1,4 +1,5 @@
 "use client";
+import { submissionStatusWords } from "@/components/review/status-words";
 import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
@@ -32,9 +33,7 @@ type Status = "not-started" | "draft" | "submitted" | "returned" | "approved";
 const statusWords: Record<Status, string> = {
   "not-started": "Not started",
   draft: "Draft",
-  submitted: "Submitted, waiting for review",
-  returned: "Returned with comments",
-  approved: "Approved",
+  ...submissionStatusWords,
 };
 
 export interface CourseViewProps {

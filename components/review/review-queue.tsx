@@ -4,9 +4,11 @@ import { DateTime } from "@/components/ui/date-time";
 import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import type { QueueQuery } from "@/lib/shared/schemas/reviews";
+import { MySubmissions, type MySubmissionRow } from "./my-submissions";
+import { submissionStatusWords, type SubmissionStatus } from "./status-words";
 
 type Verdict = "pass" | "caution" | "fault";
-type Status = "submitted" | "returned" | "approved";
+type Status = SubmissionStatus;
 
 export interface QueueRow {
   id: string;
@@ -22,11 +24,7 @@ export interface QueueRow {
   status: Status;
 }
 
-const statusWords: Record<Status, string> = {
-  submitted: "Waiting for review",
-  returned: "Returned",
-  approved: "Approved",
-};
+const statusWords = submissionStatusWords;
 
 /**
  * The queue's order when none is chosen: waiting submissions first, each group oldest first (the
@@ -91,16 +89,7 @@ export function ReviewQueue({
   teaches: boolean;
   courses: { id: string; title: string }[];
   queue: QueueRow[];
-  mine: {
-    id: string;
-    assignmentTitle: string;
-    courseTitle: string;
-    submittedAt: string;
-    attempt: number;
-    verdict: Verdict;
-    status: Status;
-    late: boolean;
-  }[];
+  mine: MySubmissionRow[];
 }) {
   const select = "h-9 rounded-md border border-line bg-panel px-2 text-sm";
   return (
@@ -133,9 +122,11 @@ export function ReviewQueue({
               Status
               <select name="status" defaultValue={filter.status ?? ""} className={select}>
                 <option value="">Any status</option>
-                <option value="submitted">Waiting for review</option>
-                <option value="returned">Returned</option>
-                <option value="approved">Approved</option>
+                {(["submitted", "returned", "approved"] as const).map((status) => (
+                  <option key={status} value={status}>
+                    {statusWords[status]}
+                  </option>
+                ))}
               </select>
             </label>
             <label className="flex flex-col gap-1 text-xs font-medium text-ink-soft">
@@ -229,46 +220,7 @@ export function ReviewQueue({
         <>
           <h2 className="mt-8 text-lg font-semibold">Your submissions</h2>
           <Panel className="mt-2 overflow-x-auto">
-            {mine.length === 0 ? (
-              <div className="p-4">
-                <EmptyState title="No submissions yet">
-                  Submit a saved plan version from a course&apos;s assignment list.
-                </EmptyState>
-              </div>
-            ) : (
-              <Table aria-label="Your submissions">
-                <thead>
-                  <tr>
-                    <Th>Assignment</Th>
-                    <Th>Submitted</Th>
-                    <Th>Verdict</Th>
-                    <Th>Status</Th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {mine.map((m) => (
-                    <tr key={m.id}>
-                      <Td>
-                        <Link href={`/reviews/${m.id}`} className="font-medium text-brand-700 hover:underline">
-                          {m.assignmentTitle}
-                        </Link>
-                        <p className="text-xs text-ink-faint">
-                          {m.courseTitle} · attempt {m.attempt}
-                        </p>
-                      </Td>
-                      <Td className="tabular text-xs">
-                        <DateTime value={m.submittedAt} />
-                        {m.late ? " · late" : ""}
-                      </Td>
-                      <Td>
-                        <VerdictChip size="sm" verdict={m.verdict} />
-                      </Td>
-                      <Td className="text-xs">{statusWords[m.status]}</Td>
-                    </tr>
-                  ))}
-                </tbody>
-              </Table>
-            )}
+            <MySubmissions rows={mine} />
           </Panel>
         </>
       )}

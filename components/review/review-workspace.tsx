@@ -1,4 +1,5 @@
 "use client";
+import { submissionStatusWords } from "./status-words";
 import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
@@ -73,11 +74,7 @@ export interface ReviewWorkspaceProps {
   comments: ReviewComment[];
 }
 
-const statusWords = {
-  submitted: "Waiting for review",
-  returned: "Returned with comments",
-  approved: "Approved",
-} as const;
+const statusWords = submissionStatusWords;
 const noSubscribe = () => () => {};
 
 /** The move running at time t (s): the last one that starts at or before it. */
