@@ -61,6 +61,8 @@ ensure_chromium
 if NODE_ENV=production build_if_stale; then
   export JP_TEST_PORT="${JP_TEST_PORT:-3100}"
   start_mail_worker .data/test/mail-worker.log
+  # the mail-outage probe pauses this worker while it stops its own mail server
+  export JP_SHARED_MAIL_WORKER_PID="${PIDS[-1]}"
   step "browser tests" node_modules/.bin/vitest run --config vitest.e2e.config.ts --reporter=default --reporter=json --outputFile.json=.data/test/e2e.json
 else
   FAILED+=("build")

@@ -322,9 +322,15 @@ describe("pages at 1440×900", () => {
     await shot(page, "course-student");
     // A submission, so that the instructor's review queue and review page have one to show.
     const second = page.getByTestId("assignment-row").filter({ hasText: demoCourse.assignments[1].title });
-    await second.getByLabel("Plan version").selectOption({ label: "Robot Motion I / Instant swing · version 1" });
-    await second.getByRole("button", { name: "Submit" }).click();
-    await expect(second.getByRole("status").textContent()).resolves.toContain("attempt 1");
+    const choice = second.getByLabel("Plan version");
+    if (await choice.isEnabled()) {
+      await choice.selectOption({ label: "Robot Motion I / Instant swing · version 1" });
+      await second.getByRole("button", { name: "Submit" }).click();
+      await expect(second.getByRole("status").textContent()).resolves.toContain("attempt 1");
+    } else {
+      // bench-truth.e2e.ts (run before this file) has submitted this assignment already: the queue has it
+      await expect(second.textContent()).resolves.toMatch(/Waiting for review|Approved|Returned with comments/);
+    }
     await preview.click();
     await page.getByTestId("assignment-rules").waitFor();
     await page.waitForTimeout(800);

@@ -37,7 +37,15 @@ async function waitUntil<T>(read: () => Promise<T>, ok: (v: T) => boolean, timeo
   }
 }
 
+/**
+ * `npm test`'s shared mail worker (its pid in JP_SHARED_MAIL_WORKER_PID) would send this probe's
+ * messages through the shared fake, which stays up, so the outage would never be met: it is paused
+ * (SIGSTOP) for the probe and resumed after.
+ */
+const sharedWorker = Number(process.env.JP_SHARED_MAIL_WORKER_PID) || 0;
+
 beforeAll(async () => {
+  if (sharedWorker) process.kill(sharedWorker, "SIGSTOP");
   dir = await mkdtemp(path.join(tmpdir(), "jp-probe-mail-"));
   fake = await startFakeSmtp({ dir });
   port = fake.port;
@@ -64,6 +72,7 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
+  if (sharedWorker) process.kill(sharedWorker, "SIGCONT");
   await fake?.stop();
   if (worker && worker.exitCode == null) {
     const exited = new Promise((r) => worker!.once("exit", r));
