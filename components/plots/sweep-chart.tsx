@@ -43,13 +43,15 @@ export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: Sw
   }
   if (!(minSafeS > 0))
     return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
+  // rounded up to the millisecond, as the move list's "Shortest safe" fix offers it
+  const safeText = (Math.ceil(minSafeS * 1000 - 1e-9) / 1000).toFixed(3);
   return (
     <figure
-      aria-label={`Duration sweep: worst peak-to-limit ratio of ${checks} against duration; shortest safe duration ${minSafeS.toFixed(3)} s`}
+      aria-label={`Duration sweep: worst peak-to-limit ratio of ${checks} against duration; shortest safe duration ${safeText} s`}
     >
       <figcaption className="mb-1 flex justify-between text-[11px] text-ink-soft">
         <span title={hintFor("durationSweep")}>Duration sweep (worst of {checks}; peak ÷ limit)</span>
-        <span className="tabular font-mono">safe ≥ {minSafeS.toFixed(3)} s</span>
+        <span className="tabular font-mono">safe ≥ {safeText} s</span>
       </figcaption>
       <div className="h-32 w-full">
         <ResponsiveContainer width="100%" height="100%">
