@@ -104,8 +104,11 @@ describe("uploads through the running server", () => {
     const data = Buffer.alloc(60 * MB, 0x30);
     let offset = 0;
     // A declared length with a body the server must not wait for: the answer comes while most of it is unsent.
+    // The body is offered at 20 MB/s (3 s in all), so a loaded machine's socket buffers cannot swallow
+    // all of it before the server's early answer arrives.
     const body = new ReadableStream<Uint8Array>({
-      pull(controller) {
+      async pull(controller) {
+        await new Promise((r) => setTimeout(r, 50));
         if (offset >= data.length) return controller.close();
         pulled += MB;
         controller.enqueue(new Uint8Array(data.subarray(offset, offset + MB)));
