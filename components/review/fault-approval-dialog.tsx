@@ -3,7 +3,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { TextAreaField } from "@/components/ui/field";
 import { ErrorNote } from "@/components/ui/panel";
-import { moveNumber } from "@/kinematics";
+import { moveLabel } from "@/kinematics";
 import type { SubmissionFault } from "@/lib/shared/courses/faults";
 import { FAULT_APPROVAL_REASON_MAX } from "@/lib/shared/schemas/reviews";
 
@@ -24,8 +24,8 @@ export interface FaultApprovalDialogProps {
 }
 
 /**
- * Approving a submission whose check found faults: the dialog lists each fault (moves counted from
- * 1) and sends the approval only with a typed reason, which the student will see.
+ * Approving a submission whose check found faults: the dialog lists each fault (moves named as every
+ * screen names them, "Move 1" for the first) and sends the approval only with a typed reason, which the student will see.
  */
 export function FaultApprovalDialog({
   open,
@@ -67,7 +67,7 @@ export function FaultApprovalDialog({
           {faults.map((f, i) => (
             <li key={i} className="rounded-md border border-fault/40 bg-fault-tint/40 px-2 py-1 text-xs">
               <span className="font-semibold text-fault">Fault</span>
-              {f.move !== null ? ` · move ${moveNumber(f.move)}` : ""}
+              {f.move !== null ? ` · ${moveLabel(f.move)}` : ""}
               {f.joint !== null ? ` · ${joints[f.joint] ?? `joint ${f.joint + 1}`}` : ""}: {f.message}
             </li>
           ))}

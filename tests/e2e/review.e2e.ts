@@ -158,7 +158,7 @@ describe("review flow in the browser", () => {
     await page.getByRole("button", { name: "Approve despite faults…" }).click();
     const dialog = page.getByRole("dialog", { name: "Approve a plan whose check found faults?" });
     await dialog.waitFor();
-    await expect(dialog.getByTestId("approval-faults").textContent()).resolves.toMatch(/Fault · move 1/);
+    await expect(dialog.getByTestId("approval-faults").textContent()).resolves.toMatch(/Fault · Move 1\b/);
     expect(await dialog.getByRole("button", { name: "Approve with this reason" }).isDisabled()).toBe(true);
     await dialog
       .getByRole("textbox", { name: "Reason for approving (the student sees it)" })

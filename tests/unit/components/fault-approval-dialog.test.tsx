@@ -59,15 +59,15 @@ function Harness({ faults, approvals }: { faults: SubmissionFault[]; approvals: 
 }
 
 describe("approval dialog for a submission whose check faults", () => {
-  it("lists only the faults (not cautions), moves counted from 1, with the joint's name", () => {
+  it("lists only the faults (not cautions), moves named Move 1, Move 3 as on every screen, with the joint's name", () => {
     render(<Harness faults={reportFaults(report)} approvals={[]} />);
     const list = screen.getByTestId("approval-faults");
     const items = within(list)
       .getAllByRole("listitem")
       .map((li) => li.textContent);
     expect(items).toEqual([
-      "Fault · move 1 · base: base reaches 2.57 rad/s, above its 2.10 rad/s limit.",
-      "Fault · move 3: the instant move steps too far in one control period.",
+      "Fault · Move 1 · base: base reaches 2.57 rad/s, above its 2.10 rad/s limit.",
+      "Fault · Move 3: the instant move steps too far in one control period.",
     ]);
     expect(screen.getByText(/found these 2 faults/)).toBeTruthy();
   });
