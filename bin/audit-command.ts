@@ -33,6 +33,7 @@ import {
   type EpisodeAudit,
 } from "../kinematics";
 import { SAFETY_POINTS, SAFETY_TEXT } from "../lib/shared/safety";
+import { formatTable } from "./table";
 
 /** Where the command writes (the same shape as the dispatcher's). */
 export interface AuditIo {
@@ -176,14 +177,6 @@ function datasetFiles(path: string): DatasetFile[] {
   return found.map((full) => ({ name: relative(path, full).split(sep).join("/"), bytes: readBytes(full) }));
 }
 
-function pad(text: string, width: number): string {
-  return text.length >= width ? text : text + " ".repeat(width - text.length);
-}
-
-function padStart(text: string, width: number): string {
-  return text.length >= width ? text : " ".repeat(width - text.length) + text;
-}
-
 /** The readable summary: counts by verdict and kind, then the worst episodes and the invalid ones. */
 function formatAudit(arm: Arm, audits: EpisodeAudit[], durations: Map<string, number>, limit = 10): string {
   const summary = summarizeAudits(audits);
@@ -191,8 +184,10 @@ function formatAudit(arm: Arm, audits: EpisodeAudit[], durations: Map<string, nu
   const lines = [
     `Timed-replay audit for arm "${arm.name}": ${summary.episodes} episode${summary.episodes === 1 ? "" : "s"}, ${frames} frames`,
     "",
-    `${pad("verdict", 9)}${padStart("episodes", 9)}`,
-    ...episodeVerdicts.map((v) => `${pad(v.toUpperCase(), 9)}${padStart(String(summary[v]), 9)}`),
+    ...formatTable(
+      [["verdict", "episodes"], ...episodeVerdicts.map((v) => [v.toUpperCase(), String(summary[v])])],
+      ["left", "right"],
+    ),
     "",
   ];
   const kinds = Object.entries(summary.byKind);
@@ -209,18 +204,28 @@ function formatAudit(arm: Arm, audits: EpisodeAudit[], durations: Map<string, nu
         b.findings.length - a.findings.length,
     );
   if (worst.length > 0) {
-    const idWidth = Math.max(8, ...worst.slice(0, limit).map((a) => a.episode.length + 2));
+    // every column as wide as its widest cell (bin/table.ts): a long episode name, frame count or
+    // duration (a time column in nanoseconds read as seconds) never pushes the next column along
+    const rows = worst.slice(0, limit).map((a) => {
+      const first = a.findings.find((f) => f.severity === "fault") ?? a.findings[0];
+      return [
+        a.episode,
+        a.verdict.toUpperCase(),
+        String(a.samples),
+        `${formatNumber(durations.get(a.episode) ?? 0)} s`,
+        String(a.findings.length),
+        first.message,
+      ];
+    });
     lines.push(
       "",
       "Worst episodes:",
-      `  ${pad("episode", idWidth)}${pad("verdict", 9)}${padStart("frames", 7)}${padStart("duration", 10)}${padStart("findings", 10)}  first finding`,
+      ...formatTable(
+        [["episode", "verdict", "frames", "duration", "findings", "first finding"], ...rows],
+        ["left", "left", "right", "right", "right", "left"],
+        "  ",
+      ),
     );
-    for (const a of worst.slice(0, limit)) {
-      const first = a.findings.find((f) => f.severity === "fault") ?? a.findings[0];
-      lines.push(
-        `  ${pad(a.episode, idWidth)}${pad(a.verdict.toUpperCase(), 9)}${padStart(String(a.samples), 7)}${padStart(`${formatNumber(durations.get(a.episode) ?? 0)} s`, 10)}${padStart(String(a.findings.length), 10)}  ${first.message}`,
-      );
-    }
     if (worst.length > limit) lines.push(`  … and ${worst.length - limit} more (use --json for all)`);
   }
   const invalid = audits.filter((a) => a.verdict === "invalid");
