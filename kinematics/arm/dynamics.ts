@@ -382,3 +382,56 @@ export function gravityEffortAtLastPose(
   }
   return out;
 }
+
+/**
+ * The tool-point speed (m/s) at the pose and joint velocities of the last {@link inverseDynamics}
+ * call on `ws`, reusing its link rotations, offsets and angular velocities: the linear-velocity
+ * recursion of the same forward pass, vᵢ = ᶦ⁻¹Rᵢᵀ·(vᵢ₋₁ + ωᵢ₋₁ × pᵢ), plus ḋᵢ·zᵢ for a prismatic
+ * joint (Craig, Introduction to Robotics, 3rd ed., §5.6, eqs. 5.45–5.47), then the tool point
+ * v = vₙ + ωₙ × p_tool in the last link's frame. The speed is |J_v(q)·q̇| of the geometric Jacobian
+ * (Siciliano et al. 2009, §3.1); a test compares both. `qd` holds the velocities of that call.
+ */
+export function toolSpeedAtLastPose(
+  chain: CompiledChain,
+  ws: DynamicsWorkspace,
+  qd: ArrayLike<number>,
+  offset = 0,
+): number {
+  const n = chain.jointCount;
+  const { rot, pos, w } = ws;
+  const ax = chain.axis;
+  let vx = 0,
+    vy = 0,
+    vz = 0;
+  for (let i = 0; i < n; i++) {
+    const r = 9 * i,
+      p = 3 * i;
+    const wx = w[p],
+      wy = w[p + 1],
+      wz = w[p + 2];
+    const px = pos[p],
+      py = pos[p + 1],
+      pz = pos[p + 2];
+    const ux = vx + (wy * pz - wz * py),
+      uy = vy + (wz * px - wx * pz),
+      uz = vz + (wx * py - wy * px);
+    vx = rot[r] * ux + rot[r + 1] * uy + rot[r + 2] * uz;
+    vy = rot[r + 3] * ux + rot[r + 4] * uy + rot[r + 5] * uz;
+    vz = rot[r + 6] * ux + rot[r + 7] * uy + rot[r + 8] * uz;
+    if (chain.prismatic[i]) {
+      const d = qd[offset + i];
+      vx += d * ax[p];
+      vy += d * ax[p + 1];
+      vz += d * ax[p + 2];
+    }
+  }
+  const c = 3 * n;
+  const t = chain.tool;
+  const tx = t[12],
+    ty = t[13],
+    tz = t[14];
+  const wx = w[c],
+    wy = w[c + 1],
+    wz = w[c + 2];
+  return Math.hypot(vx + (wy * tz - wz * ty), vy + (wz * tx - wx * tz), vz + (wx * ty - wy * tx));
+}

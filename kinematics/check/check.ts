@@ -128,7 +128,11 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
       const rateHz = state ? sampleRateOf(state, context) : arm.controlRateHz;
       const from = context.from;
       context.minSafe = moveSafeDuration(plan, state, from, delta, shape, 1, rateHz);
-      context.minCalm = moveSafeDuration(plan, state, from, delta, shape, arm.cautionRatio, rateHz);
+      // within the caution ratio: only a caution's message names it, so it is found when first read
+      let minCalm: MoveContext["minCalm"] | undefined;
+      Object.defineProperty(context, "minCalm", {
+        get: () => (minCalm ??= moveSafeDuration(plan, state, from, delta, shape, arm.cautionRatio, rateHz)),
+      });
       const moveFindings: Finding[] = [];
       for (const checker of moveCheckers) checker(context, moveFindings);
       // kept with times from the move's start, so a move that only starts later is reused

@@ -89,7 +89,8 @@ function durationFix(severity: Severity, context: MoveContext): string {
  * move (its step must be covered in one control period: the jump-too-far fault).
  */
 export const checkSpeed: MoveChecker = (context, out) => {
-  const { arm, index, move, instant, peakVelocity, delta, minSafe, minCalm, startS } = context;
+  const { arm, index, move, instant, peakVelocity, delta, minSafe, startS } = context;
+  // minCalm is read only where a message names it: check() finds it on first read
   // the peak's time: the instant move's start, else the shape's first velocity peak
   const timeS = instant
     ? startS
@@ -117,11 +118,11 @@ export const checkSpeed: MoveChecker = (context, out) => {
           ? minSafe.durationS === null
             ? `Make the step smaller. ${noTimingFix(arm, minSafe)}`
             : `Give the move a duration of at least ${formatDurationUp(minSafe.durationS)} with its ${move.shape} shape, or make the step smaller` +
-              (minCalm.durationS !== null
-                ? `; ${formatDurationUp(minCalm.durationS)} stays below ${formatPercent(arm.cautionRatio)} of every limit.`
+              (context.minCalm.durationS !== null
+                ? `; ${formatDurationUp(context.minCalm.durationS)} stays below ${formatPercent(arm.cautionRatio)} of every limit.`
                 : ".")
-          : minCalm.durationS !== null
-            ? `A duration of ${formatDurationUp(minCalm.durationS)} with its ${move.shape} shape keeps it below ${formatPercent(arm.cautionRatio)} of every limit.`
+          : context.minCalm.durationS !== null
+            ? `A duration of ${formatDurationUp(context.minCalm.durationS)} with its ${move.shape} shape keeps it below ${formatPercent(arm.cautionRatio)} of every limit.`
             : `Make the step smaller for more margin.`);
     } else {
       const outcome = severity === "fault" ? "; the controller would refuse the move. " : ". ";

@@ -21,8 +21,7 @@
  *
  * @module
  */
-import { gravityEffortAtLastPose, inverseDynamics } from "../arm/dynamics";
-import { toolSpeedAt } from "../arm/tool-speed";
+import { gravityEffortAtLastPose, inverseDynamics, toolSpeedAtLastPose } from "../arm/dynamics";
 import { scalingAt } from "../motion/shapes";
 import type { ArmState } from "./arm-state";
 
@@ -76,11 +75,12 @@ function evaluatePoint(s: ArmState, path: MovePath, tau: number, out: Float64Arr
   }
   inverseDynamics(s.chain, s.dynamics, q, qd, qdd, tmp, 0, 0, false, false);
   for (let i = 0; i < n; i++) out[offset + i] = tmp[i];
+  // the tool speed from the same forward pass (its rotations and angular velocities)
+  out[offset + 2 * n + 1] = toolSpeedAtLastPose(s.chain, s.dynamics, qd);
   // gravity at the same pose, reusing the link rotations of the call above
   gravityEffortAtLastPose(s.chain, s.dynamics, tmp);
   for (let i = 0; i < n; i++) out[offset + n + i] = tmp[i];
   out[offset + 2 * n] = s.scale[1];
-  out[offset + 2 * n + 1] = toolSpeedAt(s.toolSpeed, q, qd);
 }
 
 /** The grid τ values of a path: uniform, plus the trapezoid's blend ends where they fall between. */

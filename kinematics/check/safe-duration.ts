@@ -45,6 +45,9 @@ export interface SafeDuration {
 /** Confirmation rounds before giving up on a closed-form candidate (each raises it). */
 const maxRounds = 60;
 
+/** Relative width of the bracket at which the bisection of a shortest safe duration stops. */
+const bisectionTolerance = 2 ** -18;
+
 /** Longest duration considered (s): beyond it the move counts as unfixable by timing. */
 export const longestTimingFixS = 1e7;
 
@@ -149,19 +152,24 @@ export function moveSafeDuration(
   /**
    * The closed form bounds over the path grid, which lies between the control samples the check
    * evaluates; lower a passing duration by bisection to where the samples start to fault.
+   * `faulting`, when known, is a shorter duration that faults (the bracket's lower end).
    */
-  const lowest = (passing: number): number => {
+  const lowest = (passing: number, faulting?: number): number => {
     let hi = passing;
-    let lo = Math.max(jointOnly.durationS, hi * (1 - 1 / 16));
-    // step down while shorter still passes (a trapezoid's blend changes the path with T)
-    while (lo < hi && !faults(lo)) {
-      hi = lo;
-      if (lo <= jointOnly.durationS) return hi;
-      lo = Math.max(jointOnly.durationS, lo * (1 - 1 / 16));
+    let lo = faulting !== undefined && faulting < hi ? Math.max(faulting, jointOnly.durationS) : NaN;
+    if (Number.isNaN(lo)) {
+      lo = Math.max(jointOnly.durationS, hi * (1 - 1 / 16));
+      // step down while shorter still passes (a trapezoid's blend changes the path with T)
+      while (lo < hi && !faults(lo)) {
+        hi = lo;
+        if (lo <= jointOnly.durationS) return hi;
+        lo = Math.max(jointOnly.durationS, lo * (1 - 1 / 16));
+      }
     }
-    if (!(lo < hi)) return hi;
-    for (let it = 0; it < 14; it++) {
+    // bisect to 2⁻¹⁸ of the duration (4 µs in 1 s), far below the millisecond the fixes round up to
+    while (hi - lo > hi * bisectionTolerance) {
       const mid = (lo + hi) / 2;
+      if (!(mid > lo && mid < hi)) break;
       if (faults(mid)) lo = mid;
       else hi = mid;
     }
@@ -171,6 +179,8 @@ export function moveSafeDuration(
   let T = jointOnly.durationS;
   let lastBlend = NaN;
   let setBy: { check: TimingCheck | null; joint: number } = { check: limiting(T), joint: jointOnly.joint };
+  // the candidates that faulted, latest last (a trapezoid's are extrapolated, see below)
+  const faulted: number[] = [];
   for (let round = 0; round < maxRounds; round++) {
     const path = pathAt(T);
     if (path.blend !== lastBlend) visited.length = 0; // refinement points of another path
@@ -194,15 +204,32 @@ export function moveSafeDuration(
         setBy = { check: "tool-speed", joint: -1 };
       }
     }
+    // the closed form made no progress on the points it knows (rounding): step on
+    if (round > 0 && candidate <= T) candidate = Math.max(T * (1 + 1e-9), T + Number.EPSILON);
+    // A trapezoid's path changes with its duration (the blend), so the closed form of one path
+    // undershoots the next and the candidates creep up geometrically: after three, jump to their
+    // Aitken Δ² limit (Burden & Faires, Numerical Analysis, §2.5 — memory). The jump is only a
+    // guess; a jump that faults is one more faulting candidate, one that passes is lowered below.
+    const k = faulted.length;
+    if (path.blend > 0 && k >= 2) {
+      const d1 = faulted[k - 1] - faulted[k - 2],
+        d2 = candidate - faulted[k - 1];
+      const ratio = d2 / d1;
+      if (d1 > 0 && d2 > 0 && ratio < 0.95) candidate += (d2 * ratio) / (1 - ratio);
+    }
     if (candidate > longestTimingFixS) return { durationS: null, joint: setBy.joint, check: setBy.check };
     const fault = failing(candidate);
-    if (!fault) return { durationS: lowest(candidate), joint: setBy.joint, check: setBy.check };
+    if (!fault) return { durationS: lowest(candidate, faulted[k - 1]), joint: setBy.joint, check: setBy.check };
     setBy = fault;
-    // the next closed form includes the points this confirmation refined, and never goes back
-    T = Math.max(candidate * (1 + 1e-9), candidate + Number.EPSILON);
+    faulted.push(candidate);
+    // The next round works on the path at `candidate` (the same path for the polynomial shapes; for
+    // a trapezoid, the path whose samples just faulted), so its closed form includes the points this
+    // confirmation refined and the candidate grows past them.
+    T = candidate;
   }
-  // No convergence (a trapezoid whose blend keeps moving the path): double until it passes.
+  // No convergence: double until it passes, then lower as above.
   for (let k = 0; k < 64 && T <= longestTimingFixS; k++, T *= 2)
-    if (!faults(T)) return { durationS: T, joint: setBy.joint, check: setBy.check };
+    if (!faults(T))
+      return { durationS: lowest(T, k > 0 ? T / 2 : faulted.at(-1)), joint: setBy.joint, check: setBy.check };
   return { durationS: null, joint: setBy.joint, check: setBy.check };
 }

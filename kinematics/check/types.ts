@@ -40,7 +40,7 @@ export interface MoveContext extends PlanContext {
    * acceleration, effort, tool speed) faults, and what sets it; `durationS` null when none passes.
    */
   minSafe: SafeDuration;
-  /** The same within the caution ratio of every limit (no timing-dependent caution either). */
+  /** The same within the caution ratio of every limit (no timing-dependent caution either); `check()` finds it only when a checker reads it. */
   minCalm: SafeDuration;
   /**
    * Start time of the move (s) that finding times are counted from: `check()` passes 0 and adds the

@@ -8,7 +8,9 @@ import {
   gravityEffort,
   gravityEffortAtLastPose,
   inverseDynamics,
+  toolSpeedAtLastPose,
 } from "@/kinematics/arm/dynamics";
+import { createToolSpeedScanner, toolSpeedAt } from "@/kinematics/arm/tool-speed";
 import { readJson } from "./helpers";
 import { expectClose } from "../tolerance";
 
@@ -208,5 +210,69 @@ describe("gravity at the last pose", () => {
       }),
       { numRuns: 100, seed: 5 },
     );
+  });
+});
+
+describe("tool speed at the last pose", () => {
+  it("is the elbow speed l₁·|q̇₁| of the planar two-link arm (tool point at the second joint; Siciliano et al. 2009, §3.1 — memory)", () => {
+    const chain = twoLink(1, 1, 0.7, 0.4);
+    const ws = createDynamicsWorkspace(chain);
+    for (const [q, qd] of [
+      [
+        [0.3, -1.1],
+        [2, 5],
+      ],
+      [
+        [-2, 0.4],
+        [-0.5, 0],
+      ],
+    ] as const) {
+      inverseDynamics(chain, ws, q, qd, [0, 0], new Float64Array(2));
+      expectClose(toolSpeedAtLastPose(chain, ws, qd), 0.7 * Math.abs(qd[0]), 1e-12, 1e-15, `q=${q}`);
+    }
+  });
+
+  it("moves the tool point by ḋ along a prismatic joint's axis after a revolute joint (rigid-body velocity, derived)", () => {
+    const chain = compileChain(
+      armChainSchema.parse({
+        joints: [
+          { axis: [0, 0, 1], link: { inertial: { mass: 1, com: [0.1, 0, 0] } } },
+          { origin: { xyz: [0.5, 0, 0] }, axis: [1, 0, 0], link: { inertial: { mass: 0.5, com: [0, 0, 0] } } },
+        ],
+        tool: { xyz: [0, 0, 0] },
+      }),
+      ["revolute", "prismatic"],
+    );
+    const ws = createDynamicsWorkspace(chain);
+    // q = (0, d): the tool point at x = 0.5 + d; joint 1 spins it about z, joint 2 slides it along x
+    const d = 0.2,
+      w = 3,
+      dd = -0.4;
+    inverseDynamics(chain, ws, [0, d], [w, dd], [0, 0], new Float64Array(2));
+    expectClose(toolSpeedAtLastPose(chain, ws, [w, dd]), Math.hypot(dd, w * (0.5 + d)), 1e-12, 1e-15, "speed");
+  });
+
+  it("equals |J_v(q)·q̇| from the geometric Jacobian on both demo arms at any pose and velocity", () => {
+    for (const file of ["bench-arm-h.json", "bench-arm-l.json"]) {
+      const arm = readJson(`kinematics/arm/presets/${file}`) as {
+        chain: unknown;
+        joints: { type?: "revolute" | "prismatic" }[];
+      };
+      const chain = compileChain(
+        armChainSchema.parse(arm.chain),
+        arm.joints.map((j) => j.type ?? "revolute"),
+      );
+      const n = chain.jointCount;
+      const ws = createDynamicsWorkspace(chain);
+      const scanner = createToolSpeedScanner(chain);
+      const vec = fc.array(fc.double({ min: -3, max: 3, noNaN: true }), { minLength: n, maxLength: n });
+      fc.assert(
+        fc.property(vec, vec, vec, (q, qd, qdd) => {
+          inverseDynamics(chain, ws, q, qd, qdd, new Float64Array(n));
+          expectClose(toolSpeedAtLastPose(chain, ws, qd), toolSpeedAt(scanner, q, qd), 1e-12, 1e-12, file);
+        }),
+        { numRuns: 200, seed: 11 },
+      );
+    }
   });
 });

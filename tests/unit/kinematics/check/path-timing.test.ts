@@ -9,6 +9,7 @@ import { stateOf } from "@/kinematics/check/arm-state";
 import { movePath, pathPeaks, createPathPeaks } from "@/kinematics/check/move-path";
 import { scalingAt, shapeId } from "@/kinematics/motion/shapes";
 import { readJson } from "../arm/helpers";
+import { heavyPlan } from "@/bench/plans";
 import { expectClose } from "../tolerance";
 
 type ArmDoc = { joints: { min: number; max: number; maxEffort?: number }[] } & Record<string, unknown>;
@@ -187,6 +188,23 @@ describe("shortest safe duration over every timing-dependent check", () => {
       { numRuns: 30, seed: 21 },
     );
     expect(shortened).toBeGreaterThan(20);
+  });
+
+  it("a trapezoid whose blend moves with its duration gets its shortest safe duration, not a doubled one (10-move plan of 2 s moves on the heavy arm)", () => {
+    // The trapezoid's path changes with T, so the closed-form candidates creep up; the search once ran
+    // out of rounds and returned twice the shortest duration (move 3: 1.758 s where 0.879 s passes).
+    const plan = parse(heavyPlan(10));
+    const report = check(plan);
+    let trapezoids = 0;
+    report.moves.forEach((m, i) => {
+      const safe = m.minSafeDuration;
+      if (safe === null || safe === 0) return;
+      if (plan.moves[i].shape === "trapezoid") trapezoids++;
+      expect(timingFaults(check(withDuration(plan, i, safe)), i).map((f) => f.message)).toEqual([]);
+      // within 10⁻⁴ of the shortest: a hair shorter already faults
+      expect(timingFaults(check(withDuration(plan, i, safe * (1 - 1e-4))), i).length).toBeGreaterThan(0);
+    });
+    expect(trapezoids).toBeGreaterThanOrEqual(3);
   });
 
   it("scale to pass gives a plan whose timed moves pass speed, acceleration, effort and tool speed, or no factor", () => {
