@@ -213,7 +213,10 @@ interface ChannelPeak {
  * Deterministic for a given path, duration and rate (the memo only saves work). With `stopAbove`,
  * the scan ends as soon as the peak found exceeds it (the peak only grows, so "exceeds" is then
  * final); the traversal up to that point is the same as without it. `visited`, when given,
- * receives the τ of every evaluated sample.
+ * receives the τ of every evaluated sample. With a finite `threshold`, only the samples that could
+ * exceed it are evaluated (intervals whose bound is at or below it are skipped, and there are no
+ * seeds): the peak is then exact when it exceeds the threshold and otherwise only at most it
+ * (−1 when no sample was evaluated) — enough to tell whether anything exceeds a limit.
  */
 function channelPeak(
   s: ArmState,
@@ -224,6 +227,7 @@ function channelPeak(
   best: ChannelPeak,
   stopAbove = Infinity,
   visited?: number[],
+  threshold = -Infinity,
 ): ChannelPeak {
   const n = path.n;
   const stride = 2 * n + 2;
@@ -254,11 +258,14 @@ function channelPeak(
       if (v > stopAbove) stopped = true;
     }
   };
-  // seed with the ends and the samples around the largest grid value
-  evaluate(0);
-  evaluate(last);
-  const around = Math.floor(tau[gridMax] * perTau);
-  for (let k = Math.max(0, around - 1); k <= Math.min(last, around + 2); k++) evaluate(k);
+  // seed with the ends and the samples around the largest grid value (a threshold scan needs no
+  // seeds: only intervals whose bound passes the threshold are looked at)
+  if (threshold === -Infinity) {
+    evaluate(0);
+    evaluate(last);
+    const around = Math.floor(tau[gridMax] * perTau);
+    for (let k = Math.max(0, around - 1); k <= Math.min(last, around + 2); k++) evaluate(k);
+  }
   // Curvature estimate at each grid point from divided differences (0 at the ends).
   const curvature = (k: number) => {
     if (k <= 0 || k >= count - 1) return 0;
@@ -270,7 +277,7 @@ function channelPeak(
     if (stopped) return;
     const h = b - a;
     const bound = Math.max(va, vb) + (curvatureSafety * K * h * h) / 8;
-    if (bound <= best.peak * (1 + 1e-12) + 1e-300) return;
+    if (bound <= best.peak * (1 + 1e-12) + 1e-300 || bound <= threshold) return;
     const k0 = Math.ceil(a * perTau - 1e-9),
       k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
     if (k1 < k0) return;
@@ -349,9 +356,34 @@ export function pathExceeds(
   const best: ChannelPeak = { peak: -1, tau: 0 };
   for (const c of order) {
     if (above[c] === Infinity) continue;
-    if (channelPeak(s, path, durationS, rateHz, c, best, above[c]).peak > above[c]) return c;
+    if (channelPeak(s, path, durationS, rateHz, c, best, above[c], undefined, above[c]).peak > above[c]) return c;
   }
   return -1;
+}
+
+/**
+ * The first channel (efforts of the chain joints in order, then the tool speed) whose peak along the
+ * path at `durationS` exceeds `above[c]`, or −1: the answer of {@link pathExceeds}, but every channel
+ * is scanned to the end, and `visited` receives every sample that could exceed its limit (each
+ * channel scanned only where its bound passes the limit), for the next closed form of the search.
+ */
+export function pathOverLimits(
+  s: ArmState,
+  path: MovePath,
+  durationS: number,
+  rateHz: number,
+  above: Float64Array,
+  visited: number[],
+): number {
+  if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
+  const best: ChannelPeak = { peak: -1, tau: 0 };
+  let first = -1;
+  for (let c = 0; c < above.length; c++) {
+    if (above[c] === Infinity) continue;
+    if (channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited, above[c]).peak > above[c] && first < 0)
+      first = c;
+  }
+  return first;
 }
 
 /** The largest |gⱼ| (gravity alone, N·m or N) over the grid points of the path, and where (τ). */
