@@ -67,6 +67,8 @@ export interface DataTableProps<T extends object> {
   /** Text to filter rows by (over every text and number column); empty shows all. */
   filter?: string;
   initialSorting?: SortingState;
+  /** Told of every sorting change (after the table has taken it), e.g. to keep it in the URL. */
+  onSortingChange?: (sorting: SortingState) => void;
   /** What to show when there are no rows at all. */
   empty?: ReactNode;
   /** What to show when the filter leaves no rows. */
@@ -76,6 +78,8 @@ export interface DataTableProps<T extends object> {
   className?: string;
   rowClassName?: string;
   testId?: string;
+  /** `data-testid` on every body row, for browser tests that pick a row by its text. */
+  rowTestId?: string;
 }
 
 export function DataTable<T extends object>({
@@ -85,12 +89,14 @@ export function DataTable<T extends object>({
   getRowId,
   filter = "",
   initialSorting = [],
+  onSortingChange,
   empty,
   noMatch,
   maxHeightPx = 560,
   className,
   rowClassName,
   testId,
+  rowTestId,
 }: DataTableProps<T>) {
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
   const table = useTable({
@@ -99,7 +105,11 @@ export function DataTable<T extends object>({
     data,
     getRowId: (row) => getRowId(row),
     state: { sorting, globalFilter: filter },
-    onSortingChange: setSorting,
+    onSortingChange: (updater) => {
+      const next = typeof updater === "function" ? updater(sorting) : updater;
+      setSorting(next);
+      onSortingChange?.(next);
+    },
     globalFilterFn: "includesString",
     enableSortingRemoval: false,
   });
@@ -177,6 +187,7 @@ export function DataTable<T extends object>({
             <tr
               key={row.id}
               className={cn("hover:bg-paper", rowClassName)}
+              data-testid={rowTestId}
               aria-rowindex={(items ? items[i].index : i) + 2}
             >
               {row.getAllCells().map((cell) => {

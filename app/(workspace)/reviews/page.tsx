@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { listOwnSubmissions, listCoursesForUser } from "@/db/queries/courses";
 import { listReviewQueue } from "@/db/queries/reviews";
-import { ReviewQueue, waitingFirst } from "@/components/review/review-queue";
+import { ReviewQueue } from "@/components/review/review-queue";
 import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
 import { requirePageActor } from "@/lib/server/page-actor";
 import { capabilities } from "@/lib/server/permissions";
@@ -11,7 +11,7 @@ export const dynamic = "force-dynamic";
 
 type Search = Record<string, string | string[] | undefined>;
 
-/** The review queue (submissions to the courses the caller teaches), filtered and sorted by the URL; and the caller's own submissions. */
+/** The review queue (submissions to the courses the caller teaches), filtered by the URL and first sorted as it says; and the caller's own submissions. */
 export default async function ReviewsPage({ searchParams }: { searchParams: Promise<Search> }) {
   const raw = await searchParams;
   const actor = await requirePageActor("/reviews");
@@ -25,8 +25,8 @@ export default async function ReviewsPage({ searchParams }: { searchParams: Prom
     listOwnSubmissions({ userId: actor.userId }),
     listCoursesForUser({ userId: actor.userId }),
   ]);
-  // no column chosen in the URL: waiting first, oldest first
-  const defaultOrder = !parsed.success || flat.sort === undefined;
+  // no column chosen in the URL: waiting first, oldest first (the table orders the rows so)
+  const initialSort = parsed.success && flat.sort !== undefined ? { column: filter.sort, order: filter.order } : null;
   const rows = queue.map((q) => ({ ...q, submittedAt: q.submittedAt.toISOString(), dueAt: q.dueAt.toISOString() }));
   const taught = courses.filter((c) => capabilities(actor, { kind: "course", role: c.role }).canReview);
   return (
@@ -34,8 +34,8 @@ export default async function ReviewsPage({ searchParams }: { searchParams: Prom
       filter={filter}
       teaches={taught.length > 0}
       courses={taught.map((c) => ({ id: c.id, title: c.title }))}
-      queue={defaultOrder ? waitingFirst(rows) : rows}
-      defaultOrder={defaultOrder}
+      queue={rows}
+      initialSort={initialSort}
       mine={mine.map((m) => ({
         id: m.id,
         assignmentTitle: m.assignmentTitle,
