@@ -13,7 +13,6 @@ import { DateTime } from "@/components/ui/date-time";
 import { SelectField, TextAreaField, TextField } from "@/components/ui/field";
 import { applyApiIssues, apiIssues, fieldMessage, formFailure, numberOrEmpty } from "@/components/ui/form";
 import { EmptyState, ErrorNote, Panel } from "@/components/ui/panel";
-import { Table, Td, Th } from "@/components/ui/table";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import { api } from "@/lib/client/api-client";
 import type { CourseCapabilities } from "@/lib/server/permissions";
@@ -83,73 +82,116 @@ export function CourseView({ course, can, assignments, roster, arms, plans }: Co
       {can.canManage ? <InstructorTools course={course} can={can} /> : null}
       <h2 className="mt-8 text-lg font-semibold">Assignments</h2>
       <Panel className="mt-2 overflow-x-auto">
-        {assignments.length === 0 ? (
-          <div className="p-4">
-            <EmptyState title="No assignments yet">
-              {teaches ? "Set the first one below." : "Your instructor has not set one yet."}
-            </EmptyState>
-          </div>
-        ) : (
-          <Table aria-label="Assignments">
-            <thead>
-              <tr>
-                <Th>Assignment</Th>
-                <Th>Due</Th>
-                {teaches ? null : <Th>Status</Th>}
-                {teaches ? <Th>Review</Th> : <Th>Preview and submit a saved plan version</Th>}
-              </tr>
-            </thead>
-            <tbody>
-              {assignments.map((a) => (
-                <tr key={a.id} data-testid="assignment-row">
-                  <Td>
-                    <p className="font-medium">{a.title}</p>
-                    {a.instructions ? <p className="max-w-md text-xs text-ink-soft">{a.instructions}</p> : null}
-                    {teaches ? <InstructorBenchLink assignmentId={a.id} plans={plans} /> : null}
-                  </Td>
-                  <Td className="text-xs whitespace-nowrap">
-                    <DateTime value={a.dueAt} className="tabular" />
-                  </Td>
-                  {teaches ? (
-                    <Td>
-                      <Link className="text-brand-700 hover:underline" href={`/reviews?assignmentId=${a.id}`}>
-                        Submissions
-                      </Link>
-                    </Td>
-                  ) : (
-                    <>
-                      <Td className="text-xs">
-                        {statusWords[a.status]}
-                        {a.latestSubmissionId ? (
-                          <>
-                            {" "}
-                            ·{" "}
-                            <Link className="text-brand-700 hover:underline" href={`/reviews/${a.latestSubmissionId}`}>
-                              open
-                            </Link>
-                          </>
-                        ) : null}
-                      </Td>
-                      <Td>
-                        <SubmitForm
-                          assignmentId={a.id}
-                          plans={plans}
-                          disabled={!can.canSubmit || a.status === "submitted" || a.status === "approved"}
-                        />
-                      </Td>
-                    </>
-                  )}
-                </tr>
-              ))}
-            </tbody>
-          </Table>
-        )}
+        <DataTable
+          label="Assignments"
+          data={assignments.map((a) => ({ ...a, plans, canSubmit: can.canSubmit }))}
+          columns={teaches ? instructorAssignmentColumns : studentAssignmentColumns}
+          getRowId={(a) => a.id}
+          initialSorting={[{ id: "dueAt", desc: false }]}
+          rowTestId="assignment-row"
+          empty={
+            <div className="p-4">
+              <EmptyState title="No assignments yet">
+                {teaches ? "Set the first one below." : "Your instructor has not set one yet."}
+              </EmptyState>
+            </div>
+          }
+        />
       </Panel>
       {can.canSetAssignments ? <NewAssignment courseId={course.id} arms={arms} plans={plans} /> : null}
       {can.canReadRoster ? <Roster courseId={course.id} roster={roster} canManage={can.canManageRoster} /> : null}
     </div>
   );
 }
+
+/** One row of the assignments table: the assignment, with what its cells need to offer a submission. */
+type AssignmentRow = CourseViewProps["assignments"][number] & { plans: PlanChoice[]; canSubmit: boolean };
+const assignmentCol = columnsFor<AssignmentRow>();
+
+/** A student's statuses in the order of what is left to do: nothing yet, a draft, returned work, then waiting and done. */
+const statusRank: Record<Status, number> = { "not-started": 0, draft: 1, returned: 2, submitted: 3, approved: 4 };
+
+const titleColumn = (teaches: boolean) =>
+  assignmentCol.accessor("title", {
+    header: "Assignment",
+    sortFn: "text",
+    cell: (c) => {
+      const a = c.row.original;
+      return (
+        <>
+          <p className="font-medium">{a.title}</p>
+          {a.instructions ? <p className="max-w-md text-xs text-ink-soft">{a.instructions}</p> : null}
+          {teaches ? <InstructorBenchLink assignmentId={a.id} plans={a.plans} /> : null}
+        </>
+      );
+    },
+  });
+
+const dueColumn = assignmentCol.accessor("dueAt", {
+  header: "Due",
+  sortFn: "basic",
+  enableGlobalFilter: false,
+  meta: { cellClassName: "text-xs whitespace-nowrap" },
+  cell: (c) => <DateTime value={c.getValue()} className="tabular" />,
+});
+
+// Module-level columns: a cell function keeps its identity across refreshes, so a row's submit form
+// (and the result it shows) is not remounted when the page's data is reloaded after a submission.
+const instructorAssignmentColumns = assignmentCol.columns([
+  titleColumn(true),
+  dueColumn,
+  assignmentCol.display({
+    id: "review",
+    header: "Review",
+    cell: (c) => (
+      <Link className="text-brand-700 hover:underline" href={`/reviews?assignmentId=${c.row.original.id}`}>
+        Submissions
+      </Link>
+    ),
+  }),
+]);
+
+const studentAssignmentColumns = assignmentCol.columns([
+  titleColumn(false),
+  dueColumn,
+  assignmentCol.accessor((a) => statusWords[a.status], {
+    id: "status",
+    header: "Status",
+    sortFn: (a, b) => statusRank[a.original.status] - statusRank[b.original.status],
+    meta: { cellClassName: "text-xs" },
+    cell: (c) => {
+      const a = c.row.original;
+      return (
+        <>
+          {c.getValue()}
+          {a.latestSubmissionId ? (
+            <>
+              {" "}
+              ·{" "}
+              <Link className="text-brand-700 hover:underline" href={`/reviews/${a.latestSubmissionId}`}>
+                open
+              </Link>
+            </>
+          ) : null}
+        </>
+      );
+    },
+  }),
+  assignmentCol.display({
+    id: "submit",
+    header: "Preview and submit a saved plan version",
+    cell: (c) => {
+      const a = c.row.original;
+      return (
+        <SubmitForm
+          assignmentId={a.id}
+          plans={a.plans}
+          disabled={!a.canSubmit || a.status === "submitted" || a.status === "approved"}
+        />
+      );
+    },
+  }),
+]);
 
 /** An instructor tries an assignment's rules on one of their own plans. */
 function InstructorBenchLink({ assignmentId, plans }: { assignmentId: string; plans: PlanChoice[] }) {
