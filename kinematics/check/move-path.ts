@@ -343,6 +343,9 @@ export function pathPeaks(
  * speed) whose peak along the path at `durationS` exceeds `above[c]`, or −1 when none does: the
  * same answer as comparing the peaks of {@link pathPeaks} with `above`, but each channel's scan
  * stops at the first sample over its limit, and a channel whose limit is Infinity is not scanned.
+ * `ratio[0]`, when given, receives the largest peak ÷ limit among the samples evaluated (over 1 when
+ * something exceeds: the first such sample's; NaN when no sample was evaluated), an estimate for the
+ * search's interpolation that never decides a verdict.
  */
 export function pathExceeds(
   s: ArmState,
@@ -351,12 +354,16 @@ export function pathExceeds(
   rateHz: number,
   above: Float64Array,
   order: readonly number[],
+  ratio?: Float64Array,
 ): number {
   if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
   const best: ChannelPeak = { peak: -1, tau: 0 };
+  if (ratio) ratio[0] = NaN;
   for (const c of order) {
     if (above[c] === Infinity) continue;
-    if (channelPeak(s, path, durationS, rateHz, c, best, above[c], undefined, above[c]).peak > above[c]) return c;
+    const peak = channelPeak(s, path, durationS, rateHz, c, best, above[c], undefined, above[c]).peak;
+    if (ratio && peak >= 0 && !(peak / above[c] <= ratio[0])) ratio[0] = peak / above[c];
+    if (peak > above[c]) return c;
   }
   return -1;
 }
@@ -365,7 +372,8 @@ export function pathExceeds(
  * The first channel (efforts of the chain joints in order, then the tool speed) whose peak along the
  * path at `durationS` exceeds `above[c]`, or −1: the answer of {@link pathExceeds}, but every channel
  * is scanned to the end, and `visited` receives every sample that could exceed its limit (each
- * channel scanned only where its bound passes the limit), for the next closed form of the search.
+ * channel scanned only where its bound passes the limit), for the next closed form of the search;
+ * `ratio[0]` as in {@link pathExceeds}, over every channel.
  */
 export function pathOverLimits(
   s: ArmState,
@@ -374,14 +382,17 @@ export function pathOverLimits(
   rateHz: number,
   above: Float64Array,
   visited: number[],
+  ratio?: Float64Array,
 ): number {
   if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
   const best: ChannelPeak = { peak: -1, tau: 0 };
+  if (ratio) ratio[0] = NaN;
   let first = -1;
   for (let c = 0; c < above.length; c++) {
     if (above[c] === Infinity) continue;
-    if (channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited, above[c]).peak > above[c] && first < 0)
-      first = c;
+    const peak = channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited, above[c]).peak;
+    if (ratio && peak >= 0 && !(peak / above[c] <= ratio[0])) ratio[0] = peak / above[c];
+    if (peak > above[c] && first < 0) first = c;
   }
   return first;
 }

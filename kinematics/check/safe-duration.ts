@@ -117,12 +117,15 @@ export function moveSafeDuration(
   const visited: number[] = [];
   const v = new Float64Array(joints.length),
     a = new Float64Array(joints.length);
+  // peak ÷ limit of the last scan (NaN when unknown): only steers the bisection below
+  const ratio = new Float64Array(1);
   /** What faults at T: null when nothing does. */
   const failing = (T: number): { check: TimingCheck; joint: number } | null => {
+    ratio[0] = NaN;
     if (!withinLimits(shape, delta, T, joints, limitScale, v, a))
       return { check: limiting(T) ?? "speed", joint: jointOnly.joint };
     visited.length = 0;
-    const c = pathOverLimits(state, pathAt(T), T, rateHz, above, visited);
+    const c = pathOverLimits(state, pathAt(T), T, rateHz, above, visited, ratio);
     if (c < 0) return null;
     return c < n ? { check: "effort", joint: c } : { check: "tool-speed", joint: -1 };
   };
@@ -133,8 +136,9 @@ export function moveSafeDuration(
    * channel that faulted last is scanned first, which changes the work, not the answer.
    */
   const faults = (T: number): boolean => {
+    ratio[0] = NaN;
     if (!withinLimits(shape, delta, T, joints, limitScale, v, a)) return true;
-    const c = pathExceeds(state, pathAt(T), T, rateHz, above, order);
+    const c = pathExceeds(state, pathAt(T), T, rateHz, above, order, ratio);
     if (c >= 0 && order[0] !== c) {
       order.splice(order.indexOf(c), 1);
       order.unshift(c);
@@ -144,27 +148,55 @@ export function moveSafeDuration(
 
   /**
    * The closed form bounds over the path grid, which lies between the control samples the check
-   * evaluates; lower a passing duration by bisection to where the samples start to fault.
-   * `faulting`, when known, is a shorter duration that faults (the bracket's lower end).
+   * evaluates; lower a passing duration to where the samples start to fault. `faulting`, when
+   * known, is a shorter duration that faults (the bracket's lower end); `ratioHi` and `ratioLo` the
+   * peak ÷ limit measured at both ends (NaN when unknown).
+   *
+   * Every probe is decided by `faults`; the peak ratios only choose where to probe: by regula falsi
+   * with the Illinois modification (Dowell & Jarratt, BIT 11, 1971 — memory), which brackets like
+   * bisection but needs a few probes where bisection needs ten, and each probe near the answer is
+   * the expensive kind (the peak channel is refined down to its samples).
    */
-  const lowest = (passing: number, faulting?: number): number => {
+  const lowest = (passing: number, faulting?: number, ratioHi = NaN, ratioLo = NaN): number => {
     let hi = passing;
-    let lo = faulting !== undefined && faulting < hi ? Math.max(faulting, jointOnly.durationS) : NaN;
-    if (Number.isNaN(lo)) {
+    let lo: number;
+    if (faulting !== undefined && faulting < hi && faulting >= jointOnly.durationS) lo = faulting;
+    else {
+      ratioLo = NaN;
       lo = Math.max(jointOnly.durationS, hi * (1 - 1 / 16));
       // step down while shorter still passes (a trapezoid's blend changes the path with T)
       while (lo < hi && !faults(lo)) {
         hi = lo;
+        ratioHi = ratio[0];
         if (lo <= jointOnly.durationS) return hi;
         lo = Math.max(jointOnly.durationS, lo * (1 - 1 / 16));
       }
+      ratioLo = ratio[0];
     }
-    // bisect to 2⁻¹⁴ of the duration (61 µs in 1 s), below the millisecond the fixes round up to
+    let gHi = ratioHi - 1,
+      gLo = ratioLo - 1;
+    let side = 0; // −1: the last probe moved lo, +1: hi
     while (hi - lo > hi * bisectionTolerance) {
-      const mid = (lo + hi) / 2;
+      const width = hi - lo,
+        tol = hi * bisectionTolerance;
+      let mid = (lo + hi) / 2;
+      if (gLo > 0 && gHi <= 0 && Number.isFinite(gLo - gHi)) {
+        mid = lo + (width * gLo) / (gLo - gHi);
+        // a probe within the tolerance of an end closes the bracket on the next probe
+        mid = Math.min(Math.max(mid, lo + tol / 2), hi - tol / 2);
+      }
       if (!(mid > lo && mid < hi)) break;
-      if (faults(mid)) lo = mid;
-      else hi = mid;
+      if (faults(mid)) {
+        lo = mid;
+        gLo = ratio[0] - 1;
+        if (side === -1) gHi /= 2; // Illinois: the other end's value halved when one end repeats
+        side = -1;
+      } else {
+        hi = mid;
+        gHi = ratio[0] - 1;
+        if (side === 1) gLo /= 2;
+        side = 1;
+      }
     }
     return hi;
   };
@@ -174,6 +206,7 @@ export function moveSafeDuration(
   let setBy: { check: TimingCheck | null; joint: number } = { check: limiting(T), joint: jointOnly.joint };
   // the candidates that faulted, latest last (a trapezoid's are extrapolated, see below)
   const faulted: number[] = [];
+  let faultedRatio = NaN;
   for (let round = 0; round < maxRounds; round++) {
     const path = pathAt(T);
     if (path.blend !== lastBlend) visited.length = 0; // refinement points of another path
@@ -212,9 +245,15 @@ export function moveSafeDuration(
     }
     if (candidate > longestTimingFixS) return { durationS: null, joint: setBy.joint, check: setBy.check };
     const fault = failing(candidate);
-    if (!fault) return { durationS: lowest(candidate, faulted[k - 1]), joint: setBy.joint, check: setBy.check };
+    if (!fault)
+      return {
+        durationS: lowest(candidate, faulted[k - 1], ratio[0], faultedRatio),
+        joint: setBy.joint,
+        check: setBy.check,
+      };
     setBy = fault;
     faulted.push(candidate);
+    faultedRatio = ratio[0];
     // The next round works on the path at `candidate` (the same path for the polynomial shapes; for
     // a trapezoid, the path whose samples just faulted), so its closed form includes the points this
     // confirmation refined and the candidate grows past them.
