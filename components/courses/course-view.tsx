@@ -158,7 +158,7 @@ const studentAssignmentColumns = assignmentCol.columns([
     id: "status",
     header: "Status",
     sortFn: (a, b) => statusRank[a.original.status] - statusRank[b.original.status],
-    meta: { cellClassName: "text-xs" },
+    meta: { cellClassName: "text-xs whitespace-nowrap" },
     cell: (c) => {
       const a = c.row.original;
       return (
