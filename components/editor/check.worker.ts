@@ -1,11 +1,10 @@
 /// <reference lib="webworker" />
 /**
- * The full live check off the main thread: the arm model's checks (effort along the sampled moves,
- * clearance, tool speed) take tens of milliseconds on a plan of a few seconds, more than a frame.
- * The report goes back first; the quick fixes follow, since each is checked on a copy of the plan.
+ * The full live check off the main thread: the arm model's checks (effort along the moves,
+ * clearance, tool speed) can take more than a frame on a long plan. This worker only checks, so an
+ * edit's report never waits behind the quick fixes of an earlier edit (fixes.worker.ts finds those).
  */
 import { check } from "@/kinematics";
-import { quickFixes } from "./quick-fixes";
 import type { BenchPlan } from "./plan-state";
 
 export interface CheckRequest {
@@ -19,7 +18,6 @@ self.onmessage = (event: MessageEvent<CheckRequest>) => {
   try {
     const report = check(plan);
     self.postMessage({ id, report, elapsedMs: performance.now() - t0 });
-    self.postMessage({ id, fixes: quickFixes(plan, report) });
   } catch (err) {
     self.postMessage({ id, error: err instanceof Error ? err.message : String(err) });
   }

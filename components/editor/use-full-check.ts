@@ -23,28 +23,36 @@ interface Result extends FullCheck {
 const empty: Result = { report: null, fixes: null, elapsedMs: null, error: null, plan: null };
 
 /**
- * Runs the engine's full check in a web worker, one plan at a time (a newer edit supersedes the
- * pending one), then its quick fixes. Without workers (old browsers) both run on the main thread after the frame.
+ * Runs the engine's full check in a web worker (a newer edit supersedes the pending one) and its
+ * quick fixes in a second worker, so that a report never waits behind the fixes of an earlier edit.
+ * Without workers (old browsers) both run on the main thread after the frame.
  */
 export function useFullCheck(plan: BenchPlan): FullCheck {
   const worker = useRef<Worker | null>(null);
+  const fixesWorker = useRef<Worker | null>(null);
   const latest = useRef(0);
+  const early = useRef<{ id: number; fixes: QuickFixes } | null>(null);
   const [result, setResult] = useState<Result>(empty);
 
   useEffect(() => {
     if (typeof Worker === "undefined") return;
     const w = new Worker(new URL("./check.worker.ts", import.meta.url), { type: "module" });
+    const f = new Worker(new URL("./fixes.worker.ts", import.meta.url), { type: "module" });
     worker.current = w;
+    fixesWorker.current = f;
     return () => {
       w.terminate();
+      f.terminate();
       worker.current = null;
+      fixesWorker.current = null;
     };
   }, []);
 
   useEffect(() => {
     const id = ++latest.current;
     const w = worker.current;
-    if (!w) {
+    const f = fixesWorker.current;
+    if (!w || !f) {
       const timer = setTimeout(() => {
         const t0 = performance.now();
         const report = check(plan);
@@ -57,13 +65,23 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
       const reply = event.data;
       if (reply.id !== id || id !== latest.current) return;
       if ("error" in reply) setResult({ ...empty, error: reply.error, plan });
-      else if ("report" in reply)
-        setResult({ report: reply.report, fixes: null, elapsedMs: reply.elapsedMs, error: null, plan });
-      else setResult((r) => (r.plan === plan ? { ...r, fixes: reply.fixes } : r));
+      else if ("report" in reply) {
+        // the fixes worker may have answered first: its fixes are kept for this report
+        const fixes = early.current?.id === id ? early.current.fixes : null;
+        setResult({ report: reply.report, fixes, elapsedMs: reply.elapsedMs, error: null, plan });
+      } else {
+        early.current = { id, fixes: reply.fixes };
+        setResult((r) => (r.plan === plan && r.report ? { ...r, fixes: reply.fixes } : r));
+      }
     };
     w.addEventListener("message", onMessage);
+    f.addEventListener("message", onMessage);
     w.postMessage({ id, plan });
-    return () => w.removeEventListener("message", onMessage);
+    f.postMessage({ id, plan });
+    return () => {
+      w.removeEventListener("message", onMessage);
+      f.removeEventListener("message", onMessage);
+    };
   }, [plan]);
 
   const current = result.plan === plan;

@@ -44,6 +44,9 @@ interface CachedMove {
 const moveCache = new Map<string, CachedMove>();
 const maxCachedMoves = 4096;
 
+/** Shortest safe durations (fault and caution limits) by path: everything but the move's duration. */
+const safeCache = new Map<string, { minSafe: MoveContext["minSafe"]; minCalm?: MoveContext["minCalm"] }>();
+
 const checkerIds = new WeakMap<object, number>();
 let nextCheckerId = 1;
 function checkerId(checker: object): number {
@@ -127,11 +130,22 @@ export function check(plan: Plan, options: CheckOptions = {}): Report {
     } else {
       const rateHz = state ? sampleRateOf(state, context) : arm.controlRateHz;
       const from = context.from;
-      context.minSafe = moveSafeDuration(plan, state, from, delta, shape, 1, rateHz);
+      // The shortest safe durations depend on the path, not on the move's duration or place in the
+      // plan: kept by path, so a change of duration does not search again.
+      const pathKey = `${contextKey}|${move.shape}|${Array.from(from).join(",")}|${move.goal.join(",")}`;
+      let durations = reuse ? safeCache.get(pathKey) : undefined;
+      if (durations)
+        safeCache.delete(pathKey); // most recently used last
+      else durations = { minSafe: moveSafeDuration(plan, state, from, delta, shape, 1, rateHz) };
+      if (reuse) {
+        safeCache.set(pathKey, durations);
+        if (safeCache.size > maxCachedMoves) safeCache.delete(safeCache.keys().next().value as string);
+      }
+      context.minSafe = durations.minSafe;
       // within the caution ratio: only a caution's message names it, so it is found when first read
-      let minCalm: MoveContext["minCalm"] | undefined;
+      const known = durations;
       Object.defineProperty(context, "minCalm", {
-        get: () => (minCalm ??= moveSafeDuration(plan, state, from, delta, shape, arm.cautionRatio, rateHz)),
+        get: () => (known.minCalm ??= moveSafeDuration(plan, state, from, delta, shape, arm.cautionRatio, rateHz)),
       });
       const moveFindings: Finding[] = [];
       for (const checker of moveCheckers) checker(context, moveFindings);
