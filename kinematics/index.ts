@@ -22,6 +22,7 @@ export * from "./recordings/recording";
 export * from "./recordings/stream-check";
 export * from "./recordings/repair";
 export * from "./recordings/scan";
+export * from "./recordings/scan-stream";
 export * from "./recordings/csv";
 export * from "./recordings/timed-replay";
 export * from "./recordings/dataset-repair";
