@@ -486,12 +486,15 @@ const maxCertifyPoints = 1024;
  * {@link scanClearanceBounded} (d₀ + d₁ + V·Δτ < 0 for every shape and zone) or halved; it is not
  * certified (false) when a point is not strictly apart from a zone, or after `maxCertifyPoints`
  * evaluations. False says nothing about an intrusion: the caller then scans the samples.
+ * `speedShare(a, b)`, when given, is at least the largest share (0..1) of `linkSpeedPerTau` that the
+ * path reaches on [a, b] (the path's speed along τ varies: a rest-to-rest shape starts and ends at rest).
  */
 export function certifyClearPath(
   scanner: ClearanceScanner,
   positionAt: (tau: number, q: Float64Array) => void,
   linkSpeedPerTau: ArrayLike<number>,
   initial = 16,
+  speedShare?: (a: number, b: number) => number,
 ): boolean {
   const { model, zones } = scanner;
   const pairs = scanner.depths.length;
@@ -506,7 +509,8 @@ export function certifyClearPath(
     for (let p = 0; p < pairs; p++) if (!(d[p] < 0)) return null;
     return d;
   };
-  const intervalClear = (d0: Float64Array, d1: Float64Array, dTau: number): boolean => {
+  const intervalClear = (d0: Float64Array, d1: Float64Array, a: number, b: number): boolean => {
+    const dTau = (b - a) * (speedShare ? speedShare(a, b) : 1);
     for (let s = 0; s < model.count; s++) {
       const reach = linkSpeedPerTau[model.link[s]] * dTau;
       for (let z = 0; z < zonesPer; z++) {
@@ -518,7 +522,7 @@ export function certifyClearPath(
     return true;
   };
   const certify = (a: number, da: Float64Array, b: number, db: Float64Array): boolean => {
-    if (intervalClear(da, db, b - a)) return true;
+    if (intervalClear(da, db, a, b)) return true;
     if (evaluations >= maxCertifyPoints) return false;
     const m = (a + b) / 2;
     const dm = depthsOf(m);

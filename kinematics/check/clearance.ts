@@ -6,7 +6,7 @@
  */
 import { linkSpeedBounds } from "../arm/motion-bounds";
 import { certifyClearPath, scanClearanceBounded } from "../arm/clearance";
-import { scalingAt, velocityFactor } from "../motion/shapes";
+import { scalingAt, speedShareOn, velocityFactor } from "../motion/shapes";
 import type { Finding } from "./report";
 import { sampleGoal, sampleMove, sampleRateOf, stateOf, type ArmState } from "./arm-state";
 import type { MoveChecker, MoveContext } from "./types";
@@ -45,6 +45,8 @@ function pathCertifiedClear(s: ArmState, context: MoveContext): boolean {
   );
   const speeds = linkSpeedBounds(s.reach, s.chain, perTau, new Float64Array(s.n + 1));
   const scale = new Float64Array(3);
+  // on [a, b] the path moves at most this share of its peak speed along τ (with the same rounding margin)
+  const share = (a: number, b: number) => Math.min(1, speedShareOn(shape, blend, a, b, scale) * (1 + 1e-6));
   const clear = certifyClearPath(
     s.clearance,
     (tau, q) => {
@@ -52,6 +54,8 @@ function pathCertifiedClear(s: ArmState, context: MoveContext): boolean {
       for (let i = 0; i < s.n; i++) q[i] = from[i] + scale[0] * delta[i];
     },
     speeds,
+    16,
+    share,
   );
   paths.set(key, clear);
   if (paths.size > maxClearPaths) paths.delete(paths.keys().next().value as string);

@@ -243,3 +243,14 @@ export function shortestDuration(
   }
   return { durationS, joint };
 }
+
+/**
+ * The largest |ds/dτ| of a shape on [a, b] as a share (0..1) of its peak {@link velocityFactor}:
+ * every shape's s′ rises to its peak at τ = ½ and falls back symmetrically (the cubic and the quintic;
+ * the trapezoid rises, cruises and falls), so on [a, b] it is s′ at the point of [a, b] nearest ½.
+ * `scratch` (3 values) is overwritten.
+ */
+export function speedShareOn(shape: number, blend: number, a: number, b: number, scratch: Float64Array): number {
+  scalingAt(shape, blend, Math.min(Math.max(0.5, a), b), scratch);
+  return Math.min(1, Math.abs(scratch[1]) / velocityFactor(shape, blend));
+}

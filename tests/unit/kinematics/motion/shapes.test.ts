@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
 import { parsePlan, type Plan } from "@/kinematics";
-import { scalingAt, shapeId } from "@/kinematics/motion/shapes";
+import { scalingAt, shapeId, speedShareOn, velocityFactor } from "@/kinematics/motion/shapes";
+import fc from "fast-check";
 
 /** |actual − expected| within abs + rel·|expected|. */
 function expectClose(actual: number, expected: number, rel = 1e-9, abs = 1e-12): void {
@@ -121,5 +122,37 @@ describe("rest-to-rest shapes against published values", () => {
     const report = check(planOf({ maxVelocity: 100, maxAcceleration: 0.5 }, 0, d, t, "trapezoid"));
     expectClose(report.moves[0].peakVelocity[0], (2 * d) / t, 1e-12);
     expectClose(report.moves[0].peakAcceleration[0] ?? NaN, (4 * d) / (t * t), 1e-12);
+  });
+});
+
+describe("speed share on an interval (the clearance certification's local speed bound)", () => {
+  it("is at least |s′(τ)| ÷ the shape's peak at every τ of [a, b], and reaches it somewhere there, for every shape and blend", () => {
+    const scratch = new Float64Array(3);
+    const out = new Float64Array(3);
+    fc.assert(
+      fc.property(
+        fc.constantFrom("cubic", "quintic", "trapezoid"),
+        fc.double({ min: 1e-3, max: 0.5, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (name, blendDraw, u, v) => {
+          const shape = shapeId(name);
+          const blend = name === "trapezoid" ? blendDraw : 0;
+          const [a, b] = u <= v ? [u, v] : [v, u];
+          const share = speedShareOn(shape, blend, a, b, scratch);
+          const peak = velocityFactor(shape, blend);
+          let largest = 0;
+          for (let k = 0; k <= 200; k++) {
+            scalingAt(shape, blend, a + ((b - a) * k) / 200, out);
+            const s = Math.abs(out[1]) / peak;
+            largest = Math.max(largest, s);
+            expect(s).toBeLessThanOrEqual(share * (1 + 1e-12) + 1e-15);
+          }
+          // not a loose bound: the densest sample comes within 1% of the interval's share
+          expect(largest).toBeGreaterThanOrEqual(share * 0.99 - 1e-12);
+        },
+      ),
+      { numRuns: 300, seed: 3 },
+    );
   });
 });
