@@ -53,15 +53,15 @@ export async function revokeApiToken({
   return row;
 }
 
-/** The owner of a live token (not revoked, not expired, owner not disabled), and marks it used. */
+/** The owner of a live token (not revoked, not expired, owner not disabled), and marks it used (to the minute). */
 export async function getTokenOwner({
   tokenHash,
 }: {
   tokenHash: string;
 }): Promise<{ tokenId: string; userId: string; siteRole: SiteRole } | undefined> {
   const now = new Date();
-  const [row] = await db
-    .select({ tokenId: apiTokens.id, userId: users.id, siteRole: users.siteRole })
+  const [found] = await db
+    .select({ tokenId: apiTokens.id, userId: users.id, siteRole: users.siteRole, lastUsedAt: apiTokens.lastUsedAt })
     .from(apiTokens)
     .innerJoin(users, eq(users.id, apiTokens.userId))
     .where(
@@ -72,6 +72,14 @@ export async function getTokenOwner({
         isNull(users.disabledAt),
       ),
     );
-  if (row) await db.update(apiTokens).set({ lastUsedAt: now }).where(eq(apiTokens.id, row.tokenId));
+  if (!found) return undefined;
+  const { lastUsedAt, ...row } = found;
+  // "Last used" is kept to the minute: a script calling many times a second would otherwise write
+  // (and wait for) the same row on every request, one commit each, all queued on its lock.
+  if (!lastUsedAt || now.getTime() - lastUsedAt.getTime() >= lastUsedPrecisionMs)
+    await db.update(apiTokens).set({ lastUsedAt: now }).where(eq(apiTokens.id, row.tokenId));
   return row;
 }
+
+/** How stale a token's `lastUsedAt` may be before a request writes it again (ms). */
+export const lastUsedPrecisionMs = 60_000;

@@ -13,6 +13,7 @@ import * as projectPlans from "@/app/api/v1/projects/[projectId]/plans/route";
 import * as userRoute from "@/app/api/v1/users/[userId]/route";
 import { BAD_CREDENTIALS_MESSAGE, RATE_LIMITED_MESSAGE, SIGN_IN_BACKOFF, verifyCredentials } from "@/lib/server/auth";
 import { hashToken } from "@/lib/server/tokens";
+import { lastUsedPrecisionMs } from "@/db/queries/tokens";
 import { BASE, call, demoArm, errorOf, makeUser, sessionCookieFor, tokenFor } from "./_helpers";
 
 describe("API tokens", () => {
@@ -37,6 +38,33 @@ describe("API tokens", () => {
     const who = await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } });
     expect(who.status).toBe(200);
     expect(who.body).toMatchObject({ user: { id: owner.id }, via: "token" });
+  });
+
+  it("records when it was last used, to the minute: a burst of calls writes the row once, a call a minute later again", async () => {
+    const owner = await makeUser("researcher");
+    const secret = await tokenFor(owner.id);
+    const lastUsed = async () => {
+      const [row] = await db
+        .select({ at: apiTokens.lastUsedAt })
+        .from(apiTokens)
+        .where(eq(apiTokens.tokenHash, hashToken(secret)));
+      return row.at;
+    };
+    expect(await lastUsed()).toBeNull();
+    expect((await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } })).status).toBe(200);
+    const first = await lastUsed();
+    expect(first).not.toBeNull();
+    for (let i = 0; i < 3; i++)
+      expect((await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } })).status).toBe(200);
+    expect((await lastUsed())!.getTime()).toBe(first!.getTime());
+    // a use older than a minute is written again
+    const old = new Date(Date.now() - lastUsedPrecisionMs - 1000);
+    await db
+      .update(apiTokens)
+      .set({ lastUsedAt: old })
+      .where(eq(apiTokens.tokenHash, hashToken(secret)));
+    expect((await call(me.GET, { path: "/api/v1/me", auth: { bearer: secret } })).status).toBe(200);
+    expect((await lastUsed())!.getTime()).toBeGreaterThan(old.getTime() + lastUsedPrecisionMs);
   });
 
   it("stops working at once when revoked", async () => {
