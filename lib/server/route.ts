@@ -5,6 +5,7 @@
  * authorise (403) → act.
  */
 import { randomUUID } from "node:crypto";
+import { Readable } from "node:stream";
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { env } from "./env";
@@ -223,6 +224,43 @@ export async function readBodyLimited(request: Request, limitBytes: number): Pro
   }
   if (declared !== null && declared !== total) throw badLength(total, declared);
   return total === out.byteLength ? out : out.subarray(0, total);
+}
+
+/**
+ * A request body as a stream of its bytes, for uploads that must never be held whole: each chunk
+ * goes to `onChunk` (to hash or scan it) as it passes on, and the stream fails with the errors of
+ * {@link readBodyLimited} — 413 as soon as the bytes counted pass `limitBytes`, 400 as soon as
+ * they pass the declared length or when they end short of it — cancelling the rest of the body.
+ * A declared length over the limit throws at once, before anything is read.
+ */
+export function readBodyStream(request: Request, limitBytes: number, onChunk: (chunk: Uint8Array) => void): Readable {
+  assertDeclaredLength(request, limitBytes);
+  const header = request.headers.get("content-length");
+  const declared = header === null ? null : Number(header);
+  const body = request.body;
+  async function* counted(): AsyncGenerator<Uint8Array> {
+    if (!body) return;
+    const reader = body.getReader();
+    let total = 0;
+    let finished = false;
+    try {
+      for (;;) {
+        const { done, value } = await reader.read();
+        if (done) break;
+        total += value.byteLength;
+        if (total > limitBytes) throw tooLarge(limitBytes);
+        if (declared !== null && total > declared) throw badLength(total, declared);
+        onChunk(value);
+        yield value;
+      }
+      finished = true;
+    } finally {
+      // failed, or the reader of the stream stopped early: the rest of the body is not wanted
+      if (!finished) await reader.cancel().catch(() => undefined);
+    }
+    if (declared !== null && total !== declared) throw badLength(total, declared);
+  }
+  return Readable.from(counted(), { objectMode: false });
 }
 
 function badLength(received: number, declared: number): AppError {

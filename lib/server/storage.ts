@@ -12,6 +12,7 @@ import {
   type PutObjectCommandInput,
   type S3ClientConfig,
 } from "@aws-sdk/client-s3";
+import { Upload } from "@aws-sdk/lib-storage";
 import { env } from "./env";
 
 /** s3rver's built-in development credentials; only ever sent to the loopback fake. */
@@ -61,6 +62,19 @@ export async function putObject(key: string, body: Uint8Array, contentType: stri
   );
 }
 
+/**
+ * An object's bytes as they arrive from the store, for reading a large file through once without
+ * holding it (a second scan pass of an upload).
+ */
+export async function* getObjectChunks(key: string, signal?: AbortSignal): AsyncGenerator<Uint8Array> {
+  const res = await storageClient().send(new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key }), {
+    abortSignal: signal,
+  });
+  if (!res.Body) throw new Error(`object ${key} has no body`);
+  // in Node the body is the HTTP response stream, an async iterable of Buffers
+  for await (const chunk of res.Body as AsyncIterable<Uint8Array>) yield chunk;
+}
+
 export async function getObject(key: string): Promise<Uint8Array> {
   const res = await storageClient().send(new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key }));
   if (!res.Body) throw new Error(`object ${key} has no body`);
@@ -105,4 +119,35 @@ export async function putObjectStream(
     }),
     { abortSignal: signal },
   );
+}
+
+/** Bytes of one part of a streamed upload of unknown length: S3's smallest part (5 MiB; the last may be smaller). */
+export const UPLOAD_PART_BYTES = 5 * 1024 * 1024;
+
+/**
+ * Streams a body of unknown length (a chunked request) into the store as an S3 multipart upload
+ * (CreateMultipartUpload, UploadPart, CompleteMultipartUpload) through the SDK's `Upload`, one
+ * part in memory at a time; a body under one part is sent as a single put. If the body fails (too
+ * long, cut), the multipart upload is aborted and its parts dropped, so no object appears.
+ */
+export async function putObjectStreamUnknownLength(
+  key: string,
+  body: NodeJS.ReadableStream,
+  contentType: string,
+): Promise<void> {
+  // a failing body fails the part being read, and Upload then sends AbortMultipartUpload before
+  // done() rejects (Upload.abort() instead would reject at once and abort the parts later)
+  const upload = new Upload({
+    client: streamClient(),
+    params: {
+      Bucket: env().S3_BUCKET,
+      Key: key,
+      Body: body as PutObjectCommandInput["Body"],
+      ContentType: contentType,
+    },
+    partSize: UPLOAD_PART_BYTES,
+    queueSize: 1,
+    leavePartsOnError: false,
+  });
+  await upload.done();
 }

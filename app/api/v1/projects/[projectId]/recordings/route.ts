@@ -4,15 +4,24 @@ import { z } from "zod";
 import { getArmRevisionForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
 import { createRecording, listRecordings } from "@/db/queries/recordings";
-import { json, readBodyLimited, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
-import { armSchema, describeRecordingProblem, scanRecording } from "@/kinematics";
+import { json, readBodyStream, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
+import {
+  armSchema,
+  createRecordingScanner,
+  describeRecordingProblem,
+  type Arm,
+  type RescanNeeded,
+  type StreamReport,
+  type StreamScanOptions,
+  type StreamScanResult,
+} from "@/kinematics";
 import { loadProject, membershipOf } from "@/lib/server/loaders";
 import { uploadRecordingQuery } from "@/lib/shared/schemas/api";
 import { requireActor } from "@/lib/server/auth-request";
 import { env } from "@/lib/server/env";
 import { AppError } from "@/lib/server/errors";
 import { authorizeProject } from "@/lib/server/permissions";
-import { deleteObject, putObject } from "@/lib/server/storage";
+import { deleteObject, getObjectChunks, putObjectStream, putObjectStreamUnknownLength } from "@/lib/server/storage";
 
 const params = z.object({ projectId: uuidParam });
 
@@ -27,10 +36,14 @@ export const GET = route(async (request, context) => {
 
 /**
  * POST /api/v1/projects/:projectId/recordings?name=…&armId=… with the CSV file as the body
- * (Content-Type: text/csv). The declared size is checked before anything is read and the body is
- * read only up to UPLOAD_LIMIT_BYTES; the file is parsed and validated (times strictly increasing,
- * finite values; aligned to the arm and stream-checked when armId is given) before it is stored; the row is written only after the object, and the object is removed again
- * if the row cannot be written — a failed upload leaves nothing behind.
+ * (Content-Type: text/csv), whole or not at all, never held whole in memory. A declared size over
+ * UPLOAD_LIMIT_BYTES is refused (413) before anything is read; otherwise the body streams through a
+ * byte count (413 as soon as it passes the limit) into both the streamed recording scan (parse →
+ * align → validate → stream check, as the CLI and the page run it on the whole file) and the object
+ * store (one streamed put of the declared length, or a multipart upload for a chunked body), hashed
+ * on the way. The row is written only once the whole file is stored and the scan has accepted it;
+ * the object is removed again if the body fails, the scan refuses the file (422 with its problems)
+ * or the row cannot be written — a failed upload leaves nothing behind.
  */
 export const POST = route(async (request, context) => {
   const { projectId } = await readParams(context, params);
@@ -39,8 +52,9 @@ export const POST = route(async (request, context) => {
   if (type !== "text/csv")
     throw new AppError("unsupported_media_type", "Send the recording as CSV (Content-Type: text/csv).");
   const limit = env().UPLOAD_LIMIT_BYTES;
-  const declared = Number(request.headers.get("content-length") ?? "0");
-  if (declared > limit)
+  const header = request.headers.get("content-length");
+  const declared = header === null ? null : Number(header);
+  if (declared !== null && declared > limit)
     throw new AppError("payload_too_large", `The file is larger than ${limit} bytes.`, {
       details: { limitBytes: limit },
     });
@@ -55,27 +69,52 @@ export const POST = route(async (request, context) => {
     });
   }
 
-  const bytes = await readBodyLimited(request, limit);
-  // the engine's one recording scan (parse → align → validate → stream check), as the CLI and the page run it
+  // the engine's one recording scan, fed as the bytes arrive
   const arm = revision ? armSchema.parse(revision.description) : null;
-  const scanned = arm ? scanRecording(arm, bytes, { maxFindings: 50 }) : scanRecording(null, bytes);
-  if ("problems" in scanned) {
-    throw new AppError(
-      "unprocessable:recording",
-      `The file is not a valid recording: ${describeRecordingProblem(scanned.problems[0])}.`,
-      {
-        issues: scanned.problems.map((p) => ({
-          path: p.line === null ? "(file)" : `line ${p.line}${p.column ? `.${p.column}` : ""}`,
-          message: p.message,
-        })),
-      },
-    );
-  }
-  const { recording, report: stream } = scanned;
+  const options: StreamScanOptions = arm ? { maxFindings: 50 } : {};
+  const scanner = arm ? createRecordingScanner(arm, options) : createRecordingScanner(null, options);
+  const hash = createHash("sha256");
+  let sizeBytes = 0;
+  const body = readBodyStream(request, limit, (chunk) => {
+    scanner.push(chunk);
+    hash.update(chunk);
+    sizeBytes += chunk.byteLength;
+  });
+  let bodyError: unknown = null;
+  const abort = new AbortController();
+  body.on("error", (err) => {
+    bodyError ??= err;
+    // a put of a declared length would otherwise wait for the bytes that will never come
+    abort.abort();
+  });
 
   const key = `recordings/${projectId}/${randomUUID()}.csv`;
-  await putObject(key, bytes, "text/csv");
+  let kept = false;
   try {
+    try {
+      if (declared !== null) await putObjectStream(key, body, declared, "text/csv", abort.signal);
+      else await putObjectStreamUnknownLength(key, body, "text/csv");
+    } catch (err) {
+      throw bodyError ?? err;
+    }
+    if (bodyError) throw bodyError;
+    const first = scanner.end();
+    const scanned =
+      "rescan" in first ? await scanStored(arm, key, { ...options, maxGapS: first.rescan.maxGapS }) : first;
+    if ("problems" in scanned) {
+      throw new AppError(
+        "unprocessable:recording",
+        `The file is not a valid recording: ${describeRecordingProblem(scanned.problems[0])}.`,
+        {
+          issues: scanned.problems.map((p) => ({
+            path: p.line === null ? "(file)" : `line ${p.line}${p.column ? `.${p.column}` : ""}`,
+            message: p.message,
+          })),
+        },
+      );
+    }
+    const { summary, report: stream } = scanned;
+    const sha256 = hash.digest("hex");
     const row = await inTransaction(async () => {
       const row = await createRecording({
         projectId,
@@ -83,11 +122,11 @@ export const POST = route(async (request, context) => {
         name: query.name,
         objectKey: key,
         contentType: "text/csv",
-        sizeBytes: bytes.byteLength,
-        sha256: createHash("sha256").update(bytes).digest("hex"),
-        sampleCount: recording.count,
-        jointCount: recording.jointCount,
-        durationS: recording.count > 0 ? recording.timeS[recording.count - 1] - recording.timeS[0] : 0,
+        sizeBytes,
+        sha256,
+        sampleCount: summary.count,
+        jointCount: summary.jointCount,
+        durationS: summary.durationS,
         createdBy: actor.userId,
       });
       await recordAudit({
@@ -99,9 +138,28 @@ export const POST = route(async (request, context) => {
       });
       return row;
     });
+    kept = true;
     return json({ recording: row, stream }, 201);
-  } catch (err) {
-    await deleteObject(key).catch((e) => console.error("[recordings] could not remove orphaned object", key, e));
-    throw err;
+  } finally {
+    if (!kept) {
+      body.destroy();
+      await deleteObject(key).catch((e) => console.error("[recordings] could not remove orphaned object", key, e));
+    }
   }
 });
+
+/**
+ * The second pass of a streamed scan that asked for one (more gaps than it could keep): the stored
+ * file read back once, scanned with the gap limit the first pass found.
+ */
+async function scanStored(
+  arm: Arm | null,
+  key: string,
+  options: StreamScanOptions,
+): Promise<Exclude<StreamScanResult<StreamReport | null>, RescanNeeded>> {
+  const scanner = arm ? createRecordingScanner(arm, options) : createRecordingScanner(null, options);
+  for await (const chunk of getObjectChunks(key)) scanner.push(chunk);
+  const result = scanner.end();
+  if ("rescan" in result) throw new Error("a recording scan with a given gap limit asked for another pass");
+  return result;
+}
