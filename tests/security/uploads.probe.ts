@@ -5,7 +5,7 @@
 import "./_env";
 import { execFileSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { readFileSync, writeFileSync } from "node:fs";
 import { ListObjectsV2Command, S3Client } from "@aws-sdk/client-s3";
 import { beforeAll, describe, expect, it } from "vitest";
 import { recordings } from "@/db/schema";
@@ -216,11 +216,6 @@ describe("uploads through the running server", () => {
       expect((res.body as Uploaded).recording.sampleCount).toBe(n);
       const growthMiB = (statusKiB(pid, "VmHWM") - residentKiB) / 1024;
       const figures = { how, fileMiB: csv.length / MB, peakGrowthMiB: Math.round(growthMiB * 10) / 10 };
-      mkdirSync(".data/test", { recursive: true });
-      writeFileSync(
-        `.data/test/upload-memory-${isChunked ? "chunked" : "declared"}.json`,
-        JSON.stringify(figures, null, 2) + "\n",
-      );
       console.log("upload memory", figures);
       // held whole, the file alone is 45 MiB and its samples as arrays 60 MiB more; streamed, at most
       // one 5 MiB part of a multipart upload is held
