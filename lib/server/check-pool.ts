@@ -15,7 +15,8 @@ import { join } from "node:path";
 import { pathToFileURL } from "node:url";
 import { checkWork, type Plan, type Report } from "@/kinematics";
 import { AppError } from "./errors";
-import type { CheckTask, CheckTaskResult } from "./check-worker";
+import type { CheckTask, CheckTaskResult, DocumentTask, DocumentTaskResult } from "./check-worker";
+import { budgetError, type DocumentCheck } from "./check-document";
 
 /** Most work (path points × joints, see kinematics/check/work.ts) one check may take. */
 export const CHECK_WORK_BUDGET = positiveEnv("JP_CHECK_WORK_BUDGET", 3_000_000);
@@ -51,8 +52,10 @@ function newestSource(): number {
       else if (/\.(ts|json)$/.test(entry.name)) newest = Math.max(newest, statSync(path).mtimeMs);
     }
   };
+  // the engine, and the worker's own imports (check-document.ts, json-body.ts, the shared schemas …)
   walk(join(root, "kinematics"));
-  newest = Math.max(newest, statSync(join(root, "lib", "server", "check-worker.ts")).mtimeMs);
+  walk(join(root, "lib", "server"));
+  walk(join(root, "lib", "shared"));
   return newest;
 }
 
@@ -77,7 +80,7 @@ async function ensureBundle(): Promise<string> {
 }
 
 type Pool = {
-  run(task: CheckTask, options: { signal: AbortSignal }): Promise<CheckTaskResult>;
+  run(task: CheckTask | DocumentTask, options: { signal: AbortSignal }): Promise<CheckTaskResult | DocumentTaskResult>;
   destroy(): Promise<void>;
   readonly threads: number;
   readonly queueSize: number;
@@ -99,8 +102,12 @@ async function createPool(): Promise<Pool> {
     // a check that runs away with memory stops its worker, not the server
     resourceLimits: { maxOldGenerationSizeMb: 768 },
   });
+  // every thread started and warmed up (check-worker.ts) before the first request is given a time limit
+  await Promise.all(
+    Array.from({ length: threads }, () => pool.run({ bytes: new TextEncoder().encode("{}"), budget: 0 })),
+  );
   return {
-    run: (task, options) => pool.run(task, options) as Promise<CheckTaskResult>,
+    run: (task, options) => pool.run(task, options) as Promise<CheckTaskResult | DocumentTaskResult>,
     destroy: () => pool.destroy(),
     threads,
     get queueSize() {
@@ -132,24 +139,8 @@ export async function closeCheckPool(): Promise<void> {
  */
 export function assertWithinBudget(plan: Plan, pathPrefix = ""): number {
   const work = checkWork(plan);
-  if (work > CHECK_WORK_BUDGET) {
-    const path = pathPrefix ? `${pathPrefix}.moves` : "moves";
-    throw new AppError(
-      "unprocessable:check-budget",
-      `This plan needs ${work.toLocaleString("en")} units of check work (path points × joints: ${plan.moves.length} moves, ` +
-        `${plan.arm.joints.length} joints, ${plan.arm.controlRateHz} Hz control rate); one check may use at most ${CHECK_WORK_BUDGET.toLocaleString("en")}. ` +
-        `Nothing was checked. Split it into shorter plans, or use fewer, longer moves.`,
-      {
-        issues: [
-          {
-            path,
-            message: `must need at most ${CHECK_WORK_BUDGET} units of check work (path points × joints); needs ${work}`,
-          },
-        ],
-        details: { work, budget: CHECK_WORK_BUDGET },
-      },
-    );
-  }
+  const refused = budgetError(plan, work, CHECK_WORK_BUDGET, pathPrefix);
+  if (refused) throw refused;
   return work;
 }
 
@@ -161,40 +152,71 @@ export function assertWithinBudget(plan: Plan, pathPrefix = ""): number {
 export async function runCheck(plan: Plan, pathPrefix = ""): Promise<{ report: Report; elapsedMs: number }> {
   assertWithinBudget(plan, pathPrefix);
   const workers = await pool();
-  const limitS = CHECK_TIME_LIMIT_MS / 1000;
   try {
-    const result = await workers.run({ plan }, { signal: AbortSignal.timeout(CHECK_TIME_LIMIT_MS) });
+    const result = (await workers.run(
+      { plan },
+      { signal: AbortSignal.timeout(CHECK_TIME_LIMIT_MS) },
+    )) as CheckTaskResult;
     return { report: result.report, elapsedMs: result.elapsedMs };
   } catch (err) {
-    const name = err instanceof Error ? err.name : "";
-    const message = err instanceof Error ? err.message : String(err);
-    if (name === "AbortError" || name === "TimeoutError") {
-      throw new AppError(
-        "unavailable:check-time-limit",
-        `The check ran longer than its limit of ${limitS} s and was stopped; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s, or split the plan into shorter ones.`,
-        {
-          details: { retryAfterS: CHECK_RETRY_AFTER_S, timeLimitS: limitS },
-        },
-      );
-    }
-    if (/queue is at limit|No task queue/i.test(message)) {
-      throw new AppError(
-        "unavailable:check-busy",
-        `Every checker is busy; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s.`,
-        {
-          details: { retryAfterS: CHECK_RETRY_AFTER_S },
-        },
-      );
-    }
-    if (/memory|ERR_WORKER_OUT_OF_MEMORY/i.test(message)) {
-      throw new AppError(
-        "unavailable:check-memory",
-        `The check needed more memory than one checker has and was stopped; nothing was checked or saved. Split the plan into shorter ones.`,
-        {
-          details: { retryAfterS: CHECK_RETRY_AFTER_S },
-        },
-      );
-    }
-    throw err;
+    throw poolFailure(err);
   }
+}
+
+/**
+ * Checks a plan document from the bytes of a request body entirely in the pool (parsing, the work
+ * budget, the check and the response's JSON text), so that a large document never holds the request
+ * thread; the same 400/422 as a route's own parsing, and the 503s of {@link runCheck}.
+ */
+export async function runDocumentCheck(bytes: Uint8Array): Promise<DocumentCheck> {
+  const workers = await pool();
+  let result: DocumentTaskResult;
+  try {
+    result = (await workers.run(
+      { bytes, budget: CHECK_WORK_BUDGET },
+      { signal: AbortSignal.timeout(CHECK_TIME_LIMIT_MS) },
+    )) as unknown as DocumentTaskResult;
+  } catch (err) {
+    throw poolFailure(err);
+  }
+  if ("refused" in result) {
+    const { code, message, issues, details } = result.refused;
+    throw new AppError(code, message, { issues, details });
+  }
+  return result;
+}
+
+/** The answer for a check the pool could not finish: 503s for time, a full queue and memory. */
+function poolFailure(err: unknown): unknown {
+  const limitS = CHECK_TIME_LIMIT_MS / 1000;
+  const name = err instanceof Error ? err.name : "";
+  const message = err instanceof Error ? err.message : String(err);
+  if (name === "AbortError" || name === "TimeoutError") {
+    return new AppError(
+      "unavailable:check-time-limit",
+      `The check ran longer than its limit of ${limitS} s and was stopped; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s, or split the plan into shorter ones.`,
+      {
+        details: { retryAfterS: CHECK_RETRY_AFTER_S, timeLimitS: limitS },
+      },
+    );
+  }
+  if (/queue is at limit|No task queue/i.test(message)) {
+    return new AppError(
+      "unavailable:check-busy",
+      `Every checker is busy; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s.`,
+      {
+        details: { retryAfterS: CHECK_RETRY_AFTER_S },
+      },
+    );
+  }
+  if (/memory|ERR_WORKER_OUT_OF_MEMORY/i.test(message)) {
+    return new AppError(
+      "unavailable:check-memory",
+      `The check needed more memory than one checker has and was stopped; nothing was checked or saved. Split the plan into shorter ones.`,
+      {
+        details: { retryAfterS: CHECK_RETRY_AFTER_S },
+      },
+    );
+  }
+  return err;
 }

@@ -1,14 +1,22 @@
-import { json, readJson, route } from "@/lib/server/route";
-import { checkPlan } from "@/lib/server/check";
-import { checkPlanSchema } from "@/lib/shared/schemas/api";
+import { readJsonBytes, route } from "@/lib/server/route";
+import { runDocumentCheck } from "@/lib/server/check-pool";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeSite } from "@/lib/server/permissions";
+import { noteWork } from "@/lib/server/log";
 
-/** POST /api/v1/check — checks a plan document and returns the report; nothing is stored. */
+/**
+ * POST /api/v1/check — checks a plan document and returns `{ report, summary }`; nothing is stored.
+ * The body is parsed, budgeted and checked in the check pool (lib/server/check-document.ts), with
+ * the same messages as every route's own parsing, so a large document never holds the server.
+ */
 export const POST = route(async (request) => {
-  const document = await readJson(request, checkPlanSchema);
+  const bytes = await readJsonBytes(request);
   const actor = await requireActor(request);
   authorizeSite(actor, "check:run");
-  const { report, summary } = await checkPlan(document);
-  return json({ report, summary });
+  const { body, work } = await runDocumentCheck(bytes);
+  noteWork({ checkWork: work });
+  return new Response(body, {
+    status: 200,
+    headers: { "Content-Type": "application/json", "Cache-Control": "no-store" },
+  });
 });
