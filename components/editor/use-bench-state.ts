@@ -146,10 +146,13 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
     [report, fixes, timeline, plan, unit, applyFix],
   );
 
-  const markers: PlotMarker[] = useMemo(
-    () => items.map((i) => ({ timeS: i.timeS, joint: i.finding.joint, severity: i.finding.severity })),
+  // kept by identity while their content is the same (the full report often marks what the live one
+  // did), so the plots are not drawn again for nothing
+  const markerKey = useMemo(
+    () => JSON.stringify(items.map((i) => ({ timeS: i.timeS, joint: i.finding.joint, severity: i.finding.severity }))),
     [items],
   );
+  const markers: PlotMarker[] = useMemo(() => JSON.parse(markerKey) as PlotMarker[], [markerKey]);
 
   const linkSeverity = useMemo(() => linkSeverityOf(report.moves, chain), [report, chain]);
 

@@ -1,5 +1,5 @@
 "use client";
-import { useMemo, useRef, type PointerEvent } from "react";
+import { memo, useMemo, useRef, type PointerEvent } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { cn } from "@/components/ui/cn";
 import { verdictLook } from "@/components/ui/verdict-chip";
@@ -30,7 +30,10 @@ export interface JointPlotsProps {
   /** Joint effort along the samples (arms with a chain); adds an effort chart. */
   effort?: EffortSeries | null;
   quantities?: readonly Quantity[];
-  /** Buckets for the min–max downsampling (points ≈ 2 × buckets × selected joints at most). */
+  /**
+   * Buckets for the min–max downsampling (points ≈ 2 × buckets × selected joints at most). 200 gives
+   * about one point per 2 px of a wide chart; each bucket keeps its extremes, so no peak is lost.
+   */
   buckets?: number;
   /** Moves in the plan, instant ones included: with moves but no time to plot, the plots say why. */
   moveCount?: number;
@@ -90,7 +93,7 @@ export function JointPlots(props: JointPlotsProps) {
     onSelectedJointsChange,
     markers,
     effort,
-    buckets = 400,
+    buckets = 200,
     className,
   } = props;
   const quantities = useMemo<readonly Quantity[]>(
@@ -130,6 +133,15 @@ export function JointPlots(props: JointPlotsProps) {
     }
     return byQuantity;
   }, [samples, n, selectedJoints, quantities, buckets, joints, unit, effort]);
+
+  // the joints each chart draws, kept by identity so that an unchanged chart is not drawn again
+  const chartJoints = useMemo(
+    () => ({
+      motion: selectedJoints.filter((j) => j < n),
+      effort: selectedJoints.filter((j) => j < (effort ? effort.stride : n)),
+    }),
+    [selectedJoints, n, effort],
+  );
 
   return (
     <div className={cn("flex flex-col gap-1", className)}>
@@ -187,7 +199,7 @@ export function JointPlots(props: JointPlotsProps) {
               rows={data[q]}
               totalS={totalS}
               joints={joints}
-              selectedJoints={selectedJoints.filter((j) => j < (q === "effort" && effort ? effort.stride : n))}
+              selectedJoints={q === "effort" ? chartJoints.effort : chartJoints.motion}
               cautionRatio={cautionRatio}
               unit={unit}
               markers={markers}
@@ -198,7 +210,8 @@ export function JointPlots(props: JointPlotsProps) {
   );
 }
 
-function QuantityChart({
+/** One chart; memoised, so a chart whose rows and markers did not change is not drawn again. */
+const QuantityChart = memo(function QuantityChart({
   quantity,
   rows,
   totalS,
@@ -308,7 +321,7 @@ function QuantityChart({
       <PlotCursor totalS={totalS} />
     </figure>
   );
-}
+});
 
 /** The playhead over a chart's plot area; pointer down/drag on it moves the playhead. */
 function PlotCursor({ totalS }: { totalS: number }) {
