@@ -1,6 +1,7 @@
 /**
  * The benchmarks that need the running server (started by bench/server.sh at JP_BENCH_BASE_URL):
- * the bench page in Chromium, `/api/v1/check` under 50 connections, and `/api/health` during a
+ * the bench page in Chromium, `/api/health` alone at 50 connections (the framework's floor),
+ * `/api/v1/check` under 50 connections, and `/api/health` during a
  * flood of the worst documents the budget allows. Sets up one invented user with an API token in
  * the bench database, and writes bench/tmp/server-bench.json, which bench/run.ts adds to
  * bench/results.json.
@@ -14,7 +15,7 @@ import { users } from "@/db/schema";
 import { createApiToken } from "@/db/queries/tokens";
 import { generateToken } from "@/lib/server/tokens";
 import { benchPageFigures } from "./bench-page";
-import { checkLoad, healthUnderFlood } from "./server-load";
+import { checkLoad, healthFloor, healthUnderFlood } from "./server-load";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const baseUrl = process.env.JP_BENCH_BASE_URL ?? "http://127.0.0.1:3190";
@@ -32,6 +33,9 @@ async function main() {
   const loadBefore = load();
   out.benchPage = { ...(await benchPageFigures(baseUrl)), loadAverage: [loadBefore, load()] };
   console.log("bench page", JSON.stringify(out.benchPage));
+  const beforeFloor = load();
+  out.healthFloor = { ...(await healthFloor(baseUrl)), loadAverage: [beforeFloor, load()] };
+  console.log("health floor", JSON.stringify(out.healthFloor));
   const before = load();
   out.checkApi = { ...(await checkLoad(baseUrl, token)), loadAverage: [before, load()] };
   console.log("check API", JSON.stringify(out.checkApi));

@@ -145,3 +145,13 @@ export async function healthUnderFlood(baseUrl: string, token: string, durationS
     flood: figuresOf(20, durationS, flooded.latencies, flooded.result, flooded.statusCodes),
   };
 }
+
+/**
+ * The server's own floor: `/api/health` (one database query, no check) at the same 50 connections for
+ * `durationS`, so the check's figures can be read against what the framework answers at that load
+ * on this machine.
+ */
+export async function healthFloor(baseUrl: string, connections = 50, durationS = 10) {
+  const health = await run({ url: `${baseUrl}/api/health`, connections, duration: durationS });
+  return figuresOf(connections, durationS, health.latencies, health.result, health.statusCodes);
+}
