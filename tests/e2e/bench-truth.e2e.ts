@@ -436,6 +436,8 @@ describe("the bench tells the truth", () => {
     const text = (await page.locator("main").textContent()) ?? "";
     expect(text).not.toMatch(permitsRunning);
     expect(text).toContain("The faults are still in the plan");
+    // the student's review page draws the arm too (the screenshot once showed an empty 3D view)
+    await page.waitForSelector("[data-testid=stage] canvas");
     await shot(page, "18-student-sees-reason");
 
     const mail = await waitForMail(
