@@ -8,6 +8,7 @@
  *
  * @module
  */
+import { createHash } from "node:crypto";
 import { check, checkWork, type Plan } from "@/kinematics";
 import { checkPlanSchema } from "@/lib/shared/schemas/api";
 import { AppError } from "./errors";
@@ -45,8 +46,37 @@ export interface DocumentCheck {
   elapsedMs: number;
 }
 
+/**
+ * Answers by the document's bytes: the check is a pure function of the bytes and the budget, so the
+ * same document checked again (a script re-checking its plan) is answered from here. Least recently
+ * used first out, bounded by the text held.
+ */
+const answers = new Map<string, DocumentCheck>();
+let answerChars = 0;
+const maxAnswerChars = 64 * 1024 * 1024;
+const maxAnswers = 512;
+
 /** Parses, budgets and checks a plan document's bytes; throws the route's {@link AppError}s. */
 export function checkDocumentBytes(bytes: Uint8Array, budget: number): DocumentCheck {
+  const key = `${budget}:${createHash("sha256").update(bytes).digest("hex")}`;
+  const known = answers.get(key);
+  if (known) {
+    answers.delete(key); // most recently used last
+    answers.set(key, known);
+    return known;
+  }
+  const answer = checkUncached(bytes, budget);
+  answers.set(key, answer);
+  answerChars += answer.body.length;
+  while (answers.size > maxAnswers || answerChars > maxAnswerChars) {
+    const [oldest, dropped] = answers.entries().next().value as [string, DocumentCheck];
+    answers.delete(oldest);
+    answerChars -= dropped.body.length;
+  }
+  return answer;
+}
+
+function checkUncached(bytes: Uint8Array, budget: number): DocumentCheck {
   const t0 = performance.now();
   const plan = parseJsonBytes(bytes, checkPlanSchema);
   const work = checkWork(plan);

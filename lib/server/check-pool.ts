@@ -24,6 +24,9 @@ export const CHECK_WORK_BUDGET = positiveEnv("JP_CHECK_WORK_BUDGET", 3_000_000);
 /** Longest a check may run in the pool (ms) before it is stopped. */
 export const CHECK_TIME_LIMIT_MS = positiveEnv("JP_CHECK_TIME_LIMIT_MS", 10_000);
 
+/** Checks that may wait per worker thread; beyond that a check is answered 503 at once. */
+const QUEUE_PER_THREAD = 8;
+
 /** Seconds a client is told to wait after a check was stopped or the pool was full. */
 export const CHECK_RETRY_AFTER_S = 5;
 
@@ -98,7 +101,7 @@ async function createPool(): Promise<Pool> {
     maxThreads: threads,
     idleTimeout: 60_000,
     // at most a few waiting checks per thread; beyond that a check waits longer than its limit anyway
-    maxQueue: threads * 8,
+    maxQueue: threads * QUEUE_PER_THREAD,
     // a check that runs away with memory stops its worker, not the server
     resourceLimits: { maxOldGenerationSizeMb: 768 },
   });
@@ -161,6 +164,16 @@ export async function runCheck(plan: Plan, pathPrefix = ""): Promise<{ report: R
   } catch (err) {
     throw poolFailure(err);
   }
+}
+
+/**
+ * Refuses (503, Retry-After) when every checker is busy and the queue is full, before a route reads
+ * a request body it could not check anyway: under a flood of large documents the request thread
+ * then spends nothing on bodies that would only be answered "busy".
+ */
+export async function assertCheckerFree(): Promise<void> {
+  const workers = await pool();
+  if (workers.queueSize >= workers.threads * QUEUE_PER_THREAD) throw poolFailure(new Error("queue is at limit"));
 }
 
 /**

@@ -1,5 +1,5 @@
 import { readJsonBytes, route } from "@/lib/server/route";
-import { runDocumentCheck } from "@/lib/server/check-pool";
+import { assertCheckerFree, runDocumentCheck } from "@/lib/server/check-pool";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeSite } from "@/lib/server/permissions";
 import { noteWork } from "@/lib/server/log";
@@ -10,6 +10,7 @@ import { noteWork } from "@/lib/server/log";
  * the same messages as every route's own parsing, so a large document never holds the server.
  */
 export const POST = route(async (request) => {
+  await assertCheckerFree(); // busy: 503 before the body is read
   const bytes = await readJsonBytes(request);
   const actor = await requireActor(request);
   authorizeSite(actor, "check:run");
