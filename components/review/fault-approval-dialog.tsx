@@ -23,6 +23,30 @@ export interface FaultApprovalDialogProps {
   onApprove: () => void;
 }
 
+const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+
+/**
+ * The move and joint to put before a fault's message, only those the message does not name itself:
+ * the engine's messages start "Move 1, joint "base": …", and a label in front would say it twice. A
+ * message that names neither (a report from an older check) keeps both, so nothing is lost.
+ */
+export function faultWhere(fault: SubmissionFault, joints: readonly string[]): string {
+  let where = "";
+  if (fault.move !== null) {
+    const label = moveLabel(fault.move);
+    // "Move 1", "Instant move 1" or "the goal of move 1", but not "Move 12"
+    const named = new RegExp(`\\b${escapeRegExp(label)}(?!\\d)`, "i").test(fault.message);
+    if (!named) where += ` · ${label}`;
+  }
+  if (fault.joint !== null) {
+    const name = joints[fault.joint];
+    // a joint the arm's list does not hold: the message's own joint "…" is the better name
+    if (name === undefined) where += /joint "[^"]+"/.test(fault.message) ? "" : ` · joint ${fault.joint + 1}`;
+    else if (!fault.message.includes(`"${name}"`)) where += ` · ${name}`;
+  }
+  return where;
+}
+
 /**
  * Approving a submission whose check found faults: the dialog lists each fault (moves named as every
  * screen names them, "Move 1" for the first) and sends the approval only with a typed reason, which the student will see.
@@ -67,8 +91,7 @@ export function FaultApprovalDialog({
           {faults.map((f, i) => (
             <li key={i} className="rounded-md border border-fault/40 bg-fault-tint/40 px-2 py-1 text-xs">
               <span className="font-semibold text-fault">Fault</span>
-              {f.move !== null ? ` · ${moveLabel(f.move)}` : ""}
-              {f.joint !== null ? ` · ${joints[f.joint] ?? `joint ${f.joint + 1}`}` : ""}: {f.message}
+              {faultWhere(f, joints)}: {f.message}
             </li>
           ))}
         </ul>
