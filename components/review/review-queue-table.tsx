@@ -4,14 +4,20 @@
  * GET form (the server filters; the URL can be shared); sorting and the search text are the one
  * DataTable's, and the chosen column is written back into the URL so a shared link opens sorted the
  * same way. With no column chosen the rows come waiting first, oldest first.
+ *
+ * A long queue comes a page at a time: the server renders the first page, and the table loads the
+ * following ones through the API (`?cursor=`) one after another until the last, so sorting and the
+ * search cover the whole queue once it is in. Until then, or when a page fails, a line above the
+ * table says how many submissions are shown and that more exist.
  */
 import Link from "next/link";
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import type { SortingState } from "@tanstack/react-table";
 import { Button } from "@/components/ui/button";
 import { columnsFor, DataTable } from "@/components/ui/data-table";
 import { DateTime } from "@/components/ui/date-time";
 import { TextField } from "@/components/ui/field";
+import { request } from "@/lib/client/api-client";
 import { EmptyState, Panel } from "@/components/ui/panel";
 import { VerdictChip } from "@/components/ui/verdict-chip";
 import type { QueueQuery } from "@/lib/shared/schemas/reviews";
@@ -101,6 +107,66 @@ const columns = col.columns([
   }),
 ]);
 
+/** The API's query string for the queue in `sort`'s order (none: waiting first), keeping every filter. */
+export function queueApiQuery(filter: QueueQuery, sort: QueueSort | null, limit: number, cursor: string): string {
+  const params = new URLSearchParams(queueHref(filter, sort).split("?")[1] ?? "");
+  params.set("limit", String(limit));
+  params.set("cursor", cursor);
+  return `/api/v1/reviews?${params.toString()}`;
+}
+
+/** Rows of a later page added to those shown; a row seen twice (its state changed between pages) is kept once, as last seen. */
+export function appendPage(shown: readonly QueueRow[], page: readonly QueueRow[]): QueueRow[] {
+  const byId = new Map(shown.map((r) => [r.id, r]));
+  for (const r of page) byId.set(r.id, r);
+  return [...byId.values()];
+}
+
+type Loaded = { rows: QueueRow[]; nextCursor: string | null; failure: string | null };
+
+/**
+ * The queue's rows: the first page as given, then every later page through the API, one request at
+ * a time, until `nextCursor` is null or a request fails (then `retry` carries on from there).
+ */
+function useWholeQueue(first: QueueRow[], nextCursor: string | null, url: (cursor: string) => string) {
+  const [source, setSource] = useState(first);
+  const [loaded, setLoaded] = useState<Loaded>({ rows: first, nextCursor, failure: null });
+  // a new first page from the server (a refresh) starts over
+  if (source !== first) {
+    setSource(first);
+    setLoaded({ rows: first, nextCursor, failure: null });
+  }
+  const cursor = loaded.failure ? null : loaded.nextCursor;
+  useEffect(() => {
+    if (!cursor) return;
+    let cancelled = false;
+    request<{ queue: QueueRow[]; nextCursor: string | null }>(url(cursor)).then(
+      (page) => {
+        if (!cancelled)
+          setLoaded((l) => ({ rows: appendPage(l.rows, page.queue), nextCursor: page.nextCursor, failure: null }));
+      },
+      (e: unknown) => {
+        if (!cancelled)
+          setLoaded((l) => ({
+            ...l,
+            failure: e instanceof Error && e.message ? e.message : "The rest of the queue could not be loaded.",
+          }));
+      },
+    );
+    return () => {
+      cancelled = true;
+    };
+    // `url` is rebuilt each render from values fixed for this table's life (it is keyed by them)
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [cursor]);
+  return {
+    rows: loaded.rows,
+    loading: cursor !== null,
+    failure: loaded.failure,
+    retry: () => setLoaded((l) => ({ ...l, failure: null })),
+  };
+}
+
 const isSortColumn = (id: string): id is QueueSortColumn => id in headers;
 
 /** The queue's URL with the given sort (none: waiting first), keeping every filter. */
@@ -122,15 +188,26 @@ export function ReviewQueueTable({
   filter,
   initialSort,
   courses,
-  rows,
+  rows: firstPage,
+  nextCursor = null,
+  pageLimit = 200,
 }: {
   filter: QueueQuery;
   /** The column the URL chose, or null for the default order: waiting first, oldest first. */
   initialSort: QueueSort | null;
   courses: { id: string; title: string }[];
+  /** The first page of the queue, in the order `initialSort` names. */
   rows: QueueRow[];
+  /** The next page's cursor (null: the first page is the whole queue). */
+  nextCursor?: string | null;
+  /** Rows per page for the pages loaded in the browser. */
+  pageLimit?: number;
 }) {
   const [sort, setSort] = useState<QueueSort | null>(initialSort);
+  // later pages continue the server's order of the first, whatever column is clicked meanwhile
+  const [pagedSort] = useState(initialSort);
+  const whole = useWholeQueue(firstPage, nextCursor, (cursor) => queueApiQuery(filter, pagedSort, pageLimit, cursor));
+  const rows = whole.rows;
   // Remounting the table is how "back to waiting first" clears its sorting.
   const [generation, setGeneration] = useState(0);
   const [search, setSearch] = useState("");
@@ -233,6 +310,27 @@ export function ReviewQueueTable({
             onChange={(e) => setSearch(e.target.value)}
           />
         </div>
+      ) : null}
+      {whole.loading || whole.failure ? (
+        <p
+          className="mt-2 flex flex-wrap items-center gap-2 text-xs text-ink-soft"
+          data-testid="queue-progress"
+          role="status"
+        >
+          <span className="tabular">
+            Showing {rows.length} {rows.length === 1 ? "submission" : "submissions"}; the queue has more.
+          </span>
+          {whole.failure ? (
+            <>
+              <span className="text-fault">The rest could not be loaded: {whole.failure}</span>
+              <Button size="sm" onClick={whole.retry}>
+                Try again
+              </Button>
+            </>
+          ) : (
+            <span>Loading the rest…</span>
+          )}
+        </p>
       ) : null}
       <Panel className="mt-2 overflow-x-auto">
         <DataTable

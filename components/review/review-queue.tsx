@@ -1,7 +1,7 @@
 import { Panel } from "@/components/ui/panel";
 import type { QueueQuery } from "@/lib/shared/schemas/reviews";
 import { MySubmissions, type MySubmissionRow } from "./my-submissions";
-import { ReviewQueueTable, type QueueRow, type QueueSort } from "./review-queue-table";
+import { queueHref, ReviewQueueTable, type QueueRow, type QueueSort } from "./review-queue-table";
 
 export { waitingFirst } from "./queue-order";
 export type { QueueRow, QueueSort } from "./review-queue-table";
@@ -13,6 +13,8 @@ export function ReviewQueue({
   teaches,
   courses,
   queue,
+  nextCursor,
+  pageLimit,
   mine,
 }: {
   filter: QueueQuery;
@@ -20,7 +22,11 @@ export function ReviewQueue({
   initialSort: QueueSort | null;
   teaches: boolean;
   courses: { id: string; title: string }[];
+  /** The first page of the queue, and the cursor of the next (null: that is all of it). */
   queue: QueueRow[];
+  nextCursor: string | null;
+  /** Rows per page when the browser loads the rest. */
+  pageLimit: number;
   mine: MySubmissionRow[];
 }) {
   return (
@@ -32,7 +38,16 @@ export function ReviewQueue({
             Submitted plans in your courses. Open one to see it in the viewer, comment on a move and a moment, and
             approve or return it.
           </p>
-          <ReviewQueueTable filter={filter} initialSort={initialSort} courses={courses} rows={queue} />
+          <ReviewQueueTable
+            // new filters or a new first sort start a new walk through the pages
+            key={queueHref(filter, initialSort)}
+            filter={filter}
+            initialSort={initialSort}
+            courses={courses}
+            rows={queue}
+            nextCursor={nextCursor}
+            pageLimit={pageLimit}
+          />
         </>
       ) : null}
       {teaches && mine.length === 0 ? null : (

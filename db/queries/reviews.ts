@@ -17,7 +17,10 @@ import {
   type Submission,
   type SubmissionStatus,
 } from "@/db/schema/courses";
+import type { Page } from "@/lib/server/paging";
+import { encodeQueueCursor, type QueueAfter, type QueueOrder } from "@/lib/server/review-queue-paging";
 import { insertOutbox, type OutboxInput } from "./mail";
+import { timestampPageKey } from "./paging";
 
 /** SQL condition: `userId` teaches the course the submission's assignment belongs to. */
 function teachesSubmission(userId: string) {
@@ -57,34 +60,65 @@ export type QueueFilter = {
   assignmentId?: string;
   status?: SubmissionStatus;
   verdict?: Verdict;
-  sort: "submittedAt" | "student" | "assignment" | "verdict" | "status";
-  order: "asc" | "desc";
 };
 
-/** The review queue: submissions to the courses the user teaches, filtered and sorted. */
-export async function listReviewQueue({
+/** Waiting submissions first: false (waiting) sorts before true. */
+const decided = sql<boolean>`(${submissions.status} <> 'submitted')`;
+
+/** The column each sort orders by, and the type its cursor value is read back as. */
+const sortColumns = {
+  submittedAt: { column: submissions.submittedAt, cast: "timestamptz" },
+  student: { column: users.name, cast: "text" },
+  assignment: { column: assignments.title, cast: "text" },
+  // enums compare in their declared order, as the table in the browser ranks them
+  verdict: { column: submissions.verdict, cast: "verdict" },
+  status: { column: submissions.status, cast: "submission_status" },
+} as const;
+
+/** The `where` condition of the rows after the cursor's row, in the queue's order. */
+function pastQueueCursor(order: QueueOrder, after: QueueAfter | undefined): SQL | undefined {
+  if (!after) return undefined;
+  // the waiting order: waiting first, then the longest wait, then the id
+  const waiting = sql`(${decided}, ${submissions.submittedAt}, ${submissions.id}) > (${after.status !== "submitted"}::boolean, ${after.submittedKey}::timestamptz, ${after.id}::uuid)`;
+  if (!order) return waiting;
+  const { column, cast } = sortColumns[order.sort];
+  const value = sql`${order.sort === "submittedAt" ? after.submittedKey : after.value}::${sql.raw(cast)}`;
+  const beyond = sql.raw(order.order === "desc" ? "<" : ">");
+  // the chosen column in its direction; its ties in the waiting order, always ascending
+  return sql`(${column} ${beyond} ${value} or (${column} = ${value} and ${waiting}))`;
+}
+
+/**
+ * One page of the review queue: submissions to the courses the user teaches, filtered, in the
+ * chosen column's order or (none chosen) waiting first, oldest first; ties always in the waiting
+ * order and then by id, so paging gives every row once.
+ */
+export async function listReviewQueuePage({
   userId,
   filter,
+  order,
+  limit,
+  after,
 }: {
   userId: string;
   filter: QueueFilter;
-}): Promise<QueueItem[]> {
-  const sortColumn = {
-    submittedAt: submissions.submittedAt,
-    student: users.name,
-    assignment: assignments.title,
-    verdict: submissions.verdict,
-    status: submissions.status,
-  }[filter.sort];
-  const dir = filter.order === "desc" ? desc : asc;
+  order: QueueOrder;
+  limit: number;
+  after?: QueueAfter;
+}): Promise<Page<QueueItem>> {
   const where: (SQL | undefined)[] = [
     teachesSubmission(userId),
     filter.courseId ? eq(assignments.courseId, filter.courseId) : undefined,
     filter.assignmentId ? eq(submissions.assignmentId, filter.assignmentId) : undefined,
     filter.status ? eq(submissions.status, filter.status) : undefined,
     filter.verdict ? eq(submissions.verdict, filter.verdict) : undefined,
+    pastQueueCursor(order, after),
   ];
-  return db
+  const waitingOrder = [asc(decided), asc(submissions.submittedAt), asc(submissions.id)];
+  const orderBy = order
+    ? [(order.order === "desc" ? desc : asc)(sortColumns[order.sort].column), ...waitingOrder]
+    : waitingOrder;
+  const rows = await db
     .select({
       id: submissions.id,
       studentId: submissions.studentId,
@@ -100,13 +134,34 @@ export async function listReviewQueue({
       attempt: submissions.attempt,
       verdict: submissions.verdict,
       status: submissions.status,
+      submittedKey: timestampPageKey(submissions.submittedAt),
     })
     .from(submissions)
     .innerJoin(assignments, eq(assignments.id, submissions.assignmentId))
     .innerJoin(courses, eq(courses.id, assignments.courseId))
     .innerJoin(users, eq(users.id, submissions.studentId))
     .where(and(...where))
-    .orderBy(dir(sortColumn), asc(submissions.submittedAt), asc(submissions.id));
+    .orderBy(...orderBy)
+    .limit(limit + 1);
+  const valueOf = (r: (typeof rows)[number]): string =>
+    !order || order.sort === "submittedAt"
+      ? ""
+      : { student: r.studentName, assignment: r.assignmentTitle, verdict: r.verdict, status: r.status }[order.sort];
+  const more = rows.length > limit;
+  const shown = more ? rows.slice(0, limit) : rows;
+  const last = shown.at(-1);
+  return {
+    items: shown.map(({ submittedKey: _key, ...item }) => item),
+    nextCursor:
+      more && last
+        ? encodeQueueCursor(order, {
+            submittedKey: last.submittedKey,
+            status: last.status,
+            value: valueOf(last),
+            id: last.id,
+          })
+        : null,
+  };
 }
 
 export type SubmissionForUser = Submission & {

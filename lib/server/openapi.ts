@@ -9,6 +9,7 @@ import * as ds from "@/lib/shared/schemas/datasets";
 import { planSchema } from "@/kinematics";
 import * as s from "../shared/schemas/api";
 import { auditPageQuery, memberPageQuery, projectsPageQuery, timePageQuery } from "./paging";
+import { reviewQueueQueryFields } from "./review-queue-paging";
 
 type Json = Record<string, unknown>;
 
@@ -543,10 +544,12 @@ const operations: Op[] = [
   {
     method: "get",
     path: "/reviews",
-    summary: "The review queue of the courses you teach, with filters and sorting",
+    summary:
+      "The review queue of the courses you teach, a page at a time: waiting for review first and the longest wait on top, or sorted by a column (its ties in that order), with filters",
     tag: "Reviews",
-    query: review.queueQuerySchema,
+    query: reviewQueueQueryFields,
     ok: 200,
+    okDescription: PAGE_DESCRIPTION,
     errors: [400, 401],
   },
   {

@@ -3,7 +3,13 @@
 // first until a column is chosen, the chosen column kept in the URL, one wording per state.
 import { cleanup, fireEvent, render, screen, within } from "@testing-library/react";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { ReviewQueueTable, queueHref, type QueueRow } from "@/components/review/review-queue-table";
+import {
+  appendPage,
+  queueApiQuery,
+  ReviewQueueTable,
+  queueHref,
+  type QueueRow,
+} from "@/components/review/review-queue-table";
 import { submissionStatusWords } from "@/components/review/status-words";
 import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
 
@@ -148,5 +154,44 @@ describe("review queue table", () => {
       `/reviews?courseId=${id}&status=submitted`,
     );
     expect(queueHref(noFilter, { column: "submittedAt", order: "desc" })).toBe("/reviews?sort=submittedAt&order=desc");
+  });
+
+  it("asks the API for the next page with the filters and the first page's order, and the cursor", () => {
+    const id = "6b1f4a52-0f7e-4c47-9f5e-3a1f2b7c9d10";
+    const url = new URL(
+      queueApiQuery(
+        { ...noFilter, courseId: id, verdict: "fault" },
+        { column: "student", order: "desc" },
+        200,
+        "abc_-",
+      ),
+      "http://x.test",
+    );
+    expect(url.pathname).toBe("/api/v1/reviews");
+    expect(Object.fromEntries(url.searchParams)).toEqual({
+      courseId: id,
+      verdict: "fault",
+      sort: "student",
+      order: "desc",
+      limit: "200",
+      cursor: "abc_-",
+    });
+    // waiting first is the API's default: no sort, no order
+    const plain = new URL(queueApiQuery(noFilter, null, 50, "c"), "http://x.test");
+    expect(Object.fromEntries(plain.searchParams)).toEqual({ limit: "50", cursor: "c" });
+  });
+
+  it("adds a later page's rows once each, a row seen again (its state changed between pages) as last seen", () => {
+    const shown = [rows[0], rows[1]];
+    const later = [{ ...rows[1], status: "approved" as const }, rows[2]];
+    const merged = appendPage(shown, later);
+    expect(merged.map((r) => r.id)).toEqual(["a", "b", "c"]);
+    expect(merged.find((r) => r.id === "b")!.status).toBe("approved");
+  });
+
+  it("says nothing about more rows when the first page is the whole queue", () => {
+    render(<ReviewQueueTable filter={noFilter} initialSort={null} courses={[]} rows={rows} nextCursor={null} />);
+    expect(screen.queryByTestId("queue-progress")).toBeNull();
+    expect(screen.getAllByTestId("queue-row")).toHaveLength(4);
   });
 });

@@ -1,15 +1,17 @@
-import { listReviewQueue } from "@/db/queries/reviews";
+import { listReviewQueuePage } from "@/db/queries/reviews";
 import { json, readQuery, route } from "@/lib/server/route";
 import { requireActor } from "@/lib/server/auth-request";
-import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
+import { reviewQueuePageQuery } from "@/lib/server/review-queue-paging";
 
 /**
- * GET /api/v1/reviews — the review queue: submissions to the courses the caller teaches
- * (filters: courseId, assignmentId, status, verdict; sort, order). Scoped by the query itself,
- * so a caller who teaches nothing gets an empty list.
+ * GET /api/v1/reviews — one page of the review queue: submissions to the courses the caller teaches
+ * (filters: courseId, assignmentId, status, verdict), waiting for review first and the longest wait
+ * on top unless `sort` (and `order`) choose a column; `?limit=&cursor=` pages, `nextCursor` null on
+ * the last page. Scoped by the query itself, so a caller who teaches nothing gets an empty list.
  */
 export const GET = route(async (request) => {
-  const filter = readQuery(request, queueQuerySchema);
+  const query = readQuery(request, reviewQueuePageQuery);
   const actor = await requireActor(request);
-  return json({ queue: await listReviewQueue({ userId: actor.userId, filter }) });
+  const page = await listReviewQueuePage({ userId: actor.userId, ...query });
+  return json({ queue: page.items, nextCursor: page.nextCursor });
 });
