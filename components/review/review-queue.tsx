@@ -1,7 +1,7 @@
 import { Panel } from "@/components/ui/panel";
 import type { QueueQuery } from "@/lib/shared/schemas/reviews";
 import { MySubmissions, type MySubmissionRow } from "./my-submissions";
-import { queueHref, ReviewQueueTable, type QueueRow, type QueueSort } from "./review-queue-table";
+import { ReviewQueueTable, type QueueRow, type QueueSort } from "./review-queue-table";
 
 export { waitingFirst } from "./queue-order";
 export type { QueueRow, QueueSort } from "./review-queue-table";
@@ -39,8 +39,8 @@ export function ReviewQueue({
             approve or return it.
           </p>
           <ReviewQueueTable
-            // new filters or a new first sort start a new walk through the pages
-            key={queueHref(filter, initialSort)}
+            // new filters or a new first sort start a new walk through the pages (this is a server component: no client helpers here)
+            key={JSON.stringify([filter, initialSort])}
             filter={filter}
             initialSort={initialSort}
             courses={courses}
