@@ -588,3 +588,88 @@ describe("bad input on every write route", () => {
     expect(await counts()).toEqual(before);
   });
 });
+
+// The upload limits and the arm revisions a course may name, here beside the other bad input
+// (their own tests: recordings.test.ts, recordings-stream.test.ts, tests/security/uploads.probe.ts,
+// tests/integration/courses/authorization.test.ts).
+describe("bad input: uploads over the limit and arm revisions one cannot read", () => {
+  it("refuses a recording upload over the limit with 413, declared or streamed, and stores nothing", async () => {
+    const { env } = await import("@/lib/server/env");
+    const upload = await import("@/app/api/v1/projects/[projectId]/recordings/route");
+    const { recordings } = await import("@/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const limit = env().UPLOAD_LIMIT_BYTES;
+    const url = `http://127.0.0.1/api/v1/projects/${ids.projectId}/recordings?name=Over`;
+    const headers = { "content-type": "text/csv", authorization: `Bearer ${(auth as { bearer: string }).bearer}` };
+    const params = { params: Promise.resolve({ projectId: ids.projectId }) };
+    // declared: refused from the headers, before any of the body is read
+    let pulled = 0;
+    const declared = new ReadableStream<Uint8Array>({
+      pull(controller) {
+        pulled++;
+        controller.enqueue(new Uint8Array(1024));
+      },
+    });
+    const first = await upload.POST(
+      new Request(url, {
+        method: "POST",
+        headers: { ...headers, "content-length": String(limit + 1) },
+        body: declared,
+        duplex: "half",
+      } as RequestInit),
+      params,
+    );
+    expect(first.status).toBe(413);
+    expect(pulled).toBeLessThanOrEqual(1); // a stream may be asked for its first chunk when it is made
+    // streamed (no length): refused once the count passes the limit
+    const chunk = new TextEncoder().encode("0,0\n".repeat(16_384));
+    let sent = 0;
+    const streamed = new ReadableStream<Uint8Array>({
+      pull(controller) {
+        if (sent > limit + chunk.byteLength) return controller.close();
+        sent += chunk.byteLength;
+        controller.enqueue(chunk);
+      },
+    });
+    const second = await upload.POST(
+      new Request(url, { method: "POST", headers, body: streamed, duplex: "half" } as RequestInit),
+      params,
+    );
+    expect(second.status).toBe(413);
+    expect(((await second.json()) as { error: { code: string } }).error.code).toBe("payload_too_large");
+    const stored = await db.select().from(recordings).where(eq(recordings.projectId, ids.projectId));
+    expect(stored.filter((r) => r.name === "Over")).toEqual([]);
+  });
+
+  it("refuses a course on another project's private arm revision with 422, in the same words as an id that does not exist", async () => {
+    const courses = await import("@/app/api/v1/courses/route");
+    const stranger = await makeUser("researcher", "bad-input-stranger");
+    const theirs = await createProject({ name: "Private", kind: "research", userId: stranger.id });
+    const secret = await createArm({
+      projectId: theirs.id,
+      name: "Secret arm",
+      description: demoArm.description,
+      userId: stranger.id,
+    });
+    const instructor = await makeUser("instructor", "bad-input-instructor");
+    const as = { bearer: await tokenFor(instructor.id) };
+    const attempt = (requiredArmRevisionId: string) =>
+      call(courses.POST, {
+        method: "POST",
+        path: "/api/v1/courses",
+        auth: as,
+        body: { title: "Course", term: "Spring", requiredArmRevisionId },
+      });
+    const existing = await attempt(secret!.revision.id);
+    const missing = await attempt("00000000-0000-4000-8000-000000000000");
+    expect(existing.status).toBe(422);
+    expect(missing.status).toBe(422);
+    // nothing tells the two apart: the revision's existence is not revealed
+    const words = (r: typeof existing) => {
+      const { code, message, issues } = errorOf(r);
+      return { code, message, issues };
+    };
+    expect(words(existing)).toEqual(words(missing));
+    expect(JSON.stringify(existing.body)).not.toContain("Secret arm");
+  });
+});
