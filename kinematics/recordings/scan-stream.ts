@@ -24,11 +24,11 @@
  * @module
  */
 import type { Arm } from "../plan/arm";
-import { findingKinds, limitTolerance, type Severity, type Verdict } from "../check/report";
-import { formatNumber, formatQuantity, jointLabel, limitLevel } from "../check/wording";
+import { findingKinds, limitTolerance, type Verdict } from "../check/report";
+import { formatNumber } from "../check/wording";
 import { alignRecording, headerLine, lineOfSample, problemList, type RecordingProblem } from "./recording";
 import type { RefusedRecording, ScanOptions } from "./scan";
-import type { StreamFinding, StreamReport } from "./stream-check";
+import { JUMP, RANGE, SPEED, streamFinding, type StreamFinding, type StreamReport } from "./stream-check";
 
 /** Options for {@link createRecordingScanner}: those of {@link scanRecording} and two bounds. */
 export interface StreamScanOptions extends ScanOptions {
@@ -94,10 +94,6 @@ const twoTo53 = 9007199254740992;
 const textDecoder = new TextDecoder();
 /** A lone line feed: the line end given to a row that arrived without one (csv.ts appends one too). */
 const emptyRow = new Uint8Array([LF]);
-
-const RANGE = 0;
-const JUMP = 1;
-const SPEED = 2;
 
 /**
  * A scanner for a recording file fed in chunks, giving {@link scanRecording}'s result (see the module
@@ -752,65 +748,5 @@ function gapProblem(k: number, dt: number, maxGapS: number): RecordingProblem {
     line: lineOfSample(k),
     column: "t",
     message: `gap of ${formatNumber(dt)} s after the previous line (longer than ${formatNumber(maxGapS)} s)`,
-  };
-}
-
-/** One stream finding with its message, as stream-check.ts words it. */
-function streamFinding(
-  arm: Arm,
-  kind: number,
-  j: number,
-  sample: number,
-  endSample: number,
-  time: number,
-  endTime: number,
-  value: number,
-  severity: Severity,
-): StreamFinding {
-  const joint = arm.joints[j];
-  const v = joint.maxVelocity;
-  const line = lineOfSample(sample);
-  const endLine = lineOfSample(endSample);
-  const span =
-    endSample > sample
-      ? `lines ${line}–${endLine} (t = ${formatNumber(time)}–${formatNumber(endTime)} s)`
-      : `line ${line} (t = ${formatNumber(time)} s)`;
-  const head = `${jointLabel(joint)[0].toUpperCase()}${jointLabel(joint).slice(1)}, ${span}`;
-  const fix = "Repair the recording (rate-limit it) before streaming it, or slow its playback.";
-  const where = { severity, joint: j, sample, endSample, line, endLine, time, value };
-  if (kind === RANGE) {
-    return {
-      ...where,
-      kind: "range",
-      limit: value > joint.max ? joint.max : joint.min,
-      message:
-        `${head}: position ${formatQuantity(value, joint, "position")} is outside its travel ` +
-        `${formatQuantity(joint.min, joint, "position")} to ${formatQuantity(joint.max, joint, "position")}; the controller would refuse ` +
-        `these targets. Repair clamps them into the travel.`,
-    };
-  }
-  if (kind === JUMP) {
-    const limit = v / arm.controlRateHz;
-    const outcome =
-      severity === "fault"
-        ? "the controller would stop with a jump-too-far fault"
-        : "the controller would follow, close to its jump limit";
-    return {
-      ...where,
-      kind: "jump",
-      limit,
-      message:
-        `${head}: steps of up to ${formatQuantity(value, joint, "step")} per sample, ` +
-        `${limitLevel(severity, arm.cautionRatio, `${formatQuantity(limit, joint, "step")} per control period`)} ` +
-        `(${formatQuantity(v, joint, "velocity")} at ${formatNumber(arm.controlRateHz)} Hz); streamed as instant moves, ${outcome}. ${fix}`,
-    };
-  }
-  return {
-    ...where,
-    kind: "speed-over",
-    limit: v,
-    message:
-      `${head}: speed up to ${formatQuantity(value, joint, "velocity")} between samples, ` +
-      `${limitLevel(severity, arm.cautionRatio, formatQuantity(v, joint, "velocity"))}. ${fix}`,
   };
 }

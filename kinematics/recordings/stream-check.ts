@@ -50,9 +50,10 @@ export interface StreamReport {
   findings: StreamFinding[];
 }
 
-const RANGE = 0;
-const JUMP = 1;
-const SPEED = 2;
+/** The run kinds of the stream check (also the streaming scan's). */
+export const RANGE = 0;
+export const JUMP = 1;
+export const SPEED = 2;
 
 /** Options for {@link streamCheck}. */
 export interface StreamOptions {
@@ -110,9 +111,9 @@ export function streamCheck(arm: Arm, recording: Recording, options: StreamOptio
           runStart[slot],
           endSample,
           timeS[runStart[slot]],
+          timeS[endSample],
           runWorst[slot],
           level === 2 ? "fault" : "caution",
-          recording,
         ),
       );
     }
@@ -163,17 +164,21 @@ export function streamCheck(arm: Arm, recording: Recording, options: StreamOptio
   return { verdict, samples: count, rateHz: spanS > 0 ? (count - 1) / spanS : 0, findings: found };
 }
 
-/** Builds one stream finding with its message. */
-function streamFinding(
+/**
+ * Builds one stream finding with its message: a run of `kind` (RANGE, JUMP, SPEED) on joint j from
+ * `sample` at `time` to `endSample` at `endTime`, its worst `value`. Shared by the streaming scan
+ * (scan-stream.ts), which holds no samples and so passes the end time itself.
+ */
+export function streamFinding(
   arm: Arm,
   kind: number,
   j: number,
   sample: number,
   endSample: number,
   time: number,
+  endTime: number,
   value: number,
   severity: Severity,
-  recording: Recording,
 ): StreamFinding {
   const joint = arm.joints[j];
   const v = joint.maxVelocity;
@@ -181,7 +186,7 @@ function streamFinding(
   const endLine = lineOfSample(endSample);
   const span =
     endSample > sample
-      ? `lines ${line}–${endLine} (t = ${formatNumber(time)}–${formatNumber(recording.timeS[endSample])} s)`
+      ? `lines ${line}–${endLine} (t = ${formatNumber(time)}–${formatNumber(endTime)} s)`
       : `line ${line} (t = ${formatNumber(time)} s)`;
   const head = `${jointLabel(joint)[0].toUpperCase()}${jointLabel(joint).slice(1)}, ${span}`;
   const fix = "Repair the recording (rate-limit it) before streaming it, or slow its playback.";
