@@ -158,7 +158,10 @@ describe("review flow in the browser", () => {
     await page.getByRole("button", { name: "Approve despite faults…" }).click();
     const dialog = page.getByRole("dialog", { name: "Approve a plan whose check found faults?" });
     await dialog.waitFor();
-    await expect(dialog.getByTestId("approval-faults").textContent()).resolves.toMatch(/Fault · Move 1\b/);
+    // the severity, then the engine's message, which names the move and the joint itself (once)
+    const faultLines = (await dialog.getByTestId("approval-faults").textContent()) ?? "";
+    expect(faultLines).toMatch(/^Fault: Move 1, joint "base": /);
+    expect(faultLines).not.toContain("Move 1 · ");
     expect(await dialog.getByRole("button", { name: "Approve with this reason" }).isDisabled()).toBe(true);
     await dialog
       .getByRole("textbox", { name: "Reason for approving (the student sees it)" })
