@@ -21,11 +21,12 @@ export type CursorKind = { key: "timestamp" | "text"; id: "uuid" | "serial" };
 
 /** PostgreSQL `to_char(… at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`: microseconds kept, unlike a JS Date. */
 const TIMESTAMP = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})\.\d{6}Z$/;
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+/** A uuid as a cursor carries it. */
+export const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const SERIAL = /^[1-9]\d{0,17}$/;
 
 /** A timestamp key that PostgreSQL will read back as the same instant (no 30 February). */
-function validTimestamp(key: string): boolean {
+export function validTimestamp(key: string): boolean {
   const m = TIMESTAMP.exec(key);
   if (!m) return false;
   const [y, mo, d, h, mi, s] = m.slice(1).map(Number);

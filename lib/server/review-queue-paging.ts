@@ -9,7 +9,7 @@
  */
 import { z } from "zod";
 import { queueQuerySchema } from "@/lib/shared/schemas/reviews";
-import { encodeCursor, pageQueryShape } from "./paging";
+import { encodeCursor, pageQueryShape, UUID, validTimestamp } from "./paging";
 
 const STATUSES = ["submitted", "returned", "approved"] as const;
 const VERDICTS = ["pass", "caution", "fault"] as const;
@@ -30,27 +30,9 @@ export type QueueAfter = {
   id: string;
 };
 
-const TIMESTAMP = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})\.\d{6}Z$/;
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const SEPARATOR = "|";
 // A name of 120 characters, each escaped in JSON as \uXXXX, still fits.
 const CURSOR_MAX_CHARS = 2048;
-
-/** A timestamp PostgreSQL will read back as the same instant (no 30 February, no hour 24). */
-function validTimestamp(key: string): boolean {
-  const m = TIMESTAMP.exec(key);
-  if (!m) return false;
-  const [y, mo, d, h, mi, s] = m.slice(1).map(Number);
-  const date = new Date(Date.UTC(y, mo - 1, d, h, mi, s));
-  return (
-    date.getUTCFullYear() === y &&
-    date.getUTCMonth() === mo - 1 &&
-    date.getUTCDate() === d &&
-    h < 24 &&
-    mi < 60 &&
-    s < 60
-  );
-}
 
 /** The order's name inside a cursor, so a cursor of one order is refused by another. */
 function orderTag(order: QueueOrder): string {
