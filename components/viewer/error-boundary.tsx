@@ -59,3 +59,26 @@ function probeWebgl(): boolean {
     return false;
   }
 }
+
+let softwareCached: boolean | undefined;
+
+/**
+ * Whether WebGL is drawn in software (no GPU: SwiftShader, llvmpipe — headless browsers, virtual
+ * machines, remote desktops), where every frame of the 3D view costs the request thread tens of
+ * milliseconds; the view then draws at device pixel ratio 1 without multisampling.
+ */
+export function webglInSoftware(): boolean {
+  if (softwareCached !== undefined) return softwareCached;
+  softwareCached = false;
+  try {
+    const c = document.createElement("canvas");
+    const gl = (c.getContext("webgl2") ?? c.getContext("webgl")) as WebGLRenderingContext | null;
+    const info = gl?.getExtension("WEBGL_debug_renderer_info");
+    const renderer = info && gl ? String(gl.getParameter(info.UNMASKED_RENDERER_WEBGL)) : "";
+    softwareCached = /swiftshader|llvmpipe|softpipe|software/i.test(renderer);
+    gl?.getExtension("WEBGL_lose_context")?.loseContext();
+  } catch {
+    softwareCached = false;
+  }
+  return softwareCached;
+}

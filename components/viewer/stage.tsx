@@ -20,6 +20,7 @@ import { usePlayheadStore, type Playhead } from "@/components/editor/playhead";
 import { linkShapes, ShapeMesh } from "./arm-mesh";
 import { ghostColors, keepOutColors, severityColors, toolPathColor } from "./colors";
 import { touchedKeepOut } from "./keep-out";
+import { webglInSoftware } from "./error-boundary";
 import { createPoseScratch, poseAt } from "./pose-at";
 
 export interface StageProps {
@@ -260,6 +261,8 @@ function reachOf(chain: ArmChain): number {
 export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut, findings }: StageProps) {
   const playhead = usePlayheadStore();
   const compiled = useCompiled(chain, joints);
+  // without a GPU every frame is drawn in software: fewer pixels, no multisampling
+  const software = useMemo(() => webglInSoftware(), []);
   const touched = useMemo(() => touchedKeepOut(keepOut ?? [], findings ?? []), [keepOut, findings]);
   const view = useMemo(() => {
     const reach = reachOf(chain);
@@ -274,9 +277,9 @@ export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, k
   return (
     <Canvas
       frameloop="demand"
-      dpr={[1, 1.5]}
+      dpr={software ? 1 : [1, 1.5]}
       camera={{ position: view.position, up: [0, 0, 1], fov: 36, near: 0.01, far: 30 }}
-      gl={{ antialias: true, preserveDrawingBuffer: true }}
+      gl={{ antialias: !software, preserveDrawingBuffer: true }}
       aria-label="3D view: the arm at the playhead"
       role="img"
     >
