@@ -15,6 +15,8 @@ import {
   type SubmissionStatus,
 } from "@/db/schema/courses";
 import { insertOutbox, type OutboxInput } from "./mail";
+import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
+import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
 
 /** Letters and digits without look-alikes (no 0/O, 1/I/L). */
 const JOIN_ALPHABET = "ABCDEFGHJKMNPQRSTUVWXYZ23456789";
@@ -405,6 +407,15 @@ export type MySubmission = Omit<Submission, "document" | "report"> & {
 };
 
 /** The user's own submissions, newest first (optionally for one assignment). */
+const ownSubmissionsOrder: PageOrder = {
+  key: submissions.submittedAt,
+  id: submissions.id,
+  direction: "newest first",
+  keyType: "timestamptz",
+  idType: "uuid",
+};
+
+/** The user's own submissions (all, or of one assignment), newest first: every one, for the pages that show them all. */
 export async function listOwnSubmissions({
   userId,
   assignmentId,
@@ -412,8 +423,25 @@ export async function listOwnSubmissions({
   userId: string;
   assignmentId?: string;
 }): Promise<MySubmission[]> {
-  return db
+  const page = await listOwnSubmissionsPage({ userId, assignmentId, limit: Number.MAX_SAFE_INTEGER - 1 });
+  return page.items;
+}
+
+/** One page of the user's own submissions (all, or of one assignment), newest first. */
+export async function listOwnSubmissionsPage({
+  userId,
+  assignmentId,
+  limit,
+  after,
+}: {
+  userId: string;
+  assignmentId?: string;
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<MySubmission>> {
+  const rows = await db
     .select({
+      pageKey: timestampPageKey(submissions.submittedAt),
       id: submissions.id,
       assignmentId: submissions.assignmentId,
       studentId: submissions.studentId,
@@ -436,7 +464,18 @@ export async function listOwnSubmissions({
     .innerJoin(assignments, eq(assignments.id, submissions.assignmentId))
     .innerJoin(courses, eq(courses.id, assignments.courseId))
     .where(
-      and(eq(submissions.studentId, userId), assignmentId ? eq(submissions.assignmentId, assignmentId) : undefined),
+      and(
+        eq(submissions.studentId, userId),
+        assignmentId ? eq(submissions.assignmentId, assignmentId) : undefined,
+        pastCursor(ownSubmissionsOrder, after),
+      ),
     )
-    .orderBy(desc(submissions.submittedAt));
+    .orderBy(...pageOrderBy(ownSubmissionsOrder))
+    .limit(limit + 1);
+  return toPage(
+    rows,
+    limit,
+    (r) => r.id,
+    ({ pageKey: _key, ...submission }) => submission,
+  );
 }

@@ -143,15 +143,29 @@ export async function deletePlan({ planId, userId }: { planId: string; userId: s
 export type VersionListItem = Omit<PlanVersion, "document"> & { authorName: string; armRevision: number };
 
 /** A plan's versions, newest first, for a member of its project (documents left out). */
-export async function listPlanVersions({
+const versionsOrder: PageOrder = {
+  key: planVersions.createdAt,
+  id: planVersions.id,
+  direction: "newest first",
+  keyType: "timestamptz",
+  idType: "uuid",
+};
+
+/** One page of a plan's versions, newest first (a version is saved after the one before it). */
+export async function listPlanVersionsPage({
   planId,
   userId,
+  limit,
+  after,
 }: {
   planId: string;
   userId: string;
-}): Promise<VersionListItem[]> {
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<VersionListItem>> {
   const rows = await db
     .select({
+      pageKey: timestampPageKey(planVersions.createdAt),
       id: planVersions.id,
       planId: planVersions.planId,
       number: planVersions.number,
@@ -169,9 +183,15 @@ export async function listPlanVersions({
     .innerJoin(projectMembers, memberOfPlanProject(userId))
     .innerJoin(users, eq(users.id, planVersions.authorId))
     .innerJoin(armRevisions, eq(armRevisions.id, planVersions.armRevisionId))
-    .where(eq(planVersions.planId, planId))
-    .orderBy(desc(planVersions.number));
-  return rows;
+    .where(and(eq(planVersions.planId, planId), pastCursor(versionsOrder, after)))
+    .orderBy(...pageOrderBy(versionsOrder))
+    .limit(limit + 1);
+  return toPage(
+    rows,
+    limit,
+    (r) => r.id,
+    ({ pageKey: _key, ...version }) => version,
+  );
 }
 
 export type VersionForUser = PlanVersion & {

@@ -1,5 +1,7 @@
 import "server-only";
-import { and, desc, eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
+import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
+import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
 import { db } from "@/db";
 import { projectMembers, recordings, type Recording } from "@/db/schema";
 
@@ -11,6 +13,15 @@ export async function createRecording(input: NewRecording): Promise<Recording> {
 }
 
 /** The recordings of a project the user is a member of, newest first. */
+const recordingsOrder: PageOrder = {
+  key: recordings.createdAt,
+  id: recordings.id,
+  direction: "newest first",
+  keyType: "timestamptz",
+  idType: "uuid",
+};
+
+/** A project's recordings, newest first (the recordings page shows them all). */
 export async function listRecordings({
   projectId,
   userId,
@@ -26,8 +37,38 @@ export async function listRecordings({
       and(eq(projectMembers.projectId, recordings.projectId), eq(projectMembers.userId, userId)),
     )
     .where(eq(recordings.projectId, projectId))
-    .orderBy(desc(recordings.createdAt));
+    .orderBy(...pageOrderBy(recordingsOrder));
   return rows.map((r) => r.recording);
+}
+
+/** One page of a project's recordings, newest first. */
+export async function listRecordingsPage({
+  projectId,
+  userId,
+  limit,
+  after,
+}: {
+  projectId: string;
+  userId: string;
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<Recording>> {
+  const rows = await db
+    .select({ recording: recordings, pageKey: timestampPageKey(recordings.createdAt) })
+    .from(recordings)
+    .innerJoin(
+      projectMembers,
+      and(eq(projectMembers.projectId, recordings.projectId), eq(projectMembers.userId, userId)),
+    )
+    .where(and(eq(recordings.projectId, projectId), pastCursor(recordingsOrder, after)))
+    .orderBy(...pageOrderBy(recordingsOrder))
+    .limit(limit + 1);
+  return toPage(
+    rows,
+    limit,
+    (r) => r.recording.id,
+    (r) => r.recording,
+  );
 }
 
 /** One recording with the user's role in its project, if they are a member. */

@@ -2,6 +2,8 @@ import "server-only";
 import { and, desc, eq, gt, isNull, or } from "drizzle-orm";
 import { db } from "@/db";
 import { apiTokens, users, type SiteRole } from "@/db/schema";
+import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
+import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
 
 export type TokenListItem = {
   id: string;
@@ -33,8 +35,41 @@ export async function createApiToken(input: {
   return row;
 }
 
+const tokensOrder: PageOrder = {
+  key: apiTokens.createdAt,
+  id: apiTokens.id,
+  direction: "newest first",
+  keyType: "timestamptz",
+  idType: "uuid",
+};
+
+/** The user's tokens, newest first (the tokens page shows them all). */
 export async function listApiTokens({ userId }: { userId: string }): Promise<TokenListItem[]> {
   return db.select(listColumns).from(apiTokens).where(eq(apiTokens.userId, userId)).orderBy(desc(apiTokens.createdAt));
+}
+
+/** One page of the user's tokens, newest first. */
+export async function listApiTokensPage({
+  userId,
+  limit,
+  after,
+}: {
+  userId: string;
+  limit: number;
+  after?: PageAfter;
+}): Promise<Page<TokenListItem>> {
+  const rows = await db
+    .select({ ...listColumns, pageKey: timestampPageKey(apiTokens.createdAt) })
+    .from(apiTokens)
+    .where(and(eq(apiTokens.userId, userId), pastCursor(tokensOrder, after)))
+    .orderBy(...pageOrderBy(tokensOrder))
+    .limit(limit + 1);
+  return toPage(
+    rows,
+    limit,
+    (r) => r.id,
+    ({ pageKey: _key, ...token }) => token,
+  );
 }
 
 /** Revokes one of the user's own tokens; undefined when it is not theirs or does not exist. */

@@ -125,16 +125,35 @@ export async function request<T>(path: string, init?: RequestInit): Promise<T> {
 
 const post = (body: unknown): RequestInit => ({ method: "POST", body: JSON.stringify(body) });
 
+/** Most pages {@link allPages} follows before it refuses to go on (200 rows each: 200,000 rows). */
+const MAX_PAGES = 1000;
+
+/**
+ * Every row of a paged list (`?limit=&cursor=`, `nextCursor`): the pages are fetched one after
+ * another until the last, so a screen never shows a list cut at the first page.
+ */
+export async function allPages<T>(path: string, key: string): Promise<T[]> {
+  const rows: T[] = [];
+  let cursor: string | null = null;
+  for (let page = 0; page < MAX_PAGES; page++) {
+    const sep = path.includes("?") ? "&" : "?";
+    const url: string = `${path}${sep}limit=200${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ""}`;
+    const body: Record<string, unknown> & { nextCursor?: string | null } = await request(url);
+    rows.push(...((body[key] as T[] | undefined) ?? []));
+    cursor = body.nextCursor ?? null;
+    if (!cursor) return rows;
+  }
+  throw new Error(`The list has more than ${MAX_PAGES * 200} rows; it was not loaded.`);
+}
+
 export const api = {
-  listProjects: () => request<{ projects: ProjectDto[] }>("/api/v1/projects").then((r) => r.projects),
+  listProjects: () => allPages<ProjectDto>("/api/v1/projects", "projects"),
   createProject: (input: { name: string; kind?: "research" | "personal" | "course" }) =>
     request<{ project: ProjectDto }>("/api/v1/projects", post(input)).then((r) => r.project),
-  listPlans: (projectId: string) =>
-    request<{ plans: PlanDto[] }>(`/api/v1/projects/${projectId}/plans`).then((r) => r.plans),
+  listPlans: (projectId: string) => allPages<PlanDto>(`/api/v1/projects/${projectId}/plans`, "plans"),
   createPlan: (projectId: string, input: { name: string; armId: string }) =>
     request<{ plan: PlanDto }>(`/api/v1/projects/${projectId}/plans`, post(input)).then((r) => r.plan),
-  listVersions: (planId: string) =>
-    request<{ versions: VersionDto[] }>(`/api/v1/plans/${planId}/versions`).then((r) => r.versions),
+  listVersions: (planId: string) => allPages<VersionDto>(`/api/v1/plans/${planId}/versions`, "versions"),
   getVersion: (planId: string, number: number) =>
     request<{ version: Jsonified<PlanVersion> & { armRevision: number; authorName: string } }>(
       `/api/v1/plans/${planId}/versions/${number}`,
@@ -162,7 +181,7 @@ export const api = {
       post(input),
     ),
   listRecordings: (projectId: string) =>
-    request<{ recordings: RecordingDto[] }>(`/api/v1/projects/${projectId}/recordings`).then((r) => r.recordings),
+    allPages<RecordingDto>(`/api/v1/projects/${projectId}/recordings`, "recordings"),
   recordingFileUrl: (recordingId: string) => `/api/v1/recordings/${recordingId}/file`,
   check: (document: unknown) => request<{ report: Report }>("/api/v1/check", post(document)),
 
@@ -189,8 +208,7 @@ export const api = {
       `/api/v1/assignments/${assignmentId}/submissions`,
       post(input),
     ),
-  listOwnSubmissions: () =>
-    request<{ submissions: OwnSubmissionDto[] }>("/api/v1/submissions").then((r) => r.submissions),
+  listOwnSubmissions: () => allPages<OwnSubmissionDto>("/api/v1/submissions", "submissions"),
   getSubmission: (submissionId: string) => request<SubmissionDetailDto>(`/api/v1/submissions/${submissionId}`),
   addComment: (submissionId: string, input: z.input<typeof commentSchema>) =>
     request<{ comment: CommentDto }>(`/api/v1/reviews/${submissionId}/comments`, post(input)).then((r) => r.comment),

@@ -103,10 +103,13 @@ const operations: Op[] = [
   {
     method: "get",
     path: "/tokens",
-    summary: "List your API tokens (signed-in session only: an API token cannot manage tokens)",
+    summary:
+      "List your API tokens, newest first, a page at a time (signed-in session only: an API token cannot manage tokens)",
     tag: "Tokens",
+    query: timePageQuery,
     ok: 200,
-    errors: [401, 403],
+    okDescription: PAGE_DESCRIPTION,
+    errors: [400, 401, 403],
   },
   {
     method: "post",
@@ -316,11 +319,13 @@ const operations: Op[] = [
   {
     method: "get",
     path: "/plans/{planId}/versions",
-    summary: "List a plan's versions",
+    summary: "List a plan's versions, newest first, a page at a time",
     tag: "Versions",
     params: [p("planId")],
+    query: timePageQuery,
     ok: 200,
-    errors: [401, 404],
+    okDescription: PAGE_DESCRIPTION,
+    errors: [400, 401, 404],
   },
   {
     method: "post",
@@ -374,11 +379,13 @@ const operations: Op[] = [
   {
     method: "get",
     path: "/projects/{projectId}/recordings",
-    summary: "List a project's recordings",
+    summary: "List a project's recordings, newest first, a page at a time",
     tag: "Recordings",
     params: [p("projectId")],
+    query: timePageQuery,
     ok: 200,
-    errors: [401, 404],
+    okDescription: PAGE_DESCRIPTION,
+    errors: [400, 401, 404],
   },
   {
     method: "post",
@@ -506,11 +513,13 @@ const operations: Op[] = [
   {
     method: "get",
     path: "/assignments/{assignmentId}/submissions",
-    summary: "Your own submissions to an assignment, newest first",
+    summary: "Your own submissions to an assignment, newest first, a page at a time",
     tag: "Submissions",
     params: [p("assignmentId")],
+    query: timePageQuery,
     ok: 200,
-    errors: [401, 403, 404],
+    okDescription: PAGE_DESCRIPTION,
+    errors: [400, 401, 403, 404],
   },
   {
     method: "post",
@@ -526,10 +535,12 @@ const operations: Op[] = [
   {
     method: "get",
     path: "/submissions",
-    summary: "Your own submissions across courses, newest first",
+    summary: "Your own submissions across courses, newest first, a page at a time",
     tag: "Submissions",
+    query: timePageQuery,
     ok: 200,
-    errors: [401],
+    okDescription: PAGE_DESCRIPTION,
+    errors: [400, 401],
   },
   {
     method: "get",

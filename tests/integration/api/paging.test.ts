@@ -7,13 +7,30 @@ import "./_env";
 import { eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db";
-import { plans } from "@/db/schema";
+import { apiTokens, plans } from "@/db/schema";
+import { createRecording } from "@/db/queries/recordings";
+import { createApiToken } from "@/db/queries/tokens";
+import { generateToken } from "@/lib/server/tokens";
+import * as versionsRoute from "@/app/api/v1/plans/[planId]/versions/route";
+import * as recordingsRoute from "@/app/api/v1/projects/[projectId]/recordings/route";
+import * as tokensRoute from "@/app/api/v1/tokens/route";
+import * as submissionsRoute from "@/app/api/v1/submissions/route";
 import * as projectsRoute from "@/app/api/v1/projects/route";
 import * as plansRoute from "@/app/api/v1/projects/[projectId]/plans/route";
 import * as membersRoute from "@/app/api/v1/projects/[projectId]/members/route";
 import * as auditRoute from "@/app/api/v1/projects/[projectId]/audit/route";
 import { encodeCursor } from "@/lib/server/paging";
-import { call, demoArm, errorOf, makeUser, tokenFor, type Auth, type CallResult } from "./_helpers";
+import {
+  call,
+  demoArm,
+  errorOf,
+  gentlePlan,
+  makeUser,
+  sessionCookieFor,
+  tokenFor,
+  type Auth,
+  type CallResult,
+} from "./_helpers";
 
 type Listed = { id?: string; userId?: string; email?: string; updatedAt?: string; createdAt?: string };
 
@@ -188,5 +205,116 @@ describe("cursor paging of the list endpoints", () => {
     const big = await getMembers("?limit=201");
     expect(big.status).toBe(400);
     expect(errorOf(big).issues).toEqual([{ path: "query.limit", message: "must be 200 or less" }]);
+  });
+});
+
+describe("cursor paging of versions, recordings, tokens and submissions", () => {
+  let auth: Auth;
+  let cookie: Auth;
+  let planId: string;
+  let projectId: string;
+  const versionIds: string[] = [];
+  const recordingIds: string[] = [];
+  const tokenIds: string[] = [];
+  beforeAll(async () => {
+    const owner = await makeUser("researcher", "pager-lists");
+    auth = { bearer: await tokenFor(owner.id) };
+    cookie = { cookie: await sessionCookieFor(owner.id) };
+    const project = await call(projectsRoute.POST, {
+      method: "POST",
+      path: "/api/v1/projects",
+      auth,
+      body: { name: "Paged lists", kind: "research" },
+    });
+    projectId = (project.body as { project: { id: string } }).project.id;
+    const plan = await call(plansRoute.POST, {
+      method: "POST",
+      path: `/api/v1/projects/${projectId}/plans`,
+      params: { projectId },
+      auth,
+      body: { name: "Versions", armId: demoArm.id },
+    });
+    planId = (plan.body as { plan: { id: string } }).plan.id;
+    for (let v = 0; v < 5; v++) {
+      const doc = gentlePlan() as { moves: { duration: number }[] };
+      doc.moves[0].duration = 2 + v;
+      const res = await call(versionsRoute.POST, {
+        method: "POST",
+        path: `/api/v1/plans/${planId}/versions`,
+        params: { planId },
+        auth,
+        body: { baseVersion: v, document: doc },
+      });
+      expect(res.status, res.text).toBe(201);
+      versionIds.push((res.body as { version: { id: string } }).version.id);
+    }
+    for (let r = 0; r < 5; r++) {
+      const row = await createRecording({
+        projectId,
+        armId: null,
+        name: `Recording ${r}`,
+        objectKey: `recordings/${projectId}/paged-${r}.csv`,
+        contentType: "text/csv",
+        sizeBytes: 10,
+        sha256: "0".repeat(64),
+        sampleCount: 2,
+        jointCount: 1,
+        durationS: 1,
+        createdBy: owner.id,
+      });
+      recordingIds.push(row.id);
+    }
+    // the token made above for `auth` is one of them
+    const [own] = await db.select({ id: apiTokens.id }).from(apiTokens).where(eq(apiTokens.userId, owner.id));
+    tokenIds.push(own.id);
+    for (let t = 0; t < 4; t++) {
+      const { hash, prefix } = generateToken();
+      const row = await createApiToken({ userId: owner.id, name: `t${t}`, tokenHash: hash, prefix, expiresAt: null });
+      tokenIds.push(row.id);
+    }
+  }, 60_000);
+
+  const getVersions = (q: string) =>
+    call(versionsRoute.GET, { path: `/api/v1/plans/${planId}/versions${q}`, params: { planId }, auth });
+  const getRecordings = (q: string) =>
+    call(recordingsRoute.GET, {
+      path: `/api/v1/projects/${projectId}/recordings${q}`,
+      params: { projectId },
+      auth,
+    });
+  const getTokens = (q: string) => call(tokensRoute.GET, { path: `/api/v1/tokens${q}`, auth: cookie });
+  const getSubmissions = (q: string) => call(submissionsRoute.GET, { path: `/api/v1/submissions${q}`, auth });
+
+  it("pages a plan's versions two at a time, newest first, every version once", async () => {
+    const { pages, cursors } = await walk(getVersions, "versions", 2);
+    expect(pages.map((p) => p.length)).toEqual([2, 2, 1]);
+    expect(cursors.at(-1)).toBeNull();
+    expect(pages.flat().map((v) => v.id)).toEqual([...versionIds].reverse());
+  });
+
+  it("pages a project's recordings and the caller's tokens, every row once, the same order as one large page", async () => {
+    for (const [get, key, ids] of [
+      [getRecordings, "recordings", recordingIds],
+      [getTokens, "tokens", tokenIds],
+    ] as const) {
+      const { pages } = await walk(get, key, 2);
+      expect(pages.map((p) => p.length)).toEqual([2, 2, 1]);
+      const walked = pages.flat().map((r) => r.id!);
+      expect([...walked].sort()).toEqual([...ids].sort());
+      const whole = (await get("?limit=200")).body as Record<string, Listed[]>;
+      expect(whole[key].map((r) => r.id)).toEqual(walked);
+    }
+  });
+
+  it("pages the caller's submissions (none here: one empty last page) and refuses another list's cursor on each", async () => {
+    const none = await getSubmissions("?limit=5");
+    expect(none.status).toBe(200);
+    expect(none.body).toEqual({ submissions: [], nextCursor: null });
+    const membersCursor = encodeCursor({ key: "someone@example.com", id: versionIds[0] });
+    for (const get of [getVersions, getRecordings, getTokens, getSubmissions]) {
+      const res = await get(`?cursor=${encodeURIComponent(membersCursor)}`);
+      expect(res.status).toBe(400);
+      expect(errorOf(res).issues.map((i) => i.path)).toEqual(["query.cursor"]);
+    }
   });
 });

@@ -1,18 +1,21 @@
 import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
-import { createApiToken, listApiTokens } from "@/db/queries/tokens";
-import { json, readJson, route } from "@/lib/server/route";
+import { createApiToken, listApiTokensPage } from "@/db/queries/tokens";
+import { timePageQuery } from "@/lib/server/paging";
+import { json, readJson, readQuery, route } from "@/lib/server/route";
 import { createTokenSchema } from "@/lib/shared/schemas/api";
 import { assertNotToken, requireActor } from "@/lib/server/auth-request";
 import { authorizeSite } from "@/lib/server/permissions";
 import { generateToken } from "@/lib/server/tokens";
 
-/** GET /api/v1/tokens — the caller's API tokens (never the tokens themselves). */
+/** GET /api/v1/tokens — one page of the caller's API tokens, newest first (never the tokens themselves). */
 export const GET = route(async (request) => {
+  const query = readQuery(request, timePageQuery);
   const actor = await requireActor(request);
   assertNotToken(actor, "manage API tokens");
   authorizeSite(actor, "token:manage");
-  return json({ tokens: await listApiTokens({ userId: actor.userId }) });
+  const page = await listApiTokensPage({ userId: actor.userId, limit: query.limit, after: query.cursor });
+  return json({ tokens: page.items, nextCursor: page.nextCursor });
 });
 
 /** POST /api/v1/tokens — a new token, returned once in `token`; only its SHA-256 is stored. */

@@ -1,10 +1,11 @@
 import { inTransaction } from "@/lib/server/transaction";
 import { recordAudit } from "@/db/queries/audit";
 import { getArmRevisionById } from "@/db/queries/arms";
-import { createSubmission, listCourseInstructors, listOwnSubmissions } from "@/db/queries/courses";
+import { createSubmission, listCourseInstructors, listOwnSubmissionsPage } from "@/db/queries/courses";
+import { timePageQuery } from "@/lib/server/paging";
 import { getVersionForSubmission } from "@/db/queries/plans";
 import { getActiveUserById } from "@/db/queries/users";
-import { json, readJson, readParams, route } from "@/lib/server/route";
+import { json, readJson, readParams, readQuery, route } from "@/lib/server/route";
 import { armSchema, formatProblem, parsePlan } from "@/kinematics";
 import { requireActor } from "@/lib/server/auth-request";
 import { authorizeCourse } from "@/lib/server/permissions";
@@ -16,13 +17,20 @@ import { assignmentCheckInput } from "@/lib/shared/courses/rules";
 import { assignmentParams, limitsSchema, submitSchema } from "@/lib/shared/schemas/courses";
 import { loadAssignment, outbox } from "../../../courses/course-api";
 
-/** GET /api/v1/assignments/:assignmentId/submissions — the caller's own submissions to it, newest first. */
+/** GET /api/v1/assignments/:assignmentId/submissions — one page of the caller's own submissions to it, newest first. */
 export const GET = route(async (request, context) => {
   const { assignmentId } = await readParams(context, assignmentParams);
+  const query = readQuery(request, timePageQuery);
   const actor = await requireActor(request);
   const assignment = await loadAssignment(actor, assignmentId);
   authorizeCourse(assignment.role, "submission:read-own");
-  return json({ submissions: await listOwnSubmissions({ userId: actor.userId, assignmentId }) });
+  const page = await listOwnSubmissionsPage({
+    userId: actor.userId,
+    assignmentId,
+    limit: query.limit,
+    after: query.cursor,
+  });
+  return json({ submissions: page.items, nextCursor: page.nextCursor });
 });
 
 /**

@@ -3,8 +3,9 @@ import { isDeepStrictEqual } from "node:util";
 import { z } from "zod";
 import { getArmRevisionForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
-import { createPlanVersion, listPlanVersions } from "@/db/queries/plans";
-import { json, readJson, readParams, route, uuidParam } from "@/lib/server/route";
+import { createPlanVersion, listPlanVersionsPage } from "@/db/queries/plans";
+import { timePageQuery } from "@/lib/server/paging";
+import { json, readJson, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
 import { checkPlan } from "@/lib/server/check";
 import { armSchema } from "@/kinematics";
 import { loadPlan, membershipOf } from "@/lib/server/loaders";
@@ -15,13 +16,15 @@ import { authorizeProject } from "@/lib/server/permissions";
 
 const params = z.object({ planId: uuidParam });
 
-/** GET /api/v1/plans/:planId/versions — newest first, without the documents. */
+/** GET /api/v1/plans/:planId/versions — one page of the versions, newest first, without the documents. */
 export const GET = route(async (request, context) => {
   const { planId } = await readParams(context, params);
+  const query = readQuery(request, timePageQuery);
   const actor = await requireActor(request);
   const plan = await loadPlan(actor, planId);
   authorizeProject(membershipOf(plan), "plan:read");
-  return json({ versions: await listPlanVersions({ planId, userId: actor.userId }) });
+  const page = await listPlanVersionsPage({ planId, userId: actor.userId, limit: query.limit, after: query.cursor });
+  return json({ versions: page.items, nextCursor: page.nextCursor });
 });
 
 /**

@@ -3,7 +3,8 @@ import { createHash, randomUUID } from "node:crypto";
 import { z } from "zod";
 import { getArmRevisionForUser } from "@/db/queries/arms";
 import { recordAudit } from "@/db/queries/audit";
-import { createRecording, listRecordings } from "@/db/queries/recordings";
+import { createRecording, listRecordingsPage } from "@/db/queries/recordings";
+import { timePageQuery } from "@/lib/server/paging";
 import { json, readBodyStream, readParams, readQuery, route, uuidParam } from "@/lib/server/route";
 import {
   armSchema,
@@ -25,13 +26,15 @@ import { deleteObject, getObjectChunks, putObjectStream, putObjectStreamUnknownL
 
 const params = z.object({ projectId: uuidParam });
 
-/** GET /api/v1/projects/:projectId/recordings */
+/** GET /api/v1/projects/:projectId/recordings — one page of the project's recordings, newest first. */
 export const GET = route(async (request, context) => {
   const { projectId } = await readParams(context, params);
+  const query = readQuery(request, timePageQuery);
   const actor = await requireActor(request);
   const project = await loadProject(actor, projectId);
   authorizeProject(membershipOf(project), "recording:read");
-  return json({ recordings: await listRecordings({ projectId, userId: actor.userId }) });
+  const page = await listRecordingsPage({ projectId, userId: actor.userId, limit: query.limit, after: query.cursor });
+  return json({ recordings: page.items, nextCursor: page.nextCursor });
 });
 
 /**
