@@ -16,7 +16,7 @@ import {
 } from "@/db/schema/courses";
 import { insertOutbox, type OutboxInput } from "./mail";
 import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
-import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
+import { newestFirst, pageOrderBy, pastCursor, timestampPageKey } from "./paging";
 
 /** Letters and digits without look-alikes (no 0/O, 1/I/L). */
 const JOIN_ALPHABET = "ABCDEFGHJKMNPQRSTUVWXYZ23456789";
@@ -407,13 +407,7 @@ export type MySubmission = Omit<Submission, "document" | "report"> & {
 };
 
 /** The user's own submissions, newest first (optionally for one assignment). */
-const ownSubmissionsOrder: PageOrder = {
-  key: submissions.submittedAt,
-  id: submissions.id,
-  direction: "newest first",
-  keyType: "timestamptz",
-  idType: "uuid",
-};
+const ownSubmissionsOrder = newestFirst(submissions.submittedAt, submissions.id);
 
 /** The user's own submissions (all, or of one assignment), newest first: every one, for the pages that show them all. */
 export async function listOwnSubmissions({

@@ -18,6 +18,11 @@ export type PageOrder = {
   idType: "uuid" | "bigint";
 };
 
+/** The order of the lists newest first by a timestamp column, a uuid breaking ties. */
+export function newestFirst(key: AnyColumn, id: AnyColumn): PageOrder {
+  return { key, id, direction: "newest first", keyType: "timestamptz", idType: "uuid" };
+}
+
 /** A timestamp column as a page key: UTC ISO with microseconds (a JS Date would round them). */
 export function timestampPageKey(column: AnyColumn): SQL<string> {
   return sql<string>`to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`;

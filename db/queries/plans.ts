@@ -15,7 +15,7 @@ import {
   type Verdict,
 } from "@/db/schema";
 import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
-import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
+import { newestFirst, pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
 
 /** Join condition: the user is a member of the plan's project. */
 const memberOfPlanProject = (userId: string) =>
@@ -143,13 +143,7 @@ export async function deletePlan({ planId, userId }: { planId: string; userId: s
 export type VersionListItem = Omit<PlanVersion, "document"> & { authorName: string; armRevision: number };
 
 /** A plan's versions, newest first, for a member of its project (documents left out). */
-const versionsOrder: PageOrder = {
-  key: planVersions.createdAt,
-  id: planVersions.id,
-  direction: "newest first",
-  keyType: "timestamptz",
-  idType: "uuid",
-};
+const versionsOrder = newestFirst(planVersions.createdAt, planVersions.id);
 
 /** One page of a plan's versions, newest first (a version is saved after the one before it). */
 export async function listPlanVersionsPage({

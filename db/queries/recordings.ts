@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
-import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
+import { newestFirst, pageOrderBy, pastCursor, timestampPageKey } from "./paging";
 import { db } from "@/db";
 import { projectMembers, recordings, type Recording } from "@/db/schema";
 
@@ -13,13 +13,7 @@ export async function createRecording(input: NewRecording): Promise<Recording> {
 }
 
 /** The recordings of a project the user is a member of, newest first. */
-const recordingsOrder: PageOrder = {
-  key: recordings.createdAt,
-  id: recordings.id,
-  direction: "newest first",
-  keyType: "timestamptz",
-  idType: "uuid",
-};
+const recordingsOrder = newestFirst(recordings.createdAt, recordings.id);
 
 /** A project's recordings, newest first (the recordings page shows them all). */
 export async function listRecordings({

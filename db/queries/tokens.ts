@@ -3,7 +3,7 @@ import { and, desc, eq, gt, isNull, or } from "drizzle-orm";
 import { db } from "@/db";
 import { apiTokens, users, type SiteRole } from "@/db/schema";
 import { toPage, type Page, type PageAfter } from "@/lib/server/paging";
-import { pageOrderBy, pastCursor, timestampPageKey, type PageOrder } from "./paging";
+import { newestFirst, pageOrderBy, pastCursor, timestampPageKey } from "./paging";
 
 export type TokenListItem = {
   id: string;
@@ -35,13 +35,7 @@ export async function createApiToken(input: {
   return row;
 }
 
-const tokensOrder: PageOrder = {
-  key: apiTokens.createdAt,
-  id: apiTokens.id,
-  direction: "newest first",
-  keyType: "timestamptz",
-  idType: "uuid",
-};
+const tokensOrder = newestFirst(apiTokens.createdAt, apiTokens.id);
 
 /** The user's tokens, newest first (the tokens page shows them all). */
 export async function listApiTokens({ userId }: { userId: string }): Promise<TokenListItem[]> {
