@@ -105,10 +105,12 @@ describe("mail server stopped during submissions", () => {
     }
     const keys = submissionIds.map((id) => `submission-received:${id}:${instructor.id}`);
     const outbox = () => db.select().from(mailOutbox).where(inArray(mailOutbox.dedupeKey, keys));
-    // let the worker try against the closed port
+    // let the worker try against the closed port, until a failed attempt is recorded (an attempt is
+    // counted when the worker claims the message, before its delivery fails: waiting for the count
+    // alone once let the fake come back before that attempt had failed)
     const tried = await waitUntil(
       outbox,
-      (rows) => rows.length === STUDENTS && rows.some((r) => r.attempts >= 1),
+      (rows) => rows.length === STUDENTS && rows.some((r) => r.attempts >= 1 && r.lastError !== null),
       20_000,
       "a failed delivery attempt",
     );
