@@ -5,7 +5,7 @@
  * new result, and the time of "Add move" on a 30-move plan. Each edit is timed inside the page with
  * performance marks: the mark before the edit, and the mark in the first animation frame after both
  * the check status has gone from pending (any text but "Full check in a worker") to the new full
- * check and the plots have re-rendered.
+ * check and the plots have re-rendered, the effort chart included (its series comes from the worker).
  */
 import type { Page } from "playwright-core";
 import { openBrowser, screenshotDir } from "../tests/e2e/browser";
@@ -34,7 +34,8 @@ window.jointproofEdit = function (label, act) {
     var sawRunning = false, checked = false, plotted = false, timer = 0;
     var statusObserver, plotObserver;
     function finish() {
-      if (!checked || !plotted) return;
+      // the effort chart's series comes from the check worker after its report: wait for it too
+      if (!checked || !plotted || plots.querySelector("[data-pending]")) return;
       statusObserver.disconnect();
       plotObserver.disconnect();
       clearTimeout(timer);

@@ -230,7 +230,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
                     ghosts={state.ghosts}
                     linkSeverity={state.linkSeverity}
                     keepOut={plan.keepOut}
-                    findings={report.findings}
+                    findings={state.clearanceFindings}
                   />
                 </StageErrorBoundary>
               ) : (

@@ -10,12 +10,11 @@ import {
   checkSpeed,
   checkStartRange,
   type Report,
-  sampleTimeline,
   type Samples,
   timelineOf,
   type Timeline,
 } from "@/kinematics";
-import { plotRateHz } from "@/components/plots/downsample";
+import { plotSamples } from "@/components/plots/downsample";
 import type { BenchPlan } from "./plan-state";
 
 export interface LiveCheck {
@@ -33,6 +32,6 @@ export function runLiveCheck(plan: BenchPlan): LiveCheck {
     moveCheckers: [checkGoalRange, checkSpeed, checkAcceleration],
   });
   const timeline = timelineOf(plan);
-  const samples = sampleTimeline(timeline, plotRateHz(plan.arm.controlRateHz, timeline.totalS));
+  const samples = plotSamples(timeline, plan.arm.controlRateHz);
   return { report, timeline, samples, elapsedMs: performance.now() - t0 };
 }

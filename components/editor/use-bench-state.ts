@@ -3,7 +3,7 @@ import { useCallback, useDeferredValue, useEffect, useMemo, useReducer, useState
 import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import type { PanelFinding } from "@/components/findings/findings-panel";
 import type { PlotMarker } from "@/components/plots/joint-plots";
-import { effortSeries } from "@/components/plots/effort";
+import type { EffortSeries } from "@/components/plots/effort";
 import { pinTarget, type CommentPin } from "@/components/review/plan-review-comments";
 import { webglAvailable } from "@/components/viewer/error-boundary";
 import { createPoseScratch, poseAt } from "@/components/viewer/pose-at";
@@ -11,6 +11,7 @@ import { linkSeverityOf } from "@/components/viewer/link-severity";
 import { schematicChain } from "@/components/viewer/schematic-chain";
 import { verdictOf, type Arm, type Report, type Verdict } from "@/kinematics";
 import type { AngleUnit } from "@/lib/shared/units";
+import { useSameWhileEqual } from "@/lib/client/use-same-while-equal";
 import { runLiveCheck } from "./live-check";
 import { planReducer, type BenchPlan, type PoseTarget } from "./plan-state";
 import { Playhead, useSyncTotal } from "./playhead";
@@ -79,7 +80,12 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
   // Plots and the stage may trail fast slider drags by a frame; the findings never do.
   const deferred = useDeferredValue(live);
   const deferredPlan = useDeferredValue(checked);
-  const effort = useMemo(() => effortSeries(deferredPlan, deferred.samples), [deferredPlan, deferred.samples]);
+  // the effort plot's series comes from the check worker; until it has the plan the plots draw, the
+  // effort chart says it is being computed (never another plan's series on this plan's time axis)
+  const lastEffort = full.lastEffort?.plan === deferredPlan ? full.lastEffort.series : null;
+  const effort: EffortSeries | "pending" | null = !deferredPlan.arm.chain
+    ? null
+    : (lastEffort ?? (full.error ? null : "pending"));
 
   const [selectedJoints, setSelectedJoints] = useState<number[]>(() => {
     const worst = worstFirst(
@@ -146,21 +152,28 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
     [report, fixes, timeline, plan, unit, applyFix],
   );
 
-  // kept by identity while their content is the same (the full report often marks what the live one
-  // did), so the plots are not drawn again for nothing
-  const markerKey = useMemo(
-    () => JSON.stringify(items.map((i) => ({ timeS: i.timeS, joint: i.finding.joint, severity: i.finding.severity }))),
-    [items],
+  // Kept by identity while their content is the same (the full report often marks what the live one
+  // did, and a change of duration seldom changes which links are tinted), so that the plots and the
+  // 3D view are not drawn again for nothing: without a GPU each frame of the 3D view costs the page
+  // tens of milliseconds.
+  const markers: PlotMarker[] = useSameWhileEqual(
+    useMemo(
+      () => items.map((i) => ({ timeS: i.timeS, joint: i.finding.joint, severity: i.finding.severity })),
+      [items],
+    ),
   );
-  const markers: PlotMarker[] = useMemo(() => JSON.parse(markerKey) as PlotMarker[], [markerKey]);
+  const linkSeverity = useSameWhileEqual(useMemo(() => linkSeverityOf(report.moves, chain), [report, chain]));
+  // the 3D view marks the keep-out boxes that clearance findings name; the other findings do not change it
+  const clearanceFindings = useSameWhileEqual(
+    useMemo(() => report.findings.filter((f) => f.kind === "clearance"), [report]),
+  );
 
-  const linkSeverity = useMemo(() => linkSeverityOf(report.moves, chain), [report, chain]);
-
+  const goal = selected === "start" ? undefined : plan.moves[selected]?.goal;
   const ghosts = useMemo(() => {
     const g: { pose: readonly number[]; label: "start" | "goal" }[] = [{ pose: plan.start, label: "start" }];
-    if (selected !== "start" && plan.moves[selected]) g.push({ pose: plan.moves[selected].goal, label: "goal" });
+    if (goal) g.push({ pose: goal, label: "goal" });
     return g;
-  }, [plan, selected]);
+  }, [plan.start, goal]);
 
   const copyCurrent = useCallback(() => {
     const out = new Float64Array(plan.arm.joints.length);
@@ -199,6 +212,7 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
     items,
     markers,
     linkSeverity,
+    clearanceFindings,
     ghosts,
     copyCurrent,
     startVerdict,

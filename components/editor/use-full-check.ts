@@ -1,30 +1,41 @@
 "use client";
 import { useEffect, useRef, useState } from "react";
 import { check, type Report } from "@/kinematics";
+import { effortAlongPlot, type EffortSeries } from "@/components/plots/effort";
 import type { BenchPlan } from "./plan-state";
 import { quickFixes, type QuickFixes } from "./quick-fixes";
 
 type WorkerReply =
-  { id: number; report: Report; elapsedMs: number } | { id: number; fixes: QuickFixes } | { id: number; error: string };
+  | { id: number; report: Report; elapsedMs: number }
+  | { id: number; effort: EffortSeries }
+  | { id: number; fixes: QuickFixes }
+  | { id: number; error: string };
 
 export interface FullCheck {
   /** The full report (joint and arm-model checks) of exactly this plan, or null while it runs. */
   report: Report | null;
   /** The verified quick fixes of that report, or null until they are checked. */
   fixes: QuickFixes | null;
+  /**
+   * The latest effort plot series (arms with a chain) and the plan it belongs to, which may be an
+   * earlier plan than this one: the plots, which trail the edits, pick it when it is theirs.
+   */
+  lastEffort: { plan: BenchPlan; series: EffortSeries } | null;
   elapsedMs: number | null;
   error: string | null;
 }
 
-interface Result extends FullCheck {
+interface Result extends Omit<FullCheck, "lastEffort"> {
   plan: BenchPlan | null;
+  effort: EffortSeries | null;
 }
 
-const empty: Result = { report: null, fixes: null, elapsedMs: null, error: null, plan: null };
+const empty: Result = { report: null, fixes: null, effort: null, elapsedMs: null, error: null, plan: null };
 
 /**
  * Runs the engine's full check in a web worker (a newer edit supersedes the pending one) and its
  * quick fixes in a second worker, so that a report never waits behind the fixes of an earlier edit.
+ * The check worker then sends the effort plot's series.
  * Without workers (old browsers) both run on the main thread after the frame.
  */
 export function useFullCheck(plan: BenchPlan): FullCheck {
@@ -57,7 +68,15 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
         const t0 = performance.now();
         const report = check(plan);
         const elapsedMs = performance.now() - t0;
-        if (id === latest.current) setResult({ report, fixes: quickFixes(plan, report), elapsedMs, error: null, plan });
+        if (id === latest.current)
+          setResult({
+            report,
+            fixes: quickFixes(plan, report),
+            effort: effortAlongPlot(plan),
+            elapsedMs,
+            error: null,
+            plan,
+          });
       }, 0);
       return () => clearTimeout(timer);
     }
@@ -68,7 +87,10 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
       else if ("report" in reply) {
         // the fixes worker may have answered first: its fixes are kept for this report
         const fixes = early.current?.id === id ? early.current.fixes : null;
-        setResult({ report: reply.report, fixes, elapsedMs: reply.elapsedMs, error: null, plan });
+        setResult({ report: reply.report, fixes, effort: null, elapsedMs: reply.elapsedMs, error: null, plan });
+      } else if ("effort" in reply) {
+        // sent after the report by the same worker, so the report is there
+        setResult((r) => (r.plan === plan && r.report ? { ...r, effort: reply.effort } : r));
       } else {
         early.current = { id, fixes: reply.fixes };
         setResult((r) => (r.plan === plan && r.report ? { ...r, fixes: reply.fixes } : r));
@@ -85,7 +107,8 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
   }, [plan]);
 
   const current = result.plan === plan;
+  const lastEffort = result.plan && result.effort ? { plan: result.plan, series: result.effort } : null;
   return current
-    ? { report: result.report, fixes: result.fixes, elapsedMs: result.elapsedMs, error: result.error }
-    : { ...empty };
+    ? { report: result.report, fixes: result.fixes, lastEffort, elapsedMs: result.elapsedMs, error: result.error }
+    : { report: null, fixes: null, lastEffort, elapsedMs: null, error: null };
 }

@@ -1,3 +1,5 @@
+import { sampleTimeline, type Samples, type Timeline } from "@/kinematics";
+
 /**
  * Downsampling for drawing: a min–max bucket reduction over sample indices. The timeline is cut into
  * `buckets` equal-count buckets; in each, the indices of every series' minimum and maximum are kept
@@ -55,4 +57,9 @@ export function minMaxIndices(
 export function plotRateHz(controlRateHz: number, totalS: number, maxSamples = 30_000): number {
   if (!(totalS > 0)) return controlRateHz;
   return Math.min(controlRateHz, maxSamples / totalS);
+}
+
+/** The samples the plots draw: the timeline at {@link plotRateHz} (the live check and the effort worker agree on it). */
+export function plotSamples(timeline: Timeline, controlRateHz: number): Samples {
+  return sampleTimeline(timeline, plotRateHz(controlRateHz, timeline.totalS));
 }

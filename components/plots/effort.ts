@@ -2,8 +2,9 @@
  * Joint effort along sampled motion, for the plots: the arm model's recursive Newton–Euler inverse
  * dynamics (kinematics/dynamics.ts) at every sample, gravity, friction and payload included.
  */
-import { compileChain, createDynamicsWorkspace, inverseDynamics, type Samples } from "@/kinematics";
+import { compileChain, createDynamicsWorkspace, inverseDynamics, type Samples, timelineOf } from "@/kinematics";
 import type { BenchPlan } from "@/components/editor/plan-state";
+import { plotSamples } from "./downsample";
 
 export interface EffortSeries {
   /** Effort per sample and chain joint (N·m or N), stride `stride`. */
@@ -32,4 +33,13 @@ export function effortSeries(plan: BenchPlan, samples: Samples): EffortSeries | 
     inverseDynamics(compiled, ws, samples.position, samples.velocity, samples.acceleration, values, k * n, k * m);
   }
   return { values, stride: m };
+}
+
+/**
+ * The effort series at the plots' own samples (the same timeline and rate as the bench's live check,
+ * live-check.ts), for a worker that has only the plan.
+ */
+export function effortAlongPlot(plan: BenchPlan): EffortSeries | null {
+  if (!plan.arm.chain) return null;
+  return effortSeries(plan, plotSamples(timelineOf(plan), plan.arm.controlRateHz));
 }

@@ -1,6 +1,6 @@
 "use client";
 import { memo, useMemo, useRef, type PointerEvent } from "react";
-import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
+import { CartesianGrid, LineChart, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { cn } from "@/components/ui/cn";
 import { verdictLook } from "@/components/ui/verdict-chip";
 import type { Joint, Samples } from "@/kinematics";
@@ -27,8 +27,11 @@ export interface JointPlotsProps {
   selectedJoints: readonly number[];
   onSelectedJointsChange: (joints: number[]) => void;
   markers: readonly PlotMarker[];
-  /** Joint effort along the samples (arms with a chain); adds an effort chart. */
-  effort?: EffortSeries | null;
+  /**
+   * Joint effort along the samples (arms with a chain); adds an effort chart. "pending": the chart's
+   * place, saying the series is being computed (it comes from the check worker).
+   */
+  effort?: EffortSeries | "pending" | null;
   quantities?: readonly Quantity[];
   /**
    * Buckets for the min–max downsampling (points ≈ 2 × buckets × selected joints at most). 200 gives
@@ -51,7 +54,12 @@ export function noMotionText(moveCount: number | undefined): string {
   );
 }
 
+// the charts' margins and axis sizes: the overlay and the playhead cursor lie over the plot area they leave
 const Y_AXIS_WIDTH = 52;
+const X_AXIS_HEIGHT = 16;
+const TOP_MARGIN = 12;
+/** About this many value ticks per chart. */
+const Y_TICKS = 5;
 const RIGHT_MARGIN = 12;
 
 const quantityWords: Record<Quantity, string> = {
@@ -107,29 +115,42 @@ export function JointPlots(props: JointPlotsProps) {
 
   const data = useMemo(() => {
     const cols = selectedJoints.filter((j) => j < n);
-    const byQuantity: Record<string, Record<string, number>[]> = {};
+    const byQuantity: Partial<Record<Quantity, ChartData>> = {};
+    const series = effort === "pending" ? null : effort;
     for (const q of quantities) {
       const isEffort = q === "effort";
-      if (isEffort && !effort) continue;
+      if (isEffort && !series) continue;
       const arr = isEffort
-        ? effort!.values
+        ? series!.values
         : q === "position"
           ? samples.position
           : q === "velocity"
             ? samples.velocity
             : samples.acceleration;
-      const stride = isEffort ? effort!.stride : n;
+      const stride = isEffort ? series!.stride : n;
       const qCols = isEffort ? cols.filter((j) => j < stride) : cols;
       const idx = minMaxIndices(samples.count, arr, stride, qCols, buckets);
-      const rows: Record<string, number>[] = new Array(idx.length);
-      for (let r = 0; r < idx.length; r++) {
-        const k = idx[r];
-        const row: Record<string, number> = { t: samples.timeS[k] };
-        for (const j of qCols)
-          row[`j${j}`] = arr[k * stride + j] * (isEffort ? 1 : displayFactor(joints[j].type, unit));
-        rows[r] = row;
-      }
-      byQuantity[q] = rows;
+      let lo = 0;
+      let hi = 0;
+      const traces = qCols.map((j) => {
+        const f = isEffort ? 1 : displayFactor(joints[j].type, unit);
+        const points = new Float64Array(2 * idx.length);
+        for (let r = 0; r < idx.length; r++) {
+          const k = idx[r];
+          const v = arr[k * stride + j] * f;
+          points[2 * r] = samples.timeS[k];
+          points[2 * r + 1] = v;
+          if (v < lo) lo = v;
+          if (v > hi) hi = v;
+        }
+        const lim = limitsOf(joints[j], q);
+        if (lim) {
+          lo = Math.min(lo, lim.lo * f);
+          hi = Math.max(hi, lim.hi * f);
+        }
+        return { joint: j, points };
+      });
+      byQuantity[q] = { traces, ...niceAxis(lo, hi, Y_TICKS) };
     }
     return byQuantity;
   }, [samples, n, selectedJoints, quantities, buckets, joints, unit, effort]);
@@ -138,7 +159,7 @@ export function JointPlots(props: JointPlotsProps) {
   const chartJoints = useMemo(
     () => ({
       motion: selectedJoints.filter((j) => j < n),
-      effort: selectedJoints.filter((j) => j < (effort ? effort.stride : n)),
+      effort: selectedJoints.filter((j) => j < (effort && effort !== "pending" ? effort.stride : n)),
     }),
     [selectedJoints, n, effort],
   );
@@ -190,13 +211,21 @@ export function JointPlots(props: JointPlotsProps) {
       ) : selectedJoints.length === 0 ? (
         <p className="px-2 py-6 text-center text-xs text-ink-soft">Pick a joint above to plot it.</p>
       ) : (
-        quantities
-          .filter((q) => data[q])
-          .map((q) => (
+        quantities.map((q) =>
+          q === "effort" && effort === "pending" ? (
+            <p
+              key={q}
+              className="flex items-center justify-center text-xs text-ink-soft"
+              style={{ height: PLOT_HEIGHT_PX }}
+              data-pending="effort"
+            >
+              Effort: computing the series for this plan…
+            </p>
+          ) : !data[q] ? null : (
             <QuantityChart
               key={q}
               quantity={q}
-              rows={data[q]}
+              data={data[q]!}
               totalS={totalS}
               joints={joints}
               selectedJoints={q === "effort" ? chartJoints.effort : chartJoints.motion}
@@ -204,8 +233,135 @@ export function JointPlots(props: JointPlotsProps) {
               unit={unit}
               markers={markers}
             />
-          ))
+          ),
+        )
       )}
+    </div>
+  );
+}
+
+/** One chart's traces (downsampled, in display units) and its value axis. */
+interface ChartData {
+  /** Per plotted joint: time and value pairs, interleaved. */
+  traces: { joint: number; points: Float64Array }[];
+  domain: [number, number];
+  ticks: number[];
+}
+
+/**
+ * A value axis that holds every trace and limit line (and zero): the span rounded out to a step of 1,
+ * 2 or 5 times a power of ten, and the ticks at that step.
+ */
+export function niceAxis(lo: number, hi: number, tickCount: number): { domain: [number, number]; ticks: number[] } {
+  if (!(hi > lo)) {
+    const pad = Math.abs(hi) > 0 ? Math.abs(hi) * 0.1 : 1;
+    return niceAxis(lo - pad, hi + pad, tickCount);
+  }
+  const raw = (hi - lo) / Math.max(1, tickCount - 1);
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * power).find((s) => s >= raw) ?? 10 * power;
+  const first = Math.floor(lo / step);
+  const last = Math.ceil(hi / step);
+  // rounded to the step's decimals, so that 0.1 × 3 does not print as 0.30000000000000004
+  const decimals = Math.min(100, Math.max(0, 1 - Math.floor(Math.log10(step))));
+  const tick = (k: number) => Number((k * step).toFixed(decimals));
+  const ticks: number[] = [];
+  for (let k = first; k <= last; k++) ticks.push(tick(k));
+  // that rounding may move an end tick inside the span by a hair: add a tick rather than cut a trace
+  if (ticks[0] > lo) ticks.unshift(tick(first - 1));
+  if (ticks[ticks.length - 1] < hi) ticks.push(tick(last + 1));
+  return { domain: [ticks[0], ticks[ticks.length - 1]], ticks };
+}
+
+/** A limit (solid) or caution (dashed) line across a chart. */
+interface Guide {
+  y: number;
+  caution: boolean;
+}
+
+/** The overlay's drawing units across the plot area (it is stretched to the area, strokes are not). */
+const SPAN = 1000;
+
+/**
+ * What a chart draws over the frame, in an SVG laid exactly over recharts' plot area (the same margins
+ * and axis sizes) and mapped by the same domains: the limit and caution lines, a band at each
+ * finding, and the traces, one path per joint. Drawn by us rather than as recharts lines and
+ * reference lines: recharts then holds no data rows and no items, and an edit redraws a few paths
+ * instead of recomputing every chart, which cost tens of milliseconds per edit (bench page profile).
+ */
+function Overlay({
+  guides,
+  markers,
+  traces,
+  totalS,
+  domain,
+}: {
+  guides: readonly Guide[];
+  markers: readonly PlotMarker[];
+  traces: ChartData["traces"];
+  totalS: number;
+  domain: readonly [number, number];
+}) {
+  const [lo, hi] = domain;
+  const x = (t: number) => (t / totalS) * SPAN;
+  const y = (v: number) => ((hi - v) / (hi - lo)) * SPAN;
+  return (
+    <div
+      aria-hidden="true"
+      className="pointer-events-none absolute"
+      style={{ left: Y_AXIS_WIDTH, right: RIGHT_MARGIN, top: TOP_MARGIN, bottom: X_AXIS_HEIGHT }}
+    >
+      <svg
+        className="plot-overlay block h-full w-full overflow-visible"
+        viewBox={`0 0 ${SPAN} ${SPAN}`}
+        preserveAspectRatio="none"
+      >
+        {guides.map((g, i) => (
+          <line
+            key={`g${i}`}
+            x1={0}
+            x2={SPAN}
+            y1={y(g.y)}
+            y2={y(g.y)}
+            stroke={g.caution ? verdictLook.caution.stroke : verdictLook.fault.stroke}
+            strokeDasharray={g.caution ? "4 3" : undefined}
+            strokeWidth={LIMIT_LINE_WIDTH}
+            strokeOpacity={LIMIT_LINE_OPACITY}
+            vectorEffect="non-scaling-stroke"
+          />
+        ))}
+        {markers.map((m, i) => (
+          <line
+            key={`m${i}`}
+            x1={x(m.timeS)}
+            x2={x(m.timeS)}
+            y1={0}
+            y2={SPAN}
+            stroke={verdictLook[m.severity].stroke}
+            strokeOpacity={0.5}
+            strokeWidth={6}
+            vectorEffect="non-scaling-stroke"
+            data-marker={m.severity}
+          />
+        ))}
+        {traces.map(({ joint, points }) => {
+          let d = "";
+          for (let r = 0; r < points.length; r += 2)
+            d += `${r === 0 ? "M" : "L"}${x(points[r]).toFixed(2)},${y(points[r + 1]).toFixed(2)}`;
+          return (
+            <path
+              key={joint}
+              d={d}
+              fill="none"
+              stroke={jointColor(joint)}
+              strokeWidth={TRACE_WIDTH}
+              strokeLinejoin="round"
+              vectorEffect="non-scaling-stroke"
+              data-joint={joint}
+            />
+          );
+        })}
+      </svg>
     </div>
   );
 }
@@ -213,7 +369,7 @@ export function JointPlots(props: JointPlotsProps) {
 /** One chart; memoised, so a chart whose rows and markers did not change is not drawn again. */
 const QuantityChart = memo(function QuantityChart({
   quantity,
-  rows,
+  data,
   totalS,
   joints,
   selectedJoints,
@@ -222,7 +378,7 @@ const QuantityChart = memo(function QuantityChart({
   markers,
 }: {
   quantity: Quantity;
-  rows: Record<string, number>[];
+  data: ChartData;
   totalS: number;
   joints: readonly Joint[];
   selectedJoints: readonly number[];
@@ -235,93 +391,93 @@ const QuantityChart = memo(function QuantityChart({
     quantity,
     selectedJoints.map((j) => joints[j].type),
   )} (${units})`;
+  // the time axis ends at the plan's end: its nice ticks that fall inside
+  const timeTicks = niceAxis(0, totalS || 1, 8).ticks.filter((t) => t <= (totalS || 1));
+  const guides: Guide[] = [];
+  for (const j of selectedJoints) {
+    const lim = limitsOf(joints[j], quantity);
+    if (!lim) continue;
+    const f = quantity === "effort" ? 1 : displayFactor(joints[j].type, unit);
+    guides.push({ y: lim.hi * f, caution: false }, { y: lim.lo * f, caution: false });
+    if (quantity !== "position")
+      guides.push({ y: lim.hi * f * cautionRatio, caution: true }, { y: lim.lo * f * cautionRatio, caution: true });
+  }
+  const shownMarkers = markers.filter(
+    (m) => (m.joint === null || selectedJoints.includes(m.joint)) && m.timeS >= 0 && m.timeS <= totalS,
+  );
   return (
     <figure className="relative" aria-label={`${label} against time`}>
       <figcaption className="absolute top-0 left-14 z-10 text-[10px] font-medium text-ink-soft">{label}</figcaption>
-      <div className="w-full" style={{ height: PLOT_HEIGHT_PX }} data-testid="plot-box">
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart data={rows} margin={{ top: 12, right: RIGHT_MARGIN, bottom: 0, left: 0 }}>
-            <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" vertical={false} />
-            <XAxis
-              dataKey="t"
-              type="number"
-              domain={[0, totalS || 1]}
-              tick={{ fontSize: 10, fill: "#6b7280" }}
-              tickCount={8}
-              tickFormatter={(v: number) => `${Number(v.toFixed(2))}`}
-              height={16}
-              allowDataOverflow
-            />
-            <YAxis
-              width={Y_AXIS_WIDTH}
-              tick={{ fontSize: 10, fill: "#6b7280" }}
-              tickCount={4}
-              tickFormatter={(v: number) => `${Math.abs(v) >= 100 ? v.toFixed(0) : Number(v.toFixed(1))}`}
-            />
-            {selectedJoints.map((j) => {
-              const lim = limitsOf(joints[j], quantity);
-              if (!lim) return null;
-              const f = quantity === "effort" ? 1 : displayFactor(joints[j].type, unit);
-              const lines = [
-                { y: lim.hi * f, dash: undefined, color: verdictLook.fault.stroke, key: "hi" },
-                { y: lim.lo * f, dash: undefined, color: verdictLook.fault.stroke, key: "lo" },
-              ];
-              if (quantity !== "position") {
-                lines.push({
-                  y: lim.hi * f * cautionRatio,
-                  dash: "4 3",
-                  color: verdictLook.caution.stroke,
-                  key: "chi",
-                } as never);
-                lines.push({
-                  y: lim.lo * f * cautionRatio,
-                  dash: "4 3",
-                  color: verdictLook.caution.stroke,
-                  key: "clo",
-                } as never);
-              }
-              return lines.map((l) => (
-                <ReferenceLine
-                  key={`${j}-${l.key}`}
-                  y={l.y}
-                  stroke={l.color}
-                  strokeDasharray={l.dash}
-                  strokeWidth={LIMIT_LINE_WIDTH}
-                  strokeOpacity={LIMIT_LINE_OPACITY}
-                  ifOverflow="extendDomain"
-                />
-              ));
-            })}
-            {markers
-              .filter((m) => m.joint === null || selectedJoints.includes(m.joint))
-              .map((m, i) => (
-                <ReferenceLine
-                  key={`m${i}`}
-                  x={m.timeS}
-                  stroke={verdictLook[m.severity].stroke}
-                  strokeOpacity={0.5}
-                  strokeWidth={6}
-                />
-              ))}
-            {selectedJoints.map((j) => (
-              <Line
-                key={j}
-                dataKey={`j${j}`}
-                stroke={jointColor(j)}
-                strokeWidth={TRACE_WIDTH}
-                dot={false}
-                isAnimationActive={false}
-                type="linear"
-                name={joints[j].name}
-              />
-            ))}
-          </LineChart>
-        </ResponsiveContainer>
+      <div className="relative w-full" style={{ height: PLOT_HEIGHT_PX }} data-testid="plot-box">
+        <ChartFrame totalS={totalS} timeTicks={timeTicks} domain={data.domain} ticks={data.ticks} />
+        <Overlay
+          guides={guides}
+          markers={shownMarkers}
+          traces={data.traces}
+          totalS={totalS || 1}
+          domain={data.domain}
+        />
       </div>
       <PlotCursor totalS={totalS} />
     </figure>
   );
 });
+
+const TICK_STYLE = { fontSize: 10, fill: "#6b7280" };
+const CHART_MARGIN = { top: TOP_MARGIN, right: RIGHT_MARGIN, bottom: 0, left: 0 };
+const timeLabel = (v: number) => `${Number(v.toFixed(2))}`;
+const valueLabel = (v: number) => `${Math.abs(v) >= 100 ? v.toFixed(0) : Number(v.toFixed(1))}`;
+
+/**
+ * The chart's frame from recharts: grid, time axis and value axis. Memoised on its domains and
+ * ticks, so an edit that leaves the axes alone does not draw it again.
+ */
+const ChartFrame = memo(function ChartFrame({
+  totalS,
+  timeTicks,
+  domain,
+  ticks,
+}: {
+  totalS: number;
+  timeTicks: readonly number[];
+  domain: readonly [number, number];
+  ticks: readonly number[];
+}) {
+  return (
+    <ResponsiveContainer width="100%" height="100%">
+      <LineChart margin={CHART_MARGIN}>
+        <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" vertical={false} />
+        <XAxis
+          dataKey="t"
+          type="number"
+          domain={[0, totalS || 1]}
+          tick={TICK_STYLE}
+          ticks={timeTicks as number[]}
+          tickFormatter={timeLabel}
+          height={X_AXIS_HEIGHT}
+          allowDataOverflow
+        />
+        <YAxis
+          type="number"
+          width={Y_AXIS_WIDTH}
+          tick={TICK_STYLE}
+          domain={domain as [number, number]}
+          ticks={ticks as number[]}
+          tickFormatter={valueLabel}
+          allowDataOverflow
+        />
+      </LineChart>
+    </ResponsiveContainer>
+  );
+}, sameAxes);
+
+function sameAxes(
+  a: { totalS: number; timeTicks: readonly number[]; domain: readonly [number, number]; ticks: readonly number[] },
+  b: typeof a,
+): boolean {
+  const same = (x: readonly number[], y: readonly number[]) => x.length === y.length && x.every((v, i) => v === y[i]);
+  return a.totalS === b.totalS && same(a.timeTicks, b.timeTicks) && same(a.domain, b.domain) && same(a.ticks, b.ticks);
+}
 
 /** The playhead over a chart's plot area; pointer down/drag on it moves the playhead. */
 function PlotCursor({ totalS }: { totalS: number }) {
@@ -338,8 +494,8 @@ function PlotCursor({ totalS }: { totalS: number }) {
     <div
       ref={area}
       aria-hidden="true"
-      className="absolute top-3 bottom-4 cursor-crosshair"
-      style={{ left: Y_AXIS_WIDTH, right: RIGHT_MARGIN }}
+      className="absolute cursor-crosshair"
+      style={{ left: Y_AXIS_WIDTH, right: RIGHT_MARGIN, top: TOP_MARGIN, bottom: X_AXIS_HEIGHT }}
       onPointerDown={(e) => {
         e.currentTarget.setPointerCapture(e.pointerId);
         seekFrom(e);

@@ -1,7 +1,7 @@
 "use client";
 import { Edges, Grid, Line, OrbitControls } from "@react-three/drei";
 import { Canvas, useFrame, useThree } from "@react-three/fiber";
-import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
+import { memo, useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
 import {
   type ArmChain,
@@ -54,10 +54,21 @@ function useCompiled(chain: ArmChain, joints: readonly Joint[]): CompiledChain {
   );
 }
 
-/** Re-renders the canvas (frameloop "demand") whenever the playhead moves. */
+/**
+ * Re-renders the canvas (frameloop "demand") whenever the playhead moves. A new plan length alone
+ * (an edit of a duration) draws nothing: without a GPU a frame costs the page tens of milliseconds.
+ */
 function Invalidator({ playhead }: { playhead: Playhead }) {
   const invalidate = useThree((s) => s.invalidate);
-  useEffect(() => playhead.subscribe(() => invalidate()), [playhead, invalidate]);
+  useEffect(() => {
+    let shown = playhead.get().timeS;
+    return playhead.subscribe(() => {
+      const { timeS } = playhead.get();
+      if (timeS === shown) return;
+      shown = timeS;
+      invalidate();
+    });
+  }, [playhead, invalidate]);
   return null;
 }
 
@@ -102,6 +113,9 @@ function AnimatedArm({
   }, [linkSeverity, materials]);
 
   useEffect(() => () => materials.forEach((m) => m.dispose()), [materials]);
+  // a new timeline moves the arm at the same playhead time: draw it
+  const invalidate = useThree((s) => s.invalidate);
+  useEffect(() => invalidate(), [timeline, linkSeverity, invalidate]);
 
   useFrame(() => {
     const move = poseAt(timeline, playhead.get().timeS, work.pose, work.scratch);
@@ -257,8 +271,11 @@ function reachOf(chain: ArmChain): number {
   return Math.max(0.3, chain.joints.reduce((s, j) => s + len(j.origin.xyz), 0) + len(chain.tool.xyz));
 }
 
-/** The 3D view: arm, ghosts, tool path, work surface and keep-out zones, with orbit controls. */
-export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut, findings }: StageProps) {
+/**
+ * The 3D view: arm, ghosts, tool path, work surface and keep-out zones, with orbit controls. Memoised:
+ * a page that re-renders with the same props does not draw a new frame.
+ */
+export default memo(function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut, findings }: StageProps) {
   const playhead = usePlayheadStore();
   const compiled = useCompiled(chain, joints);
   // without a GPU every frame is drawn in software: fewer pixels, no multisampling
@@ -306,4 +323,4 @@ export default function Stage({ chain, joints, timeline, ghosts, linkSeverity, k
       <OrbitControls makeDefault target={view.target} enableDamping={false} />
     </Canvas>
   );
-}
+});

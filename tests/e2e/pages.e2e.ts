@@ -270,6 +270,20 @@ describe("pages at 1440×900", () => {
       .evaluateAll((els) => els.map((e) => e.getBoundingClientRect().height));
     expect(heights.length).toBeGreaterThanOrEqual(3);
     for (const h of heights) expect(h).toBeGreaterThanOrEqual(120);
+    // each chart draws its traces over recharts' frame, with tick labels on both axes
+    await page.locator("[data-testid='plot-box'] path[data-joint]").first().waitFor();
+    const charts = await page.getByTestId("plot-box").evaluateAll((els) =>
+      els.map((e) => ({
+        vertices: (e.querySelector("path[data-joint]")?.getAttribute("d") ?? "").split("L").length,
+        timeTicks: e.querySelectorAll(".recharts-xAxis .recharts-cartesian-axis-tick").length,
+        valueTicks: e.querySelectorAll(".recharts-yAxis .recharts-cartesian-axis-tick").length,
+      })),
+    );
+    for (const c of charts) {
+      expect(c.vertices).toBeGreaterThan(20);
+      expect(c.timeTicks).toBeGreaterThanOrEqual(3);
+      expect(c.valueTicks).toBeGreaterThanOrEqual(3);
+    }
     expect(await page.locator("body").innerText()).not.toMatch(/3D stage/i);
     await page.waitForTimeout(1000);
     await shot(page, "bench-1440");
