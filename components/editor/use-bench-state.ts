@@ -3,7 +3,7 @@ import { useCallback, useDeferredValue, useEffect, useMemo, useReducer, useState
 import { findingTimeS, worstFirst } from "@/components/findings/finding-time";
 import type { PanelFinding } from "@/components/findings/findings-panel";
 import type { PlotMarker } from "@/components/plots/joint-plots";
-import type { EffortSeries } from "@/components/plots/effort";
+import type { EffortPending, EffortSeries } from "@/components/plots/effort";
 import { pinTarget, type CommentPin } from "@/components/review/plan-review-comments";
 import { webglAvailable } from "@/components/viewer/error-boundary";
 import { createPoseScratch, poseAt } from "@/components/viewer/pose-at";
@@ -83,9 +83,9 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
   // the effort plot's series comes from the check worker; until it has the plan the plots draw, the
   // effort chart says it is being computed (never another plan's series on this plan's time axis)
   const lastEffort = full.lastEffort?.plan === deferredPlan ? full.lastEffort.series : null;
-  const effort: EffortSeries | "pending" | null = !deferredPlan.arm.chain
+  const effort: EffortSeries | EffortPending | null = !deferredPlan.arm.chain
     ? null
-    : (lastEffort ?? (full.error ? null : "pending"));
+    : (lastEffort ?? (full.error ? null : { values: null, stride: deferredPlan.arm.chain.joints.length }));
 
   const [selectedJoints, setSelectedJoints] = useState<number[]>(() => {
     const worst = worstFirst(

@@ -27,15 +27,14 @@ export interface FullCheck {
 
 interface Result extends Omit<FullCheck, "lastEffort"> {
   plan: BenchPlan | null;
-  effort: EffortSeries | null;
 }
 
-const empty: Result = { report: null, fixes: null, effort: null, elapsedMs: null, error: null, plan: null };
+const empty: Result = { report: null, fixes: null, elapsedMs: null, error: null, plan: null };
 
 /**
  * Runs the engine's full check in a web worker (a newer edit supersedes the pending one) and its
  * quick fixes in a second worker, so that a report never waits behind the fixes of an earlier edit.
- * The check worker then sends the effort plot's series.
+ * The fixes worker first sends the effort plot's series, so that it is drawn while the check runs.
  * Without workers (old browsers) both run on the main thread after the frame.
  */
 export function useFullCheck(plan: BenchPlan): FullCheck {
@@ -44,6 +43,7 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
   const latest = useRef(0);
   const early = useRef<{ id: number; fixes: QuickFixes } | null>(null);
   const [result, setResult] = useState<Result>(empty);
+  const [lastEffort, setLastEffort] = useState<FullCheck["lastEffort"]>(null);
 
   useEffect(() => {
     if (typeof Worker === "undefined") return;
@@ -68,15 +68,11 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
         const t0 = performance.now();
         const report = check(plan);
         const elapsedMs = performance.now() - t0;
-        if (id === latest.current)
-          setResult({
-            report,
-            fixes: quickFixes(plan, report),
-            effort: effortAlongPlot(plan),
-            elapsedMs,
-            error: null,
-            plan,
-          });
+        if (id === latest.current) {
+          setResult({ report, fixes: quickFixes(plan, report), elapsedMs, error: null, plan });
+          const series = effortAlongPlot(plan);
+          setLastEffort(series ? { plan, series } : null);
+        }
       }, 0);
       return () => clearTimeout(timer);
     }
@@ -87,10 +83,9 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
       else if ("report" in reply) {
         // the fixes worker may have answered first: its fixes are kept for this report
         const fixes = early.current?.id === id ? early.current.fixes : null;
-        setResult({ report: reply.report, fixes, effort: null, elapsedMs: reply.elapsedMs, error: null, plan });
+        setResult({ report: reply.report, fixes, elapsedMs: reply.elapsedMs, error: null, plan });
       } else if ("effort" in reply) {
-        // sent after the report by the same worker, so the report is there
-        setResult((r) => (r.plan === plan && r.report ? { ...r, effort: reply.effort } : r));
+        setLastEffort({ plan, series: reply.effort });
       } else {
         early.current = { id, fixes: reply.fixes };
         setResult((r) => (r.plan === plan && r.report ? { ...r, fixes: reply.fixes } : r));
@@ -107,7 +102,6 @@ export function useFullCheck(plan: BenchPlan): FullCheck {
   }, [plan]);
 
   const current = result.plan === plan;
-  const lastEffort = result.plan && result.effort ? { plan: result.plan, series: result.effort } : null;
   return current
     ? { report: result.report, fixes: result.fixes, lastEffort, elapsedMs: result.elapsedMs, error: result.error }
     : { report: null, fixes: null, lastEffort, elapsedMs: null, error: null };

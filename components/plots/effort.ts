@@ -2,14 +2,31 @@
  * Joint effort along sampled motion, for the plots: the arm model's recursive Newton–Euler inverse
  * dynamics (kinematics/dynamics.ts) at every sample, gravity, friction and payload included.
  */
-import { compileChain, createDynamicsWorkspace, inverseDynamics, type Samples, timelineOf } from "@/kinematics";
+import {
+  compileChain,
+  createDynamicsWorkspace,
+  inverseDynamics,
+  sampleTimeline,
+  type Samples,
+  timelineOf,
+} from "@/kinematics";
 import type { BenchPlan } from "@/components/editor/plan-state";
-import { plotSamples } from "./downsample";
+import { plotRateHz } from "./downsample";
 
 export interface EffortSeries {
   /** Effort per sample and chain joint (N·m or N), stride `stride`. */
   values: Float64Array;
+  /** The samples' times (s) and count, and their rate (Hz): fewer than the motion plots' at most. */
+  timeS: Float64Array;
+  count: number;
+  rateHz: number;
   /** Number of chain joints (joints after the chain, e.g. a gripper, have no effort series). */
+  stride: number;
+}
+
+/** An effort series still being computed (by a worker): how many chain joints it will have. */
+export interface EffortPending {
+  values: null;
   stride: number;
 }
 
@@ -32,14 +49,23 @@ export function effortSeries(plan: BenchPlan, samples: Samples): EffortSeries | 
   for (let k = 0; k < samples.count; k++) {
     inverseDynamics(compiled, ws, samples.position, samples.velocity, samples.acceleration, values, k * n, k * m);
   }
-  return { values, stride: m };
+  return { values, stride: m, timeS: samples.timeS, count: samples.count, rateHz: samples.rateHz };
 }
 
 /**
- * The effort series at the plots' own samples (the same timeline and rate as the bench's live check,
- * live-check.ts), for a worker that has only the plan.
+ * Samples of the effort plot at most: inverse dynamics at every plotted sample of a 10-move plan
+ * (11,700 at 1 kHz) took 30-100 ms in the bench's worker. 3,000 is still several per pixel of a wide
+ * chart; the check itself evaluates every control period, and the chart says its rate when lower.
  */
+export const EFFORT_PLOT_MAX_SAMPLES = 3_000;
+
+/** The effort plot's series of a plan: its timeline at the plots' rate, or lower (see above). */
 export function effortAlongPlot(plan: BenchPlan): EffortSeries | null {
   if (!plan.arm.chain) return null;
-  return effortSeries(plan, plotSamples(timelineOf(plan), plan.arm.controlRateHz));
+  const timeline = timelineOf(plan);
+  const rateHz = Math.min(
+    plotRateHz(plan.arm.controlRateHz, timeline.totalS),
+    plotRateHz(plan.arm.controlRateHz, timeline.totalS, EFFORT_PLOT_MAX_SAMPLES),
+  );
+  return effortSeries(plan, sampleTimeline(timeline, rateHz));
 }

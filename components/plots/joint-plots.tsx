@@ -8,7 +8,7 @@ import { hintFor } from "@/lib/shared/glossary";
 import { displayFactor, unitLabel, type AngleUnit, type Quantity } from "@/lib/shared/units";
 import { usePlayhead, usePlayheadStore } from "@/components/editor/playhead";
 import { minMaxIndices } from "./downsample";
-import type { EffortSeries } from "./effort";
+import type { EffortPending, EffortSeries } from "./effort";
 import { jointColor } from "./joint-colors";
 import { LIMIT_LINE_OPACITY, LIMIT_LINE_WIDTH, PLOT_HEIGHT_PX, TRACE_WIDTH } from "./plot-style";
 
@@ -28,10 +28,10 @@ export interface JointPlotsProps {
   onSelectedJointsChange: (joints: number[]) => void;
   markers: readonly PlotMarker[];
   /**
-   * Joint effort along the samples (arms with a chain); adds an effort chart. "pending": the chart's
-   * place, saying the series is being computed (it comes from the check worker).
+   * Joint effort along the samples (arms with a chain); adds an effort chart. With `values: null` the
+   * series is being computed (it comes from a worker): the chart shows its frame and says so.
    */
-  effort?: EffortSeries | "pending" | null;
+  effort?: EffortSeries | EffortPending | null;
   quantities?: readonly Quantity[];
   /**
    * Buckets for the min–max downsampling (points ≈ 2 × buckets × selected joints at most). 200 gives
@@ -116,20 +116,24 @@ export function JointPlots(props: JointPlotsProps) {
   const data = useMemo(() => {
     const cols = selectedJoints.filter((j) => j < n);
     const byQuantity: Partial<Record<Quantity, ChartData>> = {};
-    const series = effort === "pending" ? null : effort;
     for (const q of quantities) {
       const isEffort = q === "effort";
-      if (isEffort && !series) continue;
+      if (isEffort && !effort) continue;
+      // a pending effort series: no traces yet, the axis from the limits alone
+      const pending = isEffort && effort!.values === null;
       const arr = isEffort
-        ? series!.values
+        ? (effort!.values ?? new Float64Array(0))
         : q === "position"
           ? samples.position
           : q === "velocity"
             ? samples.velocity
             : samples.acceleration;
-      const stride = isEffort ? series!.stride : n;
+      const stride = isEffort ? effort!.stride : n;
       const qCols = isEffort ? cols.filter((j) => j < stride) : cols;
-      const idx = minMaxIndices(samples.count, arr, stride, qCols, buckets);
+      // the effort series has samples of its own (at most the motion's rate, effort.ts)
+      const count = isEffort ? (effort!.values ? (effort as EffortSeries).count : 0) : samples.count;
+      const timeS = isEffort && effort!.values ? (effort as EffortSeries).timeS : samples.timeS;
+      const idx = pending ? new Uint32Array(0) : minMaxIndices(count, arr, stride, qCols, buckets);
       let lo = 0;
       let hi = 0;
       const traces = qCols.map((j) => {
@@ -138,7 +142,7 @@ export function JointPlots(props: JointPlotsProps) {
         for (let r = 0; r < idx.length; r++) {
           const k = idx[r];
           const v = arr[k * stride + j] * f;
-          points[2 * r] = samples.timeS[k];
+          points[2 * r] = timeS[k];
           points[2 * r + 1] = v;
           if (v < lo) lo = v;
           if (v > hi) hi = v;
@@ -150,16 +154,22 @@ export function JointPlots(props: JointPlotsProps) {
         }
         return { joint: j, points };
       });
-      byQuantity[q] = { traces, ...niceAxis(lo, hi, Y_TICKS) };
+      byQuantity[q] = { traces, pending, ...niceAxis(lo, hi, Y_TICKS) };
     }
     return byQuantity;
   }, [samples, n, selectedJoints, quantities, buckets, joints, unit, effort]);
+
+  // the effort chart says its rate when it is sampled more coarsely than the motion charts
+  const effortRateNote =
+    effort?.values && (effort as EffortSeries).rateHz < samples.rateHz - 1e-9
+      ? (effort as EffortSeries).rateHz
+      : undefined;
 
   // the joints each chart draws, kept by identity so that an unchanged chart is not drawn again
   const chartJoints = useMemo(
     () => ({
       motion: selectedJoints.filter((j) => j < n),
-      effort: selectedJoints.filter((j) => j < (effort && effort !== "pending" ? effort.stride : n)),
+      effort: selectedJoints.filter((j) => j < (effort ? effort.stride : n)),
     }),
     [selectedJoints, n, effort],
   );
@@ -212,16 +222,7 @@ export function JointPlots(props: JointPlotsProps) {
         <p className="px-2 py-6 text-center text-xs text-ink-soft">Pick a joint above to plot it.</p>
       ) : (
         quantities.map((q) =>
-          q === "effort" && effort === "pending" ? (
-            <p
-              key={q}
-              className="flex items-center justify-center text-xs text-ink-soft"
-              style={{ height: PLOT_HEIGHT_PX }}
-              data-pending="effort"
-            >
-              Effort: computing the series for this plan…
-            </p>
-          ) : !data[q] ? null : (
+          !data[q] ? null : (
             <QuantityChart
               key={q}
               quantity={q}
@@ -229,6 +230,7 @@ export function JointPlots(props: JointPlotsProps) {
               totalS={totalS}
               joints={joints}
               selectedJoints={q === "effort" ? chartJoints.effort : chartJoints.motion}
+              sampledHz={q === "effort" ? effortRateNote : undefined}
               cautionRatio={cautionRatio}
               unit={unit}
               markers={markers}
@@ -244,6 +246,8 @@ export function JointPlots(props: JointPlotsProps) {
 interface ChartData {
   /** Per plotted joint: time and value pairs, interleaved. */
   traces: { joint: number; points: Float64Array }[];
+  /** The series is still being computed: the frame is drawn, the traces are not. */
+  pending: boolean;
   domain: [number, number];
   ticks: number[];
 }
@@ -376,6 +380,7 @@ const QuantityChart = memo(function QuantityChart({
   cautionRatio,
   unit,
   markers,
+  sampledHz,
 }: {
   quantity: Quantity;
   data: ChartData;
@@ -385,12 +390,14 @@ const QuantityChart = memo(function QuantityChart({
   cautionRatio: number;
   unit: AngleUnit;
   markers: readonly PlotMarker[];
+  /** The chart's samples per second, when lower than the motion charts' (effort). */
+  sampledHz?: number;
 }) {
   const units = [...new Set(selectedJoints.map((j) => unitLabel(joints[j].type, unit, quantity)))].join(", ");
   const label = `${quantityTitle(
     quantity,
     selectedJoints.map((j) => joints[j].type),
-  )} (${units})`;
+  )} (${units})${sampledHz ? ` · drawn from ${Math.round(sampledHz)} samples/s; the check uses every control period` : ""}`;
   // the time axis ends at the plan's end: its nice ticks that fall inside
   const timeTicks = niceAxis(0, totalS || 1, 8).ticks.filter((t) => t <= (totalS || 1));
   const guides: Guide[] = [];
@@ -409,7 +416,16 @@ const QuantityChart = memo(function QuantityChart({
     <figure className="relative" aria-label={`${label} against time`}>
       <figcaption className="absolute top-0 left-14 z-10 text-[10px] font-medium text-ink-soft">{label}</figcaption>
       <div className="relative w-full" style={{ height: PLOT_HEIGHT_PX }} data-testid="plot-box">
-        <ChartFrame totalS={totalS} timeTicks={timeTicks} domain={data.domain} ticks={data.ticks} />
+        <ChartFrame domain={data.domain} ticks={data.ticks} />
+        <TimeAxis totalS={totalS || 1} ticks={timeTicks} />
+        {data.pending ? (
+          <p
+            className="absolute inset-0 flex items-center justify-center text-xs text-ink-soft"
+            data-pending={quantity}
+          >
+            <span className="rounded bg-panel/85 px-1.5 py-0.5">Computing the series for this plan…</span>
+          </p>
+        ) : null}
         <Overlay
           guides={guides}
           markers={shownMarkers}
@@ -424,8 +440,8 @@ const QuantityChart = memo(function QuantityChart({
 });
 
 const TICK_STYLE = { fontSize: 10, fill: "#6b7280" };
-const CHART_MARGIN = { top: TOP_MARGIN, right: RIGHT_MARGIN, bottom: 0, left: 0 };
-const timeLabel = (v: number) => `${Number(v.toFixed(2))}`;
+const CHART_MARGIN = { top: TOP_MARGIN, right: RIGHT_MARGIN, bottom: X_AXIS_HEIGHT, left: 0 };
+const UNIT_DOMAIN: [number, number] = [0, 1];
 const valueLabel = (v: number) => `${Math.abs(v) >= 100 ? v.toFixed(0) : Number(v.toFixed(1))}`;
 
 /**
@@ -433,13 +449,9 @@ const valueLabel = (v: number) => `${Math.abs(v) >= 100 ? v.toFixed(0) : Number(
  * ticks, so an edit that leaves the axes alone does not draw it again.
  */
 const ChartFrame = memo(function ChartFrame({
-  totalS,
-  timeTicks,
   domain,
   ticks,
 }: {
-  totalS: number;
-  timeTicks: readonly number[];
   domain: readonly [number, number];
   ticks: readonly number[];
 }) {
@@ -447,16 +459,8 @@ const ChartFrame = memo(function ChartFrame({
     <ResponsiveContainer width="100%" height="100%">
       <LineChart margin={CHART_MARGIN}>
         <CartesianGrid stroke="#e7e4da" strokeDasharray="2 3" vertical={false} />
-        <XAxis
-          dataKey="t"
-          type="number"
-          domain={[0, totalS || 1]}
-          tick={TICK_STYLE}
-          ticks={timeTicks as number[]}
-          tickFormatter={timeLabel}
-          height={X_AXIS_HEIGHT}
-          allowDataOverflow
-        />
+        {/* the time axis is ours (TimeAxis): a new plan length then leaves this frame alone */}
+        <XAxis hide type="number" domain={UNIT_DOMAIN} allowDataOverflow />
         <YAxis
           type="number"
           width={Y_AXIS_WIDTH}
@@ -472,11 +476,34 @@ const ChartFrame = memo(function ChartFrame({
 }, sameAxes);
 
 function sameAxes(
-  a: { totalS: number; timeTicks: readonly number[]; domain: readonly [number, number]; ticks: readonly number[] },
-  b: typeof a,
+  a: { domain: readonly [number, number]; ticks: readonly number[] },
+  b: { domain: readonly [number, number]; ticks: readonly number[] },
 ): boolean {
   const same = (x: readonly number[], y: readonly number[]) => x.length === y.length && x.every((v, i) => v === y[i]);
-  return a.totalS === b.totalS && same(a.timeTicks, b.timeTicks) && same(a.domain, b.domain) && same(a.ticks, b.ticks);
+  return same(a.domain, b.domain) && same(a.ticks, b.ticks);
+}
+
+/** The time axis under the plot area: a line, and a label at each tick (s). */
+function TimeAxis({ totalS, ticks }: { totalS: number; ticks: readonly number[] }) {
+  return (
+    <div
+      aria-hidden="true"
+      className="absolute bottom-0 border-t border-[#666] text-[10px] text-[#6b7280]"
+      style={{ left: Y_AXIS_WIDTH, right: RIGHT_MARGIN, height: X_AXIS_HEIGHT }}
+    >
+      {ticks.map((t) => (
+        <span
+          key={t}
+          data-testid="time-tick"
+          className="tabular absolute top-0 -translate-x-1/2 pt-1 leading-none"
+          style={{ left: `${(t / totalS) * 100}%` }}
+        >
+          <span className="absolute top-0 left-1/2 h-[3px] w-px bg-[#666]" />
+          {Number(t.toFixed(2))}
+        </span>
+      ))}
+    </div>
+  );
 }
 
 /** The playhead over a chart's plot area; pointer down/drag on it moves the playhead. */

@@ -275,7 +275,7 @@ describe("pages at 1440×900", () => {
     const charts = await page.getByTestId("plot-box").evaluateAll((els) =>
       els.map((e) => ({
         vertices: (e.querySelector("path[data-joint]")?.getAttribute("d") ?? "").split("L").length,
-        timeTicks: e.querySelectorAll(".recharts-xAxis .recharts-cartesian-axis-tick").length,
+        timeTicks: e.querySelectorAll("[data-testid='time-tick']").length,
         valueTicks: e.querySelectorAll(".recharts-yAxis .recharts-cartesian-axis-tick").length,
       })),
     );
