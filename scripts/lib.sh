@@ -136,7 +136,20 @@ pg_recreate_db() {
 }
 
 # Build with `next build` when any source is newer than the last build.
+# One build at a time per checkout: a second run (npm start beside npm test, two benches) waits for
+# the first one's build and then finds it up to date, instead of failing on "another next build is
+# running". The lock is this checkout's own, so runs in other clones do not wait for each other.
 build_if_stale() {
+  mkdir -p "$ROOT/.data"
+  local lock rc=0
+  exec {lock}>"$ROOT/.data/build.lock"
+  flock "$lock"
+  build_if_stale_unlocked || rc=$?
+  exec {lock}>&-
+  return $rc
+}
+
+build_if_stale_unlocked() {
   local stamp=".next/BUILD_ID"
   if [ -f "$stamp" ] && [ -z "$(find app components lib kinematics db public next.config.ts postcss.config.mjs package-lock.json tsconfig.json instrumentation.ts \
         -newer "$stamp" -type f -print -quit 2>/dev/null)" ]; then
