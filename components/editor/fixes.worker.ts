@@ -4,8 +4,8 @@
  * plan (up to `maxCandidates` checks), which can take longer than the check itself. Only the latest
  * plan is worked on: requests that arrive while a plan's fixes are being found replace each other,
  * and the newest is taken up next. Before the fixes it sends the effort plot's series (inverse dynamics
- * at every plotted sample: 15-30 ms on a 10-move plan, which the page's main thread no longer spends),
- * in parallel with the check worker's report.
+ * at up to 3,000 samples, effort.ts: work the page's main thread no longer does), while the check
+ * worker finds the report.
  */
 import { check } from "@/kinematics";
 import { effortAlongPlot } from "@/components/plots/effort";

@@ -80,7 +80,7 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
   // Plots and the stage may trail fast slider drags by a frame; the findings never do.
   const deferred = useDeferredValue(live);
   const deferredPlan = useDeferredValue(checked);
-  // the effort plot's series comes from the check worker; until it has the plan the plots draw, the
+  // the effort plot's series comes from the fixes worker; until it has the plan the plots draw, the
   // effort chart says it is being computed (never another plan's series on this plan's time axis)
   const lastEffort = full.lastEffort?.plan === deferredPlan ? full.lastEffort.series : null;
   const effort: EffortSeries | EffortPending | null = !deferredPlan.arm.chain
