@@ -349,6 +349,7 @@ function Overlay({
           />
         ))}
         {traces.map(({ joint, points }) => {
+          if (points.length < 4) return null; // no trace yet (a pending series) or a single point
           let d = "";
           for (let r = 0; r < points.length; r += 2)
             d += `${r === 0 ? "M" : "L"}${x(points[r]).toFixed(2)},${y(points[r + 1]).toFixed(2)}`;

@@ -271,7 +271,15 @@ describe("pages at 1440×900", () => {
     expect(heights.length).toBeGreaterThanOrEqual(3);
     for (const h of heights) expect(h).toBeGreaterThanOrEqual(120);
     // each chart draws its traces over recharts' frame, with tick labels on both axes
-    await page.locator("[data-testid='plot-box'] path[data-joint]").first().waitFor();
+    // the effort chart's series comes from a worker after the page renders: wait until no chart is pending
+    await page.waitForFunction(
+      () =>
+        document.querySelectorAll("[data-testid='plot-box']").length > 0 &&
+        document.querySelector("[data-testid='plots'] [data-pending]") === null &&
+        [...document.querySelectorAll("[data-testid='plot-box']")].every((box) =>
+          box.querySelector("path[data-joint]"),
+        ),
+    );
     const charts = await page.getByTestId("plot-box").evaluateAll((els) =>
       els.map((e) => ({
         vertices: (e.querySelector("path[data-joint]")?.getAttribute("d") ?? "").split("L").length,
