@@ -113,6 +113,9 @@ export function JointPlots(props: JointPlotsProps) {
   const n = samples.jointCount;
   const totalS = samples.count > 0 ? samples.timeS[samples.count - 1] : 0;
 
+  // the effort series once computed (null while pending, or for an arm without a chain)
+  const series: EffortSeries | null = effort && effort.values !== null ? effort : null;
+
   const data = useMemo(() => {
     const cols = selectedJoints.filter((j) => j < n);
     const byQuantity: Partial<Record<Quantity, ChartData>> = {};
@@ -120,9 +123,9 @@ export function JointPlots(props: JointPlotsProps) {
       const isEffort = q === "effort";
       if (isEffort && !effort) continue;
       // a pending effort series: no traces yet, the axis from the limits alone
-      const pending = isEffort && effort!.values === null;
+      const pending = isEffort && !series;
       const arr = isEffort
-        ? (effort!.values ?? new Float64Array(0))
+        ? (series?.values ?? new Float64Array(0))
         : q === "position"
           ? samples.position
           : q === "velocity"
@@ -131,8 +134,8 @@ export function JointPlots(props: JointPlotsProps) {
       const stride = isEffort ? effort!.stride : n;
       const qCols = isEffort ? cols.filter((j) => j < stride) : cols;
       // the effort series has samples of its own (at most the motion's rate, effort.ts)
-      const count = isEffort ? (effort!.values ? (effort as EffortSeries).count : 0) : samples.count;
-      const timeS = isEffort && effort!.values ? (effort as EffortSeries).timeS : samples.timeS;
+      const count = isEffort ? (series?.count ?? 0) : samples.count;
+      const timeS = isEffort && series ? series.timeS : samples.timeS;
       const idx = pending ? new Uint32Array(0) : minMaxIndices(count, arr, stride, qCols, buckets);
       let lo = 0;
       let hi = 0;
@@ -157,13 +160,10 @@ export function JointPlots(props: JointPlotsProps) {
       byQuantity[q] = { traces, pending, ...niceAxis(lo, hi, Y_TICKS) };
     }
     return byQuantity;
-  }, [samples, n, selectedJoints, quantities, buckets, joints, unit, effort]);
+  }, [samples, n, selectedJoints, quantities, buckets, joints, unit, effort, series]);
 
   // the effort chart says its rate when it is sampled more coarsely than the motion charts
-  const effortRateNote =
-    effort?.values && (effort as EffortSeries).rateHz < samples.rateHz - 1e-9
-      ? (effort as EffortSeries).rateHz
-      : undefined;
+  const effortRateNote = series && series.rateHz < samples.rateHz - 1e-9 ? series.rateHz : undefined;
 
   // the joints each chart draws, kept by identity so that an unchanged chart is not drawn again
   const chartJoints = useMemo(
