@@ -14,7 +14,7 @@ import { moveBlend, scalingAt } from "../motion/shapes";
 import { compileReachBounds, type ReachBounds } from "../arm/motion-bounds";
 import { createToolSpeedScanner, type ToolSpeedScanner } from "../arm/tool-speed";
 import type { MoveContext } from "./types";
-import type { MovePath } from "./move-path";
+import type { MovePath, PathSegment } from "./move-path";
 
 /** Everything the arm checks reuse across the moves of one plan. */
 export interface ArmState {
@@ -41,6 +41,8 @@ export interface ArmState {
   searchQdd: Float64Array;
   /** Cached path terms of the moves checked with this arm (see move-path.ts). */
   paths: Map<string, MovePath>;
+  /** Cached path terms by geometric segment (start and displacement), shared by every shape and duration. */
+  segments: Map<string, PathSegment>;
   /** Scratch for one channel's values at the path grid points. */
   pathValues: Float64Array;
   /** What the state was built from; a plan object edited in place gets a fresh state. */
@@ -110,6 +112,7 @@ export function stateOf(plan: Plan): ArmState | null {
     searchQd: new Float64Array(n),
     searchQdd: new Float64Array(n),
     paths: new Map(),
+    segments: new Map(),
     pathValues: new Float64Array(0),
     source,
   };

@@ -9,9 +9,17 @@
  * manipulator dynamics: Hollerbach, "Dynamic scaling of manipulator trajectories", ASME J. Dynamic
  * Systems, Measurement and Control, 1984 — memory; derived here from the Newton–Euler equations,
  * which are linear in q̈ and quadratic in q̇). The tool-point speed is |J(q(τ))·D·s′(τ)|/T, exactly
- * 1/T on the path (Siciliano et al. 2009, §3.1). The path terms are computed once per path (start,
- * displacement, shape and blend, under one compiled arm and payload) and cached; a change of
- * duration then costs a few multiply-adds per path point.
+ * 1/T on the path (Siciliano et al. 2009, §3.1). A change of duration then costs a few multiply-adds
+ * per path point.
+ *
+ * Every shape moves along the same straight joint-space segment q(σ) = q₀ + σ·D, σ = s(τ), so the
+ * terms are kept per point σ of the segment, apart from the shape: Mⱼ = mⱼ(σ)·s″ + cⱼ(σ)·s′², with
+ * m the inertial term per unit σ̈ and c the Coriolis and centripetal term per unit σ̇² (the
+ * path-parameter form of the dynamics: Bobrow, Dubowsky & Gibson, "Time-optimal control of robotic
+ * manipulators along specified paths", Int. J. Robotics Research 4(3), 1985 — memory), and the tool
+ * speed u(σ)·s′/T with u = |J(q(σ))·D|. A trapezoid's blend changes with its duration, and with it
+ * where τ lands on the segment; its grid and split points are chosen by σ, so the segment's points
+ * computed for one duration serve every other (only the blend ends and the control samples are new).
  *
  * Peaks are those of the control samples, as in the control-rate check, but only the samples that
  * could hold a peak are evaluated: a coarse grid of path points bounds each interval between them
@@ -22,7 +30,7 @@
  * @module
  */
 import { gravityEffortAtLastPose, inverseDynamics, toolSpeedAtLastPose } from "../arm/dynamics";
-import { scalingAt } from "../motion/shapes";
+import { scalingAt, shapeId, trapezoidTauAt } from "../motion/shapes";
 import type { ArmState } from "./arm-state";
 
 /** Intervals of the coarse path grid (the trapezoid's blend ends are added as extra points). */
@@ -37,12 +45,31 @@ const maxRefineDepth = 32;
 /** Most interval splits per channel and duration; past it an interval's bound stands for its peak. */
 const maxSplitsPerChannel = 20_000;
 
+/**
+ * The arm's terms along one geometric segment q(σ) = q₀ + σ·D, per evaluated σ (stride `3n + 1`:
+ * mⱼ, cⱼ, gⱼ, u; see the module comment), memoised by σ in one pool grown by doubling.
+ */
+export interface PathSegment {
+  readonly n: number;
+  readonly from: Float64Array;
+  readonly delta: Float64Array;
+  /** Slot of each evaluated σ (its terms at slot × stride in `terms`). */
+  readonly slot: Map<number, number>;
+  terms: Float64Array;
+}
+
 /** Path terms of one move, per evaluated point (stride `2n + 2`: Mⱼ, gⱼ, s′, tool speed at T = 1). */
 export interface MovePath {
   /** Chain joint count. */
   readonly n: number;
   /** Grid τ values, ascending, from 0 to 1. */
   readonly tau: Float64Array;
+  /** The segment position σ = s(τ) of each grid point. */
+  readonly sigma: Float64Array;
+  /** Per grid interval: 1 when the shape's acceleration jumps inside it (a trapezoid's blend end). */
+  readonly jumps: Uint8Array;
+  /** The segment's terms, shared by the paths of every shape and blend along it. */
+  readonly segment: PathSegment;
   /** Terms at the grid points, stride `2n + 2`. */
   readonly grid: Float64Array;
   /** Slot of each memoised refinement point, by τ (its terms at slot × stride in `extraTerms`). */
@@ -60,38 +87,166 @@ export interface MovePath {
 /** Largest number of cached paths per compiled arm (oldest dropped first). */
 const maxCachedPaths = 512;
 
-/** Writes the path terms at τ into `out` at `offset`. */
-function evaluatePoint(s: ArmState, path: MovePath, tau: number, out: Float64Array, offset: number): void {
-  const { n } = path;
-  scalingAt(path.shape, path.blend, tau, s.scale);
-  const q = s.searchQ,
-    qd = s.searchQd,
-    qdd = s.searchQdd,
-    tmp = s.tau;
-  for (let i = 0; i < n; i++) {
-    q[i] = path.from[i] + s.scale[0] * path.delta[i];
-    qd[i] = path.delta[i] * s.scale[1]; // q̇ at T = 1
-    qdd[i] = path.delta[i] * s.scale[2];
+/** Largest number of cached segments per compiled arm, and of evaluated points per segment. */
+const maxCachedSegments = 256;
+const maxSegmentPoints = 16_384;
+
+const TRAPEZOID = shapeId("trapezoid");
+
+/** The segment of chain joints `from` + σ·`delta`, cached in the arm state. */
+function segmentOf(s: ArmState, from: ArrayLike<number>, delta: ArrayLike<number>): PathSegment {
+  const n = s.n;
+  let key = "";
+  for (let i = 0; i < n; i++) key += `${from[i]}|${delta[i]}|`;
+  const cached = s.segments.get(key);
+  if (cached) {
+    s.segments.delete(key); // most recently used last
+    s.segments.set(key, cached);
+    return cached;
   }
-  inverseDynamics(s.chain, s.dynamics, q, qd, qdd, tmp, 0, 0, false, false);
-  for (let i = 0; i < n; i++) out[offset + i] = tmp[i];
-  // the tool speed from the same forward pass (its rotations and angular velocities)
-  out[offset + 2 * n + 1] = toolSpeedAtLastPose(s.chain, s.dynamics, qd);
-  // gravity at the same pose, reusing the link rotations of the call above
-  gravityEffortAtLastPose(s.chain, s.dynamics, tmp);
-  for (let i = 0; i < n; i++) out[offset + n + i] = tmp[i];
-  out[offset + 2 * n] = s.scale[1];
+  const segment: PathSegment = {
+    n,
+    from: Float64Array.from({ length: n }, (_, i) => from[i]),
+    delta: Float64Array.from({ length: n }, (_, i) => delta[i]),
+    slot: new Map(),
+    terms: new Float64Array(96 * (3 * n + 1)),
+  };
+  s.segments.set(key, segment);
+  if (s.segments.size > maxCachedSegments) s.segments.delete(s.segments.keys().next().value as string);
+  return segment;
 }
 
-/** The grid τ values of a path: uniform, plus the trapezoid's blend ends where they fall between. */
-function gridOf(blend: number): Float64Array {
-  const points: number[] = [];
-  for (let k = 0; k <= pathGridIntervals; k++) points.push(k / pathGridIntervals);
-  // the trapezoid's acceleration jumps at the blend ends: both sides of each are path points
-  if (blend > 0 && blend <= 0.5) points.push(blend * (1 - 1e-9), blend, 1 - blend, (1 - blend) * (1 + 1e-9));
-  points.sort((a, b) => a - b);
-  const unique = points.filter((v, i) => i === 0 || v - points[i - 1] > 1e-13);
-  return Float64Array.from(unique);
+/**
+ * The offset in `segment.terms` of the terms at σ (read `segment.terms` after the call, the pool may
+ * have grown): m from the inverse dynamics at q̇ = 0, q̈ = D; c and the tool speed per unit σ̇ at
+ * q̇ = D, q̈ = 0 (neither with gravity or friction); g from the same link rotations.
+ */
+function segmentPoint(s: ArmState, segment: PathSegment, sigma: number): number {
+  const n = segment.n,
+    stride = 3 * n + 1;
+  const known = segment.slot.get(sigma);
+  if (known !== undefined) return known * stride;
+  if (segment.slot.size >= maxSegmentPoints) segment.slot.clear();
+  const next = segment.slot.size;
+  if ((next + 1) * stride > segment.terms.length) {
+    const grown = new Float64Array(segment.terms.length * 2);
+    grown.set(segment.terms);
+    segment.terms = grown;
+  }
+  const o = next * stride,
+    out = segment.terms;
+  const q = s.searchQ,
+    zero = s.dynamics.zero,
+    tmp = s.tau,
+    D = segment.delta;
+  for (let i = 0; i < n; i++) q[i] = segment.from[i] + sigma * D[i];
+  inverseDynamics(s.chain, s.dynamics, q, D, zero, tmp, 0, 0, false, false);
+  for (let i = 0; i < n; i++) out[o + n + i] = tmp[i];
+  // the tool speed from the same forward pass (its rotations and angular velocities)
+  out[o + 3 * n] = toolSpeedAtLastPose(s.chain, s.dynamics, D);
+  // gravity at the same pose, reusing the link rotations of the call above
+  gravityEffortAtLastPose(s.chain, s.dynamics, tmp);
+  for (let i = 0; i < n; i++) out[o + 2 * n + i] = tmp[i];
+  inverseDynamics(s.chain, s.dynamics, q, zero, D, tmp, 0, 0, false, false);
+  for (let i = 0; i < n; i++) out[o + i] = tmp[i];
+  segment.slot.set(sigma, next);
+  return o;
+}
+
+/**
+ * Writes the path terms at τ into `out` at `offset`: from the segment's terms at σ = s(τ), or at
+ * `sigma` when given (a grid or split point chosen by σ, where s(τ) equals it up to rounding).
+ */
+function evaluatePoint(s: ArmState, path: MovePath, tau: number, out: Float64Array, offset: number, sigma = NaN): void {
+  const { n } = path;
+  scalingAt(path.shape, path.blend, tau, s.scale);
+  const sp = s.scale[1],
+    spp = s.scale[2];
+  const segment = path.segment;
+  const o = segmentPoint(s, segment, Number.isNaN(sigma) ? s.scale[0] : sigma);
+  const t = segment.terms;
+  for (let i = 0; i < n; i++) {
+    out[offset + i] = t[o + i] * spp + t[o + n + i] * sp * sp;
+    out[offset + n + i] = t[o + 2 * n + i];
+  }
+  out[offset + 2 * n] = sp;
+  out[offset + 2 * n + 1] = t[o + 3 * n] * sp;
+}
+
+/** The σ of the trapezoid's grid: the cubic's s at uniform τ (dense near both ends, like the trapezoid's). */
+const trapezoidGridSigma = Float64Array.from({ length: pathGridIntervals + 1 }, (_, k) => {
+  const t = k / pathGridIntervals;
+  return t * t * (3 - 2 * t);
+});
+
+/** A path's grid points, τ and σ, and which of its intervals hold a jump of the acceleration. */
+interface PathGrid {
+  tau: Float64Array;
+  sigma: Float64Array;
+  jumps: Uint8Array;
+}
+
+/** The grids of the polynomial shapes, which do not depend on the duration. */
+const polynomialGrids = new Map<number, PathGrid>();
+
+/**
+ * The grid of a path, τ and σ: uniform in τ for the polynomial shapes; for the trapezoid, at fixed σ
+ * (the same segment points at every blend) plus both sides of each blend end, where its acceleration
+ * jumps.
+ */
+function gridOf(shape: number, blend: number): PathGrid {
+  if (shape !== TRAPEZOID) {
+    let grid = polynomialGrids.get(shape);
+    if (!grid) {
+      const scale = new Float64Array(3);
+      const tau = Float64Array.from({ length: pathGridIntervals + 1 }, (_, k) => k / pathGridIntervals);
+      const sigma = tau.map((t) => scalingAt(shape, blend, t, scale)[0]);
+      polynomialGrids.set(shape, (grid = { tau, sigma, jumps: new Uint8Array(pathGridIntervals) }));
+    }
+    return grid; // shared, never written
+  }
+  // the fixed σ points and both sides of each blend end (if b ≤ ½), merged by τ
+  const kinks = blend > 0 && blend <= 0.5 ? [blend * (1 - 1e-9), blend, 1 - blend, (1 - blend) * (1 + 1e-9)] : [];
+  const size = trapezoidGridSigma.length + kinks.length;
+  const tau = new Float64Array(size),
+    sigma = new Float64Array(size);
+  const scale = new Float64Array(3);
+  let count = 0,
+    next = 0;
+  const push = (t: number, sg: number) => {
+    if (count > 0 && t - tau[count - 1] <= 1e-13) return;
+    tau[count] = t;
+    sigma[count++] = sg;
+  };
+  for (const sg of trapezoidGridSigma) {
+    const t = trapezoidTauAt(sg, blend);
+    for (; next < kinks.length && kinks[next] < t; next++)
+      push(kinks[next], scalingAt(shape, blend, kinks[next], scale)[0]);
+    push(t, sg);
+  }
+  for (; next < kinks.length; next++) push(kinks[next], scalingAt(shape, blend, kinks[next], scale)[0]);
+  // the accelerating side ends just before b, the decelerating side starts just after 1 − b
+  const jumps = new Uint8Array(count - 1);
+  for (let k = 0; k + 1 < count; k++) {
+    const a = tau[k],
+      b = tau[k + 1];
+    if ((a < blend && b >= blend) || (a <= 1 - blend && b > 1 - blend)) jumps[k] = 1;
+  }
+  return { tau: tau.slice(0, count), sigma: sigma.slice(0, count), jumps };
+}
+
+/**
+ * Where an interval [a, b] of a path is split, τ and σ: its middle in τ for the polynomial shapes
+ * (whose τ ↦ σ does not depend on the duration), in σ for the trapezoid (the same segment point at
+ * every blend).
+ */
+function splitOf(path: MovePath, a: number, sa: number, b: number, sb: number): { tau: number; sigma: number } {
+  if (path.shape === TRAPEZOID) {
+    const sigma = (sa + sb) / 2;
+    const tau = trapezoidTauAt(sigma, path.blend);
+    if (tau > a && tau < b) return { tau, sigma };
+  }
+  return { tau: (a + b) / 2, sigma: NaN };
 }
 
 /**
@@ -114,20 +269,23 @@ export function movePath(
     s.paths.set(key, cached);
     return cached;
   }
-  const tau = gridOf(blend);
+  const { tau, sigma, jumps } = gridOf(shape, blend);
   const stride = 2 * n + 2;
   const path: MovePath = {
     n,
     tau,
+    sigma,
+    jumps,
+    segment: segmentOf(s, from, delta),
     grid: new Float64Array(tau.length * stride),
     extraSlot: new Map(),
-    extraTerms: new Float64Array(64 * stride),
+    extraTerms: new Float64Array(16 * stride),
     delta: Float64Array.from({ length: n }, (_, i) => delta[i]),
     from: Float64Array.from({ length: n }, (_, i) => from[i]),
     shape,
     blend,
   };
-  for (let k = 0; k < tau.length; k++) evaluatePoint(s, path, tau[k], path.grid, k * stride);
+  for (let k = 0; k < tau.length; k++) evaluatePoint(s, path, tau[k], path.grid, k * stride, sigma[k]);
   s.paths.set(key, path);
   if (s.paths.size > maxCachedPaths) s.paths.delete(s.paths.keys().next().value as string);
   return path;
@@ -137,7 +295,7 @@ export function movePath(
  * The offset in `path.extraTerms` of the path terms at a refinement point τ (memoised in one pool,
  * so a point costs no allocation; read `path.extraTerms` after the call, the pool may have grown).
  */
-function termsAt(s: ArmState, path: MovePath, tau: number): number {
+function termsAt(s: ArmState, path: MovePath, tau: number, sigma = NaN): number {
   const stride = 2 * path.n + 2;
   const slot = path.extraSlot.get(tau);
   if (slot !== undefined) return slot * stride;
@@ -147,7 +305,7 @@ function termsAt(s: ArmState, path: MovePath, tau: number): number {
     grown.set(path.extraTerms);
     path.extraTerms = grown;
   }
-  evaluatePoint(s, path, tau, path.extraTerms, next * stride);
+  evaluatePoint(s, path, tau, path.extraTerms, next * stride, sigma);
   path.extraSlot.set(tau, next);
   return next * stride;
 }
@@ -235,7 +393,9 @@ function channelPeak(
   const count = tau.length;
   const perTau = rateHz * durationS; // control samples per unit τ
   const last = Math.floor(perTau + 1e-9) + 1; // the sample index of the end (t = T), as in sampleMove
-  const sampleTau = (k: number) => (k >= last ? 1 : Math.min(k / perTau, 1));
+  // τ of sample k computed as the control-rate check computes it (t = k/rate, then t/T): a sample that
+  // lands on a trapezoid's blend end must fall on the same side of it in both checks
+  const sampleTau = (k: number) => (k >= last ? 1 : Math.min(k / rateHz, durationS) / durationS);
   const values = s.pathValues.length >= count ? s.pathValues : (s.pathValues = new Float64Array(count));
   let gridMax = 0;
   for (let k = 0; k < count; k++) {
@@ -266,14 +426,17 @@ function channelPeak(
     const around = Math.floor(tau[gridMax] * perTau);
     for (let k = Math.max(0, around - 1); k <= Math.min(last, around + 2); k++) evaluate(k);
   }
-  // Curvature estimate at each grid point from divided differences (0 at the ends).
+  // Curvature estimate at each grid point from divided differences (0 at the ends, and where one of
+  // the two intervals holds a trapezoid's blend end: the acceleration jumps there, so a difference
+  // across it says nothing of the curvature on either side, which the other points estimate).
+  const jumps = path.jumps;
   const curvature = (k: number) => {
-    if (k <= 0 || k >= count - 1) return 0;
+    if (k <= 0 || k >= count - 1 || jumps[k - 1] || jumps[k]) return 0;
     const h0 = tau[k] - tau[k - 1],
       h1 = tau[k + 1] - tau[k];
     return Math.abs((2 * ((values[k + 1] - values[k]) / h1 - (values[k] - values[k - 1]) / h0)) / (h0 + h1));
   };
-  const visit = (a: number, va: number, b: number, vb: number, K: number, depth: number) => {
+  const visit = (a: number, sa: number, va: number, b: number, sb: number, vb: number, K: number, depth: number) => {
     if (stopped) return;
     const h = b - a;
     const bound = Math.max(va, vb) + (curvatureSafety * K * h * h) / 8;
@@ -294,17 +457,21 @@ function channelPeak(
       }
       return;
     }
-    const m = (a + b) / 2;
-    const om = termsAt(s, path, m);
+    const split = splitOf(path, a, sa, b, sb);
+    const m = split.tau;
+    const om = termsAt(s, path, m, split.sigma);
     const vm = channelOf(s, path, path.extraTerms, om, c, durationS);
-    // second divided difference over the two halves, the parent's estimate shrunk with h² as a floor
-    const Km = Math.max(Math.abs((va - 2 * vm + vb) / ((h / 2) * (h / 2))), K / 4);
-    visit(a, va, m, vm, Km, depth + 1);
-    visit(m, vm, b, vb, Km, depth + 1);
+    const sm = Number.isNaN(split.sigma) ? (sa + sb) / 2 : split.sigma; // σ only steers a trapezoid's splits
+    // second divided difference over the two parts (2·f[a, m, b], |f″| for a parabola), the
+    // parent's estimate shrunk with h² as a floor
+    const Km = Math.max(Math.abs((2 * ((vb - vm) / (b - m) - (vm - va) / (m - a))) / h), K / 4);
+    visit(a, sa, va, m, sm, vm, Km, depth + 1);
+    visit(m, sm, vm, b, sb, vb, Km, depth + 1);
   };
+  const sigma = path.sigma;
   for (let k = 0; k + 1 < count && !stopped; k++) {
     const K = Math.max(curvature(k - 1), curvature(k), curvature(k + 1), curvature(k + 2));
-    visit(tau[k], values[k], tau[k + 1], values[k + 1], K, 0);
+    visit(tau[k], sigma[k], values[k], tau[k + 1], sigma[k + 1], values[k + 1], K, 0);
   }
   return best;
 }

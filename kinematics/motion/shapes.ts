@@ -97,6 +97,21 @@ export function scalingAt(shape: number, blend: number, tau: number, out: Float6
   return out;
 }
 
+/**
+ * The τ at which the trapezoid with blend fraction `blend` reaches s(τ) = `sigma` (0..1): the inverse
+ * of {@link scalingAt}'s trapezoid, piecewise τ = √(2σ·b(1−b)) in the first blend, σ(1−b) + b/2 in
+ * the cruise and 1 − √(2(1−σ)·b(1−b)) in the last blend (derived from the same three pieces).
+ */
+export function trapezoidTauAt(sigma: number, blend: number): number {
+  if (sigma <= 0) return 0;
+  if (sigma >= 1) return 1;
+  const b = blend;
+  const edge = b / (2 * (1 - b)); // s(b)
+  if (sigma < edge) return Math.sqrt(2 * sigma * b * (1 - b));
+  if (sigma <= 1 - edge) return sigma * (1 - b) + 0.5 * b;
+  return 1 - Math.sqrt(2 * (1 - sigma) * b * (1 - b));
+}
+
 /** Peak |ds/dτ| of a shape (for the trapezoid, with blend fraction `blend`). */
 export function velocityFactor(shape: number, blend: number): number {
   if (shape === CUBIC) return cubicVelocityFactor;

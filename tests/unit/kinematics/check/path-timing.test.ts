@@ -76,7 +76,7 @@ describe("effort along a fixed path separates by its dependence on the duration"
   // Time scaling of the manipulator dynamics: on a fixed path the inertial and Coriolis terms scale with
   // 1/T², viscous friction with 1/T, gravity and Coulomb friction not at all (Hollerbach, "Dynamic scaling
   // of manipulator trajectories", ASME J. Dynamic Systems, Measurement and Control 106, 1984 — memory).
-  it("the cached path terms give the Newton–Euler effort at every duration and path point", () => {
+  it("the cached path terms give the Newton–Euler effort at every duration and path point, for every shape (a trapezoid at three blends)", () => {
     const plan = parse({
       format: "jointproof.plan",
       version: 1,
@@ -89,7 +89,6 @@ describe("effort along a fixed path separates by its dependence on the duration"
     const from = plan.start,
       goal = poseOf(heavy, [0.8, 0.6, 0.2, 0.3, 0.7, 0.1, 0.5]);
     const delta = goal.map((g, j) => g - from[j]);
-    const path = movePath(s, from, delta, shapeId("quintic"), 0);
     const n = s.n,
       stride = 2 * n + 2;
     const scale = new Float64Array(3),
@@ -97,29 +96,70 @@ describe("effort along a fixed path separates by its dependence on the duration"
       qd = new Float64Array(n),
       qdd = new Float64Array(n),
       tau = new Float64Array(n);
-    for (const T of [0.4, 1.3, 7]) {
-      for (let k = 0; k < path.tau.length; k += 7) {
-        scalingAt(shapeId("quintic"), 0, path.tau[k], scale);
-        for (let i = 0; i < n; i++) {
-          q[i] = from[i] + scale[0] * delta[i];
-          qd[i] = (delta[i] * scale[1]) / T;
-          qdd[i] = (delta[i] * scale[2]) / (T * T);
+    const cases: [string, number][] = [
+      ["quintic", 0],
+      ["cubic", 0],
+      ["trapezoid", 0.2],
+      ["trapezoid", 0.37],
+      ["trapezoid", 0.5],
+    ];
+    let points = 0;
+    for (const [shapeName, blend] of cases) {
+      const shape = shapeId(shapeName as "cubic");
+      const path = movePath(s, from, delta, shape, blend);
+      for (const T of [0.4, 1.3, 7]) {
+        for (let k = 0; k < path.tau.length; k += 5) {
+          scalingAt(shape, blend, path.tau[k], scale);
+          for (let i = 0; i < n; i++) {
+            q[i] = from[i] + scale[0] * delta[i];
+            qd[i] = (delta[i] * scale[1]) / T;
+            qdd[i] = (delta[i] * scale[2]) / (T * T);
+          }
+          inverseDynamics(s.chain, s.dynamics, q, qd, qdd, tau);
+          for (let j = 0; j < n; j++) {
+            const o = k * stride;
+            const v = qd[j];
+            const fromTerms =
+              path.grid[o + j] / (T * T) +
+              s.dynamics.viscous[j] * v +
+              path.grid[o + n + j] +
+              s.dynamics.coulomb[j] * Math.tanh(v / s.dynamics.signEpsilon);
+            expectClose(fromTerms, tau[j], 1e-9, 1e-9, `${shapeName} ${blend}: joint ${j} at τ=${path.tau[k]}, T=${T}`);
+          }
+          // tool speed on the path is exactly |J·D·s′|/T (Siciliano et al., 2009, §3.1: v = J_v·q̇)
+          expectClose(
+            path.grid[k * stride + 2 * n + 1] / T,
+            toolSpeedAt(s.toolSpeed, q, qd),
+            1e-12,
+            1e-9,
+            "tool speed",
+          );
+          points++;
         }
-        inverseDynamics(s.chain, s.dynamics, q, qd, qdd, tau);
-        for (let j = 0; j < n; j++) {
-          const o = k * stride;
-          const v = qd[j];
-          const fromTerms =
-            path.grid[o + j] / (T * T) +
-            s.dynamics.viscous[j] * v +
-            path.grid[o + n + j] +
-            s.dynamics.coulomb[j] * Math.tanh(v / s.dynamics.signEpsilon);
-          expectClose(fromTerms, tau[j], 1e-9, 1e-9, `joint ${j} at τ=${path.tau[k]}, T=${T}`);
-        }
-        // tool speed on the path is exactly |J·D·s′|/T (Siciliano et al., 2009, §3.1: v = J_v·q̇)
-        expectClose(path.grid[k * stride + 2 * n + 1] / T, toolSpeedAt(s.toolSpeed, q, qd), 1e-12, 1e-9, "tool speed");
       }
     }
+    expect(points).toBeGreaterThan(200);
+  });
+
+  it("a trapezoid's paths at different blends share the segment's points: a new blend evaluates only its blend ends", () => {
+    const plan = parse({
+      format: "jointproof.plan",
+      version: 1,
+      arm: heavy,
+      start: poseOf(heavy, [0.3, 0.4, 0.5, 0.5, 0.4, 0.5, 0.5]),
+      moves: [],
+    });
+    const s = stateOf(plan)!;
+    const delta = poseOf(heavy, [0.7, 0.5, 0.3, 0.4, 0.6, 0.2, 0.5]).map((g, j) => g - plan.start[j]);
+    const first = movePath(s, plan.start, delta, shapeId("trapezoid"), 0.21);
+    const before = first.segment.slot.size;
+    const second = movePath(s, plan.start, delta, shapeId("trapezoid"), 0.23);
+    expect(second.segment).toBe(first.segment);
+    expect(second.tau).not.toEqual(first.tau); // another path in time …
+    expect(second.segment.slot.size - before).toBeLessThanOrEqual(4); // … on the same segment points
+    // the cubic along the same segment reuses nothing of the trapezoid's grid but the ends, and shares the segment
+    const cubic = movePath(s, plan.start, delta, shapeId("cubic"), 0);
+    expect(cubic.segment).toBe(first.segment);
   });
 
   it("the path-mode peaks at two durations follow the decomposition: gravity-only joints keep their peak, tool speed halves when T doubles", () => {
@@ -301,5 +341,55 @@ describe("incremental check", () => {
       }),
       { numRuns: 25, seed: 7 },
     );
+  });
+});
+
+describe("the path-mode check samples where the control-rate check samples", () => {
+  it("a control sample that lands on a trapezoid's blend end falls on the same side of it in both checks (found by a property run: the path mode read the cruise side and reported 0.6% less)", () => {
+    // shrunk counterexample: 1 − 1.1·10⁻¹⁵ instead of 1 puts a sample within rounding of the blend end
+    const plan = planOf({
+      heavyArm: true,
+      start: [0, 0.9999999999999989, 0.9999999999999989, 0, 0, 0, 0],
+      moves: [{ goal: [0, 0, 0, 0, 0, 0, 0], duration: 0.8688945962554276, shape: "trapezoid" }],
+      payload: undefined,
+      boxes: [],
+      maxToolSpeed: 0.8,
+    });
+    const fast = check(plan).moves[0].peakEffort!;
+    const full = check(plan, { sampling: "control-rate" }).moves[0].peakEffort!;
+    fast.forEach((e, j) => {
+      if (e !== null) expectClose(e, full[j]!, 1e-12, 1e-9, `joint ${j}`);
+    });
+  });
+
+  it("trapezoid-heavy random plans: the same findings with the same severities, every peak within 10⁻⁶", () => {
+    let compared = 0;
+    const trapezoids = fc.record({
+      goal: fc.array(unit, { minLength: 7, maxLength: 7 }),
+      duration: fc.double({ min: 0.15, max: 2.5, noNaN: true }),
+      shape: fc.constantFrom("trapezoid", "trapezoid", "cubic"),
+    });
+    fc.assert(
+      fc.property(
+        planArb.chain((d) => fc.array(trapezoids, { minLength: 1, maxLength: 3 }).map((moves) => ({ ...d, moves }))),
+        (d) => {
+          const plan = planOf(d);
+          const fast = check(plan);
+          const full = check(plan, { sampling: "control-rate" });
+          const keyOf = (f: Finding) => `${f.kind}|${f.severity}|${f.move}|${f.joint}|${f.link ?? ""}|${f.zone ?? ""}`;
+          expect(new Set(fast.findings.map(keyOf))).toEqual(new Set(full.findings.map(keyOf)));
+          fast.moves.forEach((m, i) => {
+            m.peakEffort!.forEach((e, j) => {
+              if (e === null) return;
+              expectClose(e, full.moves[i].peakEffort![j]!, 1e-9, 1e-6, `move ${i} joint ${j} peak effort`);
+              compared++;
+            });
+            expectClose(m.peakToolSpeed!, full.moves[i].peakToolSpeed!, 1e-9, 1e-6, `move ${i} peak tool speed`);
+          });
+        },
+      ),
+      { numRuns: 150, seed: 99 },
+    );
+    expect(compared).toBeGreaterThan(300);
   });
 });

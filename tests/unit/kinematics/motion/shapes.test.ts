@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { check } from "@/kinematics";
 import { parsePlan, type Plan } from "@/kinematics";
-import { scalingAt, shapeId, speedShareOn, velocityFactor } from "@/kinematics/motion/shapes";
+import { scalingAt, shapeId, speedShareOn, trapezoidTauAt, velocityFactor } from "@/kinematics/motion/shapes";
 import fc from "fast-check";
 
 /** |actual − expected| within abs + rel·|expected|. */
@@ -154,5 +154,27 @@ describe("speed share on an interval (the clearance certification's local speed 
       ),
       { numRuns: 300, seed: 3 },
     );
+  });
+});
+
+describe("trapezoidTauAt", () => {
+  it("inverts the trapezoid's s(τ) on all three pieces, at every blend (derived closed form, checked against scalingAt)", () => {
+    const out = new Float64Array(3);
+    fc.assert(
+      fc.property(
+        fc.double({ min: 1e-6, max: 0.5, noNaN: true }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (blend, tau) => {
+          const sigma = scalingAt(shapeId("trapezoid"), blend, tau, out)[0];
+          const back = trapezoidTauAt(sigma, blend);
+          // s′ vanishes at both ends, where τ is only determined to about √ε
+          expect(Math.abs(back - tau)).toBeLessThan(tau < 1e-3 || tau > 1 - 1e-3 ? 1e-7 : 1e-9);
+          expect(scalingAt(shapeId("trapezoid"), blend, back, out)[0]).toBeCloseTo(sigma, 12);
+        },
+      ),
+      { numRuns: 500, seed: 4 },
+    );
+    expect(trapezoidTauAt(0, 0.3)).toBe(0);
+    expect(trapezoidTauAt(1, 0.3)).toBe(1);
   });
 });
