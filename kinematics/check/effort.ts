@@ -6,7 +6,7 @@
  * @module
  */
 import { gravityEffort, inverseDynamics } from "../arm/dynamics";
-import { severityOf } from "./report";
+import { severityLevels, severityOf } from "./report";
 import { sampleGoal, sampleMove, sampleRateOf, stateOf, type ArmState } from "./arm-state";
 import { createPathPeaks, movePath, pathGravityPeak, pathPeaks, type MovePath, type PathPeaks } from "./move-path";
 import { noTimingFix } from "./timing-wording";
@@ -47,7 +47,11 @@ export function movePathPeaks(s: ArmState, context: MoveContext): { path: MovePa
   const path = movePath(s, context.from, context.delta, shape, context.timeline.blend[context.index]);
   let peaks = contextPeaks.get(context);
   if (!peaks) {
-    peaks = pathPeaks(s, path, T, sampleRateOf(s, context), createPathPeaks(s.n));
+    // the values the effort and tool-speed findings compare each peak with (see severityOf)
+    const ratio = context.arm.cautionRatio;
+    const levels = context.arm.joints.slice(0, s.n).map((joint) => severityLevels(joint.maxEffort, ratio));
+    levels.push(severityLevels(context.plan.maxToolSpeed, ratio));
+    peaks = pathPeaks(s, path, T, sampleRateOf(s, context), createPathPeaks(s.n), undefined, levels);
     contextPeaks.set(context, peaks);
   }
   return { path, peaks };

@@ -12,14 +12,15 @@
  * 1/T on the path (Siciliano et al. 2009, §3.1). A change of duration then costs a few multiply-adds
  * per path point.
  *
- * Every shape moves along the same straight joint-space segment q(σ) = q₀ + σ·D, σ = s(τ), so the
- * terms are kept per point σ of the segment, apart from the shape: Mⱼ = mⱼ(σ)·s″ + cⱼ(σ)·s′², with
+ * Every shape moves along the same straight joint-space segment q(σ) = q₀ + σ·D, σ = s(τ). A
+ * trapezoid's blend changes with its duration, and with it where τ lands on the segment, so its
+ * terms are kept per point σ of the segment, apart from the timing: Mⱼ = mⱼ(σ)·s″ + cⱼ(σ)·s′², with
  * m the inertial term per unit σ̈ and c the Coriolis and centripetal term per unit σ̇² (the
  * path-parameter form of the dynamics: Bobrow, Dubowsky & Gibson, "Time-optimal control of robotic
  * manipulators along specified paths", Int. J. Robotics Research 4(3), 1985 — memory), and the tool
- * speed u(σ)·s′/T with u = |J(q(σ))·D|. A trapezoid's blend changes with its duration, and with it
- * where τ lands on the segment; its grid and split points are chosen by σ, so the segment's points
- * computed for one duration serve every other (only the blend ends and the control samples are new).
+ * speed u(σ)·s′/T with u = |J(q(σ))·D|. Its grid and split points are chosen by σ, so the segment's
+ * points computed for one duration serve every other (only the blend ends and the control samples
+ * are new). A polynomial shape's τ ↦ σ is fixed, so its path terms are evaluated at τ directly.
  *
  * Peaks are those of the control samples, as in the control-rate check, but only the samples that
  * could hold a peak are evaluated: a coarse grid of path points bounds each interval between them
@@ -68,8 +69,8 @@ export interface MovePath {
   readonly sigma: Float64Array;
   /** Per grid interval: 1 when the shape's acceleration jumps inside it (a trapezoid's blend end). */
   readonly jumps: Uint8Array;
-  /** The segment's terms, shared by the paths of every shape and blend along it. */
-  readonly segment: PathSegment;
+  /** A trapezoid's segment terms, shared by its paths at every blend (null for the polynomial shapes). */
+  readonly segment: PathSegment | null;
   /** Terms at the grid points, stride `2n + 2`. */
   readonly grid: Float64Array;
   /** Slot of each memoised refinement point, by τ (its terms at slot × stride in `extraTerms`). */
@@ -154,15 +155,37 @@ function segmentPoint(s: ArmState, segment: PathSegment, sigma: number): number 
 }
 
 /**
- * Writes the path terms at τ into `out` at `offset`: from the segment's terms at σ = s(τ), or at
- * `sigma` when given (a grid or split point chosen by σ, where s(τ) equals it up to rounding).
+ * Writes the path terms at τ into `out` at `offset`. A polynomial shape's τ ↦ σ does not depend on
+ * the duration, so its path (one per segment) is evaluated at τ directly, one Newton–Euler pass at
+ * q̇ = D·s′, q̈ = D·s″; a trapezoid's comes from the segment's terms at σ = s(τ), or at `sigma` when
+ * given (a grid or split point chosen by σ, where s(τ) equals it up to rounding).
  */
 function evaluatePoint(s: ArmState, path: MovePath, tau: number, out: Float64Array, offset: number, sigma = NaN): void {
   const { n } = path;
   scalingAt(path.shape, path.blend, tau, s.scale);
   const sp = s.scale[1],
     spp = s.scale[2];
-  const segment = path.segment;
+  if (path.shape !== TRAPEZOID) {
+    const q = s.searchQ,
+      qd = s.searchQd,
+      qdd = s.searchQdd,
+      tmp = s.tau;
+    for (let i = 0; i < n; i++) {
+      q[i] = path.from[i] + s.scale[0] * path.delta[i];
+      qd[i] = path.delta[i] * sp; // q̇ at T = 1
+      qdd[i] = path.delta[i] * spp;
+    }
+    inverseDynamics(s.chain, s.dynamics, q, qd, qdd, tmp, 0, 0, false, false);
+    for (let i = 0; i < n; i++) out[offset + i] = tmp[i];
+    // the tool speed from the same forward pass (its rotations and angular velocities)
+    out[offset + 2 * n + 1] = toolSpeedAtLastPose(s.chain, s.dynamics, qd);
+    // gravity at the same pose, reusing the link rotations of the call above
+    gravityEffortAtLastPose(s.chain, s.dynamics, tmp);
+    for (let i = 0; i < n; i++) out[offset + n + i] = tmp[i];
+    out[offset + 2 * n] = sp;
+    return;
+  }
+  const segment = path.segment!;
   const o = segmentPoint(s, segment, Number.isNaN(sigma) ? s.scale[0] : sigma);
   const t = segment.terms;
   for (let i = 0; i < n; i++) {
@@ -276,7 +299,7 @@ export function movePath(
     tau,
     sigma,
     jumps,
-    segment: segmentOf(s, from, delta),
+    segment: shape === TRAPEZOID ? segmentOf(s, from, delta) : null,
     grid: new Float64Array(tau.length * stride),
     extraSlot: new Map(),
     extraTerms: new Float64Array(16 * stride),
@@ -357,6 +380,13 @@ const maxExtraPoints = 8192;
 /** Control samples an interval may hold before it is evaluated sample by sample rather than split. */
 const samplesPerLeaf = 4;
 
+/**
+ * How far (a fraction) below the largest sample a reported peak may be, where no decision lies
+ * between them (see {@link channelPeak}'s `levels`): ten times inside the 0.1% to which the peaks
+ * must agree with the control-rate check.
+ */
+export const peakSlack = 1e-4;
+
 /** The peak of one channel and where it is (τ). */
 interface ChannelPeak {
   peak: number;
@@ -374,7 +404,11 @@ interface ChannelPeak {
  * receives the τ of every evaluated sample. With a finite `threshold`, only the samples that could
  * exceed it are evaluated (intervals whose bound is at or below it are skipped, and there are no
  * seeds): the peak is then exact when it exceeds the threshold and otherwise only at most it
- * (−1 when no sample was evaluated) — enough to tell whether anything exceeds a limit.
+ * (−1 when no sample was evaluated) — enough to tell whether anything exceeds a limit. With
+ * `levels` (the values a decision compares the peak with), an interval is also skipped when its
+ * bound lies within {@link peakSlack} of the peak found and no level lies between the two: the
+ * peak is then a sample's value at most that fraction below the largest, and on the same side of
+ * every level.
  */
 function channelPeak(
   s: ArmState,
@@ -386,6 +420,7 @@ function channelPeak(
   stopAbove = Infinity,
   visited?: number[],
   threshold = -Infinity,
+  levels?: readonly number[],
 ): ChannelPeak {
   const n = path.n;
   const stride = 2 * n + 2;
@@ -441,6 +476,7 @@ function channelPeak(
     const h = b - a;
     const bound = Math.max(va, vb) + (curvatureSafety * K * h * h) / 8;
     if (bound <= best.peak * (1 + 1e-12) + 1e-300 || bound <= threshold) return;
+    if (levels && bound <= best.peak * (1 + peakSlack) && !levels.some((l) => l >= best.peak && l < bound)) return;
     const k0 = Math.ceil(a * perTau - 1e-9),
       k1 = Math.min(last, Math.floor(b * perTau + 1e-9) + (b >= 1 ? 1 : 0));
     if (k1 < k0) return;
@@ -479,7 +515,9 @@ function channelPeak(
 /**
  * Peak |effort| of every chain joint and peak tool speed along the path at duration `durationS`
  * (> 0), at the control samples the control-rate check evaluates (see {@link channelPeak}).
- * `visited`, when given, receives the τ of every evaluated sample.
+ * `visited`, when given, receives the τ of every evaluated sample. With `levels` (per channel, the
+ * values its findings compare the peak with), a peak may lie up to {@link peakSlack} below the
+ * largest sample, never across a level; without, it is the largest sample.
  */
 export function pathPeaks(
   s: ArmState,
@@ -488,12 +526,13 @@ export function pathPeaks(
   rateHz: number,
   out: PathPeaks,
   visited?: number[],
+  levels?: readonly (readonly number[])[],
 ): PathPeaks {
   const n = path.n;
   if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
   const best: ChannelPeak = { peak: -1, tau: 0 };
   for (let c = 0; c <= n; c++) {
-    channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited);
+    channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited, -Infinity, levels?.[c]);
     if (c < n) {
       out.effort[c] = best.peak;
       out.effortTau[c] = best.tau;

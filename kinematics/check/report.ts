@@ -108,9 +108,19 @@ export const limitTolerance = 1e-12;
  * `cautionRatio` × limit (and not above the limit), `null` otherwise. Equal to a limit passes.
  */
 export function severityOf(value: number, limit: number, cautionRatio: number): Severity | null {
+  // severityLevels gives these two values: keep them the same
   if (value > limit * (1 + limitTolerance)) return "fault";
   if (value > cautionRatio * limit * (1 + limitTolerance)) return "caution";
   return null;
+}
+
+/**
+ * The values {@link severityOf} compares a peak with (fault, then caution), for a scan that must
+ * land on the same side of each; none without a limit.
+ */
+export function severityLevels(limit: number | undefined, cautionRatio: number): number[] {
+  if (limit === undefined) return [];
+  return [limit * (1 + limitTolerance), cautionRatio * limit * (1 + limitTolerance)];
 }
 
 /** The verdict over a list of findings: `fault` if any is a fault, else `caution` if any, else `pass`. */
