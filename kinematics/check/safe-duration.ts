@@ -91,7 +91,14 @@ export function moveSafeDuration(
     const e = joints[j].maxEffort;
     return e === undefined ? undefined : e * limitScale;
   };
-  const pathAt = (T: number) => movePath(state, from, delta, shape, moveBlend(shape, delta, T > 0 ? T : 1, joints));
+  // the path at each blend this search meets (one for the polynomial shapes), without rebuilding its cache key
+  const paths = new Map<number, ReturnType<typeof movePath>>();
+  const pathAt = (T: number) => {
+    const blend = moveBlend(shape, delta, T > 0 ? T : 1, joints);
+    let path = paths.get(blend);
+    if (!path) paths.set(blend, (path = movePath(state, from, delta, shape, blend)));
+    return path;
+  };
 
   // Gravity alone over a limit anywhere on the path: no duration helps (the path does not depend on T).
   const first = pathAt(jointOnly.durationS);
