@@ -164,6 +164,31 @@ export function segmentBoxSignedDistance(
 }
 
 /**
+ * Depth of the capsule (segment a→b, radius r) into an axis-aligned box: r minus the distance from
+ * the segment to the box, negative when apart. When the capsule's bounding box misses the box by g
+ * along some axis, the segment is at least r + g from it, so −g (the largest such gap) is returned
+ * without the distance search: at least the true depth, which is what the sample-skipping scans'
+ * cone tests need (a value below the true depth would let them skip an intrusion).
+ */
+export function capsuleBoxDepth(
+  a: ArrayLike<number>,
+  b: ArrayLike<number>,
+  r: number,
+  mn: ArrayLike<number>,
+  mx: ArrayLike<number>,
+  o = 0,
+): number {
+  let gap = 0;
+  for (let ax = 0; ax < 3; ax++) {
+    const lo = Math.min(a[ax], b[ax]) - r,
+      hi = Math.max(a[ax], b[ax]) + r;
+    const g = Math.max(mn[o + ax] - hi, lo - mx[o + ax]);
+    if (g > gap) gap = g;
+  }
+  return gap > 0 ? -gap : r - segmentBoxSignedDistance(a, b, mn, mx, o);
+}
+
+/**
  * Penetration depth of an oriented box (world matrix `w` at `wo`, half extents `h`) into an
  * axis-aligned box, by the separating-axis test over the 15 candidate axes (Ericson,
  * Real-Time Collision Detection, 2005, §4.4.1): the smallest overlap, negative when apart.
@@ -289,17 +314,7 @@ export function shapeIntrusions(
     } else {
       mat4.transformPoint(b, frames, model.p2, 0, fo, 3 * s);
       out[base] = model.link[s] === 0 ? -Infinity : zones.surfaceMarginM - (Math.min(a[2], b[2]) - r);
-      for (let k = 0; k < boxes; k++) {
-        const o = 3 * k;
-        // Quick reject: the capsule's bounding box does not reach the keep-out box.
-        let apart = false;
-        for (let ax = 0; ax < 3 && !apart; ax++) {
-          const lo = Math.min(a[ax], b[ax]) - r,
-            hi = Math.max(a[ax], b[ax]) + r;
-          if (hi < zones.boxMin[o + ax] || lo > zones.boxMax[o + ax]) apart = true;
-        }
-        out[base + 1 + k] = apart ? -r : r - segmentBoxSignedDistance(a, b, zones.boxMin, zones.boxMax, o);
-      }
+      for (let k = 0; k < boxes; k++) out[base + 1 + k] = capsuleBoxDepth(a, b, r, zones.boxMin, zones.boxMax, 3 * k);
     }
   }
   return out;

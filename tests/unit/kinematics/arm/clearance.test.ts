@@ -4,6 +4,7 @@ import { armChainSchema } from "@/kinematics/plan/arm-model";
 import { compileChain } from "@/kinematics/arm/chain";
 import {
   boxSignedDistance,
+  capsuleBoxDepth,
   clearanceZones,
   compileCollision,
   createClearanceScanner,
@@ -53,6 +54,26 @@ describe("distance and intrusion primitives", () => {
       }),
       { numRuns: 200 },
     );
+  });
+
+  it("capsule depth into a box is never below the true depth r − distance, also where the quick bounding-box test answers (it once answered −r, claiming a separation of a whole radius for a capsule that nearly touches)", () => {
+    // spread evenly over the cube (fast-check's doubles favour the ends and zero, which line up with the box)
+    const c = fc.integer({ min: -1500, max: 1500 }).map((x) => x / 1000 + 1e-4);
+    const v = fc.tuple(c, c, c);
+    let quick = 0;
+    fc.assert(
+      fc.property(v, v, fc.double({ min: 0.005, max: 0.3, noNaN: true }), (a, b, r) => {
+        const exact = r - segmentBoxSignedDistance(a, b, unitMin, unitMax);
+        const depth = capsuleBoxDepth(a, b, r, unitMin, unitMax);
+        expect(depth).toBeGreaterThanOrEqual(exact - 1e-6); // the golden-section search's own tolerance
+        if (depth < 0 && Math.abs(depth - exact) > 1e-6) quick++;
+        if (exact > 1e-6) expect(depth).toBeGreaterThan(0); // an intrusion is never hidden
+      }),
+      { numRuns: 2000, seed: 5 },
+    );
+    expect(quick).toBeGreaterThan(100); // the bounding-box answer was exercised
+    // nearly touching along x: the capsule x ∈ [0.51, 0.61] (radius 0.05 round a segment at x = 0.56) is 0.01 from the box
+    expectClose(capsuleBoxDepth([0.56, 0, 0], [0.56, 0.2, 0], 0.05, unitMin, unitMax), -0.01, 1e-12);
   });
 
   it("oriented box into an axis-aligned box: overlap along x for a box turned 45° about z (worked by hand)", () => {
