@@ -391,6 +391,8 @@ export const peakSlack = 1e-4;
 interface ChannelPeak {
   peak: number;
   tau: number;
+  /** The largest value at the grid points (not samples: an estimate, below the peak or near it). */
+  gridPeak: number;
 }
 
 /**
@@ -440,6 +442,7 @@ function channelPeak(
   }
   best.peak = -1;
   best.tau = 0;
+  best.gridPeak = values[gridMax];
   let splits = 0;
   let stopped = false;
   const evaluate = (k: number) => {
@@ -530,7 +533,7 @@ export function pathPeaks(
 ): PathPeaks {
   const n = path.n;
   if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
-  const best: ChannelPeak = { peak: -1, tau: 0 };
+  const best: ChannelPeak = { peak: -1, tau: 0, gridPeak: -1 };
   for (let c = 0; c <= n; c++) {
     channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited, -Infinity, levels?.[c]);
     if (c < n) {
@@ -545,13 +548,23 @@ export function pathPeaks(
 }
 
 /**
+ * Raises `ratio[0]` to a channel's peak ÷ limit after a threshold scan: its peak when a sample was
+ * evaluated, else its largest grid value (every bound was below the limit, so no sample was looked
+ * at). Only an estimate for the search's interpolation; it never decides a verdict.
+ */
+function estimateRatio(ratio: Float64Array, best: ChannelPeak, limit: number): void {
+  const value = best.peak >= 0 ? best.peak : best.gridPeak;
+  if (value >= 0 && !(value / limit <= ratio[0])) ratio[0] = value / limit;
+}
+
+/**
  * The first channel (in the order of `order`: c < n the effort of chain joint c, c = n the tool
  * speed) whose peak along the path at `durationS` exceeds `above[c]`, or −1 when none does: the
  * same answer as comparing the peaks of {@link pathPeaks} with `above`, but each channel's scan
  * stops at the first sample over its limit, and a channel whose limit is Infinity is not scanned.
  * `ratio[0]`, when given, receives the largest peak ÷ limit among the samples evaluated (over 1 when
- * something exceeds: the first such sample's; NaN when no sample was evaluated), an estimate for the
- * search's interpolation that never decides a verdict.
+ * something exceeds: the first such sample's), or of the grid values of a channel with no sample
+ * evaluated: an estimate for the search's interpolation that never decides a verdict.
  */
 export function pathExceeds(
   s: ArmState,
@@ -563,12 +576,12 @@ export function pathExceeds(
   ratio?: Float64Array,
 ): number {
   if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
-  const best: ChannelPeak = { peak: -1, tau: 0 };
+  const best: ChannelPeak = { peak: -1, tau: 0, gridPeak: -1 };
   if (ratio) ratio[0] = NaN;
   for (const c of order) {
     if (above[c] === Infinity) continue;
     const peak = channelPeak(s, path, durationS, rateHz, c, best, above[c], undefined, above[c]).peak;
-    if (ratio && peak >= 0 && !(peak / above[c] <= ratio[0])) ratio[0] = peak / above[c];
+    if (ratio) estimateRatio(ratio, best, above[c]);
     if (peak > above[c]) return c;
   }
   return -1;
@@ -591,13 +604,13 @@ export function pathOverLimits(
   ratio?: Float64Array,
 ): number {
   if (path.extraSlot.size > maxExtraPoints) path.extraSlot.clear();
-  const best: ChannelPeak = { peak: -1, tau: 0 };
+  const best: ChannelPeak = { peak: -1, tau: 0, gridPeak: -1 };
   if (ratio) ratio[0] = NaN;
   let first = -1;
   for (let c = 0; c < above.length; c++) {
     if (above[c] === Infinity) continue;
     const peak = channelPeak(s, path, durationS, rateHz, c, best, Infinity, visited, above[c]).peak;
-    if (ratio && peak >= 0 && !(peak / above[c] <= ratio[0])) ratio[0] = peak / above[c];
+    if (ratio) estimateRatio(ratio, best, above[c]);
     if (peak > above[c] && first < 0) first = c;
   }
   return first;
