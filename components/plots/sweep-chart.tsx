@@ -1,5 +1,5 @@
 "use client";
-import { useMemo } from "react";
+import { memo, useMemo } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
 import { moveTimingSweep, type Plan } from "@/kinematics";
@@ -21,18 +21,43 @@ export interface SweepChartProps {
 }
 
 /**
+ * Everything the sweep of move `index` depends on, as one string: the arm, the plan-level limits,
+ * the move's start (the previous goal), goal and shape, and the marks. Equal strings, equal sweeps.
+ */
+export function sweepInputs(plan: Plan, index: number, minSafeS: number | null, currentS: number): string {
+  const move = plan.moves[index];
+  return JSON.stringify([
+    plan.arm,
+    plan.payload,
+    plan.keepOut,
+    plan.surfaceMargin,
+    plan.maxToolSpeed,
+    index === 0 ? plan.start : plan.moves[index - 1]?.goal,
+    move?.goal,
+    move?.shape,
+    minSafeS,
+    currentS,
+  ]);
+}
+
+/**
  * The duration sweep of one move as a chart: the engine's worst peak-to-limit ratio over every
  * timing-dependent check (speed, acceleration, effort, tool speed) against duration, the limit and
  * caution lines, the shortest safe and current durations marked. Ratio 1 is the limit.
  */
 export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: SweepChartProps) {
+  // The sweep depends on the arm, the plan-level limits and this move's path (its start, goal and
+  // shape), not on the other moves: an edit elsewhere in the plan neither sweeps nor redraws it again.
+  const inputs = sweepInputs(plan, index, minSafeS, currentS);
   const data = useMemo(() => {
     const safe = minSafeS ?? currentS;
     const hi = Math.max(safe * 3, currentS * 1.2, 0.2);
     const lo = Math.max(safe * 0.5, 0.01);
     const durations = Array.from({ length: sweepSteps + 1 }, (_, k) => lo + ((hi - lo) * k) / sweepSteps);
     return moveTimingSweep(plan, index, durations).map((p) => ({ d: p.durationS, r: Math.min(p.ratio, 2.5) }));
-  }, [plan, index, minSafeS, currentS]);
+    // plan is read only through what `inputs` holds (see above)
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [inputs, index]);
   const checks = plan.arm.chain ? "speed, acceleration, effort, tool speed" : "speed and acceleration: no geometry";
   if (minSafeS === null) {
     return (
@@ -43,6 +68,25 @@ export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: Sw
   }
   if (!(minSafeS > 0))
     return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
+  return (
+    <SweepFigure data={data} checks={checks} cautionRatio={cautionRatio} minSafeS={minSafeS} currentS={currentS} />
+  );
+}
+
+/** The chart itself, drawn again only when its data or marks change. */
+const SweepFigure = memo(function SweepFigure({
+  data,
+  checks,
+  cautionRatio,
+  minSafeS,
+  currentS,
+}: {
+  data: { d: number; r: number }[];
+  checks: string;
+  cautionRatio: number;
+  minSafeS: number;
+  currentS: number;
+}) {
   // rounded up to the millisecond, as the move list's "Shortest safe" fix offers it
   const safeText = (Math.ceil(minSafeS * 1000 - 1e-9) / 1000).toFixed(3);
   return (
@@ -100,4 +144,4 @@ export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: Sw
       </div>
     </figure>
   );
-}
+});
