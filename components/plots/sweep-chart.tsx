@@ -1,5 +1,5 @@
 "use client";
-import { memo, useMemo } from "react";
+import { memo, useDeferredValue, useMemo } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
 import { moveTimingSweep, type Plan } from "@/kinematics";
@@ -45,7 +45,14 @@ export function sweepInputs(plan: Plan, index: number, minSafeS: number | null, 
  * timing-dependent check (speed, acceleration, effort, tool speed) against duration, the limit and
  * caution lines, the shortest safe and current durations marked. Ratio 1 is the limit.
  */
-export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS }: SweepChartProps) {
+export function SweepChart(props: SweepChartProps) {
+  // The sweep trails the edit (the findings and plots come first): it is drawn from deferred props,
+  // all from the same render.
+  const plan = useDeferredValue(props.plan);
+  const index = useDeferredValue(props.index);
+  const minSafeS = useDeferredValue(props.minSafeS);
+  const currentS = useDeferredValue(props.currentS);
+  const cautionRatio = props.cautionRatio;
   // The sweep depends on the arm, the plan-level limits and this move's path (its start, goal and
   // shape), not on the other moves: an edit elsewhere in the plan neither sweeps nor redraws it again.
   const inputs = sweepInputs(plan, index, minSafeS, currentS);
