@@ -1,5 +1,5 @@
 "use client";
-import { useRef, useState, type KeyboardEvent } from "react";
+import { memo, useCallback, useLayoutEffect, useRef, useState, type KeyboardEvent } from "react";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/components/ui/cn";
 import { CopyIcon, DownIcon, PlusIcon, TrashIcon, UpIcon } from "@/components/ui/icons";
@@ -112,6 +112,18 @@ export function MoveList({
     }
   };
 
+  // The rows are memoised: they get callbacks that never change and reach the latest handlers, so an
+  // edit redraws only the rows whose move, verdict or selection changed (a 30-move plan redrew all).
+  const latest = useRef({ onSelect, onRowKey });
+  useLayoutEffect(() => {
+    latest.current = { onSelect, onRowKey };
+  });
+  const selectRow = useCallback((i: number) => latest.current.onSelect(i), []);
+  const keyOnRow = useCallback((e: KeyboardEvent<HTMLTableRowElement>, i: number) => latest.current.onRowKey(e, i), []);
+  const registerRow = useCallback((i: number, el: HTMLTableRowElement | null) => {
+    rows.current[i] = el;
+  }, []);
+
   return (
     <div className="flex flex-col gap-2">
       <Table aria-label="Moves" aria-describedby="move-list-help">
@@ -146,57 +158,21 @@ export function MoveList({
             const safe = fix && fix.action.type === "set-duration" ? fix.action.duration : null;
             const noDuration = report !== undefined && report.minSafeDuration === null && verdict === "fault";
             const isSelected = selected === i;
-            const summary = goalSummary(joints, move.goal, before ?? startPose, unit);
             return (
               <FragmentRows key={i}>
-                <tr
-                  ref={(el) => {
-                    rows.current[i] = el;
-                  }}
-                  tabIndex={0}
-                  aria-selected={isSelected}
-                  aria-label={`${moveLabel(i)}: ${verdict}`}
-                  data-testid={`move-row-${i}`}
-                  onClick={() => onSelect(i)}
-                  onKeyDown={(e) => onRowKey(e, i)}
-                  className={cn(
-                    "cursor-pointer focus:outline-2 focus:-outline-offset-2 focus:outline-brand-500",
-                    isSelected ? "bg-brand-50" : "hover:bg-paper",
-                  )}
-                >
-                  <Td className="max-w-0">
-                    <span className="block text-xs font-semibold">{moveLabel(i, move.duration === 0)}</span>
-                    <span className="block truncate text-[11px] text-ink-soft" title={summary}>
-                      {summary}
-                    </span>
-                  </Td>
-                  <Td numeric onClick={(e) => e.stopPropagation()}>
-                    <NumberInput
-                      value={move.duration}
-                      digits={3}
-                      aria-label={`${moveLabel(i)} duration (s)`}
-                      onValue={(d) => d >= 0 && dispatch({ type: "set-duration", index: i, duration: d })}
-                      className="h-7 w-[4.75rem]"
-                    />
-                  </Td>
-                  <Td onClick={(e) => e.stopPropagation()}>
-                    <select
-                      aria-label={`${moveLabel(i)} shape`}
-                      value={move.shape}
-                      onChange={(e) => dispatch({ type: "set-shape", index: i, shape: e.target.value as ShapeName })}
-                      className="h-7 w-full rounded border border-line bg-panel px-1 text-xs"
-                    >
-                      {shapeNames.map((s) => (
-                        <option key={s} value={s}>
-                          {s}
-                        </option>
-                      ))}
-                    </select>
-                  </Td>
-                  <Td>
-                    <VerdictChip verdict={verdict} size="sm" />
-                  </Td>
-                </tr>
+                <MoveRow
+                  index={i}
+                  move={move}
+                  before={before ?? startPose}
+                  joints={joints}
+                  unit={unit}
+                  verdict={verdict}
+                  selected={isSelected}
+                  dispatch={dispatch}
+                  onSelect={selectRow}
+                  onKey={keyOnRow}
+                  register={registerRow}
+                />
                 {isSelected ? (
                   <tr className="bg-brand-50">
                     <td colSpan={4} className="border-b border-line px-2 pb-2">
@@ -293,6 +269,84 @@ export function MoveList({
     </div>
   );
 }
+
+/** One move's row of the outline (memoised: see MoveList). */
+const MoveRow = memo(function MoveRow({
+  index: i,
+  move,
+  before,
+  joints,
+  unit,
+  verdict,
+  selected,
+  dispatch,
+  onSelect,
+  onKey,
+  register,
+}: {
+  index: number;
+  move: Move;
+  /** The pose the move starts from: the previous goal, or the start pose. */
+  before: readonly number[];
+  joints: readonly Joint[];
+  unit: AngleUnit;
+  verdict: Verdict;
+  selected: boolean;
+  dispatch: (action: PlanAction) => void;
+  onSelect: (index: number) => void;
+  onKey: (e: KeyboardEvent<HTMLTableRowElement>, index: number) => void;
+  register: (index: number, el: HTMLTableRowElement | null) => void;
+}) {
+  const summary = goalSummary(joints, move.goal, before, unit);
+  return (
+    <tr
+      ref={(el) => register(i, el)}
+      tabIndex={0}
+      aria-selected={selected}
+      aria-label={`${moveLabel(i)}: ${verdict}`}
+      data-testid={`move-row-${i}`}
+      onClick={() => onSelect(i)}
+      onKeyDown={(e) => onKey(e, i)}
+      className={cn(
+        "cursor-pointer focus:outline-2 focus:-outline-offset-2 focus:outline-brand-500",
+        selected ? "bg-brand-50" : "hover:bg-paper",
+      )}
+    >
+      <Td className="max-w-0">
+        <span className="block text-xs font-semibold">{moveLabel(i, move.duration === 0)}</span>
+        <span className="block truncate text-[11px] text-ink-soft" title={summary}>
+          {summary}
+        </span>
+      </Td>
+      <Td numeric onClick={(e) => e.stopPropagation()}>
+        <NumberInput
+          value={move.duration}
+          digits={3}
+          aria-label={`${moveLabel(i)} duration (s)`}
+          onValue={(d) => d >= 0 && dispatch({ type: "set-duration", index: i, duration: d })}
+          className="h-7 w-[4.75rem]"
+        />
+      </Td>
+      <Td onClick={(e) => e.stopPropagation()}>
+        <select
+          aria-label={`${moveLabel(i)} shape`}
+          value={move.shape}
+          onChange={(e) => dispatch({ type: "set-shape", index: i, shape: e.target.value as ShapeName })}
+          className="h-7 w-full rounded border border-line bg-panel px-1 text-xs"
+        >
+          {shapeNames.map((s) => (
+            <option key={s} value={s}>
+              {s}
+            </option>
+          ))}
+        </select>
+      </Td>
+      <Td>
+        <VerdictChip verdict={verdict} size="sm" />
+      </Td>
+    </tr>
+  );
+});
 
 /** Peak effort and tool speed of the selected move, from the arm model (nothing without a chain). */
 function MoveFiguresLine({
