@@ -2,7 +2,8 @@
  * The duration sweep of one move: at each duration, the worst peak-to-limit ratio over every
  * timing-dependent check (speed, acceleration, effort with friction, tool speed), evaluated the
  * way the check and the shortest safe duration evaluate them (closed-form joint peaks, then the
- * move's path terms at the check's sample rate). A ratio of 1 is the fault limit. Clearance and
+ * move's path terms at the check's sample rate; an effort or tool-speed ratio may lie up to
+ * peakSlack below the largest sample's, never across 1). A ratio of 1 is the fault limit. Clearance and
  * travel do not depend on the duration and are not part of the sweep.
  *
  * @module
@@ -12,6 +13,7 @@ import { moveBlend } from "../motion/shapes";
 import { timedPeaks } from "../motion/peaks";
 import { timelineOf } from "../motion/timeline";
 import { stateOf } from "./arm-state";
+import { severityLevels } from "./report";
 import { createPathPeaks, movePath, pathPeaks, type MovePath } from "./move-path";
 import type { TimingCheck } from "./safe-duration";
 
@@ -42,6 +44,13 @@ export function moveTimingSweep(plan: Plan, index: number, durations: readonly n
   const v = new Float64Array(n);
   const a = new Float64Array(n);
   const peaks = state ? createPathPeaks(state.n) : null;
+  // exact on the fault side of each limit (ratio 1), within peakSlack elsewhere: a chart needs no more
+  const levels = state
+    ? [
+        ...joints.slice(0, state.n).map((j) => severityLevels(j.maxEffort, 1).slice(0, 1)),
+        severityLevels(plan.maxToolSpeed, 1).slice(0, 1),
+      ]
+    : undefined;
   // the path depends on the duration only through a trapezoid's blend: one path per blend
   let path: MovePath | null = null;
   const out: TimingSweepPoint[] = [];
@@ -60,7 +69,7 @@ export function moveTimingSweep(plan: Plan, index: number, durations: readonly n
     }
     if (state && peaks) {
       if (!path || path.blend !== blend) path = movePath(state, from, delta, shape, blend);
-      pathPeaks(state, path, T, state.rateHz, peaks);
+      pathPeaks(state, path, T, state.rateHz, peaks, undefined, levels);
       for (let j = 0; j < state.n; j++) {
         const e = joints[j].maxEffort;
         if (e !== undefined) consider(peaks.effort[j] / e, "effort", j);
