@@ -72,6 +72,14 @@ const withDuration = (plan: Plan, move: number, durationS: number): Plan => ({
   moves: plan.moves.map((m, i) => (i === move ? { ...m, duration: durationS } : m)),
 });
 
+/** A plan on the heavy arm at the start pose `from` (travel fractions), its compiled arm, and the displacement to `to`. */
+function segmentOnHeavyArm(from: number[], to: number[]) {
+  const plan = parse({ format: "jointproof.plan", version: 1, arm: heavy, start: poseOf(heavy, from), moves: [] });
+  const s = stateOf(plan)!;
+  const delta = poseOf(heavy, to).map((g, j) => g - plan.start[j]);
+  return { plan, s, delta };
+}
+
 describe("effort along a fixed path separates by its dependence on the duration", () => {
   // Time scaling of the manipulator dynamics: on a fixed path the inertial and Coriolis terms scale with
   // 1/T², viscous friction with 1/T, gravity and Coulomb friction not at all (Hollerbach, "Dynamic scaling
@@ -142,15 +150,10 @@ describe("effort along a fixed path separates by its dependence on the duration"
   });
 
   it("a trapezoid's paths at different blends share the segment's points: a new blend evaluates only its blend ends", () => {
-    const plan = parse({
-      format: "jointproof.plan",
-      version: 1,
-      arm: heavy,
-      start: poseOf(heavy, [0.3, 0.4, 0.5, 0.5, 0.4, 0.5, 0.5]),
-      moves: [],
-    });
-    const s = stateOf(plan)!;
-    const delta = poseOf(heavy, [0.7, 0.5, 0.3, 0.4, 0.6, 0.2, 0.5]).map((g, j) => g - plan.start[j]);
+    const { plan, s, delta } = segmentOnHeavyArm(
+      [0.3, 0.4, 0.5, 0.5, 0.4, 0.5, 0.5],
+      [0.7, 0.5, 0.3, 0.4, 0.6, 0.2, 0.5],
+    );
     const first = movePath(s, plan.start, delta, shapeId("trapezoid"), 0.21);
     const before = first.segment!.slot.size;
     const second = movePath(s, plan.start, delta, shapeId("trapezoid"), 0.23);
@@ -160,15 +163,10 @@ describe("effort along a fixed path separates by its dependence on the duration"
   });
 
   it("the path-mode peaks at two durations follow the decomposition: gravity-only joints keep their peak, tool speed halves when T doubles", () => {
-    const plan = parse({
-      format: "jointproof.plan",
-      version: 1,
-      arm: heavy,
-      start: poseOf(heavy, [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5]),
-      moves: [],
-    });
-    const s = stateOf(plan)!;
-    const delta = poseOf(heavy, [0.8, 0.6, 0.2, 0.3, 0.7, 0.1, 0.5]).map((g, j) => g - plan.start[j]);
+    const { plan, s, delta } = segmentOnHeavyArm(
+      [0.2, 0.3, 0.6, 0.5, 0.4, 0.5, 0.5],
+      [0.8, 0.6, 0.2, 0.3, 0.7, 0.1, 0.5],
+    );
     const path = movePath(s, plan.start, delta, shapeId("cubic"), 0);
     const a = pathPeaks(s, path, 1, 1000, createPathPeaks(s.n));
     const tool1 = a.toolSpeed;
