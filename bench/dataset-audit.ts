@@ -93,9 +93,12 @@ function main() {
       stdio: ["ignore", "inherit", "pipe"],
     });
     if (run.status !== 0) {
-      const why = (run.stderr?.toString() ?? "").split("\n").filter((l) => /error|did not|exited/i.test(l));
+      const lines = (run.stderr?.toString() ?? "").split("\n");
+      // the bench's own reason first; the workers' queue errors after the cluster stops say nothing
+      const why = lines.filter((l) => l.includes("dataset workers bench failed"));
+      const other = lines.filter((l) => /error|did not|exited/i.test(l) && !l.includes("queue error"));
       console.log(
-        `dataset workers: not measured (bench/dataset-workers.sh exited ${run.status}) ${why.slice(-3).join(" | ")}`,
+        `dataset workers: not measured (bench/dataset-workers.sh exited ${run.status}) ${[...why, ...other].slice(0, 3).join(" | ")}`,
       );
     }
   }

@@ -24,6 +24,9 @@ import { datasetArm, datasetArmDocument, generateDataset } from "./dataset-gener
 const here = dirname(fileURLToPath(import.meta.url));
 const EPISODES = 600;
 
+/** Every worker process started, so that a failed run stops them instead of leaving them behind. */
+const started = new Set<ChildProcess>();
+
 /** Starts `count` worker processes and waits for each to say "ready"; fails if one exits first or takes over 30 s. */
 function startWorkers(count: number): Promise<ChildProcess[]> {
   return Promise.all(
@@ -33,6 +36,8 @@ function startWorkers(count: number): Promise<ChildProcess[]> {
         ["--conditions=react-server", "--import", "tsx", "lib/server/datasets/run-worker.ts"],
         { env: process.env, stdio: ["ignore", "pipe", "inherit"] },
       );
+      started.add(child);
+      child.once("exit", () => started.delete(child));
       return new Promise<ChildProcess>((resolve, reject) => {
         const timer = setTimeout(() => {
           child.kill("SIGTERM");
@@ -133,4 +138,9 @@ async function main() {
   process.exit(0);
 }
 
-await main();
+await main().catch((err) => {
+  // first the reason, then stop the workers: left running they keep the caller's output pipe open
+  console.error(`dataset workers bench failed: ${err instanceof Error ? err.message : String(err)}`);
+  for (const child of started) child.kill("SIGKILL");
+  process.exit(1);
+});
