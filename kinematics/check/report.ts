@@ -108,10 +108,19 @@ export const limitTolerance = 1e-12;
  * `cautionRatio` × limit (and not above the limit), `null` otherwise. Equal to a limit passes.
  */
 export function severityOf(value: number, limit: number, cautionRatio: number): Severity | null {
-  // severityLevels gives these two values: keep them the same
-  if (value > limit * (1 + limitTolerance)) return "fault";
-  if (value > cautionRatio * limit * (1 + limitTolerance)) return "caution";
+  if (value > faultLevel(limit)) return "fault";
+  if (value > cautionLevel(limit, cautionRatio)) return "caution";
   return null;
+}
+
+/** The value above which {@link severityOf} says `fault`. */
+export function faultLevel(limit: number): number {
+  return limit * (1 + limitTolerance);
+}
+
+/** The value above which {@link severityOf} says `caution` (when not `fault`). */
+function cautionLevel(limit: number, cautionRatio: number): number {
+  return cautionRatio * limit * (1 + limitTolerance);
 }
 
 /**
@@ -120,7 +129,7 @@ export function severityOf(value: number, limit: number, cautionRatio: number): 
  */
 export function severityLevels(limit: number | undefined, cautionRatio: number): number[] {
   if (limit === undefined) return [];
-  return [limit * (1 + limitTolerance), cautionRatio * limit * (1 + limitTolerance)];
+  return [faultLevel(limit), cautionLevel(limit, cautionRatio)];
 }
 
 /** The verdict over a list of findings: `fault` if any is a fault, else `caution` if any, else `pass`. */

@@ -13,7 +13,7 @@ import { moveBlend } from "../motion/shapes";
 import { timedPeaks } from "../motion/peaks";
 import { timelineOf } from "../motion/timeline";
 import { stateOf } from "./arm-state";
-import { severityLevels } from "./report";
+import { faultLevel } from "./report";
 import { createPathPeaks, movePath, pathPeaks, type MovePath } from "./move-path";
 import type { TimingCheck } from "./safe-duration";
 
@@ -45,11 +45,9 @@ export function moveTimingSweep(plan: Plan, index: number, durations: readonly n
   const a = new Float64Array(n);
   const peaks = state ? createPathPeaks(state.n) : null;
   // exact on the fault side of each limit (ratio 1), within peakSlack elsewhere: a chart needs no more
+  const faultOnly = (limit: number | undefined) => (limit === undefined ? [] : [faultLevel(limit)]);
   const levels = state
-    ? [
-        ...joints.slice(0, state.n).map((j) => severityLevels(j.maxEffort, 1).slice(0, 1)),
-        severityLevels(plan.maxToolSpeed, 1).slice(0, 1),
-      ]
+    ? [...joints.slice(0, state.n).map((j) => faultOnly(j.maxEffort)), faultOnly(plan.maxToolSpeed)]
     : undefined;
   // the path depends on the duration only through a trapezoid's blend: one path per blend
   let path: MovePath | null = null;
