@@ -19,20 +19,22 @@ export interface LoadFigures {
   p99Ms: number;
   maxMs: number;
   statusCodes: Record<string, number>;
+  /** The same percentiles per status code: a fast "busy" answer is not a fast check. */
+  byStatus: Record<string, { p50Ms: number; p95Ms: number; p99Ms: number }>;
   errors: number;
   timeouts: number;
 }
 
 function run(
   options: Parameters<typeof autocannon>[0],
-): Promise<{ latencies: number[]; result: Result; statusCodes: Record<string, number> }> {
+): Promise<{ latencies: number[]; result: Result; statusCodes: Record<string, number[]> }> {
   return new Promise((resolve) => {
     const latencies: number[] = [];
-    const statusCodes: Record<string, number> = {};
+    const statusCodes: Record<string, number[]> = {};
     const instance = autocannon({ timeout: 30, ...options });
     instance.on("response", (_client, status, _bytes, ms) => {
       latencies.push(ms);
-      statusCodes[status] = (statusCodes[status] ?? 0) + 1;
+      (statusCodes[status] ??= []).push(ms);
     });
     instance.on("done", (result) => resolve({ latencies, result, statusCodes }));
   });
@@ -43,9 +45,10 @@ function figuresOf(
   durationS: number,
   latencies: number[],
   result: Result,
-  statusCodes: Record<string, number>,
+  statusCodes: Record<string, number[]>,
 ): LoadFigures {
   const round = (v: number) => Number(v.toFixed(2));
+  const entries = Object.entries(statusCodes);
   return {
     connections,
     durationS,
@@ -55,7 +58,13 @@ function figuresOf(
     p95Ms: round(percentile(latencies, 95)),
     p99Ms: round(percentile(latencies, 99)),
     maxMs: round(Math.max(0, ...latencies)),
-    statusCodes,
+    statusCodes: Object.fromEntries(entries.map(([status, ms]) => [status, ms.length])),
+    byStatus: Object.fromEntries(
+      entries.map(([status, ms]) => [
+        status,
+        { p50Ms: round(percentile(ms, 50)), p95Ms: round(percentile(ms, 95)), p99Ms: round(percentile(ms, 99)) },
+      ]),
+    ),
     errors: result.errors,
     timeouts: result.timeouts,
   };

@@ -221,11 +221,13 @@ wait_ready() {
 start_mail_worker() { start_worker lib/server/mail/run-worker.ts "worker ready" "mail worker" "$1"; }
 
 # A background worker process (a TypeScript entry run with the react-server condition): waits for
-# its ready line, appends it to PIDS. start_worker ENTRY READY-TEXT NAME LOGFILE
+# its ready line, appends it to PIDS. start_worker ENTRY READY-TEXT NAME LOGFILE [NICE]
+# NICE (default 0) lowers the process's scheduling priority (nice(1)), so that background work
+# leaves the cores to the web server's request thread first.
 start_worker() {
-  local entry="$1" ready="$2" name="$3" logf="$4"
+  local entry="$1" ready="$2" name="$3" logf="$4" niceness="${5:-0}"
   : >"$logf"
-  node --conditions=react-server --import tsx "$entry" >"$logf" 2>&1 &
+  nice -n "$niceness" node --conditions=react-server --import tsx "$entry" >"$logf" 2>&1 &
   PIDS+=($!)
   wait_ready "$logf" "$ready" "$name"
 }
@@ -261,5 +263,6 @@ stop_pids() {
 }
 
 # The dataset audit workers (lib/server/datasets/run-workers.ts, DATASET_WORKERS processes) in the
-# background: they take audit batches from the job queue in PostgreSQL. Appends to PIDS.
-start_dataset_workers() { start_worker lib/server/datasets/run-workers.ts "workers ready" "dataset workers" "$1"; }
+# background, at nice 10 like the check pool's threads: they take audit batches from the job queue in
+# PostgreSQL. Appends to PIDS.
+start_dataset_workers() { start_worker lib/server/datasets/run-workers.ts "workers ready" "dataset workers" "$1" 10; }

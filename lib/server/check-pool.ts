@@ -17,6 +17,9 @@ import { checkWork, type Plan, type Report } from "@/kinematics";
 import { AppError } from "./errors";
 import type { CheckTask, CheckTaskResult, DocumentTask, DocumentTaskResult } from "./check-worker";
 import { budgetError, type DocumentCheck } from "./check-document";
+import { CHECK_RETRY_AFTER_S, checkersBusyError, checkersFull, registerCheckersFull } from "./check-capacity";
+
+export { CHECK_RETRY_AFTER_S } from "./check-capacity";
 
 /** Most work (path points × joints, see kinematics/check/work.ts) one check may take. */
 export const CHECK_WORK_BUDGET = positiveEnv("JP_CHECK_WORK_BUDGET", 3_000_000);
@@ -26,9 +29,6 @@ export const CHECK_TIME_LIMIT_MS = positiveEnv("JP_CHECK_TIME_LIMIT_MS", 10_000)
 
 /** Checks that may wait per worker thread; beyond that a check is answered 503 at once. */
 const QUEUE_PER_THREAD = 8;
-
-/** Seconds a client is told to wait after a check was stopped or the pool was full. */
-export const CHECK_RETRY_AFTER_S = 5;
 
 function positiveEnv(name: string, fallback: number): number {
   const raw = process.env[name];
@@ -109,8 +109,16 @@ async function createPool(): Promise<Pool> {
   await Promise.all(
     Array.from({ length: threads }, () => pool.run({ bytes: new TextEncoder().encode("{}"), budget: 0 })),
   );
+  const full = () => pool.queueSize >= threads * QUEUE_PER_THREAD;
+  registerCheckersFull(full);
   return {
-    run: (task, options) => pool.run(task, options) as Promise<CheckTaskResult | DocumentTaskResult>,
+    // Tinypool 2.2 arms a task's abort listener before it refuses the task for a full queue, and
+    // never disarms it: when the signal fires later, the listener throws in a timer (an uncaught
+    // exception in the server). So the pool is never handed a task it would refuse.
+    run: (task, options) =>
+      full()
+        ? Promise.reject(new Error("queue is at limit"))
+        : (pool.run(task, options) as Promise<CheckTaskResult | DocumentTaskResult>),
     destroy: () => pool.destroy(),
     threads,
     get queueSize() {
@@ -133,6 +141,7 @@ function pool(): Promise<Pool> {
 export async function closeCheckPool(): Promise<void> {
   const current = globalForPool.jointproofCheckPool;
   globalForPool.jointproofCheckPool = undefined;
+  registerCheckersFull(undefined);
   if (current) await (await current).destroy();
 }
 
@@ -172,8 +181,8 @@ export async function runCheck(plan: Plan, pathPrefix = ""): Promise<{ report: R
  * then spends nothing on bodies that would only be answered "busy".
  */
 export async function assertCheckerFree(): Promise<void> {
-  const workers = await pool();
-  if (workers.queueSize >= workers.threads * QUEUE_PER_THREAD) throw poolFailure(new Error("queue is at limit"));
+  await pool();
+  if (checkersFull()) throw checkersBusyError();
 }
 
 /**
@@ -213,15 +222,7 @@ function poolFailure(err: unknown): unknown {
       },
     );
   }
-  if (/queue is at limit|No task queue/i.test(message)) {
-    return new AppError(
-      "unavailable:check-busy",
-      `Every checker is busy; nothing was checked or saved. Try again in ${CHECK_RETRY_AFTER_S} s.`,
-      {
-        details: { retryAfterS: CHECK_RETRY_AFTER_S },
-      },
-    );
-  }
+  if (/queue is at limit|No task queue/i.test(message)) return checkersBusyError();
   if (/memory|ERR_WORKER_OUT_OF_MEMORY/i.test(message)) {
     return new AppError(
       "unavailable:check-memory",

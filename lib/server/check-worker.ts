@@ -7,6 +7,7 @@ import { check, type Plan, type Report } from "@/kinematics";
 import lightArm from "@/kinematics/arm/presets/bench-arm-l.json";
 import { checkDocumentBytes, type DocumentCheck } from "./check-document";
 import { AppError } from "./errors";
+import { lowerOwnThreadPriority } from "./thread-priority";
 
 /** One task: a parsed plan document. */
 export interface CheckTask {
@@ -72,4 +73,6 @@ function warmUp(): void {
     // a warm-up that fails changes nothing: the real tasks report their own errors
   }
 }
+// checks yield the cores to the request thread, so health and every page answer while the pool works
+lowerOwnThreadPriority();
 warmUp();
