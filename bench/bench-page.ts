@@ -32,12 +32,13 @@ window.jointproofEdit = function (label, act) {
     var plots = document.querySelector('[data-testid="plots"]');
     if (!status || !plots) return reject(new Error("the bench page has no check status or plots"));
     var sawRunning = false, checked = false, plotted = false, timer = 0;
-    var statusObserver, plotObserver;
+    var statusObserver, plotObserver, pendingObserver;
     function finish() {
-      // the effort chart's series comes from the check worker after its report: wait for it too
-      if (!checked || !plotted || plots.querySelector("[data-pending]")) return;
+      // the effort chart's series and the duration sweep come from workers of their own: wait for them too
+      if (!checked || !plotted || document.querySelector("[data-pending]")) return;
       statusObserver.disconnect();
       plotObserver.disconnect();
+      pendingObserver.disconnect();
       clearTimeout(timer);
       requestAnimationFrame(function () {
         performance.mark(label + ":end");
@@ -52,9 +53,11 @@ window.jointproofEdit = function (label, act) {
       finish();
     });
     plotObserver = new MutationObserver(function () { plotted = true; finish(); });
+    pendingObserver = new MutationObserver(finish);
     timer = setTimeout(function () { reject(new Error(label + ": no new result within 30 s")); }, 30000);
     statusObserver.observe(status, { subtree: true, childList: true, characterData: true });
     plotObserver.observe(plots, { subtree: true, childList: true, characterData: true, attributes: true });
+    pendingObserver.observe(document.body, { subtree: true, childList: true, attributes: true, attributeFilter: ["data-pending"] });
     performance.mark(label + ":start");
     act();
   });

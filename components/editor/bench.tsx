@@ -202,6 +202,8 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
                     cautionRatio={plan.arm.cautionRatio}
                     minSafeS={selectedSafe}
                     currentS={selectedMove.duration}
+                    ready={full.report !== null}
+                    sweep={full.lastSweep}
                   />
                 </div>
               ) : null}

@@ -3,22 +3,44 @@
  * The full live check off the main thread: the arm model's checks (effort along the moves,
  * clearance, tool speed) can take more than a frame on a long plan. This worker only checks, so an
  * edit's report never waits behind the quick fixes of an earlier edit (fixes.worker.ts finds those).
+ * Right after the report it sweeps the selected move's durations (duration-sweep.ts), while the
+ * move's path terms are still in the engine's cache; a request with `reportWanted: false` (only the
+ * selection changed) answers with the sweep alone.
  */
-import { check } from "@/kinematics";
+import { check, type Report } from "@/kinematics";
+import { sweepOfMove, type MoveSweep } from "@/components/plots/duration-sweep";
 import type { BenchPlan } from "./plan-state";
 
 export interface CheckRequest {
   id: number;
   plan: BenchPlan;
+  /** The move to sweep after the check (null: none), and the sweep's own request number. */
+  sweep?: { index: number | null; id: number };
+  /** False when the page already has this plan's report and wants only the sweep. */
+  reportWanted?: boolean;
 }
 
+/** The sweep's answer: the sweep (null: nothing to sweep) or why it failed. */
+export type SweepReply = { sweepId: number; sweep: MoveSweep | null } | { sweepId: number; sweepError: string };
+
 self.onmessage = (event: MessageEvent<CheckRequest>) => {
-  const { id, plan } = event.data;
+  const { id, plan, sweep, reportWanted = true } = event.data;
   const t0 = performance.now();
+  let report: Report;
   try {
-    const report = check(plan);
-    self.postMessage({ id, report, elapsedMs: performance.now() - t0 });
+    report = check(plan);
   } catch (err) {
-    self.postMessage({ id, error: err instanceof Error ? err.message : String(err) });
+    if (reportWanted) self.postMessage({ id, error: err instanceof Error ? err.message : String(err) });
+    if (sweep) self.postMessage({ sweepId: sweep.id, sweepError: "the check failed" } satisfies SweepReply);
+    return;
   }
+  if (reportWanted) self.postMessage({ id, report, elapsedMs: performance.now() - t0 });
+  if (!sweep) return;
+  let reply: SweepReply;
+  try {
+    reply = { sweepId: sweep.id, sweep: sweep.index === null ? null : sweepOfMove(plan, report, sweep.index) };
+  } catch (err) {
+    reply = { sweepId: sweep.id, sweepError: err instanceof Error ? err.message : String(err) };
+  }
+  self.postMessage(reply);
 };

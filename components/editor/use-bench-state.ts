@@ -70,7 +70,7 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
   // The plan as the check sees it: its own arm, or the arm tightened by the course's rules.
   const checked = useMemo(() => (checkArm ? { ...plan, arm: checkArm(plan.arm) } : plan), [plan, checkArm]);
   const live = useMemo(() => runLiveCheck(checked), [checked]);
-  const full = useFullCheck(checked);
+  const full = useFullCheck(checked, selected === "start" ? null : selected);
   // the joint checks answer at once; the full report (arm model included) replaces them when it lands
   const report = full.report ?? live.report;
   const fixes: QuickFixes | null = full.report ? full.fixes : null;

@@ -1,13 +1,14 @@
 "use client";
-import { memo, useDeferredValue, useMemo } from "react";
+import { memo, useMemo } from "react";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, XAxis, YAxis } from "recharts";
 import { verdictLook } from "@/components/ui/verdict-chip";
-import { moveTimingSweep, type Plan } from "@/kinematics";
+import type { Plan } from "@/kinematics";
 import { hintFor } from "@/lib/shared/glossary";
 import { LIMIT_LINE_OPACITY, TRACE_WIDTH } from "./plot-style";
+import type { LastSweep } from "@/components/editor/use-full-check";
+import { sweepInputs } from "./duration-sweep";
 
-/** Durations the chart evaluates (each one a peak evaluation of the move's path). */
-const sweepSteps = 48;
+export { sweepInputs } from "./duration-sweep";
 
 export interface SweepChartProps {
   /** The plan as it is checked (an assignment's tightened arm included). */
@@ -18,65 +19,60 @@ export interface SweepChartProps {
   /** The report's shortest passing duration (every timing check); `null` when no duration passes. */
   minSafeS: number | null;
   currentS: number;
-}
-
-/**
- * Everything the sweep of move `index` depends on, as one string: the arm, the plan-level limits,
- * the move's start (the previous goal), goal and shape, and the marks. Equal strings, equal sweeps.
- */
-export function sweepInputs(plan: Plan, index: number, minSafeS: number | null, currentS: number): string {
-  const move = plan.moves[index];
-  return JSON.stringify([
-    plan.arm,
-    plan.payload,
-    plan.keepOut,
-    plan.surfaceMargin,
-    plan.maxToolSpeed,
-    index === 0 ? plan.start : plan.moves[index - 1]?.goal,
-    move?.goal,
-    move?.shape,
-    minSafeS,
-    currentS,
-  ]);
+  /** Whether `minSafeS` comes from the full report of this plan (not the joint checks alone). */
+  ready: boolean;
+  /** The latest sweep the check worker answered (use-full-check.ts), of this plan or an earlier one. */
+  sweep: LastSweep | null;
 }
 
 /**
  * The duration sweep of one move as a chart: the engine's worst peak-to-limit ratio over every
  * timing-dependent check (speed, acceleration, effort, tool speed) against duration, the limit and
- * caution lines, the shortest safe and current durations marked. Ratio 1 is the limit.
+ * caution lines, the shortest safe and current durations marked. Ratio 1 is the limit. The check
+ * worker sweeps the selected move after each report (duration-sweep.ts); a sweep of an earlier plan
+ * is still this move's when the arm, the plan-level limits and this move's path are the same (an edit
+ * of another move), and is otherwise shown faded, marked pending, until the new one arrives.
  */
-export function SweepChart(props: SweepChartProps) {
-  // The sweep trails the edit (the findings and plots come first): it is drawn from deferred props,
-  // all from the same render.
-  const plan = useDeferredValue(props.plan);
-  const index = useDeferredValue(props.index);
-  const minSafeS = useDeferredValue(props.minSafeS);
-  const currentS = useDeferredValue(props.currentS);
-  const cautionRatio = props.cautionRatio;
-  // The sweep depends on the arm, the plan-level limits and this move's path (its start, goal and
-  // shape), not on the other moves: an edit elsewhere in the plan neither sweeps nor redraws it again.
-  const inputs = sweepInputs(plan, index, minSafeS, currentS);
-  const data = useMemo(() => {
-    const safe = minSafeS ?? currentS;
-    const hi = Math.max(safe * 3, currentS * 1.2, 0.2);
-    const lo = Math.max(safe * 0.5, 0.01);
-    const durations = Array.from({ length: sweepSteps + 1 }, (_, k) => lo + ((hi - lo) * k) / sweepSteps);
-    return moveTimingSweep(plan, index, durations).map((p) => ({ d: p.durationS, r: Math.min(p.ratio, 2.5) }));
-    // plan is read only through what `inputs` holds (see above)
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [inputs, index]);
+export function SweepChart({ plan, index, cautionRatio, minSafeS, currentS, ready, sweep }: SweepChartProps) {
+  const ofThisMove = sweep !== null && sweep.index === index;
+  const current =
+    ofThisMove &&
+    sweepInputs(sweep.plan, index, sweep.plan.moves[index]?.duration ?? NaN) === sweepInputs(plan, index, currentS);
+  const shown = ofThisMove ? sweep.sweep : null;
+  const data = useMemo(() => shown?.points.map((p) => ({ d: p.d, r: Math.min(p.r, 2.5) })) ?? null, [shown]);
   const checks = plan.arm.chain ? "speed, acceleration, effort, tool speed" : "speed and acceleration: no geometry";
-  if (minSafeS === null) {
+  if (ready && minSafeS === null) {
     return (
       <p className="text-xs text-fault" data-testid="sweep-no-duration">
         No duration of this move passes every check: the findings say what would fix it.
       </p>
     );
   }
-  if (!(minSafeS > 0))
+  if (ready && !(minSafeS !== null && minSafeS > 0))
     return <p className="text-xs text-ink-soft">This move does not change any joint, so any duration passes.</p>;
+  if (current && sweep.error)
+    return (
+      <p role="alert" className="text-xs text-fault">
+        The duration sweep could not be computed ({sweep.error}). The findings and the shortest safe duration still
+        hold.
+      </p>
+    );
+  if (!shown || !data)
+    return (
+      <p className="flex h-36 items-center justify-center text-xs text-ink-soft" data-pending="sweep">
+        Sweeping the durations of this move…
+      </p>
+    );
   return (
-    <SweepFigure data={data} checks={checks} cautionRatio={cautionRatio} minSafeS={minSafeS} currentS={currentS} />
+    <div data-pending={current ? undefined : "sweep"} className={current ? undefined : "opacity-60"}>
+      <SweepFigure
+        data={data}
+        checks={checks}
+        cautionRatio={cautionRatio}
+        minSafeS={shown.minSafeS}
+        currentS={shown.currentS}
+      />
+    </div>
   );
 }
 

@@ -79,24 +79,31 @@ function AnimatedArm({
   timeline,
   linkSeverity,
   playhead,
+  software,
 }: {
   chain: ArmChain;
   compiled: CompiledChain;
   timeline: Timeline;
   linkSeverity: StageProps["linkSeverity"];
   playhead: Playhead;
+  /** Drawn in software: Lambert shading, far cheaper per pixel than the physically based one. */
+  software: boolean;
 }) {
   const linkCount = compiled.jointCount + 1;
   const groups = useRef<(THREE.Group | null)[]>([]);
   const tip = useRef<THREE.Mesh>(null);
   const materials = useMemo(
     () =>
-      Array.from(
-        { length: linkCount },
-        (_, i) =>
-          new THREE.MeshStandardMaterial({ color: i === 0 ? BASE_COLOR : LINK_COLOR, roughness: 0.55, metalness: 0.1 }),
+      Array.from({ length: linkCount }, (_, i) =>
+        software
+          ? new THREE.MeshLambertMaterial({ color: i === 0 ? BASE_COLOR : LINK_COLOR })
+          : new THREE.MeshStandardMaterial({
+              color: i === 0 ? BASE_COLOR : LINK_COLOR,
+              roughness: 0.55,
+              metalness: 0.1,
+            }),
       ),
-    [linkCount],
+    [linkCount, software],
   );
   const work = useMemo(
     () => ({
@@ -242,8 +249,34 @@ function KeepOut({ box, touched }: { box: KeepOutBox; touched: boolean }) {
   );
 }
 
-/** The work surface (z = 0 in the arm's base frame) with a 5 cm grid. */
-function WorkSurface() {
+/**
+ * The work surface (z = 0 in the arm's base frame) with a 5 cm grid. Drawn in software, the surface is
+ * unlit and the grid is plain lines: the shaded plane and the grid's shader cover most of the view, and
+ * without a GPU every pixel of them costs the page's thread.
+ */
+function WorkSurface({ software }: { software: boolean }) {
+  const lines = useMemo(() => (software ? surfaceGridLines() : null), [software]);
+  useEffect(
+    () => () =>
+      lines?.forEach((l) => {
+        l.geometry.dispose();
+        (l.material as THREE.Material).dispose();
+      }),
+    [lines],
+  );
+  if (lines) {
+    return (
+      <group>
+        <mesh position={[0, 0, -0.0015]}>
+          <planeGeometry args={[1.6, 1.6]} />
+          <meshBasicMaterial color="#ebe7dc" />
+        </mesh>
+        {lines.map((l, i) => (
+          <primitive key={i} object={l} />
+        ))}
+      </group>
+    );
+  }
   return (
     <group>
       <mesh position={[0, 0, -0.0015]} receiveShadow>
@@ -263,6 +296,24 @@ function WorkSurface() {
       />
     </group>
   );
+}
+
+/** The surface grid as line segments in the z = 0 plane: 5 cm cells, 25 cm sections, 1.6 m square. */
+function surfaceGridLines(): THREE.LineSegments[] {
+  const half = 0.8;
+  const cells: number[] = [];
+  const sections: number[] = [];
+  for (let k = -16; k <= 16; k++) {
+    const v = k * 0.05;
+    const into = k % 5 === 0 ? sections : cells;
+    into.push(-half, v, 0, half, v, 0, v, -half, 0, v, half, 0);
+  }
+  const segments = (points: number[], color: string) => {
+    const geometry = new THREE.BufferGeometry();
+    geometry.setAttribute("position", new THREE.Float32BufferAttribute(points, 3));
+    return new THREE.LineSegments(geometry, new THREE.LineBasicMaterial({ color }));
+  };
+  return [segments(cells, "#c9c3b3"), segments(sections, "#9c9483")];
 }
 
 /** How far the arm can reach from its base (m): the chain's link offsets and the tool point, added up. */
@@ -305,7 +356,7 @@ export default memo(function Stage({ chain, joints, timeline, ghosts, linkSeveri
       <directionalLight position={[1.2, -1.5, 2.2]} intensity={1.6} />
       <directionalLight position={[-1.5, 1, 1]} intensity={0.5} />
       <Invalidator playhead={playhead} />
-      <WorkSurface />
+      <WorkSurface software={software} />
       {keepOut?.map((b, i) => (
         <KeepOut key={i} box={b} touched={touched[i] ?? false} />
       ))}
@@ -319,6 +370,7 @@ export default memo(function Stage({ chain, joints, timeline, ghosts, linkSeveri
         timeline={timeline}
         linkSeverity={linkSeverity}
         playhead={playhead}
+        software={software}
       />
       <OrbitControls makeDefault target={view.target} enableDamping={false} />
     </Canvas>

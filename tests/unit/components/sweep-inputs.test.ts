@@ -1,10 +1,11 @@
 // The duration sweep is computed again only when what it depends on changes (sweepInputs): an edit of
-// another move must leave both the key and the engine's sweep unchanged, an edit of this move's path
-// or of the arm must change the key. The engine's own sweep is the reference for "unchanged".
+// another move must leave the key, the engine's sweep and the move's shortest safe duration (which
+// sets the sweep's range and is not in the key) unchanged; an edit of this move's path or of the arm
+// must change the key. The engine's own sweep and check are the reference for "unchanged".
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { moveTimingSweep, parsePlan, type Plan } from "@/kinematics";
-import { sweepInputs } from "@/components/plots/sweep-chart";
+import { check, moveTimingSweep, parsePlan, type Plan } from "@/kinematics";
+import { sweepInputs } from "@/components/plots/duration-sweep";
 import { heavyPlan } from "@/bench/plans";
 
 function parse(doc: unknown): Plan {
@@ -29,9 +30,10 @@ describe("sweepInputs", () => {
             i !== other ? m : i > 2 ? { ...m, goal: m.goal.map((g) => g + nudge), duration } : { ...m, duration },
           );
           const edited = parse({ ...base, moves });
-          const key = (p: Plan) => sweepInputs(p, 2, 1, p.moves[2].duration);
+          const key = (p: Plan) => sweepInputs(p, 2, p.moves[2].duration);
           expect(key(edited)).toBe(key(plan));
           expect(moveTimingSweep(edited, 2, durations)).toEqual(moveTimingSweep(plan, 2, durations));
+          expect(check(edited).moves[2].minSafeDuration).toBe(check(plan).moves[2].minSafeDuration);
         },
       ),
       { numRuns: 25, seed: 3 },
@@ -40,7 +42,7 @@ describe("sweepInputs", () => {
 
   it("an edit of the previous goal, this goal or shape, the payload or a joint limit changes the key (and the sweep)", () => {
     const plan = parse(base);
-    const key = (p: Plan) => sweepInputs(p, 2, 1, 2);
+    const key = (p: Plan) => sweepInputs(p, 2, 2);
     const nudged = (i: number) => base.moves.map((m, k) => (k === i ? { ...m, goal: m.goal.map((g) => g + 0.05) } : m));
     const variants: Plan[] = [
       parse({ ...base, moves: nudged(1) }),
@@ -52,6 +54,7 @@ describe("sweepInputs", () => {
         arm: { ...base.arm, joints: base.arm.joints.map((j, k) => (k === 1 ? { ...j, maxEffort: 9 } : j)) },
       }),
     ];
+    expect(sweepInputs(plan, 2, 2.5)).not.toBe(key(plan)); // the current duration sets the range
     for (const v of variants) {
       expect(key(v)).not.toBe(key(plan));
       expect(moveTimingSweep(v, 2, durations)).not.toEqual(moveTimingSweep(plan, 2, durations));
