@@ -226,13 +226,13 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
               ) : state.canRender3d ? (
                 <StageErrorBoundary>
                   <Stage
-                    chain={state.chain}
-                    joints={plan.arm.joints}
-                    timeline={deferred.timeline}
-                    ghosts={state.ghosts}
-                    linkSeverity={state.linkSeverity}
-                    keepOut={plan.keepOut}
-                    findings={state.clearanceFindings}
+                    chain={state.stage.chain}
+                    joints={state.stage.joints}
+                    timeline={state.stage.timeline}
+                    ghosts={state.stage.ghosts}
+                    linkSeverity={state.stage.linkSeverity}
+                    keepOut={state.stage.keepOut}
+                    findings={state.stage.clearanceFindings}
                   />
                 </StageErrorBoundary>
               ) : (

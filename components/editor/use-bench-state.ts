@@ -175,6 +175,35 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
     return g;
   }, [plan.start, goal]);
 
+  // The 3D view is drawn for a plan once its full check (and the selected move's sweep) has answered,
+  // or failed: without a GPU one frame of it costs the page's thread 30–60 ms, and the findings, plots
+  // and sweep come first. Until then it keeps the plan it shows (the first plan: at once).
+  const sweepIndex = selected === "start" ? null : selected;
+  const figuresIn =
+    full.error !== null ||
+    (full.report !== null &&
+      (sweepIndex === null || (full.lastSweep?.plan === checked && full.lastSweep.index === sweepIndex)));
+  const stageNow = {
+    chain,
+    joints: plan.arm.joints,
+    timeline,
+    ghosts,
+    linkSeverity,
+    clearanceFindings,
+    keepOut: plan.keepOut,
+  };
+  const [stage, setStage] = useState(stageNow);
+  const stageBehind =
+    stage.chain !== chain ||
+    stage.joints !== plan.arm.joints ||
+    stage.timeline !== timeline ||
+    stage.ghosts !== ghosts ||
+    stage.linkSeverity !== linkSeverity ||
+    stage.clearanceFindings !== clearanceFindings ||
+    stage.keepOut !== plan.keepOut;
+  // set while rendering (React's pattern for state that follows props): no extra commit
+  if (figuresIn && stageBehind) setStage(stageNow);
+
   const copyCurrent = useCallback(() => {
     const out = new Float64Array(plan.arm.joints.length);
     poseAt(timeline, playhead.get().timeS, out, createPoseScratch(out.length));
@@ -214,6 +243,7 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
     linkSeverity,
     clearanceFindings,
     ghosts,
+    stage,
     copyCurrent,
     startVerdict,
   };

@@ -1,8 +1,11 @@
 "use client";
-import { Edges, Grid, Line, OrbitControls } from "@react-three/drei";
+import { Edges, Grid, OrbitControls } from "@react-three/drei";
 import { Canvas, useFrame, useThree } from "@react-three/fiber";
 import { memo, useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
+import { Line2 } from "three/examples/jsm/lines/Line2.js";
+import { LineGeometry } from "three/examples/jsm/lines/LineGeometry.js";
+import { LineMaterial } from "three/examples/jsm/lines/LineMaterial.js";
 import {
   type ArmChain,
   type Finding,
@@ -215,21 +218,34 @@ function GhostArm({
   );
 }
 
-/** The tool point's path over the whole plan, sampled at up to 100 Hz. */
+/**
+ * The tool point's path over the whole plan, sampled at up to 100 Hz, as a 2 px line. Its material
+ * lives as long as the view: a line component that disposes its material with each new path makes
+ * the renderer compile the line's shaders again on every edit (tens of milliseconds without a GPU).
+ */
 function ToolPath({ compiled, timeline }: { compiled: CompiledChain; timeline: Timeline }) {
-  const points = useMemo(() => {
+  const size = useThree((s) => s.size);
+  const material = useMemo(() => new LineMaterial({ color: toolPathColor, linewidth: 2 }), []);
+  useEffect(() => () => material.dispose(), [material]);
+  useLayoutEffect(() => {
+    material.resolution.set(size.width, size.height);
+  }, [material, size]);
+  const line = useMemo(() => {
     const rate = timeline.totalS > 0 ? Math.min(100, 3000 / timeline.totalS) : 1;
     const s = sampleTimeline(timeline, rate);
+    if (s.count < 2) return null;
     const buffers = createChainBuffers(compiled);
-    const out: [number, number, number][] = [];
+    const positions = new Float32Array(3 * s.count);
     for (let k = 0; k < s.count; k++) {
       const t = forwardKinematics(compiled, s.position, buffers, k * s.jointCount);
-      out.push([t[12], t[13], t[14]]);
+      positions.set([t[12], t[13], t[14]], 3 * k);
     }
-    return out;
-  }, [compiled, timeline]);
-  if (points.length < 2) return null;
-  return <Line points={points} color={toolPathColor} lineWidth={2} />;
+    const geometry = new LineGeometry();
+    geometry.setPositions(positions);
+    return new Line2(geometry, material);
+  }, [compiled, timeline, material]);
+  useEffect(() => () => line?.geometry.dispose(), [line]);
+  return line ? <primitive object={line} /> : null;
 }
 
 function KeepOut({ box, touched }: { box: KeepOutBox; touched: boolean }) {
