@@ -174,6 +174,41 @@ describe("pages at 1440×900", () => {
     await shot(page, "try-out-bench-sweep");
   });
 
+  it("try-out bench: an edit draws the 3D view again without compiling any shader again", async () => {
+    const { page } = s;
+    // count WebGL program links from the page's first script on (three.js links one per material kind)
+    await page.addInitScript(() => {
+      const w = window as unknown as { jpLinks: number };
+      w.jpLinks = 0;
+      for (const C of [WebGLRenderingContext, WebGL2RenderingContext]) {
+        const link = C.prototype.linkProgram;
+        C.prototype.linkProgram = function (this: WebGLRenderingContext, program: WebGLProgram) {
+          w.jpLinks++;
+          return link.call(this, program);
+        };
+      }
+    });
+    await page.goto("/bench");
+    const drawn = async () => {
+      await page.getByText("Full check in a worker").first().waitFor();
+      await page.waitForFunction(() => document.querySelector("[data-pending]") === null);
+      // the view draws in the frames after the figures: give it a few
+      await page.evaluate(
+        () => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(() => setTimeout(r, 300)))),
+      );
+      return page.evaluate(() => (window as unknown as { jpLinks: number }).jpLinks);
+    };
+    const first = await drawn();
+    expect(first).toBeGreaterThan(0); // the 3D view was drawn
+    const duration = page.getByLabel("Move 1 duration (s)");
+    // the try-out plan's other moves take 0.9 + 1.2 + 1.5 s: the transport's total shows each edit arrived
+    for (const value of [1.7, 1.8, 1.65]) {
+      await duration.fill(value.toFixed(3));
+      await page.getByText(`/ ${(value + 3.6).toFixed(3)} s`).waitFor();
+      expect(await drawn()).toBe(first);
+    }
+  });
+
   it("an unknown address answers 404 with our own page and a way on", async () => {
     const { page } = s;
     const res = await page.goto("/no-such-page");
