@@ -233,6 +233,7 @@ export function Bench({ initialPlan, meta, actions, banner, planId, onPlanChange
                     linkSeverity={state.stage.linkSeverity}
                     keepOut={state.stage.keepOut}
                     findings={state.stage.clearanceFindings}
+                    hold={state.stageHold}
                   />
                 </StageErrorBoundary>
               ) : (

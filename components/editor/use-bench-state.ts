@@ -114,7 +114,8 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
       setSelected(target);
       if (target !== "start") {
         playhead.pause();
-        playhead.seek(timeline.startS[target] ?? 0);
+        // a move just added is not in this timeline yet: it starts where this one ends
+        playhead.seek(timeline.startS[target] ?? timeline.totalS);
       }
     },
     [playhead, timeline],
@@ -203,6 +204,7 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
     stage.keepOut !== plan.keepOut;
   // set while rendering (React's pattern for state that follows props): no extra commit
   if (figuresIn && stageBehind) setStage(stageNow);
+  const stageHold = stageBehind && !figuresIn;
 
   const copyCurrent = useCallback(() => {
     const out = new Float64Array(plan.arm.joints.length);
@@ -244,6 +246,7 @@ export function useBenchState(initialPlan: BenchPlan, { onPlanChange, checkArm }
     clearanceFindings,
     ghosts,
     stage,
+    stageHold,
     copyCurrent,
     startVerdict,
   };

@@ -37,6 +37,8 @@ export interface StageProps {
   keepOut?: readonly KeepOutBox[];
   /** The plan's findings: a keep-out box a clearance finding names is drawn in the fault colour, the rest neutral. */
   findings?: readonly Finding[];
+  /** Set while the page waits for a changed plan's figures: playhead moves are drawn when it is cleared. */
+  hold?: boolean;
 }
 
 const LINK_COLOR = new THREE.Color("#d6d2c8");
@@ -60,17 +62,40 @@ function useCompiled(chain: ArmChain, joints: readonly Joint[]): CompiledChain {
 /**
  * Re-renders the canvas (frameloop "demand") whenever the playhead moves. A new plan length alone
  * (an edit of a duration) draws nothing: without a GPU a frame costs the page tens of milliseconds.
+ * The frame is asked for in the next animation frame, and not while `hold` is set (the plan has
+ * changed and the view waits for its figures): a seek that comes with an edit (a new move selected)
+ * is then drawn once, with the new plan, when the hold is released.
  */
-function Invalidator({ playhead }: { playhead: Playhead }) {
+function Invalidator({ playhead, hold }: { playhead: Playhead; hold: boolean }) {
   const invalidate = useThree((s) => s.invalidate);
+  const held = useRef(hold);
+  const owed = useRef(false);
+  useLayoutEffect(() => {
+    held.current = hold;
+    if (!hold && owed.current) {
+      owed.current = false;
+      invalidate();
+    }
+  }, [hold, invalidate]);
   useEffect(() => {
     let shown = playhead.get().timeS;
-    return playhead.subscribe(() => {
+    let frame = 0;
+    const unsubscribe = playhead.subscribe(() => {
       const { timeS } = playhead.get();
       if (timeS === shown) return;
       shown = timeS;
-      invalidate();
+      if (frame) return;
+      // by the next frame the page has rendered the input that moved the playhead, and set `hold`
+      frame = requestAnimationFrame(() => {
+        frame = 0;
+        if (held.current) owed.current = true;
+        else invalidate();
+      });
     });
+    return () => {
+      unsubscribe();
+      cancelAnimationFrame(frame);
+    };
   }, [playhead, invalidate]);
   return null;
 }
@@ -342,7 +367,16 @@ function reachOf(chain: ArmChain): number {
  * The 3D view: arm, ghosts, tool path, work surface and keep-out zones, with orbit controls. Memoised:
  * a page that re-renders with the same props does not draw a new frame.
  */
-export default memo(function Stage({ chain, joints, timeline, ghosts, linkSeverity, keepOut, findings }: StageProps) {
+export default memo(function Stage({
+  chain,
+  joints,
+  timeline,
+  ghosts,
+  linkSeverity,
+  keepOut,
+  findings,
+  hold = false,
+}: StageProps) {
   const playhead = usePlayheadStore();
   const compiled = useCompiled(chain, joints);
   // without a GPU every frame is drawn in software: fewer pixels, no multisampling
@@ -371,7 +405,7 @@ export default memo(function Stage({ chain, joints, timeline, ghosts, linkSeveri
       <ambientLight intensity={0.75} />
       <directionalLight position={[1.2, -1.5, 2.2]} intensity={1.6} />
       <directionalLight position={[-1.5, 1, 1]} intensity={0.5} />
-      <Invalidator playhead={playhead} />
+      <Invalidator playhead={playhead} hold={hold} />
       <WorkSurface software={software} />
       {keepOut?.map((b, i) => (
         <KeepOut key={i} box={b} touched={touched[i] ?? false} />
