@@ -3,12 +3,12 @@
  * The full live check off the main thread: the arm model's checks (effort along the moves,
  * clearance, tool speed) can take more than a frame on a long plan. This worker only checks, so an
  * edit's report never waits behind the quick fixes of an earlier edit (fixes.worker.ts finds those).
- * Right after the report it sweeps the selected move's durations (duration-sweep.ts), while the
- * move's path terms are still in the engine's cache; a request with `reportWanted: false` (only the
- * selection changed) answers with the sweep alone.
+ * With the report it sends the selected move's duration sweep (duration-sweep.ts), swept while the
+ * move's path terms are still in the engine's cache, in the same message; a request with
+ * `reportWanted: false` (only the selection changed) answers with the sweep alone.
  */
 import { check, type Report } from "@/kinematics";
-import { sweepOfMove, type MoveSweep } from "@/components/plots/duration-sweep";
+import { sweepInputs, sweepOfMove, type MoveSweep } from "@/components/plots/duration-sweep";
 import type { BenchPlan } from "./plan-state";
 
 export interface CheckRequest {
@@ -23,6 +23,18 @@ export interface CheckRequest {
 /** The sweep's answer: the sweep (null: nothing to sweep) or why it failed. */
 export type SweepReply = { sweepId: number; sweep: MoveSweep | null } | { sweepId: number; sweepError: string };
 
+/** The last sweep, answered again while its inputs are the same (an edit of another move). */
+let lastSweep: MoveSweep | null = null;
+
+function sweepOnce(plan: BenchPlan, report: Report, index: number): MoveSweep | null {
+  const move = plan.moves[index];
+  if (lastSweep && move && lastSweep.index === index && lastSweep.inputs === sweepInputs(plan, index, move.duration))
+    return lastSweep;
+  const sweep = sweepOfMove(plan, report, index);
+  if (sweep) lastSweep = sweep;
+  return sweep;
+}
+
 self.onmessage = (event: MessageEvent<CheckRequest>) => {
   const { id, plan, sweep, reportWanted = true } = event.data;
   const t0 = performance.now();
@@ -34,13 +46,16 @@ self.onmessage = (event: MessageEvent<CheckRequest>) => {
     if (sweep) self.postMessage({ sweepId: sweep.id, sweepError: "the check failed" } satisfies SweepReply);
     return;
   }
-  if (reportWanted) self.postMessage({ id, report, elapsedMs: performance.now() - t0 });
-  if (!sweep) return;
-  let reply: SweepReply;
-  try {
-    reply = { sweepId: sweep.id, sweep: sweep.index === null ? null : sweepOfMove(plan, report, sweep.index) };
-  } catch (err) {
-    reply = { sweepId: sweep.id, sweepError: err instanceof Error ? err.message : String(err) };
+  const elapsedMs = performance.now() - t0;
+  let reply: SweepReply | null = null;
+  if (sweep) {
+    try {
+      reply = { sweepId: sweep.id, sweep: sweep.index === null ? null : sweepOnce(plan, report, sweep.index) };
+    } catch (err) {
+      reply = { sweepId: sweep.id, sweepError: err instanceof Error ? err.message : String(err) };
+    }
   }
-  self.postMessage(reply);
+  // the report and the sweep in one message: the page draws them in one render
+  if (reportWanted) self.postMessage({ id, report, elapsedMs, ...reply });
+  else if (reply) self.postMessage(reply);
 };

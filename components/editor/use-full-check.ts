@@ -76,11 +76,12 @@ export function useFullCheck(plan: BenchPlan, sweepIndex: number | null): FullCh
       if (!("sweepId" in reply) || reply.sweepId !== sweepLatest.current) return;
       const sent = sweepSent.current;
       if (!sent) return;
-      setLastSweep(
-        "sweepError" in reply
-          ? { plan: sent.plan, index: sent.index, sweep: null, error: reply.sweepError }
-          : { plan: sent.plan, index: sent.index, sweep: reply.sweep, error: null },
-      );
+      setLastSweep((last) => {
+        if ("sweepError" in reply) return { plan: sent.plan, index: sent.index, sweep: null, error: reply.sweepError };
+        // the same sweep as before (an edit of another move): kept by identity, so the chart is not drawn again
+        const same = last?.sweep && reply.sweep && last.sweep.inputs === reply.sweep.inputs;
+        return { plan: sent.plan, index: sent.index, sweep: same ? last.sweep : reply.sweep, error: null };
+      });
     };
     w.addEventListener("message", onSweep);
     worker.current = w;
